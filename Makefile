@@ -1,0 +1,59 @@
+# Lixiv build and test entry points. `make serve` and `make test` are the two
+# commands the README promises; both set up what they need themselves.
+
+GO      ?= go
+GOROOT  := $(shell $(GO) env GOROOT)
+WASMEXEC := $(GOROOT)/lib/wasm/go_js_wasm_exec
+ADDR    ?= 127.0.0.1:8080
+DIST    := web/dist
+FUZZTIME ?= 3s
+ENGINE_PKGS = $$($(GO) list ./engine/... | grep -v /cmd/)
+
+.PHONY: all build serve test vet unit wasmtest fuzz-short fuzz browser chromium bench deps-check clean
+
+all: build
+
+# build: the page (vugu components, wasm bundle, static assets) into web/dist.
+build:
+	bash scripts/build.sh $(DIST)
+
+serve: build
+	$(GO) run ./engine/cmd/lixiv serve -addr $(ADDR) -dir $(DIST)
+
+test: vet deps-check unit wasmtest fuzz-short browser
+
+vet:
+	$(GO) vet ./...
+
+# deps-check: the engine never imports syscall/js, vugu or the page.
+deps-check:
+	@bad=$$($(GO) list -deps ./engine/... | grep -E '^(syscall/js|github.com/vugu/|lixiv/web|lixiv/wasm)' || true); \
+	if [ -n "$$bad" ]; then echo "engine/ must stay pure Go, but imports: $$bad"; exit 1; fi; echo "deps-check: engine is pure Go"
+
+unit:
+	$(GO) test -count=1 ./...
+
+# wasmtest: the engine tests again, compiled to WebAssembly and run in Node.
+wasmtest:
+	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec="$(WASMEXEC)" $(ENGINE_PKGS)
+
+# fuzz-short: every fuzz target for a few seconds each.
+fuzz-short:
+	bash scripts/fuzz.sh $(FUZZTIME)
+
+# fuzz: long fuzzing, not part of `make test`.
+fuzz:
+	bash scripts/fuzz.sh 2m
+
+chromium:
+	@command -v chromium >/dev/null 2>&1 || (apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y chromium)
+
+# browser: chromedp tests against Debian's Chromium and the built page.
+browser: chromium build
+	$(GO) test -count=1 -tags browser -timeout 10m ./web/browsertest/
+
+bench:
+	$(GO) test -run '^$$' -bench . -benchmem ./engine/...
+
+clean:
+	rm -rf $(DIST)
