@@ -1,0 +1,5 @@
+package mix
+
+import "math"
+
+func nan() float64 { return math.NaN() }
