@@ -1,0 +1,99 @@
+package mix
+
+import (
+	"math"
+	"math/rand/v2"
+	"slices"
+
+	"lixiv/engine/correct"
+)
+
+// fwdStream is the second PCG word of the forward Monte Carlo, so that
+// the forward draws differ from other users of the same seed.
+const fwdStream = 0x666f7277617264 // "forward"
+
+// monteCarlo fills Sigma, Lo, Hi, Clamped and Draws from opt.Draws seeded
+// draws of the silicate ratios.
+func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt *ForwardOptions) {
+	n := opt.Draws
+	rng := rand.New(rand.NewPCG(opt.Seed, fwdStream))
+	res.Draws = make([]Split, n)
+	var clamped [NCations]int
+	var d forwardDraw
+	for k := range n {
+		ca := fwdNormal(rng, rat.CaNa)
+		mg := fwdNormal(rng, rat.MgNa)
+		kk := math.NaN()
+		if opt.KFromRatio {
+			kk = fwdNormal(rng, rat.KNa)
+		}
+		d.run(c, ca, mg, kk, opt.KFromRatio)
+		res.Draws[k] = d.split
+		for i := range clamped {
+			if d.deficit[i] > 0 {
+				clamped[i]++
+			}
+		}
+	}
+	for i := range clamped {
+		res.Clamped[i] = float64(clamped[i]) / float64(n)
+	}
+	col := make([]float64, n)
+	for s := range res.Sigma {
+		for i := range res.Sigma[s] {
+			for k := range res.Draws {
+				col[k] = res.Draws[k][s][i]
+			}
+			res.Sigma[s][i] = fwdStdDev(col)
+			slices.Sort(col)
+			res.Lo[s][i] = fwdQuantile(col, 0.025)
+			res.Hi[s][i] = fwdQuantile(col, 0.975)
+		}
+	}
+}
+
+// fwdNormal draws from N(r.Value, r.Sigma) truncated at zero by
+// redrawing (common practice, no source); after 64 negative draws it
+// returns 0.
+func fwdNormal(rng *rand.Rand, r SilicateRatio) float64 {
+	if r.Sigma == 0 {
+		return r.Value
+	}
+	for range 64 {
+		if x := r.Value + r.Sigma*rng.NormFloat64(); x >= 0 {
+			return x
+		}
+	}
+	return 0
+}
+
+// fwdStdDev returns the sample standard deviation (n − 1), 0 for n < 2.
+func fwdStdDev(x []float64) float64 {
+	if len(x) < 2 {
+		return 0
+	}
+	m := 0.0
+	for _, v := range x {
+		m += v
+	}
+	m /= float64(len(x))
+	ss := 0.0
+	for _, v := range x {
+		ss += (v - m) * (v - m)
+	}
+	return math.Sqrt(ss / float64(len(x)-1))
+}
+
+// fwdQuantile returns the p quantile of sorted x by linear interpolation
+// between order statistics (type 7, common practice).
+func fwdQuantile(x []float64, p float64) float64 {
+	if len(x) == 0 {
+		return math.NaN()
+	}
+	h := p * float64(len(x)-1)
+	lo := int(math.Floor(h))
+	if lo >= len(x)-1 {
+		return x[len(x)-1]
+	}
+	return x[lo] + (h-float64(lo))*(x[lo+1]-x[lo])
+}
