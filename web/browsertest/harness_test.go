@@ -1,0 +1,190 @@
+//go:build browser
+
+package browsertest
+
+import (
+	"context"
+	"fmt"
+	"net"
+	"net/http"
+	"os"
+	"os/exec"
+	"path/filepath"
+	goruntime "runtime"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/runtime"
+	"github.com/chromedp/chromedp"
+)
+
+// repo is the repository root, dist the built page, lixivBin the native
+// command built once for every test.
+var repo, dist, lixivBin string
+
+func TestMain(m *testing.M) {
+	os.Exit(setup(m))
+}
+
+func setup(m *testing.M) int {
+	_, file, _, _ := goruntime.Caller(0)
+	repo = filepath.Clean(filepath.Join(filepath.Dir(file), "..", ".."))
+	dist = filepath.Join(repo, "web", "dist")
+	if _, err := os.Stat(filepath.Join(dist, "main.wasm")); err != nil {
+		fmt.Fprintln(os.Stderr, "browsertest: the page is not built; run `make build` (or `make browser`)")
+		return 1
+	}
+	tmp, err := os.MkdirTemp("", "lixiv-browser")
+	if err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		return 1
+	}
+	defer os.RemoveAll(tmp)
+	lixivBin = filepath.Join(tmp, "lixiv")
+	cmd := exec.Command("go", "build", "-o", lixivBin, "./engine/cmd/lixiv")
+	cmd.Dir = repo
+	if out, err := cmd.CombinedOutput(); err != nil {
+		fmt.Fprintf(os.Stderr, "browsertest: building lixiv: %v\n%s", err, out)
+		return 1
+	}
+	return m.Run()
+}
+
+// server is a running `lixiv serve` on a free loopback port.
+type server struct {
+	URL string
+	cmd *exec.Cmd
+}
+
+// startServer runs the real page server, as `make serve` does, on a port
+// of its own. Stop ends it; the test cleanup stops it too.
+func startServer(t testing.TB) *server {
+	t.Helper()
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	addr := ln.Addr().String()
+	ln.Close()
+	cmd := exec.Command(lixivBin, "serve", "-addr", addr, "-dir", dist)
+	cmd.Stdout, cmd.Stderr = os.Stderr, os.Stderr
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	s := &server{URL: "http://" + addr + "/", cmd: cmd}
+	t.Cleanup(s.Stop)
+	for i := 0; i < 100; i++ {
+		resp, err := http.Get(s.URL + "index.html")
+		if err == nil {
+			resp.Body.Close()
+			return s
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+	t.Fatalf("server at %s did not answer", addr)
+	return nil
+}
+
+// Stop ends the server process.
+func (s *server) Stop() {
+	if s.cmd.Process != nil && s.cmd.ProcessState == nil {
+		s.cmd.Process.Kill()
+		s.cmd.Wait()
+	}
+}
+
+// chromiumPath finds Debian's Chromium.
+func chromiumPath(t testing.TB) string {
+	for _, p := range []string{os.Getenv("CHROMIUM"), "/usr/bin/chromium", "/usr/bin/chromium-browser"} {
+		if p != "" {
+			if _, err := os.Stat(p); err == nil {
+				return p
+			}
+		}
+	}
+	t.Fatal("chromium not found; `make chromium` installs it")
+	return ""
+}
+
+// newBrowser starts a headless Chromium with an empty profile and returns
+// a tab context. Console messages and page errors go to the test log.
+func newBrowser(t testing.TB, profile string) context.Context {
+	t.Helper()
+	if profile == "" {
+		profile = t.TempDir()
+	}
+	opts := []chromedp.ExecAllocatorOption{
+		chromedp.ExecPath(chromiumPath(t)), chromedp.Headless, chromedp.NoSandbox, chromedp.DisableGPU,
+		chromedp.NoFirstRun, chromedp.NoDefaultBrowserCheck,
+		chromedp.Flag("disable-background-networking", true), chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-sync", true), chromedp.Flag("disable-dev-shm-usage", true),
+		chromedp.Flag("disable-quic", true),
+		chromedp.WindowSize(1280, 1000),
+		chromedp.UserDataDir(profile),
+	}
+	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
+	t.Cleanup(cancel)
+	actx, acancel := chromedp.NewExecAllocator(ctx, opts...)
+	t.Cleanup(acancel)
+	tctx, tcancel := chromedp.NewContext(actx)
+	t.Cleanup(tcancel)
+	if err := chromedp.Do(tctx); err != nil {
+		t.Fatalf("starting chromium: %v", err)
+	}
+	console := chromedp.Events(tctx, runtime.ConsoleAPICalled)
+	exceptions := chromedp.Events(tctx, runtime.ExceptionThrown)
+	go func() {
+		for ev, err := range console {
+			if err != nil {
+				return
+			}
+			var parts []string
+			for _, a := range ev.Args {
+				parts = append(parts, strings.Trim(string(a.Value), `"`)+a.Description)
+			}
+			t.Logf("console.%s: %s", ev.Type, strings.Join(parts, " "))
+		}
+	}()
+	go func() {
+		for ev, err := range exceptions {
+			if err != nil {
+				return
+			}
+			d := ev.ExceptionDetails
+			msg := d.Text
+			if d.Exception != nil {
+				msg += " " + d.Exception.Description
+			}
+			t.Logf("page exception: %s", msg)
+		}
+	}()
+	return tctx
+}
+
+// open navigates to url and waits until the page has rendered.
+func open(t testing.TB, ctx context.Context, url string) {
+	t.Helper()
+	if err := chromedp.Do(ctx, chromedp.Navigate(url)); err != nil {
+		t.Fatalf("navigate %s: %v", url, err)
+	}
+	waitReady(t, ctx)
+}
+
+// waitReady waits until the page's first render has marked the body.
+func waitReady(t testing.TB, ctx context.Context) {
+	t.Helper()
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.ready === "1"`, chromedp.WithPollingTimeout(30*time.Second))); err != nil {
+		t.Fatalf("page did not render: %v", err)
+	}
+}
+
+// eval runs a script in the page and returns its value.
+func eval[T any](t testing.TB, ctx context.Context, script string) T {
+	t.Helper()
+	v, err := chromedp.Run(ctx, chromedp.Evaluate[T](script))
+	if err != nil {
+		t.Fatalf("evaluate %q: %v", script, err)
+	}
+	return v
+}
