@@ -1,0 +1,251 @@
+package notebook
+
+import (
+	"context"
+	"errors"
+	"fmt"
+)
+
+// EngineVersion is stored in every file this engine writes; a snapshot
+// computed by another version may differ.
+const EngineVersion = "0.1.0"
+
+// ComputeFunc computes one cell from its settings, table and inputs.
+type ComputeFunc func(e *Env) (*Output, error)
+
+var computers = map[Kind]ComputeFunc{}
+
+// Register sets the function that computes cells of kind k, replacing the
+// built-in one. It is meant for setup code and tests, not for concurrent use.
+func Register(k Kind, f ComputeFunc) { computers[k] = f }
+
+// Progress reports how far a computation has come.
+type Progress struct {
+	Cell  string // id of the cell computing
+	Done  int    // units of work done (for example samples apportioned)
+	Total int    // units of work in all
+}
+
+// Env is what a ComputeFunc sees: the cell, its inputs, a context for
+// cancelling and a progress reporter.
+type Env struct {
+	Ctx      context.Context
+	Cell     *Cell
+	doc      *Document
+	progress func(Progress)
+}
+
+// Input returns the output of the cell filling role, or nil when an optional
+// role is empty.
+func (e *Env) Input(role string) (*Output, error) {
+	for _, r := range e.Cell.Kind.Roles() {
+		if r.Name != role {
+			continue
+		}
+		id, err := e.doc.resolve(e.Cell, r)
+		if err != nil {
+			return nil, err
+		}
+		if id == "" {
+			return nil, nil
+		}
+		return e.doc.outputOf(id)
+	}
+	return nil, fmt.Errorf("notebook: %s cell has no role %q", e.Cell.Kind, role)
+}
+
+// OutputOf returns the output of any cell by id (for charts).
+func (e *Env) OutputOf(id string) (*Output, error) { return e.doc.outputOf(id) }
+
+// Report passes progress to the caller's callback, if any.
+func (e *Env) Report(done, total int) {
+	if e.progress != nil {
+		e.progress(Progress{Cell: e.Cell.ID, Done: done, Total: total})
+	}
+}
+
+func (d *Document) outputOf(id string) (*Output, error) {
+	c := d.Cell(id)
+	if c == nil {
+		return nil, fmt.Errorf("no cell named %q", id)
+	}
+	s := d.st(id)
+	if s.stale {
+		return nil, fmt.Errorf("cell %q has not been computed", id)
+	}
+	if s.err != nil {
+		return nil, &InputError{Cell: id}
+	}
+	return s.out, nil
+}
+
+// InputError says that a cell waits on an input cell that has a problem.
+type InputError struct {
+	Cell string // id of the input cell with the problem
+}
+
+func (e *InputError) Error() string {
+	return fmt.Sprintf("waiting for cell %q, which has a problem", e.Cell)
+}
+
+type cellState struct {
+	out   *Output
+	err   error
+	stale bool
+	runs  int
+}
+
+func (d *Document) st(id string) *cellState {
+	if d.state == nil {
+		d.state = map[string]*cellState{}
+	}
+	s, ok := d.state[id]
+	if !ok {
+		s = &cellState{stale: true}
+		d.state[id] = s
+	}
+	return s
+}
+
+// State says where a cell stands.
+type State int
+
+// Cell states.
+const (
+	Stale    State = iota // not computed since its last change
+	UpToDate              // computed without a problem
+	Waiting               // an input cell has a problem
+	Problem               // failed; see Status.Err
+)
+
+var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem"}
+
+// String returns the state as the page shows it.
+func (s State) String() string { return stateNames[s] }
+
+// Status returns the state of a cell and, for Waiting and Problem, why.
+func (d *Document) Status(id string) (State, error) {
+	c := d.Cell(id)
+	if c == nil {
+		return Problem, fmt.Errorf("no cell named %q", id)
+	}
+	s := d.st(id)
+	var ie *InputError
+	switch {
+	case s.stale:
+		return Stale, nil
+	case s.err == nil:
+		return UpToDate, nil
+	case errors.As(s.err, &ie):
+		return Waiting, s.err
+	}
+	return Problem, s.err
+}
+
+// Output returns the output of a computed cell, or nil when it is stale or
+// has a problem.
+func (d *Document) Output(id string) *Output {
+	if d.Cell(id) == nil {
+		return nil
+	}
+	s := d.st(id)
+	if s.stale || s.err != nil {
+		return nil
+	}
+	return s.out
+}
+
+// Runs returns how many times the cell has been computed since the document
+// was loaded; tests use it to prove an edit reruns only what it must.
+func (d *Document) Runs(id string) int { return d.st(id).runs }
+
+// Pending returns the ids of the stale cells in compute order.
+func (d *Document) Pending() []string {
+	order, err := d.order()
+	if err != nil {
+		return nil
+	}
+	var ids []string
+	for _, c := range order {
+		if d.st(c.ID).stale {
+			ids = append(ids, c.ID)
+		}
+	}
+	return ids
+}
+
+// Step computes the next stale cell and reports whether any remain. The
+// page calls it between frames so that it stays responsive. Only a
+// cancelled context or a cycle is returned as an error; a cell's own
+// problem is kept in its Status.
+func (d *Document) Step(ctx context.Context, progress func(Progress)) (more bool, err error) {
+	pending := d.Pending()
+	if len(pending) == 0 {
+		if _, err := d.order(); err != nil {
+			return false, err
+		}
+		return false, nil
+	}
+	if err := ctx.Err(); err != nil {
+		return true, err
+	}
+	c := d.Cell(pending[0])
+	s := d.st(c.ID)
+	out, cerr := d.computeCell(ctx, c, progress)
+	if ctx.Err() != nil { // cancelled mid-cell: leave it stale
+		return true, ctx.Err()
+	}
+	s.out, s.err, s.stale = out, cerr, false
+	s.runs++
+	return len(pending) > 1, nil
+}
+
+// Recompute computes every stale cell, in dependency order, reusing the
+// results of the others.
+func (d *Document) Recompute(ctx context.Context, progress func(Progress)) error {
+	for {
+		more, err := d.Step(ctx, progress)
+		if err != nil {
+			return err
+		}
+		if !more {
+			return nil
+		}
+	}
+}
+
+// computeCell runs the compute function of c, turning a panic in it into
+// a problem on the cell rather than a crash of the page.
+func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progress)) (out *Output, err error) {
+	if c.Broken() {
+		return nil, fmt.Errorf("this cell could not be read: %s", c.Problem)
+	}
+	f := d.funcs[c.Kind]
+	if f == nil {
+		f = computers[c.Kind]
+	}
+	if f == nil {
+		return nil, fmt.Errorf("no computation for %s cells", c.Kind)
+	}
+	for _, r := range c.Kind.Roles() { // inputs first: a clear message if one is missing or failed
+		id, err := d.resolve(c, r)
+		if err != nil {
+			return nil, err
+		}
+		if id != "" {
+			if _, err := d.outputOf(id); err != nil {
+				return nil, err
+			}
+		}
+	}
+	defer func() {
+		if r := recover(); r != nil {
+			out, err = nil, fmt.Errorf("internal error in the %s computation: %v", c.Kind, r)
+		}
+	}()
+	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress})
+	if err == nil && out == nil {
+		out = &Output{}
+	}
+	return out, err
+}

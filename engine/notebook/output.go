@@ -1,0 +1,107 @@
+package notebook
+
+import "math"
+
+// Output is what a computed cell shows and hands to the cells below it.
+type Output struct {
+	Tables   []*ResultTable // tables for the page, the CSV export and charts
+	Figures  []Figure       // headline figures with their intervals
+	Warnings []string       // problems that did not stop the computation
+	// Value is the typed result cells below read (for example the
+	// apportioned samples); it is not written to files.
+	Value any
+}
+
+// Table returns the output table with the given name, or nil.
+func (o *Output) Table(name string) *ResultTable {
+	if o == nil {
+		return nil
+	}
+	for _, t := range o.Tables {
+		if t.Name == name {
+			return t
+		}
+	}
+	return nil
+}
+
+// Figure returns the headline figure with the given name, or nil.
+func (o *Output) Figure(name string) *Figure {
+	if o == nil {
+		return nil
+	}
+	for i := range o.Figures {
+		if o.Figures[i].Name == name {
+			return &o.Figures[i]
+		}
+	}
+	return nil
+}
+
+// ResultTable is a computed table: named columns of equal length.
+type ResultTable struct {
+	Name    string    // short key, used in chart references ("daily")
+	Title   string    // heading shown above the table
+	Columns []*Column // in display order
+}
+
+// Column returns the column with the given name, or nil.
+func (t *ResultTable) Column(name string) *Column {
+	if t == nil {
+		return nil
+	}
+	for _, c := range t.Columns {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+// Len returns the number of rows.
+func (t *ResultTable) Len() int {
+	if len(t.Columns) == 0 {
+		return 0
+	}
+	return t.Columns[0].Len()
+}
+
+// Column is one column of a result table: numbers (NaN where there is no
+// value) or, for labels and dates, text.
+type Column struct {
+	Name string    // column name, such as "Ca_silicate"
+	Unit string    // unit, such as "µmol/L"; "" for labels and ratios
+	Num  []float64 // numeric values; nil for a text column
+	Text []string  // text values; nil for a numeric column
+}
+
+// Len returns the number of values in the column.
+func (c *Column) Len() int {
+	if c.Text != nil {
+		return len(c.Text)
+	}
+	return len(c.Num)
+}
+
+// NumColumn returns a numeric column.
+func NumColumn(name, unit string, v []float64) *Column {
+	return &Column{Name: name, Unit: unit, Num: v}
+}
+
+// TextColumn returns a text column.
+func TextColumn(name string, v []string) *Column { return &Column{Name: name, Text: v} }
+
+// Figure is a headline number: a median with its 95 % interval (Low and High
+// are NaN when the figure has no interval).
+type Figure struct {
+	Name   string  // such as "silicate CO2 consumption"
+	Unit   string  // such as "mol/km²/yr"
+	Median float64 // central value
+	Low    float64 // 2.5 % bound
+	High   float64 // 97.5 % bound
+}
+
+// Point returns a figure without an interval.
+func Point(name, unit string, v float64) Figure {
+	return Figure{Name: name, Unit: unit, Median: v, Low: math.NaN(), High: math.NaN()}
+}

@@ -1,0 +1,305 @@
+package notebook
+
+import (
+	"fmt"
+	"math"
+)
+
+// Settings are the parameters of one cell. Each kind has its own struct;
+// the JSON key of every field is its name in the file and in SetParam.
+// Fields are float64, int, int64, string, bool or []string.
+type Settings interface {
+	// Kind is the kind of cell the settings belong to.
+	Kind() Kind
+	// Validate reports a value out of its range, naming the key.
+	Validate() error
+}
+
+// SiteSettings describe the catchment above the gauge.
+type SiteSettings struct {
+	Name               string  `json:"name"`                       // catchment name
+	AreaKm2            float64 `json:"area_km2"`                   // area above the gauge, km²
+	AreaUncertainty    float64 `json:"area_uncertainty_percent"`   // 1σ, % of the area
+	Precipitation      float64 `json:"precipitation_mm"`           // mean annual P, mm/yr (0 = unknown)
+	Evapotranspiration float64 `json:"evapotranspiration_mm"`      // mean annual ET, mm/yr (0 = unknown)
+	PeriodStart        string  `json:"period_start"`               // first day of the budget, YYYY-MM-DD ("" = record start)
+	PeriodEnd          string  `json:"period_end"`                 // last day, YYYY-MM-DD ("" = record end)
+	WaterYearStart     int     `json:"water_year_start_month"`     // 1 = calendar year, 10 = October
+	Latitude           float64 `json:"latitude_degrees,omitempty"` // optional, for the reader only
+}
+
+// SamplesSettings control how the sample table is read.
+type SamplesSettings struct {
+	BelowDetection string  `json:"below_detection"`     // "half-limit", "zero", "limit" or "leave-out"
+	DateOrder      string  `json:"date_order"`          // "auto", "day-first" or "month-first"
+	NICBFlag       float64 `json:"nicb_flag_percent"`   // |NICB| above this is flagged
+	NICBReject     float64 `json:"nicb_reject_percent"` // |NICB| above this leaves the sample out
+}
+
+// DischargeSettings control how the daily record is read.
+type DischargeSettings struct {
+	Unit        string `json:"unit"`          // "m3/s", "L/s", "m3/day" or "mm/day"
+	GapFillDays int    `json:"gap_fill_days"` // fill gaps up to this many days linearly (0 = none)
+}
+
+// AtmosphereSettings choose the rain correction.
+type AtmosphereSettings struct {
+	Method           string  `json:"method"`                 // "sea-salt" (Cl-referenced) or "rain" (measured rain × P/(P−ET))
+	NaPerCl          float64 `json:"na_per_cl"`              // (Na/Cl) of rain, mol/mol
+	KPerCl           float64 `json:"k_per_cl"`               // (K/Cl) of rain
+	CaPerCl          float64 `json:"ca_per_cl"`              // (Ca/Cl) of rain
+	MgPerCl          float64 `json:"mg_per_cl"`              // (Mg/Cl) of rain
+	SO4PerCl         float64 `json:"so4_per_cl"`             // (SO4/Cl) of rain
+	SrPerCl          float64 `json:"sr_per_cl"`              // (Sr/Cl) of rain
+	CriticalChloride float64 `json:"critical_chloride_umol"` // Cl*, µmol/L; 0 = from rain, or all Cl atmospheric
+	DryDeposition    float64 `json:"dry_deposition_factor"`  // f_dry ≥ 1 multiplying Cl*
+	ExcessChloride   string  `json:"excess_chloride"`        // "halite" or "human"
+	RatioSource      string  `json:"ratio_source,omitempty"` // where the ratios come from, shown to readers
+}
+
+// SourcesSettings name the end-member preset the table started from.
+type SourcesSettings struct {
+	Preset string `json:"preset"` // "granite", "basalt", "global" or "custom"
+}
+
+// ApportionmentSettings choose the model.
+type ApportionmentSettings struct {
+	Model           string   `json:"model"`              // "inverse" (Monte Carlo) or "forward"
+	Tracers         []string `json:"tracers"`            // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
+	Draws           int      `json:"draws"`              // Monte Carlo draws per sample
+	Seed            int64    `json:"seed"`               // random seed; results depend on it only
+	Sulfate         string   `json:"sulfate"`            // "gypsum", "sulfide" or "split"
+	SulfideFraction float64  `json:"sulfide_fraction"`   // share of excess SO4 from sulfide when sulfate = "split"
+	Negative        string   `json:"negative_residuals"` // "zero-and-flag" or "keep"
+}
+
+// FluxSettings choose the flux estimator and its uncertainty.
+type FluxSettings struct {
+	Estimator            string  `json:"estimator"`                     // "rating-curve", "discharge-weighted" or "interpolation"
+	Seasonal             bool    `json:"seasonal_terms"`                // rating curve with sine and cosine terms
+	BiasCorrection       string  `json:"bias_correction"`               // "smearing", "ferguson" or "none"
+	Bootstrap            int     `json:"bootstrap"`                     // resamples for the interval
+	DischargeUncertainty float64 `json:"discharge_uncertainty_percent"` // 1σ systematic error of Q, %
+	Seed                 int64   `json:"seed"`                          // random seed of the bootstrap
+}
+
+// CO2Settings choose the CO2 accounting.
+type CO2Settings struct {
+	TimeScale   string `json:"time_scale"`   // "short" (years) or "long" (geological)
+	SulfurSplit string `json:"sulfur_split"` // "proportional" or "carbonate"
+}
+
+// NoteSettings hold free text.
+type NoteSettings struct {
+	Text string `json:"text"` // plain text, shown as text
+}
+
+// ChartSettings draw one output column against another. A column is named
+// "cell.table.column", for example "flow.daily.discharge".
+type ChartSettings struct {
+	X     string `json:"x"`     // column on the horizontal axis
+	Y     string `json:"y"`     // column on the vertical axis
+	Style string `json:"style"` // "points" or "line"
+	LogX  bool   `json:"log_x"` // logarithmic horizontal axis
+	LogY  bool   `json:"log_y"` // logarithmic vertical axis
+}
+
+// BrokenSettings stand in for a cell that failed to load.
+type BrokenSettings struct{}
+
+// Kind implements Settings.
+func (*SiteSettings) Kind() Kind { return KindSite }
+
+// Kind implements Settings.
+func (*SamplesSettings) Kind() Kind { return KindSamples }
+
+// Kind implements Settings.
+func (*DischargeSettings) Kind() Kind { return KindDischarge }
+
+// Kind implements Settings.
+func (*AtmosphereSettings) Kind() Kind { return KindAtmosphere }
+
+// Kind implements Settings.
+func (*SourcesSettings) Kind() Kind { return KindSources }
+
+// Kind implements Settings.
+func (*ApportionmentSettings) Kind() Kind { return KindApportionment }
+
+// Kind implements Settings.
+func (*FluxSettings) Kind() Kind { return KindFluxes }
+
+// Kind implements Settings.
+func (*CO2Settings) Kind() Kind { return KindCO2 }
+
+// Kind implements Settings.
+func (*NoteSettings) Kind() Kind { return KindNote }
+
+// Kind implements Settings.
+func (*ChartSettings) Kind() Kind { return KindChart }
+
+// Kind implements Settings.
+func (*BrokenSettings) Kind() Kind { return KindBroken }
+
+// DefaultSettings returns the documented defaults for a new cell of kind k.
+func DefaultSettings(k Kind) Settings {
+	switch k {
+	case KindSite:
+		return &SiteSettings{AreaUncertainty: 2, WaterYearStart: 10} // 2 %: science brief 8.6, common practice
+	case KindSamples:
+		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10} // common practice
+	case KindDischarge:
+		return &DischargeSettings{Unit: "m3/s", GapFillDays: 0}
+	case KindAtmosphere:
+		// Sea-salt ratios to Cl: Millero et al. (2008), Deep-Sea Res. I 55, reference composition.
+		return &AtmosphereSettings{Method: "sea-salt", NaPerCl: 0.859120, KPerCl: 0.0186998, CaPerCl: 0.0188361,
+			MgPerCl: 0.0967577, SO4PerCl: 0.0517252, SrPerCl: 0.000166147, DryDeposition: 1,
+			ExcessChloride: "halite", RatioSource: "seawater, Millero et al. 2008"}
+	case KindSources:
+		return &SourcesSettings{Preset: "global"}
+	case KindApportionment:
+		return &ApportionmentSettings{Model: "inverse", Tracers: []string{"Ca/Na", "Mg/Na", "HCO3/Na"},
+			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag"}
+	case KindFluxes:
+		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 500,
+			DischargeUncertainty: 7, Seed: 1} // 7 %: science brief 8.6, common practice
+	case KindCO2:
+		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional"}
+	case KindNote:
+		return &NoteSettings{}
+	case KindChart:
+		return &ChartSettings{Style: "points"}
+	}
+	return &BrokenSettings{}
+}
+
+// Limits on values a file may ask for, so that a hostile file cannot make the
+// engine run for days or allocate without bound.
+const (
+	MaxDraws     = 1_000_000 // Monte Carlo draws per sample
+	MaxBootstrap = 100_000   // bootstrap resamples
+	MaxRows      = 2_000_000 // rows in one data table
+	MaxColumns   = 1000      // columns in one data table
+	MaxCells     = 10_000    // cells in one budget
+)
+
+func oneOf(key, v string, allowed ...string) error {
+	for _, a := range allowed {
+		if v == a {
+			return nil
+		}
+	}
+	return fmt.Errorf("%s: %q is not one of %q", key, v, allowed)
+}
+
+func inRange(key string, v, lo, hi float64) error {
+	if math.IsNaN(v) || v < lo || v > hi {
+		return fmt.Errorf("%s: %g is outside [%g, %g]", key, v, lo, hi)
+	}
+	return nil
+}
+
+func firstErr(errs ...error) error {
+	for _, e := range errs {
+		if e != nil {
+			return e
+		}
+	}
+	return nil
+}
+
+// Validate implements Settings.
+func (s *SiteSettings) Validate() error {
+	return firstErr(
+		inRange("area_km2", s.AreaKm2, 0, 1e8),
+		inRange("area_uncertainty_percent", s.AreaUncertainty, 0, 100),
+		inRange("precipitation_mm", s.Precipitation, 0, 20000),
+		inRange("evapotranspiration_mm", s.Evapotranspiration, 0, 20000),
+		inRange("water_year_start_month", float64(s.WaterYearStart), 1, 12),
+	)
+}
+
+// Validate implements Settings.
+func (s *SamplesSettings) Validate() error {
+	return firstErr(
+		oneOf("below_detection", s.BelowDetection, "half-limit", "zero", "limit", "leave-out"),
+		oneOf("date_order", s.DateOrder, "auto", "day-first", "month-first"),
+		inRange("nicb_flag_percent", s.NICBFlag, 0, 100),
+		inRange("nicb_reject_percent", s.NICBReject, 0, 1000),
+	)
+}
+
+// Validate implements Settings.
+func (s *DischargeSettings) Validate() error {
+	return firstErr(
+		oneOf("unit", s.Unit, "m3/s", "L/s", "m3/day", "mm/day"),
+		inRange("gap_fill_days", float64(s.GapFillDays), 0, 366),
+	)
+}
+
+// Validate implements Settings.
+func (s *AtmosphereSettings) Validate() error {
+	errs := []error{
+		oneOf("method", s.Method, "sea-salt", "rain"),
+		oneOf("excess_chloride", s.ExcessChloride, "halite", "human"),
+		inRange("critical_chloride_umol", s.CriticalChloride, 0, 1e7),
+		inRange("dry_deposition_factor", s.DryDeposition, 1, 100),
+	}
+	for _, r := range []struct {
+		k string
+		v float64
+	}{{"na_per_cl", s.NaPerCl}, {"k_per_cl", s.KPerCl}, {"ca_per_cl", s.CaPerCl}, {"mg_per_cl", s.MgPerCl},
+		{"so4_per_cl", s.SO4PerCl}, {"sr_per_cl", s.SrPerCl}} {
+		errs = append(errs, inRange(r.k, r.v, 0, 1e4))
+	}
+	return firstErr(errs...)
+}
+
+// Validate implements Settings.
+func (s *SourcesSettings) Validate() error { return nil }
+
+// Validate implements Settings.
+func (s *ApportionmentSettings) Validate() error {
+	err := firstErr(
+		oneOf("model", s.Model, "inverse", "forward"),
+		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide", "split"),
+		oneOf("negative_residuals", s.Negative, "zero-and-flag", "keep"),
+		inRange("draws", float64(s.Draws), 1, MaxDraws),
+		inRange("sulfide_fraction", s.SulfideFraction, 0, 1),
+	)
+	if err != nil {
+		return err
+	}
+	if s.Model == "inverse" && len(s.Tracers) == 0 {
+		return fmt.Errorf("tracers: the inverse model needs at least one tracer")
+	}
+	return nil
+}
+
+// Validate implements Settings.
+func (s *FluxSettings) Validate() error {
+	return firstErr(
+		oneOf("estimator", s.Estimator, "rating-curve", "discharge-weighted", "interpolation"),
+		oneOf("bias_correction", s.BiasCorrection, "smearing", "ferguson", "none"),
+		inRange("bootstrap", float64(s.Bootstrap), 1, MaxBootstrap),
+		inRange("discharge_uncertainty_percent", s.DischargeUncertainty, 0, 100),
+	)
+}
+
+// Validate implements Settings.
+func (s *CO2Settings) Validate() error {
+	return firstErr(
+		oneOf("time_scale", s.TimeScale, "short", "long"),
+		oneOf("sulfur_split", s.SulfurSplit, "proportional", "carbonate"),
+	)
+}
+
+// Validate implements Settings.
+func (s *NoteSettings) Validate() error { return nil }
+
+// Validate implements Settings.
+func (s *ChartSettings) Validate() error {
+	return oneOf("style", s.Style, "points", "line")
+}
+
+// Validate implements Settings.
+func (s *BrokenSettings) Validate() error { return nil }

@@ -1,0 +1,103 @@
+package notebook
+
+import (
+	"fmt"
+	"strings"
+)
+
+// Table is a data table typed or pasted by the user, kept as text so that
+// nothing the laboratory wrote ("<0.01", "n.d.", "0,25") is lost. Columns
+// holds the header names, Units the unit of each column ("" where none) and
+// Rows one slice of cells per data row.
+type Table struct {
+	Columns []string   // column names as written
+	Units   []string   // unit of each column, "" where none
+	Rows    [][]string // cells, row by row
+}
+
+// Clone returns a deep copy of t.
+func (t *Table) Clone() *Table {
+	if t == nil {
+		return nil
+	}
+	c := &Table{
+		Columns: append([]string(nil), t.Columns...),
+		Units:   append([]string(nil), t.Units...),
+		Rows:    make([][]string, len(t.Rows)),
+	}
+	for i, r := range t.Rows {
+		c.Rows[i] = append([]string(nil), r...)
+	}
+	return c
+}
+
+// Column returns the index of the column named name (case-insensitive), or -1.
+func (t *Table) Column(name string) int {
+	for i, c := range t.Columns {
+		if strings.EqualFold(strings.TrimSpace(c), name) {
+			return i
+		}
+	}
+	return -1
+}
+
+// Cell returns row r, column c, or "" when the row is short.
+func (t *Table) Cell(r, c int) string {
+	if r < 0 || r >= len(t.Rows) || c < 0 || c >= len(t.Rows[r]) {
+		return ""
+	}
+	return t.Rows[r][c]
+}
+
+// CSV renders the table as comma-separated text: the header row, then the
+// units row when any unit is set, then the data rows. Cells holding a comma,
+// quote or line break are quoted.
+func (t *Table) CSV() string {
+	var b strings.Builder
+	writeCSVRow(&b, t.Columns)
+	hasUnits := false
+	for _, u := range t.Units {
+		if u != "" {
+			hasUnits = true
+		}
+	}
+	if hasUnits {
+		writeCSVRow(&b, t.Units)
+	}
+	for _, r := range t.Rows {
+		writeCSVRow(&b, r)
+	}
+	return b.String()
+}
+
+func writeCSVRow(b *strings.Builder, cells []string) {
+	for i, c := range cells {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		if strings.ContainsAny(c, ",\"\r\n") {
+			b.WriteByte('"')
+			b.WriteString(strings.ReplaceAll(c, `"`, `""`))
+			b.WriteByte('"')
+		} else {
+			b.WriteString(c)
+		}
+	}
+	b.WriteByte('\n')
+}
+
+// check reports a table whose units row or data rows do not match its header.
+func (t *Table) check() error {
+	if t == nil {
+		return nil
+	}
+	if len(t.Units) != 0 && len(t.Units) != len(t.Columns) {
+		return fmt.Errorf("units row has %d cells for %d columns", len(t.Units), len(t.Columns))
+	}
+	for i, r := range t.Rows {
+		if len(r) > len(t.Columns) {
+			return fmt.Errorf("row %d has %d cells for %d columns", i+1, len(r), len(t.Columns))
+		}
+	}
+	return nil
+}
