@@ -1,0 +1,107 @@
+package discharge
+
+import (
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+)
+
+// The kinds of problem the importer reports. Each Problem wraps one of them.
+var (
+	ErrNotTable      = errors.New("not a table")
+	ErrNoDateColumn  = errors.New("no date column")
+	ErrNoQColumn     = errors.New("no discharge column")
+	ErrNoUnit        = errors.New("no discharge unit")
+	ErrMixedUnits    = errors.New("mixed units")
+	ErrBadDate       = errors.New("not a date")
+	ErrAmbiguousDate = errors.New("ambiguous date order")
+	ErrNotNumber     = errors.New("not a number")
+	ErrNegative      = errors.New("negative discharge")
+	ErrDuplicateDay  = errors.New("duplicated day")
+	ErrUnsorted      = errors.New("dates not in order")
+	ErrShortRow      = errors.New("row too short")
+	ErrSyntax        = errors.New("malformed line")
+)
+
+// Problem is one thing wrong with an imported table, positioned at a row
+// and column of the file. Row and Col count from 1 (the header is row 1 when
+// there is one); 0 means the whole file or the whole row.
+type Problem struct {
+	File   string // file name as given in Options.File, for messages
+	Row    int    // line number in the input, from 1
+	Col    int    // column number, from 1
+	Column string // column name from the header, if any
+	Err    error  // one of the Err* kinds above
+	Detail string // what was found and what was done about it
+}
+
+// Error formats the problem as "file:row:col (column): kind: detail".
+func (p *Problem) Error() string {
+	var b strings.Builder
+	if p.File != "" {
+		b.WriteString(p.File)
+	} else {
+		b.WriteString("input")
+	}
+	if p.Row > 0 {
+		fmt.Fprintf(&b, ":%d", p.Row)
+		if p.Col > 0 {
+			fmt.Fprintf(&b, ":%d", p.Col)
+		}
+	}
+	if p.Column != "" {
+		fmt.Fprintf(&b, " (%s)", p.Column)
+	}
+	fmt.Fprintf(&b, ": %v", p.Err)
+	if p.Detail != "" {
+		b.WriteString(": ")
+		b.WriteString(p.Detail)
+	}
+	return b.String()
+}
+
+// Unwrap returns the kind of problem, so errors.Is(p, ErrNegative) works.
+func (p *Problem) Unwrap() error { return p.Err }
+
+// Problems is a list of import problems. The zero value is an empty list.
+type Problems []*Problem
+
+// Err returns nil for an empty list and the list itself otherwise.
+func (ps Problems) Err() error {
+	if len(ps) == 0 {
+		return nil
+	}
+	return ps
+}
+
+// Error prints the first problem and how many more there are.
+func (ps Problems) Error() string {
+	switch len(ps) {
+	case 0:
+		return "no problems"
+	case 1:
+		return ps[0].Error()
+	}
+	return fmt.Sprintf("%s (and %d more problems)", ps[0].Error(), len(ps)-1)
+}
+
+// Sort orders the list by row, then column.
+func (ps Problems) Sort() {
+	sort.SliceStable(ps, func(i, j int) bool {
+		if ps[i].Row != ps[j].Row {
+			return ps[i].Row < ps[j].Row
+		}
+		return ps[i].Col < ps[j].Col
+	})
+}
+
+// Is reports whether any problem in the list is of kind target.
+func (ps Problems) Is(target error) bool {
+	for _, p := range ps {
+		if errors.Is(p, target) {
+			return true
+		}
+	}
+	return false
+}

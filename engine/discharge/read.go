@@ -1,0 +1,501 @@
+package discharge
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// DecimalMark says how numbers write their decimal separator. The zero value
+// detects it: a decimal comma is taken when the delimiter is not a comma and
+// discharge cells hold commas but no points.
+type DecimalMark int
+
+// Decimal marks.
+const (
+	AutoDecimal  DecimalMark = iota // detect
+	DecimalPoint                    // 1.25
+	DecimalComma                    // 1,25
+)
+
+// Options control Read. The zero value detects everything it can and
+// reports what it cannot.
+type Options struct {
+	File      string      // name used in problems and notes; purely for messages
+	Unit      Unit        // discharge unit when the file does not state one
+	AreaKm2   float64     // catchment area, needed for runoff in mm/day
+	DateOrder DateOrder   // order of year-last dates; AutoOrder decides from the column
+	Delimiter rune        // field delimiter; 0 detects tab, semicolon, comma or spaces
+	Decimal   DecimalMark // decimal separator; AutoDecimal detects
+}
+
+// Import is what Read made of a table.
+type Import struct {
+	Record       *Record   // the daily record; empty (Len 0) when nothing could load
+	Readings     []int     // readings averaged into each day of Record (sub-daily input); nil for daily input
+	Problems     Problems  // everything wrong, positioned; Problems.Err() is nil when all is well
+	Notes        []string  // what was detected and done (delimiter, date order, unit, averaging, sorting)
+	Delimiter    rune      // delimiter used
+	DecimalComma bool      // whether numbers were read with a decimal comma
+	DateOrder    DateOrder // order used for year-last dates (AutoOrder if none occurred)
+	Unit         Unit      // unit of the discharge column (the first row's, with a unit column)
+	Gaps         []Span    // gaps in Record, as Record.Gaps
+}
+
+// ReadString reads a table held in a string, as pasted from a spreadsheet.
+func ReadString(text string, opt Options) *Import {
+	return Read(strings.NewReader(text), opt)
+}
+
+// missingCodes are cells read as "no value" rather than as numbers
+// (science brief §1.1, common practice).
+var missingCodes = map[string]bool{
+	"": true, "na": true, "n/a": true, "n.a.": true, "nd": true, "n.d.": true, "-": true, "--": true,
+	"nan": true, "null": true, "-999": true, "-9999": true, "missing": true,
+}
+
+type reading struct {
+	day  Day
+	sec  int
+	q    float64 // m³/s, NaN if missing or rejected
+	line int
+}
+
+// Read imports a discharge table (see the package documentation for the
+// accepted forms). It never fails outright: what cannot be read is listed in
+// the returned Import's Problems with its row and column, and the rest loads.
+func Read(r io.Reader, opt Options) *Import {
+	imp := &Import{Record: &Record{Name: opt.File}}
+	add := func(row, col int, column string, kind error, format string, args ...any) {
+		imp.Problems = append(imp.Problems, &Problem{File: opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)})
+	}
+	data, err := io.ReadAll(r)
+	if err != nil {
+		add(0, 0, "", ErrNotTable, "reading failed: %v", err)
+		return imp
+	}
+	data = bytes.TrimPrefix(data, []byte("\ufeff"))
+	rows, lines := splitRows(data, opt, imp, add)
+	if len(rows) == 0 {
+		add(0, 0, "", ErrNotTable, "no rows")
+		return imp
+	}
+
+	// Columns: header or none.
+	cols := findColumns(rows[0])
+	start := 1
+	if cols.headerless {
+		start = 0
+	}
+	if cols.date < 0 {
+		add(lines[0], 0, "", ErrNoDateColumn, "the header names no date column (Date, Day, DateTime, Timestamp)")
+		return imp
+	}
+	if cols.q < 0 {
+		add(lines[0], 0, "", ErrNoQColumn, "the header names no discharge column (Q, Discharge, Flow, Runoff, cms, cfs, L/s)")
+		return imp
+	}
+	qName := cols.name(rows[0], cols.q)
+	// A units row under the names.
+	if !cols.headerless && len(rows) > 1 && cols.q < len(rows[1]) {
+		if _, ok := parseStamp(cell(rows[1], cols.date)); !ok {
+			if u, err := ParseUnit(rows[1][cols.q]); err == nil {
+				if cols.unit != NoUnit && cols.unit != u {
+					add(lines[1], cols.q+1, qName, ErrMixedUnits, "units row says %s but the header says %s; the units row is used", u, cols.unit)
+				}
+				cols.unit = u
+				start = 2
+			}
+		}
+	}
+	fileUnit := cols.unit
+	if fileUnit != NoUnit && opt.Unit != NoUnit && opt.Unit != fileUnit {
+		add(lines[0], cols.q+1, qName, ErrMixedUnits, "the file says %s but the options say %s; the file's unit is used", fileUnit, opt.Unit)
+	}
+	if fileUnit == NoUnit {
+		fileUnit = opt.Unit
+	}
+	if fileUnit == NoUnit && cols.unitCol < 0 {
+		add(lines[0], cols.q+1, qName, ErrNoUnit, "state it in the header, as \"Q (m3/s)\", or in the options; nothing was loaded")
+		return imp
+	}
+
+	// Decimal comma.
+	delim := imp.Delimiter
+	comma := opt.Decimal == DecimalComma
+	if opt.Decimal == AutoDecimal && delim != ',' {
+		sawComma, sawPoint := false, false
+		for _, row := range rows[start:] {
+			c := cell(row, cols.q)
+			sawComma = sawComma || strings.Contains(c, ",")
+			sawPoint = sawPoint || strings.Contains(c, ".")
+		}
+		comma = sawComma && !sawPoint
+	}
+	imp.DecimalComma = comma
+	if comma {
+		imp.Notes = append(imp.Notes, "numbers read with a decimal comma")
+	}
+
+	// Dates: settle the order of year-last dates over the whole column.
+	stamps := make([]stamp, len(rows))
+	okStamp := make([]bool, len(rows))
+	reported := make([]bool, len(rows))
+	dayFirstRow, monthFirstRow, ambiguous := 0, 0, 0
+	for i := start; i < len(rows); i++ {
+		st, ok := parseStamp(cell(rows[i], cols.date))
+		if ok && cols.time >= 0 {
+			if sec, ok2 := parseClock(cell(rows[i], cols.time)); ok2 {
+				st.sec = sec
+			} else if strings.TrimSpace(cell(rows[i], cols.time)) != "" {
+				add(lines[i], cols.time+1, cols.name(rows[0], cols.time), ErrBadDate, "%q is not a time of day (hh:mm or hh:mm:ss); the row was left out", cell(rows[i], cols.time))
+				reported[i] = true
+				continue
+			}
+		}
+		stamps[i], okStamp[i] = st, ok
+		if ok && st.form == 'l' {
+			ambiguous++
+			if st.a > 12 && dayFirstRow == 0 {
+				dayFirstRow = lines[i]
+			}
+			if st.b > 12 && monthFirstRow == 0 {
+				monthFirstRow = lines[i]
+			}
+		}
+	}
+	order := opt.DateOrder
+	dName := cols.name(rows[0], cols.date)
+	if order == AutoOrder && ambiguous > 0 {
+		switch {
+		case dayFirstRow > 0 && monthFirstRow > 0:
+			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "row %d reads only day-first and row %d only month-first; choose the order in the options; year-last dates were not loaded", dayFirstRow, monthFirstRow)
+		case dayFirstRow > 0:
+			order = DayFirst
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (row %d has a day above 12)", dayFirstRow))
+		case monthFirstRow > 0:
+			order = MonthFirst
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (row %d has a day above 12)", monthFirstRow))
+		default:
+			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date such as %q reads both day-first and month-first; choose the order in the options; %d rows were not loaded", cell(rows[start], cols.date), ambiguous)
+		}
+	}
+	imp.DateOrder = order
+
+	// Rows.
+	var rd []reading
+	firstUnit := Unit(-1)
+	unitName := ""
+	if cols.unitCol >= 0 {
+		unitName = cols.name(rows[0], cols.unitCol)
+	}
+	for i := start; i < len(rows); i++ {
+		row, line := rows[i], lines[i]
+		if blankRow(row) {
+			continue
+		}
+		if !okStamp[i] {
+			if !reported[i] {
+				add(line, cols.date+1, dName, ErrBadDate, "%q is not a date (use 2021-10-01, 01/10/2021 or 10/01/2021)", cell(row, cols.date))
+			}
+			continue
+		}
+		st := stamps[i]
+		d, ok := st.day(order)
+		if !ok {
+			if st.form == 'l' && order == AutoOrder {
+				continue // reported once above
+			}
+			add(line, cols.date+1, dName, ErrBadDate, "%q is not a valid %s date", cell(row, cols.date), orderOr(order, st))
+			continue
+		}
+		u := fileUnit
+		if cols.unitCol >= 0 {
+			uc := strings.TrimSpace(cell(row, cols.unitCol))
+			if uc != "" {
+				ru, err := ParseUnit(uc)
+				if err != nil {
+					add(line, cols.unitCol+1, unitName, ErrUnknownUnit, "%q is not a discharge unit; the value was left out", uc)
+					rd = append(rd, reading{d, st.sec, math.NaN(), line})
+					continue
+				}
+				u = ru
+			}
+			if u == NoUnit {
+				add(line, cols.unitCol+1, unitName, ErrNoUnit, "no unit for this row; the value was left out")
+				rd = append(rd, reading{d, st.sec, math.NaN(), line})
+				continue
+			}
+			if firstUnit < 0 {
+				firstUnit = u
+			} else if u != firstUnit {
+				add(line, cols.unitCol+1, unitName, ErrMixedUnits, "%s here but %s above; the value was converted with its own unit %s", u, firstUnit, u)
+			}
+		} else if firstUnit < 0 {
+			firstUnit = u
+		}
+		raw := cell(row, cols.q)
+		if cols.q >= len(row) {
+			add(line, 0, "", ErrShortRow, "%d cells, but discharge is in column %d; the day is a gap", len(row), cols.q+1)
+			rd = append(rd, reading{d, st.sec, math.NaN(), line})
+			continue
+		}
+		v, perr := parseNumber(raw, comma)
+		switch {
+		case perr == errMissing:
+			v = math.NaN()
+		case perr != nil:
+			add(line, cols.q+1, qName, ErrNotNumber, "%q; the value was left out", raw)
+			v = math.NaN()
+		case v < 0:
+			add(line, cols.q+1, qName, ErrNegative, "%s; the value was left out", strings.TrimSpace(raw))
+			v = math.NaN()
+		default:
+			q, err := ToM3s(v, u, opt.AreaKm2)
+			if err != nil {
+				add(line, cols.q+1, qName, err, "the value was left out")
+				v = math.NaN()
+			} else {
+				v = q
+			}
+		}
+		rd = append(rd, reading{d, st.sec, v, line})
+	}
+	if firstUnit >= 0 {
+		imp.Unit = firstUnit
+		imp.Notes = append(imp.Notes, "discharge unit "+firstUnit.String())
+	}
+	build(imp, rd, opt, add, dName)
+	imp.Problems.Sort()
+	return imp
+}
+
+func orderOr(o DateOrder, st stamp) string {
+	if st.form == 'l' {
+		return o.String()
+	}
+	return "calendar"
+}
+
+// build sorts the readings, reports order and duplicates, averages sub-daily
+// readings and lays the days out as a record.
+func build(imp *Import, rd []reading, opt Options, add func(int, int, string, error, string, ...any), dName string) {
+	if len(rd) == 0 {
+		return
+	}
+	less := func(a, b reading) bool {
+		if a.day != b.day {
+			return a.day < b.day
+		}
+		return a.sec < b.sec
+	}
+	var outOfOrder []int
+	for i := 1; i < len(rd); i++ {
+		if less(rd[i], rd[i-1]) {
+			outOfOrder = append(outOfOrder, rd[i].line)
+		}
+	}
+	if len(outOfOrder) > 0 {
+		list := outOfOrder
+		more := ""
+		if len(list) > 5 {
+			list, more = list[:5], fmt.Sprintf(" and %d more", len(outOfOrder)-5)
+		}
+		add(outOfOrder[0], 0, dName, ErrUnsorted, "row %s%s come before a row above them; the table was loaded in date order", joinInts(list), more)
+		sort.SliceStable(rd, func(i, j int) bool { return less(rd[i], rd[j]) })
+	}
+	subDaily := false
+	for _, r := range rd {
+		if r.sec >= 0 {
+			subDaily = true
+			break
+		}
+	}
+	// Duplicates: the same day (daily input) or the same time (sub-daily).
+	kept := rd[:0:0]
+	for i, r := range rd {
+		if i > 0 && rd[i-1].day == r.day && (rd[i-1].sec == r.sec || !subDaily) {
+			prev := kept[len(kept)-1]
+			what := "day " + r.day.String()
+			if subDaily {
+				what = fmt.Sprintf("reading %s %02d:%02d", r.day, r.sec/3600, r.sec/60%60)
+			}
+			add(r.line, 0, dName, ErrDuplicateDay, "%s is also in row %d; row %d is kept and this row left out", what, prev.line, prev.line)
+			continue
+		}
+		kept = append(kept, r)
+	}
+	rd = kept
+	first, last := rd[0].day, rd[len(rd)-1].day
+	n := int(last-first) + 1
+	q := make([]float64, n)
+	cnt := make([]int, n)
+	for _, r := range rd {
+		if !math.IsNaN(r.q) {
+			k := int(r.day - first)
+			q[k] += r.q
+			cnt[k]++
+		}
+	}
+	lo, hi, loDay := math.MaxInt, 0, Day(0)
+	for i := range q {
+		if cnt[i] == 0 {
+			q[i] = math.NaN()
+			continue
+		}
+		q[i] /= float64(cnt[i])
+		if cnt[i] < lo {
+			lo, loDay = cnt[i], first+Day(i)
+		}
+		hi = max(hi, cnt[i])
+	}
+	imp.Record = NewRecord(opt.File, first, q)
+	if subDaily {
+		imp.Readings = cnt
+		if lo == hi {
+			imp.Notes = append(imp.Notes, fmt.Sprintf("sub-daily readings averaged to daily means: %d readings per day", hi))
+		} else if hi > 0 {
+			imp.Notes = append(imp.Notes, fmt.Sprintf("sub-daily readings averaged to daily means: %d to %d readings per day (fewest on %s)", lo, hi, loDay))
+		}
+	}
+	imp.Gaps = imp.Record.Gaps()
+	if len(imp.Gaps) > 0 {
+		imp.Notes = append(imp.Notes, fmt.Sprintf("%d gap days in %d gaps, not filled", imp.Record.Missing(), len(imp.Gaps)))
+	}
+}
+
+func joinInts(v []int) string {
+	s := make([]string, len(v))
+	for i, x := range v {
+		s[i] = strconv.Itoa(x)
+	}
+	if len(s) == 1 {
+		return s[0]
+	}
+	return strings.Join(s[:len(s)-1], ", ") + " and " + s[len(s)-1]
+}
+
+var errMissing = errors.New("missing")
+
+// parseNumber reads a discharge cell. Missing-value codes return errMissing.
+func parseNumber(s string, comma bool) (float64, error) {
+	t := strings.TrimSpace(s)
+	if missingCodes[strings.ToLower(t)] {
+		return 0, errMissing
+	}
+	if comma {
+		if strings.Contains(t, ".") && strings.Contains(t, ",") {
+			return 0, ErrNotNumber
+		}
+		t = strings.Replace(t, ",", ".", 1)
+	}
+	v, err := strconv.ParseFloat(t, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		return 0, ErrNotNumber
+	}
+	return v, nil
+}
+
+func cell(row []string, i int) string {
+	if i < 0 || i >= len(row) {
+		return ""
+	}
+	return row[i]
+}
+
+func blankRow(row []string) bool {
+	for _, c := range row {
+		if strings.TrimSpace(c) != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// splitRows detects the delimiter and splits the input into non-blank rows,
+// returning each row's line number.
+func splitRows(data []byte, opt Options, imp *Import, add func(int, int, string, error, string, ...any)) ([][]string, []int) {
+	delim := opt.Delimiter
+	if delim == 0 {
+		delim = detectDelimiter(data)
+	}
+	imp.Delimiter = delim
+	var rows [][]string
+	var lines []int
+	if delim == ' ' {
+		for i, ln := range strings.Split(string(data), "\n") {
+			f := strings.Fields(ln)
+			if len(f) == 0 {
+				continue
+			}
+			rows = append(rows, f)
+			lines = append(lines, i+1)
+		}
+		imp.Notes = append(imp.Notes, "columns separated by spaces")
+		return rows, lines
+	}
+	cr := csv.NewReader(bytes.NewReader(data))
+	cr.Comma = delim
+	cr.FieldsPerRecord = -1
+	cr.LazyQuotes = true
+	for {
+		rec, err := cr.Read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			var pe *csv.ParseError
+			if errors.As(err, &pe) {
+				add(pe.Line, pe.Column, "", ErrSyntax, "%v", pe.Err)
+				if pe.Err == csv.ErrFieldCount {
+					continue
+				}
+			} else {
+				add(0, 0, "", ErrSyntax, "%v", err)
+			}
+			break
+		}
+		line, _ := cr.FieldPos(0)
+		if blankRow(rec) {
+			continue
+		}
+		rows = append(rows, rec)
+		lines = append(lines, line)
+	}
+	names := map[rune]string{'\t': "tabs", ';': "semicolons", ',': "commas"}
+	if nm, ok := names[delim]; ok {
+		imp.Notes = append(imp.Notes, "columns separated by "+nm)
+	}
+	return rows, lines
+}
+
+func detectDelimiter(data []byte) rune {
+	n := 0
+	var tabs, semis, commas int
+	for _, ln := range strings.Split(string(data), "\n") {
+		if strings.TrimSpace(ln) == "" {
+			continue
+		}
+		tabs += strings.Count(ln, "\t")
+		semis += strings.Count(ln, ";")
+		commas += strings.Count(ln, ",")
+		if n++; n == 10 {
+			break
+		}
+	}
+	switch {
+	case tabs > 0:
+		return '\t'
+	case semis > 0:
+		return ';'
+	case commas > 0:
+		return ','
+	}
+	return ' '
+}
