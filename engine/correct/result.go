@@ -38,6 +38,11 @@ type Deficit struct {
 	Amount  float64 // the residual before the policy, µmol/L (< 0)
 }
 
+// String gives the deficit as "K* = -0.87 µmol/L".
+func (d Deficit) String() string {
+	return fmt.Sprintf("%s* = %.4g µmol/L", d.Species, d.Amount)
+}
+
 // NegativeError is returned by Apply under the Reject policy when any
 // residual is negative. It unwraps to ErrNegativeResidual.
 type NegativeError struct {
@@ -48,7 +53,7 @@ type NegativeError struct {
 func (e *NegativeError) Error() string {
 	parts := make([]string, len(e.Deficits))
 	for i, d := range e.Deficits {
-		parts[i] = fmt.Sprintf("%s* = %.4g µmol/L", d.Species, d.Amount)
+		parts[i] = d.String()
 	}
 	return "sample rejected: " + ErrNegativeResidual.Error() + ": " + strings.Join(parts, ", ")
 }
