@@ -1,0 +1,281 @@
+package mix
+
+import (
+	"context"
+	"math/rand/v2"
+	"runtime"
+	"sync"
+	"sync/atomic"
+)
+
+// Run is an inversion in progress. Natively Invert drives it on all cores;
+// in the browser the caller drives it in chunks with Step, so that a
+// progress bar can update between them. Either way, a seed gives the same
+// bits: draws are taken in a fixed order from one PCG stream, shared by all
+// samples (draw d is the same rocks for every sample of the catchment), and
+// each sample is worked through its draws in order by one goroutine.
+type Run struct {
+	prob  Problem
+	opt   Options
+	n     int       // end-members
+	src   []Source  // source of each end-member
+	table []float64 // drawn ratios, layout [draw][tracer][end-member]
+	res   *Result
+
+	cur     int // Step: sample being worked on
+	curDraw int // Step: next draw of that sample
+	done    atomic.Int64
+	mu      sync.Mutex // serialises Options.Progress
+}
+
+// NewRun checks the problem, draws the end-member ratios for every draw and
+// returns a run ready to Step. It returns an error for a problem that
+// cannot be run at all (no end-members, an invalid prior); problems of
+// single samples become warnings on their results.
+func NewRun(p Problem, o *Options) (*Run, error) {
+	if err := p.validate(); err != nil {
+		return nil, err
+	}
+	opt := o.withDefaults()
+	r := &Run{prob: p, opt: opt, n: len(p.EndMembers)}
+	r.src = make([]Source, r.n)
+	for j, e := range p.EndMembers {
+		r.src[j] = e.Source
+	}
+	r.table = drawTable(p.EndMembers, opt.Draws, opt.Seed)
+	r.res = &Result{
+		Seed:       opt.Seed,
+		Draws:      opt.Draws,
+		Scoring:    opt.Scoring,
+		EndMembers: append([]EndMember(nil), p.EndMembers...),
+		Samples:    make([]SampleResult, len(p.Waters)),
+		table:      r.table,
+		src:        r.src,
+	}
+	for s := range p.Waters {
+		sr := &r.res.Samples[s]
+		sr.Name = p.Waters[s].Name
+		sr.prep = p.prepare(&p.Waters[s], &opt)
+		sr.Warnings = append(sr.Warnings, sr.prep.warnings...)
+	}
+	return r, nil
+}
+
+// drawTable samples every ratio of every end-member for every draw, in the
+// order draw, tracer, end-member, one uniform number each (fixed priors
+// too, so that editing one prior leaves the other draws unchanged).
+func drawTable(em []EndMember, draws int, seed uint64) []float64 {
+	n := len(em)
+	var smp [NTracers][MaxEndMembers]sampler
+	for j := range em {
+		for t := range NTracers {
+			smp[t][j] = newSampler(em[j].Ratio[t])
+		}
+	}
+	rng := rand.New(rand.NewPCG(seed, seed^0x9e3779b97f4a7c15))
+	tab := make([]float64, draws*int(NTracers)*n)
+	i := 0
+	for range draws {
+		for t := range NTracers {
+			for j := 0; j < n; j++ {
+				u := (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53 // in (0, 1)
+				tab[i] = smp[t][j].draw(u)
+				i++
+			}
+		}
+	}
+	return tab
+}
+
+// Total returns the number of sample-draws in the run.
+func (r *Run) Total() int { return len(r.prob.Waters) * r.opt.Draws }
+
+// Progress returns the fraction of sample-draws done, in [0, 1].
+func (r *Run) Progress() float64 {
+	t := r.Total()
+	if t == 0 {
+		return 1
+	}
+	return float64(r.done.Load()) / float64(t)
+}
+
+// Done reports whether every sample has been worked through.
+func (r *Run) Done() bool { return r.cur >= len(r.prob.Waters) }
+
+// Step works through about n more sample-draws on the calling goroutine
+// and reports whether the run is finished. Chunk sizes do not change the
+// result. A cancelled context marks the unfinished samples Canceled and
+// ends the run.
+func (r *Run) Step(ctx context.Context, n int) (done bool) {
+	var sc scratch
+	for n > 0 && r.cur < len(r.prob.Waters) {
+		if ctx.Err() != nil {
+			r.cancel()
+			return true
+		}
+		s := r.cur
+		k := min(n, r.opt.Draws-r.curDraw)
+		r.draws(s, r.curDraw, r.curDraw+k)
+		r.curDraw += k
+		n -= k
+		r.advance(k)
+		if r.curDraw == r.opt.Draws {
+			r.finish(s, &sc)
+			r.cur++
+			r.curDraw = 0
+		}
+	}
+	r.res.Status = r.res.worst()
+	return r.Done()
+}
+
+func (r *Run) cancel() {
+	for s := r.cur; s < len(r.prob.Waters); s++ {
+		r.res.Samples[s].Status = Canceled
+	}
+	r.cur = len(r.prob.Waters)
+	r.res.Status = r.res.worst()
+}
+
+func (r *Run) advance(k int) {
+	d := r.done.Add(int64(k))
+	if r.opt.Progress != nil {
+		r.mu.Lock()
+		r.opt.Progress(int(d), r.Total())
+		r.mu.Unlock()
+	}
+}
+
+// Result returns the run's result. Samples not yet worked through have
+// Status NotRun.
+func (r *Run) Result() *Result { return r.res }
+
+// Invert runs the inverse Monte Carlo model on every water of p, using
+// Options.Workers goroutines over samples (all cores by default). The result
+// does not depend on the number of workers. Cancelling ctx stops the run
+// early; unfinished samples are then Canceled. The error is non-nil only for
+// a problem that cannot be run at all; how the inversion went is in
+// Result.Status and each sample's Status and Warnings.
+func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
+	r, err := NewRun(p, o)
+	if err != nil {
+		return nil, err
+	}
+	ns := len(p.Waters)
+	workers := r.opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = max(1, min(workers, ns))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	const chunk = 512 // draws between looks at ctx
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			var sc scratch
+			for {
+				s := int(next.Add(1)) - 1
+				if s >= ns {
+					return
+				}
+				for from := 0; from < r.opt.Draws; from += chunk {
+					if ctx.Err() != nil {
+						r.res.Samples[s].Status = Canceled
+						break
+					}
+					to := min(from+chunk, r.opt.Draws)
+					r.draws(s, from, to)
+					r.advance(to - from)
+				}
+				if r.res.Samples[s].Status != Canceled {
+					r.finish(s, &sc)
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	r.cur = ns
+	r.res.Status = r.res.worst()
+	return r.res, nil
+}
+
+// draws works sample s through draws [from, to): for each draw it builds
+// the weighted normal equations from the drawn end-member ratios, solves
+// the simplex-constrained least squares, scores chi-square and keeps or
+// drops the draw. It does not allocate, apart from growing the kept-draw
+// slices.
+func (r *Run) draws(s, from, to int) {
+	sr := &r.res.Samples[s]
+	pr := &sr.prep
+	if pr.skip {
+		return
+	}
+	n := r.n
+	stride := int(NTracers) * n
+	m := pr.m
+	var q simplexLS
+	q.n = n
+	var E [NTracers][MaxEndMembers]float64
+	var a [MaxEndMembers]float64
+	weight := r.opt.Scoring == Weight
+	if cap(sr.kept) == 0 {
+		c := max(16, (to-from)/4)
+		sr.kept = make([]int32, 0, c)
+		sr.chi2 = make([]float64, 0, c)
+		sr.alpha = make([]float64, 0, c*n)
+	}
+	for d := from; d < to; d++ {
+		tab := r.table[d*stride : (d+1)*stride]
+		for i := 0; i < n; i++ {
+			q.g[i] = 0
+			for j := 0; j <= i; j++ {
+				q.G[i][j] = 0
+			}
+		}
+		for k := 0; k < m; k++ {
+			e := &E[k]
+			row := tab[pr.par[k]*n : pr.par[k]*n+n]
+			if k == pr.iso {
+				sr := tab[int(SrNa)*n : int(SrNa)*n+n]
+				for j := 0; j < n; j++ {
+					e[j] = sr[j] * (row[j] - pr.riso)
+				}
+			} else {
+				copy(e[:n], row)
+			}
+			w, dk := pr.w[k], pr.d[k]
+			for i := 0; i < n; i++ {
+				wi := w * e[i]
+				q.g[i] += wi * dk
+				Gi := &q.G[i]
+				for j := 0; j <= i; j++ {
+					Gi[j] += wi * e[j]
+				}
+			}
+		}
+		q.sym()
+		if !q.solve(&a) {
+			continue
+		}
+		chi2 := 0.0
+		for k := 0; k < m; k++ {
+			v := -pr.d[k]
+			for j := 0; j < n; j++ {
+				v += E[k][j] * a[j]
+			}
+			chi2 += pr.w[k] * v * v
+		}
+		if weight {
+			if !(chi2 < 1400) { // exp(-700) and below: weight 0
+				continue
+			}
+		} else if !(chi2 <= pr.thresh) {
+			continue
+		}
+		sr.kept = append(sr.kept, int32(d))
+		sr.chi2 = append(sr.chi2, chi2)
+		sr.alpha = append(sr.alpha, a[:n]...)
+	}
+}
