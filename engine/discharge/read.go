@@ -53,6 +53,10 @@ func ReadString(text string, opt Options) *Import {
 	return Read(strings.NewReader(text), opt)
 }
 
+// MaxDays is the longest span of days a record may cover (200 years); a
+// table whose dates run further is refused as a likely typing error.
+const MaxDays = 200 * 366
+
 // missingCodes are cells read as "no value" rather than as numbers
 // (science brief §1.1, common practice).
 var missingCodes = map[string]bool{
@@ -132,7 +136,10 @@ func Read(r io.Reader, opt Options) *Import {
 	if opt.Decimal == AutoDecimal && delim != ',' {
 		sawComma, sawPoint := false, false
 		for _, row := range rows[start:] {
-			c := cell(row, cols.q)
+			c := strings.TrimSpace(cell(row, cols.q))
+			if _, err := strconv.ParseFloat(strings.Replace(c, ",", ".", 1), 64); err != nil {
+				continue // text and missing codes such as "n.a." say nothing
+			}
 			sawComma = sawComma || strings.Contains(c, ",")
 			sawPoint = sawPoint || strings.Contains(c, ".")
 		}
@@ -307,7 +314,12 @@ func build(imp *Import, rd []reading, opt Options, add func(int, int, string, er
 		if len(list) > 5 {
 			list, more = list[:5], fmt.Sprintf(" and %d more", len(outOfOrder)-5)
 		}
-		add(outOfOrder[0], 0, dName, ErrUnsorted, "row %s%s come before a row above them; the table was loaded in date order", joinInts(list), more)
+		verb := "comes"
+		if len(outOfOrder) > 1 {
+			verb = "come"
+		}
+		add(outOfOrder[0], 0, dName, ErrUnsorted, "%s %s%s %s before a row above %s; the table was loaded in date order",
+			plural(len(outOfOrder), "row", "rows"), joinInts(list), more, verb, plural(len(outOfOrder), "it", "them"))
 		sort.SliceStable(rd, func(i, j int) bool { return less(rd[i], rd[j]) })
 	}
 	subDaily := false
@@ -334,6 +346,11 @@ func build(imp *Import, rd []reading, opt Options, add func(int, int, string, er
 	rd = kept
 	first, last := rd[0].day, rd[len(rd)-1].day
 	n := int(last-first) + 1
+	if n > MaxDays {
+		add(rd[len(rd)-1].line, 0, dName, ErrBadDate, "the dates run from %s (row %d) to %s, more than %d years; check the years; nothing was loaded",
+			first, rd[0].line, last, MaxDays/366)
+		return
+	}
 	q := make([]float64, n)
 	cnt := make([]int, n)
 	for _, r := range rd {
@@ -368,6 +385,13 @@ func build(imp *Import, rd []reading, opt Options, add func(int, int, string, er
 	if len(imp.Gaps) > 0 {
 		imp.Notes = append(imp.Notes, fmt.Sprintf("%d gap days in %d gaps, not filled", imp.Record.Missing(), len(imp.Gaps)))
 	}
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
 }
 
 func joinInts(v []int) string {

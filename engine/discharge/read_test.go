@@ -74,7 +74,7 @@ func TestReadBadInput(t *testing.T) {
 	}{
 		{
 			name: "unsorted dates", in: "Date,Q (m3/s)\n2021-01-02,2\n2021-01-01,1\n2021-01-03,3\n",
-			kind: ErrUnsorted, msg: "flow.csv:3 (Date): dates not in order: row 3 come before a row above them; the table was loaded in date order",
+			kind: ErrUnsorted, msg: "flow.csv:3 (Date): dates not in order: row 3 comes before a row above it; the table was loaded in date order",
 			q: []float64{1, 2, 3}, first: Date(2021, 1, 1), nProbls: 1,
 		},
 		{
@@ -201,5 +201,13 @@ func TestProblemsEmpty(t *testing.T) {
 	imp := ReadString("Date,Q (m3/s)\n2021-01-01,1\n2021-01-02,x\n2021-01-03,-1\n", Options{})
 	if got, want := imp.Problems.Error(), "input:3:2 (Q (m3/s)): not a number: \"x\"; the value was left out (and 1 more problems)"; got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
+	}
+}
+
+func TestReadSpanTooLong(t *testing.T) {
+	imp := ReadString("Date,Q (m3/s)\n2021-01-01,1\n1021-01-02,2\n", Options{File: "f"})
+	want := "f:2 (Date): not a date: the dates run from 1021-01-02 (row 3) to 2021-01-01, more than 200 years; check the years; nothing was loaded"
+	if len(imp.Problems) != 2 || imp.Problems[0].Error() != want || imp.Record.Len() != 0 {
+		t.Errorf("got %v, want ... %s", imp.Problems, want)
 	}
 }

@@ -1,0 +1,56 @@
+package discharge
+
+import (
+	"math"
+	"testing"
+)
+
+// FuzzRead checks that the importer never panics and that whatever loads
+// is a well-formed record: consecutive days, non-negative discharge or NaN.
+func FuzzRead(f *testing.F) {
+	seeds := []string{
+		"Date,Q (m3/s)\n2021-01-01,1\n2021-01-03,3\n",
+		"\ufeffDate;Discharge\n;L/s\n30.09.2021;1,5\n01.10.2021;n.a.\n",
+		"Date,Time,Q (cfs)\n2021-01-01,00:00,1\n2021-01-01,12:00,-3\n",
+		"01/02/2021\t1\n02/02/2021\t2\n",
+		"Timestamp,Q,Unit\n2021-01-01T06:00,1,m3/s\n2021-01-01T07:00,2,L/s\n",
+		"\"Date\",\"Q (mm/day)\"\n\"2021-01-01\",\"2\"\n",
+		"Date,Q (m3/s)\n9999-12-31,1\n1000-01-01,2\n",
+		"2021-01-01 00:00 1\n",
+		"a\"b,c\n",
+	}
+	for _, s := range seeds {
+		f.Add(s, uint8(0))
+	}
+	f.Fuzz(func(t *testing.T, in string, mode uint8) {
+		opt := Options{DateOrder: DateOrder(mode % 3), Decimal: DecimalMark(mode / 3 % 3), AreaKm2: float64(mode % 2)}
+		if mode&0x80 != 0 {
+			opt.Unit = LPerS
+		}
+		imp := ReadString(in, opt)
+		r := imp.Record
+		if r == nil {
+			t.Fatal("nil record")
+		}
+		if len(r.Days) != len(r.Q) {
+			t.Fatalf("%d days, %d values", len(r.Days), len(r.Q))
+		}
+		if len(r.Days) > 400*366*10 {
+			return // a far-apart pair of dates: allowed, but do not walk it
+		}
+		for i := range r.Days {
+			if i > 0 && r.Days[i] != r.Days[i-1]+1 {
+				t.Fatalf("days not consecutive at %d", i)
+			}
+			if q := r.Q[i]; !math.IsNaN(q) && (q < 0 || math.IsInf(q, 0)) {
+				t.Fatalf("day %d: discharge %g", i, q)
+			}
+		}
+		for _, p := range imp.Problems {
+			if p.Err == nil || p.Error() == "" {
+				t.Fatalf("empty problem %+v", p)
+			}
+		}
+		_ = r.Gaps()
+	})
+}

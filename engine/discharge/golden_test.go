@@ -1,0 +1,67 @@
+package discharge
+
+import (
+	"flag"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"text/tabwriter"
+)
+
+var update = flag.Bool("update", false, "rewrite golden files")
+
+// checkGolden compares got with testdata/name, rewriting it under -update;
+// on a mismatch it writes testdata/name.got beside it.
+func checkGolden(t *testing.T, name, got string) {
+	t.Helper()
+	path := filepath.Join("testdata", name)
+	if *update {
+		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run with -update to create it)", err)
+	}
+	if string(want) != got {
+		_ = os.WriteFile(path+".got", []byte(got), 0o644)
+		t.Errorf("%s differs from the golden file; got written to %s.got\n%s", name, path, got)
+	}
+}
+
+func formatImport(imp *Import) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "notes:\n")
+	for _, n := range imp.Notes {
+		fmt.Fprintf(&b, "  %s\n", n)
+	}
+	fmt.Fprintf(&b, "problems:\n")
+	for _, p := range imp.Problems {
+		fmt.Fprintf(&b, "  %s\n", p)
+	}
+	fmt.Fprintf(&b, "gaps:\n")
+	for _, g := range imp.Gaps {
+		fmt.Fprintf(&b, "  %s\n", g)
+	}
+	tw := tabwriter.NewWriter(&b, 0, 8, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintf(tw, "day\tQ m3/s\t\n")
+	for i, d := range imp.Record.Days {
+		fmt.Fprintf(tw, "%s\t%.6g\t\n", d, imp.Record.Q[i])
+	}
+	tw.Flush()
+	return b.String()
+}
+
+func TestGoldenMessy(t *testing.T) {
+	f, err := os.Open(filepath.Join("..", "..", "testdata", "discharge_corrie_vale_messy.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	imp := Read(f, Options{File: "discharge_corrie_vale_messy.csv"})
+	checkGolden(t, "messy.golden", formatImport(imp))
+}
