@@ -135,13 +135,13 @@ var aliases = map[string]Species{
 	"h": H, "hydrogen": H, "hydrogenion": H,
 	"cl": Cl, "chloride": Cl, "chlorid": Cl,
 	"so4": SO4, "sulfate": SO4, "sulphate": SO4,
-	"no3": NO3, "nitrate": NO3, "nox": NO3,
+	"no3": NO3, "nitrate": NO3, "nox": NO3, "no3no2": NO3, "no2no3": NO3, "nitratenitrite": NO3,
 	"f": F, "fluoride": F,
 	"br": Br, "bromide": Br,
 	"hco3": HCO3, "bicarbonate": HCO3, "hydrogencarbonate": HCO3,
 	"co3": CO3, "carbonate": CO3,
 	"alk": Alk, "alkalinity": Alk, "ta": Alk, "totalalkalinity": Alk, "anc": Alk,
-	"granalkalinity": Alk, "alkalinityascaco3": Alk, "alk.": Alk,
+	"granalkalinity": Alk, "alk.": Alk, "carbonatealkalinity": Alk,
 	"sio2": SiO2, "silica": SiO2, "h4sio4": SiO2, "si": SiO2, "dsi": SiO2,
 	"dissolvedsilica": SiO2, "silicon": SiO2,
 	"po4": PO4, "phosphate": PO4,
@@ -170,45 +170,74 @@ func Normalise(name string) string {
 
 // ParseSpecies recognises a species name as laboratories write it: "Na",
 // "Na+", "Ca2+", "Ca++", "SO4 2-", "SO₄²⁻", "Sulphate", "Alkalinity",
-// "H4SiO4". It also returns the mass basis implied by the name ("N" for
-// "NO3-N" or "Nitrate as N", "S" for "SO4-S", "Si" for "Si", "CaCO3" for
-// "Alkalinity as CaCO3", "" otherwise). ok is false for an unknown name.
+// "H4SiO4", "Sodium, dissolved", "Na_diss". It also returns the mass basis
+// implied by the name ("N" for "NO3-N" or "Nitrate as N", "S" for "SO4-S",
+// "Si" for "Si", "CaCO3" for "Alkalinity as CaCO3", "H4SiO4" for "H4SiO4",
+// "" otherwise). ok is false for an unknown name, and for a basis that does
+// not apply to the species ("Ca as N").
 func ParseSpecies(name string) (s Species, basis string, ok bool) {
-	raw := strings.TrimSpace(name)
-	low := strings.ToLower(raw)
-	// "as X" suffixes and "-N" / "-S" forms.
-	for _, suf := range []struct{ text, basis string }{
-		{" as caco3", "CaCO3"}, {"ascaco3", "CaCO3"},
-		{" as n", "N"}, {"-n", "N"}, {"_n", "N"}, {" n", "N"},
-		{" as s", "S"}, {"-s", "S"}, {"_s", "S"},
-		{" as p", "P"}, {"-p", "P"},
-		{" as si", "Si"},
-		{" as hco3", "HCO3"},
-	} {
-		if strings.HasSuffix(low, suf.text) {
-			base := strings.TrimSpace(raw[:len(raw)-len(suf.text)])
-			sp, ok := lookupSpecies(base)
-			if !ok {
-				continue
-			}
-			if _, has := sp.ElementMass(suf.basis); has || suf.basis == "CaCO3" && (sp == Alk || sp == HCO3) || suf.basis == "HCO3" && sp == Alk {
-				return sp, suf.basis, true
-			}
+	low := strings.ToLower(strings.TrimSpace(name))
+	toks := strings.FieldsFunc(low, func(r rune) bool {
+		return unicode.IsSpace(r) || r == '_' || r == ',' || r == '-' || r == '/' || r == '(' || r == ')'
+	})
+	// Drop words that qualify rather than name: "dissolved", "filtered".
+	keep := toks[:0:0]
+	for _, t := range toks {
+		switch t {
+		case "dissolved", "diss", "diss.", "filtered", "filt", "total", "tot", "conc", "conc.", "concentration":
+			continue
+		}
+		keep = append(keep, t)
+	}
+	toks = keep
+	// "as X" anywhere, or a trailing element letter ("NO3-N", "SO4 S").
+	self := false
+	for i := 0; i+1 < len(toks); i++ {
+		if toks[i] != "as" {
+			continue
+		}
+		b := canonBasis(toks[i+1])
+		if b == "" {
+			return 0, "", false
+		}
+		basis = b
+		toks = append(toks[:i:i], toks[i+2:]...)
+		break
+	}
+	if basis == "" && len(toks) >= 2 {
+		switch last := toks[len(toks)-1]; last {
+		case "n", "s", "p", "si", "caco3":
+			basis = canonBasis(last)
+			toks = toks[:len(toks)-1]
 		}
 	}
-	// Digits after charge signs ("SO4 2-", "SO42-", "Ca2+"): strip a trailing
-	// charge number that follows the formula.
-	sp, ok := lookupSpecies(raw)
+	if len(toks) == 0 {
+		return 0, "", false
+	}
+	key := strings.Join(toks, "")
+	sp, ok := lookupSpecies(key)
 	if !ok {
 		return 0, "", false
 	}
-	switch Normalise(raw) {
-	case "si", "silicon":
-		return SiO2, "Si", true
-	case "h4sio4":
-		return SiO2, "H4SiO4", true
+	switch {
+	case basis == "":
+		switch Normalise(key) {
+		case "si", "silicon":
+			return SiO2, "Si", true
+		case "h4sio4":
+			return SiO2, "H4SiO4", true
+		}
+		return sp, "", true
+	case basis == sp.Symbol():
+		self = true
 	}
-	return sp, "", true
+	if self {
+		return sp, "", true
+	}
+	if _, err := massBasis(sp, basis); err != nil {
+		return 0, "", false
+	}
+	return sp, basis, true
 }
 
 func lookupSpecies(raw string) (Species, bool) {

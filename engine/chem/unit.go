@@ -74,8 +74,10 @@ var unitWords = map[string]Unit{
 
 // ParseUnit parses a unit as written in a header or units row: "mg/L",
 // "mg l-1", "ppm", "µmol/L", "umol_L", "uM", "meq/L", "mg/L as CaCO3",
-// "mg/L CaCO3", "mg/L NO3-N", "mg N/L", "mg/L as S". Both µ and u are
-// accepted, case is ignored except where it matters (mM, µM).
+// "mg/L CaCO3", "mg/L NO3-N", "mg N/L", "mg/L as S", "mg/L SiO2". Both µ
+// (micro sign or Greek mu) and u are accepted; case is ignored, so "mM" is
+// mmol/L and "M" mol/L. A basis word that names the species itself ("mg/L
+// SiO2") gives that species' symbol as Basis.
 func ParseUnit(text string) (Unit, error) {
 	t := strings.TrimSpace(text)
 	t = strings.Trim(t, "()[]{} ")
@@ -85,32 +87,43 @@ func ParseUnit(text string) (Unit, error) {
 	low := strings.ToLower(t)
 	low = strings.ReplaceAll(low, "μ", "µ") // Greek mu to micro sign
 	basis := ""
-	// Basis words: "as CaCO3", "CaCO3", "as N", "NO3-N", "N/L".
+	setBasis := func(b string) bool {
+		if basis != "" && basis != b {
+			return false
+		}
+		basis = b
+		return true
+	}
+	// Basis words: "as CaCO3", "CaCO3", "as N", "NO3-N", "mg N/L".
 	fields := strings.Fields(strings.NewReplacer("_", " ", ",", " ").Replace(low))
 	var keep []string
 	for i := 0; i < len(fields); i++ {
 		f := fields[i]
+		ok := true
 		switch {
-		case f == "as" && i+1 < len(fields):
-			basis = canonBasis(fields[i+1])
+		case f == "as" && i+1 < len(fields) && canonBasis(fields[i+1]) != "":
+			ok = setBasis(canonBasis(fields[i+1]))
 			i++
-		case canonBasis(f) != "" && i > 0:
-			basis = canonBasis(f)
-		case strings.HasSuffix(f, "-n") && len(f) > 2:
-			basis = "N"
-		case strings.HasSuffix(f, "-s") && len(f) > 2:
-			basis = "S"
-		case f == "n" || f == "s" || f == "si" || f == "p":
-			basis = canonBasis(f)
+		case i > 0 && canonBasis(f) != "":
+			ok = setBasis(canonBasis(f))
+		case i > 0 && strings.Contains(f, "/") && canonBasis(f[:strings.IndexByte(f, '/')]) != "":
+			// "mg N/L": the basis sits before the slash.
+			j := strings.IndexByte(f, '/')
+			ok = setBasis(canonBasis(f[:j]))
+			keep = append(keep, f[j:])
+		case len(f) > 2 && (strings.HasSuffix(f, "-n") || strings.HasSuffix(f, "-s") || strings.HasSuffix(f, "-p")):
+			ok = setBasis(canonBasis(f[len(f)-1:]))
+			if _, isSpecies := lookupSpecies(f[:len(f)-2]); !isSpecies {
+				keep = append(keep, f[:len(f)-2]) // "mg/l-n"
+			}
 		default:
 			keep = append(keep, f)
 		}
-	}
-	if basis == "" && len(fields) == 0 {
-		return Unit{}, fmt.Errorf("%w: %q", ErrUnknownUnit, text)
+		if !ok {
+			return Unit{}, fmt.Errorf("%w: %q names two bases", ErrUnknownUnit, text)
+		}
 	}
 	core := strings.Join(keep, "")
-	core = strings.ReplaceAll(core, " ", "")
 	core = strings.ReplaceAll(core, "litre", "l")
 	core = strings.ReplaceAll(core, "liter", "l")
 	core = strings.ReplaceAll(core, "⁻¹", "-1")
@@ -124,12 +137,7 @@ func ParseUnit(text string) (Unit, error) {
 	if !ok {
 		return Unit{}, fmt.Errorf("%w: %q", ErrUnknownUnit, text)
 	}
-	if basis != "" {
-		if u.Dim != Mass {
-			return Unit{}, fmt.Errorf("%w: %q gives a basis to a non-mass unit", ErrUnknownUnit, text)
-		}
-		u.Basis = basis
-	}
+	u.Basis = basis
 	return u, nil
 }
 
@@ -149,6 +157,18 @@ func canonBasis(w string) string {
 		return "HCO3"
 	case "h4sio4":
 		return "H4SiO4"
+	case "sio2":
+		return "SiO2"
+	case "so4":
+		return "SO4"
+	case "no3":
+		return "NO3"
+	case "po4":
+		return "PO4"
+	case "nh4":
+		return "NH4"
+	case "co3":
+		return "CO3"
 	}
 	return ""
 }
@@ -173,6 +193,8 @@ func massBasis(s Species, basis string) (float64, error) {
 			return 0, fmt.Errorf("%w: %s as HCO3", ErrUnitMismatch, s)
 		}
 		return molarMass[HCO3], nil
+	case s.Symbol():
+		return molarMass[s], nil
 	case "H4SiO4":
 		if s != SiO2 {
 			return 0, fmt.Errorf("%w: %s as H4SiO4", ErrUnitMismatch, s)
@@ -208,15 +230,25 @@ func FromMicromolar(v float64, s Species, u Unit) (float64, error) {
 }
 
 // Factor returns the number that multiplies a value of s in unit u to give
-// µmol/L (µeq/L for Alk).
+// µmol/L (µeq/L for Alk). A basis on an amount unit counts moles of the
+// basis ("mmol/L as CaCO3" of alkalinity is 2 meq/L; "µmol/L as N" of
+// nitrate is µmol/L of NO3); a basis on an equivalent unit changes nothing.
 func Factor(s Species, u Unit) (float64, error) {
+	if s < 0 || s >= NSpecies {
+		return 0, fmt.Errorf("%w: species %d", ErrUnitMismatch, int(s))
+	}
+	if !(u.Scale > 0) || math.IsInf(u.Scale, 0) {
+		return 0, fmt.Errorf("%w: %q has no scale", ErrUnknownUnit, u.Text)
+	}
 	z := math.Abs(float64(s.Charge()))
+	if u.Basis != "" {
+		if _, err := massBasis(s, u.Basis); err != nil {
+			return 0, err
+		}
+	}
 	switch u.Dim {
 	case Amount:
-		if s == Alk {
-			return u.Scale * 1e6, nil // mol/L of HCO3 equivalents
-		}
-		return u.Scale * 1e6, nil
+		return u.Scale * 1e6 * amountBasis(s, u.Basis), nil
 	case Equivalent:
 		if z == 0 {
 			return 0, fmt.Errorf("%w: %s is neutral, so %s has no meaning", ErrUnitMismatch, s, u.Text)
@@ -237,4 +269,25 @@ func Factor(s Species, u Unit) (float64, error) {
 		return f, nil
 	}
 	return 0, fmt.Errorf("%w: dimension %d", ErrUnknownUnit, u.Dim)
+}
+
+// amountBasis returns the moles of s (equivalents for Alk) per mole of the
+// basis: 2 for alkalinity or HCO3 as CaCO3, 1/n for an element that occurs n
+// times in s, 1 otherwise.
+func amountBasis(s Species, basis string) float64 {
+	switch basis {
+	case "", "HCO3", "H4SiO4", "SiO2":
+		return 1
+	case "CaCO3":
+		if s == CO3 {
+			return 1
+		}
+		return 2
+	}
+	for _, t := range speciesTable[s].form {
+		if t.el == basis {
+			return 1 / t.n
+		}
+	}
+	return 1
 }
