@@ -1,0 +1,115 @@
+package flux
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/discharge"
+)
+
+// Series is a concentration series to be fluxed: one value per water sample,
+// in µmol/L (or µeq/L for alkalinity), for a raw species or a
+// source-apportioned quantity such as silicate Na or silicate CO2
+// consumption.
+type Series struct {
+	Name      string          // for tables and messages, such as "Ca" or "Na sil"
+	MolarMass float64         // g/mol used for tonnes; 0 leaves tonnes NaN. Use 12.011 (C) for t C.
+	Days      []discharge.Day // sample days
+	C         []float64       // concentration, µmol/L; NaN for a sample without a value
+	Q         []float64       // discharge at sampling, m³/s; nil or NaN means the daily record's value
+
+	// Draws optionally holds Monte Carlo draws of the concentration for each
+	// sample, as from the inverse mixing model: Draws[i][d] is draw d of
+	// sample i. The inverse model uses draw index d for the same end-member
+	// draw in every sample, so Bootstrap can keep that pairing (SharedDraw).
+	Draws [][]float64
+	// Weights optionally weight the draws: Weights[i][d] >= 0. Nil means equal.
+	Weights [][]float64
+}
+
+// ForSpecies returns a series for species sp with its molar mass from chem.
+func ForSpecies(sp chem.Species, days []discharge.Day, c []float64) Series {
+	return Series{Name: sp.Symbol(), MolarMass: sp.MolarMass(), Days: days, C: c}
+}
+
+// ErrOutsideRecord marks a sample whose date lies outside the discharge
+// record; ErrNoDischarge one whose day is a gap with no discharge at sampling.
+var (
+	ErrNoSamples  = errors.New("no usable samples")
+	ErrNoConc     = errors.New("no concentration")
+	ErrNonPositve = errors.New("rating curve needs positive concentration and discharge")
+)
+
+// SampleError is a problem with one sample of a series. It wraps
+// discharge.ErrOutside, discharge.ErrGap, ErrNoConc or ErrNonPositve.
+type SampleError struct {
+	Series string
+	Index  int // position of the sample in the series, from 0
+	Day    discharge.Day
+	Err    error
+}
+
+// Error names the series, sample and day.
+func (e *SampleError) Error() string {
+	return fmt.Sprintf("%s: sample %d (%s): %v; left out", e.Series, e.Index+1, e.Day, e.Err)
+}
+
+// Unwrap returns the underlying error.
+func (e *SampleError) Unwrap() error { return e.Err }
+
+// sample is a water sample matched to the discharge record.
+type sample struct {
+	idx  int     // index in the Series
+	k    int     // day index in the record
+	year int     // index of its reporting year
+	c    float64 // µmol/L
+	q    float64 // m³/s at sampling
+	t    float64 // decimal year
+}
+
+// match pairs every sample with its day's discharge and reporting year.
+func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, []error) {
+	var out []sample
+	var warns []error
+	for i, d := range s.Days {
+		bad := func(err error) { warns = append(warns, &SampleError{s.Name, i, d, err}) }
+		c := math.NaN()
+		if i < len(s.C) {
+			c = s.C[i]
+		}
+		if math.IsNaN(c) && (i >= len(s.Draws) || len(s.Draws[i]) == 0) {
+			bad(ErrNoConc)
+			continue
+		}
+		k := rec.Index(d)
+		if k < 0 {
+			_, err := rec.At(d)
+			bad(err)
+			continue
+		}
+		q := math.NaN()
+		if i < len(s.Q) {
+			q = s.Q[i]
+		}
+		if math.IsNaN(q) {
+			var err error
+			if q, err = rec.At(d); err != nil {
+				bad(err)
+				continue
+			}
+		}
+		y := -1
+		for j, yr := range years {
+			if d >= yr.Start && d <= yr.End {
+				y = j
+				break
+			}
+		}
+		out = append(out, sample{idx: i, k: k, year: y, c: c, q: q, t: d.YearFraction()})
+	}
+	sort.SliceStable(out, func(a, b int) bool { return out[a].k < out[b].k })
+	return out, warns
+}
