@@ -1,0 +1,111 @@
+package sample
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+)
+
+// Sentinel errors a Problem unwraps to. Test for them with errors.Is.
+var (
+	ErrNotTable        = errors.New("not a sample table")
+	ErrNotNumber       = errors.New("not a number")
+	ErrNegative        = errors.New("negative value")
+	ErrOutOfRange      = errors.New("value out of range")
+	ErrDuplicateColumn = errors.New("duplicated column")
+	ErrUnitConflict    = errors.New("conflicting units")
+	ErrUnknownUnit     = errors.New("unknown unit")
+	ErrNoUnit          = errors.New("no unit given")
+	ErrUnitMismatch    = errors.New("unit does not apply")
+	ErrBadDate         = errors.New("not a date")
+	ErrAmbiguousDate   = errors.New("ambiguous date order")
+	ErrFieldCount      = errors.New("wrong number of fields")
+	ErrQuote           = errors.New("unterminated quote")
+	ErrTooMany         = errors.New("too many problems")
+)
+
+// Problem is something wrong with the input, positioned in the file. The
+// affected cell is left missing (NaN) or kept as metadata; the rest of the
+// table loads.
+type Problem struct {
+	File   string // file name as given to Read
+	Line   int    // 1-based line in the file; 0 for the file as a whole
+	Col    int    // 1-based column number; 0 for a whole row or the file
+	Header string // header text of the column, if any
+	Value  string // the cell text, if any
+	Err    error  // one of the Err* sentinels, possibly wrapped
+	Detail string // what was done about it, for the reader
+}
+
+// Error returns "file:line:col (header): value: err; detail".
+func (p *Problem) Error() string {
+	var b strings.Builder
+	b.WriteString(p.File)
+	if p.Line > 0 {
+		b.WriteString(":" + strconv.Itoa(p.Line))
+		if p.Col > 0 {
+			b.WriteString(":" + strconv.Itoa(p.Col))
+		}
+	}
+	if p.Header != "" {
+		fmt.Fprintf(&b, " (%s)", p.Header)
+	}
+	b.WriteString(": ")
+	if p.Value != "" {
+		fmt.Fprintf(&b, "%q: ", p.Value)
+	}
+	if p.Err != nil {
+		b.WriteString(p.Err.Error())
+	}
+	if p.Detail != "" {
+		b.WriteString("; " + p.Detail)
+	}
+	return b.String()
+}
+
+// Unwrap returns the underlying sentinel.
+func (p *Problem) Unwrap() error { return p.Err }
+
+// ProblemList is the list of problems met while reading a table, in the
+// order they were found (by line, then column). The zero value is empty.
+type ProblemList []*Problem
+
+// Error returns the first problem and how many more there are.
+func (l ProblemList) Error() string {
+	switch len(l) {
+	case 0:
+		return "no problems"
+	case 1:
+		return l[0].Error()
+	}
+	return fmt.Sprintf("%s (and %d more problems)", l[0], len(l)-1)
+}
+
+// Err returns nil for an empty list and the list itself otherwise.
+func (l ProblemList) Err() error {
+	if len(l) == 0 {
+		return nil
+	}
+	return l
+}
+
+// Unwrap returns the problems, so errors.Is finds any sentinel among them.
+func (l ProblemList) Unwrap() []error {
+	out := make([]error, len(l))
+	for i, p := range l {
+		out[i] = p
+	}
+	return out
+}
+
+// Count returns the number of problems that unwrap to target.
+func (l ProblemList) Count(target error) int {
+	n := 0
+	for _, p := range l {
+		if errors.Is(p, target) {
+			n++
+		}
+	}
+	return n
+}

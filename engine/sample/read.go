@@ -1,0 +1,733 @@
+package sample
+
+import (
+	"bufio"
+	"bytes"
+	"fmt"
+	"io"
+	"sort"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"lixiv/engine/chem"
+)
+
+const peekSize = 64 << 10
+
+// Read imports a sample table from CSV, TSV or text pasted from a
+// spreadsheet. name is used only in messages. The returned error is non-nil
+// only when r cannot be read; everything wrong with the content is in
+// Table.Problems, and the rest of the table still loads.
+func Read(r io.Reader, name string, opt Options) (*Table, error) {
+	t := &Table{Name: name, Policy: opt.Policy}
+	br := bufio.NewReaderSize(r, 1<<20)
+	peek, perr := br.Peek(peekSize)
+	whole := perr != nil
+	if perr != nil && perr != io.EOF && perr != bufio.ErrBufferFull {
+		return t, perr
+	}
+	im := &importer{t: t, opt: opt, max: opt.MaxProblems}
+	if im.max <= 0 {
+		im.max = 10000
+	}
+	switch {
+	case bytes.HasPrefix(peek, []byte("\xef\xbb\xbf")):
+		br.Discard(3)
+		peek = peek[3:]
+	case bytes.HasPrefix(peek, []byte("\xff\xfe")), bytes.HasPrefix(peek, []byte("\xfe\xff")):
+		all, err := io.ReadAll(br)
+		if err != nil {
+			return t, err
+		}
+		text := decodeUTF16(all[2:], all[0] == 0xfe)
+		br = bufio.NewReaderSize(bytes.NewReader(text), 1<<20)
+		peek, _ = br.Peek(peekSize)
+		whole = len(text) <= peekSize
+	}
+	if bytes.HasPrefix(peek, []byte("PK\x03\x04")) {
+		im.fileProblem(ErrNotTable, "this is a zip archive (an .xlsx workbook?); save the sheet as CSV or paste its cells")
+		return t, nil
+	}
+	if bytes.IndexByte(peek, 0) >= 0 {
+		im.fileProblem(ErrNotTable, "the file holds binary data, not text")
+		return t, nil
+	}
+	if bytes.IndexByte(peek, '\n') < 0 && bytes.IndexByte(peek, '\r') >= 0 {
+		br = bufio.NewReaderSize(crReader{br}, 1<<20)
+		peek, _ = br.Peek(peekSize)
+		peek = bytes.ReplaceAll(peek, []byte{'\r'}, []byte{'\n'})
+	}
+	check := peek
+	if !whole && len(check) > 4 {
+		check = check[:len(check)-4] // a rune may be cut at the end
+	}
+	lr := &lineReader{br: br, latin1: !utf8.Valid(check)}
+	sample := sampleLines(peek, whole, 60)
+	if len(sample) == 0 {
+		im.fileProblem(ErrNotTable, "the file is empty")
+		return t, lr.err
+	}
+	comma, modal := detectComma(sample)
+	switch opt.Comma {
+	case ',', ';', '\t', '|':
+		comma = byte(opt.Comma)
+	}
+	lr.comma = comma
+	im.run(lr, sample, modal)
+	return t, lr.err
+}
+
+// ParseText imports a sample table from text, such as cells pasted from a
+// spreadsheet (tab-separated). Problems are in Table.Problems.
+func ParseText(text, name string, opt Options) *Table {
+	t, _ := Read(strings.NewReader(text), name, opt)
+	return t
+}
+
+// importer holds the state of one Read.
+type importer struct {
+	t     *Table
+	opt   Options
+	max   int
+	extra int // problems beyond max
+	dec   byte
+	cols  []plan
+	block []Sample
+	sites map[string]string
+
+	dateCol  int // index into cols of the date column, or -1
+	order    DateOrder
+	pending  []pendingDate
+	anyA13   bool // a three-number date with a first number above 12
+	anyB13   bool // a three-number date with a second number above 12
+	clocks   []pendingClock
+	nMapped  int
+	header   int // header line
+	unitLine int
+}
+
+// plan is how to read one column.
+type plan struct {
+	Column
+	metaKey string
+}
+
+type pendingDate struct {
+	s    *Sample
+	d    dateVal
+	raw  string
+	line int
+}
+
+type pendingClock struct {
+	s         *Sample
+	sec, nsec int
+}
+
+func (im *importer) add(p *Problem) {
+	p.File = im.t.Name
+	if len(im.t.Problems) >= im.max {
+		im.extra++
+		return
+	}
+	im.t.Problems = append(im.t.Problems, p)
+}
+
+func (im *importer) fileProblem(err error, detail string) {
+	im.add(&Problem{Err: err, Detail: detail})
+}
+
+func (im *importer) cellProblem(line int, c *plan, value []byte, err error, detail string) {
+	if len(im.t.Problems) >= im.max {
+		im.extra++
+		return
+	}
+	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
+}
+
+// run reads the header, the units row if any, and every data row.
+func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
+	need := 1
+	if modal >= 2 {
+		need = max(2, (modal+1)/2)
+	}
+	var header []string
+	for {
+		fs, line, ok := lr.next()
+		if !ok {
+			im.fileProblem(ErrNotTable, "no header row was found")
+			return
+		}
+		n := trimmedLen(fs)
+		if n == 0 {
+			continue
+		}
+		if n >= need {
+			im.header = line
+			header = make([]string, len(fs))
+			for i, f := range fs {
+				header[i] = strings.TrimSpace(string(trimSpace(f)))
+			}
+			break
+		}
+		im.t.Preamble = append(im.t.Preamble, string(joinFields(fs, lr.comma)))
+	}
+	heads := make([]heading, len(header))
+	for i, h := range header {
+		if m, ok := im.opt.Map[h]; ok {
+			if m == "" {
+				heads[i] = heading{kind: Meta}
+			} else {
+				heads[i] = classify(m)
+			}
+			continue
+		}
+		heads[i] = classify(h)
+	}
+	// A units row: cells that read as units, and no number under a numeric column.
+	var units []string
+	fs, line, ok := lr.next()
+	for ok && trimmedLen(fs) == 0 {
+		fs, line, ok = lr.next()
+	}
+	first := true
+	if ok && isUnitsRow(fs, heads) {
+		units = make([]string, len(header))
+		for i := range units {
+			if i < len(fs) {
+				units[i] = strings.TrimSpace(string(trimSpace(fs[i])))
+			}
+		}
+		im.unitLine = line
+		first = false
+	}
+	im.mapColumns(header, heads, units)
+	im.detectDecimal(sample, lr.comma)
+	if first && ok {
+		im.row(fs, line)
+	}
+	for {
+		fs, line, ok := lr.next()
+		if !ok {
+			break
+		}
+		if lr.badQ {
+			im.add(&Problem{Line: line, Err: ErrQuote, Detail: "a quoted field is not closed before the end of the file"})
+		}
+		im.row(fs, line)
+	}
+	im.finish()
+}
+
+func joinFields(fs [][]byte, comma byte) []byte {
+	return bytes.Join(fs, []byte{comma})
+}
+
+func isUnitsRow(fs [][]byte, heads []heading) bool {
+	unitLike, numbers := 0, 0
+	for i, f := range fs {
+		s := string(trimSpace(f))
+		if s == "" || i >= len(heads) {
+			continue
+		}
+		k := heads[i].kind
+		if k == Concentration || k == Discharge || k == PH || k == Temperature || k == Conductivity || k == SrRatio {
+			if _, cls := classifyCell(f, ','); cls == cellNumber || cls == cellCensored {
+				numbers++
+			}
+		}
+		switch {
+		case k == Meta:
+			if _, err := chem.ParseUnit(s); err == nil {
+				unitLike++
+			}
+		case k == PH || k == SrRatio:
+			if isNoUnit(s) && s != "" && s != "-" {
+				unitLike++
+			}
+		default:
+			if _, fok := dateFormat(s); fok && (k == Date || k == Clock) || k != Date && k != Clock && isUnitText(k, s) {
+				unitLike++
+			}
+		}
+	}
+	return unitLike >= 1 && numbers == 0
+}
+
+// detectDecimal chooses the decimal mark from the numeric cells of the
+// sample lines, unless Options.Decimal sets it.
+func (im *importer) detectDecimal(sample [][]byte, comma byte) {
+	im.dec = '.'
+	switch im.opt.Decimal {
+	case ',':
+		if comma != ',' {
+			im.dec = ','
+		}
+		return
+	case '.':
+		return
+	}
+	if comma == ',' {
+		return
+	}
+	commas, dots := 0, 0
+	var fs [][]byte
+	var scratch []byte
+	for _, l := range sample {
+		fs = split(l, comma, fs[:0], &scratch)
+		for i, f := range fs {
+			if i >= len(im.cols) || !numericKind(im.cols[i].Kind) {
+				continue
+			}
+			f = trimSpace(f)
+			f = bytes.TrimLeft(f, "<≤ ")
+			if bytes.IndexByte(f, ',') >= 0 {
+				if _, ok := parseNumber(f, ','); ok {
+					commas++
+				}
+			} else if bytes.IndexByte(f, '.') >= 0 {
+				if _, ok := parseNumber(f, '.'); ok {
+					dots++
+				}
+			}
+		}
+	}
+	if commas > dots {
+		im.dec = ','
+	}
+}
+
+func numericKind(k Kind) bool {
+	return k == Concentration || k == Discharge || k == PH || k == Temperature || k == Conductivity || k == SrRatio
+}
+
+// mapColumns turns headings and units into column plans, reporting
+// duplicates, conflicts and missing units.
+func (im *importer) mapColumns(header []string, heads []heading, units []string) {
+	im.cols = make([]plan, len(header))
+	im.dateCol = -1
+	im.order = im.opt.DateOrder
+	seen := map[string]int{}
+	var species [chem.NSpecies]int
+	var kinds [len(kindNames)]int
+	for i := range species {
+		species[i] = -1
+	}
+	for i := range kinds {
+		kinds[i] = -1
+	}
+	// The pH column: field pH first, then unspecified, then lab.
+	phBest := -1
+	for i, h := range heads {
+		if h.kind == PH && (phBest < 0 || h.field > heads[phBest].field) {
+			phBest = i
+		}
+	}
+	for i, h := range header {
+		c := &im.cols[i]
+		c.Index, c.Header, c.Scale = i, h, 1
+		if units != nil {
+			c.UnitText = units[i]
+		}
+		hd := heads[i]
+		c.Kind = hd.kind
+		at := im.header
+		if units != nil && c.UnitText != "" {
+			at = im.unitLine
+		}
+		bad := func(err error, detail string) {
+			c.Note = detail
+			im.add(&Problem{Line: at, Col: i + 1, Header: h, Value: c.UnitText, Err: err, Detail: detail})
+			c.Kind = Meta
+		}
+		unitText := hd.unit
+		if c.UnitText != "" && !isNoUnit(c.UnitText) {
+			if unitText != "" && !sameUnit(hd.kind, unitText, c.UnitText) {
+				bad(ErrUnitConflict, fmt.Sprintf("the header says %q but the units row says %q; values kept as text", unitText, c.UnitText))
+			} else if !isUnitText(hd.kind, c.UnitText) && hd.kind != Meta {
+				bad(ErrUnknownUnit, fmt.Sprintf("%q is not a unit for %s; values kept as text", c.UnitText, hd.kind))
+			}
+			unitText = c.UnitText
+		}
+		if c.Kind == PH && i != phBest {
+			if heads[phBest].field == hd.field {
+				bad(ErrDuplicateColumn, fmt.Sprintf("a second pH column; column %d is used", phBest+1))
+			} else {
+				c.Kind = Meta
+				c.Note = fmt.Sprintf("pH of column %d is used (field pH is preferred)", phBest+1)
+			}
+		}
+		if c.Kind != Meta && (unitText == "" || isNoUnit(unitText)) {
+			if u, ok := im.opt.Units[h]; ok {
+				unitText = u
+			} else if u, ok := im.opt.Units[""]; ok && (c.Kind == Concentration || c.Kind == Discharge) {
+				unitText = u
+			}
+		}
+		switch c.Kind {
+		case Concentration:
+			if unitText == "" {
+				bad(ErrNoUnit, fmt.Sprintf("no unit for %s in the header or a units row; values kept as text (set Options.Units)", hd.species))
+				break
+			}
+			u, err := chem.ParseUnit(unitText)
+			if err != nil {
+				bad(ErrUnknownUnit, fmt.Sprintf("%q is not a concentration unit; values kept as text", unitText))
+				break
+			}
+			if u.Basis == "" {
+				u.Basis = hd.basis
+			}
+			f, err := chem.Factor(hd.species, u)
+			if err != nil {
+				bad(ErrUnitMismatch, fmt.Sprintf("%s cannot be in %s; values kept as text", hd.species, u))
+				break
+			}
+			if j := species[hd.species]; j >= 0 {
+				bad(ErrDuplicateColumn, fmt.Sprintf("%s is also in column %d, which is used; values kept as text", hd.species, j+1))
+				break
+			}
+			species[hd.species] = i
+			c.Species, c.Unit, c.Scale, c.Label = hd.species, u, f, u.String()
+		case Discharge:
+			if unitText == "" {
+				bad(ErrNoUnit, "no unit for discharge (m3/s, L/s or cfs); values kept as text (set Options.Units)")
+				break
+			}
+			f, ok := dischargeUnit(unitText)
+			if !ok {
+				bad(ErrUnknownUnit, fmt.Sprintf("%q is not a discharge unit; values kept as text", unitText))
+				break
+			}
+			c.Scale, c.Label = f, unitText
+		case Temperature:
+			if unitText == "" {
+				unitText = "°C"
+				c.Note = "no unit given; read as °C"
+			}
+			s, o, ok := temperatureUnit(unitText)
+			if !ok {
+				bad(ErrUnknownUnit, fmt.Sprintf("%q is not a temperature unit; values kept as text", unitText))
+				break
+			}
+			c.Scale, c.Offset, c.Label = s, o, unitText
+		case Conductivity:
+			if unitText == "" {
+				unitText = "µS/cm"
+				c.Note = "no unit given; read as µS/cm"
+			}
+			f, ok := conductivityUnit(unitText)
+			if !ok {
+				bad(ErrUnknownUnit, fmt.Sprintf("%q is not a conductivity unit; values kept as text", unitText))
+				break
+			}
+			c.Scale, c.Label = f, unitText
+		case Date, Clock:
+			if o, ok := dateFormat(c.UnitText); ok && o != DateAuto && c.Kind == Date && im.opt.DateOrder == DateAuto {
+				im.order = o
+				c.Note = "date order " + o.String() + " from the units row"
+			}
+		}
+		if c.Kind != Meta && c.Kind != Concentration {
+			if j := kinds[c.Kind]; j >= 0 {
+				if numericKind(c.Kind) {
+					bad(ErrDuplicateColumn, fmt.Sprintf("%s is also in column %d, which is used; values kept as text", c.Kind, j+1))
+				} else {
+					c.Kind = Meta
+					c.Note = fmt.Sprintf("%s is taken from column %d", im.cols[j].Kind, j+1)
+				}
+			} else {
+				kinds[c.Kind] = i
+			}
+		}
+		if c.Kind == Date {
+			im.dateCol = i
+		}
+		if c.Kind != Meta {
+			im.nMapped++
+		}
+		key := h
+		if key == "" {
+			key = "column " + strconv.Itoa(i+1)
+		}
+		if n := seen[key]; n > 0 {
+			key += " (" + strconv.Itoa(n+1) + ")"
+		}
+		seen[h]++
+		c.metaKey = key
+	}
+	if im.nMapped == 0 {
+		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "no column names a species, date, site or sample; every column is kept as text"})
+	}
+	for _, c := range im.cols {
+		im.t.Columns = append(im.t.Columns, c.Column)
+	}
+}
+
+// sameUnit reports whether two unit texts mean the same unit for kind k.
+func sameUnit(k Kind, a, b string) bool {
+	switch k {
+	case Concentration:
+		ua, ea := chem.ParseUnit(a)
+		ub, eb := chem.ParseUnit(b)
+		return ea == nil && eb == nil && ua.Dim == ub.Dim && ua.Scale == ub.Scale && ua.Basis == ub.Basis
+	case Discharge:
+		fa, _ := dischargeUnit(a)
+		fb, _ := dischargeUnit(b)
+		return fa == fb
+	case Temperature:
+		sa, _, _ := temperatureUnit(a)
+		sb, _, _ := temperatureUnit(b)
+		return sa == sb
+	case Conductivity:
+		fa, _ := conductivityUnit(a)
+		fb, _ := conductivityUnit(b)
+		return fa == fb
+	}
+	return unitKey(a) == unitKey(b)
+}
+
+// newSample hands out a sample from a block, to keep allocations few.
+func (im *importer) newSample() *Sample {
+	if len(im.block) == 0 {
+		im.block = make([]Sample, 1024)
+	}
+	s := &im.block[0]
+	im.block = im.block[1:]
+	s.reset()
+	return s
+}
+
+// row reads one data row.
+func (im *importer) row(fs [][]byte, line int) {
+	if trimmedLen(fs) == 0 {
+		return
+	}
+	s := im.newSample()
+	s.Line = line
+	pol := im.t.Policy
+	for i := range im.cols {
+		c := &im.cols[i]
+		var f []byte
+		if i < len(fs) {
+			f = fs[i]
+		}
+		switch c.Kind {
+		case Concentration:
+			v, cls := classifyCell(f, im.dec)
+			switch cls {
+			case cellNumber:
+				if v < 0 {
+					im.cellProblem(line, c, f, ErrNegative, "a concentration cannot be negative; left missing")
+					continue
+				}
+				s.C[c.Species] = v * c.Scale
+			case cellCensored:
+				lim := v * c.Scale
+				if s.Censored == nil {
+					s.Censored = make(map[chem.Species]float64, 2)
+				}
+				s.Censored[c.Species] = lim
+				s.C[c.Species] = pol.Value(lim)
+			case cellText:
+				im.cellProblem(line, c, f, ErrNotNumber, "left missing")
+			}
+		case Discharge, PH, Temperature, Conductivity, SrRatio:
+			v, cls := classifyCell(f, im.dec)
+			switch cls {
+			case cellNumber:
+				v = v*c.Scale + c.Offset
+				if msg := rangeCheck(c.Kind, v); msg != "" {
+					err := ErrOutOfRange
+					if v < 0 && c.Kind != Temperature {
+						err = ErrNegative
+					}
+					im.cellProblem(line, c, f, err, msg)
+					continue
+				}
+				switch c.Kind {
+				case Discharge:
+					s.Q = v
+				case PH:
+					s.PH = v
+				case Temperature:
+					s.Temp = v
+				case Conductivity:
+					s.Cond = v
+				case SrRatio:
+					s.Sr87Sr86 = v
+				}
+			case cellCensored, cellText:
+				im.cellProblem(line, c, f, ErrNotNumber, "left missing")
+			}
+		case ID:
+			s.ID = string(trimSpace(f))
+		case Site:
+			s.Site = im.site(trimSpace(f))
+		case Date:
+			im.date(s, c, f, line)
+		case Clock:
+			f = trimSpace(f)
+			if len(f) == 0 {
+				continue
+			}
+			sec, nsec, ok := parseClock(f)
+			if !ok {
+				im.cellProblem(line, c, f, ErrBadDate, "not a time of day (hh:mm); kept as text")
+				im.meta(s, c, f)
+				continue
+			}
+			im.clocks = append(im.clocks, pendingClock{s, sec, nsec})
+		default:
+			im.meta(s, c, f)
+		}
+	}
+	if len(fs) > len(im.cols) {
+		for i := len(im.cols); i < len(fs); i++ {
+			f := trimSpace(fs[i])
+			if len(f) == 0 {
+				continue
+			}
+			key := "column " + strconv.Itoa(i+1)
+			im.add(&Problem{Line: line, Col: i + 1, Value: string(f), Err: ErrFieldCount,
+				Detail: fmt.Sprintf("the row has more fields than the header (%d); kept as text under %q", len(im.cols), key)})
+			if s.Meta == nil {
+				s.Meta = map[string]string{}
+			}
+			s.Meta[key] = string(f)
+		}
+	}
+	im.t.Samples = append(im.t.Samples, s)
+}
+
+func rangeCheck(k Kind, v float64) string {
+	switch k {
+	case Discharge:
+		if v < 0 {
+			return "discharge cannot be negative; left missing"
+		}
+	case Conductivity:
+		if v < 0 {
+			return "conductivity cannot be negative; left missing"
+		}
+	case PH:
+		if v < 0 || v > 14 {
+			return "pH must lie between 0 and 14; left missing"
+		}
+	case Temperature:
+		if v < -5 || v > 100 {
+			return "water temperature must lie between -5 and 100 °C; left missing"
+		}
+	case SrRatio:
+		if v <= 0 || v >= 2 {
+			return "87Sr/86Sr must lie between 0 and 2; left missing"
+		}
+	}
+	return ""
+}
+
+func (im *importer) meta(s *Sample, c *plan, f []byte) {
+	f = trimSpace(f)
+	if len(f) == 0 {
+		return
+	}
+	if s.Meta == nil {
+		s.Meta = make(map[string]string, 2)
+	}
+	s.Meta[c.metaKey] = string(f)
+}
+
+func (im *importer) site(b []byte) string {
+	if im.sites == nil {
+		im.sites = map[string]string{}
+	}
+	if s, ok := im.sites[string(b)]; ok {
+		return s
+	}
+	s := string(b)
+	im.sites[s] = s
+	return s
+}
+
+func (im *importer) date(s *Sample, c *plan, f []byte, line int) {
+	f = trimSpace(f)
+	if len(f) == 0 {
+		return
+	}
+	d, ok := parseDate(f)
+	if !ok {
+		im.cellProblem(line, c, f, ErrBadDate, "not a date this importer reads (ISO 8601 yyyy-mm-dd, dd/mm/yyyy, mm/dd/yyyy, 5-Mar-2024 or an Excel serial day); kept as text")
+		im.meta(s, c, f)
+		return
+	}
+	if d.dmy && im.order == DateAuto {
+		im.anyA13 = im.anyA13 || d.a > 12
+		im.anyB13 = im.anyB13 || d.b > 12
+		im.pending = append(im.pending, pendingDate{s, d, string(f), line})
+		return
+	}
+	im.setTime(s, c, d, f, line)
+}
+
+func (im *importer) setTime(s *Sample, c *plan, d dateVal, f []byte, line int) {
+	tm, ok := d.resolve(im.order)
+	if !ok {
+		im.cellProblem(line, c, f, ErrBadDate, fmt.Sprintf("not a valid date read %s; kept as text", im.order))
+		im.meta(s, c, f)
+		return
+	}
+	s.Time, s.HasTime, s.DateOnly = tm, true, !d.clock && !d.serial
+}
+
+// finish resolves dates whose order the whole column decides, joins the
+// time-of-day column, and sorts the problems.
+func (im *importer) finish() {
+	if len(im.pending) > 0 {
+		c := &im.cols[im.dateCol]
+		switch {
+		case im.anyA13 && im.anyB13:
+			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Err: ErrAmbiguousDate,
+				Detail: "the column mixes day-first and month-first dates; set Options.DateOrder; dates kept as text"})
+		case im.anyA13:
+			im.order = DayFirst
+		case im.anyB13:
+			im.order = MonthFirst
+		default:
+			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Value: im.pending[0].raw, Err: ErrAmbiguousDate,
+				Detail: fmt.Sprintf("all %d dates could be day-first or month-first; set Options.DateOrder to DayFirst or MonthFirst; dates kept as text", len(im.pending))})
+		}
+		if im.order != DateAuto {
+			c.Note = "date order " + im.order.String() + " (read from the column)"
+			im.t.Columns[c.Index].Note = c.Note
+		}
+		for _, p := range im.pending {
+			if im.order == DateAuto {
+				im.meta(p.s, c, []byte(p.raw))
+				continue
+			}
+			im.setTime(p.s, c, p.d, []byte(p.raw), p.line)
+		}
+		im.pending = nil
+	}
+	for _, k := range im.clocks {
+		if k.s.HasTime && k.s.DateOnly {
+			k.s.Time = k.s.Time.Add(timeOfDay(k.sec, k.nsec))
+			k.s.DateOnly = false
+		}
+	}
+	if len(im.t.Samples) == 0 && im.nMapped > 0 {
+		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "the header has no data rows below it"})
+	}
+	sort.SliceStable(im.t.Problems, func(i, j int) bool {
+		a, b := im.t.Problems[i], im.t.Problems[j]
+		if a.Line != b.Line {
+			return a.Line < b.Line
+		}
+		return a.Col < b.Col
+	})
+	if im.extra > 0 {
+		im.t.Problems = append(im.t.Problems, &Problem{File: im.t.Name, Err: ErrTooMany,
+			Detail: fmt.Sprintf("%d more problems not listed", im.extra)})
+	}
+}
