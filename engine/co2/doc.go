@@ -17,6 +17,10 @@
 //     phi_total − (Alk_sil + Alk_carb)/2 and the conventional silicate sink
 //     (Ca+Mg)_sil.
 //
+// OverDraws repeats this on every draw of the forward Monte Carlo
+// (mix.ForwardResult.Draws) and returns 2.5, 50 and 97.5 % quantiles.
+// TonnesC and TonnesCO2 convert mol (or mol/km²/yr) to tonnes.
+//
 // CO2 consumption is a geochemical budget, not a carbon-removal credit
 // (methods brief §12).
 package co2

@@ -20,6 +20,8 @@
 //  5. Residual X* = X − X_atm − X_evap − X_human for every species. Any
 //     negative residual is reported (species and amount) and handled by
 //     the explicit Options.Negative policy; nothing is clipped silently.
+//     (A residual below zero by no more than 1e-9 of the measured value is
+//     rounding, as an exact sea-salt sample gives, and is set to 0.)
 //
 // Result keeps the input, the removed parts (Atm, Evap, Human), the
 // residual, SO4_sulf and the warnings, so that the forward model
