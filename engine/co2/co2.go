@@ -103,6 +103,9 @@ func Consumption(s *mix.Split, so4Sulf float64, opt *Options) (Result, error) {
 	r.PhiTotal = r.PhiSil + r.PhiCarb
 	r.NetLong = r.PhiTotal - (r.AlkSil+r.AlkCarb)/2
 	r.SinkSil = ca + mg
+	if math.IsNaN(r.PhiTotal) || math.IsNaN(r.SinkSil) {
+		r.Warnings = append(r.Warnings, fmt.Errorf("%w: a silicate or carbonate cation is missing (NaN), so the CO2 figures are NaN", ErrInput))
+	}
 	if r.PhiCarb < 0 {
 		r.Warnings = append(r.Warnings, fmt.Errorf("%w: phi_carb = %.4g µmol/L", ErrRelease, r.PhiCarb))
 	}

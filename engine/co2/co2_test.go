@@ -303,3 +303,20 @@ func hasErr(ws []error, target error) bool {
 	}
 	return false
 }
+
+func TestConsumptionMissingCation(t *testing.T) {
+	// A cation not measured (NaN) gives NaN figures with a warning, never
+	// a silent zero (issue 3, bad input rule).
+	var s mix.Split
+	s[mix.Silicate] = [mix.NCations]float64{100, math.NaN(), 35, 24}
+	r, err := Consumption(&s, 0, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !math.IsNaN(r.PhiSil) || !hasErr(r.Warnings, ErrInput) {
+		t.Errorf("phi_sil %g, warnings %v; want NaN and a warning", r.PhiSil, r.Warnings)
+	}
+	if r.SinkSil != 59 {
+		t.Errorf("sink: got %g, want 59 (Ca and Mg are present)", r.SinkSil)
+	}
+}

@@ -101,6 +101,9 @@ var (
 	// ErrMassBalance warns that a cation's sources do not add up to the
 	// measured value.
 	ErrMassBalance = errors.New("sources do not add up to the measured value")
+	// ErrUnassigned warns that part of a cation was given to no source
+	// (K* above the silicate K/Na ratio).
+	ErrUnassigned = errors.New("part of a cation given to no source")
 )
 
 // Forward apportions the major cations of one corrected sample by
@@ -137,7 +140,7 @@ func Forward(c *correct.Result, opt *ForwardOptions) (ForwardResult, error) {
 	res.Split = cen.split
 	res.Deficit = cen.deficit
 	res.Unassigned = cen.unassigned
-	res.Unassigned[0] += c.Human[chem.Na]
+	res.Unassigned[fwdNa] += c.Human[chem.Na]
 	for i, sp := range Cations {
 		res.Misfit[i] = c.Input[sp] - (res.Split.Total(sp) - res.Deficit[i] + res.Unassigned[i])
 	}
@@ -276,6 +279,6 @@ func (res *ForwardResult) warn(c *correct.Result) {
 		}
 	}
 	if u := res.Unassigned[fwdK]; u != 0 && !math.IsNaN(u) {
-		res.Warnings = append(res.Warnings, fmt.Errorf("%w: K* − Na_sil × (K/Na)_sil = %.4g µmol/L given to no source", ErrMassBalance, u))
+		res.Warnings = append(res.Warnings, fmt.Errorf("%w: K* − Na_sil × (K/Na)_sil = %.4g µmol/L", ErrUnassigned, u))
 	}
 }

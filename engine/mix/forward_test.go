@@ -247,7 +247,10 @@ func TestForwardPotassium(t *testing.T) {
 			if math.Abs(res.Misfit[1]) > 1e-12 {
 				t.Errorf("K misfit: got %g, want 0", res.Misfit[1])
 			}
-			if got := fwdHas(res.Warnings, ErrMassBalance); got != tc.warn {
+			if fwdHas(res.Warnings, ErrMassBalance) {
+				t.Errorf("unexpected mass-balance warning %v", res.Warnings)
+			}
+			if got := fwdHas(res.Warnings, ErrUnassigned); got != tc.warn {
 				t.Errorf("unassigned-K warning: got %v, want %v", got, tc.warn)
 			}
 		})
