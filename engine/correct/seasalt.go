@@ -22,8 +22,9 @@ func Corrected() []chem.Species {
 // salinity 35 in mol per kg of H2O (Millero, Feistel, Wright & McDougall
 // 2008, Deep-Sea Research I 55, 50-72, table of the reference composition;
 // as reproduced in the methods brief §4.2). Species not in the table are 0.
-// It is a variable so that a user may edit the defaults; SeaSalt derives
-// from it.
+// SeaSalt derives the default ratios from it. Treat it as read-only: a
+// budget changes its ratios through Options.Ratios (starting from SeaSalt()),
+// so that the change is saved with the budget and reruns alike.
 var SeawaterMolality = [chem.NSpecies]float64{
 	chem.Na:   0.4860597,
 	chem.Mg:   0.0547421,
