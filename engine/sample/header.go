@@ -21,13 +21,13 @@ type heading struct {
 // only) to its kind. Spellings follow ../shared/science.md §1.1.
 var nameKinds = map[string]Kind{
 	"id": ID, "sampleid": ID, "sample": ID, "samplename": ID, "sampleno": ID, "samplenumber": ID,
-	"samplecode": ID, "labid": ID, "labno": ID, "labcode": ID, "labnumber": ID, "code": ID, "sampleref": ID,
+	"samplecode": ID, "probe": ID, "probennummer": ID, "labid": ID, "labno": ID, "labcode": ID, "labnumber": ID, "code": ID, "sampleref": ID,
 	"site": Site, "siteid": Site, "sitename": Site, "sitecode": Site, "station": Site, "stationid": Site,
 	"stationname": Site, "stationcode": Site, "location": Site, "locality": Site, "river": Site, "stream": Site,
-	"samplingpoint": Site, "samplingsite": Site, "catchment": Site,
+	"samplingpoint": Site, "samplingsite": Site, "catchment": Site, "messstelle": Site,
 	"date": Date, "sampledate": Date, "samplingdate": Date, "datesampled": Date, "collectiondate": Date,
-	"datecollected": Date, "datetime": Date, "dateandtime": Date, "timestamp": Date, "day": Date,
-	"time": Clock, "sampletime": Clock, "samplingtime": Clock, "timeofday": Clock, "clock": Clock,
+	"datecollected": Date, "datum": Date, "datetime": Date, "dateandtime": Date, "timestamp": Date, "day": Date,
+	"time": Clock, "uhrzeit": Clock, "zeit": Clock, "sampletime": Clock, "samplingtime": Clock, "timeofday": Clock, "clock": Clock,
 	"q": Discharge, "discharge": Discharge, "flow": Discharge, "streamflow": Discharge, "qinst": Discharge,
 	"qsampling": Discharge, "flowrate": Discharge, "cms": Discharge, "cfs": Discharge, "cumecs": Discharge,
 	"87sr86sr": SrRatio, "sr87sr86": SrRatio, "8786sr": SrRatio, "sr8786": SrRatio, "87sr": SrRatio,

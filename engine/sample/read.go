@@ -204,6 +204,7 @@ func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
 	}
 	im.mapColumns(header, heads, units)
 	im.detectDecimal(sample, lr.comma)
+	im.t.Comma, im.t.Decimal = rune(lr.comma), rune(im.dec)
 	if first && ok {
 		im.row(fs, line)
 	}
@@ -424,9 +425,10 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 			}
 			c.Scale, c.Label = f, unitText
 		case Date, Clock:
-			if o, ok := dateFormat(c.UnitText); ok && o != DateAuto && c.Kind == Date && im.opt.DateOrder == DateAuto {
+			if o, ok := dateFormat(unitText); ok && o != DateAuto && c.Kind == Date && im.opt.DateOrder == DateAuto {
 				im.order = o
-				c.Note = "date order " + o.String() + " from the units row"
+				c.Label = unitText
+				c.Note = "date order " + o.String() + ", as the column's format " + strconv.Quote(unitText) + " says"
 			}
 		}
 		if c.Kind != Meta && c.Kind != Concentration {

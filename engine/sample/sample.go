@@ -82,6 +82,8 @@ type Table struct {
 	Problems ProblemList
 	Preamble []string // lines above the header row, kept as written
 	Policy   Policy   // substitution applied to censored values in C
+	Comma    rune     // field delimiter read (detected or given)
+	Decimal  rune     // decimal mark read (detected or given)
 }
 
 // Species returns the species that have a column in the table, in
