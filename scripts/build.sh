@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Builds the Lixiv notebook page into a folder (default web/dist):
 #  1. vugugen turns web/*.vugu into web/*_gen.go (committed, refreshed here);
-#  2. the page wasm (wasm/) and the engine-only worker wasm (wasm/worker/);
+#  2. the page wasm (wasm/), engine and page together; long runs are
+#     computed in slices between frames, so no worker is needed;
 #  3. wasm_exec.js from the Go that built them, vugu's renderer helper, the
 #     static files of web/static and the demo budget from examples/;
 #  4. sw.js stamped with a hash of everything, so a new build refreshes the
@@ -17,7 +18,6 @@ gofmt -w web/*_gen.go
 rm -rf "$out.tmp"
 mkdir -p "$out.tmp"
 GOOS=js GOARCH=wasm "$GO" build -trimpath -ldflags="-s -w" -o "$out.tmp/main.wasm" ./wasm
-GOOS=js GOARCH=wasm "$GO" build -trimpath -ldflags="-s -w" -o "$out.tmp/worker.wasm" ./wasm/worker
 
 cp "$("$GO" env GOROOT)/lib/wasm/wasm_exec.js" "$out.tmp/"
 vugu=$("$GO" list -m -f '{{.Dir}}' github.com/vugu/vugu)
@@ -26,13 +26,13 @@ cp web/static/* "$out.tmp/"
 
 # The demo budget: the first budget file in examples/ whose folder or name
 # says demo, else the first budget file found.
-demo=$(find examples -type f -name '*.lixiv' 2>/dev/null | sort | grep -i -m1 'corrie\|demo' || true)
-[ -n "$demo" ] || demo=$(find examples -type f -name '*.lixiv' 2>/dev/null | sort | head -n1 || true)
+demo=$(find examples -type f -name '*.lixiv.json' 2>/dev/null | sort | grep -i -m1 'corrie\|demo' || true)
+[ -n "$demo" ] || demo=$(find examples -type f -name '*.lixiv.json' 2>/dev/null | sort | head -n1 || true)
 if [ -n "$demo" ]; then
-	cp "$demo" "$out.tmp/demo.lixiv"
+	cp "$demo" "$out.tmp/demo.lixiv.json"
 else
 	echo "build: no budget file in examples/; the page starts with an empty budget" >&2
-	printf '' >"$out.tmp/demo.lixiv"
+	printf '' >"$out.tmp/demo.lixiv.json"
 fi
 
 version=$(cd "$out.tmp" && cat $(ls | sort) | sha256sum | cut -c1-16)
@@ -42,6 +42,6 @@ gzip -9 -k -f "$out.tmp"/*.wasm
 rm -rf "$out"
 mv "$out.tmp" "$out"
 printf 'build: %s (version %s)\n' "$out" "$version"
-for f in main.wasm worker.wasm; do
+for f in main.wasm; do
 	printf '  %-12s %8d bytes raw, %8d bytes gzip\n' "$f" "$(stat -c %s "$out/$f")" "$(stat -c %s "$out/$f.gz")"
 done

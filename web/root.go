@@ -1,25 +1,592 @@
 package web
 
-import "github.com/vugu/vugu/js"
+import (
+	"context"
+	"fmt"
+	"path"
+	"strings"
+	"time"
 
-// Root is the page's top component.
+	"github.com/vugu/vugu"
+	"github.com/vugu/vugu/js"
+
+	"lixiv/engine/notebook"
+)
+
+// demoFile is the demo budget the build copies next to the page.
+const demoFile = "demo" + notebook.Extension
+
+// Root is the page's top component: header, summary strip, cells, footer.
 type Root struct {
-	ready bool
+	env vugu.EventEnv
+	S   *Session
+
+	Cells    []CellView
+	Headline []FigureView
+	Verify   string // whether stored results match the rerun
+	Seeds    string
+	Loading  string // what the page is loading, "" when idle
+	AddKind  string // kind chosen in the "add a cell" list
+	Dragging bool
+
+	SavedText string // the visible saved state
+	SavedOK   bool
+	Unsaved   bool // changed since the last download
+
+	charts   ChartCache
+	running  string
+	progress float64
+	busy     bool
+	cancel   context.CancelFunc
+	loopDone chan struct{}
+
+	editStart float64 // when the edit now computing was made (ms)
+	gen       int     // completed recomputes
+	ready     bool
+	keys      js.Func
+	rows      map[string]int // rows shown per input table
 }
 
-// Title is the budget name shown in the header.
-func (c *Root) Title() string { return "Lixiv" }
+// Init loads the last autosaved budget, or the demo on a first visit.
+func (c *Root) Init(ctx vugu.InitCtx) {
+	c.env = ctx.EventEnv()
+	c.AddKind = string(notebook.KindNote)
+	c.listenKeys()
+	if text, ok := storageGet(storageKey); ok && text != "" {
+		doc, err := notebook.Parse([]byte(text), "autosave")
+		if err == nil {
+			c.open(doc, docFileName(doc))
+			c.SavedText, c.SavedOK = "Reopened from this browser's storage", true
+			return
+		}
+		c.S = NewSession(notebook.New("Untitled budget"), "")
+		c.S.Message = "The autosaved budget could not be read (" + err.Error() + "); it is kept in storage until the next save."
+	}
+	c.Loading = "Opening the demo budget…"
+	go c.loadDemo()
+}
 
-// Rendered runs after each render of the page (called by the render loop in
-// wasm/, because vugu does not call it on the root). The first call marks
-// the body ready for tests and records the time to first render.
-func (c *Root) Rendered() {
-	if c.ready {
+func (c *Root) loadDemo() {
+	text, err := fetchText(demoFile)
+	c.env.Lock()
+	defer c.env.UnlockRender()
+	c.Loading = ""
+	var doc *notebook.Document
+	if err == nil && strings.TrimSpace(text) != "" {
+		doc, err = notebook.Parse([]byte(text), demoFile)
+	}
+	if doc == nil {
+		doc = notebook.New("Untitled budget")
+	}
+	if c.S == nil {
+		c.open(doc, docFileName(doc))
+	} else {
+		c.S.Replace(doc, docFileName(doc))
+	}
+	if err != nil {
+		c.S.Message = "The demo budget could not be opened: " + err.Error()
+	}
+}
+
+// open starts a session on doc and computes it.
+func (c *Root) open(doc *notebook.Document, name string) {
+	if c.S == nil {
+		c.S = NewSession(doc, name)
+		c.S.OnChange(c.changed)
+	} else {
+		c.S.Replace(doc, name)
 		return
 	}
-	c.ready = true
-	body := js.Global().Get("document").Get("body")
-	if body.Truthy() {
-		body.Get("dataset").Set("ready", "1")
+	c.changed()
+}
+
+// changed runs after every change of the document: autosave, then recompute.
+func (c *Root) changed() {
+	c.Unsaved = true
+	c.autosave()
+	c.editStart = nowMillis()
+	c.recompute()
+}
+
+func (c *Root) autosave() {
+	if err := storageSet(storageKey, string(c.S.Doc.Marshal())); err != nil {
+		c.SavedText, c.SavedOK = "Not saved: "+err.Error(), false
+		return
 	}
+	c.SavedText, c.SavedOK = "Saved in this browser at "+time.Now().Format("15:04:05"), true
+}
+
+func docFileName(d *notebook.Document) string {
+	base := strings.Map(func(r rune) rune {
+		if r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '-' || r == '_' {
+			return r
+		}
+		if r == ' ' {
+			return '-'
+		}
+		return -1
+	}, d.Title)
+	if base == "" {
+		base = "budget"
+	}
+	return base + notebook.Extension
+}
+
+// Compute gathers what the page shows before each render.
+func (c *Root) Compute(ctx vugu.ComputeCtx) {
+	if c.S == nil {
+		return
+	}
+	c.Cells = c.S.Cells(c.running, c.progress, &c.charts)
+	c.Headline = Headline(c.Cells, 6)
+	c.Verify, c.Seeds = c.footer()
+}
+
+func (c *Root) footer() (verify, seeds string) {
+	d := c.S.Doc
+	var ss []string
+	for _, cell := range d.Cells {
+		for _, p := range notebook.Params(cell.Settings) {
+			if p.Key == "seed" {
+				ss = append(ss, cell.ID+" "+p.Value)
+			}
+		}
+	}
+	seeds = strings.Join(ss, ", ")
+	if seeds == "" {
+		seeds = "none"
+	}
+	switch {
+	case c.busy || len(d.Pending()) > 0:
+		verify = "checking once the rerun is done"
+	case d.Stored == nil:
+		verify = "this budget holds no stored results"
+	default:
+		v, err := d.Verify()
+		switch {
+		case err != nil:
+			verify = "cannot compare: " + err.Error()
+		case v.Match:
+			verify = "stored results match the rerun"
+		default:
+			verify = fmt.Sprintf("stored results DIFFER from the rerun (%d figures differ)", len(v.Differ))
+		}
+	}
+	return verify, seeds
+}
+
+// EngineVersion is shown in the footer.
+func (c *Root) EngineVersion() string { return notebook.EngineVersion }
+
+// Title is the budget name shown in the header.
+func (c *Root) Title() string {
+	if c.S == nil {
+		return "Lixiv"
+	}
+	if c.S.Doc.Title == "" {
+		return "Untitled budget"
+	}
+	return c.S.Doc.Title
+}
+
+// Busy reports a recompute in progress.
+func (c *Root) Busy() bool { return c.busy }
+
+// Kinds lists the kinds a user can add.
+func (c *Root) Kinds() []string {
+	var out []string
+	for _, k := range notebook.Kinds {
+		out = append(out, string(k))
+	}
+	return out
+}
+
+// KindName is the label of a kind given as text.
+func (c *Root) KindName(k string) string { return KindLabel(notebook.Kind(k)) }
+
+// Rendered runs after each render (called by the render loop in wasm/,
+// because vugu does not call it on the root). It marks the body for tests
+// and the timing harness: data-ready after the first render, data-busy and
+// data-gen as recomputes start and finish.
+func (c *Root) Rendered() {
+	body := js.Global().Get("document").Get("body")
+	if !body.Truthy() {
+		return
+	}
+	ds := body.Get("dataset")
+	if !c.ready && c.S != nil && c.Loading == "" {
+		c.ready = true
+		ds.Set("ready", "1")
+		if b := js.Global().Get("lixivBoot"); b.Truthy() {
+			b.Set("firstRender", nowMillis())
+		}
+	}
+	busy := "0"
+	if c.busy {
+		busy = "1"
+	}
+	if ds.Get("busy").String() != busy || ds.Get("gen").String() != fmt.Sprint(c.gen) {
+		ds.Set("busy", busy)
+		ds.Set("gen", fmt.Sprint(c.gen))
+		if !c.busy && c.editStart > 0 {
+			js.Global().Set("lixivLastRecompute", nowMillis()-c.editStart)
+			c.editStart = 0
+		}
+	}
+}
+
+// recompute cancels a run in progress and starts computing the stale
+// cells. Call it with the event lock held.
+func (c *Root) recompute() {
+	if c.cancel != nil {
+		c.cancel()
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	c.cancel = cancel
+	prev, done := c.loopDone, make(chan struct{})
+	c.loopDone = done
+	c.busy = true
+	go c.run(ctx, c.S.Doc, prev, done)
+}
+
+// run computes the stale cells of doc one at a time, handing the main
+// thread back to the browser every few tens of milliseconds (also from
+// inside a long cell, through its progress reports) so that the page
+// scrolls, takes typing and shows the progress bar.
+func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan struct{}) {
+	defer close(done)
+	if prev != nil {
+		<-prev
+	}
+	const slice = 40 // ms of work between yields
+	last := nowMillis()
+	breathe := func() {
+		if nowMillis()-last > slice {
+			yieldToBrowser()
+			last = nowMillis()
+		}
+	}
+	progress := func(p notebook.Progress) {
+		if nowMillis()-last <= slice {
+			return
+		}
+		c.env.Lock()
+		c.running = p.Cell
+		if p.Total > 0 {
+			c.progress = float64(p.Done) / float64(p.Total)
+		}
+		c.env.UnlockRender()
+		breathe()
+	}
+	for {
+		if ctx.Err() != nil {
+			return
+		}
+		pending := doc.Pending()
+		if len(pending) > 0 {
+			c.env.Lock()
+			c.running, c.progress = pending[0], 0
+			c.env.UnlockOnly()
+		}
+		more, err := func() (more bool, err error) {
+			defer func() {
+				if r := recover(); r != nil {
+					more, err = false, fmt.Errorf("internal error: %v", r)
+				}
+			}()
+			return doc.Step(ctx, progress)
+		}()
+		if ctx.Err() != nil {
+			return
+		}
+		c.env.Lock()
+		c.charts.Gen++
+		if err != nil || !more {
+			c.running, c.busy = "", false
+			c.gen++
+			if err != nil {
+				c.S.Message = "Recompute stopped: " + err.Error()
+			}
+			c.env.UnlockRender()
+			return
+		}
+		c.env.UnlockRender()
+		breathe()
+	}
+}
+
+// listenKeys binds Ctrl+Z (undo) and Ctrl+Shift+Z or Ctrl+Y (redo) outside
+// text fields, where the browser's own undo applies.
+func (c *Root) listenKeys() {
+	c.keys = js.FuncOf(func(_ js.Value, args []js.Value) any {
+		e := args[0]
+		if !(e.Get("ctrlKey").Bool() || e.Get("metaKey").Bool()) {
+			return nil
+		}
+		key := strings.ToLower(e.Get("key").String())
+		if key != "z" && key != "y" {
+			return nil
+		}
+		tag := strings.ToLower(e.Get("target").Get("tagName").String())
+		if tag == "input" || tag == "textarea" || tag == "select" {
+			return nil
+		}
+		e.Call("preventDefault")
+		redo := key == "y" || e.Get("shiftKey").Bool()
+		go func() {
+			c.env.Lock()
+			defer c.env.UnlockRender()
+			if redo {
+				c.Redo()
+			} else {
+				c.Undo()
+			}
+		}()
+		return nil
+	})
+	js.Global().Get("document").Call("addEventListener", "keydown", c.keys)
+}
+
+// Undo goes back one edit.
+func (c *Root) Undo() {
+	if err := c.S.Undo(); err != nil {
+		c.S.Message = err.Error()
+	}
+}
+
+// Redo applies the last undone edit again.
+func (c *Root) Redo() {
+	if err := c.S.Redo(); err != nil {
+		c.S.Message = err.Error()
+	}
+}
+
+// CanUndo reports whether undo has something to do.
+func (c *Root) CanUndo() bool { return c.S != nil && c.S.CanUndo() }
+
+// CanRedo reports whether redo has something to do.
+func (c *Root) CanRedo() bool { return c.S != nil && c.S.CanRedo() }
+
+// OnBudgetTitle renames the budget.
+func (c *Root) OnBudgetTitle(e vugu.DOMEvent) {
+	c.S.SetBudgetTitle(e.PropString("target", "value"))
+}
+
+// OnOpenFile reads the file chosen in the picker.
+func (c *Root) OnOpenFile(e vugu.DOMEvent) {
+	files := e.JSEventTarget().Get("files")
+	if files.Length() == 0 {
+		return
+	}
+	f := files.Index(0)
+	e.JSEventTarget().Set("value", "")
+	go c.readAndOpen(f)
+}
+
+// OnDragOver lets a file be dropped anywhere on the page.
+func (c *Root) OnDragOver(e vugu.DOMEvent) {
+	e.PreventDefault()
+	c.Dragging = true
+}
+
+// OnDragLeave clears the drop hint.
+func (c *Root) OnDragLeave(e vugu.DOMEvent) { c.Dragging = false }
+
+// OnDrop opens a file dropped on the page.
+func (c *Root) OnDrop(e vugu.DOMEvent) {
+	e.PreventDefault()
+	c.Dragging = false
+	files := e.JSEvent().Get("dataTransfer").Get("files")
+	if files.Length() == 0 {
+		return
+	}
+	go c.readAndOpen(files.Index(0))
+}
+
+func (c *Root) readAndOpen(f js.Value) {
+	name := f.Get("name").String()
+	text, err := readFile(f)
+	c.env.Lock()
+	defer c.env.UnlockRender()
+	if err != nil {
+		c.S.Message = name + ": " + err.Error()
+		return
+	}
+	c.OpenText(name, text)
+}
+
+// OpenText opens a budget file, or reads a CSV/TSV table into the samples
+// or discharge cell (by its header), adding that cell when there is none.
+func (c *Root) OpenText(name, text string) {
+	trim := strings.TrimSpace(strings.TrimPrefix(text, "\ufeff"))
+	if strings.HasSuffix(strings.ToLower(name), ".json") || strings.HasPrefix(trim, "{") {
+		doc, err := notebook.Parse([]byte(text), name)
+		if err != nil {
+			c.S.Message = err.Error()
+			return
+		}
+		c.S.Replace(doc, path.Base(name))
+		c.Unsaved = false
+		return
+	}
+	t := ParseDelimited(text, true)
+	if len(t.Columns) == 0 {
+		c.S.Message = name + ": no table found (a CSV or TSV file needs a header row)"
+		return
+	}
+	kind := TableKind(t)
+	target := ""
+	for _, cell := range c.S.Doc.Cells {
+		if cell.Kind == kind {
+			target = cell.ID
+			break
+		}
+	}
+	if target == "" {
+		id, err := c.S.Add(kind, "")
+		if err != nil {
+			return
+		}
+		target = id
+	}
+	if err := c.S.LoadTable(target, t, path.Base(name)); err == nil {
+		c.S.Collapsed[target] = false
+		js.Global().Get("location").Set("hash", "#cell-"+target)
+	}
+}
+
+// TableKind guesses whether a table read from a file is a discharge record
+// (a date column and a discharge column, and no major ions) or samples.
+func TableKind(t *notebook.Table) notebook.Kind {
+	hasQ, hasIon := false, false
+	for _, col := range t.Columns {
+		l := strings.ToLower(strings.TrimSpace(col))
+		f := strings.FieldsFunc(l, func(r rune) bool { return r == ' ' || r == '(' || r == '[' || r == '_' })
+		first := ""
+		if len(f) > 0 {
+			first = f[0]
+		}
+		switch first {
+		case "q", "discharge", "flow", "runoff":
+			hasQ = true
+		case "ca", "na", "mg", "k", "cl", "so4", "hco3", "alkalinity", "calcium", "sodium":
+			hasIon = true
+		}
+	}
+	if hasQ && !hasIon {
+		return notebook.KindDischarge
+	}
+	return notebook.KindSamples
+}
+
+// DownloadBudget offers the budget file, with its results snapshot when
+// every cell is computed.
+func (c *Root) DownloadBudget() {
+	d := c.S.Doc
+	if len(d.Pending()) == 0 && !c.busy {
+		_ = d.Keep()
+	}
+	name := c.S.FileName
+	if name == "" || !strings.HasSuffix(name, notebook.Extension) {
+		name = docFileName(d)
+	}
+	download(name, "application/json", d.Marshal())
+	c.Unsaved = false
+}
+
+// OpenDemo reopens the demo budget (the current one stays reachable by undo).
+func (c *Root) OpenDemo() {
+	c.Loading = "Opening the demo budget…"
+	go c.loadDemo()
+}
+
+// OnAddKind remembers the kind chosen for a new cell.
+func (c *Root) OnAddKind(e vugu.DOMEvent) { c.AddKind = e.PropString("target", "value") }
+
+// AddCell appends a cell of the chosen kind.
+func (c *Root) AddCell() {
+	if id, err := c.S.Add(notebook.Kind(c.AddKind), ""); err == nil {
+		js.Global().Get("location").Set("hash", "#cell-"+id)
+	}
+}
+
+// shown returns how many rows of a cell's input table are shown.
+func (c *Root) shown(cell string) int {
+	if c.rows == nil {
+		c.rows = map[string]int{}
+	}
+	if n, ok := c.rows[cell]; ok {
+		return n
+	}
+	return pageRows
+}
+
+func (c *Root) showMore(cell string) { c.rows[cell] = c.shown(cell) + 100 }
+
+// PageClass is the class of the page element.
+func (c *Root) PageClass() string {
+	if c.Dragging {
+		return "page dragging"
+	}
+	return "page"
+}
+
+// SavedClass styles the saved state.
+func (c *Root) SavedClass() string {
+	if c.SavedOK {
+		return "saved ok"
+	}
+	return "saved bad"
+}
+
+// SavedLine is the visible saved state.
+func (c *Root) SavedLine() string {
+	s := c.SavedText
+	if c.Unsaved && c.SavedOK {
+		s += "; not yet downloaded"
+	}
+	return s
+}
+
+// Message is the page-wide message, if any.
+func (c *Root) Message() string {
+	if c.S == nil {
+		return ""
+	}
+	return c.S.Message
+}
+
+// CountsLine counts the cells by state.
+func (c *Root) CountsLine() string {
+	ok, bad := 0, 0
+	for _, v := range c.Cells {
+		switch v.State {
+		case "ok":
+			ok++
+		case "problem", "waiting":
+			bad++
+		}
+	}
+	return fmt.Sprintf("%d up to date, %d with problems", ok, bad)
+}
+
+// BusyLine says whether a recompute is running.
+func (c *Root) BusyLine() string {
+	if c.busy {
+		return "recomputing…"
+	}
+	return "all computed"
+}
+
+// Slug turns a figure name into an id fragment.
+func Slug(s string) string {
+	return strings.Map(func(r rune) rune {
+		if r >= 'a' && r <= 'z' || r >= '0' && r <= '9' {
+			return r
+		}
+		if r >= 'A' && r <= 'Z' {
+			return r + 32
+		}
+		return '-'
+	}, s)
 }

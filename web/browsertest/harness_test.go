@@ -188,3 +188,11 @@ func eval[T any](t testing.TB, ctx context.Context, script string) T {
 	}
 	return v
 }
+
+// waitIdle waits until no recompute is running.
+func waitIdle(t testing.TB, ctx context.Context) {
+	t.Helper()
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.busy === "0"`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		t.Fatalf("page did not finish computing: %v", err)
+	}
+}

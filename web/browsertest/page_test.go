@@ -8,7 +8,7 @@ func TestPageLoads(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
-	got := eval[string](t, ctx, `document.querySelector("h1").textContent`)
+	got := eval[string](t, ctx, `document.getElementById("budget-title").value`)
 	if got == "" {
 		t.Errorf("header: got empty text")
 	}

@@ -1,0 +1,52 @@
+//go:build browser
+
+package browsertest
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
+)
+
+// TestShots saves full-page screenshots of the demo budget, and one of each
+// cell, into the folder named by LIXIV_SHOTS. It is skipped when unset; it
+// makes pictures to look at, and asserts nothing about them.
+func TestShots(t *testing.T) {
+	dir := os.Getenv("LIXIV_SHOTS")
+	if dir == "" {
+		t.Skip("LIXIV_SHOTS not set")
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	time.Sleep(300 * time.Millisecond)
+	png, err := chromedp.Run(ctx, chromedp.FullScreenshot(100))
+	if err != nil {
+		t.Fatal(err)
+	}
+	save(t, filepath.Join(dir, "page.png"), png)
+	ids := eval[[]string](t, ctx, `[...document.querySelectorAll("section.cell")].map(e => e.id)`)
+	for _, id := range ids {
+		png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
+		if err != nil {
+			t.Errorf("%s: %v", id, err)
+			continue
+		}
+		save(t, filepath.Join(dir, id+".png"), png)
+	}
+}
+
+func save(t *testing.T, path string, data []byte) {
+	t.Helper()
+	if err := os.WriteFile(path, data, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("wrote %s", path)
+}

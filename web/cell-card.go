@@ -1,0 +1,322 @@
+package web
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/vugu/vugu"
+	"github.com/vugu/vugu/js"
+
+	"lixiv/engine/notebook"
+	"lixiv/web/plot"
+)
+
+// CellCard shows one cell: its header and state, its inputs (settings,
+// input cells, data table) above its outputs (figures, tables, charts).
+type CellCard struct {
+	R *Root     // the page, which routes every edit
+	V *CellView // what to show
+}
+
+// pageRows is how many table rows show before "show more".
+const pageRows = 25
+
+// Rows returns the rows of the input table that are shown.
+func (c *CellCard) Rows() [][]string {
+	t := c.V.Table
+	n := c.R.shown(c.V.ID)
+	if n > len(t.Rows) {
+		n = len(t.Rows)
+	}
+	return t.Rows[:n]
+}
+
+// MoreRows reports how many rows are hidden.
+func (c *CellCard) MoreRows() int { return len(c.V.Table.Rows) - len(c.Rows()) }
+
+// Unit returns the unit of column j of the input table.
+func (c *CellCard) Unit(j int) string {
+	if j < len(c.V.Table.Units) {
+		return c.V.Table.Units[j]
+	}
+	return ""
+}
+
+// RowCells pads a row to the table's width.
+func (c *CellCard) RowCells(r []string) []string {
+	if len(r) >= len(c.V.Table.Columns) {
+		return r
+	}
+	return pad(r, len(c.V.Table.Columns))
+}
+
+// ResultRows returns the rows of an output table shown, formatted.
+func (c *CellCard) ResultRows(ti int) [][]string {
+	t := c.V.Results[ti]
+	n := t.Len()
+	if !c.R.S.expanded(c.V.ID, ti) && n > 10 {
+		n = 10
+	}
+	rows := make([][]string, n)
+	for i := range rows {
+		row := make([]string, len(t.Columns))
+		for j, col := range t.Columns {
+			if col.Text != nil {
+				if i < len(col.Text) {
+					row[j] = col.Text[i]
+				}
+			} else if i < len(col.Num) {
+				row[j] = plot.Number(col.Num[i])
+			}
+		}
+		rows[i] = row
+	}
+	return rows
+}
+
+// ResultHidden says how many rows of output table ti are folded away.
+func (c *CellCard) ResultHidden(ti int) int {
+	return c.V.Results[ti].Len() - len(c.ResultRows(ti))
+}
+
+// ResultExpanded reports whether output table ti shows all its rows.
+func (c *CellCard) ResultExpanded(ti int) bool { return c.R.S.expanded(c.V.ID, ti) }
+
+// Header formats a result column heading with its unit.
+func Header(col *notebook.Column) string {
+	if col.Unit != "" {
+		return col.Name + " (" + col.Unit + ")"
+	}
+	return col.Name
+}
+
+// ProgressText is the percentage shown beside the progress bar.
+func (c *CellCard) ProgressText() string { return fmt.Sprintf("%.0f %%", c.V.Progress*100) }
+
+// IsNote reports a note cell.
+func (c *CellCard) IsNote() bool { return c.V.Kind == string(notebook.KindNote) }
+
+// NoteLines splits a note into paragraphs, shown as text.
+func (c *CellCard) NoteLines() []string {
+	var out []string
+	for _, p := range strings.Split(c.V.NoteText, "\n") {
+		if strings.TrimSpace(p) != "" {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// CanPaste reports a table that takes pasted rows.
+func (c *CellCard) CanPaste() bool {
+	return c.V.Kind == string(notebook.KindSamples) || c.V.Kind == string(notebook.KindDischarge) ||
+		c.V.Kind == string(notebook.KindSources) || c.V.Kind == string(notebook.KindAtmosphere)
+}
+
+// RoleChoice says whether a choice is the current one of a role.
+func RoleChoice(r RoleView, id string) bool { return r.Current == id }
+
+// Fill mounts a chart's SVG into its element when it changed (the
+// external-DOM pattern: vugu never touches the element's children).
+func (c *CellCard) Fill(el js.Value, ch ChartView) {
+	if d := el.Get("__lixivSVG"); d.Type() == js.TypeString && d.String() == ch.SVG {
+		return
+	}
+	el.Set("innerHTML", ch.SVG)
+	el.Set("__lixivSVG", ch.SVG)
+}
+
+// OnParam sets a setting from its field.
+func (c *CellCard) OnParam(key string, e vugu.DOMEvent) {
+	c.R.S.SetParam(c.V.ID, key, e.PropString("target", "value"))
+}
+
+// OnCheck sets a yes/no setting from its box.
+func (c *CellCard) OnCheck(key string, e vugu.DOMEvent) {
+	v := "no"
+	if e.PropBool("target", "checked") {
+		v = "yes"
+	}
+	c.R.S.SetParam(c.V.ID, key, v)
+}
+
+// OnTitle renames the cell.
+func (c *CellCard) OnTitle(e vugu.DOMEvent) { c.R.S.SetTitle(c.V.ID, e.PropString("target", "value")) }
+
+// OnValue sets one table cell.
+func (c *CellCard) OnValue(row, col int, e vugu.DOMEvent) {
+	c.R.S.SetValue(c.V.ID, row, col, e.PropString("target", "value"))
+}
+
+// OnColumn renames a column.
+func (c *CellCard) OnColumn(col int, e vugu.DOMEvent) {
+	c.R.S.SetColumn(c.V.ID, col, e.PropString("target", "value"))
+}
+
+// OnUnit sets a column's unit.
+func (c *CellCard) OnUnit(col int, e vugu.DOMEvent) {
+	c.R.S.SetUnit(c.V.ID, col, e.PropString("target", "value"))
+}
+
+// OnPaste adds rows pasted into the paste box at once.
+func (c *CellCard) OnPaste(e vugu.DOMEvent) {
+	cd := e.JSEvent().Get("clipboardData")
+	if !cd.Truthy() {
+		return
+	}
+	text := cd.Call("getData", "text/plain").String()
+	if strings.TrimSpace(text) == "" {
+		return
+	}
+	e.PreventDefault()
+	c.R.S.Paste(c.V.ID, text)
+}
+
+// OnPasteBox adds rows typed into the paste box when the button is pressed.
+func (c *CellCard) OnPasteBox(e vugu.DOMEvent) {
+	box := js.Global().Get("document").Call("getElementById", "paste-"+c.V.ID)
+	if !box.Truthy() {
+		return
+	}
+	text := box.Get("value").String()
+	if _, err := c.R.S.Paste(c.V.ID, text); err == nil {
+		box.Set("value", "")
+	}
+}
+
+// OnUses points an input role at another cell.
+func (c *CellCard) OnUses(role string, e vugu.DOMEvent) {
+	c.R.S.SetUses(c.V.ID, role, e.PropString("target", "value"))
+}
+
+// OnNote sets the text of a note cell.
+func (c *CellCard) OnNote(e vugu.DOMEvent) {
+	c.R.S.SetParam(c.V.ID, "text", e.PropString("target", "value"))
+}
+
+// ShowMore shows more rows of the input table.
+func (c *CellCard) ShowMore() { c.R.showMore(c.V.ID) }
+
+// ToggleResult folds or unfolds an output table.
+func (c *CellCard) ToggleResult(ti int) { c.R.S.toggleExpanded(c.V.ID, ti) }
+
+// ExportInput offers the input table as CSV.
+func (c *CellCard) ExportInput() {
+	download(c.V.ID+"-table.csv", "text/csv", []byte(c.V.Table.CSV()))
+}
+
+// ExportResult offers output table ti as CSV.
+func (c *CellCard) ExportResult(ti int) {
+	t := c.V.Results[ti]
+	download(c.V.ID+"-"+t.Name+".csv", "text/csv", []byte(ResultCSV(t)))
+}
+
+// ExportSVG offers a chart as an SVG file.
+func (c *CellCard) ExportSVG(ch ChartView) {
+	download(ch.ID+".svg", "image/svg+xml", []byte(ch.SVG))
+}
+
+// ExportPNG offers a chart as a PNG picture.
+func (c *CellCard) ExportPNG(ch ChartView) {
+	svg := ch.SVG
+	go func() {
+		w, h := svgSize(svg)
+		if err := downloadPNG(ch.ID+".png", svg, w, h); err != nil {
+			c.R.env.Lock()
+			c.R.S.Message = err.Error()
+			c.R.env.UnlockRender()
+		}
+	}()
+}
+
+// svgSize reads the width and height attributes of an SVG made by package plot.
+func svgSize(svg string) (w, h float64) {
+	w, h = 640, 380
+	fmt.Sscanf(attr(svg, "width"), "%g", &w)
+	fmt.Sscanf(attr(svg, "height"), "%g", &h)
+	return w, h
+}
+
+func attr(s, name string) string {
+	i := strings.Index(s, " "+name+`="`)
+	if i < 0 {
+		return ""
+	}
+	s = s[i+len(name)+3:]
+	j := strings.IndexByte(s, '"')
+	if j < 0 {
+		return ""
+	}
+	return s[:j]
+}
+
+// ResultCSV renders an output table as CSV with a header row carrying the
+// units, numbers at full precision.
+func ResultCSV(t *notebook.ResultTable) string {
+	tab := &notebook.Table{}
+	for _, col := range t.Columns {
+		tab.Columns = append(tab.Columns, Header(col))
+	}
+	for i := 0; i < t.Len(); i++ {
+		row := make([]string, len(t.Columns))
+		for j, col := range t.Columns {
+			switch {
+			case col.Text != nil && i < len(col.Text):
+				row[j] = col.Text[i]
+			case col.Num != nil && i < len(col.Num):
+				row[j] = fmt.Sprint(col.Num[i])
+			}
+		}
+		tab.Rows = append(tab.Rows, row)
+	}
+	return tab.CSV()
+}
+
+// FoldMark is the fold button's sign.
+func (c *CellCard) FoldMark() string {
+	if c.V.Collapsed {
+		return "▸"
+	}
+	return "▾"
+}
+
+// FoldTitle is the fold button's tooltip.
+func (c *CellCard) FoldTitle() string {
+	if c.V.Collapsed {
+		return "Unfold this cell"
+	}
+	return "Fold this cell"
+}
+
+// TableLine sums up the input table.
+func (c *CellCard) TableLine() string {
+	t := c.V.Table
+	return fmt.Sprintf("%d rows, %d columns", len(t.Rows), len(t.Columns))
+}
+
+// MoreLine labels the "show more" button.
+func (c *CellCard) MoreLine() string { return fmt.Sprintf("Show more rows (%d hidden)", c.MoreRows()) }
+
+// HasOutputs reports whether the cell has anything to show below its inputs.
+func (c *CellCard) HasOutputs() bool {
+	v := c.V
+	return c.IsNote() || len(v.Warnings) > 0 || len(v.Figures) > 0 || len(v.Charts) > 0 || len(v.Results) > 0
+}
+
+// ResultTitle heads output table ti.
+func (c *CellCard) ResultTitle(ti int) string {
+	t := c.V.Results[ti]
+	title := t.Title
+	if title == "" {
+		title = t.Name
+	}
+	return fmt.Sprintf("%s (%d rows)", title, t.Len())
+}
+
+// ResultToggleLine labels the fold button of output table ti.
+func (c *CellCard) ResultToggleLine(ti int) string {
+	if c.ResultExpanded(ti) {
+		return "Show fewer rows"
+	}
+	return fmt.Sprintf("Show all rows (%d more)", c.ResultHidden(ti))
+}

@@ -1,0 +1,103 @@
+package plot
+
+import (
+	"fmt"
+	"strings"
+)
+
+// Segment is one part of a stacked bar chart: a value per category, with an
+// optional interval per category (NaN or nil for none).
+type Segment struct {
+	Name          string
+	Style         Style
+	Value, Lo, Hi []float64
+}
+
+// Bars adds bars over categorical x positions, one bar per category,
+// its segments stacked in order. A segment's interval is drawn as a whisker
+// on the segment's top edge, shifted with it, so the bar reads "median
+// share, and the 95 % range of this source alone".
+func (c *Chart) Bars(categories []string, segs []Segment) {
+	c.X.Names = categories
+	c.X.Fixed = true
+	c.X.Min, c.X.Max = -0.6, float64(len(categories))-0.4
+	c.items = append(c.items, &bars{cats: categories, segs: segs})
+	for _, s := range segs {
+		c.legend = append(c.legend, legendEntry{s.Name, s.Style, "box"})
+	}
+}
+
+type bars struct {
+	cats []string
+	segs []Segment
+}
+
+func at(v []float64, i int) float64 {
+	if i < len(v) {
+		return v[i]
+	}
+	return nan
+}
+
+var nan = func() float64 { var z float64; return z / z }()
+
+func (br *bars) extend(c *Chart) {
+	c.Y.include(0)
+	for i := range br.cats {
+		base := 0.0
+		for _, s := range br.segs {
+			v := at(s.Value, i)
+			if !finite(v) {
+				continue
+			}
+			c.Y.include(base + v)
+			if hi := at(s.Hi, i); finite(hi) {
+				c.Y.include(base + hi)
+			}
+			base += v
+		}
+	}
+}
+
+func (br *bars) draw(b *strings.Builder, c *Chart) {
+	n := len(br.cats)
+	if n == 0 {
+		return
+	}
+	step := (c.X.hi - c.X.lo) / (c.X.Max - c.X.Min)
+	bw := step * 0.6
+	if bw > 60 {
+		bw = 60
+	}
+	for i := range br.cats {
+		x := c.X.Map(float64(i))
+		base := 0.0
+		for _, s := range br.segs {
+			v := at(s.Value, i)
+			if !finite(v) || v <= 0 {
+				continue
+			}
+			y0, y1 := c.Y.Map(base), c.Y.Map(base+v)
+			if finite(y0, y1) {
+				fmt.Fprintf(b, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1"><title>%s: %s</title></rect>`,
+					x-bw/2, y1, bw, y0-y1, c.hatchURL(s.Style), s.Style.Colour, esc(br.cats[i]+" "+s.Name), Number(v))
+			}
+			base += v
+		}
+		base = 0
+		for _, s := range br.segs {
+			v := at(s.Value, i)
+			if !finite(v) || v <= 0 {
+				continue
+			}
+			lo, hi := at(s.Lo, i), at(s.Hi, i)
+			if finite(lo, hi) {
+				ylo, yhi := c.Y.Map(base+lo), c.Y.Map(base+hi)
+				xw := x + bw/2 - 6
+				fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fh8" stroke="#111" stroke-width="1.2" fill="none"/>`,
+					xw, ylo, yhi, xw-4, ylo, xw-4, yhi)
+			}
+			base += v
+		}
+	}
+}

@@ -1,0 +1,292 @@
+package web
+
+import (
+	"fmt"
+	"strings"
+
+	"lixiv/engine/notebook"
+)
+
+// maxUndo is how many earlier states undo can go back to.
+const maxUndo = 60
+
+// Session is the open budget and what the page knows about it beyond the
+// document: undo history, the last message for each cell, the import notes
+// of tables read from files, and which cells are folded. The document is
+// the single source of truth for every number; the session only routes
+// edits to it.
+type Session struct {
+	Doc      *notebook.Document
+	FileName string // name the budget was opened from or will be saved as
+
+	undo, redo [][]byte
+
+	CellErr   map[string]string   // last rejected edit, per cell id
+	Notes     map[string][]string // what a file import did, per cell id
+	Collapsed map[string]bool     // folded cells
+	Message   string              // last page-wide message (file problems)
+
+	changed func() // called after every change of the document
+}
+
+// NewSession opens doc.
+func NewSession(doc *notebook.Document, fileName string) *Session {
+	s := &Session{}
+	s.reset(doc, fileName)
+	return s
+}
+
+func (s *Session) reset(doc *notebook.Document, fileName string) {
+	s.Doc, s.FileName = doc, fileName
+	s.CellErr = map[string]string{}
+	s.Notes = map[string][]string{}
+	if s.Collapsed == nil {
+		s.Collapsed = map[string]bool{}
+	}
+}
+
+// OnChange sets the function called after every change of the document
+// (the page uses it to autosave and recompute).
+func (s *Session) OnChange(f func()) { s.changed = f }
+
+// Do applies an edit. On success the earlier state goes on the undo stack,
+// the redo stack is cleared and the change is announced; on failure the
+// document is unchanged and the message is kept for the cell.
+func (s *Session) Do(cell string, edit func(d *notebook.Document) error) error {
+	before := s.Doc.Marshal()
+	if err := edit(s.Doc); err != nil {
+		if cell != "" {
+			s.CellErr[cell] = err.Error()
+		} else {
+			s.Message = err.Error()
+		}
+		return err
+	}
+	delete(s.CellErr, cell)
+	s.Message = ""
+	s.push(&s.undo, before)
+	s.redo = nil
+	s.announce()
+	return nil
+}
+
+func (s *Session) push(stack *[][]byte, b []byte) {
+	*stack = append(*stack, b)
+	if len(*stack) > maxUndo {
+		*stack = (*stack)[len(*stack)-maxUndo:]
+	}
+}
+
+func (s *Session) announce() {
+	if s.changed != nil {
+		s.changed()
+	}
+}
+
+// CanUndo and CanRedo report whether there is something to undo or redo.
+func (s *Session) CanUndo() bool { return len(s.undo) > 0 }
+
+// CanRedo reports whether an undone edit can be applied again.
+func (s *Session) CanRedo() bool { return len(s.redo) > 0 }
+
+// Undo goes back one edit.
+func (s *Session) Undo() error { return s.step(&s.undo, &s.redo) }
+
+// Redo applies the last undone edit again.
+func (s *Session) Redo() error { return s.step(&s.redo, &s.undo) }
+
+func (s *Session) step(from, to *[][]byte) error {
+	if len(*from) == 0 {
+		return nil
+	}
+	b := (*from)[len(*from)-1]
+	doc, err := notebook.Parse(b, s.FileName)
+	if err != nil {
+		return fmt.Errorf("undo: %w", err)
+	}
+	*from = (*from)[:len(*from)-1]
+	s.push(to, s.Doc.Marshal())
+	s.Doc = doc
+	s.CellErr = map[string]string{}
+	s.announce()
+	return nil
+}
+
+// Replace opens another document (a file the user opened); the current one
+// stays reachable by undo.
+func (s *Session) Replace(doc *notebook.Document, fileName string) {
+	s.push(&s.undo, s.Doc.Marshal())
+	s.redo = nil
+	s.reset(doc, fileName)
+	s.announce()
+}
+
+// SetParam sets one setting of a cell from text.
+func (s *Session) SetParam(cell, key, text string) error {
+	return s.Do(cell, func(d *notebook.Document) error { return d.SetParam(cell, key, text) })
+}
+
+// SetTitle renames a cell.
+func (s *Session) SetTitle(cell, title string) error {
+	return s.Do(cell, func(d *notebook.Document) error { return d.SetTitle(cell, title) })
+}
+
+// SetBudgetTitle renames the budget.
+func (s *Session) SetBudgetTitle(title string) error {
+	return s.Do("", func(d *notebook.Document) error {
+		d.Title = strings.TrimSpace(title)
+		return nil
+	})
+}
+
+// SetValue changes one cell of a cell's data table.
+func (s *Session) SetValue(cell string, row, col int, text string) error {
+	return s.Do(cell, func(d *notebook.Document) error { return d.SetValue(cell, row, col, text) })
+}
+
+// SetColumn renames a column (header) of a cell's data table.
+func (s *Session) SetColumn(cell string, col int, name string) error {
+	return s.editTable(cell, func(t *notebook.Table) error {
+		if col < 0 || col >= len(t.Columns) {
+			return fmt.Errorf("no column %d", col+1)
+		}
+		t.Columns[col] = strings.TrimSpace(name)
+		return nil
+	})
+}
+
+// SetUnit changes the unit of a column of a cell's data table.
+func (s *Session) SetUnit(cell string, col int, unit string) error {
+	return s.editTable(cell, func(t *notebook.Table) error {
+		if col < 0 || col >= len(t.Columns) {
+			return fmt.Errorf("no column %d", col+1)
+		}
+		if len(t.Units) < len(t.Columns) {
+			t.Units = pad(t.Units, len(t.Columns))
+		}
+		t.Units[col] = strings.TrimSpace(unit)
+		return nil
+	})
+}
+
+// Paste adds the rows of a block copied from a spreadsheet to a cell's
+// table and says how many were added.
+func (s *Session) Paste(cell, text string) (int, error) {
+	n := 0
+	err := s.editTable(cell, func(t *notebook.Table) error {
+		n = AppendRows(t, text)
+		if n == 0 {
+			return fmt.Errorf("the pasted text holds no rows")
+		}
+		return nil
+	})
+	if err == nil {
+		s.Notes[cell] = []string{fmt.Sprintf("%d rows pasted.", n)}
+	}
+	return n, err
+}
+
+// RemoveRow deletes one row of a cell's table.
+func (s *Session) RemoveRow(cell string, row int) error {
+	return s.editTable(cell, func(t *notebook.Table) error {
+		if row < 0 || row >= len(t.Rows) {
+			return fmt.Errorf("no row %d", row+1)
+		}
+		t.Rows = append(t.Rows[:row:row], t.Rows[row+1:]...)
+		return nil
+	})
+}
+
+// AddRow appends an empty row to a cell's table.
+func (s *Session) AddRow(cell string) error {
+	return s.editTable(cell, func(t *notebook.Table) error {
+		if len(t.Columns) == 0 {
+			return fmt.Errorf("the table has no columns yet: paste or open a file with a header row")
+		}
+		t.Rows = append(t.Rows, make([]string, len(t.Columns)))
+		return nil
+	})
+}
+
+// LoadTable replaces a cell's table with one read from a file.
+func (s *Session) LoadTable(cell string, t *notebook.Table, fileName string) error {
+	err := s.Do(cell, func(d *notebook.Document) error { return d.SetTable(cell, t) })
+	if err == nil {
+		s.Notes[cell] = []string{fmt.Sprintf("Read %d rows of %d columns from %s.", len(t.Rows), len(t.Columns), fileName)}
+	}
+	return err
+}
+
+func (s *Session) editTable(cell string, f func(t *notebook.Table) error) error {
+	return s.Do(cell, func(d *notebook.Document) error {
+		c := d.Cell(cell)
+		if c == nil {
+			return fmt.Errorf("no cell named %q", cell)
+		}
+		t := c.Table.Clone()
+		if t == nil {
+			return fmt.Errorf("a %s cell holds no table", c.Kind)
+		}
+		if err := f(t); err != nil {
+			return err
+		}
+		return d.SetTable(cell, t)
+	})
+}
+
+// SetUses points an input of a cell at another cell ("" for the nearest above).
+func (s *Session) SetUses(cell, role, target string) error {
+	return s.Do(cell, func(d *notebook.Document) error { return d.SetUses(cell, role, target) })
+}
+
+// Add inserts a new cell of kind k after the cell with id after ("" for the end).
+func (s *Session) Add(k notebook.Kind, after string) (string, error) {
+	var id string
+	err := s.Do("", func(d *notebook.Document) error {
+		at := -1
+		for i, c := range d.Cells {
+			if c.ID == after {
+				at = i + 1
+			}
+		}
+		c, err := d.Add(k, at)
+		if err == nil {
+			id = c.ID
+		}
+		return err
+	})
+	return id, err
+}
+
+// Remove deletes a cell.
+func (s *Session) Remove(cell string) error {
+	return s.Do("", func(d *notebook.Document) error { return d.Remove(cell) })
+}
+
+// Move shifts a cell up (by -1) or down (by +1).
+func (s *Session) Move(cell string, by int) error {
+	return s.Do(cell, func(d *notebook.Document) error {
+		for i, c := range d.Cells {
+			if c.ID == cell {
+				to := i + by
+				if to < 0 || to >= len(d.Cells) {
+					return nil
+				}
+				return d.Move(cell, to)
+			}
+		}
+		return fmt.Errorf("no cell named %q", cell)
+	})
+}
+
+// Toggle folds or unfolds a cell; it is view state, not an edit.
+func (s *Session) Toggle(cell string) { s.Collapsed[cell] = !s.Collapsed[cell] }
+
+func (s *Session) expanded(cell string, ti int) bool {
+	return s.Collapsed[fmt.Sprintf("%s/result/%d", cell, ti)]
+}
+
+func (s *Session) toggleExpanded(cell string, ti int) {
+	k := fmt.Sprintf("%s/result/%d", cell, ti)
+	s.Collapsed[k] = !s.Collapsed[k]
+}

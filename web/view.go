@@ -1,0 +1,218 @@
+package web
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"lixiv/engine/notebook"
+	"lixiv/web/plot"
+)
+
+// CellView is what the page shows of one cell, gathered from the document.
+type CellView struct {
+	ID, Kind, KindLabel, Title string
+	State                      string // css class: ok, stale, running, waiting, problem
+	StateText                  string
+	Problem                    string // why the cell waits or failed
+	EditErr                    string // last rejected edit
+	Collapsed                  bool
+	Params                     []ParamView
+	Roles                      []RoleView
+	HasTable                   bool
+	Table                      *notebook.Table
+	Notes                      []string // what an import or paste did
+	Warnings                   []string // the engine's warnings
+	Figures                    []FigureView
+	Results                    []*notebook.ResultTable
+	Charts                     []ChartView
+	NoteText                   string
+	Progress                   float64 // 0..1 while running
+}
+
+// ParamView is one setting as a form field.
+type ParamView struct {
+	Key, Label, Value, Type string
+	Options                 []string // choices, for a select
+}
+
+// RoleView is one input of a cell and the cells that can fill it.
+type RoleView struct {
+	Name, Current string
+	Choices       []string // ids of cells of the role's kind
+}
+
+// FigureView is a headline figure formatted for the page.
+type FigureView struct {
+	Cell, Name, Value, Interval, Unit string
+}
+
+// ChartView is a drawn chart: its id on the page, title and SVG text.
+type ChartView struct {
+	ID, Title, SVG string
+}
+
+var kindLabels = map[notebook.Kind]string{
+	notebook.KindSite: "Site", notebook.KindSamples: "Samples", notebook.KindDischarge: "Discharge",
+	notebook.KindAtmosphere: "Atmospheric input", notebook.KindSources: "End-members",
+	notebook.KindApportionment: "Apportionment", notebook.KindFluxes: "Fluxes", notebook.KindCO2: "CO2 budget",
+	notebook.KindNote: "Note", notebook.KindChart: "Chart", notebook.KindBroken: "Unreadable cell",
+}
+
+// KindLabel is the page's name for a cell kind.
+func KindLabel(k notebook.Kind) string {
+	if l, ok := kindLabels[k]; ok {
+		return l
+	}
+	return string(k)
+}
+
+// choices lists the accepted values of settings that take one of a few words.
+var choices = map[string][]string{
+	"below_detection":    {"half-limit", "zero", "limit", "leave-out"},
+	"date_order":         {"auto", "day-first", "month-first"},
+	"unit":               {"m3/s", "L/s", "m3/day", "mm/day"},
+	"method":             {"sea-salt", "rain"},
+	"excess_chloride":    {"halite", "human"},
+	"preset":             {"global", "granite", "basalt", "custom"},
+	"model":              {"inverse", "forward"},
+	"sulfate":            {"gypsum", "sulfide", "split"},
+	"negative_residuals": {"zero-and-flag", "keep"},
+	"estimator":          {"rating-curve", "discharge-weighted", "interpolation"},
+	"bias_correction":    {"smearing", "ferguson", "none"},
+	"time_scale":         {"short", "long"},
+	"sulfur_split":       {"proportional", "carbonate"},
+	"style":              {"points", "line"},
+}
+
+// unitSuffixes turn a setting key's unit ending into a readable unit.
+var unitSuffixes = []struct{ suffix, unit string }{
+	{"_km2", "km²"}, {"_percent", "%"}, {"_umol", "µmol/L"}, {"_mm", "mm/yr"},
+	{"_degrees", "°"}, {"_month", "month"},
+}
+
+// ParamLabel turns a setting key such as "area_km2" into "area (km²)".
+func ParamLabel(key string) string {
+	unit := ""
+	for _, s := range unitSuffixes {
+		if strings.HasSuffix(key, s.suffix) {
+			key, unit = strings.TrimSuffix(key, s.suffix), s.unit
+			break
+		}
+	}
+	l := strings.ReplaceAll(key, "_", " ")
+	l = strings.ReplaceAll(l, " per ", "/")
+	if strings.HasSuffix(l, "/cl") {
+		l = strings.ToUpper(l[:1]) + l[1:len(l)-3] + "/Cl (mol/mol)"
+		l = strings.Replace(l, "So4", "SO4", 1)
+	}
+	if unit != "" {
+		l += " (" + unit + ")"
+	}
+	return l
+}
+
+// FormatFigure formats a figure's median and its 95 % interval.
+func FormatFigure(f notebook.Figure) (value, interval string) {
+	value = plot.Number(f.Median)
+	if !math.IsNaN(f.Low) && !math.IsNaN(f.High) {
+		interval = fmt.Sprintf("95 %%: %s to %s", plot.Number(f.Low), plot.Number(f.High))
+	}
+	return value, interval
+}
+
+// Cells gathers the views of every cell. running names the cell being
+// computed and progress its share done.
+func (s *Session) Cells(running string, progress float64, charts *ChartCache) []CellView {
+	d := s.Doc
+	out := make([]CellView, 0, len(d.Cells))
+	for _, c := range d.Cells {
+		v := CellView{ID: c.ID, Kind: string(c.Kind), KindLabel: KindLabel(c.Kind), Title: c.Title,
+			EditErr: s.CellErr[c.ID], Collapsed: s.Collapsed[c.ID], Notes: s.Notes[c.ID]}
+		if v.Title == "" {
+			v.Title = v.KindLabel
+		}
+		st, err := d.Status(c.ID)
+		switch {
+		case c.ID == running:
+			v.State, v.StateText, v.Progress = "running", "recomputing", progress
+		case st == notebook.UpToDate:
+			v.State, v.StateText = "ok", "up to date"
+		case st == notebook.Stale:
+			v.State, v.StateText = "stale", "waiting to recompute"
+		case st == notebook.Waiting:
+			v.State, v.StateText = "waiting", "waiting for inputs"
+		default:
+			v.State, v.StateText = "problem", "problem"
+		}
+		if err != nil {
+			v.Problem = err.Error()
+		}
+		if c.Broken() {
+			v.Problem = c.Problem
+		}
+		if c.Settings != nil && !c.Broken() {
+			for _, p := range notebook.Params(c.Settings) {
+				if c.Kind == notebook.KindNote && p.Key == "text" {
+					v.NoteText = p.Value
+					continue
+				}
+				v.Params = append(v.Params, ParamView{Key: p.Key, Label: ParamLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]})
+			}
+		}
+		for _, r := range c.Kind.Roles() {
+			rv := RoleView{Name: r.Name, Current: c.Uses[r.Name]}
+			for _, o := range d.Cells {
+				if o.Kind == r.Kind && o.ID != c.ID {
+					rv.Choices = append(rv.Choices, o.ID)
+				}
+			}
+			v.Roles = append(v.Roles, rv)
+		}
+		if c.Table != nil {
+			v.HasTable, v.Table = true, c.Table
+		}
+		if o := d.Output(c.ID); o != nil {
+			v.Warnings = o.Warnings
+			for _, f := range o.Figures {
+				val, iv := FormatFigure(f)
+				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit})
+			}
+			v.Results = o.Tables
+			v.Charts = charts.For(d, c, o)
+		}
+		out = append(out, v)
+	}
+	return out
+}
+
+// Headline picks the budget's headline figures for the summary strip: CO2
+// consumption, weathering rates and runoff first, then any others, at most max.
+func Headline(cells []CellView, max int) []FigureView {
+	var all []FigureView
+	for _, c := range cells {
+		all = append(all, c.Figures...)
+	}
+	rank := func(f FigureView) int {
+		n := strings.ToLower(f.Name)
+		switch {
+		case strings.Contains(n, "co2") && strings.Contains(n, "silicate"):
+			return 0
+		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate"):
+			return 1
+		case strings.Contains(n, "co2"):
+			return 2
+		case strings.Contains(n, "silicate") && (strings.Contains(n, "weathering") || strings.Contains(n, "rate")):
+			return 3
+		case strings.Contains(n, "runoff"):
+			return 4
+		}
+		return 10
+	}
+	sort.SliceStable(all, func(i, j int) bool { return rank(all[i]) < rank(all[j]) })
+	if len(all) > max {
+		all = all[:max]
+	}
+	return all
+}
