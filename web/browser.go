@@ -153,7 +153,10 @@ func downloadPNG(name, svg string, width, height float64) error {
 	loaded := make(chan error, 1)
 	var onload, onerr js.Func
 	onload = js.FuncOf(func(js.Value, []js.Value) any { loaded <- nil; return nil })
-	onerr = js.FuncOf(func(js.Value, []js.Value) any { loaded <- errors.New("the chart could not be drawn as a picture"); return nil })
+	onerr = js.FuncOf(func(js.Value, []js.Value) any {
+		loaded <- errors.New("the chart could not be drawn as a picture")
+		return nil
+	})
 	img.Set("onload", onload)
 	img.Set("onerror", onerr)
 	img.Set("src", url)
