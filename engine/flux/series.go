@@ -86,8 +86,11 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 		}
 		k := rec.Index(d)
 		if k < 0 {
-			_, err := rec.At(d)
-			bad(err)
+			if rec.Len() == 0 {
+				bad(discharge.ErrOutside)
+			} else {
+				bad(fmt.Errorf("%w (%s to %s)", discharge.ErrOutside, rec.First(), rec.Last()))
+			}
 			continue
 		}
 		q := math.NaN()
@@ -95,9 +98,8 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 			q = s.Q[i]
 		}
 		if math.IsNaN(q) {
-			var err error
-			if q, err = rec.At(d); err != nil {
-				bad(err)
+			if q = rec.Q[k]; math.IsNaN(q) {
+				bad(discharge.ErrGap)
 				continue
 			}
 		}
