@@ -95,10 +95,11 @@ type prep struct {
 	par      [NTracers]int     // tracer of each row
 	w        [NTracers]float64 // weight 1/σ² of each row
 	d        [NTracers]float64 // measured ratio (0 for the isotope row)
-	iso      int               // row of 87Sr/86Sr, or -1
+	iso      int               // row of 87Sr/86Sr (always the last), or -1
 	riso     float64           // measured 87Sr/86Sr
 	meas     [NCations]float64 // measured cations, NaN if missing
 	thresh   float64           // chi-square acceptance threshold
+	c        float64           // sum of w d² over the rows, the misfit of a = 0
 	warnings []error
 }
 
@@ -160,21 +161,15 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 	}
 	pr.na = na
 	sNa := math.Max(o.RelErr[chem.Na]*na, o.FloorErr)
+	// Ratio rows first, the isotope row (if any) last: the fast kernels
+	// rely on that order.
+	iso := false
 	for _, t := range p.Tracers {
-		x := measured(c, t)
 		if t == Sr87Sr86 {
-			x = c[chem.Sr]
-			if math.IsNaN(w.Sr87Sr86) || math.IsNaN(x) || x <= 0 {
-				pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, t, w.Name))
-				continue
-			}
-			s := x / na * o.IsoErr
-			pr.iso = pr.m
-			pr.riso = w.Sr87Sr86
-			pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(t), 1/(s*s), 0
-			pr.m++
+			iso = true
 			continue
 		}
+		x := measured(c, t)
 		if math.IsNaN(x) || x < 0 {
 			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q; left out", ErrMissingTracer, t, w.Name))
 			continue
@@ -188,6 +183,22 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 		s := math.Sqrt((sx/na)*(sx/na) + (rho*sNa/na)*(rho*sNa/na))
 		pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(t), 1/(s*s), rho
 		pr.m++
+	}
+	if iso {
+		x := c[chem.Sr]
+		if math.IsNaN(w.Sr87Sr86) || math.IsNaN(x) || x <= 0 {
+			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, Sr87Sr86, w.Name))
+		} else {
+			// Row sum_j a_j (Sr/Na)_j (R_j - R) = 0; its 1σ is (Sr/Na) σ_R.
+			s := x / na * o.IsoErr
+			pr.iso = pr.m
+			pr.riso = w.Sr87Sr86
+			pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(Sr87Sr86), 1/(s*s), 0
+			pr.m++
+		}
+	}
+	for k := 0; k < pr.m; k++ {
+		pr.c += pr.w[k] * pr.d[k] * pr.d[k]
 	}
 	n := len(p.EndMembers)
 	if pr.m == 0 {

@@ -20,6 +20,7 @@ type Run struct {
 	n     int       // end-members
 	src   []Source  // source of each end-member
 	table []float64 // drawn ratios, layout [draw][tracer][end-member]
+	rtab  []float64 // the same reduced for the kernels (kernel.go)
 	res   *Result
 
 	cur     int // Step: sample being worked on
@@ -43,6 +44,9 @@ func NewRun(p Problem, o *Options) (*Run, error) {
 		r.src[j] = e.Source
 	}
 	r.table = drawTable(p.EndMembers, opt.Draws, opt.Seed)
+	if r.n == 3 || r.n == 4 {
+		r.rtab = reduceTable(r.table, r.n)
+	}
 	r.res = &Result{
 		Seed:       opt.Seed,
 		Draws:      opt.Draws,
@@ -201,81 +205,106 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 	return r.res, nil
 }
 
-// draws works sample s through draws [from, to): for each draw it builds
-// the weighted normal equations from the drawn end-member ratios, solves
-// the simplex-constrained least squares, scores chi-square and keeps or
-// drops the draw. It does not allocate, apart from growing the kept-draw
-// slices.
+// maxWeightChi2 is the largest misfit kept under Weight scoring: beyond it
+// exp(-chi2/2) is below the smallest normal float64.
+const maxWeightChi2 = 1400
+
+// draws works sample s through draws [from, to): for each draw it solves
+// the simplex-constrained least squares with the drawn end-member ratios,
+// scores chi-square and keeps or drops the draw. Three and four end-members
+// take unrolled kernels (kernel.go); other counts, and the draws whose
+// unconstrained optimum leaves the simplex, take the general solver.
 func (r *Run) draws(s, from, to int) {
 	sr := &r.res.Samples[s]
-	pr := &sr.prep
-	if pr.skip {
+	if sr.prep.skip {
 		return
 	}
-	n := r.n
-	stride := int(NTracers) * n
-	m := pr.m
-	var q simplexLS
-	q.n = n
-	var E [NTracers][MaxEndMembers]float64
-	var a [MaxEndMembers]float64
-	weight := r.opt.Scoring == Weight
 	if cap(sr.kept) == 0 {
-		c := max(16, (to-from)/4)
+		c := max(16, (to-from)/8)
 		sr.kept = make([]int32, 0, c)
 		sr.chi2 = make([]float64, 0, c)
-		sr.alpha = make([]float64, 0, c*n)
+		sr.alpha = make([]float64, 0, c*r.n)
 	}
-	for d := from; d < to; d++ {
-		tab := r.table[d*stride : (d+1)*stride]
+	bound := sr.prep.thresh
+	if r.opt.Scoring == Weight {
+		bound = maxWeightChi2
+	}
+	switch r.n {
+	case 4:
+		r.draws4(sr, from, to, bound)
+	case 3:
+		r.draws3(sr, from, to, bound)
+	default:
+		var a [MaxEndMembers]float64
+		for d := from; d < to; d++ {
+			if chi2, ok := r.general(&sr.prep, d, bound, &a); ok {
+				sr.keep(d, chi2, a[:r.n])
+			}
+		}
+	}
+}
+
+// keep records a kept draw.
+func (sr *SampleResult) keep(d int, chi2 float64, a []float64) {
+	sr.kept = append(sr.kept, int32(d))
+	sr.chi2 = append(sr.chi2, chi2)
+	sr.alpha = append(sr.alpha, a...)
+}
+
+// row fills e with row k of the mixing matrix E of draw d: the drawn ratios
+// of the row's tracer, or for the isotope row (Sr/Na)_j (R_j - R_measured).
+func (r *Run) row(pr *prep, d, k int, e *[MaxEndMembers]float64) {
+	n := r.n
+	tab := r.table[d*int(NTracers)*n : (d+1)*int(NTracers)*n]
+	row := tab[pr.par[k]*n : pr.par[k]*n+n]
+	if k == pr.iso {
+		sr := tab[int(SrNa)*n : int(SrNa)*n+n]
+		for j := 0; j < n; j++ {
+			e[j] = sr[j] * (row[j] - pr.riso)
+		}
+		return
+	}
+	copy(e[:n], row)
+}
+
+// misfit returns chi2 = sum_k w_k (E_k a - d_k)² for draw d, from the
+// residuals themselves.
+func (r *Run) misfit(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
+	var e [MaxEndMembers]float64
+	chi2 := 0.0
+	for k := 0; k < pr.m; k++ {
+		r.row(pr, d, k, &e)
+		v := -pr.d[k]
+		for j := 0; j < r.n; j++ {
+			v += e[j] * a[j]
+		}
+		chi2 += pr.w[k] * v * v
+	}
+	return chi2
+}
+
+// general solves draw d with the face-enumerating solver and reports the
+// misfit and whether the draw is kept (chi2 <= bound).
+func (r *Run) general(pr *prep, d int, bound float64, a *[MaxEndMembers]float64) (float64, bool) {
+	n := r.n
+	q := simplexLS{n: n}
+	var e [MaxEndMembers]float64
+	for k := 0; k < pr.m; k++ {
+		r.row(pr, d, k, &e)
+		w, dk := pr.w[k], pr.d[k]
 		for i := 0; i < n; i++ {
-			q.g[i] = 0
+			wi := w * e[i]
+			q.g[i] += wi * dk
+			Gi := &q.G[i]
 			for j := 0; j <= i; j++ {
-				q.G[i][j] = 0
+				Gi[j] += wi * e[j]
 			}
 		}
-		for k := 0; k < m; k++ {
-			e := &E[k]
-			row := tab[pr.par[k]*n : pr.par[k]*n+n]
-			if k == pr.iso {
-				sr := tab[int(SrNa)*n : int(SrNa)*n+n]
-				for j := 0; j < n; j++ {
-					e[j] = sr[j] * (row[j] - pr.riso)
-				}
-			} else {
-				copy(e[:n], row)
-			}
-			w, dk := pr.w[k], pr.d[k]
-			for i := 0; i < n; i++ {
-				wi := w * e[i]
-				q.g[i] += wi * dk
-				Gi := &q.G[i]
-				for j := 0; j <= i; j++ {
-					Gi[j] += wi * e[j]
-				}
-			}
-		}
-		q.sym()
-		if !q.solve(&a) {
-			continue
-		}
-		chi2 := 0.0
-		for k := 0; k < m; k++ {
-			v := -pr.d[k]
-			for j := 0; j < n; j++ {
-				v += E[k][j] * a[j]
-			}
-			chi2 += pr.w[k] * v * v
-		}
-		if weight {
-			if !(chi2 < 1400) { // exp(-700) and below: weight 0
-				continue
-			}
-		} else if !(chi2 <= pr.thresh) {
-			continue
-		}
-		sr.kept = append(sr.kept, int32(d))
-		sr.chi2 = append(sr.chi2, chi2)
-		sr.alpha = append(sr.alpha, a[:n]...)
 	}
+	q.sym()
+	if ok, pruned := q.solve(a, pr.c, bound); !ok || pruned {
+		return 0, false
+	}
+	chi2 := r.misfit(pr, d, a)
+	return chi2, chi2 <= bound
 }

@@ -26,6 +26,11 @@ const MaxEndMembers = 6
 //
 // The result is written to a (entries beyond n are zeroed); ok is false
 // only if no face could be solved (G not finite).
+//
+// With c = dᵀ W d the misfit is chi2(a) = 2 f(a) + c. The minimum over the
+// whole affine hull (the first face) is a lower bound of the constrained
+// minimum, so when it already exceeds bound the draw cannot be accepted and
+// solve stops early with pruned true (a is then not the minimiser).
 type simplexLS struct {
 	n int
 	G [MaxEndMembers][MaxEndMembers]float64 // only the lower triangle i >= j is read
@@ -59,7 +64,7 @@ func (q *simplexLS) sym() {
 
 // solve finds the minimiser. G must be symmetric (call sym after filling the
 // lower triangle).
-func (q *simplexLS) solve(a *[MaxEndMembers]float64) (ok bool) {
+func (q *simplexLS) solve(a *[MaxEndMembers]float64, c, bound float64) (ok, pruned bool) {
 	n := q.n
 	// Scales for the tolerances: the largest diagonal of G and of g.
 	gs := 0.0
@@ -81,9 +86,25 @@ func (q *simplexLS) solve(a *[MaxEndMembers]float64) (ok bool) {
 	bestF := 0.0
 	haveBest := false
 	var y [MaxEndMembers]float64
+	full := uint8(1<<n - 1)
 	for _, mask := range faceOrder[n] {
 		if !q.face(mask, &y) {
 			continue
+		}
+		if mask == full {
+			f := 0.0
+			for i := 0; i < n; i++ {
+				s := 0.0
+				for j := 0; j < n; j++ {
+					s += q.G[i][j] * y[j]
+				}
+				f += y[i] * (0.5*s - q.g[i])
+			}
+			// The margin covers the rounding of the expanded form.
+			if lb := 2*f + c; lb-1e-9*(c+1) > bound {
+				*a = y
+				return true, true
+			}
 		}
 		feasible := true
 		for j := 0; j < n; j++ {
@@ -119,7 +140,7 @@ func (q *simplexLS) solve(a *[MaxEndMembers]float64) (ok bool) {
 		}
 		if kkt {
 			*a = y
-			return true
+			return true, false
 		}
 		if !haveBest || f < bestF {
 			best, bestF, haveBest = y, f, true
@@ -127,10 +148,10 @@ func (q *simplexLS) solve(a *[MaxEndMembers]float64) (ok bool) {
 	}
 	if haveBest {
 		*a = best
-		return true
+		return true, false
 	}
 	*a = [MaxEndMembers]float64{}
-	return false
+	return false, false
 }
 
 // face solves the equality-constrained problem on the face given by mask and

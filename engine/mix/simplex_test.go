@@ -87,7 +87,7 @@ func fastSimplexLS(E [][]float64, w, d []float64) (alpha []float64, chi2 float64
 	}
 	q.sym()
 	var a [MaxEndMembers]float64
-	if !q.solve(&a) {
+	if ok, _ := q.solve(&a, 0, math.Inf(1)); !ok {
 		return nil, math.NaN()
 	}
 	for r := 0; r < m; r++ {

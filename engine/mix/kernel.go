@@ -1,0 +1,196 @@
+package mix
+
+// The kernels below are the hot loop of the inverse model for three and
+// four end-members, written out with scalar variables: WebAssembly runs
+// Go's loops over small arrays several times slower than native code, but
+// straight-line scalar code at close to native speed.
+//
+// Eliminating the closure with the last end-member r as reference, a = e_r
+// + P y, the weighted least-squares problem on the whole affine hull reads
+// min_y sum_k w_k (u_kᵀ y - t_k)² with u_kj = E_kj - E_kr and t_k = d_k -
+// E_kr. Its normal equations H y = b (H = sum w u uᵀ, b = sum w t u) are
+// solved by an unrolled Cholesky factorisation H = L Lᵀ; with z = L⁻¹ b
+// the minimum misfit is sum w t² - zᵀz. That minimum bounds the constrained
+// one from below, so most draws are rejected right there. When y is
+// feasible (all a >= 0) it is the constrained minimum; otherwise, or when H
+// is singular, the draw goes to the general face-enumerating solver.
+
+// reduceTable returns, for every draw and tracer, E_j - E_r for j < r and
+// E_r in the last place (r = n - 1).
+func reduceTable(tab []float64, n int) []float64 {
+	rt := make([]float64, len(tab))
+	for o := 0; o < len(tab); o += n {
+		er := tab[o+n-1]
+		for j := 0; j < n-1; j++ {
+			rt[o+j] = tab[o+j] - er
+		}
+		rt[o+n-1] = er
+	}
+	return rt
+}
+
+// pivotTol is the relative size below which a Cholesky pivot counts as zero
+// (the same as in simplexLS.face).
+const pivotTol = 1e-13
+
+func (r *Run) draws4(sr *SampleResult, from, to int, bound float64) {
+	const n = 4
+	const stride = int(NTracers) * n
+	pr := &sr.prep
+	mr := pr.m
+	if pr.iso >= 0 {
+		mr--
+	}
+	rt, tab := r.rtab, r.table
+	var a [MaxEndMembers]float64
+	for d := from; d < to; d++ {
+		base := d * stride
+		var h00, h10, h11, h20, h21, h22, b0, b1, b2, cc float64
+		for k := 0; k < mr; k++ {
+			o := base + pr.par[k]*n
+			u := rt[o : o+n : o+n]
+			u0, u1, u2 := u[0], u[1], u[2]
+			w := pr.w[k]
+			t := pr.d[k] - u[3]
+			w0, w1, w2, wt := w*u0, w*u1, w*u2, w*t
+			h00 += w0 * u0
+			h10 += w1 * u0
+			h11 += w1 * u1
+			h20 += w2 * u0
+			h21 += w2 * u1
+			h22 += w2 * u2
+			b0 += wt * u0
+			b1 += wt * u1
+			b2 += wt * u2
+			cc += wt * t
+		}
+		if pr.iso >= 0 {
+			o := base + int(SrNa)*n
+			s := tab[o : o+n : o+n]
+			o = base + int(Sr87Sr86)*n
+			R := tab[o : o+n : o+n]
+			rm := pr.riso
+			e3 := s[3] * (R[3] - rm)
+			u0, u1, u2 := s[0]*(R[0]-rm)-e3, s[1]*(R[1]-rm)-e3, s[2]*(R[2]-rm)-e3
+			w := pr.w[pr.iso]
+			t := -e3
+			w0, w1, w2, wt := w*u0, w*u1, w*u2, w*t
+			h00 += w0 * u0
+			h10 += w1 * u0
+			h11 += w1 * u1
+			h20 += w2 * u0
+			h21 += w2 * u1
+			h22 += w2 * u2
+			b0 += wt * u0
+			b1 += wt * u1
+			b2 += wt * u2
+			cc += wt * t
+		}
+		tol := pivotTol * max(h00, h11, h22)
+		if h00 > tol && tol > 0 {
+			l00 := sqrt(h00)
+			l10, l20 := h10/l00, h20/l00
+			if d1 := h11 - l10*l10; d1 > tol {
+				l11 := sqrt(d1)
+				l21 := (h21 - l20*l10) / l11
+				if d2 := h22 - l20*l20 - l21*l21; d2 > tol {
+					l22 := sqrt(d2)
+					z0 := b0 / l00
+					z1 := (b1 - l10*z0) / l11
+					z2 := (b2 - l20*z0 - l21*z1) / l22
+					if cc-(z0*z0+z1*z1+z2*z2)-1e-9*(cc+1) > bound {
+						continue // even the unconstrained optimum misfits
+					}
+					y2 := z2 / l22
+					y1 := (z1 - l21*y2) / l11
+					y0 := (z0 - l10*y1 - l20*y2) / l00
+					y3 := 1 - y0 - y1 - y2
+					if y0 >= 0 && y1 >= 0 && y2 >= 0 && y3 >= 0 {
+						a = [MaxEndMembers]float64{y0, y1, y2, y3}
+						if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+							sr.keep(d, chi2, a[:n])
+						}
+						continue
+					}
+				}
+			}
+		}
+		if chi2, ok := r.general(pr, d, bound, &a); ok {
+			sr.keep(d, chi2, a[:n])
+		}
+	}
+}
+
+func (r *Run) draws3(sr *SampleResult, from, to int, bound float64) {
+	const n = 3
+	const stride = int(NTracers) * n
+	pr := &sr.prep
+	mr := pr.m
+	if pr.iso >= 0 {
+		mr--
+	}
+	rt, tab := r.rtab, r.table
+	var a [MaxEndMembers]float64
+	for d := from; d < to; d++ {
+		base := d * stride
+		var h00, h10, h11, b0, b1, cc float64
+		for k := 0; k < mr; k++ {
+			o := base + pr.par[k]*n
+			u := rt[o : o+n : o+n]
+			u0, u1 := u[0], u[1]
+			w := pr.w[k]
+			t := pr.d[k] - u[2]
+			w0, w1, wt := w*u0, w*u1, w*t
+			h00 += w0 * u0
+			h10 += w1 * u0
+			h11 += w1 * u1
+			b0 += wt * u0
+			b1 += wt * u1
+			cc += wt * t
+		}
+		if pr.iso >= 0 {
+			o := base + int(SrNa)*n
+			s := tab[o : o+n : o+n]
+			o = base + int(Sr87Sr86)*n
+			R := tab[o : o+n : o+n]
+			rm := pr.riso
+			e2 := s[2] * (R[2] - rm)
+			u0, u1 := s[0]*(R[0]-rm)-e2, s[1]*(R[1]-rm)-e2
+			w := pr.w[pr.iso]
+			t := -e2
+			w0, w1, wt := w*u0, w*u1, w*t
+			h00 += w0 * u0
+			h10 += w1 * u0
+			h11 += w1 * u1
+			b0 += wt * u0
+			b1 += wt * u1
+			cc += wt * t
+		}
+		tol := pivotTol * max(h00, h11)
+		if h00 > tol && tol > 0 {
+			l00 := sqrt(h00)
+			l10 := h10 / l00
+			if d1 := h11 - l10*l10; d1 > tol {
+				l11 := sqrt(d1)
+				z0 := b0 / l00
+				z1 := (b1 - l10*z0) / l11
+				if cc-(z0*z0+z1*z1)-1e-9*(cc+1) > bound {
+					continue
+				}
+				y1 := z1 / l11
+				y0 := (z0 - l10*y1) / l00
+				y2 := 1 - y0 - y1
+				if y0 >= 0 && y1 >= 0 && y2 >= 0 {
+					a = [MaxEndMembers]float64{y0, y1, y2}
+					if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+						sr.keep(d, chi2, a[:n])
+					}
+					continue
+				}
+			}
+		}
+		if chi2, ok := r.general(pr, d, bound, &a); ok {
+			sr.keep(d, chi2, a[:n])
+		}
+	}
+}
