@@ -41,8 +41,14 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 	col := make([]float64, n)
 	for s := range res.Sigma {
 		for i := range res.Sigma[s] {
+			same := true
 			for k := range res.Draws {
 				col[k] = res.Draws[k][s][i]
+				same = same && col[k] == col[0]
+			}
+			if same { // a row the ratios do not touch: no spread
+				res.Sigma[s][i], res.Lo[s][i], res.Hi[s][i] = 0, col[0], col[0]
+				continue
 			}
 			res.Sigma[s][i] = fwdStdDev(col)
 			slices.Sort(col)
