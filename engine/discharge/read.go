@@ -383,7 +383,8 @@ func build(imp *Import, rd []reading, opt Options, add func(int, int, string, er
 	}
 	imp.Gaps = imp.Record.Gaps()
 	if len(imp.Gaps) > 0 {
-		imp.Notes = append(imp.Notes, fmt.Sprintf("%d gap days in %d gaps, not filled", imp.Record.Missing(), len(imp.Gaps)))
+		m := imp.Record.Missing()
+		imp.Notes = append(imp.Notes, fmt.Sprintf("%d gap %s in %d %s, not filled", m, plural(m, "day", "days"), len(imp.Gaps), plural(len(imp.Gaps), "gap", "gaps")))
 	}
 }
 

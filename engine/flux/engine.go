@@ -26,6 +26,7 @@ type engine struct {
 	cS  []float64
 
 	cd []float64 // scratch: daily concentration
+	ly []float64 // scratch: per-sample ln C − ln Cref
 }
 
 func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt Options) *engine {

@@ -49,6 +49,11 @@ func pexp(x float64) float64 {
 	t := r * r
 	c := r - t*(p1+t*(p2+t*(p3+t*(p4+t*p5))))
 	y := 1 - ((lo - (r*c)/(2-c)) - hi)
+	if k > -1020 && k < 1020 {
+		// Multiplying by an exact power of two is exact: the same bits as
+		// math.Ldexp, without its general-case work.
+		return y * math.Float64frombits(uint64(k+1023)<<52)
+	}
 	return math.Ldexp(y, k)
 }
 

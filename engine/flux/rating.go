@@ -82,6 +82,15 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
 	}
 	lref := plog(cpos)
 	ok := func(i int) bool { return w[i] > 0 && c[i] > 0 && e.smp[i].q > 0 }
+	if len(e.ly) < len(c) {
+		e.ly = make([]float64, len(c))
+	}
+	ly := e.ly
+	for i := range c {
+		if ok(i) {
+			ly[i] = plog(c[i]) - lref
+		}
+	}
 	x := func(i, j int) float64 {
 		switch j {
 		case 0:
@@ -108,7 +117,7 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
 		}
 		distinct++
 		sw += w[i]
-		ybar += w[i] * (plog(c[i]) - lref)
+		ybar += w[i] * ly[i]
 		for j := 0; j < m; j++ {
 			xbar[j] += w[i] * x(i, j)
 		}
@@ -127,7 +136,7 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
 		if !ok(i) {
 			continue
 		}
-		dy := (plog(c[i]) - lref) - ybar
+		dy := ly[i] - ybar
 		syy += w[i] * dy * dy
 		for j := 0; j < m; j++ {
 			dj := x(i, j) - xbar[j]
@@ -178,7 +187,7 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
 		if !ok(i) {
 			continue
 		}
-		r := (plog(c[i]) - lref) - b0
+		r := ly[i] - b0
 		for j := 0; j < m; j++ {
 			r -= beta[j] * x(i, j)
 		}
