@@ -9,7 +9,7 @@ DIST    := web/dist
 FUZZTIME ?= 3s
 ENGINE_PKGS = $$($(GO) list ./engine/... | grep -v /cmd/)
 
-.PHONY: all build serve test vet unit wasmtest fuzz-short fuzz browser chromium bench deps-check clean
+.PHONY: all build serve test vet unit wasmtest fuzz-short fuzz browser browser-timing shots chromium bench deps-check clean
 
 all: build
 
@@ -51,6 +51,15 @@ chromium:
 # browser: chromedp tests against Debian's Chromium and the built page.
 browser: chromium build
 	$(GO) test -count=1 -tags browser -timeout 10m ./web/browsertest/
+
+# browser-timing: first render of the demo and edit-to-repaint times, printed (no assertion).
+browser-timing: chromium build
+	LIXIV_TIMING=1 $(GO) test -count=1 -tags browser -timeout 10m -run Timing -v ./web/browsertest/ | grep -E 'timing|ok|FAIL'
+
+# shots: screenshots of the page and of each cell into $(SHOTS).
+SHOTS ?= /tmp/lixiv/shots
+shots: chromium build
+	LIXIV_SHOTS=$(SHOTS) $(GO) test -count=1 -tags browser -timeout 5m -run Shots -v ./web/browsertest/ | grep -E 'wrote|ok|FAIL'
 
 bench:
 	$(GO) test -run '^$$' -bench . -benchmem ./engine/...

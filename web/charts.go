@@ -210,39 +210,116 @@ func hydrograph(id string, d *notebook.Document, o *notebook.Output) *plot.Chart
 }
 
 // mixingChart draws Ca/Na against another ratio to Na on log axes: the
-// samples as points and each end-member's prior range as a box.
+// samples as points and each end-member's prior range as a hatched box.
 func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.Output, xRatio string) *plot.Chart {
 	ch := plot.New(id, "Mixing diagram: Ca/Na against "+xRatio, xRatio+" (mol/mol)", "Ca/Na (mol/mol)")
 	ch.X.Log, ch.Y.Log = true, true
-	ends := table(o, []string{"priors", "end-members", "sources"}, "end-member")
-	if ends != nil {
-		name := column(ends, "end-member", "name", "source")
-		xlo, xhi := column(ends, xRatio+" low", xRatio+"_low", xRatio+" min"), column(ends, xRatio+" high", xRatio+"_high", xRatio+" max")
-		ylo, yhi := column(ends, "Ca/Na low", "Ca/Na_low", "Ca/Na min"), column(ends, "Ca/Na high", "Ca/Na_high", "Ca/Na max")
-		if name != nil && xlo != nil && xhi != nil && ylo != nil && yhi != nil {
-			names := texts(name)
-			for i := range names {
-				ch.Box(names[i], plot.StyleN(i+1), xlo.Num[i], xhi.Num[i], ylo.Num[i], yhi.Num[i])
-			}
-		}
+	for i, b := range priorBoxes(table(o, []string{"priors"}, "end-member", "ratio"), xRatio) {
+		ch.Box(b.name, plot.StyleN(i+1), b.x0, b.x1, b.y0, b.y1)
 	}
-	// Samples: the ratios after the atmospheric correction, from the
-	// atmosphere cell the apportionment reads, else from any atmosphere cell.
-	for _, a := range d.Cells {
-		if a.Kind != notebook.KindAtmosphere {
-			continue
-		}
-		t := table(d.Output(a.ID), []string{"corrected", "ratios"}, "Ca/Na", xRatio)
-		x, y := column(t, xRatio), column(t, "Ca/Na")
-		if x != nil && y != nil && x.Num != nil && y.Num != nil {
-			ch.Points("samples (rain-corrected)", plot.StyleN(0), x.Num, y.Num, texts(column(t, "sample", "name")))
-			break
-		}
+	if x, y, names, label := sampleRatios(d, xRatio); x != nil {
+		ch.Points(label, plot.StyleN(0), x, y, names)
 	}
 	if ch.Empty() {
 		return nil
 	}
 	return ch
+}
+
+type priorBox struct {
+	name           string
+	x0, x1, y0, y1 float64
+}
+
+// priorBoxes reads the end-member table (one row per end-member and ratio,
+// with low and high bounds) into boxes spanning the Ca/Na and xRatio ranges.
+func priorBoxes(t *notebook.ResultTable, xRatio string) []priorBox {
+	name, ratio := column(t, "end-member"), column(t, "ratio")
+	lo, hi := column(t, "low"), column(t, "high")
+	if name == nil || ratio == nil || lo == nil || hi == nil || name.Text == nil || ratio.Text == nil {
+		return nil
+	}
+	var order []string
+	got := map[string]*priorBox{}
+	seen := map[string][2]bool{}
+	for i := range name.Text {
+		n, r := name.Text[i], ratio.Text[i]
+		if got[n] == nil {
+			got[n] = &priorBox{name: n}
+			order = append(order, n)
+		}
+		b, s := got[n], seen[n]
+		switch {
+		case strings.EqualFold(r, xRatio):
+			b.x0, b.x1, s[0] = lo.Num[i], hi.Num[i], true
+		case strings.EqualFold(r, "Ca/Na"):
+			b.y0, b.y1, s[1] = lo.Num[i], hi.Num[i], true
+		}
+		seen[n] = s
+	}
+	var out []priorBox
+	for _, n := range order {
+		if s := seen[n]; s[0] && s[1] {
+			out = append(out, *got[n])
+		}
+	}
+	return out
+}
+
+// sampleRatios finds per-sample Ca/Na and xRatio: from an output table that
+// holds both (the apportionment's, after correction), else the measured
+// ratios of the samples table, labelled as such.
+func sampleRatios(d *notebook.Document, xRatio string) (x, y []float64, names []string, label string) {
+	for _, k := range []notebook.Kind{notebook.KindApportionment, notebook.KindAtmosphere} {
+		for _, c := range d.Cells {
+			if c.Kind != k {
+				continue
+			}
+			o := d.Output(c.ID)
+			if o == nil {
+				continue
+			}
+			for _, t := range o.Tables {
+				xc, yc := exact(t, xRatio), exact(t, "Ca/Na")
+				if xc != nil && yc != nil && xc.Num != nil && yc.Num != nil {
+					return xc.Num, yc.Num, texts(column(t, "sample")), "samples (corrected)"
+				}
+			}
+		}
+	}
+	for _, c := range d.Cells {
+		if c.Kind != notebook.KindSamples {
+			continue
+		}
+		t := d.Output(c.ID).Table("samples")
+		na, ca := exact(t, "Na"), exact(t, "Ca")
+		num := exact(t, strings.TrimSuffix(xRatio, "/Na"))
+		if num == nil && xRatio == "HCO3/Na" {
+			num = exact(t, "Alk")
+		}
+		if na == nil || ca == nil || num == nil {
+			continue
+		}
+		x, y = make([]float64, len(na.Num)), make([]float64, len(na.Num))
+		for i := range na.Num {
+			x[i], y[i] = num.Num[i]/na.Num[i], ca.Num[i]/na.Num[i]
+		}
+		return x, y, texts(column(t, "sample")), "samples (measured, before rain correction)"
+	}
+	return nil, nil, nil, ""
+}
+
+// exact finds a numeric or text column by its exact name.
+func exact(t *notebook.ResultTable, name string) *notebook.Column {
+	if t == nil {
+		return nil
+	}
+	for _, c := range t.Columns {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
 }
 
 // sourceNames are the sources of the apportionment in stacking order.

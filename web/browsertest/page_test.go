@@ -2,14 +2,361 @@
 
 package browsertest
 
-import "testing"
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
 
-func TestPageLoads(t *testing.T) {
+	"github.com/chromedp/cdproto/browser"
+	"github.com/chromedp/cdproto/network"
+	"github.com/chromedp/chromedp"
+)
+
+// figures returns every figure the cells show, "cell: name" → "value unit
+// interval".
+func figures(t testing.TB, ctx context.Context) map[string]string {
+	t.Helper()
+	js := `Object.fromEntries([...document.querySelectorAll("section.cell .figures .figure")].map(f =>
+		[f.closest("section.cell").id + ": " + f.querySelector(".fig-name").textContent,
+		 f.querySelector(".fig-value").textContent + " " + f.querySelector(".fig-interval").textContent]))`
+	return eval[map[string]string](t, ctx, js)
+}
+
+// co2Figure returns the first CO2 figure the page shows, name and value.
+func co2Figure(t testing.TB, ctx context.Context) (string, string) {
+	t.Helper()
+	for k, v := range figures(t, ctx) {
+		if strings.Contains(k, "CO2") && strings.Contains(strings.ToLower(k), "silicate") {
+			return k, v
+		}
+	}
+	for k, v := range figures(t, ctx) {
+		if strings.Contains(k, "CO2") {
+			return k, v
+		}
+	}
+	return "", ""
+}
+
+// cellOf returns the id (without "cell-") of the first cell of a kind.
+func cellOf(t testing.TB, ctx context.Context, kind string) string {
+	t.Helper()
+	id := eval[string](t, ctx, fmt.Sprintf(`(document.querySelector("section.kind-%s") || {id: ""}).id`, kind))
+	if id == "" {
+		t.Fatalf("the page shows no %s cell", kind)
+	}
+	return strings.TrimPrefix(id, "cell-")
+}
+
+// edit sets a field's value as a user would (input and change events) and
+// waits for the recompute it starts.
+func edit(t testing.TB, ctx context.Context, selector, value string) {
+	t.Helper()
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	if err := chromedp.Do(ctx, chromedp.SetValue(chromedp.CSS(selector), value)); err != nil {
+		t.Fatalf("set %s: %v", selector, err)
+	}
+	waitGen(t, ctx, gen)
+}
+
+// waitGen waits until a recompute after generation gen has finished.
+func waitGen(t testing.TB, ctx context.Context, gen string) {
+	t.Helper()
+	js := fmt.Sprintf(`document.body.dataset.gen !== %q && document.body.dataset.busy === "0"`, gen)
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](js, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		t.Fatalf("no recompute finished after the edit: %v", err)
+	}
+}
+
+// paste sends a paste event holding text to the element selected.
+func paste(t testing.TB, ctx context.Context, selector, text string) {
+	t.Helper()
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	q, _ := json.Marshal(selector)
+	v, _ := json.Marshal(text)
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { const dt = new DataTransfer(); dt.setData("text/plain", %s);
+		document.querySelector(%s).dispatchEvent(new ClipboardEvent("paste", {clipboardData: dt, bubbles: true, cancelable: true})); return true })()`, v, q))
+	waitGen(t, ctx, gen)
+}
+
+func TestDemoShowsCO2(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
-	got := eval[string](t, ctx, `document.getElementById("budget-title").value`)
-	if got == "" {
-		t.Errorf("header: got empty text")
+	waitIdle(t, ctx)
+	name, value := co2Figure(t, ctx)
+	if name == "" {
+		t.Fatalf("no CO2 figure on the page; figures: %v", figures(t, ctx))
+	}
+	if strings.HasPrefix(value, "–") || strings.TrimSpace(value) == "" {
+		t.Errorf("%s: got %q, want a number", name, value)
+	}
+	summary := eval[string](t, ctx, `document.getElementById("summary").textContent`)
+	if !strings.Contains(summary, "CO2") {
+		t.Errorf("summary strip: got %q, want a CO2 figure", summary)
+	}
+	t.Logf("%s = %s", name, value)
+}
+
+func TestRainRatioChangesResult(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	name, before := co2Figure(t, ctx)
+	atm := cellOf(t, ctx, "atmosphere")
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.6")
+	after := figures(t, ctx)[name]
+	if after == "" || after == before {
+		t.Errorf("%s after Na/Cl 0.6: got %q, want a change from %q", name, after, before)
+	}
+	if got := eval[string](t, ctx, fmt.Sprintf(`document.getElementById("p-%s-na_per_cl").value`, atm)); got != "0.6" {
+		t.Errorf("Na/Cl field: got %q, want 0.6", got)
+	}
+}
+
+// samplesBlock is two samples in the demo's column order, tab-separated.
+func samplesBlock(t testing.TB, ctx context.Context, names ...string) string {
+	t.Helper()
+	cols := eval[[]string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].map(e => e.value)`)
+	first := eval[[]string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data tbody tr:first-child input")].map(e => e.value)`)
+	if len(cols) == 0 || len(first) < len(cols) {
+		t.Fatalf("samples table: columns %v, first row %v", cols, first)
+	}
+	var b strings.Builder
+	for k, n := range names {
+		row := append([]string(nil), first[:len(cols)]...)
+		for j, c := range cols {
+			switch strings.ToLower(c) {
+			case "sample", "id", "name":
+				row[j] = n
+			case "date":
+				row[j] = fmt.Sprintf("2022-08-%02d", 10+k)
+			}
+		}
+		b.WriteString(strings.Join(row, "\t") + "\n")
+	}
+	return b.String()
+}
+
+func TestPasteAddsSamples(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	id := cellOf(t, ctx, "samples")
+	count := func() int {
+		return eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length + 0*0`)
+	}
+	rowsBefore := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`)
+	before := count()
+	paste(t, ctx, "#paste-"+id, samplesBlock(t, ctx, "PASTE-1", "PASTE-2"))
+	rowsAfter := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`)
+	if rowsAfter == rowsBefore {
+		t.Errorf("samples table: got %q after the paste, want two more rows than %q", rowsAfter, rowsBefore)
+	}
+	var nBefore, nAfter int
+	fmt.Sscanf(rowsBefore, "%d", &nBefore)
+	fmt.Sscanf(rowsAfter, "%d", &nAfter)
+	if nAfter != nBefore+2 {
+		t.Errorf("rows: got %d, want %d", nAfter, nBefore+2)
+	}
+	text := eval[string](t, ctx, `document.querySelector("section.kind-samples .outputs").textContent`)
+	if !strings.Contains(text, "PASTE-1") || !strings.Contains(text, "PASTE-2") {
+		t.Errorf("the samples output does not list the pasted samples")
+	}
+	_ = before
+}
+
+func TestMarkupShownAsText(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	id := cellOf(t, ctx, "samples")
+	const evil = `<img src=x onerror="document.body.dataset.owned=1"><b>CV-bold</b>`
+	paste(t, ctx, "#paste-"+id, samplesBlock(t, ctx, evil))
+	time.Sleep(200 * time.Millisecond)
+	if n := eval[int](t, ctx, `document.querySelectorAll("section.cell img, section.cell b.injected, section.cell td b").length`); n != 0 {
+		t.Errorf("markup from a sample name became %d elements", n)
+	}
+	if owned := eval[string](t, ctx, `document.body.dataset.owned || ""`); owned != "" {
+		t.Errorf("a script in a sample name ran")
+	}
+	cells := eval[string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.out td")].map(td => td.textContent).join("|")`)
+	if !strings.Contains(cells, evil) {
+		t.Errorf("the sample name is not shown as its text; output cells: %.200s", cells)
+	}
+	// A note holding markup is shown as text too.
+	note := eval[string](t, ctx, `(document.querySelector("section.kind-note textarea") || {id: ""}).id`)
+	if note != "" {
+		edit(t, ctx, "#"+note, "<i>field</i> note")
+		if got := eval[string](t, ctx, `document.querySelector("section.kind-note .note-text").textContent`); got != "<i>field</i> note" {
+			t.Errorf("note text: got %q", got)
+		}
+		if n := eval[int](t, ctx, `document.querySelectorAll("section.kind-note .note-text i").length`); n != 0 {
+			t.Errorf("note markup became elements")
+		}
+	}
+}
+
+func TestSavedBudgetReopens(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	dir := t.TempDir()
+	if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
+		Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: dir, EventsEnabled: new(true)}); err != nil {
+		t.Fatal(err)
+	}
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	atm := cellOf(t, ctx, "atmosphere")
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.7") // a budget of the user's own, not the demo
+	want := figures(t, ctx)
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#download"))); err != nil {
+		t.Fatal(err)
+	}
+	file := waitDownload(t, dir)
+	data, err := os.ReadFile(file)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(data), `"results"`) {
+		t.Errorf("the downloaded budget holds no results snapshot")
+	}
+	// Open the file in a fresh browser profile, through the file picker.
+	ctx2 := newBrowser(t, "")
+	open(t, ctx2, srv.URL)
+	waitIdle(t, ctx2)
+	named := filepath.Join(t.TempDir(), "reopened.lixiv.json")
+	if err := os.WriteFile(named, data, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	gen := eval[string](t, ctx2, `document.body.dataset.gen`)
+	if err := chromedp.Do(ctx2, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{named})); err != nil {
+		t.Fatal(err)
+	}
+	waitGen(t, ctx2, gen)
+	got := figures(t, ctx2)
+	if len(got) == 0 || len(got) != len(want) {
+		t.Errorf("figures: got %d, want %d", len(got), len(want))
+	}
+	for k, v := range want {
+		if got[k] != v {
+			t.Errorf("%s: got %q, want %q", k, got[k], v)
+		}
+	}
+	if v := eval[string](t, ctx2, `document.getElementById("verify").textContent`); v != "stored results match the rerun" {
+		t.Errorf("footer: got %q, want the stored results to match", v)
+	}
+}
+
+// waitDownload waits for a finished file in dir.
+func waitDownload(t testing.TB, dir string) string {
+	t.Helper()
+	deadline := time.Now().Add(20 * time.Second)
+	for time.Now().Before(deadline) {
+		entries, _ := os.ReadDir(dir)
+		for _, e := range entries {
+			if !strings.HasSuffix(e.Name(), ".crdownload") {
+				if info, err := e.Info(); err == nil && info.Size() > 0 {
+					time.Sleep(100 * time.Millisecond)
+					return filepath.Join(dir, e.Name())
+				}
+			}
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+	t.Fatal("no download arrived")
+	return ""
+}
+
+func TestOfflineReload(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	_, want := co2Figure(t, ctx)
+	// Wait until the service worker has cached the page and controls it.
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!navigator.serviceWorker.controller || (location.reload(), false)`,
+		chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(1500*time.Millisecond))); err != nil {
+		t.Fatalf("service worker never took control: %v", err)
+	}
+	waitReady(t, ctx)
+	srv.Stop()
+	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
+		t.Fatalf("reload with the server stopped: %v", err)
+	}
+	waitReady(t, ctx)
+	waitIdle(t, ctx)
+	_, got := co2Figure(t, ctx)
+	if got == "" || got != want {
+		t.Errorf("CO2 figure offline: got %q, want %q", got, want)
+	}
+	// Editing still works offline.
+	atm := cellOf(t, ctx, "atmosphere")
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.8")
+	if _, after := co2Figure(t, ctx); after == got {
+		t.Errorf("an edit offline did not change the result")
+	}
+}
+
+func TestNoRequestLeavesTheOrigin(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	if _, err := chromedp.Call(ctx, network.Enable, network.EnableParams{}); err != nil {
+		t.Fatal(err)
+	}
+	requests := chromedp.Events(ctx, network.RequestWillBeSent)
+	var urls []string
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		for ev, err := range requests {
+			if err != nil {
+				return
+			}
+			urls = append(urls, ev.Request.URL)
+		}
+	}()
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	atm := cellOf(t, ctx, "atmosphere")
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.75")
+	// The content security policy blocks a request to another origin.
+	violated, err := chromedp.Run(ctx, chromedp.Evaluate[string](`new Promise(resolve => {
+		document.addEventListener("securitypolicyviolation", e => resolve(e.effectiveDirective), {once: true});
+		fetch("http://127.0.0.2:9/lixiv-csp-check").catch(() => {});
+		setTimeout(() => resolve("none"), 3000);
+	})`, chromedp.EvalAwaitPromise))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if violated != "connect-src" {
+		t.Errorf("a request to another origin: got violation %q, want connect-src", violated)
+	}
+	time.Sleep(300 * time.Millisecond)
+	origin := strings.TrimSuffix(srv.URL, "/")
+	n := 0
+	for _, u := range urls {
+		if strings.HasPrefix(u, "data:") || strings.HasPrefix(u, "blob:") {
+			continue
+		}
+		n++
+		if u != origin && !strings.HasPrefix(u, origin+"/") {
+			if strings.Contains(u, "lixiv-csp-check") {
+				t.Logf("blocked by policy (not sent): %s", u)
+				continue
+			}
+			t.Errorf("request to another origin: %s", u)
+		}
+	}
+	if n < 4 {
+		t.Errorf("saw %d requests, want the page's own (index, scripts, wasm, demo)", n)
 	}
 }

@@ -1,0 +1,68 @@
+//go:build browser
+
+package browsertest
+
+import (
+	"fmt"
+	"os"
+	"sort"
+	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
+)
+
+// TestTiming measures, without asserting anything, the time from
+// navigation to the first render of the demo (cold: empty profile; warm:
+// a reload served by the service worker) and the time from an edit of a
+// rain ratio to the repainted result, with the apportionment at 2,000
+// draws. Run it with `make browser-timing`.
+func TestTiming(t *testing.T) {
+	if os.Getenv("LIXIV_TIMING") == "" {
+		t.Skip("LIXIV_TIMING not set")
+	}
+	srv := startServer(t)
+	var cold, warm, computed []float64
+	for i := 0; i < 5; i++ {
+		ctx := newBrowser(t, "")
+		open(t, ctx, srv.URL)
+		cold = append(cold, eval[float64](t, ctx, `lixivBoot.firstRender`))
+		waitIdle(t, ctx)
+		computed = append(computed, eval[float64](t, ctx, `performance.now()`))
+		time.Sleep(1500 * time.Millisecond) // let the service worker install
+		if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
+			t.Fatal(err)
+		}
+		waitReady(t, ctx)
+		warm = append(warm, eval[float64](t, ctx, `lixivBoot.firstRender`))
+	}
+	t.Logf("timing: first render, cold (empty profile): %s", stats(cold))
+	t.Logf("timing: first render, reload from the service worker: %s", stats(warm))
+	t.Logf("timing: demo fully computed after navigation (cold): %s", stats(computed))
+
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	if ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`); ap != "" {
+		id := ap[len("cell-"):]
+		edit(t, ctx, "#p-"+id+"-draws", "2000")
+	}
+	atm := cellOf(t, ctx, "atmosphere")
+	var edits []float64
+	for i := 0; i < 12; i++ {
+		edit(t, ctx, "#p-"+atm+"-na_per_cl", fmt.Sprintf("%.3f", 0.80+0.01*float64(i%5)))
+		edits = append(edits, eval[float64](t, ctx, `lixivLastRecompute`))
+	}
+	t.Logf("timing: edit of a rain ratio to repainted result at 2000 draws: %s", stats(edits))
+	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
+	t.Logf("timing: (demo shows %d sample rows)", samples)
+}
+
+func stats(v []float64) string {
+	s := append([]float64(nil), v...)
+	sort.Float64s(s)
+	if len(s) == 0 {
+		return "no data"
+	}
+	return fmt.Sprintf("median %.0f ms (min %.0f, max %.0f, n=%d)", s[len(s)/2], s[0], s[len(s)-1], len(s))
+}
