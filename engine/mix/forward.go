@@ -121,7 +121,9 @@ var (
 // end-member ratio uncertainties are propagated: to first order (σ(Ca_sil) =
 // Na_sil σ(Ca/Na), the same for Ca_carb) or, with opt.Draws > 0, by Monte
 // Carlo with each ratio drawn from a normal distribution truncated at zero
-// (redrawn when negative), the clamp applied per draw. opt may be nil.
+// (redrawn when negative), the clamp applied per draw. A negative Na* (kept
+// by correct.Keep) is reported as negative silicate Na with a warning, and
+// silicate Ca, Mg and K are then taken as 0. opt may be nil.
 func Forward(c *correct.Result, opt *ForwardOptions) (ForwardResult, error) {
 	var res ForwardResult
 	if opt == nil {
@@ -208,6 +210,9 @@ func (d *forwardDraw) run(c *correct.Result, caNa, mgNa, kNa float64, kFromRatio
 	}
 	na := c.Residual[chem.Na]
 	d.split[Silicate][fwdNa] = na
+	// A negative Na* kept by the correction's Keep policy stays visible in
+	// the silicate Na, but gives no negative silicate Ca, Mg or K.
+	na = math.Max(na, 0)
 	d.split[Carbonate][fwdNa] = 0
 	d.split[Carbonate][fwdK] = 0
 	if kFromRatio {
@@ -237,7 +242,7 @@ func (d *forwardDraw) run(c *correct.Result, caNa, mgNa, kNa float64, kFromRatio
 
 // firstOrder fills Sigma, Lo, Hi and Clamped by first-order propagation.
 func (res *ForwardResult) firstOrder(rat *SilicateRatios, kFromRatio bool) {
-	na := res.Split[Silicate][fwdNa]
+	na := math.Max(res.Split[Silicate][fwdNa], 0)
 	res.Sigma[Silicate][fwdCa] = na * rat.CaNa.Sigma
 	res.Sigma[Carbonate][fwdCa] = na * rat.CaNa.Sigma
 	res.Sigma[Silicate][fwdMg] = na * rat.MgNa.Sigma

@@ -41,7 +41,7 @@ func ForwardSr(c *correct.Result, f *ForwardResult, srNa SilicateRatio) (SrSplit
 	if !(srNa.Value >= 0) || math.IsInf(srNa.Value, 0) || !(srNa.Sigma >= 0) || math.IsInf(srNa.Sigma, 0) {
 		return s, nil, fmt.Errorf("%w: silicate Sr/Na = %g ± %g, want finite and >= 0", ErrForwardInput, srNa.Value, srNa.Sigma)
 	}
-	na := f.Split[Silicate][fwdNa]
+	na := math.Max(f.Split[Silicate][fwdNa], 0) // no negative silicate Sr from a kept negative Na*
 	s.Amount[Atmosphere] = c.Atm[chem.Sr]
 	s.Amount[Evaporite] = c.Evap[chem.Sr]
 	s.Amount[Silicate] = na * srNa.Value

@@ -349,3 +349,25 @@ func BenchmarkForwardFirstOrder(b *testing.B) { benchmarkForward(b, nil) }
 func BenchmarkForwardDraws1000(b *testing.B) {
 	benchmarkForward(b, &ForwardOptions{Draws: 1000, Seed: 1})
 }
+
+func TestForwardNegativeNaKept(t *testing.T) {
+	// Under correct.Keep a negative Na* stays visible as negative silicate
+	// Na, with a warning; silicate Ca and Mg are 0, not negative (issue 3:
+	// negative residuals are reported, never hidden).
+	c := fwdSample(map[chem.Species]float64{chem.Na: 50, chem.K: 5, chem.Ca: 300, chem.Mg: 60, chem.Cl: 100, chem.SO4: 5.17252})
+	cr := fwdCorrect(t, c, &correct.Options{Negative: correct.Keep})
+	res, err := Forward(cr, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Na* = 50 − 100 × 0.859120 (Millero et al. 2008 sea salt) = −35.912.
+	if got := res.Split[Silicate][0]; math.Abs(got-(-35.912)) > 1e-3 {
+		t.Errorf("Na_sil: got %g, want −35.912", got)
+	}
+	if res.Split[Silicate][2] != 0 || res.Split[Silicate][3] != 0 || res.Sigma[Silicate][2] != 0 {
+		t.Errorf("silicate Ca, Mg, σ Ca: got %g, %g, %g; want 0", res.Split[Silicate][2], res.Split[Silicate][3], res.Sigma[Silicate][2])
+	}
+	if !fwdHas(res.Warnings, ErrNoSilicateNa) {
+		t.Errorf("warnings %v: want ErrNoSilicateNa", res.Warnings)
+	}
+}
