@@ -52,17 +52,19 @@ func (r *Run) draws4(sr *SampleResult, from, to int, bound float64) {
 			u0, u1, u2 := u[0], u[1], u[2]
 			w := pr.w[k]
 			t := pr.d[k] - u[3]
-			w0, w1, w2, wt := w*u0, w*u1, w*u2, w*t
-			h00 += w0 * u0
-			h10 += w1 * u0
-			h11 += w1 * u1
-			h20 += w2 * u0
-			h21 += w2 * u1
-			h22 += w2 * u2
-			b0 += wt * u0
-			b1 += wt * u1
-			b2 += wt * u2
-			cc += wt * t
+			v := w * u0
+			h00 += v * u0
+			b0 += v * t
+			v = w * u1
+			h10 += v * u0
+			h11 += v * u1
+			b1 += v * t
+			v = w * u2
+			h20 += v * u0
+			h21 += v * u1
+			h22 += v * u2
+			b2 += v * t
+			cc += w * t * t
 		}
 		if pr.iso >= 0 {
 			o := base + int(SrNa)*n
@@ -74,19 +76,28 @@ func (r *Run) draws4(sr *SampleResult, from, to int, bound float64) {
 			u0, u1, u2 := s[0]*(R[0]-rm)-e3, s[1]*(R[1]-rm)-e3, s[2]*(R[2]-rm)-e3
 			w := pr.w[pr.iso]
 			t := -e3
-			w0, w1, w2, wt := w*u0, w*u1, w*u2, w*t
-			h00 += w0 * u0
-			h10 += w1 * u0
-			h11 += w1 * u1
-			h20 += w2 * u0
-			h21 += w2 * u1
-			h22 += w2 * u2
-			b0 += wt * u0
-			b1 += wt * u1
-			b2 += wt * u2
-			cc += wt * t
+			v := w * u0
+			h00 += v * u0
+			b0 += v * t
+			v = w * u1
+			h10 += v * u0
+			h11 += v * u1
+			b1 += v * t
+			v = w * u2
+			h20 += v * u0
+			h21 += v * u1
+			h22 += v * u2
+			b2 += v * t
+			cc += w * t * t
 		}
-		tol := pivotTol * max(h00, h11, h22)
+		hm := h00
+		if h11 > hm {
+			hm = h11
+		}
+		if h22 > hm {
+			hm = h22
+		}
+		tol := pivotTol * hm
 		if h00 > tol && tol > 0 {
 			l00 := sqrt(h00)
 			l10, l20 := h10/l00, h20/l00
@@ -140,13 +151,14 @@ func (r *Run) draws3(sr *SampleResult, from, to int, bound float64) {
 			u0, u1 := u[0], u[1]
 			w := pr.w[k]
 			t := pr.d[k] - u[2]
-			w0, w1, wt := w*u0, w*u1, w*t
-			h00 += w0 * u0
-			h10 += w1 * u0
-			h11 += w1 * u1
-			b0 += wt * u0
-			b1 += wt * u1
-			cc += wt * t
+			v := w * u0
+			h00 += v * u0
+			b0 += v * t
+			v = w * u1
+			h10 += v * u0
+			h11 += v * u1
+			b1 += v * t
+			cc += w * t * t
 		}
 		if pr.iso >= 0 {
 			o := base + int(SrNa)*n
@@ -158,15 +170,20 @@ func (r *Run) draws3(sr *SampleResult, from, to int, bound float64) {
 			u0, u1 := s[0]*(R[0]-rm)-e2, s[1]*(R[1]-rm)-e2
 			w := pr.w[pr.iso]
 			t := -e2
-			w0, w1, wt := w*u0, w*u1, w*t
-			h00 += w0 * u0
-			h10 += w1 * u0
-			h11 += w1 * u1
-			b0 += wt * u0
-			b1 += wt * u1
-			cc += wt * t
+			v := w * u0
+			h00 += v * u0
+			b0 += v * t
+			v = w * u1
+			h10 += v * u0
+			h11 += v * u1
+			b1 += v * t
+			cc += w * t * t
 		}
-		tol := pivotTol * max(h00, h11)
+		hm := h00
+		if h11 > hm {
+			hm = h11
+		}
+		tol := pivotTol * hm
 		if h00 > tol && tol > 0 {
 			l00 := sqrt(h00)
 			l10 := h10 / l00
