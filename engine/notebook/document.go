@@ -81,6 +81,10 @@ type Document struct {
 	// Stored is the results snapshot read from the file, or nil.
 	Stored *Snapshot
 
+	// Workers is the number of goroutines a long computation may use; 0
+	// means all cores. Results do not depend on it.
+	Workers int
+
 	rev   uint64
 	state map[string]*cellState
 	funcs map[Kind]ComputeFunc // nil: the registered functions

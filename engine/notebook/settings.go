@@ -261,10 +261,9 @@ func (s *SourcesSettings) Validate() error { return nil }
 func (s *ApportionmentSettings) Validate() error {
 	err := firstErr(
 		oneOf("model", s.Model, "inverse", "forward"),
-		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide", "split"),
+		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide"),
 		oneOf("negative_residuals", s.Negative, "zero-and-flag", "keep"),
 		inRange("draws", float64(s.Draws), 1, MaxDraws),
-		inRange("sulfide_fraction", s.SulfideFraction, 0, 1),
 	)
 	if err != nil {
 		return err

@@ -52,9 +52,15 @@ func (t *Table) Cell(r, c int) string {
 // CSV renders the table as comma-separated text: the header row, then the
 // units row when any unit is set, then the data rows. Cells holding a comma,
 // quote or line break are quoted.
-func (t *Table) CSV() string {
+func (t *Table) CSV() string { return t.delimited(',') }
+
+// TSV renders the table as tab-separated text, as a spreadsheet copies it;
+// decimal commas then stay readable.
+func (t *Table) TSV() string { return t.delimited('\t') }
+
+func (t *Table) delimited(sep byte) string {
 	var b strings.Builder
-	writeCSVRow(&b, t.Columns)
+	writeCSVRow(&b, t.Columns, sep)
 	hasUnits := false
 	for _, u := range t.Units {
 		if u != "" {
@@ -62,20 +68,20 @@ func (t *Table) CSV() string {
 		}
 	}
 	if hasUnits {
-		writeCSVRow(&b, t.Units)
+		writeCSVRow(&b, t.Units, sep)
 	}
 	for _, r := range t.Rows {
-		writeCSVRow(&b, r)
+		writeCSVRow(&b, r, sep)
 	}
 	return b.String()
 }
 
-func writeCSVRow(b *strings.Builder, cells []string) {
+func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
 	for i, c := range cells {
 		if i > 0 {
-			b.WriteByte(',')
+			b.WriteByte(sep)
 		}
-		if strings.ContainsAny(c, ",\"\r\n") {
+		if strings.ContainsAny(c, string(sep)+"\"\r\n") {
 			b.WriteByte('"')
 			b.WriteString(strings.ReplaceAll(c, `"`, `""`))
 			b.WriteByte('"')

@@ -1,0 +1,247 @@
+package notebook
+
+import (
+	"fmt"
+	"math"
+
+	"lixiv/engine/correct"
+	"lixiv/engine/discharge"
+	"lixiv/engine/mix"
+)
+
+// Apportioned is the value an apportionment cell hands on: per sample, the
+// correction and the split of each cation among the sources, as a median
+// with 95 % bounds and draw by draw.
+type Apportioned struct {
+	Samples   *Samples
+	Index     []int // positions in Samples.Table.Samples of the apportioned samples
+	Names     []string
+	Days      []discharge.Day
+	Q         []float64 // discharge at sampling, m³/s (NaN: take the day's mean)
+	Corrected []correct.Result
+	Median    []mix.Split // µmol/L of each cation from each source, cell by cell
+	Lo, Hi    []mix.Split // 2.5 % and 97.5 % quantiles
+	Draws     int         // draw numbers run; Draw(i, d) for d < Draws
+	Model     string      // "inverse" or "forward"
+
+	inverse *mix.Result
+	forward [][]mix.Split
+}
+
+// Draw returns the split of sample i under draw d (atmospheric and
+// evaporite rows included), its weight and whether the draw was kept. Draw
+// d stands for the same end-member values in every sample, so derived
+// fluxes can be propagated draw by draw.
+func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
+	if a.forward != nil {
+		return a.forward[i][d], 1, true
+	}
+	s, w, ok := a.inverse.SplitAt(i, d)
+	if !ok {
+		return s, 0, false
+	}
+	r := &a.Corrected[i]
+	for k, sp := range mix.Cations {
+		s[mix.Atmosphere][k] += r.Atm[sp]
+		s[mix.Evaporite][k] += r.Evap[sp]
+	}
+	return s, w, true
+}
+
+func init() { Register(KindApportionment, computeApportionment) }
+
+// forwardRatios takes the forward model's silicate ratios from the first
+// silicate end-member: the central value, and as 1σ a quarter of the prior
+// range (a range read as about ±2σ; an assumption, no source).
+func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
+	for _, em := range ems {
+		if em.Source != mix.Silicate {
+			continue
+		}
+		r := func(t mix.Tracer) mix.SilicateRatio {
+			p := em.Ratio[t]
+			if p.Dist == mix.Fixed {
+				return mix.SilicateRatio{Value: p.Value}
+			}
+			return mix.SilicateRatio{Value: p.Value, Sigma: (p.Hi - p.Lo) / 4}
+		}
+		return &mix.SilicateRatios{CaNa: r(mix.CaNa), MgNa: r(mix.MgNa), KNa: mix.SilicateRatio{Value: math.NaN()}}
+	}
+	return nil
+}
+
+func computeApportionment(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*ApportionmentSettings)
+	ai, err := e.Input("atmosphere")
+	if err != nil {
+		return nil, err
+	}
+	si, err := e.Input("sources")
+	if err != nil {
+		return nil, err
+	}
+	atm := ai.Value.(*Atmosphere)
+	ems := si.Value.([]mix.EndMember)
+	opt := atm.Options
+	if s.Sulfate == "sulfide" {
+		opt.Sulfate = correct.Sulfide
+	}
+	if s.Negative == "keep" {
+		opt.Negative = correct.Keep
+	}
+	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
+	out := &Output{}
+	warn := map[string]int{}
+	for _, i := range atm.Samples.Used() {
+		sm := atm.Samples.Table.Samples[i]
+		r, err := correct.Apply(sm.C, &opt)
+		if err != nil {
+			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
+		}
+		for _, w := range r.Warnings {
+			warn[w.Error()]++
+		}
+		a.Index = append(a.Index, i)
+		a.Names = append(a.Names, sm.ID)
+		a.Days = append(a.Days, atm.Samples.Days[i])
+		a.Q = append(a.Q, sm.Q)
+		a.Corrected = append(a.Corrected, r)
+	}
+	n := len(a.Index)
+	status := make([]string, n)
+	kept := make([]float64, n)
+	switch s.Model {
+	case "forward":
+		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
+		a.forward = make([][]mix.Split, n)
+		for i := range a.Corrected {
+			if err := e.Ctx.Err(); err != nil {
+				return nil, err
+			}
+			fr, err := mix.Forward(&a.Corrected[i], fo)
+			if err != nil {
+				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
+			}
+			for _, w := range fr.Warnings {
+				warn[w.Error()]++
+			}
+			a.forward[i] = fr.Draws
+			status[i], kept[i] = "success", 1
+			e.Report(i+1, n)
+		}
+	case "inverse":
+		var tracers []mix.Tracer
+		for _, t := range s.Tracers {
+			tr, err := mix.ParseTracer(t)
+			if err != nil {
+				return nil, fmt.Errorf("tracers: %v", err)
+			}
+			tracers = append(tracers, tr)
+		}
+		p := mix.Problem{EndMembers: ems, Tracers: tracers}
+		for i, r := range a.Corrected {
+			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
+				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
+		}
+		res, err := mix.Invert(e.Ctx, p, &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.doc.Workers,
+			Progress: func(done, total int) { e.Report(done, total) }})
+		if err != nil {
+			return nil, err
+		}
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
+		a.inverse = res
+		for i := range res.Samples {
+			sr := &res.Samples[i]
+			status[i], kept[i] = sr.Status.String(), sr.AcceptRate
+			for _, w := range sr.Warnings {
+				warn[w.Error()]++
+			}
+		}
+		if res.Status != mix.Success {
+			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for some samples (see the status column)")
+		}
+	}
+	// Medians and bounds, cell by cell, from the draws.
+	a.Median, a.Lo, a.Hi = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
+	vals, ws := make([]float64, 0, s.Draws), make([]float64, 0, s.Draws)
+	var draws []mix.Split
+	for i := 0; i < n; i++ {
+		draws, ws = draws[:0], ws[:0]
+		for d := 0; d < a.Draws; d++ {
+			if sp, w, ok := a.Draw(i, d); ok {
+				draws = append(draws, sp)
+				ws = append(ws, w)
+			}
+		}
+		for src := mix.Source(0); src < mix.NSources; src++ {
+			for k := 0; k < mix.NCations; k++ {
+				vals = vals[:0]
+				for _, sp := range draws {
+					vals = append(vals, sp[src][k])
+				}
+				q := quantiles(vals, ws, 0.025, 0.5, 0.975)
+				a.Lo[i][src][k], a.Median[i][src][k], a.Hi[i][src][k] = q[0], q[1], q[2]
+			}
+		}
+	}
+	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
+	out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+	fit := 0
+	for _, st := range status {
+		if st == "success" {
+			fit++
+		}
+	}
+	out.Figures = append(out.Figures, Point("samples apportioned", "", float64(fit)), Point("samples without a good fit", "", float64(n-fit)))
+	out.Value = a
+	return out, nil
+}
+
+func (a *Apportioned) dates() []string {
+	d := make([]string, len(a.Days))
+	for i, x := range a.Days {
+		d[i] = x.String()
+	}
+	return d
+}
+
+// shareTable lists, per sample, the share of each cation from each source
+// with its 95 % bounds.
+func (a *Apportioned) shareTable(status []string, kept []float64) *ResultTable {
+	cols := []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()), TextColumn("status", status),
+		NumColumn("accepted", "fraction", kept)}
+	for k, sp := range mix.Cations {
+		for src := mix.Source(0); src < mix.NSources; src++ {
+			name := sp.Symbol() + "_" + src.String()
+			med, lo, hi := make([]float64, len(a.Names)), make([]float64, len(a.Names)), make([]float64, len(a.Names))
+			for i := range a.Names {
+				m := a.Corrected[i].Input[sp]
+				med[i], lo[i], hi[i] = a.Median[i][src][k]/m, a.Lo[i][src][k]/m, a.Hi[i][src][k]/m
+			}
+			cols = append(cols, NumColumn(name, "fraction", med), NumColumn(name+"_low", "fraction", lo), NumColumn(name+"_high", "fraction", hi))
+		}
+	}
+	return &ResultTable{Name: "shares", Title: "Share of each cation from each source (median, 2.5 % and 97.5 %)", Columns: cols}
+}
+
+// amountTable lists the median µmol/L of each cation from each source.
+func (a *Apportioned) amountTable() *ResultTable {
+	cols := []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates())}
+	for k, sp := range mix.Cations {
+		for src := mix.Source(0); src < mix.NSources; src++ {
+			v := make([]float64, len(a.Names))
+			for i := range a.Names {
+				v[i] = a.Median[i][src][k]
+			}
+			cols = append(cols, NumColumn(sp.Symbol()+"_"+src.String(), "µmol/L", v))
+		}
+	}
+	so4 := make([]float64, len(a.Names))
+	for i := range a.Names {
+		so4[i] = a.Corrected[i].SO4Sulf
+	}
+	cols = append(cols, NumColumn("SO4_sulfide", "µmol/L", so4))
+	return &ResultTable{Name: "amounts", Title: "Median amount of each cation from each source", Columns: cols}
+}

@@ -1,0 +1,180 @@
+package notebook
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/correct"
+)
+
+// Atmosphere is the value an atmosphere cell hands on: the samples and the
+// correction options the apportionment applies to each of them.
+type Atmosphere struct {
+	Samples *Samples
+	Options correct.Options // Sulfate is left at its default; the apportionment sets it
+}
+
+func init() { Register(KindAtmosphere, computeAtmosphere) }
+
+// rainSpecies are the species a rain table may give, in µmol/L.
+var rainSpecies = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Sr}
+
+// rainVWM reads a rain table: one row per event or period with an optional
+// "precipitation" column (mm) and concentrations in µmol/L; the result is the
+// volume-weighted mean (methods brief §1.3).
+func rainVWM(t *Table) (chem.Composition, error) {
+	c := chem.NewComposition()
+	if t == nil || len(t.Rows) == 0 {
+		return c, fmt.Errorf("the rain method needs a rain table (columns such as precipitation, Na, Cl in µmol/L)")
+	}
+	pcol := t.Column("precipitation")
+	for _, sp := range rainSpecies {
+		j := t.Column(sp.Symbol())
+		if j < 0 {
+			continue
+		}
+		if len(t.Units) > j && t.Units[j] != "" && t.Units[j] != "µmol/L" && t.Units[j] != "umol/L" {
+			return c, fmt.Errorf("rain table column %s: unit %q; give rain in µmol/L", sp.Symbol(), t.Units[j])
+		}
+		sum, wsum := 0.0, 0.0
+		for r := range t.Rows {
+			x, err := parseNum(t.Cell(r, j))
+			if err != nil {
+				return c, fmt.Errorf("rain table row %d, column %s: %v", r+1, sp.Symbol(), err)
+			}
+			w := 1.0
+			if pcol >= 0 {
+				if w, err = parseNum(t.Cell(r, pcol)); err != nil || w < 0 {
+					return c, fmt.Errorf("rain table row %d, column precipitation: want a rain amount in mm", r+1)
+				}
+			}
+			sum += x * w
+			wsum += w
+		}
+		if wsum > 0 {
+			c[sp] = sum / wsum
+		}
+	}
+	if !c.Has(chem.Cl) || c[chem.Cl] <= 0 {
+		return c, fmt.Errorf("the rain table needs a Cl column with a positive mean")
+	}
+	return c, nil
+}
+
+func computeAtmosphere(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*AtmosphereSettings)
+	in, err := e.Input("samples")
+	if err != nil {
+		return nil, err
+	}
+	smp := in.Value.(*Samples)
+	site, err := e.Input("site")
+	if err != nil {
+		return nil, err
+	}
+	opt := correct.Options{ClCritical: s.CriticalChloride}
+	if s.ExcessChloride == "human" {
+		opt.Excess = correct.HumanInput
+	}
+	ratios := correct.SeaSalt()
+	ratios[chem.Na], ratios[chem.K], ratios[chem.Ca], ratios[chem.Mg] = s.NaPerCl, s.KPerCl, s.CaPerCl, s.MgPerCl
+	ratios[chem.SO4], ratios[chem.Sr] = s.SO4PerCl, s.SrPerCl
+	out := &Output{}
+	switch s.Method {
+	case "sea-salt":
+		opt.Ratios = &ratios
+		if s.CriticalChloride == 0 {
+			opt.ClCritical = math.Inf(1)
+			out.Warnings = append(out.Warnings, "no critical chloride set: all Cl is taken as atmospheric")
+		}
+	case "rain":
+		vwm, err := rainVWM(e.Cell.Table)
+		if err != nil {
+			return nil, err
+		}
+		if site == nil {
+			return nil, fmt.Errorf("the rain method needs a site cell with precipitation and evapotranspiration")
+		}
+		st := site.Value.(*Site)
+		opt.Rain = &correct.Rain{Composition: vwm, P: st.P, ET: st.ET, DryFactor: s.DryDeposition}
+		if _, err := opt.Rain.Factor(); err != nil {
+			return nil, fmt.Errorf("site: %v", err)
+		}
+	}
+	used := smp.Used()
+	ids := make([]string, len(used))
+	cols := map[string][]float64{}
+	names := []string{"Cl_atm", "Na_atm", "K_atm", "Ca_atm", "Mg_atm", "SO4_atm", "Cl_excess", "Na_evaporite", "Na_atm_share"}
+	warn := map[string]int{}
+	for k, i := range used {
+		sm := smp.Table.Samples[i]
+		ids[k] = sm.ID
+		r, err := correct.Apply(sm.C, &opt)
+		if err != nil {
+			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
+		}
+		for _, w := range r.Warnings {
+			warn[w.Error()]++
+		}
+		vals := []float64{r.Atm[chem.Cl], r.Atm[chem.Na], r.Atm[chem.K], r.Atm[chem.Ca], r.Atm[chem.Mg], r.Atm[chem.SO4],
+			r.ClExcess, r.Evap[chem.Na], r.Atm[chem.Na] / sm.C[chem.Na]}
+		for j, n := range names {
+			cols[n] = append(cols[n], vals[j])
+		}
+	}
+	tcols := []*Column{TextColumn("sample", ids)}
+	for _, n := range names {
+		unit := "µmol/L"
+		if n == "Na_atm_share" {
+			unit = "fraction"
+		}
+		tcols = append(tcols, NumColumn(n, unit, cols[n]))
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "rain", Title: "Atmospheric input per sample", Columns: tcols})
+	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
+	out.Figures = append(out.Figures, Point("median atmospheric share of Na", "fraction", median(cols["Na_atm_share"])))
+	out.Value = &Atmosphere{Samples: smp, Options: opt}
+	return out, nil
+}
+
+// countedWarnings groups messages by their text before the first colon (the
+// kind of problem) and gives each group's count and first example.
+func countedWarnings(m map[string]int) []string {
+	type group struct {
+		n     int
+		first string
+	}
+	groups := map[string]*group{}
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	var order []string
+	for _, k := range keys {
+		head, _, _ := strings.Cut(k, ":")
+		g := groups[head]
+		if g == nil {
+			g = &group{first: k}
+			groups[head] = g
+			order = append(order, head)
+		}
+		g.n += m[k]
+	}
+	out := make([]string, len(order))
+	for i, h := range order {
+		g := groups[h]
+		switch {
+		case g.n == 1:
+			out[i] = g.first + " (1 sample)"
+		case g.first == h:
+			out[i] = fmt.Sprintf("%s (%d samples)", h, g.n)
+		default:
+			out[i] = fmt.Sprintf("%s (%d samples; for example %s)", h, g.n, strings.TrimSpace(strings.TrimPrefix(g.first, h+":")))
+		}
+	}
+	return out
+}

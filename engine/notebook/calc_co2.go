@@ -1,0 +1,128 @@
+package notebook
+
+import (
+	"fmt"
+
+	"lixiv/engine/co2"
+	"lixiv/engine/flux"
+	"lixiv/engine/mix"
+)
+
+func init() { Register(KindCO2, computeCO2) }
+
+// co2Pair returns the silicate and carbonate CO2 consumption of one split
+// (µmol/L). Short term: phi_sil and phi_carb (methods brief §9.2-9.3).
+// Long term: the conventional silicate sink (Ca+Mg)_sil and, for carbonate,
+// phi_carb − Alk_carb/2 = −S_carb, which is zero under carbonic acid and a
+// release of one CO2 per sulfide-derived sulfate under sulfuric acid (§9.3).
+func co2Pair(s *mix.Split, so4 float64, opt *co2.Options, long bool) (sil, carb float64, err error) {
+	r, err := co2.Consumption(s, so4, opt)
+	if err != nil {
+		return 0, 0, err
+	}
+	if long {
+		return r.SinkSil, r.PhiCarb - r.AlkCarb/2, nil
+	}
+	return r.PhiSil, r.PhiCarb, nil
+}
+
+func computeCO2(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*CO2Settings)
+	ai, err := e.Input("apportionment")
+	if err != nil {
+		return nil, err
+	}
+	a := ai.Value.(*Apportioned)
+	opt := &co2.Options{}
+	if s.SulfurSplit == "carbonate" {
+		opt.Sulfur = co2.AllCarbonate
+	}
+	long := s.TimeScale == "long"
+	n := len(a.Names)
+	// Per litre: quantiles over the draws of each sample.
+	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
+	var vs, vc, ws []float64
+	for i := 0; i < n; i++ {
+		vs, vc, ws = vs[:0], vc[:0], ws[:0]
+		for d := 0; d < a.Draws; d++ {
+			sp, w, ok := a.Draw(i, d)
+			if !ok {
+				continue
+			}
+			x, y, err := co2Pair(&sp, a.Corrected[i].SO4Sulf, opt, long)
+			if err != nil {
+				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
+			}
+			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
+		}
+		q := quantiles(vs, ws, 0.025, 0.5, 0.975)
+		silLo, silMed, silHi = append(silLo, q[0]), append(silMed, q[1]), append(silHi, q[2])
+		q = quantiles(vc, ws, 0.025, 0.5, 0.975)
+		carbLo, carbMed, carbHi = append(carbLo, q[0]), append(carbMed, q[1]), append(carbHi, q[2])
+	}
+	scale := "short-term"
+	if long {
+		scale = "long-term"
+	}
+	out := &Output{Warnings: []string{"CO2 consumption is a geochemical budget, not a carbon-removal credit"}}
+	out.Tables = append(out.Tables, &ResultTable{Name: "per-litre", Title: "CO2 consumption per litre of stream water (" + scale + ")",
+		Columns: []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()),
+			NumColumn("silicate", "µmol/L", silMed), NumColumn("silicate_low", "µmol/L", silLo), NumColumn("silicate_high", "µmol/L", silHi),
+			NumColumn("carbonate", "µmol/L", carbMed), NumColumn("carbonate_low", "µmol/L", carbLo), NumColumn("carbonate_high", "µmol/L", carbHi)}})
+	out.Figures = append(out.Figures, Point("median silicate CO2 consumption per litre", "µmol/L", median(silMed)),
+		Point("median carbonate CO2 consumption per litre", "µmol/L", median(carbMed)))
+
+	fi, err := e.Input("fluxes")
+	if err != nil {
+		return nil, err
+	}
+	if fi == nil {
+		return out, nil
+	}
+	fv := fi.Value.(*Fluxes)
+	if fv.App != a {
+		out.Warnings = append(out.Warnings, "the fluxes cell reads another apportionment; its discharge record and options are used here")
+		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, App: a}
+	}
+	var yName, yYear []string
+	var yMed, yLo, yHi []float64
+	for _, part := range []struct {
+		name string
+		carb bool
+	}{{"silicate", false}, {"carbonate", true}} {
+		ser := fv.series(part.name+" CO2", 0, func(i int, sp *mix.Split) float64 {
+			x, y, err := co2Pair(sp, a.Corrected[i].SO4Sulf, opt, long)
+			if err != nil {
+				return 0 // cannot happen: every draw passed above
+			}
+			if part.carb {
+				return y
+			}
+			return x
+		})
+		_, u, w, err := fv.estimate(ser, true)
+		out.Warnings = append(out.Warnings, w...)
+		if err != nil {
+			return nil, err
+		}
+		m := u.Mean
+		name := part.name + " CO2 consumption"
+		out.Figures = append(out.Figures,
+			Figure{Name: name, Unit: "mol/yr", Median: m.Mol.Median, Low: m.Mol.Lo, High: m.Mol.Hi},
+			Figure{Name: name + " per km²", Unit: "mol/km²/yr", Median: m.MolPerKm2.Median, Low: m.MolPerKm2.Lo, High: m.MolPerKm2.Hi},
+			Figure{Name: name + " as carbon", Unit: "t C/km²/yr", Median: flux.CarbonMass(m.MolPerKm2.Median),
+				Low: flux.CarbonMass(m.MolPerKm2.Lo), High: flux.CarbonMass(m.MolPerKm2.Hi)})
+		for _, y := range u.Years {
+			if !y.Complete() {
+				continue
+			}
+			yName, yYear = append(yName, part.name), append(yYear, fmt.Sprint(y.Label))
+			yMed, yLo, yHi = append(yMed, y.Mol.Median), append(yLo, y.Mol.Lo), append(yHi, y.Mol.Hi)
+		}
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + scale + ")", Columns: []*Column{
+		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
+		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi)}})
+	out.Warnings = dedupe(out.Warnings)
+	return out, nil
+}

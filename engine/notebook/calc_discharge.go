@@ -1,0 +1,87 @@
+package notebook
+
+import (
+	"fmt"
+
+	"lixiv/engine/discharge"
+)
+
+// Flow is the value a discharge cell hands on: the daily record, gaps
+// filled as the user chose.
+type Flow struct {
+	Record *discharge.Record
+	Site   *Site // nil when the budget has no site cell
+}
+
+func init() { Register(KindDischarge, computeDischarge) }
+
+func computeDischarge(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*DischargeSettings)
+	t := e.Cell.Table
+	if t == nil || len(t.Columns) == 0 {
+		return nil, fmt.Errorf("the discharge table is empty: paste or open a daily discharge record")
+	}
+	var site *Site
+	if o, err := e.Input("site"); err != nil {
+		return nil, err
+	} else if o != nil {
+		site = o.Value.(*Site)
+	}
+	unit, err := discharge.ParseUnit(s.Unit)
+	if err != nil {
+		return nil, fmt.Errorf("unit: %v", err)
+	}
+	opt := discharge.Options{File: e.Cell.ID, Unit: unit, Delimiter: '\t'}
+	if site != nil {
+		opt.AreaKm2 = site.AreaKm2
+	}
+	im := discharge.ReadString(t.TSV(), opt)
+	out := &Output{}
+	for _, p := range im.Problems {
+		out.Warnings = append(out.Warnings, p.Error())
+	}
+	rec := im.Record
+	if rec == nil || rec.Len() == 0 {
+		return nil, fmt.Errorf("no discharge could be read: %v", im.Problems.Err())
+	}
+	if s.GapFillDays > 0 {
+		var rep discharge.FillReport
+		rec, rep = rec.Fill(discharge.FillLinear, s.GapFillDays)
+		if rep.Days > 0 {
+			out.Warnings = append(out.Warnings, fmt.Sprintf("%d gap days filled by linear interpolation (%.1f %% of the record)", rep.Days, 100*rep.Fraction(rec.Len())))
+		}
+		for _, g := range rep.Left {
+			out.Warnings = append(out.Warnings, "gap left open: "+g.String())
+		}
+	} else if m := rec.Missing(); m > 0 {
+		out.Warnings = append(out.Warnings, fmt.Sprintf("%d days without discharge are left as gaps (set gap_fill_days to fill short ones)", m))
+	}
+	days := make([]string, rec.Len())
+	for i, d := range rec.Days {
+		days[i] = d.String()
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "daily", Title: "Daily discharge", Columns: []*Column{
+		TextColumn("date", days), NumColumn("discharge", "m³/s", append([]float64(nil), rec.Q...))}})
+	if site != nil {
+		first := site.WaterYearStart
+		var labels []string
+		var runoff, cover []float64
+		for _, y := range rec.Years(first) {
+			mm, n := rec.Runoff(y.Start, y.End, site.AreaKm2)
+			labels = append(labels, fmt.Sprint(y.Label))
+			runoff = append(runoff, mm)
+			cover = append(cover, float64(n)/float64(y.Days))
+			if !y.Complete() {
+				labels[len(labels)-1] += " (part)"
+			}
+		}
+		out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "Runoff by year", Columns: []*Column{
+			TextColumn("year", labels), NumColumn("runoff", "mm", runoff), NumColumn("days with data", "fraction", cover)}})
+		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
+		if n > 0 {
+			out.Figures = append(out.Figures, Point("runoff", "mm/yr", mm/float64(n)*365.25))
+		}
+	}
+	out.Value = &Flow{Record: rec, Site: site}
+	return out, nil
+}

@@ -1,0 +1,288 @@
+package notebook
+
+import (
+	"fmt"
+	"math"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/discharge"
+	"lixiv/engine/flux"
+	"lixiv/engine/mix"
+)
+
+// Fluxes is the value a fluxes cell hands on: what another cell needs to
+// flux a series of its own the same way (the CO2 cell does).
+type Fluxes struct {
+	Record    *discharge.Record // the record over the budget period
+	Site      *Site
+	Options   flux.Options
+	Bootstrap flux.BootstrapOptions
+	App       *Apportioned
+}
+
+func init() { Register(KindFluxes, computeFluxes) }
+
+var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted, "rating-curve": flux.Rating}
+var biases = map[string]flux.Bias{"smearing": flux.Duan, "ferguson": flux.Ferguson, "none": flux.NoBias}
+
+// period cuts the record to the site's budget period.
+func period(rec *discharge.Record, site *Site) (*discharge.Record, error) {
+	a, b := 0, rec.Len()-1
+	if site.HasStart {
+		if a = rec.Index(site.Start); a < 0 {
+			return nil, fmt.Errorf("site period_start %s lies outside the discharge record (%s to %s)", site.Start, rec.First(), rec.Last())
+		}
+	}
+	if site.HasEnd {
+		if b = rec.Index(site.End); b < 0 {
+			return nil, fmt.Errorf("site period_end %s lies outside the discharge record (%s to %s)", site.End, rec.First(), rec.Last())
+		}
+	}
+	if a == 0 && b == rec.Len()-1 {
+		return rec, nil
+	}
+	return discharge.NewRecord(rec.Name, rec.Days[a], rec.Q[a:b+1]), nil
+}
+
+// series builds a flux series from a per-sample quantity f of each draw's
+// split; the point value is f of the cell-by-cell median.
+func (v *Fluxes) series(name string, mass float64, f func(i int, s *mix.Split) float64) flux.Series {
+	a := v.App
+	n := len(a.Names)
+	s := flux.Series{Name: name, MolarMass: mass, Days: a.Days, Q: a.Q, C: make([]float64, n)}
+	if a.Draws > 1 {
+		s.Draws, s.Weights = make([][]float64, n), make([][]float64, n)
+	}
+	for i := 0; i < n; i++ {
+		s.C[i] = f(i, &a.Median[i])
+		if s.Draws == nil {
+			continue
+		}
+		d, w := make([]float64, a.Draws), make([]float64, a.Draws)
+		total := 0.0
+		for k := 0; k < a.Draws; k++ {
+			if sp, wt, ok := a.Draw(i, k); ok {
+				d[k], w[k] = f(i, &sp), wt
+				total += wt
+			}
+		}
+		if total > 0 {
+			s.Draws[i], s.Weights[i] = d, w
+		}
+	}
+	return s
+}
+
+// estimate fluxes one series, falling back to the interpolation estimator
+// when the rating curve cannot take it (zero or negative values).
+func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncertainty, []string, error) {
+	var warns []string
+	opt := v.Options
+	r, err := flux.Estimate(v.Record, s, opt)
+	if err != nil && opt.Method == flux.Rating {
+		warns = append(warns, fmt.Sprintf("%s: the rating curve failed (%v); used interpolation", s.Name, err))
+		opt.Method = flux.PeriodWeighted
+		r, err = flux.Estimate(v.Record, s, opt)
+	}
+	if err != nil {
+		return nil, nil, warns, fmt.Errorf("%s: %v", s.Name, err)
+	}
+	for _, w := range r.Warnings {
+		warns = append(warns, w.Error())
+	}
+	if !boot {
+		return r, nil, warns, nil
+	}
+	u, err := flux.Bootstrap(v.Record, s, opt, v.Bootstrap)
+	if err != nil {
+		return r, nil, warns, fmt.Errorf("%s: bootstrap: %v", s.Name, err)
+	}
+	if u.Failed > 0 {
+		warns = append(warns, fmt.Sprintf("%s: %d of %d bootstrap replicates could not be fitted", s.Name, u.Failed, u.Failed+u.Replicates))
+	}
+	return r, u, warns, nil
+}
+
+func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
+	ai, err := e.Input("apportionment")
+	if err != nil {
+		return nil, err
+	}
+	di, err := e.Input("discharge")
+	if err != nil {
+		return nil, err
+	}
+	si, err := e.Input("site")
+	if err != nil {
+		return nil, err
+	}
+	site := si.Value.(*Site)
+	rec, err := period(di.Value.(*Flow).Record, site)
+	if err != nil {
+		return nil, err
+	}
+	return &Fluxes{Record: rec, Site: site, App: ai.Value.(*Apportioned),
+		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
+			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
+		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
+			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma},
+	}, nil
+}
+
+// sumOf returns f summing the given source's cations (in mol, each counted once).
+func sumOf(src mix.Source, cations ...int) func(int, *mix.Split) float64 {
+	return func(_ int, s *mix.Split) float64 {
+		t := 0.0
+		for _, k := range cations {
+			t += s[src][k]
+		}
+		return t
+	}
+}
+
+// meanRow is one line of the mean-annual table.
+type meanRow struct {
+	name, unit string
+	mol, yield flux.Interval
+	tonnes     float64
+}
+
+func computeFluxes(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*FluxSettings)
+	v, err := fluxSetup(e, s)
+	if err != nil {
+		return nil, err
+	}
+	a := v.App
+	out := &Output{Value: v}
+	var rows []meanRow
+	var yName, yYear []string
+	var yMol, yYield, yRunoff []float64
+	add := func(r *flux.Result, u *flux.Uncertainty) {
+		row := meanRow{name: r.Series, mol: flux.Interval{Median: r.Mean.Mol, Lo: math.NaN(), Hi: math.NaN()},
+			yield: flux.Interval{Median: r.Mean.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}, tonnes: r.Mean.TonnesPerKm2}
+		if u != nil {
+			row.mol, row.yield = u.Mean.Mol, u.Mean.MolPerKm2
+		}
+		rows = append(rows, row)
+		for _, y := range r.Years {
+			if !y.Complete() {
+				continue
+			}
+			yName, yYear = append(yName, r.Series), append(yYear, fmt.Sprint(y.Label))
+			yMol, yYield, yRunoff = append(yMol, y.Mol), append(yYield, y.MolPerKm2), append(yRunoff, y.RunoffMM)
+		}
+	}
+	// Measured species, point estimates.
+	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
+		c := make([]float64, len(a.Names))
+		for i := range c {
+			c[i] = a.Corrected[i].Input[sp]
+		}
+		ser := flux.ForSpecies(sp, a.Days, c)
+		ser.Q = a.Q
+		if countFinite(c) == 0 {
+			continue
+		}
+		r, _, w, err := v.estimate(ser, false)
+		out.Warnings = append(out.Warnings, w...)
+		if err != nil {
+			out.Warnings = append(out.Warnings, err.Error())
+			continue
+		}
+		add(r, nil)
+	}
+	// Source-apportioned cations: each cation from each rock source (point),
+	// and the cation sums with intervals.
+	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
+		for k, sp := range mix.Cations {
+			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
+				continue
+			}
+			kk := k
+			ser := v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), sumOf(src, kk))
+			ser.Draws, ser.Weights = nil, nil
+			r, _, w, err := v.estimate(ser, false)
+			out.Warnings = append(out.Warnings, w...)
+			if err != nil {
+				out.Warnings = append(out.Warnings, err.Error())
+				continue
+			}
+			add(r, nil)
+		}
+	}
+	var figs []Figure
+	var runoff *flux.Uncertainty
+	for _, c := range []struct {
+		name string
+		src  mix.Source
+		ks   []int
+	}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}} {
+		r, u, w, err := v.estimate(v.series(c.name, 0, sumOf(c.src, c.ks...)), true)
+		out.Warnings = append(out.Warnings, w...)
+		if err != nil {
+			return nil, err
+		}
+		add(r, u)
+		runoff = u
+		figs = append(figs, Figure{Name: c.name + " flux", Unit: "mol/yr", Median: u.Mean.Mol.Median, Low: u.Mean.Mol.Lo, High: u.Mean.Mol.Hi},
+			Figure{Name: c.name + " yield", Unit: "mol/km²/yr", Median: u.Mean.MolPerKm2.Median, Low: u.Mean.MolPerKm2.Lo, High: u.Mean.MolPerKm2.Hi})
+	}
+	if runoff != nil {
+		out.Figures = append(out.Figures, Figure{Name: "runoff", Unit: "mm/yr", Median: runoff.Mean.RunoffMM.Median,
+			Low: runoff.Mean.RunoffMM.Lo, High: runoff.Mean.RunoffMM.Hi})
+	}
+	out.Figures = append(out.Figures, figs...)
+	// Silicate weathering rate in t/km²/yr from the point fluxes (cations, then cations + SiO2).
+	parts := map[string]float64{}
+	for _, r := range rows {
+		parts[r.name] = r.mol.Median
+	}
+	sil := []flux.Part{{Species: chem.Na, MolPerYr: parts["Na_silicate"]}, {Species: chem.K, MolPerYr: parts["K_silicate"]},
+		{Species: chem.Ca, MolPerYr: parts["Ca_silicate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_silicate"]}}
+	out.Figures = append(out.Figures, Point("silicate weathering rate (cations)", "t/km²/yr", flux.WeatheringRate(v.Site.AreaKm2, sil...)))
+	if x, ok := parts["SiO2"]; ok {
+		out.Figures = append(out.Figures, Point("silicate weathering rate (cations + SiO2)", "t/km²/yr",
+			flux.WeatheringRate(v.Site.AreaKm2, append(sil, flux.Part{Species: chem.SiO2, MolPerYr: x})...)))
+	}
+	carb := []flux.Part{{Species: chem.Ca, MolPerYr: parts["Ca_carbonate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_carbonate"]}}
+	out.Figures = append(out.Figures, Point("carbonate weathering rate (cations)", "t/km²/yr", flux.WeatheringRate(v.Site.AreaKm2, carb...)))
+
+	var names []string
+	var mol, molLo, molHi, yl, ylLo, ylHi []float64
+	for _, r := range rows {
+		names = append(names, r.name)
+		mol, molLo, molHi = append(mol, r.mol.Median), append(molLo, r.mol.Lo), append(molHi, r.mol.Hi)
+		yl, ylLo, ylHi = append(yl, r.yield.Median), append(ylLo, r.yield.Lo), append(ylHi, r.yield.Hi)
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (median and 95 % interval where bootstrapped)", Columns: []*Column{
+		TextColumn("series", names), NumColumn("flux", "mol/yr", mol), NumColumn("flux_low", "mol/yr", molLo), NumColumn("flux_high", "mol/yr", molHi),
+		NumColumn("yield", "mol/km²/yr", yl), NumColumn("yield_low", "mol/km²/yr", ylLo), NumColumn("yield_high", "mol/km²/yr", ylHi)}},
+		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
+			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
+	out.Warnings = dedupe(out.Warnings)
+	return out, nil
+}
+
+func countFinite(x []float64) int {
+	n := 0
+	for _, v := range x {
+		if finite(v) {
+			n++
+		}
+	}
+	return n
+}
+
+// dedupe drops repeated messages, keeping the first of each.
+func dedupe(ws []string) []string {
+	seen := map[string]bool{}
+	var out []string
+	for _, w := range ws {
+		if !seen[w] {
+			seen[w] = true
+			out = append(out, w)
+		}
+	}
+	return out
+}

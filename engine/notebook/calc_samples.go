@@ -1,0 +1,133 @@
+package notebook
+
+import (
+	"fmt"
+	"math"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/discharge"
+	"lixiv/engine/sample"
+)
+
+// Samples is the value a samples cell hands on: the imported table and,
+// per sample, whether it enters the budget.
+type Samples struct {
+	Table *sample.Table
+	Use   []bool    // false for samples left out (charge balance beyond the reject limit, no date)
+	NICB  []float64 // normalised inorganic charge balance, %
+	Days  []discharge.Day
+}
+
+// Used returns the indices of the samples that enter the budget.
+func (s *Samples) Used() []int {
+	var idx []int
+	for i, u := range s.Use {
+		if u {
+			idx = append(idx, i)
+		}
+	}
+	return idx
+}
+
+func init() { Register(KindSamples, computeSamples) }
+
+var policies = map[string]sample.Policy{"half-limit": sample.HalfLimit, "zero": sample.Zero, "limit": sample.AtLimit, "leave-out": sample.LeaveOut}
+var sampleOrders = map[string]sample.DateOrder{"auto": sample.DateAuto, "day-first": sample.DayFirst, "month-first": sample.MonthFirst}
+
+// nicb returns the normalised inorganic charge balance (TZ+ − TZ−)/TZ+ × 100
+// from the ions present (methods brief §3.1; NICB as used by Huh et al.
+// 1998, from memory). Alkalinity stands for HCO3 (+ CO3).
+func nicb(c *chem.Composition) float64 {
+	pos, neg := 0.0, 0.0
+	for _, s := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.NH4, chem.Sr, chem.H} {
+		if c.Has(s) {
+			pos += c.Eq(s)
+		}
+	}
+	anions := []chem.Species{chem.Cl, chem.SO4, chem.NO3, chem.F, chem.Br}
+	if c.Has(chem.Alk) {
+		anions = append(anions, chem.Alk)
+	} else {
+		anions = append(anions, chem.HCO3, chem.CO3)
+	}
+	for _, s := range anions {
+		if c.Has(s) {
+			neg += c.Eq(s)
+		}
+	}
+	if pos <= 0 {
+		return math.NaN()
+	}
+	return (pos - neg) / pos * 100
+}
+
+func computeSamples(e *Env) (*Output, error) {
+	s := e.Cell.Settings.(*SamplesSettings)
+	t := e.Cell.Table
+	if t == nil || len(t.Columns) == 0 {
+		return nil, fmt.Errorf("the sample table is empty: paste or open a table of water samples")
+	}
+	name := e.Cell.Title
+	if name == "" {
+		name = e.Cell.ID
+	}
+	tab := sample.ParseText(t.TSV(), name, sample.Options{Comma: '\t', Policy: policies[s.BelowDetection],
+		DateOrder: sampleOrders[s.DateOrder]})
+	out := &Output{}
+	for _, p := range tab.Problems {
+		out.Warnings = append(out.Warnings, p.Error())
+	}
+	n := len(tab.Samples)
+	if n == 0 {
+		return nil, fmt.Errorf("no samples could be read: %v", tab.Problems.Err())
+	}
+	v := &Samples{Table: tab, Use: make([]bool, n), NICB: make([]float64, n), Days: make([]discharge.Day, n)}
+	ids, dates, flags := make([]string, n), make([]string, n), make([]string, n)
+	species := []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2, chem.Sr}
+	conc := make([][]float64, len(species))
+	flagged, left := 0, 0
+	for i, smp := range tab.Samples {
+		ids[i] = smp.ID
+		if smp.HasTime {
+			y, m, d := smp.Time.Date()
+			v.Days[i] = discharge.Date(y, int(m), d)
+			dates[i] = v.Days[i].String()
+		}
+		for k, sp := range species {
+			conc[k] = append(conc[k], smp.C[sp])
+		}
+		v.NICB[i] = nicb(&smp.C)
+		v.Use[i] = true
+		switch a := math.Abs(v.NICB[i]); {
+		case !smp.HasTime:
+			v.Use[i], flags[i] = false, "left out: no date"
+		case !smp.C.Has(chem.Na) || smp.C[chem.Na] <= 0:
+			v.Use[i], flags[i] = false, "left out: no Na"
+		case a > s.NICBReject:
+			v.Use[i], flags[i] = false, fmt.Sprintf("left out: |NICB| above %g %%", s.NICBReject)
+		case a > s.NICBFlag:
+			flags[i] = fmt.Sprintf("|NICB| above %g %%", s.NICBFlag)
+			flagged++
+		}
+		if !v.Use[i] {
+			left++
+		}
+	}
+	cols := []*Column{TextColumn("sample", ids), TextColumn("date", dates)}
+	for k, sp := range species {
+		unit := "µmol/L"
+		if sp == chem.Alk {
+			unit = "µeq/L"
+		}
+		cols = append(cols, NumColumn(sp.Symbol(), unit, conc[k]))
+	}
+	cols = append(cols, NumColumn("NICB", "%", v.NICB), TextColumn("flag", flags))
+	out.Tables = append(out.Tables, &ResultTable{Name: "samples", Title: "Samples in µmol/L with charge balance", Columns: cols})
+	out.Figures = append(out.Figures, Point("samples read", "", float64(n)), Point("samples flagged", "", float64(flagged)),
+		Point("samples left out", "", float64(left)))
+	if left == n {
+		return nil, fmt.Errorf("every sample was left out; see the flag column")
+	}
+	out.Value = v
+	return out, nil
+}

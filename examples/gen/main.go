@@ -1,0 +1,38 @@
+// Command gen writes the example budgets in examples/ from their invented
+// truth (package synth), computes them and stores their results snapshot.
+// Run it from the repository root: go run ./examples/gen
+package main
+
+import (
+	"context"
+	"fmt"
+	"os"
+	"path/filepath"
+
+	"lixiv/examples/synth"
+)
+
+func main() {
+	if err := run("examples"); err != nil {
+		fmt.Fprintln(os.Stderr, "gen:", err)
+		os.Exit(1)
+	}
+}
+
+func run(dir string) error {
+	for _, ex := range synth.Examples {
+		d, err := synth.Computed(context.Background(), ex)
+		if err != nil {
+			return fmt.Errorf("%s: %v", ex.File, err)
+		}
+		path := filepath.Join(dir, ex.File)
+		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+			return err
+		}
+		if err := os.WriteFile(path, d.Marshal(), 0o644); err != nil {
+			return err
+		}
+		fmt.Println("wrote", path)
+	}
+	return nil
+}
