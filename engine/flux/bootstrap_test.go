@@ -33,7 +33,7 @@ func withDraws(s Series, nd int) Series {
 func TestBootstrapChecksum(t *testing.T) {
 	cv := newCorrieVale()
 	s := withDraws(cv.series, 50)
-	want := map[Method]uint64{FlowWeighted: 0x9a5f307ebc65ea29, PeriodWeighted: 0x9717c51d021ff38, Rating: 0x986e6856fcd2adc4}
+	want := map[Method]uint64{FlowWeighted: 0x9a5f307ebc65ea29, PeriodWeighted: 0x9717c51d021ff38, Rating: 0x986e6856fcd2adc4, Beale: 0x857047890b035474}
 	for m := Method(0); m < NMethods; m++ {
 		opt := Options{Method: m, AreaKm2: cv.area, Seasonal: true}
 		u, err := Bootstrap(cv.gauge, s, opt, BootstrapOptions{Replicates: 300, Seed: 7, DischargeError: 0.1, AreaError: 0.03})

@@ -20,6 +20,7 @@
 //   - PeriodWeighted: concentration interpolated linearly in time between
 //     sample days (same-day samples averaged), held at the ends of the
 //     record, times daily discharge: L = 86.4 Σ C_d Q_d.
+//   - Beale: the bias-corrected ratio estimator on each year's samples (§8.4).
 //   - Rating: ln C = b0 + b1 ln Q (+ b2 sin 2πt + b3 cos 2πt) fitted by least
 //     squares over all samples, applied to every day and multiplied by a
 //     retransformation bias factor: Duan's smearing (default), Ferguson's

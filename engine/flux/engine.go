@@ -94,6 +94,8 @@ func (e *engine) loads(method Method, w, c, out []float64, fit *RatingFit) bool 
 	switch method {
 	case FlowWeighted:
 		e.flowWeighted(w, c, cref, out)
+	case Beale:
+		e.beale(w, c, cref, out)
 	case PeriodWeighted:
 		if !e.periodWeighted(w, c, cref) {
 			return false
@@ -130,6 +132,56 @@ func (e *engine) flowWeighted(w, c []float64, cref float64, out []float64) {
 			continue
 		}
 		out[y] = (num[y] / den[y]) * e.sumQ[y]
+	}
+}
+
+// beale puts each year's Beale ratio estimate of Σ_d (C_d − Cref) Q_d into
+// out[y]. With daily sample loads l_i = C_i Q_i, the estimator
+//
+//	L = N μ_q (l̄/q̄) [1 + S_lq/(n l̄ q̄)] / [1 + S_qq/(n q̄²)]
+//
+// equals N μ_q [l̄/q̄ + S_lq/(n q̄²)] / [1 + S_qq/(n q̄²)], which is linear in
+// l, so it is applied to the excess loads (C_i − Cref) Q_i and the Cref part
+// is exactly Cref Σ Q_d. Bootstrap counts w weight the sums; n is Σ w.
+func (e *engine) beale(w, c []float64, cref float64, out []float64) {
+	ny := len(out)
+	n, sl, sq := make([]float64, ny), make([]float64, ny), make([]float64, ny)
+	slq, sqq := make([]float64, ny), make([]float64, ny)
+	for i, s := range e.smp {
+		if w[i] == 0 || math.IsNaN(c[i]) {
+			continue
+		}
+		y := s.year
+		n[y] += w[i]
+		sl[y] += w[i] * (c[i] - cref) * s.q
+		sq[y] += w[i] * s.q
+	}
+	for y := 0; y < ny; y++ {
+		if n[y] > 0 {
+			sl[y] /= n[y] // means
+			sq[y] /= n[y]
+		}
+	}
+	for i, s := range e.smp {
+		if w[i] == 0 || math.IsNaN(c[i]) {
+			continue
+		}
+		y := s.year
+		dl := (c[i]-cref)*s.q - sl[y]
+		dq := s.q - sq[y]
+		slq[y] += w[i] * dl * dq
+		sqq[y] += w[i] * dq * dq
+	}
+	for y := 0; y < ny; y++ {
+		if n[y] < 2 || sq[y] == 0 {
+			out[y] = math.NaN()
+			continue
+		}
+		nn := n[y]
+		slq[y] /= nn - 1
+		sqq[y] /= nn - 1
+		qb2 := nn * sq[y] * sq[y]
+		out[y] = e.sumQ[y] * (sl[y]/sq[y] + slq[y]/qb2) / (1 + sqq[y]/qb2)
 	}
 }
 

@@ -25,10 +25,14 @@ const (
 	// season) by least squares over all samples, applies it to every day
 	// and corrects the retransformation bias (Options.Bias).
 	Rating
+	// Beale is the bias-corrected ratio estimator applied to each year's
+	// samples (Beale 1962, from memory; described by Tin 1965; used for
+	// river loads by Dolan, Yui & Geist 1981; science brief §8.4).
+	Beale
 	NMethods // number of methods; not a method
 )
 
-var methodNames = [NMethods]string{"flow-weighted", "period-weighted", "rating curve"}
+var methodNames = [NMethods]string{"flow-weighted", "period-weighted", "rating curve", "Beale ratio"}
 
 // String names the method.
 func (m Method) String() string {

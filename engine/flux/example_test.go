@@ -46,6 +46,7 @@ func ExampleEstimate() {
 	// period-weighted 2021: 4.946e+06 mol/yr  4.720 t/km2/yr  runoff 1126 mm
 	// rating curve    2021: 4.923e+06 mol/yr  4.697 t/km2/yr  runoff 1126 mm
 	// fit: C = 120.2 Q^-0.295, R2 0.956, s 0.038, Duan smearing factor 1.0006
+	// Beale ratio     2021: 4.917e+06 mol/yr  4.692 t/km2/yr  runoff 1126 mm
 }
 
 func ExampleBootstrap() {
