@@ -1,5 +1,6 @@
-// Command gen writes the example budgets in examples/ from their invented
-// truth (package synth), computes them and stores their results snapshot.
+// Command gen writes the example budgets in examples/, and the small golden
+// budgets in testdata/budgets/, from their invented truth (package synth),
+// computes them and stores their results snapshot.
 // Run it from the repository root: go run ./examples/gen
 package main
 
@@ -13,14 +14,14 @@ import (
 )
 
 func main() {
-	if err := run("examples"); err != nil {
+	if err := run("."); err != nil {
 		fmt.Fprintln(os.Stderr, "gen:", err)
 		os.Exit(1)
 	}
 }
 
 func run(dir string) error {
-	for _, ex := range synth.Examples {
+	for _, ex := range append(synth.Examples, synth.Goldens...) {
 		d, err := synth.Computed(context.Background(), ex)
 		if err != nil {
 			return fmt.Errorf("%s: %v", ex.File, err)

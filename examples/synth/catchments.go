@@ -30,13 +30,13 @@ func MarlowFen() *Truth {
 
 // Example names the example budgets and how each is built.
 type Example struct {
-	File  string // path under examples/
+	File  string // path from the repository root
 	Build func() (*notebook.Document, error)
 }
 
 // Examples lists the example budgets.
 var Examples = []Example{
-	{"corrie-vale/corrie-vale.lixiv.json", func() (*notebook.Document, error) {
+	{"examples/corrie-vale/corrie-vale.lixiv.json", func() (*notebook.Document, error) {
 		d, err := CorrieVale().Budget("granite", "inverse", 2000, 500,
 			"Corrie Vale is a fictional granite upland burn of 12 km². The samples and discharge are invented from a known truth (examples/synth), not measured.")
 		if err != nil {
@@ -46,7 +46,7 @@ var Examples = []Example{
 		// misfit test has something to say (methods brief §7.4).
 		return d, d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na")
 	}},
-	{"marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
+	{"examples/marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
 		return MarlowFen().Budget("global", "forward", 2000, 500,
 			"Marlow Fen is a fictional lowland river on limestone and shale with gypsum and pyrite. The data are invented (examples/synth), not measured.",
 			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; set the apportionment's sulfate to sulfide to see the other end of the bracket.")
