@@ -96,6 +96,9 @@ type Result struct {
 	// over all days with discharge scaled to 365.25 days, and Warnings say so.
 	Mean      Load
 	MeanYears int        // complete years in the mean
+	// YearSD is the interannual standard deviation of the complete years'
+	// loads (mol/yr; NaN with fewer than two complete years).
+	YearSD float64
 	Rating    *RatingFit // the fitted curve (Rating method only)
 	// HeldFlow is the share of discharge on days before the first or after
 	// the last sample, where PeriodWeighted holds the end values.
@@ -159,6 +162,7 @@ func Estimate(rec *discharge.Record, s Series, opt Options) (*Result, error) {
 	}
 	res.Years, res.Mean, res.MeanYears = summarise(years, out, e.sumQ, counts, opt, s.MolarMass, &res.Warnings, s.Name)
 	res.HeldFlow, res.OutsideFlow = coverage(e, smp)
+	res.YearSD = yearSD(res.Years)
 	return res, nil
 }
 
@@ -193,6 +197,28 @@ func summarise(years []discharge.Year, mol, sumQ []float64, counts []int, opt Op
 	}
 	f := 365.25 / float64(days)
 	return out, NewLoad(allMol*f, allQ*f, opt.AreaKm2, mass), 0
+}
+
+func yearSD(ys []YearLoad) float64 {
+	var v []float64
+	for _, y := range ys {
+		if y.Complete() {
+			v = append(v, y.Mol)
+		}
+	}
+	if len(v) < 2 {
+		return math.NaN()
+	}
+	m := 0.0
+	for _, x := range v {
+		m += x
+	}
+	m /= float64(len(v))
+	ss := 0.0
+	for _, x := range v {
+		ss += (x - m) * (x - m)
+	}
+	return math.Sqrt(ss / float64(len(v)-1))
 }
 
 // coverage returns the share of discharge before the first and after the

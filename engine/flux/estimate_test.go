@@ -198,3 +198,22 @@ func TestPowerLaw(t *testing.T) {
 		}
 	}
 }
+
+func TestYearSD(t *testing.T) {
+	// Three calendar years at 1, 2 and 3 m³/s with C = 100: loads
+	// 86.4 × 100 × 365 × {1, 2, 3}; sample sd of {1, 2, 3} is 1 (common practice).
+	q := make([]float64, 0, 1095)
+	for y, v := range []float64{1, 2, 3} {
+		n := int(discharge.Date(2022+y, 1, 1) - discharge.Date(2021+y, 1, 1))
+		q = append(q, fill(n, v)...)
+	}
+	rec := discharge.NewRecord("sd", discharge.Date(2021, 1, 1), q)
+	days := sampleDays(rec, 3, 14)
+	res, err := Estimate(rec, ForSpecies(chem.Ca, days, fill(len(days), 100)), Options{Method: PeriodWeighted})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := 86.4 * 100 * 365; relErr(res.YearSD, want) > 1e-12 {
+		t.Errorf("interannual sd %g, want %g", res.YearSD, want)
+	}
+}
