@@ -95,11 +95,11 @@ type Result struct {
 	// mol/km²/yr, t/km²/yr, mm/yr). With no complete year it is the load
 	// over all days with discharge scaled to 365.25 days, and Warnings say so.
 	Mean      Load
-	MeanYears int        // complete years in the mean
+	MeanYears int // complete years in the mean
 	// YearSD is the interannual standard deviation of the complete years'
 	// loads (mol/yr; NaN with fewer than two complete years).
 	YearSD float64
-	Rating    *RatingFit // the fitted curve (Rating method only)
+	Rating *RatingFit // the fitted curve (Rating method only)
 	// HeldFlow is the share of discharge on days before the first or after
 	// the last sample, where PeriodWeighted holds the end values.
 	HeldFlow float64
