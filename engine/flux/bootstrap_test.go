@@ -275,3 +275,21 @@ func TestWeatheringRate(t *testing.T) {
 		t.Errorf("silicate cation rate %.7g t/km2/yr, want %.7g", got, want)
 	}
 }
+
+// TestDrawsWithoutValues: a series given only as draws takes the median draw
+// of each sample for the point estimate.
+func TestDrawsWithoutValues(t *testing.T) {
+	rec := constantRecord(1, 365)
+	days := sampleDays(rec, 5, 30)
+	s := Series{Name: "Na sil", MolarMass: chem.Na.MolarMass(), Days: days, Draws: make([][]float64, len(days))}
+	for i := range days {
+		s.Draws[i] = []float64{30, 10, 20} // median 20
+	}
+	res, err := Estimate(rec, s, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := 86.4 * (20 * 365.0); res.Mean.Mol != want {
+		t.Errorf("load %g, want %g", res.Mean.Mol, want)
+	}
+}

@@ -18,7 +18,7 @@ type Series struct {
 	Name      string          // for tables and messages, such as "Ca" or "Na sil"
 	MolarMass float64         // g/mol used for tonnes; 0 leaves tonnes NaN. Use 12.011 (C) for t C.
 	Days      []discharge.Day // sample days
-	C         []float64       // concentration, µmol/L; NaN for a sample without a value
+	C         []float64       // concentration, µmol/L; NaN for a sample without a value (the median of its draws, if it has draws)
 	Q         []float64       // discharge at sampling, m³/s; nil or NaN means the daily record's value
 
 	// Draws optionally holds Monte Carlo draws of the concentration for each
@@ -80,9 +80,12 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 		if i < len(s.C) {
 			c = s.C[i]
 		}
-		if math.IsNaN(c) && (i >= len(s.Draws) || len(s.Draws[i]) == 0) {
-			bad(ErrNoConc)
-			continue
+		if math.IsNaN(c) {
+			if i >= len(s.Draws) || len(s.Draws[i]) == 0 {
+				bad(ErrNoConc)
+				continue
+			}
+			c = median(s.Draws[i])
 		}
 		k := rec.Index(d)
 		if k < 0 {
@@ -114,4 +117,16 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 	}
 	sort.SliceStable(out, func(a, b int) bool { return out[a].k < out[b].k })
 	return out, warns
+}
+
+// median returns the median of the non-NaN values of v (NaN if none).
+func median(v []float64) float64 {
+	s := make([]float64, 0, len(v))
+	for _, x := range v {
+		if !math.IsNaN(x) {
+			s = append(s, x)
+		}
+	}
+	sort.Float64s(s)
+	return Quantile(s, 0.5)
 }
