@@ -126,6 +126,11 @@ func allDigits(s string) bool {
 
 func parseClock(s string) (int, bool) {
 	s = strings.TrimSuffix(strings.TrimSuffix(strings.TrimSpace(s), "Z"), "z")
+	// A UTC offset (+01:00, -0500) is dropped: the day is the local day as
+	// written, the basis of published daily means.
+	if i := strings.LastIndexAny(s, "+-"); i >= 4 {
+		s = s[:i]
+	}
 	f := strings.Split(s, ":")
 	if len(f) < 2 || len(f) > 3 {
 		return 0, false

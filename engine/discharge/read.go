@@ -53,6 +53,10 @@ func ReadString(text string, opt Options) *Import {
 	return Read(strings.NewReader(text), opt)
 }
 
+// MaxProblems is how many problems of one kind Read lists; beyond it one
+// closing problem gives the count of the rest.
+const MaxProblems = 50
+
 // MaxDays is the longest span of days a record may cover (200 years); a
 // table whose dates run further is refused as a likely typing error.
 const MaxDays = 200 * 366
@@ -76,9 +80,24 @@ type reading struct {
 // the returned Import's Problems with its row and column, and the rest loads.
 func Read(r io.Reader, opt Options) *Import {
 	imp := &Import{Record: &Record{Name: opt.File}}
+	perKind := map[error]int{}
+	var kinds []error
 	add := func(row, col int, column string, kind error, format string, args ...any) {
+		if perKind[kind]++; perKind[kind] > MaxProblems {
+			return
+		}
+		if perKind[kind] == 1 {
+			kinds = append(kinds, kind)
+		}
 		imp.Problems = append(imp.Problems, &Problem{File: opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)})
 	}
+	defer func() {
+		for _, k := range kinds {
+			if n := perKind[k] - MaxProblems; n > 0 {
+				imp.Problems = append(imp.Problems, &Problem{File: opt.File, Err: k, Detail: fmt.Sprintf("%d more rows like the above are not listed", n)})
+			}
+		}
+	}()
 	data, err := io.ReadAll(r)
 	if err != nil {
 		add(0, 0, "", ErrNotTable, "reading failed: %v", err)

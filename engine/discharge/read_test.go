@@ -211,3 +211,28 @@ func TestReadSpanTooLong(t *testing.T) {
 		t.Errorf("got %v, want ... %s", imp.Problems, want)
 	}
 }
+
+func TestReadManyProblems(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("Date,Q (m3/s)\n")
+	for i := 0; i < 120; i++ {
+		b.WriteString(Date(2021, 1, 1+i).String() + ",x\n")
+	}
+	imp := ReadString(b.String(), Options{File: "f"})
+	if len(imp.Problems) != MaxProblems+1 {
+		t.Fatalf("got %d problems, want %d", len(imp.Problems), MaxProblems+1)
+	}
+	if got, want := imp.Problems[MaxProblems].Error(), "f: not a number: 70 more rows like the above are not listed"; got != want {
+		t.Errorf("got  %s\nwant %s", got, want)
+	}
+	if imp.Record.Len() != 120 {
+		t.Errorf("got %d days, want 120 (gaps)", imp.Record.Len())
+	}
+}
+
+func TestReadUTCOffset(t *testing.T) {
+	imp := ReadString("Timestamp,Q (m3/s)\n2021-01-01T06:00:00+01:00,1\n2021-01-01T18:00-0500,3\n", Options{})
+	if imp.Problems.Err() != nil || imp.Record.Len() != 1 || imp.Record.Q[0] != 2 {
+		t.Errorf("got %v, %v", imp.Problems, imp.Record.Q)
+	}
+}
