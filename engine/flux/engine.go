@@ -31,6 +31,7 @@ type engine struct {
 
 func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt Options) *engine {
 	n := rec.Len()
+	opt.Seasonal = opt.Seasonal && opt.Method == Rating // only the rating curve uses the season
 	e := &engine{opt: opt, years: years, q: rec.Q, smp: smp,
 		lnq: make([]float64, n), year: make([]int, n), sumQ: make([]float64, len(years)), cd: make([]float64, n)}
 	if opt.Seasonal {
@@ -43,7 +44,9 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 		}
 		e.year[k] = y
 		q := rec.Q[k]
-		e.lnq[k] = plog(q)
+		if opt.Method == Rating {
+			e.lnq[k] = plog(q)
+		}
 		if !math.IsNaN(q) {
 			e.sumQ[y] += q
 		}
@@ -54,7 +57,9 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 	e.lnQ = make([]float64, len(smp))
 	e.sS, e.cS = make([]float64, len(smp)), make([]float64, len(smp))
 	for i, s := range smp {
-		e.lnQ[i] = plog(s.q)
+		if opt.Method == Rating {
+			e.lnQ[i] = plog(s.q)
+		}
 		if opt.Seasonal {
 			e.sS[i], e.cS[i] = seasonal(s.t)
 		}
