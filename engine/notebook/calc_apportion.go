@@ -245,3 +245,7 @@ func (a *Apportioned) amountTable() *ResultTable {
 	cols = append(cols, NumColumn("SO4_sulfide", "µmol/L", so4))
 	return &ResultTable{Name: "amounts", Title: "Median amount of each cation from each source", Columns: cols}
 }
+
+// cationsOrder and sourceNames follow mix.Cations and mix.Source.
+var cationsOrder = mix.Cations
+var sourceNames = [mix.NSources]string{"atmosphere", "evaporite", "silicate", "carbonate"}

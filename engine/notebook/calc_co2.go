@@ -85,7 +85,7 @@ func computeCO2(e *Env) (*Output, error) {
 		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, App: a}
 	}
 	var yName, yYear []string
-	var yMed, yLo, yHi []float64
+	var yMed, yLo, yHi, kMed, kLo, kHi []float64
 	for _, part := range []struct {
 		name string
 		carb bool
@@ -118,11 +118,13 @@ func computeCO2(e *Env) (*Output, error) {
 			}
 			yName, yYear = append(yName, part.name), append(yYear, fmt.Sprint(y.Label))
 			yMed, yLo, yHi = append(yMed, y.Mol.Median), append(yLo, y.Mol.Lo), append(yHi, y.Mol.Hi)
+			kMed, kLo, kHi = append(kMed, y.MolPerKm2.Median), append(kLo, y.MolPerKm2.Lo), append(kHi, y.MolPerKm2.Hi)
 		}
 	}
 	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + scale + ")", Columns: []*Column{
 		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
-		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi)}})
-	out.Warnings = dedupe(out.Warnings)
+		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi),
+		NumColumn("per_km2", "mol/km²/yr", kMed), NumColumn("per_km2_low", "mol/km²/yr", kLo), NumColumn("per_km2_high", "mol/km²/yr", kHi)}})
+	out.Warnings = groupSeries(out.Warnings, map[string]bool{"silicate CO2": true, "carbonate CO2": true})
 	return out, nil
 }

@@ -3,6 +3,7 @@ package notebook
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
@@ -260,7 +261,11 @@ func computeFluxes(e *Env) (*Output, error) {
 		NumColumn("yield", "mol/km²/yr", yl), NumColumn("yield_low", "mol/km²/yr", ylLo), NumColumn("yield_high", "mol/km²/yr", ylHi)}},
 		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
 			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
-	out.Warnings = dedupe(out.Warnings)
+	series := map[string]bool{}
+	for _, r := range rows {
+		series[r.name] = true
+	}
+	out.Warnings = groupSeries(out.Warnings, series)
 	return out, nil
 }
 
@@ -272,6 +277,35 @@ func countFinite(x []float64) int {
 		}
 	}
 	return n
+}
+
+// groupSeries folds messages that differ only in the series they name
+// ("Na: year … left out", "K: year … left out") into one, with the number
+// of series; other messages pass through once each.
+func groupSeries(ws []string, series map[string]bool) []string {
+	count := map[string]int{}
+	first := map[string]string{}
+	var order []string
+	for _, w := range ws {
+		key := w
+		if head, rest, ok := strings.Cut(w, ": "); ok && series[head] {
+			key = rest
+		}
+		if count[key] == 0 {
+			order = append(order, key)
+			first[key] = w
+		}
+		count[key]++
+	}
+	out := make([]string, len(order))
+	for i, k := range order {
+		if count[k] == 1 {
+			out[i] = first[k]
+		} else {
+			out[i] = fmt.Sprintf("%s (%d series)", k, count[k])
+		}
+	}
+	return out
 }
 
 // dedupe drops repeated messages, keeping the first of each.

@@ -25,6 +25,7 @@ type Truth struct {
 	Start            discharge.Day
 	Days             int     // length of the daily record
 	SampleEvery      int     // days between samples
+	NSamples         int     // when above 0, this many samples spread evenly over the record instead
 	Seed             uint64  // seed of the invented noise
 	BaseQ            float64 // m³/s, mean flow before storms
 	Storminess       float64 // mean storm peaks per 30 days
@@ -90,7 +91,17 @@ func (t *Truth) Samples(q []float64) []Sample {
 	}
 	mean /= float64(len(q))
 	var out []Sample
+	days := []int{}
 	for i := 3; i < len(q); i += t.SampleEvery {
+		days = append(days, i)
+	}
+	if t.NSamples > 0 {
+		days = days[:0]
+		for k := 0; k < t.NSamples; k++ {
+			days = append(days, 2+k*(len(q)-4)/t.NSamples)
+		}
+	}
+	for _, i := range days {
 		f := q[i] / mean
 		dil := math.Pow(f, t.Slope)
 		c := chem.NewComposition()

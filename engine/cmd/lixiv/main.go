@@ -1,8 +1,11 @@
 // Command lixiv is the native face of the Lixiv engine: it serves the
-// notebook page, reruns and verifies budget files, and runs batches.
+// notebook page, reruns and checks budget files, writes their result
+// tables, builds quick budgets from CSV files and runs batches on all cores.
+// Run "lixiv help" for the sub-commands.
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -18,14 +21,46 @@ func main() {
 // run dispatches a sub-command. Tests call it directly.
 func run(args []string, stdout, stderr io.Writer) error {
 	if len(args) == 0 {
-		return fmt.Errorf("usage: lixiv serve|run|verify|quick|batch ... (lixiv help)")
+		return usageError("no sub-command; run lixiv help")
 	}
 	switch args[0] {
 	case "serve":
 		return runServe(args[1:], stdout, stderr)
+	case "rerun":
+		return runRerun(args[1:], stdout, stderr)
+	case "check":
+		return runCheck(args[1:], stdout, stderr)
+	case "tables":
+		return runTables(args[1:], stdout, stderr)
+	case "quick":
+		return runQuick(args[1:], stdout, stderr)
+	case "batch":
+		return runBatch(args[1:], stdout, stderr)
+	case "help", "-h", "-help", "--help":
+		return runHelp(args[1:], stdout)
 	}
-	return fmt.Errorf("unknown sub-command %q", args[0])
+	return usageError(fmt.Sprintf("unknown sub-command %q; run lixiv help", args[0]))
 }
 
-// exitCode maps an error to the process exit status.
-func exitCode(err error) int { return 1 }
+// statusError carries an exit status other than 1.
+type statusError struct {
+	code int
+	msg  string
+}
+
+func (e *statusError) Error() string { return e.msg }
+
+func usageError(msg string) error { return &statusError{code: 2, msg: msg} }
+
+// errMismatch is the exit status of a rerun that does not match its file.
+const errMismatch = 3
+
+// exitCode maps an error to the process exit status: 2 for a usage error,
+// 3 for results that do not match the stored snapshot, 1 otherwise.
+func exitCode(err error) int {
+	var se *statusError
+	if errors.As(err, &se) {
+		return se.code
+	}
+	return 1
+}

@@ -1,0 +1,32 @@
+package main
+
+import (
+	"fmt"
+	"io"
+)
+
+const helpText = `lixiv: chemical weathering budgets of river catchments
+
+Usage:
+  lixiv rerun [-json] FILE...          rerun budget files and print their summary
+                                       (-json: the report documented in engine/notebook/SCHEMA.md)
+  lixiv check FILE...                  rerun and compare with the results stored in each file;
+                                       exit status 3 when any differs
+  lixiv tables -out DIR FILE           rerun and write every result table as CSV and JSON,
+                                       with report.json and figures.csv, to DIR
+  lixiv quick -samples S.csv [-discharge Q.csv -area KM2] [-save B.lixiv.json] [-json]
+                                       a budget with default settings from a samples file;
+                                       without discharge: per-sample apportionment and CO2 per litre
+  lixiv batch [-j N] [-out DIR] [-check] FILE|DIR...
+                                       run many budget files at once on all cores
+  lixiv serve [-addr A] [-dir D]       serve the notebook page
+  lixiv help                           this text
+
+Budget files end in .lixiv.json. Exit status: 0 ok, 1 error, 2 usage, 3 results differ.
+CO2 consumption is a geochemical budget, not a carbon-removal credit.
+`
+
+func runHelp(args []string, stdout io.Writer) error {
+	_, err := fmt.Fprint(stdout, helpText)
+	return err
+}

@@ -1,0 +1,137 @@
+package main
+
+import (
+	"context"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+
+	"lixiv/engine/notebook"
+)
+
+// quickBudget builds a budget with default settings from a samples file
+// and, when given, a discharge file and the area. Without discharge it
+// stops at the per-sample apportionment and CO2 per litre.
+func quickBudget(samplesPath, dischargePath string, area float64) (*notebook.Document, error) {
+	name := strings.TrimSuffix(filepath.Base(samplesPath), filepath.Ext(samplesPath))
+	d := notebook.New("Quick budget from " + filepath.Base(samplesPath))
+	add := func(k notebook.Kind, id, title string) *notebook.Cell {
+		c := notebook.NewCell(k, id, title)
+		if err := d.Insert(c, -1); err != nil {
+			panic(err) // fixed ids; a clash is a programming error
+		}
+		return c
+	}
+	readTable := func(path string) (*notebook.Table, error) {
+		b, err := os.ReadFile(path)
+		if err != nil {
+			return nil, err
+		}
+		t, err := notebook.TableFromText(string(b))
+		if err != nil {
+			return nil, fmt.Errorf("%s: %v", path, err)
+		}
+		return t, nil
+	}
+	if dischargePath != "" {
+		if area <= 0 {
+			return nil, usageError("quick: a discharge file needs -area (km², above zero)")
+		}
+		s := add(notebook.KindSite, "site", name).Settings.(*notebook.SiteSettings)
+		s.Name, s.AreaKm2 = name, area
+	}
+	st, err := readTable(samplesPath)
+	if err != nil {
+		return nil, err
+	}
+	add(notebook.KindSamples, "samples", filepath.Base(samplesPath)).Table = st
+	if dischargePath != "" {
+		qt, err := readTable(dischargePath)
+		if err != nil {
+			return nil, err
+		}
+		add(notebook.KindDischarge, "discharge", filepath.Base(dischargePath)).Table = qt
+	}
+	add(notebook.KindAtmosphere, "rain", "Sea-salt correction")
+	src := add(notebook.KindSources, "sources", "End-members (global preset)")
+	if src.Table, err = notebook.SourcesTable("global"); err != nil {
+		return nil, err
+	}
+	add(notebook.KindApportionment, "apportionment", "Sources of the cations")
+	if dischargePath != "" {
+		add(notebook.KindFluxes, "fluxes", "Annual fluxes")
+	}
+	add(notebook.KindCO2, "co2", "CO2 consumption")
+	return d, nil
+}
+
+func runQuick(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("quick", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	samples := fs.String("samples", "", "samples table (CSV, TSV)")
+	dis := fs.String("discharge", "", "daily discharge table (CSV, TSV); optional")
+	areaText := fs.String("area", "", "catchment area in km² (needed with -discharge)")
+	save := fs.String("save", "", "write the budget, with its results, to this .lixiv.json file")
+	asJSON := fs.Bool("json", false, "print the JSON report instead of the summary")
+	if err := fs.Parse(args); err != nil {
+		return usageError(err.Error())
+	}
+	if *samples == "" || fs.NArg() > 0 {
+		return usageError("quick: give -samples FILE (and -discharge FILE -area KM2 for fluxes)")
+	}
+	area := 0.0
+	if *areaText != "" {
+		var err error
+		if area, err = strconv.ParseFloat(*areaText, 64); err != nil || !(area > 0) {
+			return usageError(fmt.Sprintf("quick: -area %q is not a positive number of km²", *areaText))
+		}
+	}
+	d, err := quickBudget(*samples, *dis, area)
+	if err != nil {
+		return err
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		return err
+	}
+	if *save != "" {
+		if len(d.Pending()) == 0 {
+			if err := d.Keep(); err != nil {
+				return err
+			}
+		}
+		if err := os.WriteFile(*save, d.Marshal(), 0o644); err != nil {
+			return err
+		}
+	}
+	if *asJSON {
+		_, err = stdout.Write(d.Report().JSON())
+		return err
+	}
+	summary(stdout, *samples, d)
+	if *dis == "" {
+		perSample(stdout, d)
+	}
+	return nil
+}
+
+// perSample prints the silicate share of each cation and the CO2 per litre
+// of every sample.
+func perSample(w io.Writer, d *notebook.Document) {
+	r := d.Report()
+	fmt.Fprintln(w, "  per sample: silicate share of Na, K, Ca, Mg; CO2 consumption per litre (µmol/L, silicate and carbonate)")
+	for _, s := range r.Samples {
+		fmt.Fprintf(w, "    %s %s %s:", s.Sample, s.Date, s.Status)
+		for _, c := range []string{"Na", "K", "Ca", "Mg"} {
+			x := s.Shares[c]["silicate"]
+			fmt.Fprintf(w, " %s %.2f [%.2f, %.2f]", c, float64(x.Median), float64(x.Low), float64(x.High))
+		}
+		if s.CO2PerL != nil {
+			fmt.Fprintf(w, "; CO2 %.4g / %.4g", float64(s.CO2PerL["silicate"].Median), float64(s.CO2PerL["carbonate"].Median))
+		}
+		fmt.Fprintln(w)
+	}
+}

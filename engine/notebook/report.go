@@ -1,0 +1,218 @@
+package notebook
+
+import (
+	"encoding/json"
+	"math"
+)
+
+// Number is a float64 written to JSON as a number, or null when it is NaN
+// or infinite (JSON has no NaN).
+type Number float64
+
+// MarshalJSON implements json.Marshaler.
+func (n Number) MarshalJSON() ([]byte, error) {
+	x := float64(n)
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return []byte("null"), nil
+	}
+	return json.Marshal(x)
+}
+
+// Range is a median with its 95 % bounds (2.5 % and 97.5 % quantiles).
+type Range struct {
+	Median Number `json:"median"`
+	Low    Number `json:"low"`
+	High   Number `json:"high"`
+}
+
+func rangeOf(f *Figure) Range {
+	if f == nil {
+		return Range{Number(math.NaN()), Number(math.NaN()), Number(math.NaN())}
+	}
+	return Range{Number(f.Median), Number(f.Low), Number(f.High)}
+}
+
+// Amount is a flux per catchment and per km², each as a Range.
+type Amount struct {
+	MolPerYr      Range `json:"mol_per_yr"`
+	MolPerKm2PerY Range `json:"mol_per_km2_per_yr"`
+}
+
+// YearAmount is the Amount of one reporting year.
+type YearAmount struct {
+	Year string `json:"year"`
+	Amount
+}
+
+// CO2Part is the CO2 consumption of one kind of weathering: the mean annual
+// figure and each complete year.
+type CO2Part struct {
+	Mean  Amount       `json:"mean"`
+	Years []YearAmount `json:"years"`
+}
+
+// SampleReport is the apportionment of one water sample: for each cation
+// (Na, K, Ca, Mg) the share from each source (atmosphere, evaporite,
+// silicate, carbonate), and the CO2 consumption per litre.
+type SampleReport struct {
+	Sample   string                      `json:"sample"`
+	Date     string                      `json:"date"`
+	Status   string                      `json:"status"`
+	Shares   map[string]map[string]Range `json:"shares"`
+	CO2PerL  map[string]Range            `json:"co2_umol_per_litre"`
+	Warnings []string                    `json:"warnings,omitempty"`
+}
+
+// CellProblem is a cell that did not compute.
+type CellProblem struct {
+	Cell    string `json:"cell"`
+	State   string `json:"state"`
+	Message string `json:"message"`
+}
+
+// Report is the summary of a computed budget that the command line prints
+// as JSON (documented in SCHEMA.md). Figures the budget lacks (no fluxes
+// cell, say) are null or left out.
+type Report struct {
+	Format       string                `json:"format"`  // "lixiv-report"
+	Version      int                   `json:"version"` // 1
+	Engine       string                `json:"engine"`
+	Budget       string                `json:"budget"`
+	AreaKm2      Number                `json:"area_km2"`
+	RunoffMM     Range                 `json:"runoff_mm_per_yr"`
+	CationFluxes map[string]Amount     `json:"cation_fluxes,omitempty"`   // "silicate", "carbonate"
+	TimeScale    string                `json:"co2_time_scale,omitempty"`  // "short" or "long"
+	CO2          map[string]CO2Part    `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
+	Samples      []SampleReport        `json:"samples"`
+	Problems     []CellProblem         `json:"problems"`
+	Warnings     map[string][]string   `json:"warnings"`
+	Snapshot     *SnapshotCheck        `json:"snapshot"`
+	Figures      map[string][]FigureJS `json:"figures"`
+}
+
+// FigureJS is a headline figure as the report writes it.
+type FigureJS struct {
+	Name string `json:"name"`
+	Unit string `json:"unit"`
+	Range
+}
+
+// SnapshotCheck compares the rerun with the results stored in the file.
+type SnapshotCheck struct {
+	Stored string `json:"stored_sha256"`
+	Rerun  string `json:"rerun_sha256"`
+	Match  bool   `json:"match"`
+}
+
+// firstOf returns the id of the first cell of kind k with an output.
+func (d *Document) firstOf(k Kind) (string, *Output) {
+	for _, c := range d.Cells {
+		if c.Kind == k {
+			if o := d.Output(c.ID); o != nil {
+				return c.ID, o
+			}
+		}
+	}
+	return "", nil
+}
+
+// Report summarises the computed budget.
+func (d *Document) Report() *Report {
+	r := &Report{Format: "lixiv-report", Version: 1, Engine: EngineVersion, Budget: d.Title, AreaKm2: Number(math.NaN()),
+		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Figures: map[string][]FigureJS{}}
+	for _, c := range d.Cells {
+		st, err := d.Status(c.ID)
+		if st != UpToDate {
+			msg := ""
+			if err != nil {
+				msg = err.Error()
+			}
+			r.Problems = append(r.Problems, CellProblem{Cell: c.ID, State: st.String(), Message: msg})
+		}
+		if o := d.Output(c.ID); o != nil {
+			if len(o.Warnings) > 0 {
+				r.Warnings[c.ID] = o.Warnings
+			}
+			for i := range o.Figures {
+				r.Figures[c.ID] = append(r.Figures[c.ID], FigureJS{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i])})
+			}
+		}
+	}
+	if _, o := d.firstOf(KindSite); o != nil {
+		r.AreaKm2 = Number(o.Value.(*Site).AreaKm2)
+	}
+	r.RunoffMM = rangeOf(nil)
+	if _, o := d.firstOf(KindDischarge); o != nil {
+		r.RunoffMM = rangeOf(o.Figure("runoff"))
+	}
+	if _, o := d.firstOf(KindFluxes); o != nil {
+		r.RunoffMM = rangeOf(o.Figure("runoff"))
+		r.CationFluxes = map[string]Amount{}
+		for _, src := range []string{"silicate", "carbonate"} {
+			r.CationFluxes[src] = Amount{rangeOf(o.Figure(src + " cations flux")), rangeOf(o.Figure(src + " cations yield"))}
+		}
+	}
+	id, co := d.firstOf(KindCO2)
+	if co != nil {
+		r.TimeScale = d.Cell(id).Settings.(*CO2Settings).TimeScale
+		if co.Figure("silicate CO2 consumption") != nil {
+			r.CO2 = map[string]CO2Part{}
+			yt := co.Table("years")
+			for _, src := range []string{"silicate", "carbonate"} {
+				p := CO2Part{Mean: Amount{rangeOf(co.Figure(src + " CO2 consumption")), rangeOf(co.Figure(src + " CO2 consumption per km²"))},
+					Years: []YearAmount{}}
+				for i := 0; yt != nil && i < yt.Len(); i++ {
+					if yt.Column("source").Text[i] != src {
+						continue
+					}
+					n := func(c string) Number { return Number(yt.Column(c).Num[i]) }
+					p.Years = append(p.Years, YearAmount{Year: yt.Column("year").Text[i], Amount: Amount{
+						Range{n("consumption"), n("consumption_low"), n("consumption_high")},
+						Range{n("per_km2"), n("per_km2_low"), n("per_km2_high")}}})
+				}
+				r.CO2[src] = p
+			}
+		}
+	}
+	if _, ao := d.firstOf(KindApportionment); ao != nil {
+		a := ao.Value.(*Apportioned)
+		st := ao.Table("shares").Column("status").Text
+		var pl *ResultTable
+		if co != nil {
+			pl = co.Table("per-litre")
+		}
+		for i := range a.Names {
+			s := SampleReport{Sample: a.Names[i], Date: a.Days[i].String(), Status: st[i], Shares: map[string]map[string]Range{}}
+			for k, sp := range cationsOrder {
+				m := map[string]Range{}
+				for src := 0; src < 4; src++ {
+					in := a.Corrected[i].Input[sp]
+					m[sourceNames[src]] = Range{Number(a.Median[i][src][k] / in), Number(a.Lo[i][src][k] / in), Number(a.Hi[i][src][k] / in)}
+				}
+				s.Shares[sp.Symbol()] = m
+			}
+			if pl != nil {
+				n := func(c string) Number { return Number(pl.Column(c).Num[i]) }
+				s.CO2PerL = map[string]Range{
+					"silicate":  {n("silicate"), n("silicate_low"), n("silicate_high")},
+					"carbonate": {n("carbonate"), n("carbonate_low"), n("carbonate_high")}}
+			}
+			r.Samples = append(r.Samples, s)
+		}
+	}
+	if d.Stored != nil {
+		if v, err := d.Verify(); err == nil {
+			r.Snapshot = &SnapshotCheck{Stored: v.Stored, Rerun: v.Rerun, Match: v.Match}
+		}
+	}
+	return r
+}
+
+// JSON returns the report as indented JSON.
+func (r *Report) JSON() []byte {
+	b, err := json.MarshalIndent(r, "", "  ")
+	if err != nil {
+		panic("notebook: report: " + err.Error()) // every field marshals
+	}
+	return append(b, '\n')
+}
