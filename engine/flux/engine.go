@@ -114,6 +114,9 @@ func (e *engine) loads(method Method, w, c, out []float64, fit *RatingFit) bool 
 	}
 	for y := range out {
 		out[y] = 86.4 * (cref*e.sumQ[y] + out[y])
+		if math.IsInf(out[y], 0) {
+			return false // a fit extrapolated beyond floating point
+		}
 	}
 	return true
 }

@@ -147,7 +147,10 @@ func Estimate(rec *discharge.Record, s Series, opt Options) (*Result, error) {
 	out := make([]float64, len(years))
 	var fit RatingFit
 	if !e.loads(opt.Method, w, c, out, &fit) {
-		return res, fmt.Errorf("%s: %v needs more samples at different discharges (%d usable)", s.Name, opt.Method, len(smp))
+		return res, fmt.Errorf("%s: the %v estimator cannot be applied to these %d samples (too few, all at one discharge, or a fit that extrapolates beyond range)", s.Name, opt.Method, len(smp))
+	}
+	if opt.Method == Rating && opt.Seasonal && smp[len(smp)-1].k-smp[0].k < 365 {
+		res.Warnings = append(res.Warnings, fmt.Errorf("%s: the samples span less than a year, so the seasonal terms are poorly determined", s.Name))
 	}
 	if opt.Method == Rating {
 		res.Rating = &fit
