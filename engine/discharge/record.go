@@ -168,3 +168,23 @@ func (r *Record) Fill(method FillMethod, maxDays int) (*Record, FillReport) {
 	}
 	return out, rep
 }
+
+// Exceedance returns the share of days with a value whose discharge is at
+// least q: its place on the flow-duration curve (0.05 for the flow exceeded
+// on 5 % of days). It is NaN for a record without values.
+func (r *Record) Exceedance(q float64) float64 {
+	n, above := 0, 0
+	for _, v := range r.Q {
+		if math.IsNaN(v) {
+			continue
+		}
+		n++
+		if v >= q {
+			above++
+		}
+	}
+	if n == 0 {
+		return math.NaN()
+	}
+	return float64(above) / float64(n)
+}

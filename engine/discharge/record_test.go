@@ -152,3 +152,18 @@ func TestRunoff(t *testing.T) {
 		})
 	}
 }
+
+func TestExceedance(t *testing.T) {
+	q := make([]float64, 101)
+	for i := range q {
+		q[i] = float64(i)
+	}
+	q[100] = nan() // 0..99 with one gap
+	r := NewRecord("t", Date(2021, 1, 1), q)
+	tests := []struct{ q, want float64 }{{90, 0.10}, {0, 1}, {99.5, 0}, {50, 0.5}} // counting days, common practice
+	for _, tt := range tests {
+		if got := r.Exceedance(tt.q); math.Abs(got-tt.want) > 1e-15 {
+			t.Errorf("Exceedance(%g) = %g, want %g", tt.q, got, tt.want)
+		}
+	}
+}

@@ -77,6 +77,9 @@ func TestSyntheticCatchment(t *testing.T) {
 				}
 				fmt.Fprintf(tw, "%s\t%s\t%.5g\t%.5g\t%.5g\t%.5g\t%.5g\t%.5g\t%.5g\t%.5g\t%d\t\n", m, label, truth, l.Mol, iv.Mol.Median, iv.Mol.Lo, iv.Mol.Hi, l.TonnesPerKm2, l.MolPerKm2, l.RunoffMM, n)
 			}
+			if m == FlowWeighted {
+				fmt.Fprintf(tw, "%s\tcoverage\ttop sample exceeded on %.1f %% of days\t\t\t\t\t\t\t\t\t\n", m, 100*res.TopSampled)
+			}
 			if res.Rating != nil {
 				f := res.Rating
 				fmt.Fprintf(tw, "%s\tfit\ta %.4g µmol/L\tb %.4f\tR2 %.4f\ts %.4f\tfactor %.5f\t\t\t\t\t\n", m, f.A, f.B, f.R2, f.S, f.Factor)

@@ -106,8 +106,12 @@ type Result struct {
 	// OutsideFlow is the share of discharge on days whose Q lies outside the
 	// range of sampled Q, where the rating curve extrapolates.
 	OutsideFlow float64
-	Samples     int     // samples used
-	Warnings    []error // samples left out, incomplete years, years without samples
+	// TopSampled is the place on the flow-duration curve of the highest
+	// sampled discharge: the share of days with at least that flow. A large
+	// value means the floods went unsampled (science brief §12).
+	TopSampled float64
+	Samples    int     // samples used
+	Warnings   []error // samples left out, incomplete years, years without samples
 }
 
 // ErrNoYear is reported when no reporting year of the record is complete.
@@ -166,6 +170,11 @@ func Estimate(rec *discharge.Record, s Series, opt Options) (*Result, error) {
 	res.Years, res.Mean, res.MeanYears = summarise(years, out, e.sumQ, counts, opt, s.MolarMass, &res.Warnings, s.Name)
 	res.HeldFlow, res.OutsideFlow = coverage(e, smp)
 	res.YearSD = yearSD(res.Years)
+	top := 0.0
+	for _, sm := range smp {
+		top = math.Max(top, sm.q)
+	}
+	res.TopSampled = rec.Exceedance(top)
 	return res, nil
 }
 
