@@ -215,7 +215,7 @@ func Read(r io.Reader, opt Options) *Import {
 	imp.DateOrder = order
 
 	// Rows.
-	var rd []reading
+	rd := make([]reading, 0, len(rows))
 	firstUnit := Unit(-1)
 	unitName := ""
 	if cols.unitCol >= 0 {
@@ -349,7 +349,7 @@ func build(imp *Import, rd []reading, opt Options, add func(int, int, string, er
 		}
 	}
 	// Duplicates: the same day (daily input) or the same time (sub-daily).
-	kept := rd[:0:0]
+	kept := make([]reading, 0, len(rd))
 	for i, r := range rd {
 		if i > 0 && rd[i-1].day == r.day && (rd[i-1].sec == r.sec || !subDaily) {
 			prev := kept[len(kept)-1]
@@ -522,7 +522,16 @@ func splitRows(data []byte, opt Options, imp *Import, add func(int, int, string,
 func detectDelimiter(data []byte) rune {
 	n := 0
 	var tabs, semis, commas int
-	for _, ln := range strings.Split(string(data), "\n") {
+	head := data
+	for i, k := 0, 0; i < len(data); i++ {
+		if data[i] == '\n' {
+			if k++; k == 50 {
+				head = data[:i]
+				break
+			}
+		}
+	}
+	for _, ln := range strings.Split(string(head), "\n") {
 		if strings.TrimSpace(ln) == "" {
 			continue
 		}
