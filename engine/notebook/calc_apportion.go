@@ -26,6 +26,8 @@ type Apportioned struct {
 
 	inverse *mix.Result
 	forward [][]mix.Split
+	splits  [][]mix.Split // per sample and draw, atmosphere and evaporite added
+	weights [][]float64   // per sample and draw; 0 for a draw not kept
 }
 
 // Draw returns the split of sample i under draw d (atmospheric and
@@ -33,6 +35,10 @@ type Apportioned struct {
 // d stands for the same end-member values in every sample, so derived
 // fluxes can be propagated draw by draw.
 func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
+	if a.splits != nil {
+		w := a.weights[i][d]
+		return a.splits[i][d], w, w > 0
+	}
 	if a.forward != nil {
 		return a.forward[i][d], 1, true
 	}
@@ -167,12 +173,16 @@ func computeApportionment(e *Env) (*Output, error) {
 	a.Median, a.Lo, a.Hi = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	vals, ws := make([]float64, 0, s.Draws), make([]float64, 0, s.Draws)
 	var draws []mix.Split
+	var qb quantileBuf
+	splits, weights := make([][]mix.Split, n), make([][]float64, n)
 	for i := 0; i < n; i++ {
 		draws, ws = draws[:0], ws[:0]
+		splits[i], weights[i] = make([]mix.Split, a.Draws), make([]float64, a.Draws)
 		for d := 0; d < a.Draws; d++ {
 			if sp, w, ok := a.Draw(i, d); ok {
 				draws = append(draws, sp)
 				ws = append(ws, w)
+				splits[i][d], weights[i][d] = sp, w
 			}
 		}
 		for src := mix.Source(0); src < mix.NSources; src++ {
@@ -181,11 +191,13 @@ func computeApportionment(e *Env) (*Output, error) {
 				for _, sp := range draws {
 					vals = append(vals, sp[src][k])
 				}
-				q := quantiles(vals, ws, 0.025, 0.5, 0.975)
+				q := qb.quantiles(vals, ws, 0.025, 0.5, 0.975)
 				a.Lo[i][src][k], a.Median[i][src][k], a.Hi[i][src][k] = q[0], q[1], q[2]
 			}
 		}
 	}
+	a.splits, a.weights = splits, weights
+	a.inverse, a.forward = nil, nil // everything is in splits now
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
 	out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
 	fit := 0

@@ -2,6 +2,7 @@ package notebook
 
 import (
 	"fmt"
+	"math"
 
 	"lixiv/engine/co2"
 	"lixiv/engine/flux"
@@ -42,8 +43,12 @@ func computeCO2(e *Env) (*Output, error) {
 	// Per litre: quantiles over the draws of each sample.
 	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
 	var vs, vc, ws []float64
+	var qb quantileBuf
+	// Per draw, kept for fluxing below.
+	silD, carbD, wD := make([][]float64, n), make([][]float64, n), make([][]float64, n)
 	for i := 0; i < n; i++ {
 		vs, vc, ws = vs[:0], vc[:0], ws[:0]
+		silD[i], carbD[i], wD[i] = make([]float64, a.Draws), make([]float64, a.Draws), make([]float64, a.Draws)
 		for d := 0; d < a.Draws; d++ {
 			sp, w, ok := a.Draw(i, d)
 			if !ok {
@@ -54,10 +59,14 @@ func computeCO2(e *Env) (*Output, error) {
 				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
+			silD[i][d], carbD[i][d], wD[i][d] = x, y, w
 		}
-		q := quantiles(vs, ws, 0.025, 0.5, 0.975)
+		if len(ws) == 0 {
+			silD[i], carbD[i], wD[i] = nil, nil, nil
+		}
+		q := qb.quantiles(vs, ws, 0.025, 0.5, 0.975)
 		silLo, silMed, silHi = append(silLo, q[0]), append(silMed, q[1]), append(silHi, q[2])
-		q = quantiles(vc, ws, 0.025, 0.5, 0.975)
+		q = qb.quantiles(vc, ws, 0.025, 0.5, 0.975)
 		carbLo, carbMed, carbHi = append(carbLo, q[0]), append(carbMed, q[1]), append(carbHi, q[2])
 	}
 	scale := "short-term"
@@ -90,16 +99,22 @@ func computeCO2(e *Env) (*Output, error) {
 		name string
 		carb bool
 	}{{"silicate", false}, {"carbonate", true}} {
-		ser := fv.series(part.name+" CO2", 0, func(i int, sp *mix.Split) float64 {
+		ser := fv.series(part.name+" CO2", 0, false, func(i int, sp *mix.Split) float64 {
 			x, y, err := co2Pair(sp, a.Corrected[i].SO4Sulf, opt, long)
 			if err != nil {
-				return 0 // cannot happen: every draw passed above
+				return math.NaN()
 			}
 			if part.carb {
 				return y
 			}
 			return x
 		})
+		if a.Draws > 1 {
+			ser.Draws, ser.Weights = silD, wD
+			if part.carb {
+				ser.Draws = carbD
+			}
+		}
 		_, u, w, err := fv.estimate(ser, true)
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil {

@@ -47,11 +47,11 @@ func period(rec *discharge.Record, site *Site) (*discharge.Record, error) {
 
 // series builds a flux series from a per-sample quantity f of each draw's
 // split; the point value is f of the cell-by-cell median.
-func (v *Fluxes) series(name string, mass float64, f func(i int, s *mix.Split) float64) flux.Series {
+func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int, s *mix.Split) float64) flux.Series {
 	a := v.App
 	n := len(a.Names)
 	s := flux.Series{Name: name, MolarMass: mass, Days: a.Days, Q: a.Q, C: make([]float64, n)}
-	if a.Draws > 1 {
+	if withDraws && a.Draws > 1 {
 		s.Draws, s.Weights = make([][]float64, n), make([][]float64, n)
 	}
 	for i := 0; i < n; i++ {
@@ -201,8 +201,7 @@ func computeFluxes(e *Env) (*Output, error) {
 				continue
 			}
 			kk := k
-			ser := v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), sumOf(src, kk))
-			ser.Draws, ser.Weights = nil, nil
+			ser := v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), false, sumOf(src, kk))
 			r, _, w, err := v.estimate(ser, false)
 			out.Warnings = append(out.Warnings, w...)
 			if err != nil {
@@ -219,7 +218,7 @@ func computeFluxes(e *Env) (*Output, error) {
 		src  mix.Source
 		ks   []int
 	}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}} {
-		r, u, w, err := v.estimate(v.series(c.name, 0, sumOf(c.src, c.ks...)), true)
+		r, u, w, err := v.estimate(v.series(c.name, 0, true, sumOf(c.src, c.ks...)), true)
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil {
 			return nil, err

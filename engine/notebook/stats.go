@@ -1,9 +1,10 @@
 package notebook
 
 import (
+	"cmp"
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -25,11 +26,20 @@ func median(x []float64) float64 {
 }
 
 // quantiles returns the weighted quantiles ps of the finite values of x
-// (weights w, nil for equal): the smallest value whose cumulative weight
-// reaches p of the total, interpolated between neighbours. NaN when empty.
+// (weights w, nil for equal), interpolated linearly between the midpoints
+// of the cumulative weights of the sorted values. NaN when empty.
 func quantiles(x, w []float64, ps ...float64) []float64 {
-	type vw struct{ v, w float64 }
-	s := make([]vw, 0, len(x))
+	var b quantileBuf
+	return b.quantiles(x, w, ps...)
+}
+
+type vw struct{ v, w float64 }
+
+// quantileBuf reuses its sort buffer across calls.
+type quantileBuf struct{ s []vw }
+
+func (b *quantileBuf) quantiles(x, w []float64, ps ...float64) []float64 {
+	s := b.s[:0]
 	total := 0.0
 	for i, v := range x {
 		wi := 1.0
@@ -41,6 +51,7 @@ func quantiles(x, w []float64, ps ...float64) []float64 {
 			total += wi
 		}
 	}
+	b.s = s
 	out := make([]float64, len(ps))
 	if len(s) == 0 {
 		for i := range out {
@@ -48,9 +59,8 @@ func quantiles(x, w []float64, ps ...float64) []float64 {
 		}
 		return out
 	}
-	sort.Slice(s, func(i, j int) bool { return s[i].v < s[j].v })
+	slices.SortFunc(s, func(a, b vw) int { return cmp.Compare(a.v, b.v) })
 	for k, p := range ps {
-		// position of the p-quantile on the midpoints of the cumulative weights
 		target := p * total
 		cum := 0.0
 		out[k] = s[len(s)-1].v
