@@ -64,13 +64,12 @@ type SourcesSettings struct {
 
 // ApportionmentSettings choose the model.
 type ApportionmentSettings struct {
-	Model           string   `json:"model"`              // "inverse" (Monte Carlo) or "forward"
-	Tracers         []string `json:"tracers"`            // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
-	Draws           int      `json:"draws"`              // Monte Carlo draws per sample
-	Seed            int64    `json:"seed"`               // random seed; results depend on it only
-	Sulfate         string   `json:"sulfate"`            // "gypsum", "sulfide" or "split"
-	SulfideFraction float64  `json:"sulfide_fraction"`   // share of excess SO4 from sulfide when sulfate = "split"
-	Negative        string   `json:"negative_residuals"` // "zero-and-flag" or "keep"
+	Model    string   `json:"model"`              // "inverse" (Monte Carlo) or "forward"
+	Tracers  []string `json:"tracers"`            // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
+	Draws    int      `json:"draws"`              // Monte Carlo draws per sample
+	Seed     int64    `json:"seed"`               // random seed; results depend on it only
+	Sulfate  string   `json:"sulfate"`            // "gypsum" or "sulfide": origin of SO4 above the rain share
+	Negative string   `json:"negative_residuals"` // "zero-and-flag" or "keep"
 }
 
 // FluxSettings choose the flux estimator and its uncertainty.

@@ -1,0 +1,73 @@
+// Package notebook is the budget document of Lixiv: an ordered list of
+// cells, each a step of a catchment weathering budget, with the graph of
+// which cell reads which, recomputation of only what an edit touches, and
+// the budget file format.
+//
+// # Document
+//
+// A Document holds Cells in order. A cell has a Kind (site, samples,
+// discharge, atmosphere, sources, apportionment, fluxes, co2, note, chart),
+// an id that other cells name it by, a title the user chooses, Settings
+// (one struct per kind; every field has a JSON key), an optional data Table
+// kept as the text the user typed, and a "uses" map from input roles to cell
+// ids. A role missing from "uses" is filled by the nearest cell above of the
+// role's kind, so a plain top-to-bottom budget needs no "uses" at all. A
+// chart names the columns it plots as "cell.table.column".
+//
+// Edits go through the Document (SetParam, SetTable, SetValue, SetUses,
+// SetTitle, Add, Insert, Remove, Move, or Edit for anything else). Each
+// edit is checked (settings ranges, table shape, no cycle in the graph),
+// applied to a copy and only then installed; a refused edit leaves the
+// document as it was. Every accepted edit changes Revision and marks the
+// cell and everything downstream of it stale. Recompute computes the stale
+// cells in dependency order and reuses every other cell's cached Output;
+// Step computes one cell at a time, so a page can yield between cells; a
+// context cancels and a callback reports Progress. Runs counts how often
+// each cell has computed, which tests use to prove an edit reruns only
+// what it must. A cell's computation failing gives that cell the Problem
+// state, with the message naming the row and column where it can; cells
+// below it wait. A panic inside a computation becomes a Problem, never a
+// crash.
+//
+// The computation of each kind is a ComputeFunc registered with Register;
+// the built-in ones call the engine packages sample, discharge, correct,
+// mix, flux and co2. Their typed results (Site, Samples, Flow, Atmosphere,
+// []mix.EndMember, Apportioned, Fluxes) travel in Output.Value to the cells
+// below; the tables and figures in Output are what the page shows, the
+// command line writes and charts plot.
+//
+// # Reproducibility
+//
+// Results depend on the document alone: every seed (apportionment draws,
+// bootstrap) and option is a setting stored in the file, and the engine
+// version is written in its header. Keep stores a Snapshot of the results —
+// the headline figures and a SHA-256 checksum over every output table,
+// figure and warning (numbers at 12 significant digits, so that native and
+// WebAssembly runs agree) — and Verify compares a rerun with it.
+//
+// # File format
+//
+// A budget file (extension .lixiv.json) is one JSON object written with
+// two-space indentation and a stable key order: "format" ("lixiv-budget"),
+// "version" (1), "engine", "title", "cells" (in document order), the
+// optional "results" snapshot, then any unknown top-level fields in sorted
+// order. A cell is written as "id", "kind", "title", "uses", "settings"
+// (fields in declaration order, then unknown settings), "table" and unknown
+// cell fields. A table is "columns" and "units" (one line each) and "rows",
+// one row per line, each cell a JSON number when its text is exactly one
+// and a string otherwise, so "<0.01", "n.d." and "0,25" survive unchanged.
+// Unknown fields at every level survive a load and save. The full schema is
+// in SCHEMA.md beside this file.
+//
+// Parse refuses what cannot be a budget with a *FileError naming the file
+// and line: text that is not JSON, nesting deeper than MaxDepth, a missing
+// or foreign "format", a version newer than FormatVersion, cells that form a
+// loop (*CycleError). Older versions load through explicit migrations (v0,
+// the first draft layout, migrates to v1). A cell that cannot be read — an
+// unknown kind, a value of the wrong type, a setting out of range, a
+// malformed table — loads as a broken cell that keeps its raw JSON and the
+// reason, is written back unchanged and computes to a Problem; the rest of
+// the budget still opens. Loading never runs anything the file holds, and
+// limits (MaxCells, MaxRows, MaxColumns, MaxDraws, MaxBootstrap) keep a
+// hostile file from asking for unbounded work.
+package notebook
