@@ -204,3 +204,22 @@ func (t *Truth) Budget(preset, model string, draws, bootstrap int, notes ...stri
 	add(notebook.KindCO2, "co2", "CO2 consumption")
 	return d, nil
 }
+
+// TrueSilicateCO2 returns the mean annual short-term CO2 consumption by
+// silicate weathering (mol/km²/yr) that the truth implies over the record
+// q: every day's noise-free silicate alkalinity Na_sil (1 + K/Na + 2 Ca/Na
+// + 2 Mg/Na) at that day's discharge, times the discharge (methods brief
+// §8.5 and §9.2).
+func (t *Truth) TrueSilicateCO2(q []float64) float64 {
+	mean := 0.0
+	for _, x := range q {
+		mean += x
+	}
+	mean /= float64(len(q))
+	sum := 0.0
+	for _, x := range q {
+		phi := t.NaSil * math.Pow(x/mean, t.Slope) * (1 + t.KNaSil + 2*t.CaNaSil + 2*t.MgNaSil)
+		sum += phi * x * 86.4 // mol/day: µmol/L × m³/s × 86.4
+	}
+	return sum / t.AreaKm2 / float64(len(q)) * 365.25
+}

@@ -1,0 +1,62 @@
+package synth
+
+import (
+	"context"
+	"os"
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+// TestCorrieValeRecoversTruth checks the whole chain against the invented
+// truth: the stored Corrie Vale budget's 95 % interval of silicate CO2
+// consumption per km² must contain the value the truth implies, and its
+// median must lie within 25 % of it.
+func TestCorrieValeRecoversTruth(t *testing.T) {
+	tr := CorrieVale()
+	want := tr.TrueSilicateCO2(tr.Discharge())
+	f, err := os.Open("../corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	d, err := notebook.Load(f, "corrie-vale")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	got := d.Output("co2").Figure("silicate CO2 consumption per km²")
+	t.Logf("truth %.4g mol/km²/yr; budget %.4g [%.4g, %.4g]", want, got.Median, got.Low, got.High)
+	if !(got.Low <= want && want <= got.High) {
+		t.Errorf("95 %% interval [%.4g, %.4g] misses the truth %.4g mol/km²/yr", got.Low, got.High, want)
+	}
+	if r := got.Median / want; r < 0.75 || r > 1.25 {
+		t.Errorf("median %.4g is %.0f %% of the truth %.4g; want within 25 %%", got.Median, 100*r, want)
+	}
+}
+
+// TestExamplesAreCurrent rebuilds every example and golden budget from its
+// truth and requires the stored file to be exactly what gen would write,
+// so the files cannot go stale.
+func TestExamplesAreCurrent(t *testing.T) {
+	if testing.Short() {
+		t.Skip("computes every example")
+	}
+	for _, ex := range append(Examples, Goldens...) {
+		t.Run(ex.File, func(t *testing.T) {
+			d, err := Computed(context.Background(), ex)
+			if err != nil {
+				t.Fatal(err)
+			}
+			want, err := os.ReadFile("../../" + ex.File)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := d.Marshal(); string(got) != string(want) {
+				t.Errorf("%s is stale: run go run ./examples/gen", ex.File)
+			}
+		})
+	}
+}
