@@ -171,7 +171,7 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 		}
 		x := measured(c, t)
 		if math.IsNaN(x) || x < 0 {
-			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q; left out", ErrMissingTracer, t, w.Name))
+			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q is missing or negative; left out", ErrMissingTracer, t, w.Name))
 			continue
 		}
 		sp := t.Species()

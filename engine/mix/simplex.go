@@ -66,22 +66,6 @@ func (q *simplexLS) sym() {
 // lower triangle).
 func (q *simplexLS) solve(a *[MaxEndMembers]float64, c, bound float64) (ok, pruned bool) {
 	n := q.n
-	// Scales for the tolerances: the largest diagonal of G and of g.
-	gs := 0.0
-	for i := 0; i < n; i++ {
-		if v := q.G[i][i]; v > gs {
-			gs = v
-		}
-		if v := q.g[i]; v > gs {
-			gs = v
-		} else if -v > gs {
-			gs = -v
-		}
-	}
-	if gs == 0 || gs != gs || gs > 1e300 {
-		gs = 1
-	}
-	tolMu := 1e-10 * gs
 	var best [MaxEndMembers]float64
 	bestF := 0.0
 	haveBest := false
@@ -119,21 +103,26 @@ func (q *simplexLS) solve(a *[MaxEndMembers]float64, c, bound float64) (ok, prun
 		if !feasible {
 			continue
 		}
-		// Gradient r = G a - g; KKT: r_j - r_ref >= 0 for j off the face.
-		var r [MaxEndMembers]float64
+		// Gradient r = G a - g; KKT: r_j - r_ref >= 0 for j off the face,
+		// up to a tolerance scaled by the size of the terms that make up
+		// r_j and r_ref (their rounding error).
+		var r, mag [MaxEndMembers]float64
 		f := 0.0
 		for i := 0; i < n; i++ {
-			s := 0.0
+			s, sa := 0.0, 0.0
 			for j := 0; j < n; j++ {
-				s += q.G[i][j] * y[j]
+				v := q.G[i][j] * y[j]
+				s += v
+				sa += abs(v)
 			}
 			r[i] = s - q.g[i]
+			mag[i] = sa + abs(q.g[i])
 			f += y[i] * (0.5*s - q.g[i])
 		}
 		ref := 31 - bits.LeadingZeros32(uint32(mask))
 		kkt := true
 		for j := 0; j < n; j++ {
-			if mask&(1<<j) == 0 && r[j]-r[ref] < -tolMu {
+			if mask&(1<<j) == 0 && r[j]-r[ref] < -1e-13*(mag[j]+mag[ref]) {
 				kkt = false
 				break
 			}
@@ -157,6 +146,13 @@ func (q *simplexLS) solve(a *[MaxEndMembers]float64, c, bound float64) (ok, prun
 // face solves the equality-constrained problem on the face given by mask and
 // writes the full-length solution to a. It returns false when the reduced
 // system is singular.
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
 func (q *simplexLS) face(mask uint8, a *[MaxEndMembers]float64) bool {
 	var idx [MaxEndMembers]int
 	k := 0
