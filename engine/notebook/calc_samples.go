@@ -67,11 +67,9 @@ func computeSamples(e *Env) (*Output, error) {
 	if t == nil || len(t.Columns) == 0 {
 		return nil, fmt.Errorf("the sample table is empty: paste or open a table of water samples")
 	}
-	name := e.Cell.Title
-	if name == "" {
-		name = e.Cell.ID
-	}
-	tab := sample.ParseText(t.TSV(), name, sample.Options{Comma: '\t', Policy: policies[s.BelowDetection],
+	// Messages name the cell by its id, which (unlike the title) only an
+	// edit that recomputes the cell can change.
+	tab := sample.ParseText(t.TSV(), e.Cell.ID, sample.Options{Comma: '\t', Policy: policies[s.BelowDetection],
 		DateOrder: sampleOrders[s.DateOrder]})
 	out := &Output{}
 	for _, p := range tab.Problems {

@@ -172,6 +172,18 @@ func (d *Document) Insert(c *Cell, at int) error {
 	if err := validID(c.ID); err != nil {
 		return err
 	}
+	if !c.Kind.Valid() && !c.Broken() {
+		return fmt.Errorf("unknown cell kind %q", c.Kind)
+	}
+	if c.Settings == nil {
+		c.Settings = DefaultSettings(c.Kind)
+	}
+	if c.Settings.Kind() != c.Kind {
+		return fmt.Errorf("cell %q: %s settings on a %s cell", c.ID, c.Settings.Kind(), c.Kind)
+	}
+	if err := c.Settings.Validate(); err != nil {
+		return fmt.Errorf("cell %q: %w", c.ID, err)
+	}
 	if d.Cell(c.ID) != nil {
 		return fmt.Errorf("a cell named %q already exists", c.ID)
 	}
@@ -330,4 +342,42 @@ func (d *Document) SetValue(id string, row, col int, text string) error {
 		c.Table.Rows[row] = r
 		return nil
 	})
+}
+
+// Repair replaces the cell with the given id (usually a broken one) by the
+// cell the JSON text raw describes, as typed into the page's raw editor. The
+// new cell may not take another cell's id. On any problem the document is
+// left as it was and the error says what is wrong.
+func (d *Document) Repair(id string, raw []byte) error {
+	i := d.index(id)
+	if i < 0 {
+		return fmt.Errorf("no cell named %q", id)
+	}
+	if _, err := checkDepth(raw); err != nil {
+		return err
+	}
+	c, err := parseCell(raw)
+	if err != nil {
+		return err
+	}
+	if c.ID != id && d.Cell(c.ID) != nil {
+		return fmt.Errorf("a cell named %q already exists", c.ID)
+	}
+	cells := append([]*Cell(nil), d.Cells...)
+	cells[i] = c
+	if err := d.replaceCells(cells, c.ID); err != nil {
+		return err
+	}
+	delete(d.state, id)
+	return nil
+}
+
+// Clone returns a deep copy of the document's cells, title and fields,
+// without computed results (for undo stacks and what-if copies).
+func (d *Document) Clone() *Document {
+	n := &Document{Title: d.Title, Engine: d.Engine, Extra: cloneRaw(d.Extra), Stored: d.Stored, Workers: d.Workers, rev: d.rev, funcs: d.funcs}
+	for _, c := range d.Cells {
+		n.Cells = append(n.Cells, c.clone())
+	}
+	return n
 }

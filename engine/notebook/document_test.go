@@ -234,3 +234,60 @@ func TestRoundTripFramework(t *testing.T) {
 		t.Errorf("rows are not one line each:\n%s", b1)
 	}
 }
+
+func TestRepairBrokenCell(t *testing.T) {
+	src := `{"format": "lixiv-budget", "version": 1, "cells": [
+ {"id": "site", "kind": "site", "settings": {"area_km2": "twelve"}}]}`
+	d, err := Parse([]byte(src), "r")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !d.Cells[0].Broken() {
+		t.Fatalf("cell not broken")
+	}
+	if err := d.Repair("site", []byte(`{"id": "site", "kind": "site", "settings": {"area_km2": -1}}`)); err == nil {
+		t.Errorf("a repair with a negative area was accepted")
+	}
+	if !d.Cells[0].Broken() {
+		t.Errorf("a refused repair changed the cell")
+	}
+	r := d.Revision()
+	if err := d.Repair("site", []byte(`{"id": "site", "kind": "site", "settings": {"area_km2": 12}}`)); err != nil {
+		t.Fatal(err)
+	}
+	if d.Cells[0].Broken() || d.Cells[0].Settings.(*SiteSettings).AreaKm2 != 12 || d.Revision() == r {
+		t.Errorf("repair did not install the cell")
+	}
+	if st, _ := d.Status("site"); st != Stale {
+		t.Errorf("repaired cell is %v, want stale", st)
+	}
+}
+
+func TestInsertChecksCells(t *testing.T) {
+	d := New("x")
+	tests := []struct {
+		name string
+		c    *Cell
+		want string
+	}{
+		{"bad id", &Cell{ID: "a.b", Kind: KindNote}, "may hold only"},
+		{"bad kind", &Cell{ID: "a", Kind: "wizard"}, "unknown cell kind"},
+		{"wrong settings", &Cell{ID: "a", Kind: KindNote, Settings: &SiteSettings{}}, "site settings on a note cell"},
+		{"bad value", &Cell{ID: "a", Kind: KindSite, Settings: &SiteSettings{AreaKm2: -1, WaterYearStart: 1}}, "area_km2"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if err := d.Insert(tt.c, -1); err == nil || !strings.Contains(err.Error(), tt.want) {
+				t.Errorf("got %v, want an error containing %q", err, tt.want)
+			}
+		})
+	}
+	if err := d.Insert(&Cell{ID: "n", Kind: KindNote}, -1); err != nil || d.Cell("n").Settings == nil {
+		t.Errorf("a cell without settings: %v; want defaults", err)
+	}
+	cl := d.Clone()
+	cl.SetParam("n", "text", "changed")
+	if d.Cell("n").Settings.(*NoteSettings).Text == "changed" {
+		t.Errorf("editing a clone changed the original")
+	}
+}

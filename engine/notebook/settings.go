@@ -214,6 +214,7 @@ func (s *SiteSettings) Validate() error {
 		inRange("precipitation_mm", s.Precipitation, 0, 20000),
 		inRange("evapotranspiration_mm", s.Evapotranspiration, 0, 20000),
 		inRange("water_year_start_month", float64(s.WaterYearStart), 1, 12),
+		inRange("latitude_degrees", s.Latitude, -90, 90),
 	)
 }
 
