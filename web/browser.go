@@ -120,8 +120,19 @@ func download(name, mime string, data []byte) {
 	g := js.Global()
 	u8 := g.Get("Uint8Array").New(len(data))
 	js.CopyBytesToJS(u8, data)
-	blob := g.Get("Blob").New([]any{u8}, map[string]any{"type": mime})
-	downloadBlob(name, blob)
+	downloadBlob(name, newBlob(u8, mime))
+}
+
+// newBlob wraps one part (a typed array or a string) in a Blob. The parts
+// list is built in JavaScript: vugu's js values cannot sit inside a Go slice
+// handed to ValueOf.
+func newBlob(part js.Value, mime string) js.Value {
+	g := js.Global()
+	parts := g.Get("Array").New()
+	parts.Call("push", part)
+	opts := g.Get("Object").New()
+	opts.Set("type", mime)
+	return g.Get("Blob").New(parts, opts)
 }
 
 func downloadBlob(name string, blob js.Value) {
@@ -146,8 +157,7 @@ func downloadBlob(name string, blob js.Value) {
 // the picture as a PNG file. Run it from a goroutine.
 func downloadPNG(name, svg string, width, height float64) error {
 	g := js.Global()
-	blob := g.Get("Blob").New([]any{svg}, map[string]any{"type": "image/svg+xml"})
-	url := g.Get("URL").Call("createObjectURL", blob)
+	url := g.Get("URL").Call("createObjectURL", newBlob(js.ValueOf(svg), "image/svg+xml"))
 	defer g.Get("URL").Call("revokeObjectURL", url)
 	img := g.Get("Image").New()
 	loaded := make(chan error, 1)

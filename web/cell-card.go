@@ -128,11 +128,13 @@ func (c *CellCard) Fill(el js.Value, ch ChartView) {
 
 // OnParam sets a setting from its field.
 func (c *CellCard) OnParam(key string, e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetParam(c.V.ID, key, e.PropString("target", "value"))
 }
 
 // OnCheck sets a yes/no setting from its box.
 func (c *CellCard) OnCheck(key string, e vugu.DOMEvent) {
+	defer c.R.guard()
 	v := "no"
 	if e.PropBool("target", "checked") {
 		v = "yes"
@@ -145,21 +147,25 @@ func (c *CellCard) OnTitle(e vugu.DOMEvent) { c.R.S.SetTitle(c.V.ID, e.PropStrin
 
 // OnValue sets one table cell.
 func (c *CellCard) OnValue(row, col int, e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetValue(c.V.ID, row, col, e.PropString("target", "value"))
 }
 
 // OnColumn renames a column.
 func (c *CellCard) OnColumn(col int, e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetColumn(c.V.ID, col, e.PropString("target", "value"))
 }
 
 // OnUnit sets a column's unit.
 func (c *CellCard) OnUnit(col int, e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetUnit(c.V.ID, col, e.PropString("target", "value"))
 }
 
 // OnPaste adds rows pasted into the paste box at once.
 func (c *CellCard) OnPaste(e vugu.DOMEvent) {
+	defer c.R.guard()
 	cd := e.JSEvent().Get("clipboardData")
 	if !cd.Truthy() {
 		return
@@ -174,6 +180,7 @@ func (c *CellCard) OnPaste(e vugu.DOMEvent) {
 
 // OnPasteBox adds rows typed into the paste box when the button is pressed.
 func (c *CellCard) OnPasteBox(e vugu.DOMEvent) {
+	defer c.R.guard()
 	box := js.Global().Get("document").Call("getElementById", "paste-"+c.V.ID)
 	if !box.Truthy() {
 		return
@@ -186,11 +193,13 @@ func (c *CellCard) OnPasteBox(e vugu.DOMEvent) {
 
 // OnUses points an input role at another cell.
 func (c *CellCard) OnUses(role string, e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetUses(c.V.ID, role, e.PropString("target", "value"))
 }
 
 // OnNote sets the text of a note cell.
 func (c *CellCard) OnNote(e vugu.DOMEvent) {
+	defer c.R.guard()
 	c.R.S.SetParam(c.V.ID, "text", e.PropString("target", "value"))
 }
 
@@ -202,22 +211,26 @@ func (c *CellCard) ToggleResult(ti int) { c.R.S.toggleExpanded(c.V.ID, ti) }
 
 // ExportInput offers the input table as CSV.
 func (c *CellCard) ExportInput() {
+	defer c.R.guard()
 	download(c.V.ID+"-table.csv", "text/csv", []byte(c.V.Table.CSV()))
 }
 
 // ExportResult offers output table ti as CSV.
 func (c *CellCard) ExportResult(ti int) {
+	defer c.R.guard()
 	t := c.V.Results[ti]
 	download(c.V.ID+"-"+t.Name+".csv", "text/csv", []byte(ResultCSV(t)))
 }
 
 // ExportSVG offers a chart as an SVG file.
 func (c *CellCard) ExportSVG(ch ChartView) {
+	defer c.R.guard()
 	download(ch.ID+".svg", "image/svg+xml", []byte(ch.SVG))
 }
 
 // ExportPNG offers a chart as a PNG picture.
 func (c *CellCard) ExportPNG(ch ChartView) {
+	defer c.R.guard()
 	svg := ch.SVG
 	go func() {
 		w, h := svgSize(svg)
@@ -319,4 +332,25 @@ func (c *CellCard) ResultToggleLine(ti int) string {
 		return "Show fewer rows"
 	}
 	return fmt.Sprintf("Show all rows (%d more)", c.ResultHidden(ti))
+}
+
+// IsSources reports an end-member cell.
+func (c *CellCard) IsSources() bool { return c.V.Kind == string(notebook.KindSources) }
+
+// FillPreset replaces the end-member table with the chosen preset's, with
+// the published sources the engine gives for it.
+func (c *CellCard) FillPreset() {
+	defer c.R.guard()
+	preset := "global"
+	for _, p := range c.V.Params {
+		if p.Key == "preset" {
+			preset = p.Value
+		}
+	}
+	t, err := notebook.SourcesTable(preset)
+	if err != nil {
+		c.R.S.CellErr[c.V.ID] = err.Error()
+		return
+	}
+	c.R.S.LoadTable(c.V.ID, t, "the "+preset+" preset")
 }

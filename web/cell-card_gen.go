@@ -444,6 +444,24 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export CSV"}
 									vgparent.AppendChild(vgn)
 								}
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+								vgparent.AppendChild(vgn)
+								if c.IsSources() {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "title", Val: "Replace the table with the chosen preset's end-members"}}}
+									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("id", "preset-"+c.V.ID)
+									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+										EventType: "click",
+										Func:      func(event vugu.DOMEvent) { c.FillPreset() },
+										// TODO: implement capture, etc. mostly need to decide syntax
+									})
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Fill from preset"}
+										vgparent.AppendChild(vgn)
+									}
+								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 								vgparent.AppendChild(vgn)
 							}

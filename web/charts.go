@@ -6,6 +6,8 @@ import (
 	"strings"
 	"time"
 
+	"lixiv/engine/chem"
+	"lixiv/engine/flux"
 	"lixiv/engine/notebook"
 	"lixiv/web/plot"
 )
@@ -58,12 +60,14 @@ func Charts(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []*plot.
 		add(mixingChart(id+"-mg", d, c, o, "Mg/Na"))
 		add(mixingChart(id+"-hco3", d, c, o, "HCO3/Na"))
 	case notebook.KindApportionment:
-		add(sharesChart(id, o))
+		add(sharesChart(id+"-ca", o, "Ca"))
+		add(sharesChart(id+"-na", o, "Na"))
 	case notebook.KindFluxes:
-		add(cqChart(id, o))
-		add(figureBars(id+"-bars", "Annual fluxes by source", o, "flux"))
+		add(cqChart(id+"-cq", o))
+		add(sourceYieldChart(id+"-cations", o))
+		add(figureBars(id+"-bars", "Mean annual cation yield by source", o, "mol/km²/yr", "cations yield"))
 	case notebook.KindCO2:
-		add(figureBars(id+"-bars", "CO2 consumption by source", o, "co2"))
+		add(figureBars(id+"-bars", "CO2 consumption by source", o, "mol/km²/yr", "CO2 consumption per km²"))
 	case notebook.KindChart:
 		add(userChart(id, d, c))
 	}
@@ -325,26 +329,27 @@ func exact(t *notebook.ResultTable, name string) *notebook.Column {
 // sourceNames are the sources of the apportionment in stacking order.
 var sourceNames = []string{"atmosphere", "evaporite", "silicate", "carbonate"}
 
-// sharesChart stacks each sample's source shares of the cations with
-// their 95 % intervals.
-func sharesChart(id string, o *notebook.Output) *plot.Chart {
-	t := table(o, []string{"shares", "apportionment"}, "sample")
+// sharesChart stacks each sample's source shares of one cation with their
+// 95 % intervals.
+func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
+	t := table(o, []string{"shares"}, "sample")
 	if t == nil {
 		return nil
 	}
-	names := texts(column(t, "sample", "name"))
+	names := texts(exact(t, "sample"))
 	if len(names) == 0 {
 		return nil
 	}
-	ch := plot.New(id, "Source shares of the cations, per sample", "sample", "share of cation charge (fraction)")
+	ch := plot.New(id, "Sources of "+cation+", per sample (median and 95 % interval)", "sample", "share of "+cation+" (fraction)")
+	ch.Height = 340
 	var segs []plot.Segment
 	for i, src := range sourceNames {
-		v := column(t, src)
+		v := exact(t, cation+"_"+src)
 		if v == nil || v.Num == nil {
 			continue
 		}
 		segs = append(segs, plot.Segment{Name: src, Style: plot.StyleN(i + 1), Value: v.Num,
-			Lo: nums(column(t, src+" low", src+"_low", src+"_lo")), Hi: nums(column(t, src+" high", src+"_high", src+"_hi"))})
+			Lo: nums(exact(t, cation+"_"+src+"_low")), Hi: nums(exact(t, cation+"_"+src+"_high"))})
 	}
 	if len(segs) == 0 {
 		return nil
@@ -353,106 +358,132 @@ func sharesChart(id string, o *notebook.Output) *plot.Chart {
 	return ch
 }
 
-// cqChart draws concentration against discharge on log axes with the
-// fitted rating curve.
+// cqChart draws concentration against discharge at sampling on log axes,
+// for Na and Ca, with the rating curve the flux engine fits to each.
 func cqChart(id string, o *notebook.Output) *plot.Chart {
-	t := table(o, []string{"cq", "rating"}, "discharge", "concentration")
-	q, c := column(t, "discharge", "q"), column(t, "concentration", "c")
-	if q == nil || c == nil || q.Num == nil || c.Num == nil {
+	v, ok := o.Value.(*notebook.Fluxes)
+	if !ok || v == nil || v.App == nil || v.Record == nil {
 		return nil
 	}
-	species := ""
-	if sp := column(t, "species"); sp != nil && sp.Text != nil && len(sp.Text) > 0 {
-		species = sp.Text[0] + " "
-	}
-	ch := plot.New(id, "Concentration against discharge", labelWithUnit("discharge Q", q), labelWithUnit(species+"concentration C", c))
+	a := v.App
+	ch := plot.New(id, "Concentration against discharge at sampling", "discharge Q (m³/s)", "concentration C (µmol/L)")
 	ch.X.Log, ch.Y.Log = true, true
-	ch.Points("samples", plot.StyleN(0), q.Num, c.Num, texts(column(t, "sample", "name")))
-	if ft := table(o, []string{"rating-fit", "fit"}, "discharge", "fitted"); ft != nil {
-		fq, fc := column(ft, "discharge", "q"), column(ft, "fitted", "concentration")
-		if fq != nil && fc != nil {
-			ch.Line("fitted rating curve", plot.StyleN(1), fq.Num, fc.Num)
+	var note []string
+	for k, sp := range []chem.Species{chem.Na, chem.Ca} {
+		q, c := make([]float64, len(a.Names)), make([]float64, len(a.Names))
+		for i := range a.Names {
+			c[i] = a.Corrected[i].Input[sp]
+			q[i] = math.NaN()
+			if i < len(a.Q) {
+				q[i] = a.Q[i]
+			}
+			if math.IsNaN(q[i]) {
+				if j := v.Record.Index(a.Days[i]); j >= 0 {
+					q[i] = v.Record.Q[j]
+				}
+			}
 		}
-	} else if fit := column(t, "fitted"); fit != nil && fit.Num != nil {
-		xs, ys := sortedPairs(q.Num, fit.Num)
-		ch.Line("fitted rating curve", plot.StyleN(1), xs, ys)
+		st := plot.StyleN(2 * k)
+		ch.Points(sp.Symbol()+" samples", st, q, c, a.Names)
+		opt := v.Options
+		opt.Method = flux.Rating
+		ser := flux.ForSpecies(sp, a.Days, c)
+		ser.Q = a.Q
+		r, err := flux.Estimate(v.Record, ser, opt)
+		if err != nil || r.Rating == nil {
+			continue
+		}
+		fit := r.Rating
+		lo, hi := minMax(q)
+		xs, ys := make([]float64, 41), make([]float64, 41)
+		for j := range xs {
+			xs[j] = lo * math.Pow(hi/lo, float64(j)/40)
+			ys[j] = fit.A * math.Pow(xs[j], fit.B)
+		}
+		ls := st
+		ls.Dash = plot.StyleN(2*k + 1).Dash
+		ch.Line(sp.Symbol()+" rating curve", ls, xs, ys)
+		note = append(note, fmt.Sprintf("%s: C = %s·Q^%.3f, R² %.2f", sp.Symbol(), plot.Number(fit.A), fit.B, fit.R2))
+	}
+	ch.Note = strings.Join(note, ";  ")
+	if ch.Empty() {
+		return nil
 	}
 	return ch
 }
 
-func sortedPairs(x, y []float64) ([]float64, []float64) {
-	idx := make([]int, 0, len(x))
-	for i := range x {
-		if i < len(y) {
-			idx = append(idx, i)
+func minMax(v []float64) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, x := range v {
+		if x > 0 && !math.IsInf(x, 0) {
+			lo, hi = math.Min(lo, x), math.Max(hi, x)
 		}
 	}
-	for i := 1; i < len(idx); i++ {
-		for j := i; j > 0 && x[idx[j]] < x[idx[j-1]]; j-- {
-			idx[j], idx[j-1] = idx[j-1], idx[j]
-		}
+	if lo > hi {
+		return 1, 10
 	}
-	xs, ys := make([]float64, len(idx)), make([]float64, len(idx))
-	for k, i := range idx {
-		xs[k], ys[k] = x[i], y[i]
+	if lo == hi {
+		return lo / 2, hi * 2
 	}
-	return xs, ys
+	return lo, hi
 }
 
-// figureBars draws the cell's headline figures that name a source as bars
-// with their 95 % intervals, one bar per figure sharing the most common unit.
-func figureBars(id, title string, o *notebook.Output, word string) *plot.Chart {
-	if o == nil || len(o.Figures) == 0 {
+// sourceYieldChart stacks the mean annual yield of each cation by rock
+// source, from the fluxes' "mean" table.
+func sourceYieldChart(id string, o *notebook.Output) *plot.Chart {
+	t := o.Table("mean")
+	series, yield := exact(t, "series"), exact(t, "yield")
+	if series == nil || yield == nil || series.Text == nil {
 		return nil
 	}
-	count := map[string]int{}
-	for _, f := range o.Figures {
-		count[f.Unit]++
-	}
-	unit, best := "", 0
-	for u, n := range count {
-		if n > best || (n == best && u < unit) {
-			unit, best = u, n
+	cations := []string{"Na", "K", "Ca", "Mg"}
+	var segs []plot.Segment
+	for k, src := range []string{"silicate", "carbonate"} {
+		vals := make([]float64, len(cations))
+		found := false
+		for j, cat := range cations {
+			vals[j] = math.NaN()
+			for i, n := range series.Text {
+				if n == cat+"_"+src {
+					vals[j], found = yield.Num[i], true
+				}
+			}
 		}
+		if found {
+			segs = append(segs, plot.Segment{Name: src, Style: plot.StyleN(k + 3), Value: vals})
+		}
+	}
+	if len(segs) == 0 {
+		return nil
+	}
+	ch := plot.New(id, "Mean annual yield of each cation by rock source", "cation", "yield (mol/km²/yr)")
+	ch.Height = 320
+	ch.Bars(cations, segs)
+	return ch
+}
+
+// figureBars draws the cell's headline figures in the given unit whose
+// names hold the given words, as bars with their 95 % intervals.
+func figureBars(id, title string, o *notebook.Output, unit, words string) *plot.Chart {
+	if o == nil {
+		return nil
 	}
 	var cats []string
 	var mid, lo, hi []float64
 	for _, f := range o.Figures {
-		if f.Unit != unit {
+		if f.Unit != unit || !strings.Contains(f.Name, words) {
 			continue
 		}
-		cats = append(cats, f.Name)
-		mid, lo, hi = append(mid, f.Median), append(lo, f.Low-f.Median), append(hi, f.High-f.Median)
+		cats = append(cats, strings.TrimSpace(strings.Replace(f.Name, words, "", 1)))
+		mid, lo, hi = append(mid, f.Median), append(lo, f.Low), append(hi, f.High)
 	}
 	if len(cats) == 0 {
 		return nil
 	}
-	// Interval bounds relative to the bar top, as Bars expects of a one-segment stack.
-	for i := range lo {
-		lo[i] += mid[i]
-		hi[i] += mid[i]
-	}
-	ch := plot.New(id, title, "", unit)
-	ch.Width = 640
-	ch.Bars(shortNames(cats), []plot.Segment{{Name: "median with 95 % interval", Style: plot.StyleN(1), Value: mid, Lo: loRel(lo, mid), Hi: loRel(hi, mid)}})
-	_ = word
+	ch := plot.New(id, title, "source", words+" ("+unit+")")
+	ch.Height = 300
+	ch.Bars(cats, []plot.Segment{{Name: "median with 95 % interval", Style: plot.StyleN(1), Value: mid, Lo: lo, Hi: hi}})
 	return ch
-}
-
-// loRel returns bounds as Bars wants them: the bound itself, since a
-// single-segment stack has its base at zero.
-func loRel(b, _ []float64) []float64 { return b }
-
-// shortNames trims long figure names for the category axis.
-func shortNames(names []string) []string {
-	out := make([]string, len(names))
-	for i, n := range names {
-		if r := []rune(n); len(r) > 26 {
-			n = string(r[:25]) + "…"
-		}
-		out[i] = n
-	}
-	return out
 }
 
 // userChart draws a chart cell: one output column against another.

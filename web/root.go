@@ -41,6 +41,7 @@ type Root struct {
 	loopDone chan struct{}
 
 	editStart float64 // when the edit now computing was made (ms)
+	painted   bool    // the page has repainted since that edit
 	gen       int     // completed recomputes
 	ready     bool
 	keys      js.Func
@@ -104,7 +105,7 @@ func (c *Root) open(doc *notebook.Document, name string) {
 func (c *Root) changed() {
 	c.Unsaved = true
 	c.autosave()
-	c.editStart = nowMillis()
+	c.editStart, c.painted = nowMillis(), false
 	c.recompute()
 }
 
@@ -221,6 +222,10 @@ func (c *Root) Rendered() {
 			b.Set("firstRender", nowMillis())
 		}
 	}
+	if c.editStart > 0 && !c.painted {
+		c.painted = true
+		js.Global().Set("lixivLastFirstPaint", nowMillis()-c.editStart)
+	}
 	busy := "0"
 	if c.busy {
 		busy = "1"
@@ -252,22 +257,31 @@ func (c *Root) recompute() {
 // run computes the stale cells of doc one at a time, handing the main
 // thread back to the browser every few tens of milliseconds (also from
 // inside a long cell, through its progress reports) so that the page
-// scrolls, takes typing and shows the progress bar.
+// scrolls and takes typing. The page repaints at most every paintEvery ms
+// while computing (each repaint rebuilds the page), and once at the end.
 func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan struct{}) {
 	defer close(done)
 	if prev != nil {
 		<-prev
 	}
-	const slice = 40 // ms of work between yields
-	last := nowMillis()
+	const slice, paintEvery = 40, 250 // ms
+	lastYield, lastPaint := nowMillis(), 0.0
 	breathe := func() {
-		if nowMillis()-last > slice {
+		if nowMillis()-lastYield > slice {
 			yieldToBrowser()
-			last = nowMillis()
+			lastYield = nowMillis()
 		}
 	}
+	publish := func(final bool) { // call with the lock held
+		if final || nowMillis()-lastPaint > paintEvery {
+			lastPaint = nowMillis()
+			c.env.UnlockRender()
+			return
+		}
+		c.env.UnlockOnly()
+	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-last <= slice {
+		if nowMillis()-lastYield <= slice {
 			return
 		}
 		c.env.Lock()
@@ -275,15 +289,14 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 		if p.Total > 0 {
 			c.progress = float64(p.Done) / float64(p.Total)
 		}
-		c.env.UnlockRender()
+		publish(false)
 		breathe()
 	}
 	for {
 		if ctx.Err() != nil {
 			return
 		}
-		pending := doc.Pending()
-		if len(pending) > 0 {
+		if pending := doc.Pending(); len(pending) > 0 {
 			c.env.Lock()
 			c.running, c.progress = pending[0], 0
 			c.env.UnlockOnly()
@@ -307,10 +320,10 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 			if err != nil {
 				c.S.Message = "Recompute stopped: " + err.Error()
 			}
-			c.env.UnlockRender()
+			publish(true)
 			return
 		}
-		c.env.UnlockRender()
+		publish(false)
 		breathe()
 	}
 }
@@ -349,6 +362,7 @@ func (c *Root) listenKeys() {
 
 // Undo goes back one edit.
 func (c *Root) Undo() {
+	defer c.guard()
 	if err := c.S.Undo(); err != nil {
 		c.S.Message = err.Error()
 	}
@@ -356,6 +370,7 @@ func (c *Root) Undo() {
 
 // Redo applies the last undone edit again.
 func (c *Root) Redo() {
+	defer c.guard()
 	if err := c.S.Redo(); err != nil {
 		c.S.Message = err.Error()
 	}
@@ -374,6 +389,7 @@ func (c *Root) OnBudgetTitle(e vugu.DOMEvent) {
 
 // OnOpenFile reads the file chosen in the picker.
 func (c *Root) OnOpenFile(e vugu.DOMEvent) {
+	defer c.guard()
 	files := e.JSEventTarget().Get("files")
 	if files.Length() == 0 {
 		return
@@ -394,6 +410,7 @@ func (c *Root) OnDragLeave(e vugu.DOMEvent) { c.Dragging = false }
 
 // OnDrop opens a file dropped on the page.
 func (c *Root) OnDrop(e vugu.DOMEvent) {
+	defer c.guard()
 	e.PreventDefault()
 	c.Dragging = false
 	files := e.JSEvent().Get("dataTransfer").Get("files")
@@ -418,6 +435,7 @@ func (c *Root) readAndOpen(f js.Value) {
 // OpenText opens a budget file, or reads a CSV/TSV table into the samples
 // or discharge cell (by its header), adding that cell when there is none.
 func (c *Root) OpenText(name, text string) {
+	defer c.guard()
 	trim := strings.TrimSpace(strings.TrimPrefix(text, "\ufeff"))
 	if strings.HasSuffix(strings.ToLower(name), ".json") || strings.HasPrefix(trim, "{") {
 		doc, err := notebook.Parse([]byte(text), name)
@@ -482,6 +500,7 @@ func TableKind(t *notebook.Table) notebook.Kind {
 // DownloadBudget offers the budget file, with its results snapshot when
 // every cell is computed.
 func (c *Root) DownloadBudget() {
+	defer c.guard()
 	d := c.S.Doc
 	if len(d.Pending()) == 0 && !c.busy {
 		_ = d.Keep()
@@ -505,6 +524,7 @@ func (c *Root) OnAddKind(e vugu.DOMEvent) { c.AddKind = e.PropString("target", "
 
 // AddCell appends a cell of the chosen kind.
 func (c *Root) AddCell() {
+	defer c.guard()
 	if id, err := c.S.Add(notebook.Kind(c.AddKind), ""); err == nil {
 		js.Global().Get("location").Set("hash", "#cell-"+id)
 	}
@@ -589,4 +609,12 @@ func Slug(s string) string {
 		}
 		return '-'
 	}, s)
+}
+
+// guard turns a panic in an event handler into a message on the page: the
+// program keeps running and nothing the user typed is lost.
+func (c *Root) guard() {
+	if r := recover(); r != nil && c.S != nil {
+		c.S.Message = fmt.Sprintf("internal error: %v (the budget is unchanged; please report this)", r)
+	}
 }

@@ -250,10 +250,16 @@ func (s *Session) Add(k notebook.Kind, after string) (string, error) {
 			}
 		}
 		c, err := d.Add(k, at)
-		if err == nil {
-			id = c.ID
+		if err != nil {
+			return err
 		}
-		return err
+		id = c.ID
+		if k == notebook.KindSources { // start from the default preset's end-members
+			if t, err := notebook.SourcesTable("global"); err == nil {
+				return d.SetTable(id, t)
+			}
+		}
+		return nil
 	})
 	return id, err
 }

@@ -23,7 +23,7 @@ func TestTiming(t *testing.T) {
 	}
 	srv := startServer(t)
 	var cold, warm, computed []float64
-	for i := 0; i < 5; i++ {
+	for i := 0; i < 4; i++ {
 		ctx := newBrowser(t, "")
 		open(t, ctx, srv.URL)
 		cold = append(cold, eval[float64](t, ctx, `lixivBoot.firstRender`))
@@ -48,12 +48,21 @@ func TestTiming(t *testing.T) {
 		edit(t, ctx, "#p-"+id+"-draws", "2000")
 	}
 	atm := cellOf(t, ctx, "atmosphere")
-	var edits []float64
-	for i := 0; i < 12; i++ {
+	var edits, first []float64
+	for i := 0; i < 8; i++ {
 		edit(t, ctx, "#p-"+atm+"-na_per_cl", fmt.Sprintf("%.3f", 0.80+0.01*float64(i%5)))
 		edits = append(edits, eval[float64](t, ctx, `lixivLastRecompute`))
+		first = append(first, eval[float64](t, ctx, `lixivLastFirstPaint`))
 	}
+	t.Logf("timing: edit of a rain ratio to first repaint (cells marked recomputing): %s", stats(first))
 	t.Logf("timing: edit of a rain ratio to repainted result at 2000 draws: %s", stats(edits))
+	note := cellOf(t, ctx, "note")
+	var notes []float64
+	for i := 0; i < 8; i++ {
+		edit(t, ctx, "#note-"+note, fmt.Sprintf("Field note %d", i))
+		notes = append(notes, eval[float64](t, ctx, `lixivLastRecompute`))
+	}
+	t.Logf("timing: edit of a note (no science downstream) to repainted page: %s", stats(notes))
 	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
 	t.Logf("timing: (demo shows %d sample rows)", samples)
 }

@@ -41,8 +41,14 @@ func at(v []float64, i int) float64 {
 
 var nan = func() float64 { var z float64; return z / z }()
 
+// wideInterval is how far above the tallest bar an interval may reach
+// before it is cut at the top of the plot (and marked so): one runaway
+// bound must not flatten every bar.
+const wideInterval = 3.0
+
 func (br *bars) extend(c *Chart) {
 	c.Y.include(0)
+	top := 0.0
 	for i := range br.cats {
 		base := 0.0
 		for _, s := range br.segs {
@@ -50,8 +56,19 @@ func (br *bars) extend(c *Chart) {
 			if !finite(v) {
 				continue
 			}
-			c.Y.include(base + v)
-			if hi := at(s.Hi, i); finite(hi) {
+			base += v
+			top = max(top, base)
+		}
+	}
+	c.Y.include(top)
+	for i := range br.cats {
+		base := 0.0
+		for _, s := range br.segs {
+			v := at(s.Value, i)
+			if !finite(v) {
+				continue
+			}
+			if hi := at(s.Hi, i); finite(hi) && (top <= 0 || base+hi <= wideInterval*top) {
 				c.Y.include(base + hi)
 			}
 			base += v
@@ -94,8 +111,14 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 			if finite(lo, hi) {
 				ylo, yhi := c.Y.Map(base+lo), c.Y.Map(base+hi)
 				xw := x + bw/2 - 6
-				fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fh8" stroke="#111" stroke-width="1.2" fill="none"/>`,
-					xw, ylo, yhi, xw-4, ylo, xw-4, yhi)
+				if yhi < c.Y.hi { // cut at the top: an open arrow says the bound is off the plot
+					yhi = c.Y.hi
+					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fl4,-7l4,7" stroke="#111" stroke-width="1.2" fill="none"><title>upper bound %s, off the plot</title></path>`,
+						xw, ylo, yhi+1, xw-4, ylo, xw-4, yhi+8, esc(Number(base+hi)))
+				} else {
+					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fh8" stroke="#111" stroke-width="1.2" fill="none"/>`,
+						xw, ylo, yhi, xw-4, ylo, xw-4, yhi)
+				}
 			}
 			base += v
 		}

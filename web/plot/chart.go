@@ -40,7 +40,7 @@ func New(id, title, xLabel, yLabel string) *Chart {
 func (c *Chart) Empty() bool { return len(c.items) == 0 }
 
 const (
-	marginLeft   = 72.0
+	marginLeft   = 86.0
 	marginRight  = 16.0
 	marginTop    = 34.0
 	marginBottom = 52.0
@@ -67,7 +67,7 @@ func (c *Chart) SVG() string {
 	c.Y.finish()
 	w, h := c.size()
 	rows := c.legendRows(w)
-	plotBottom := h - marginBottom - float64(rows)*legendRow
+	plotBottom := h - marginBottom - float64(rows)*legendRow - 4
 	if c.Note != "" {
 		plotBottom -= legendRow
 	}
@@ -89,7 +89,7 @@ func (c *Chart) SVG() string {
 		it.draw(&b, c)
 	}
 	b.WriteString(`</g>`)
-	c.drawLegend(&b, plotBottom+marginBottom-8, w)
+	c.drawLegend(&b, plotBottom+marginBottom+6, w)
 	if c.Note != "" {
 		fmt.Fprintf(&b, `<text x="%g" y="%g" fill="#333">%s</text>`, marginLeft, h-8, esc(c.Note))
 	}
@@ -135,7 +135,11 @@ func (c *Chart) hatchURL(s Style) string {
 func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 	x0, x1, y0, y1 := c.X.lo, c.X.hi, c.Y.hi, c.Y.lo
 	fmt.Fprintf(b, `<rect x="%g" y="%g" width="%g" height="%g" fill="none" stroke="#444" stroke-width="1"/>`, x0, y0, x1-x0, y1-y0)
-	for _, t := range c.X.Ticks() {
+	xt := c.X.Ticks()
+	if c.X.Names != nil {
+		xt = thinLabels(xt, (x1-x0)/float64(len(xt)+1))
+	}
+	for _, t := range xt {
 		px := c.X.Map(t.Value)
 		if math.IsNaN(px) || px < x0-0.5 || px > x1+0.5 {
 			continue
@@ -168,7 +172,7 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 		}
 	}
 	fmt.Fprintf(b, `<text x="%g" y="%g" text-anchor="middle" fill="#111">%s</text>`, (x0+x1)/2, bottom+38, esc(c.X.Label))
-	fmt.Fprintf(b, `<text transform="translate(16 %g) rotate(-90)" text-anchor="middle" fill="#111">%s</text>`, (y0+y1)/2, esc(c.Y.Label))
+	fmt.Fprintf(b, `<text transform="translate(14 %g) rotate(-90)" text-anchor="middle" fill="#111">%s</text>`, (y0+y1)/2, esc(c.Y.Label))
 }
 
 func (c *Chart) legendRows(w float64) int {
@@ -244,4 +248,27 @@ func finite(vs ...float64) bool {
 		}
 	}
 	return true
+}
+
+// thinLabels keeps every k-th label of a category axis so that labels
+// about 7 px a character do not overlap when each has room px.
+func thinLabels(t []Tick, room float64) []Tick {
+	longest := 1
+	for _, tk := range t {
+		if n := len([]rune(tk.Label)); n > longest {
+			longest = n
+		}
+	}
+	k := int(math.Ceil(float64(longest)*7/room + 1e-9))
+	if k <= 1 {
+		return t
+	}
+	out := make([]Tick, len(t))
+	for i, tk := range t {
+		out[i] = Tick{Value: tk.Value, Minor: i%k != 0}
+		if i%k == 0 {
+			out[i].Label = tk.Label
+		}
+	}
+	return out
 }

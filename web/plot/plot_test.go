@@ -1,0 +1,145 @@
+package plot
+
+import (
+	"math"
+	"strings"
+	"testing"
+)
+
+func TestAxisMap(t *testing.T) {
+	tests := []struct {
+		name   string
+		axis   Axis
+		v, out float64
+	}{
+		{"linear middle", Axis{Min: 0, Max: 10, lo: 100, hi: 200}, 5, 150},
+		{"linear reversed pixels", Axis{Min: 0, Max: 10, lo: 300, hi: 100}, 10, 100},
+		{"log one decade of two", Axis{Log: true, Min: 1, Max: 100, lo: 0, hi: 200}, 10, 100},
+		{"log bottom", Axis{Log: true, Min: 0.1, Max: 10, lo: 0, hi: 100}, 0.1, 0},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if got := tt.axis.Map(tt.v); math.Abs(got-tt.out) > 1e-9 {
+				t.Errorf("Map(%g): got %g, want %g", tt.v, got, tt.out)
+			}
+		})
+	}
+	t.Run("log of zero", func(t *testing.T) {
+		a := Axis{Log: true, Min: 1, Max: 10}
+		if got := a.Map(0); !math.IsNaN(got) {
+			t.Errorf("Map(0) on a log axis: got %g, want NaN", got)
+		}
+	})
+}
+
+func TestLogTicksAreDecades(t *testing.T) {
+	a := Axis{Log: true, Min: 0.1, Max: 1000}
+	var labels []string
+	for _, tk := range a.Ticks() {
+		if tk.Label != "" {
+			labels = append(labels, tk.Label)
+		}
+	}
+	if got, want := strings.Join(labels, " "), "0.1 1 10 100 1000"; got != want {
+		t.Errorf("labels: got %q, want %q", got, want)
+	}
+}
+
+func TestFinishPadsAndNeverEmpty(t *testing.T) {
+	tests := []struct {
+		name     string
+		axis     Axis
+		vals     []float64
+		min, max float64
+	}{
+		{"empty linear", Axis{}, nil, 0, 1},
+		{"one value", Axis{}, []float64{5}, 4, 6},
+		{"positive snaps to zero", Axis{}, []float64{0.2, 11}, 0, 11.54},
+		{"log quarter decades", Axis{Log: true}, []float64{2, 300}, math.Pow(10, 0.25), math.Pow(10, 2.5)},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			a := tt.axis
+			for _, v := range tt.vals {
+				a.include(v)
+			}
+			a.finish()
+			if math.Abs(a.Min-tt.min) > 1e-9 || math.Abs(a.Max-tt.max) > 1e-9 {
+				t.Errorf("range: got [%g, %g], want [%g, %g]", a.Min, a.Max, tt.min, tt.max)
+			}
+		})
+	}
+}
+
+func TestNumber(t *testing.T) {
+	tests := []struct {
+		v    float64
+		want string
+	}{
+		{0, "0"}, {1, "1"}, {0.25, "0.25"}, {1234.6, "1235"}, {45.678, "45.68"},
+		{2.5e10, "2.50e+10"}, {0.0001, "1.00e-04"}, {math.NaN(), "–"},
+	}
+	for _, tt := range tests {
+		if got := Number(tt.v); got != tt.want {
+			t.Errorf("Number(%g): got %q, want %q", tt.v, got, tt.want)
+		}
+	}
+}
+
+func TestTextIsEscaped(t *testing.T) {
+	c := New("t", `<script>x</script>`, "x <b>", "y")
+	c.Points(`<img src=x onerror=1>`, StyleN(0), []float64{1}, []float64{2}, []string{`"><b>name`})
+	svg := c.SVG()
+	for _, bad := range []string{"<script>", "<img", "<b>"} {
+		if strings.Contains(svg, bad) {
+			t.Errorf("SVG holds markup %q from text", bad)
+		}
+	}
+	if !strings.Contains(svg, "&lt;img src=x onerror=1&gt;") {
+		t.Errorf("the series name is not shown as text")
+	}
+}
+
+func TestEveryStyleDiffersBeyondColour(t *testing.T) {
+	seen := map[string]bool{}
+	for i, s := range Styles {
+		key := s.Marker + "|" + s.Hatch + "|" + s.Dash
+		if seen[key] {
+			t.Errorf("style %d repeats marker, hatch and dash of another", i)
+		}
+		seen[key] = true
+		if s.Hatch == "" || s.Marker == "" {
+			t.Errorf("style %d has no hatch or marker", i)
+		}
+	}
+}
+
+func TestBarsCutRunawayInterval(t *testing.T) {
+	c := New("b", "bars", "", "y")
+	c.Bars([]string{"a", "b"}, []Segment{{Name: "s", Style: StyleN(1),
+		Value: []float64{10, 20}, Lo: []float64{5, 15}, Hi: []float64{12, 1e9}}})
+	svg := c.SVG()
+	if c.Y.Max > 20*wideInterval {
+		t.Errorf("y axis: got max %g, want at most %g (the runaway bound is cut)", c.Y.Max, 20*wideInterval)
+	}
+	if !strings.Contains(svg, "off the plot") {
+		t.Errorf("the cut interval is not marked")
+	}
+}
+
+func TestThinLabels(t *testing.T) {
+	var ticks []Tick
+	for i := 0; i < 40; i++ {
+		ticks = append(ticks, Tick{Value: float64(i), Label: "CV-00"})
+	}
+	got := thinLabels(ticks, 12)
+	n := 0
+	for _, tk := range got {
+		if tk.Label != "" {
+			n++
+		}
+	}
+	if n == 0 || n >= 40 {
+		t.Errorf("labels kept: got %d of 40, want some but not all", n)
+	}
+}

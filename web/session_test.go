@@ -1,0 +1,153 @@
+package web
+
+import (
+	"strings"
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+func newTestSession(t *testing.T) *Session {
+	t.Helper()
+	d := notebook.New("Corrie Vale test")
+	if _, err := d.Add(notebook.KindSite, -1); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := d.Add(notebook.KindNote, -1); err != nil {
+		t.Fatal(err)
+	}
+	s := NewSession(d, "test.lixiv.json")
+	return s
+}
+
+func TestUndoRedo(t *testing.T) {
+	s := newTestSession(t)
+	changes := 0
+	s.OnChange(func() { changes++ })
+	if err := s.SetParam("site", "area_km2", "12.5"); err != nil {
+		t.Fatal(err)
+	}
+	if err := s.SetParam("site", "area_km2", "14"); err != nil {
+		t.Fatal(err)
+	}
+	area := func() string {
+		for _, p := range notebook.Params(s.Doc.Cell("site").Settings) {
+			if p.Key == "area_km2" {
+				return p.Value
+			}
+		}
+		return ""
+	}
+	steps := []struct {
+		name string
+		do   func() error
+		want string
+	}{
+		{"after edits", func() error { return nil }, "14"},
+		{"undo", s.Undo, "12.5"},
+		{"undo again", s.Undo, "0"},
+		{"undo with nothing left", s.Undo, "0"},
+		{"redo", s.Redo, "12.5"},
+		{"redo again", s.Redo, "14"},
+	}
+	for _, st := range steps {
+		if err := st.do(); err != nil {
+			t.Fatalf("%s: %v", st.name, err)
+		}
+		if got := area(); got != st.want {
+			t.Errorf("%s: area got %s, want %s", st.name, got, st.want)
+		}
+	}
+	if changes != 6 {
+		t.Errorf("change announcements: got %d, want 6 (2 edits, 2 undos, 2 redos)", changes)
+	}
+}
+
+func TestRejectedEditKeepsDocument(t *testing.T) {
+	s := newTestSession(t)
+	before := string(s.Doc.Marshal())
+	if err := s.SetParam("site", "area_km2", "twelve"); err == nil {
+		t.Fatal("a word for the area was accepted")
+	}
+	if got := string(s.Doc.Marshal()); got != before {
+		t.Errorf("the document changed after a rejected edit")
+	}
+	if msg := s.CellErr["site"]; !strings.Contains(msg, "twelve") {
+		t.Errorf("cell message: got %q, want it to name the value", msg)
+	}
+	if s.CanUndo() {
+		t.Errorf("a rejected edit went on the undo stack")
+	}
+}
+
+func TestPasteIntoSamples(t *testing.T) {
+	s := newTestSession(t)
+	id, err := s.Add(notebook.KindSamples, "site")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := s.Doc.Cells[1].ID; got != id {
+		t.Errorf("new cell position: got %s second, want %s", got, id)
+	}
+	n, err := s.Paste(id, "sample\tdate\tNa\n\t\tmg/L\nCV-1\t2021-01-01\t3.1\nCV-2\t2021-01-15\t2.9\n")
+	if err != nil || n != 2 {
+		t.Fatalf("paste: got %d rows, %v; want 2", n, err)
+	}
+	tab := s.Doc.Cell(id).Table
+	if len(tab.Rows) != 2 || tab.Units[2] != "mg/L" {
+		t.Errorf("table: got %d rows, units %q", len(tab.Rows), tab.Units)
+	}
+	if err := s.Undo(); err != nil {
+		t.Fatal(err)
+	}
+	if got := len(s.Doc.Cell(id).Table.Rows); got != 0 {
+		t.Errorf("rows after undo: got %d, want 0", got)
+	}
+}
+
+func TestMoveAndRemove(t *testing.T) {
+	s := newTestSession(t)
+	if err := s.Move("note", -1); err != nil {
+		t.Fatal(err)
+	}
+	if got := s.Doc.Cells[0].ID; got != "note" {
+		t.Errorf("first cell after moving the note up: got %s", got)
+	}
+	if err := s.Move("note", -1); err != nil {
+		t.Errorf("moving the first cell up: %v", err)
+	}
+	if err := s.Remove("site"); err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Doc.Cells) != 1 {
+		t.Errorf("cells after remove: got %d, want 1", len(s.Doc.Cells))
+	}
+}
+
+func TestParamLabel(t *testing.T) {
+	tests := []struct{ key, want string }{
+		{"area_km2", "area (km²)"},
+		{"na_per_cl", "Na/Cl (mol/mol)"},
+		{"so4_per_cl", "SO4/Cl (mol/mol)"},
+		{"discharge_uncertainty_percent", "discharge uncertainty (%)"},
+		{"critical_chloride_umol", "critical chloride (µmol/L)"},
+		{"draws", "draws"},
+	}
+	for _, tt := range tests {
+		if got := ParamLabel(tt.key); got != tt.want {
+			t.Errorf("ParamLabel(%q): got %q, want %q", tt.key, got, tt.want)
+		}
+	}
+}
+
+func TestHeadlineOrder(t *testing.T) {
+	cells := []CellView{{Figures: []FigureView{{Name: "runoff"}, {Name: "samples read"},
+		{Name: "carbonate CO2 consumption per km²"}, {Name: "silicate CO2 consumption per km²"}}}}
+	got := Headline(cells, 3)
+	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff"}
+	for i := range want {
+		if i >= len(got) || got[i].Name != want[i] {
+			t.Fatalf("headline: got %v, want %v", got, want)
+		}
+	}
+}
