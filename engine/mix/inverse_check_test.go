@@ -301,3 +301,55 @@ func TestWeightScoringDeterministic(t *testing.T) {
 // wantWeightChecksum is the checksum of determinismProblem under Weight
 // scoring from the native run; it is also asserted under WebAssembly.
 const wantWeightChecksum uint64 = 0xb6c24a939505f765
+
+func TestPerturbedData(t *testing.T) {
+	// With Perturb the measured ratios are drawn per sample and draw; the
+	// result must still be independent of workers and chunking, match the
+	// native checksum under WebAssembly, and cover the truth.
+	p, o := determinismProblem(Accept)
+	o.Perturb = true
+	a, _ := Invert(context.Background(), p, o)
+	o1 := *o
+	o1.Workers = 1
+	b, _ := Invert(context.Background(), p, &o1)
+	r, _ := NewRun(p, o)
+	for !r.Step(context.Background(), 71) {
+	}
+	sums := []uint64{a.Checksum(), b.Checksum(), r.Result().Checksum()}
+	t.Logf("perturbed checksum %#x", sums[0])
+	if sums[0] != sums[1] || sums[0] != sums[2] {
+		t.Errorf("checksums differ across drivers: %#x", sums)
+	}
+	if sums[0] != wantPerturbChecksum {
+		t.Errorf("perturbed checksum got %#x want %#x (native reference)", sums[0], wantPerturbChecksum)
+	}
+	plain, _ := determinismProblem(Accept)
+	if c, _ := Invert(context.Background(), plain, &Options{Draws: 600, Seed: 20261201}); c.Checksum() == sums[0] {
+		t.Error("Perturb changed nothing")
+	}
+
+	truth, prior := catchment()
+	ws, as := catchmentWaters(truth, 20, 0.02, 15)
+	res, err := Invert(context.Background(), Problem{EndMembers: prior, Tracers: allTracers, Waters: ws}, &Options{Draws: 6000, Seed: 3, Perturb: true, MinAccepted: 50})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, src := range []Source{Silicate, Carbonate} {
+		for c := range NCations {
+			hit := 0
+			for s := range ws {
+				v := trueShare(truth, as[s], src, c)
+				if res.Samples[s].Share.Lo[src][c] <= v && v <= res.Samples[s].Share.Hi[src][c] {
+					hit++
+				}
+			}
+			if hit < 18 {
+				t.Errorf("%v %v: %d of 20 intervals contain the truth, want >= 18", src, Cations[c], hit)
+			}
+		}
+	}
+}
+
+// wantPerturbChecksum is the native checksum of determinismProblem with
+// Perturb; asserted equal under WebAssembly as well.
+const wantPerturbChecksum uint64 = 0xe1d326ca1daeea5

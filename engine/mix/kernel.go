@@ -33,10 +33,9 @@ func reduceTable(tab []float64, n int) []float64 {
 // (the same as in simplexLS.face).
 const pivotTol = 1e-13
 
-func (r *Run) draws4(sr *SampleResult, from, to int, bound float64) {
+func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	const n = 4
 	const stride = int(NTracers) * n
-	pr := &sr.prep
 	mr := pr.m
 	if pr.iso >= 0 {
 		mr--
@@ -132,10 +131,9 @@ func (r *Run) draws4(sr *SampleResult, from, to int, bound float64) {
 	}
 }
 
-func (r *Run) draws3(sr *SampleResult, from, to int, bound float64) {
+func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	const n = 3
 	const stride = int(NTracers) * n
-	pr := &sr.prep
 	mr := pr.m
 	if pr.iso >= 0 {
 		mr--

@@ -51,6 +51,7 @@ type Options struct {
 	FloorErr    float64                // smallest 1σ of a concentration, µmol/L; 0 means 0.01 (assumption)
 	IsoErr      float64                // analytical 1σ of 87Sr/86Sr; 0 means 2e-5 (science.md §8.6, common practice)
 	MinAccepted int                    // fewer kept draws than this give FewAccepted; 0 means min(100, Draws/10)
+	Perturb     bool                   // also draw the measured ratios from their analytical errors, per sample and draw (science.md §7.3 step 1)
 	Workers     int                    // goroutines for Invert; 0 means GOMAXPROCS
 	Progress    func(done, total int)  // called with sample-draws done so far; never concurrently
 }

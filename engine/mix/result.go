@@ -4,6 +4,7 @@ import (
 	"encoding/binary"
 	"hash/fnv"
 	"math"
+	"math/rand/v2"
 	"slices"
 )
 
@@ -41,6 +42,7 @@ type SampleResult struct {
 	Warnings   []error    // problems that did not stop the inversion
 
 	prep  prep
+	rng   *rand.PCG // data perturbation stream (Options.Perturb)
 	kept  []int32   // kept draw numbers, increasing
 	chi2  []float64 // their misfits
 	alpha []float64 // their Na fractions, len(EndMembers) per draw

@@ -229,18 +229,54 @@ func (r *Run) draws(s, from, to int) {
 	if r.opt.Scoring == Weight {
 		bound = maxWeightChi2
 	}
+	if r.opt.Perturb {
+		r.perturbed(s, from, to, bound)
+		return
+	}
+	r.span(sr, &sr.prep, from, to, bound)
+}
+
+// span works draws [from, to) of sr against the data in pr.
+func (r *Run) span(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	switch r.n {
 	case 4:
-		r.draws4(sr, from, to, bound)
+		r.draws4(sr, pr, from, to, bound)
 	case 3:
-		r.draws3(sr, from, to, bound)
+		r.draws3(sr, pr, from, to, bound)
 	default:
 		var a [MaxEndMembers]float64
 		for d := from; d < to; d++ {
-			if chi2, ok := r.general(&sr.prep, d, bound, &a); ok {
+			if chi2, ok := r.general(pr, d, bound, &a); ok {
 				sr.keep(d, chi2, a[:r.n])
 			}
 		}
+	}
+}
+
+// perturbed works draws [from, to) of sample s with the measured ratios of
+// each draw drawn from N(d, σ²) (science.md §7.3 step 1). The normal
+// deviates come from a PCG stream of the sample's own, m per draw in row
+// order, so chunking does not change them.
+func (r *Run) perturbed(s, from, to int, bound float64) {
+	sr := &r.res.Samples[s]
+	if sr.rng == nil {
+		sr.rng = rand.NewPCG(r.opt.Seed^0x6c8e9cf570932bd5, uint64(s))
+	}
+	var p prep
+	for d := from; d < to; d++ {
+		p = sr.prep // copy; the data rows are arrays
+		p.c = 0
+		for k := 0; k < p.m; k++ {
+			u := (float64(sr.rng.Uint64()>>11) + 0.5) * 0x1p-53
+			z := normQuantile(u)
+			if k == p.iso {
+				p.riso += z * r.opt.IsoErr
+			} else {
+				p.d[k] += z / sqrt(p.w[k])
+			}
+			p.c += p.w[k] * p.d[k] * p.d[k]
+		}
+		r.span(sr, &p, d, d+1, bound)
 	}
 }
 
