@@ -26,7 +26,8 @@
 //  4. For each sample and draw the Na fractions a_j solve the weighted least
 //     squares with sum a_j = 1 and a_j >= 0 exactly (closed-form solves on
 //     the faces of the simplex; no grid). The weights are the analytical
-//     uncertainties of the measured ratios.
+//     uncertainties of the measured ratios; with Options.Perturb the
+//     measured ratios themselves are also drawn from those uncertainties.
 //  5. The draw is accepted when chi-square is within the 95 % quantile
 //     (Accept), or weighted by exp(-chi2/2) (Weight).
 //  6. Per sample: median and 2.5/97.5 % quantiles of each end-member's Na
