@@ -7,6 +7,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"lixiv/engine/chem"
 )
@@ -82,7 +83,17 @@ func (t *ResultTable) JSON(cell string) []byte {
 // a spreadsheet) into a Table: the first line names the columns; a second
 // line that holds units ("mg/L", "µeq/L", "m3/s") and no numbers becomes the
 // units row. Cells are kept as written.
+//
+// Text that is not valid UTF-8 is read as Latin-1, as older spreadsheets
+// save it, so that the table holds exactly the characters shown.
 func TableFromText(text string) (*Table, error) {
+	if !utf8.ValidString(text) {
+		r := make([]rune, len(text))
+		for i := 0; i < len(text); i++ {
+			r[i] = rune(text[i])
+		}
+		text = string(r)
+	}
 	text = strings.TrimPrefix(text, "\ufeff")
 	first, _, _ := strings.Cut(text, "\n")
 	sep := ','

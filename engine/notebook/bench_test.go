@@ -1,0 +1,54 @@
+package notebook_test
+
+import (
+	"context"
+	"os"
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+// BenchmarkDemo computes the demo budget (Corrie Vale) from scratch on one
+// goroutine, as the page does in the browser.
+func BenchmarkDemo(b *testing.B) {
+	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	for i := 0; i < b.N; i++ {
+		d, err := notebook.Parse(data, "corrie-vale")
+		if err != nil {
+			b.Fatal(err)
+		}
+		d.Workers = 1
+		if err := d.Recompute(context.Background(), nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkRainEdit times an edit of the rain cell and the recompute of
+// the cells below it, the page's edit-to-result path.
+func BenchmarkRainEdit(b *testing.B) {
+	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d, err := notebook.Parse(data, "corrie-vale")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d.Workers = 1
+	d.Recompute(context.Background(), nil)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := "0.86"
+		if i%2 == 1 {
+			v = "0.859120"
+		}
+		d.SetParam("rain", "na_per_cl", v)
+		if err := d.Recompute(context.Background(), nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

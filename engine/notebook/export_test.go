@@ -1,0 +1,67 @@
+package notebook
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestTableFromText(t *testing.T) {
+	tests := []struct {
+		name, text string
+		cols       int
+		units      string
+		rows       int
+		cell       string // row 1, column 2 as kept
+	}{
+		{"csv with units row", "sample,Na,Ca\n,mg/L,mg/L\nA,1.5,<0.01\nB,2,3\n", 3, ",mg/L,mg/L", 2, "1.5"},
+		{"units in header", "sample,Na (mg/L)\nA,1.5\n", 2, "", 1, "1.5"},
+		{"semicolon decimal comma", "sample;Na\n;mg/L\nA;1,5\n", 2, ",mg/L", 1, "1,5"},
+		{"tab pasted", "date\tQ\n\tm3/s\n2021-01-01\t0.5\n", 2, ",m3/s", 1, "0.5"},
+		{"bom and blank line", "\ufeffsample,Na\nA,1\n\nB,2\n", 2, "", 2, "1"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			tab, err := TableFromText(tt.text)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(tab.Columns) != tt.cols || strings.Join(tab.Units, ",") != tt.units || len(tab.Rows) != tt.rows || tab.Cell(0, 1) != tt.cell {
+				t.Errorf("got %d columns, units %q, %d rows, cell %q; want %d, %q, %d, %q",
+					len(tab.Columns), strings.Join(tab.Units, ","), len(tab.Rows), tab.Cell(0, 1), tt.cols, tt.units, tt.rows, tt.cell)
+			}
+		})
+	}
+	if _, err := TableFromText("a,b\n1,2,3\n"); err == nil || !strings.Contains(err.Error(), "row 2 has 3 cells for 2 columns") {
+		t.Errorf("a long row: got %v", err)
+	}
+}
+
+func FuzzTableFromText(f *testing.F) {
+	f.Add("sample,Na\n,mg/L\nA,1\n")
+	f.Add("a;b\n1;2\n")
+	f.Add("\"q,\"\"x\",b\n1,2\n")
+	f.Fuzz(func(t *testing.T, text string) {
+		tab, err := TableFromText(text)
+		if err != nil {
+			return
+		}
+		if err := tab.check(); err != nil {
+			t.Fatalf("TableFromText gave a table that fails its own check: %v", err)
+		}
+		// What it read survives the budget file unchanged.
+		d := New("f")
+		c := NewCell(KindSamples, "s", "")
+		c.Table = tab
+		if err := d.Insert(c, -1); err != nil {
+			t.Fatal(err)
+		}
+		d2, err := Parse(d.Marshal(), "f")
+		if err != nil {
+			t.Fatalf("saved table does not load: %v", err)
+		}
+		got := d2.Cell("s").Table
+		if got.CSV() != tab.CSV() {
+			t.Fatalf("table changed through the file:\n%q\n%q", tab.CSV(), got.CSV())
+		}
+	})
+}
