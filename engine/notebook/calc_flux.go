@@ -59,16 +59,16 @@ func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int,
 		if s.Draws == nil {
 			continue
 		}
-		d, w := make([]float64, a.Draws), make([]float64, a.Draws)
+		d := make([]float64, a.Draws)
 		total := 0.0
 		for k := 0; k < a.Draws; k++ {
-			if sp, wt, ok := a.Draw(i, k); ok {
-				d[k], w[k] = f(i, &sp), wt
-				total += wt
+			if w := a.weights[i][k]; w > 0 {
+				d[k] = f(i, &a.splits[i][k])
+				total += w
 			}
 		}
 		if total > 0 {
-			s.Draws[i], s.Weights[i] = d, w
+			s.Draws[i], s.Weights[i] = d, a.weights[i]
 		}
 	}
 	return s

@@ -84,6 +84,7 @@ type InputError struct {
 	Cell string // id of the input cell with the problem
 }
 
+// Error implements error.
 func (e *InputError) Error() string {
 	return fmt.Sprintf("waiting for cell %q, which has a problem", e.Cell)
 }

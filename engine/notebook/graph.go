@@ -11,6 +11,7 @@ type CycleError struct {
 	Path []string // cell ids along the loop, the first repeated at the end
 }
 
+// Error implements error.
 func (e *CycleError) Error() string {
 	return "cells depend on each other in a loop: " + strings.Join(e.Path, " → ") +
 		"; point one of them at a cell above it"

@@ -24,6 +24,7 @@ type FileError struct {
 	Msg  string
 }
 
+// Error implements error.
 func (e *FileError) Error() string {
 	if e.Line > 0 {
 		return fmt.Sprintf("%s:%d: %s", e.File, e.Line, e.Msg)

@@ -35,10 +35,65 @@ func quantiles(x, w []float64, ps ...float64) []float64 {
 
 type vw struct{ v, w float64 }
 
-// quantileBuf reuses its sort buffer across calls.
-type quantileBuf struct{ s []vw }
+// quantileBuf reuses its sort buffers across calls.
+type quantileBuf struct {
+	s []vw
+	f []float64
+}
+
+func allOnes(w []float64) bool {
+	for _, x := range w {
+		if x != 1 {
+			return false
+		}
+	}
+	return true
+}
+
+// equal is quantiles with every weight 1: the same arithmetic (the
+// cumulative weight before value i is exactly i), without the weights.
+func (b *quantileBuf) equal(x []float64, ps []float64) []float64 {
+	s := b.f[:0]
+	for _, v := range x {
+		if finite(v) {
+			s = append(s, v)
+		}
+	}
+	b.f = s
+	out := make([]float64, len(ps))
+	if len(s) == 0 {
+		for i := range out {
+			out[i] = math.NaN()
+		}
+		return out
+	}
+	slices.Sort(s)
+	total := float64(len(s))
+	for k, p := range ps {
+		target := p * total
+		out[k] = s[len(s)-1]
+		for i := range s {
+			cum := float64(i)
+			mid := cum + 0.5
+			if mid >= target {
+				if i == 0 {
+					out[k] = s[0]
+				} else {
+					prevMid := cum - 0.5
+					f := (target - prevMid) / (mid - prevMid)
+					out[k] = s[i-1] + f*(s[i]-s[i-1])
+				}
+				break
+			}
+		}
+	}
+	return out
+}
 
 func (b *quantileBuf) quantiles(x, w []float64, ps ...float64) []float64 {
+	if w == nil || allOnes(w) {
+		return b.equal(x, ps)
+	}
 	s := b.s[:0]
 	total := 0.0
 	for i, v := range x {
