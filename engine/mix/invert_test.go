@@ -244,7 +244,9 @@ func TestInvertRecoversKnownShares(t *testing.T) {
 					hit++
 				}
 			}
-			if frac := float64(hit) / float64(len(ws)); frac < 0.9 {
+			frac := float64(hit) / float64(len(ws))
+			t.Logf("%v %v: %.0f %% of intervals contain the truth", src, Cations[c], 100*frac)
+			if frac < 0.9 {
 				t.Errorf("%v %v: intervals contain the true share in %.0f %% of samples, want >= 90 %%", src, Cations[c], 100*frac)
 			}
 		}

@@ -47,7 +47,7 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		var h00, h10, h11, h20, h21, h22, b0, b1, b2, cc float64
 		for k := 0; k < mr; k++ {
 			o := base + pr.par[k]*n
-			u := rt[o : o+n : o+n]
+			u := (*[n]float64)(rt[o : o+n])
 			u0, u1, u2 := u[0], u[1], u[2]
 			w := pr.w[k]
 			t := pr.d[k] - u[3]
@@ -67,9 +67,9 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		}
 		if pr.iso >= 0 {
 			o := base + int(SrNa)*n
-			s := tab[o : o+n : o+n]
+			s := (*[n]float64)(tab[o : o+n])
 			o = base + int(Sr87Sr86)*n
-			R := tab[o : o+n : o+n]
+			R := (*[n]float64)(tab[o : o+n])
 			rm := pr.riso
 			e3 := s[3] * (R[3] - rm)
 			u0, u1, u2 := s[0]*(R[0]-rm)-e3, s[1]*(R[1]-rm)-e3, s[2]*(R[2]-rm)-e3
@@ -145,7 +145,7 @@ func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		var h00, h10, h11, b0, b1, cc float64
 		for k := 0; k < mr; k++ {
 			o := base + pr.par[k]*n
-			u := rt[o : o+n : o+n]
+			u := (*[n]float64)(rt[o : o+n])
 			u0, u1 := u[0], u[1]
 			w := pr.w[k]
 			t := pr.d[k] - u[2]
@@ -160,9 +160,9 @@ func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		}
 		if pr.iso >= 0 {
 			o := base + int(SrNa)*n
-			s := tab[o : o+n : o+n]
+			s := (*[n]float64)(tab[o : o+n])
 			o = base + int(Sr87Sr86)*n
-			R := tab[o : o+n : o+n]
+			R := (*[n]float64)(tab[o : o+n])
 			rm := pr.riso
 			e2 := s[2] * (R[2] - rm)
 			u0, u1 := s[0]*(R[0]-rm)-e2, s[1]*(R[1]-rm)-e2
