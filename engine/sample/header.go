@@ -171,9 +171,9 @@ func unitKey(s string) string {
 // dischargeUnit returns the factor from a discharge unit to m³/s.
 func dischargeUnit(s string) (float64, bool) {
 	switch unitKey(s) {
-	case "m3/s", "m3s-1", "m3.s-1", "cms", "cumecs":
+	case "m3/s", "m3s-1", "m3.s-1", "m3s", "cms", "cumecs":
 		return 1, true
-	case "l/s", "ls-1", "l.s-1", "litres/s", "liters/s":
+	case "l/s", "ls-1", "l.s-1", "ls", "litres/s", "liters/s":
 		return 1e-3, true
 	case "cfs", "ft3/s", "ft3s-1", "cuft/s":
 		return 0.028316846592, true // 1 ft = 0.3048 m exactly (science.md §1.1)

@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"os"
 	"sort"
 	"strconv"
 	"strings"
@@ -21,8 +22,12 @@ const peekSize = 64 << 10
 // Table.Problems, and the rest of the table still loads.
 func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	t := &Table{Name: name, Policy: opt.Policy}
-	br := bufio.NewReaderSize(r, 1<<20)
-	peek, perr := br.Peek(peekSize)
+	size := 1 << 20
+	if l, ok := r.(interface{ Len() int }); ok && l.Len() < size-16 {
+		size = l.Len() + 16 // small input: a small buffer
+	}
+	br := bufio.NewReaderSize(r, size)
+	peek, perr := br.Peek(min(peekSize, size))
 	whole := perr != nil
 	if perr != nil && perr != io.EOF && perr != bufio.ErrBufferFull {
 		return t, perr
@@ -74,6 +79,11 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 		comma = byte(opt.Comma)
 	}
 	lr.comma = comma
+	if st, ok := r.(interface{ Stat() (os.FileInfo, error) }); ok {
+		if fi, err := st.Stat(); err == nil && whole == false {
+			im.sizeHint = int(fi.Size() / int64(max(1, len(peek)/max(1, bytes.Count(peek, []byte{'\n'})))))
+		}
+	}
 	im.run(lr, sample, modal)
 	return t, lr.err
 }
@@ -103,6 +113,7 @@ type importer struct {
 	anyB13   bool // a three-number date with a second number above 12
 	clocks   []pendingClock
 	nMapped  int
+	sizeHint int // expected number of rows, from the file size
 	header   int // header line
 	unitLine int
 }
@@ -122,7 +133,9 @@ type pendingDate struct {
 
 type pendingClock struct {
 	s         *Sample
+	c         *plan
 	sec, nsec int
+	raw       string
 }
 
 func (im *importer) add(p *Problem) {
@@ -191,7 +204,7 @@ func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
 	for ok && trimmedLen(fs) == 0 {
 		fs, line, ok = lr.next()
 	}
-	first := true
+	first := false
 	if ok && isUnitsRow(fs, heads) {
 		units = make([]string, len(header))
 		for i := range units {
@@ -200,18 +213,15 @@ func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
 			}
 		}
 		im.unitLine = line
-		first = false
+		first = true
 	}
 	im.mapColumns(header, heads, units)
 	im.detectDecimal(sample, lr.comma)
 	im.t.Comma, im.t.Decimal = rune(lr.comma), rune(im.dec)
-	if first && ok {
-		im.row(fs, line)
-	}
-	for {
-		fs, line, ok := lr.next()
-		if !ok {
-			break
+	for ; ok; fs, line, ok = lr.next() {
+		if first {
+			first = false
+			continue // the units row
 		}
 		if lr.badQ {
 			im.add(&Problem{Line: line, Err: ErrQuote, Detail: "a quoted field is not closed before the end of the file"})
@@ -306,6 +316,9 @@ func numericKind(k Kind) bool {
 // mapColumns turns headings and units into column plans, reporting
 // duplicates, conflicts and missing units.
 func (im *importer) mapColumns(header []string, heads []heading, units []string) {
+	if im.sizeHint > 0 {
+		im.t.Samples = make([]*Sample, 0, im.sizeHint+im.sizeHint/20+16)
+	}
 	im.cols = make([]plan, len(header))
 	im.dateCol = -1
 	im.order = im.opt.DateOrder
@@ -493,7 +506,8 @@ func sameUnit(k Kind, a, b string) bool {
 // newSample hands out a sample from a block, to keep allocations few.
 func (im *importer) newSample() *Sample {
 	if len(im.block) == 0 {
-		im.block = make([]Sample, 1024)
+		n := min(1024, 16+len(im.t.Samples))
+		im.block = make([]Sample, n)
 	}
 	s := &im.block[0]
 	im.block = im.block[1:]
@@ -580,7 +594,7 @@ func (im *importer) row(fs [][]byte, line int) {
 				im.meta(s, c, f)
 				continue
 			}
-			im.clocks = append(im.clocks, pendingClock{s, sec, nsec})
+			im.clocks = append(im.clocks, pendingClock{s, c, sec, nsec, string(f)})
 		default:
 			im.meta(s, c, f)
 		}
@@ -716,7 +730,9 @@ func (im *importer) finish() {
 		if k.s.HasTime && k.s.DateOnly {
 			k.s.Time = k.s.Time.Add(timeOfDay(k.sec, k.nsec))
 			k.s.DateOnly = false
+			continue
 		}
+		im.meta(k.s, k.c, []byte(k.raw)) // no date to join it to: keep the text
 	}
 	if len(im.t.Samples) == 0 && im.nMapped > 0 {
 		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "the header has no data rows below it"})

@@ -14,12 +14,10 @@ type Sample struct {
 	Site string // site or station name
 
 	// Time is the sampling date and time, read as written (no time zone
-	// conversion) and stored in UTC. HasTime is false when the row gave no
-	// date or one that could not be read; DateOnly is true when it gave a
-	// date without a time of day.
-	Time     time.Time
-	HasTime  bool
-	DateOnly bool
+	// conversion unless the cell gives an offset) and stored in UTC. HasTime
+	// (below) is false when the row gave no date or one that could not be
+	// read; DateOnly is true when it gave a date without a time of day.
+	Time time.Time
 
 	Q float64 // discharge at sampling, m³/s; NaN if none
 
@@ -43,7 +41,9 @@ type Sample struct {
 	// header text. Nil when there are none.
 	Meta map[string]string
 
-	Line int // line in the source file where the row starts (1-based)
+	Line     int  // line in the source file where the row starts (1-based)
+	HasTime  bool // Time is set
+	DateOnly bool // Time has no time of day
 }
 
 // NewSample returns a sample with every quantity missing.

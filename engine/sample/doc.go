@@ -1,0 +1,63 @@
+// Package sample holds tables of water samples and reads them from the
+// files laboratories send: CSV, TSV and cells pasted from a spreadsheet.
+//
+// # Units
+//
+// Every concentration in a Sample is in µmol/L, except alkalinity (chem.Alk),
+// which is in µeq/L. Discharge at sampling is in m³/s, temperature in °C,
+// conductivity in µS/cm; pH and 87Sr/86Sr have no unit. A quantity that was
+// not measured is NaN, never 0. ppm and ppb are read as mg/L and µg/L, which
+// holds for fresh water (density within 0.5 % of 1 kg/L from 0 to 30 °C;
+// common practice); the page states this assumption.
+//
+// # Pipeline
+//
+// Read and ParseText go through these steps:
+//
+//  1. Decode: a UTF-8 byte order mark is dropped, UTF-16 text (spreadsheet
+//     "Unicode text") is converted, a file that is not valid UTF-8 is read
+//     as Latin-1, and lone carriage returns end lines. Binary files and
+//     .xlsx workbooks are reported as ErrNotTable.
+//  2. Delimiter: the one of tab, semicolon and comma that gives the most
+//     lines with the same number of fields in the first 64 KiB, unless
+//     Options.Comma sets it. Fields may be quoted ("a, b"), with "" for a
+//     quote and line breaks inside quotes.
+//  3. Header: the first line with at least half as many fields as the
+//     typical line; lines above it are kept in Table.Preamble.
+//  4. Columns: each header is read as a species with its unit ("Ca (mg/L)",
+//     "Ca2+ [µmol/L]", "Calcium mg/l", "Ca_umol_L", "NO3-N (mg/L)",
+//     "Alkalinity as CaCO3"), or as sample, site, date, time of day,
+//     discharge, pH (field pH preferred over lab pH), temperature,
+//     conductivity or 87Sr/86Sr. A units row under the names is recognised
+//     when its cells read as units and none holds a number. Options.Map
+//     overrides a header; Options.Units gives a unit the file lacks. A
+//     column that cannot be used (no unit, an unknown unit, conflicting
+//     header and units-row units, a duplicated species) is reported and
+//     kept as text. Unknown columns are kept as text in Sample.Meta.
+//  5. Decimal mark: a comma when the delimiter is not a comma and the
+//     numeric cells use it ("0,25"), unless Options.Decimal sets it.
+//  6. Rows: numbers are converted to the internal units. "<0.01", "< DL",
+//     "<LOD", "bdl" are censored: the limit is kept in Sample.Censored and
+//     C holds the substitute chosen by Options.Policy (half the limit by
+//     default; Table.Substitute reruns with another). Empty cells, "NA",
+//     "n.a.", "N/A", "n.d.", "-", "--", -999 and -9999 are missing (NaN).
+//     A negative concentration or discharge, text in a numeric column, or
+//     a value out of range is reported and left missing.
+//  7. Dates: ISO 8601 (2024-03-05, 2024-03-05T10:30:00Z), 05-Mar-2024,
+//     Excel serial days, and three-number dates such as 05/03/2024. The
+//     order of a three-number date comes from Options.DateOrder, a format
+//     in the units row or header ("dd/mm/yyyy"), or the column itself (a
+//     first number above 12 means day first). A column where every date
+//     could be read either way is reported as ErrAmbiguousDate and its
+//     dates are kept as text until the caller chooses; it is never guessed.
+//  8. Problems: each is a *Problem with file, line, column number and
+//     header, unwrapping to one of the Err* sentinels, collected in
+//     Table.Problems in file order; Table.Problems.Err() is nil when there
+//     are none. The rest of the table always loads, and nothing the file
+//     held is dropped: unusable cells stay as text in Sample.Meta or in the
+//     problem's Value.
+//
+// Table.WriteCSV writes the normalised table (µmol/L, µeq/L for
+// alkalinity, "<limit" for censored values), which Read reads back to the
+// same table.
+package sample

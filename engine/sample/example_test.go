@@ -1,0 +1,58 @@
+package sample_test
+
+import (
+	"fmt"
+	"os"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/sample"
+)
+
+// Cells pasted from a spreadsheet: tab-separated, decimal commas, a value
+// below detection and a negative value that is reported, not loaded.
+func ExampleParseText() {
+	text := "Sample\tDate\tCa (mg/L)\tNO3-N (mg/L)\tAlk (mg/L CaCO3)\n" +
+		"CV-01\t2024-03-05\t2,35\t0,21\t9,8\n" +
+		"CV-02\t2024-04-10\t-1\t<0,02\t12,6\n"
+	t := sample.ParseText(text, "pasted", sample.Options{})
+	for _, s := range t.Samples {
+		lim, censored := s.Limit(chem.NO3)
+		fmt.Printf("%s %s Ca %.2f NO3 %.3f (below %.3f: %v) Alk %.1f µeq/L\n",
+			s.ID, s.Time.Format("2006-01-02"), s.C[chem.Ca], s.C[chem.NO3], lim, censored, s.C[chem.Alk])
+	}
+	for _, p := range t.Problems {
+		fmt.Println(p)
+	}
+	// Output:
+	// CV-01 2024-03-05 Ca 58.64 NO3 14.993 (below 0.000: false) Alk 195.8 µeq/L
+	// CV-02 2024-04-10 Ca NaN NO3 0.714 (below 1.428: true) Alk 251.8 µeq/L
+	// pasted:3:3 (Ca (mg/L)): "-1": negative value; a concentration cannot be negative; left missing
+}
+
+// Read a file, then write it back normalised to µmol/L.
+func ExampleRead() {
+	f, err := os.Open("../../testdata/samples-messy.csv")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	defer f.Close()
+	t, err := sample.Read(f, "samples-messy.csv", sample.Options{Policy: sample.HalfLimit})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(len(t.Samples), "samples,", len(t.Problems), "problems")
+	for _, c := range t.Columns[9:12] {
+		fmt.Println(c.Header, "->", c.Mapping())
+	}
+	t.Samples = t.Samples[:1]
+	t.WriteCSV(os.Stdout)
+	// Output:
+	// 8 samples, 2 problems
+	// Na -> Na, mg/L -> µmol/L
+	// K -> K, mg/L -> µmol/L
+	// Ca -> Ca, mg/L -> µmol/L
+	// Sample,Site,Date,Q (m3/s),pH,Temperature (°C),EC (µS/cm),87Sr/86Sr,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Sr (µmol/L),Cl (µmol/L),SO4 (µmol/L),NO3 (µmol/L),Alk (µeq/L),SiO2 (µmol/L),pH_lab
+	// CV-01,Corrie Vale burn,2024-01-14T10:15:00Z,0.0852,6.82,3.1,48.5,0.72135,179.21014995066534,10.742155029758326,58.63566046209891,36.20654186381403,0.1380963250399452,158.2,35.4,14.992503748125936,195.83158483704017,107.35149709568431,7.05
+}
