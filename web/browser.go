@@ -10,7 +10,9 @@ import (
 // This file is the page's glue to the browser: storage, files, downloads
 // and handing the main thread back to the browser during long runs. It uses
 // vugu's js package, so the package builds natively (where these calls are
-// never made).
+// never made). vugu's Value.Set passes its argument to syscall/js as is,
+// so only Go strings, numbers and booleans are ever Set; JavaScript values
+// and functions go through Call, which converts them.
 
 // yieldToBrowser lets the browser run (paint, handle input) before the
 // calling goroutine continues. time.Sleep does not do this in Go's
@@ -139,7 +141,7 @@ func downloadBlob(name string, blob js.Value) {
 	g := js.Global()
 	url := g.Get("URL").Call("createObjectURL", blob)
 	a := g.Get("document").Call("createElement", "a")
-	a.Set("href", url)
+	a.Set("href", url.String())
 	a.Set("download", name)
 	g.Get("document").Get("body").Call("appendChild", a)
 	a.Call("click")
@@ -167,9 +169,9 @@ func downloadPNG(name, svg string, width, height float64) error {
 		loaded <- errors.New("the chart could not be drawn as a picture")
 		return nil
 	})
-	img.Set("onload", onload)
-	img.Set("onerror", onerr)
-	img.Set("src", url)
+	img.Call("addEventListener", "load", onload)
+	img.Call("addEventListener", "error", onerr)
+	img.Set("src", url.String())
 	err := <-loaded
 	onload.Release()
 	onerr.Release()

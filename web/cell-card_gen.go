@@ -840,61 +840,73 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 						vgparent.AppendChild(vgn)
-						for vgiterkeyt, ch := range c.V.Charts {
-							var vgiterkey interface{} = vgiterkeyt
-							_ = vgiterkey
-							ch := ch
-							_ = ch
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "figure", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "chart"}}}
+						if len(c.V.Charts) > 0 {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "charts"}}}
 							vgparent.AppendChild(vgn)
 							{
 								vgparent := vgn
 								_ = vgparent
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 								vgparent.AppendChild(vgn)
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "svg-mount"}}}
-								vgparent.AppendChild(vgn)
-								vgn.AddAttrInterface("id", "chart-"+ch.ID)
-								vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.Fill(value, ch) })
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-								vgparent.AppendChild(vgn)
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "figcaption", Attr: []vugu.VGAttribute(nil)}
-								vgparent.AppendChild(vgn)
-								{
-									vgparent := vgn
-									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+								for vgiterkeyt, ch := range c.V.Charts {
+									var vgiterkey interface{} = vgiterkeyt
+									_ = vgiterkey
+									ch := ch
+									_ = ch
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "figure", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "chart"}}}
 									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-									vgparent.AppendChild(vgn)
-									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-										EventType: "click",
-										Func:      func(event vugu.DOMEvent) { c.ExportSVG(ch) },
-										// TODO: implement capture, etc. mostly need to decide syntax
-									})
 									{
 										vgparent := vgn
 										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export SVG"}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+										vgparent.AppendChild(vgn)
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "svg-mount"}}}
+										vgparent.AppendChild(vgn)
+										vgn.AddAttrInterface("id", "chart-"+ch.ID)
+										vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.Fill(value, ch) })
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+										vgparent.AppendChild(vgn)
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "figcaption", Attr: []vugu.VGAttribute(nil)}
+										vgparent.AppendChild(vgn)
+										{
+											vgparent := vgn
+											_ = vgparent
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+											vgparent.AppendChild(vgn)
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
+											vgparent.AppendChild(vgn)
+											vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+												EventType: "click",
+												Func:      func(event vugu.DOMEvent) { c.ExportSVG(ch) },
+												// TODO: implement capture, etc. mostly need to decide syntax
+											})
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export SVG"}
+												vgparent.AppendChild(vgn)
+											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+											vgparent.AppendChild(vgn)
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
+											vgparent.AppendChild(vgn)
+											vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+												EventType: "click",
+												Func:      func(event vugu.DOMEvent) { c.ExportPNG(ch) },
+												// TODO: implement capture, etc. mostly need to decide syntax
+											})
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export PNG"}
+												vgparent.AppendChild(vgn)
+											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+											vgparent.AppendChild(vgn)
+										}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 										vgparent.AppendChild(vgn)
 									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-									vgparent.AppendChild(vgn)
-									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-										EventType: "click",
-										Func:      func(event vugu.DOMEvent) { c.ExportPNG(ch) },
-										// TODO: implement capture, etc. mostly need to decide syntax
-									})
-									{
-										vgparent := vgn
-										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export PNG"}
-										vgparent.AppendChild(vgn)
-									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-									vgparent.AppendChild(vgn)
 								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 								vgparent.AppendChild(vgn)

@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"sort"
 	"strings"
 	"testing"
 	"time"
@@ -27,17 +28,21 @@ func figures(t testing.TB, ctx context.Context) map[string]string {
 	return eval[map[string]string](t, ctx, js)
 }
 
-// co2Figure returns the first CO2 figure the page shows, name and value.
+// co2Figure returns the page's silicate CO2 consumption per km² (else the
+// first CO2 figure by name), name and value.
 func co2Figure(t testing.TB, ctx context.Context) (string, string) {
 	t.Helper()
-	for k, v := range figures(t, ctx) {
-		if strings.Contains(k, "CO2") && strings.Contains(strings.ToLower(k), "silicate") {
-			return k, v
-		}
+	figs := figures(t, ctx)
+	keys := make([]string, 0, len(figs))
+	for k := range figs {
+		keys = append(keys, k)
 	}
-	for k, v := range figures(t, ctx) {
-		if strings.Contains(k, "CO2") {
-			return k, v
+	sort.Strings(keys)
+	for _, want := range []string{"silicate CO2 consumption per km²", "CO2"} {
+		for _, k := range keys {
+			if strings.Contains(k, want) {
+				return k, figs[k]
+			}
 		}
 	}
 	return "", ""
@@ -266,6 +271,7 @@ func TestSavedBudgetReopens(t *testing.T) {
 // waitDownload waits for a finished file in dir.
 func waitDownload(t testing.TB, dir string) string {
 	t.Helper()
+	os.MkdirAll(dir, 0o755)
 	deadline := time.Now().Add(20 * time.Second)
 	for time.Now().Before(deadline) {
 		entries, _ := os.ReadDir(dir)
@@ -365,5 +371,44 @@ func TestNoRequestLeavesTheOrigin(t *testing.T) {
 	}
 	if n < 4 {
 		t.Errorf("saw %d requests, want the page's own (index, scripts, wasm, demo)", n)
+	}
+}
+
+func TestExportsTableAndChart(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	dir := t.TempDir()
+	if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
+		Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: dir, EventsEnabled: new(true)}); err != nil {
+		t.Fatal(err)
+	}
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	tests := []struct {
+		name, button string
+		check        func(b []byte) bool
+	}{
+		{"table as CSV", `section.cell .result .table-tools button`, func(b []byte) bool { return strings.Count(string(b), "\n") > 1 && strings.Contains(string(b), ",") }},
+		{"chart as SVG", `figure.chart figcaption button:nth-child(1)`, func(b []byte) bool { return strings.HasPrefix(string(b), "<svg") }},
+		{"chart as PNG", `figure.chart figcaption button:nth-child(2)`, func(b []byte) bool { return len(b) > 8 && string(b[1:4]) == "PNG" }},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			d := filepath.Join(dir, strings.ReplaceAll(tt.name, " ", "-"))
+			if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
+				Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: d}); err != nil {
+				t.Fatal(err)
+			}
+			if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(tt.button))); err != nil {
+				t.Fatal(err)
+			}
+			data, err := os.ReadFile(waitDownload(t, d))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !tt.check(data) {
+				t.Errorf("download: got %.60q", data)
+			}
+		})
 	}
 }

@@ -41,6 +41,15 @@ func TestShots(t *testing.T) {
 		}
 		save(t, filepath.Join(dir, id+".png"), png)
 	}
+	charts := eval[[]string](t, ctx, `[...document.querySelectorAll(".svg-mount")].map(e => e.id)`)
+	for _, id := range charts {
+		png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
+		if err != nil {
+			t.Errorf("%s: %v", id, err)
+			continue
+		}
+		save(t, filepath.Join(dir, id+".png"), png)
+	}
 }
 
 func save(t *testing.T, path string, data []byte) {
