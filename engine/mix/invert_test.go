@@ -245,7 +245,16 @@ func TestInvertRecoversKnownShares(t *testing.T) {
 				}
 			}
 			frac := float64(hit) / float64(len(ws))
-			t.Logf("%v %v: %.0f %% of intervals contain the truth", src, Cations[c], 100*frac)
+			width := 0.0
+			for s := range ws {
+				width += res.Samples[s].Share.Hi[src][c] - res.Samples[s].Share.Lo[src][c]
+			}
+			t.Logf("%v %v: %.0f %% of intervals contain the truth, mean width %.3f", src, Cations[c], 100*frac, width/float64(len(ws)))
+			// The intervals must also be informative where the tracers
+			// constrain the split: silicate and carbonate Ca and Mg.
+			if (src == Silicate || src == Carbonate) && (Cations[c] == chem.Ca || Cations[c] == chem.Mg) && width/float64(len(ws)) > 0.1 {
+				t.Errorf("%v %v: mean interval width %.3f, want < 0.1", src, Cations[c], width/float64(len(ws)))
+			}
 			if frac < 0.9 {
 				t.Errorf("%v %v: intervals contain the true share in %.0f %% of samples, want >= 90 %%", src, Cations[c], 100*frac)
 			}
