@@ -2,6 +2,7 @@ package notebook
 
 import (
 	"fmt"
+	"math"
 
 	"lixiv/engine/discharge"
 )
@@ -79,7 +80,15 @@ func computeDischarge(e *Env) (*Output, error) {
 			TextColumn("year", labels), NumColumn("runoff", "mm", runoff), NumColumn("days with data", "fraction", cover)}})
 		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
 		if n > 0 {
-			out.Figures = append(out.Figures, Point("runoff", "mm/yr", mm/float64(n)*365.25))
+			r := mm / float64(n) * 365.25
+			out.Figures = append(out.Figures, Point("runoff", "mm/yr", r))
+			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
+			// brief §1.3; common practice, no source).
+			if site.P > 0 && site.ET > 0 {
+				if gap := math.Abs(site.P-site.ET-r) / site.P; gap > 0.2 {
+					out.Warnings = append(out.Warnings, fmt.Sprintf("water balance: P − ET = %.0f mm/yr but the record gives %.0f mm/yr of runoff (%.0f %% of P apart); check the area, P and ET", site.P-site.ET, r, 100*gap))
+				}
+			}
 		}
 	}
 	out.Value = &Flow{Record: rec, Site: site}

@@ -94,16 +94,16 @@ func (b *quantileBuf) quantiles(x, w []float64, ps ...float64) []float64 {
 	if w == nil || allOnes(w) {
 		return b.equal(x, ps)
 	}
+	return b.weighted(x, w, ps...)
+}
+
+func (b *quantileBuf) weighted(x, w []float64, ps ...float64) []float64 {
 	s := b.s[:0]
 	total := 0.0
 	for i, v := range x {
-		wi := 1.0
-		if w != nil {
-			wi = w[i]
-		}
-		if finite(v) && wi > 0 {
-			s = append(s, vw{v, wi})
-			total += wi
+		if wi := w[i]; finite(v) && wi > 0 {
+			s = append(s, vw{v, w[i]})
+			total += w[i]
 		}
 	}
 	b.s = s

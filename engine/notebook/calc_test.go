@@ -1,0 +1,146 @@
+package notebook
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/discharge"
+	"lixiv/engine/mix"
+)
+
+func TestNICB(t *testing.T) {
+	c := chem.NewComposition()
+	for sp, v := range map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 200, chem.Mg: 50,
+		chem.Cl: 50, chem.SO4: 40, chem.NO3: 10, chem.Alk: 450} {
+		c[sp] = v
+	}
+	// Methods brief §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
+	if got, want := nicb(&c), 3.2787; math.Abs(got-want) > 1e-4 {
+		t.Errorf("NICB %g %%, want %g %% (±1e-4)", got, want)
+	}
+	empty := chem.NewComposition()
+	if got := nicb(&empty); !math.IsNaN(got) {
+		t.Errorf("NICB without cations %g, want NaN", got)
+	}
+}
+
+func TestQuantiles(t *testing.T) {
+	tests := []struct {
+		name string
+		x, w []float64
+		p    float64
+		want float64
+	}{
+		// Midpoint interpolation (common practice): the median of 1..4 is 2.5.
+		{"median even", []float64{4, 1, 3, 2}, nil, 0.5, 2.5},
+		{"median odd", []float64{3, 1, 2}, nil, 0.5, 2},
+		{"low end holds", []float64{1, 2, 3}, nil, 0.01, 1},
+		{"high end holds", []float64{1, 2, 3}, nil, 0.99, 3},
+		{"NaN ignored", []float64{math.NaN(), 1, 3}, nil, 0.5, 2},
+		// Weights 3 and 1: midpoints of the cumulative weights at 1.5 and 3.5, so
+		// the 2-of-4 point lies a quarter of the way from 1 to 2.
+		{"weights interpolate", []float64{1, 2}, []float64{3, 1}, 0.5, 1.25},
+		{"equal weights as none", []float64{4, 1, 3, 2}, []float64{1, 1, 1, 1}, 0.5, 2.5},
+		{"zero weight ignored", []float64{1, 100, 3}, []float64{1, 0, 1}, 0.5, 2},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if got := quantiles(tt.x, tt.w, tt.p)[0]; math.Abs(got-tt.want) > 1e-12 {
+				t.Errorf("got %g, want %g", got, tt.want)
+			}
+		})
+	}
+	if got := quantiles(nil, nil, 0.5)[0]; !math.IsNaN(got) {
+		t.Errorf("empty: got %g, want NaN", got)
+	}
+	// The equal-weight path gives the same bits as the weighted one.
+	x := []float64{0.3, 0.1, 0.7, 0.2, 0.9, 0.4, 0.8}
+	w := []float64{1, 1, 1, 1, 1, 1, 1.0000000001}
+	a, b := quantiles(x, nil, 0.025, 0.5, 0.975), (&quantileBuf{}).weighted(x, w, 0.025, 0.5, 0.975)
+	for i := range a {
+		if math.Abs(a[i]-b[i]) > 1e-9 {
+			t.Errorf("quantile %d: equal %g, weighted %g", i, a[i], b[i])
+		}
+	}
+}
+
+func TestEndMemberTable(t *testing.T) {
+	for _, p := range Presets {
+		t.Run(p, func(t *testing.T) {
+			tab, err := SourcesTable(p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			ems, err := parseEndMembers(tab)
+			if err != nil {
+				t.Fatal(err)
+			}
+			back := EndMemberTable(ems)
+			if back.CSV() != tab.CSV() {
+				t.Errorf("table → end-members → table changed:\n%s\n%s", tab.CSV(), back.CSV())
+			}
+		})
+	}
+	tab, _ := SourcesTable("global")
+	bad := []struct {
+		name      string
+		row, col  int
+		text, msg string
+	}{
+		{"source", 0, 1, "volcano", "row 1, column source"},
+		{"ratio", 1, 2, "Fe/Na", "row 2, column ratio"},
+		{"number", 2, 3, "lots", `row 3, column low: "lots" is not a number`},
+		{"shape", 0, 6, "gaussian", "row 1, column shape"},
+		{"range", 0, 3, "5", "row 1 (silicate"},
+	}
+	for _, b := range bad {
+		t.Run(b.name, func(t *testing.T) {
+			tt := tab.Clone()
+			tt.Rows[b.row][b.col] = b.text
+			_, err := parseEndMembers(tt)
+			if err == nil || !strings.Contains(err.Error(), b.msg) {
+				t.Errorf("got %v, want an error containing %q", err, b.msg)
+			}
+		})
+	}
+	if _, err := SourcesTable("chalk"); err == nil {
+		t.Errorf("an unknown preset was accepted")
+	}
+	_ = mix.Silicate
+}
+
+func TestRainVWM(t *testing.T) {
+	tab := &Table{Columns: []string{"precipitation", "Na", "Cl"}, Units: []string{"mm", "µmol/L", "µmol/L"},
+		Rows: [][]string{{"300", "10", "20"}, {"100", "30", "40"}}}
+	c, err := rainVWM(tab)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// VWM = Σ c P / Σ P (methods brief §1.3): Na (3000 + 3000)/400 = 15, Cl (6000 + 4000)/400 = 25.
+	if c[chem.Na] != 15 || c[chem.Cl] != 25 {
+		t.Errorf("VWM Na %g Cl %g, want 15 and 25", c[chem.Na], c[chem.Cl])
+	}
+	tab.Rows[1][2] = "n/a"
+	if _, err := rainVWM(tab); err == nil || !strings.Contains(err.Error(), "row 2, column Cl") {
+		t.Errorf("bad cell: got %v, want row 2, column Cl", err)
+	}
+	tab.Units[1] = "mg/L"
+	if _, err := rainVWM(tab); err == nil || !strings.Contains(err.Error(), "µmol/L") {
+		t.Errorf("mg/L rain: got %v, want a request for µmol/L", err)
+	}
+}
+
+func TestPeriod(t *testing.T) {
+	rec := discharge.NewRecord("q", discharge.Date(2021, 1, 1), []float64{1, 2, 3, 4, 5})
+	s := &Site{HasStart: true, Start: discharge.Date(2021, 1, 2), HasEnd: true, End: discharge.Date(2021, 1, 4)}
+	got, err := period(rec, s)
+	if err != nil || got.Len() != 3 || got.Q[0] != 2 || got.Q[2] != 4 {
+		t.Errorf("period: %v %v, want days 2..4", got, err)
+	}
+	s.End = discharge.Date(2021, 2, 1)
+	if _, err := period(rec, s); err == nil || !strings.Contains(err.Error(), "outside the discharge record") {
+		t.Errorf("end outside: got %v", err)
+	}
+}
