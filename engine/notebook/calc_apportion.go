@@ -3,6 +3,7 @@ package notebook
 import (
 	"fmt"
 	"math"
+	"runtime"
 
 	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
@@ -55,6 +56,11 @@ func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
 }
 
 func init() { Register(KindApportionment, computeApportionment) }
+
+// ChunkDraws is the number of sample-draws the inverse model works through
+// between progress reports when it runs on one goroutine (in the browser,
+// or with Document.Workers = 1).
+var ChunkDraws = 20000
 
 // forwardRatios takes the forward model's silicate ratios from the first
 // silicate end-member: the central value, and as 1σ a quarter of the prior
@@ -149,10 +155,26 @@ func computeApportionment(e *Env) (*Output, error) {
 			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
 				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
 		}
-		res, err := mix.Invert(e.Ctx, p, &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.doc.Workers,
-			Progress: func(done, total int) { e.Report(done, total) }})
-		if err != nil {
-			return nil, err
+		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.doc.Workers}
+		var res *mix.Result
+		if e.doc.Workers == 1 || runtime.GOOS == "js" {
+			// One goroutine, in chunks: the progress callback runs between
+			// chunks, so a page can yield to the browser there. The chunk
+			// size does not change the result.
+			run, err := mix.NewRun(p, mo)
+			if err != nil {
+				return nil, err
+			}
+			for !run.Step(e.Ctx, ChunkDraws) {
+				e.Report(int(run.Progress()*float64(run.Total())), run.Total())
+			}
+			e.Report(run.Total(), run.Total())
+			res = run.Result()
+		} else {
+			mo.Progress = func(done, total int) { e.Report(done, total) }
+			if res, err = mix.Invert(e.Ctx, p, mo); err != nil {
+				return nil, err
+			}
 		}
 		if err := e.Ctx.Err(); err != nil {
 			return nil, err

@@ -291,3 +291,33 @@ func TestInsertChecksCells(t *testing.T) {
 		t.Errorf("editing a clone changed the original")
 	}
 }
+
+func TestChunkedInverseMatches(t *testing.T) {
+	// The demo computed on one goroutine in chunks, with progress, gives the
+	// stored results (computed on all cores).
+	d, err := loadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.Workers = 1
+	reports := 0
+	last := Progress{}
+	err = d.Recompute(context.Background(), func(p Progress) {
+		if p.Cell == "apportionment" {
+			reports++
+			if p.Done < last.Done && last.Cell == p.Cell {
+				t.Errorf("progress went back: %v after %v", p, last)
+			}
+			last = p
+		}
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if reports < 5 || last.Done != last.Total {
+		t.Errorf("%d progress reports ending at %d of %d; want several, ending at the total", reports, last.Done, last.Total)
+	}
+	if v, err := d.Verify(); err != nil || !v.Match {
+		t.Errorf("chunked run does not match the stored results: %v %v", v, err)
+	}
+}

@@ -207,3 +207,11 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+func loadFile(path string) (*Document, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	return Parse(b, filepath.Base(path))
+}
