@@ -137,7 +137,7 @@ func TestParseTracer(t *testing.T) {
 
 func TestQuantilesAgainstSort(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 3))
-	for _, n := range []int{1, 2, 3, 10, 41, 1000} {
+	for _, n := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 39, 40, 41, 42, 80, 81, 1000, 1001} {
 		for _, dup := range []bool{false, true} {
 			v := make([]float64, n)
 			for i := range v {

@@ -5,33 +5,65 @@ import "slices"
 // interval returns the 2.5 %, 50 % and 97.5 % quantiles of v (linear
 // interpolation between order statistics, Hyndman & Fan 1996 type 7, the
 // default of R and NumPy; from memory). It reorders v. Selection instead of
-// sorting keeps it linear in len(v).
+// sorting keeps it linear in len(v): the median splits v, and the outer
+// quantiles are selected within its halves.
 func interval(v []float64) Interval {
-	return Interval{quantile(v, 0.025), quantile(v, 0.5), quantile(v, 0.975)}
+	n := len(v)
+	im, _ := qindex(n, 0.5)
+	vim := selectK(v, im) // now v[:im] <= vim <= v[im+1:]
+	left, right := v[:im], v[im+1:]
+	// stat returns the k-th order statistic and the (k+1)-th (or the k-th
+	// again at the end), selecting only within the half that holds them.
+	stat := func(k int) (float64, float64) {
+		var part []float64
+		var j int
+		switch {
+		case k == im:
+			if len(right) == 0 {
+				return vim, vim
+			}
+			return vim, minOf(right)
+		case k < im:
+			part, j = left, k
+		default:
+			part, j = right, k-im-1
+		}
+		a := selectK(part, j)
+		switch {
+		case j+1 < len(part):
+			return a, minOf(part[j+1:])
+		case k < im:
+			return a, vim
+		}
+		return a, a
+	}
+	q := func(p float64) float64 {
+		i, f := qindex(n, p)
+		a, b := stat(i)
+		if f == 0 {
+			return a
+		}
+		return a + f*(b-a)
+	}
+	return Interval{q(0.025), q(0.5), q(0.975)}
 }
 
-// quantile returns the type-7 p-quantile of v, reordering v.
-func quantile(v []float64, p float64) float64 {
-	n := len(v)
-	if n == 1 {
-		return v[0]
-	}
+// qindex returns the integer and fractional parts of the type-7 position
+// (n-1) p.
+func qindex(n int, p float64) (int, float64) {
 	h := p * float64(n-1)
 	i := int(h)
-	f := h - float64(i)
-	lo := selectK(v, i)
-	if f == 0 || i+1 >= n {
-		return lo
-	}
-	// After selection every element right of i is >= v[i]; the next order
-	// statistic is their minimum.
-	hi := v[i+1]
-	for _, x := range v[i+2:] {
-		if x < hi {
-			hi = x
+	return i, h - float64(i)
+}
+
+func minOf(v []float64) float64 {
+	m := v[0]
+	for _, x := range v[1:] {
+		if x < m {
+			m = x
 		}
 	}
-	return lo + f*(hi-lo)
+	return m
 }
 
 // selectK reorders v so that v[k] is its k-th smallest element, smaller or
