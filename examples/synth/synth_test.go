@@ -62,7 +62,7 @@ func TestExamplesAreCurrent(t *testing.T) {
 				t.Fatal(err)
 			}
 			if got := d.Marshal(); string(got) != string(want) {
-				t.Errorf("%s is stale: run go run ./examples/gen", ex.File)
+				t.Errorf("%s is stale: the engine or the truth changed; run go run ./examples/gen && go test ./engine/cmd/lixiv -update", ex.File)
 			}
 		})
 	}
