@@ -19,9 +19,9 @@
 //     alkalinity. Alkalinity is taken as HCO3− in charge terms; at a known
 //     pH it is split into HCO3− and CO3²− with K2 of Plummer & Busenberg
 //     (1982) for display, which leaves TZ− unchanged (see ChargeBalance).
-//  2. NICB = (TZ+ − TZ−)/TZ+ × 100 and CBE = (TZ+ − TZ−)/(TZ+ + TZ−) ×
-//  100. Both are reported; Options.Measure says which one the thresholds
-//     apply to (NICB by default; CBE is about half of NICB).
+//  2. NICB = 100 (TZ+ − TZ−)/TZ+ and CBE = 100 (TZ+ − TZ−)/(TZ+ + TZ−),
+//     in percent. Both are reported; Options.Measure says which one the
+//     thresholds apply to (NICB by default; CBE is about half of NICB).
 //  3. Status from the thresholds (DefaultThresholds: |NICB| ≤ 5 % accepted,
 //     5-10 % flagged, > 10 % rejected; common practice), which the user can
 //     change. Dilute waters often warrant wider limits (common practice).
