@@ -2,6 +2,7 @@ package sample
 
 import (
 	"bytes"
+	"math"
 	"strings"
 	"time"
 )
@@ -48,18 +49,21 @@ func parseDate(b []byte) (dateVal, bool) {
 	}
 	if b[0] >= '0' && b[0] <= '9' {
 		n1, i, w1 := digits(b, 0)
-		if i == len(b) || b[i] == '.' && w1 <= 5 && allSerial(b[i+1:]) && w1 != 2 && w1 != 1 {
+		if i == len(b) || b[i] == '.' && w1 >= 5 && allSerial(b[i+1:]) {
 			switch {
 			case w1 == 8 && i == len(b): // 20240305
 				d.y, d.a, d.b = n1/10000, n1/100%100, n1%100
 				return d, validYMD(d.y, d.a, d.b)
-			case w1 >= 1 && w1 <= 7:
+			case w1 >= 5 && w1 <= 7:
+				// Excel serial days from 10000 (1927-05-18): shorter numbers
+				// are more likely years or codes than dates.
 				v, ok := parseNumber(b, '.')
-				if !ok || v < 1 || v > 2958465 {
+				if !ok || v < 10000 || v > 2958465 {
 					return d, false
 				}
 				d.serial = true
-				d.serialNs = int64(v*86400*1e9 + 0.5)
+				d.serialNs = int64(math.Round(v*86400e3)) * 1e6 // to the millisecond
+				d.clock = v != math.Trunc(v)
 				return d, true
 			}
 			return d, false

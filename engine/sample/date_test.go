@@ -39,7 +39,7 @@ func TestParseDate(t *testing.T) {
 		{"45356.4375", DateAuto, utc(2024, 3, 5, 10, 30, 0), true},
 		{"2024-02-30", DateAuto, time.Time{}, false}, {"2023-02-29", DateAuto, time.Time{}, false},
 		{"2024-13-01", DateAuto, time.Time{}, false}, {"05/03/24", DayFirst, time.Time{}, false},
-		{"yesterday", DateAuto, time.Time{}, false}, {"2024-03-05T25:00", DateAuto, time.Time{}, false},
+		{"yesterday", DateAuto, time.Time{}, false}, {"2024", DateAuto, time.Time{}, false}, {"9999", DateAuto, time.Time{}, false}, {"2024-03-05T25:00", DateAuto, time.Time{}, false},
 		{"13/13/2024", DayFirst, time.Time{}, false}, {"", DateAuto, time.Time{}, false},
 	}
 	for _, tc := range tests {

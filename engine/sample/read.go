@@ -80,7 +80,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	}
 	lr.comma = comma
 	if st, ok := r.(interface{ Stat() (os.FileInfo, error) }); ok {
-		if fi, err := st.Stat(); err == nil && whole == false {
+		if fi, err := st.Stat(); err == nil && !whole {
 			im.sizeHint = int(fi.Size() / int64(max(1, len(peek)/max(1, bytes.Count(peek, []byte{'\n'})))))
 		}
 	}
@@ -693,7 +693,7 @@ func (im *importer) setTime(s *Sample, c *plan, d dateVal, f []byte, line int) {
 		im.meta(s, c, f)
 		return
 	}
-	s.Time, s.HasTime, s.DateOnly = tm, true, !d.clock && !d.serial
+	s.Time, s.HasTime, s.DateOnly = tm, true, !d.clock
 }
 
 // finish resolves dates whose order the whole column decides, joins the
