@@ -45,3 +45,18 @@ func BenchmarkStep20x2000(b *testing.B) {
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(20*2000), "ns/sample-draw")
 }
+
+// The notebook's default inversion: corrected waters, evaporite, silicate
+// and carbonate end-members, Ca/Na, Mg/Na and HCO3/Na.
+func BenchmarkInvert100x10000Default(b *testing.B) {
+	truth, prior := catchment()
+	ws, _ := catchmentWaters(truth[1:], 100, 0.02, 1)
+	p := Problem{EndMembers: prior[1:], Tracers: []Tracer{CaNa, MgNa, HCO3Na}, Waters: ws}
+	o := &Options{Draws: 10000, Seed: 1}
+	for b.Loop() {
+		if _, err := Invert(context.Background(), p, o); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(100*10000), "ns/sample-draw")
+}

@@ -13,7 +13,7 @@ package mix
 // the minimum misfit is sum w t² - zᵀz. That minimum bounds the constrained
 // one from below, so most draws are rejected right there. When y is
 // feasible (all a >= 0) it is the constrained minimum; otherwise, or when H
-// is singular, the draw goes to the general face-enumerating solver.
+// is singular, the minimum lies on the simplex boundary (boundary.go).
 
 // reduceTable returns, for every draw and tracer, E_j - E_r for j < r and
 // E_r in the last place (r = n - 1).
@@ -125,7 +125,9 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 				}
 			}
 		}
-		if chi2, ok := r.general(pr, d, bound, &a); ok {
+		y0, y1, y2 := boundary4(h00, h10, h11, h20, h21, h22, b0, b1, b2)
+		a = [MaxEndMembers]float64{y0, y1, y2, max(0, 1-y0-y1-y2)}
+		if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
 			sr.keep(d, chi2, a[:n])
 		}
 	}
@@ -204,7 +206,9 @@ func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 				}
 			}
 		}
-		if chi2, ok := r.general(pr, d, bound, &a); ok {
+		y0, y1 := boundary3(h00, h10, h11, b0, b1)
+		a = [MaxEndMembers]float64{y0, y1, max(0, 1-y0-y1)}
+		if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
 			sr.keep(d, chi2, a[:n])
 		}
 	}
