@@ -354,3 +354,16 @@ func (c *CellCard) FillPreset() {
 	}
 	c.R.S.LoadTable(c.V.ID, t, "the "+preset+" preset")
 }
+
+// EmptyTableHint says what an empty table is for and how to fill it.
+func (c *CellCard) EmptyTableHint() string {
+	switch notebook.Kind(c.V.Kind) {
+	case notebook.KindAtmosphere:
+		return "No rain chemistry yet. The rain method needs it: paste a table of rain samples below, or open a CSV/TSV file. The sea-salt method does without."
+	case notebook.KindDischarge:
+		return "No discharge record yet: drop a CSV/TSV file of dates and daily discharge on the page, or paste one below."
+	case notebook.KindSamples:
+		return "No samples yet: drop a CSV/TSV file of stream samples on the page, or paste rows copied from a spreadsheet below (with the header row)."
+	}
+	return "The table is empty: paste rows below, or use \"Fill from preset\"."
+}

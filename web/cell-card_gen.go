@@ -467,155 +467,60 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							}
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "table-wrap"}}}
+							if len(c.V.Table.Columns) == 0 {
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(c.EmptyTableHint())
+							}
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							{
-								vgparent := vgn
-								_ = vgparent
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+							if len(c.V.Table.Columns) > 0 {
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "table-wrap"}}}
 								vgparent.AppendChild(vgn)
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "table", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "data"}}}
-								vgparent.AppendChild(vgn)
-								vgn.AddAttrInterface("id", "table-"+c.V.ID)
 								{
 									vgparent := vgn
 									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "thead", Attr: []vugu.VGAttribute(nil)}
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "table", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "data"}}}
 									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("id", "table-"+c.V.ID)
 									{
 										vgparent := vgn
 										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
-										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute(nil)}
-										vgparent.AppendChild(vgn)
-										{
-											vgparent := vgn
-											_ = vgparent
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
-											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(vugu.HTML("row"))
-											for j, h := range c.V.Table.Columns {
-												var vgiterkey interface{} = j
-												_ = vgiterkey
-												j := j
-												_ = j
-												h := h
-												_ = h
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
-												vgparent.AppendChild(vgn)
-												{
-													vgparent := vgn
-													_ = vgparent
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "colname"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Column name"}}}
-													vgparent.AppendChild(vgn)
-													{
-														b, err := vjson.Marshal(h)
-														if err != nil {
-															panic(err)
-														}
-														vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "value", JSONVal: vjson.RawMessage(b)})
-													}
-													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-														EventType: "change",
-														Func:      func(event vugu.DOMEvent) { c.OnColumn(j, event) },
-														// TODO: implement capture, etc. mostly need to decide syntax
-													})
-												}
-											}
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
-											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(vugu.HTML(""))
-										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
-										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "units"}}}
-										vgparent.AppendChild(vgn)
-										{
-											vgparent := vgn
-											_ = vgparent
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
-											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(vugu.HTML("unit"))
-											for j := range c.V.Table.Columns {
-												var vgiterkey interface{} = j
-												_ = vgiterkey
-												j := j
-												_ = j
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
-												vgparent.AppendChild(vgn)
-												{
-													vgparent := vgn
-													_ = vgparent
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "unit"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Unit"}}}
-													vgparent.AppendChild(vgn)
-													{
-														b, err := vjson.Marshal(c.Unit(j))
-														if err != nil {
-															panic(err)
-														}
-														vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "value", JSONVal: vjson.RawMessage(b)})
-													}
-													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-														EventType: "change",
-														Func:      func(event vugu.DOMEvent) { c.OnUnit(j, event) },
-														// TODO: implement capture, etc. mostly need to decide syntax
-													})
-												}
-											}
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
-											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(vugu.HTML(""))
-										}
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
 										vgparent.AppendChild(vgn)
-									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tbody", Attr: []vugu.VGAttribute(nil)}
-									vgparent.AppendChild(vgn)
-									{
-										vgparent := vgn
-										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "thead", Attr: []vugu.VGAttribute(nil)}
 										vgparent.AppendChild(vgn)
-										for i, r := range c.Rows() {
-											var vgiterkey interface{} = i
-											_ = vgiterkey
-											i := i
-											_ = i
-											r := r
-											_ = r
+										{
+											vgparent := vgn
+											_ = vgparent
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
+											vgparent.AppendChild(vgn)
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
 											{
 												vgparent := vgn
 												_ = vgparent
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
 												vgparent.AppendChild(vgn)
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
-												vgparent.AppendChild(vgn)
-												vgn.SetInnerHTML(i + 1)
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
-												vgparent.AppendChild(vgn)
-												for j, v := range c.RowCells(r) {
+												vgn.SetInnerHTML(vugu.HTML("row"))
+												for j, h := range c.V.Table.Columns {
 													var vgiterkey interface{} = j
 													_ = vgiterkey
 													j := j
 													_ = j
-													v := v
-													_ = v
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute(nil)}
+													h := h
+													_ = h
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
 													vgparent.AppendChild(vgn)
 													{
 														vgparent := vgn
 														_ = vgparent
-														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute(nil)}
+														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "colname"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Column name"}}}
 														vgparent.AppendChild(vgn)
 														{
-															b, err := vjson.Marshal(v)
+															b, err := vjson.Marshal(h)
 															if err != nil {
 																panic(err)
 															}
@@ -623,44 +528,148 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 														}
 														vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 															EventType: "change",
-															Func:      func(event vugu.DOMEvent) { c.OnValue(i, j, event) },
+															Func:      func(event vugu.DOMEvent) { c.OnColumn(j, event) },
 															// TODO: implement capture, etc. mostly need to decide syntax
 														})
 													}
 												}
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
 												vgparent.AppendChild(vgn)
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute(nil)}
+												vgn.SetInnerHTML(vugu.HTML(""))
+											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
+											vgparent.AppendChild(vgn)
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "units"}}}
+											vgparent.AppendChild(vgn)
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
+												vgparent.AppendChild(vgn)
+												vgn.SetInnerHTML(vugu.HTML("unit"))
+												for j := range c.V.Table.Columns {
+													var vgiterkey interface{} = j
+													_ = vgiterkey
+													j := j
+													_ = j
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
+													vgparent.AppendChild(vgn)
+													{
+														vgparent := vgn
+														_ = vgparent
+														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "unit"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Unit"}}}
+														vgparent.AppendChild(vgn)
+														{
+															b, err := vjson.Marshal(c.Unit(j))
+															if err != nil {
+																panic(err)
+															}
+															vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "value", JSONVal: vjson.RawMessage(b)})
+														}
+														vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+															EventType: "change",
+															Func:      func(event vugu.DOMEvent) { c.OnUnit(j, event) },
+															// TODO: implement capture, etc. mostly need to decide syntax
+														})
+													}
+												}
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
+												vgparent.AppendChild(vgn)
+												vgn.SetInnerHTML(vugu.HTML(""))
+											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
+											vgparent.AppendChild(vgn)
+										}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
+										vgparent.AppendChild(vgn)
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tbody", Attr: []vugu.VGAttribute(nil)}
+										vgparent.AppendChild(vgn)
+										{
+											vgparent := vgn
+											_ = vgparent
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
+											vgparent.AppendChild(vgn)
+											for i, r := range c.Rows() {
+												var vgiterkey interface{} = i
+												_ = vgiterkey
+												i := i
+												_ = i
+												r := r
+												_ = r
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute(nil)}
 												vgparent.AppendChild(vgn)
 												{
 													vgparent := vgn
 													_ = vgparent
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "row-remove"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Remove row"}}}
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
 													vgparent.AppendChild(vgn)
-													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-														EventType: "click",
-														Func:      func(event vugu.DOMEvent) { c.R.S.RemoveRow(c.V.ID, i) },
-														// TODO: implement capture, etc. mostly need to decide syntax
-													})
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "rownum"}}}
+													vgparent.AppendChild(vgn)
+													vgn.SetInnerHTML(i + 1)
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
+													vgparent.AppendChild(vgn)
+													for j, v := range c.RowCells(r) {
+														var vgiterkey interface{} = j
+														_ = vgiterkey
+														j := j
+														_ = j
+														v := v
+														_ = v
+														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute(nil)}
+														vgparent.AppendChild(vgn)
+														{
+															vgparent := vgn
+															_ = vgparent
+															vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute(nil)}
+															vgparent.AppendChild(vgn)
+															{
+																b, err := vjson.Marshal(v)
+																if err != nil {
+																	panic(err)
+																}
+																vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "value", JSONVal: vjson.RawMessage(b)})
+															}
+															vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+																EventType: "change",
+																Func:      func(event vugu.DOMEvent) { c.OnValue(i, j, event) },
+																// TODO: implement capture, etc. mostly need to decide syntax
+															})
+														}
+													}
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n                "}
+													vgparent.AppendChild(vgn)
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute(nil)}
+													vgparent.AppendChild(vgn)
 													{
 														vgparent := vgn
 														_ = vgparent
-														vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "×"}
+														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "row-remove"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Remove row"}}}
 														vgparent.AppendChild(vgn)
+														vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+															EventType: "click",
+															Func:      func(event vugu.DOMEvent) { c.R.S.RemoveRow(c.V.ID, i) },
+															// TODO: implement capture, etc. mostly need to decide syntax
+														})
+														{
+															vgparent := vgn
+															_ = vgparent
+															vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "×"}
+															vgparent.AppendChild(vgn)
+														}
 													}
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
+													vgparent.AppendChild(vgn)
 												}
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n              "}
-												vgparent.AppendChild(vgn)
 											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
+											vgparent.AppendChild(vgn)
 										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 										vgparent.AppendChild(vgn)
 									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 									vgparent.AppendChild(vgn)
 								}
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-								vgparent.AppendChild(vgn)
 							}
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)

@@ -342,6 +342,7 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 	}
 	ch := plot.New(id, "Sources of "+cation+", per sample (median and 95 % interval)", "sample", "share of "+cation+" (fraction)")
 	ch.Height = 340
+	ch.Y.Min, ch.Y.Max, ch.Y.Fixed = 0, 1, true // shares
 	var segs []plot.Segment
 	for i, src := range sourceNames {
 		v := exact(t, cation+"_"+src)

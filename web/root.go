@@ -84,6 +84,7 @@ func (c *Root) loadDemo() {
 	} else {
 		c.S.Replace(doc, docFileName(doc))
 	}
+	c.Unsaved = false
 	if err != nil {
 		c.S.Message = "The demo budget could not be opened: " + err.Error()
 	}

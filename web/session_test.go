@@ -132,6 +132,7 @@ func TestParamLabel(t *testing.T) {
 		{"discharge_uncertainty_percent", "discharge uncertainty (%)"},
 		{"critical_chloride_umol", "critical chloride (µmol/L)"},
 		{"draws", "draws"},
+		{"nicb_flag_percent", "NICB flag (%)"},
 	}
 	for _, tt := range tests {
 		if got := ParamLabel(tt.key); got != tt.want {
@@ -141,8 +142,9 @@ func TestParamLabel(t *testing.T) {
 }
 
 func TestHeadlineOrder(t *testing.T) {
-	cells := []CellView{{Figures: []FigureView{{Name: "runoff"}, {Name: "samples read"},
-		{Name: "carbonate CO2 consumption per km²"}, {Name: "silicate CO2 consumption per km²"}}}}
+	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "samples read"},
+		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
+		{Name: "carbonate CO2 consumption per km²", Unit: "mol/km²/yr"}, {Name: "silicate CO2 consumption per km²", Unit: "mol/km²/yr"}}}}
 	got := Headline(cells, 3)
 	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff"}
 	for i := range want {

@@ -103,6 +103,11 @@ func ParamLabel(key string) string {
 	}
 	l := strings.ReplaceAll(key, "_", " ")
 	l = strings.ReplaceAll(l, " per ", "/")
+	for _, a := range []string{"nicb", "co2", "so4"} {
+		if strings.HasPrefix(l, a+" ") || l == a {
+			l = strings.ToUpper(a) + l[len(a):]
+		}
+	}
 	if strings.HasSuffix(l, "/cl") {
 		l = strings.ToUpper(l[:1]) + l[1:len(l)-3] + "/Cl (mol/mol)"
 		l = strings.Replace(l, "So4", "SO4", 1)
@@ -196,17 +201,22 @@ func Headline(cells []CellView, max int) []FigureView {
 	}
 	rank := func(f FigureView) int {
 		n := strings.ToLower(f.Name)
+		perArea := strings.Contains(f.Unit, "km²")
 		switch {
-		case strings.Contains(n, "co2") && strings.Contains(n, "silicate"):
+		case strings.Contains(n, "co2") && strings.Contains(n, "silicate") && perArea && !strings.Contains(f.Unit, "C"):
 			return 0
-		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate"):
+		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate") && perArea && !strings.Contains(f.Unit, "C"):
 			return 1
-		case strings.Contains(n, "co2"):
+		case strings.Contains(n, "silicate") && strings.Contains(n, "weathering rate"):
 			return 2
-		case strings.Contains(n, "silicate") && (strings.Contains(n, "weathering") || strings.Contains(n, "rate")):
+		case n == "runoff":
 			return 3
-		case strings.Contains(n, "runoff"):
+		case strings.Contains(n, "co2") && perArea:
 			return 4
+		case strings.Contains(n, "co2"):
+			return 6
+		case strings.Contains(n, "runoff"):
+			return 7
 		}
 		return 10
 	}

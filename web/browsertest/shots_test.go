@@ -32,6 +32,11 @@ func TestShots(t *testing.T) {
 		t.Fatal(err)
 	}
 	save(t, filepath.Join(dir, "page.png"), png)
+	top, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())
+	if err != nil {
+		t.Fatal(err)
+	}
+	save(t, filepath.Join(dir, "top.png"), top)
 	ids := eval[[]string](t, ctx, `[...document.querySelectorAll("section.cell")].map(e => e.id)`)
 	for _, id := range ids {
 		png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))

@@ -2,6 +2,7 @@ package plot
 
 import (
 	"fmt"
+	"math"
 	"strings"
 )
 
@@ -111,7 +112,9 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 			if finite(lo, hi) {
 				ylo, yhi := c.Y.Map(base+lo), c.Y.Map(base+hi)
 				xw := x + bw/2 - 6
-				if yhi < c.Y.hi { // cut at the top: an open arrow says the bound is off the plot
+				if bw < 10 { // narrow bars: a plain line, clipped at the plot's edge
+					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1f" stroke="#111" stroke-width="0.8" fill="none"/>`, x, ylo, math.Max(yhi, c.Y.hi))
+				} else if yhi < c.Y.hi { // cut at the top: an open arrow says the bound is off the plot
 					yhi = c.Y.hi
 					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fl4,-7l4,7" stroke="#111" stroke-width="1.2" fill="none"><title>upper bound %s, off the plot</title></path>`,
 						xw, ylo, yhi+1, xw-4, ylo, xw-4, yhi+8, esc(Number(base+hi)))
