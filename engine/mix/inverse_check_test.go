@@ -101,21 +101,23 @@ func TestProblemErrors(t *testing.T) {
 	tests := []struct {
 		name string
 		p    Problem
+		o    *Options
 	}{
-		{"no end-members", Problem{Tracers: []Tracer{CaNa}}},
-		{"seven end-members", Problem{EndMembers: seven, Tracers: []Tracer{CaNa}}},
-		{"no tracers", Problem{EndMembers: prior}},
-		{"tracer twice", Problem{EndMembers: prior, Tracers: []Tracer{CaNa, CaNa}}},
-		{"unknown tracer", Problem{EndMembers: prior, Tracers: []Tracer{NTracers}}},
-		{"isotope tracer, end-member without isotope", Problem{EndMembers: []EndMember{prior[0], noIso}, Tracers: []Tracer{Sr87Sr86}}},
-		{"reversed range", Problem{EndMembers: []EndMember{prior[0], badPrior}, Tracers: []Tracer{CaNa}}},
-		{"unnamed end-member", Problem{EndMembers: []EndMember{{Source: Silicate}}, Tracers: []Tracer{CaNa}}},
+		{"too many draws", Problem{EndMembers: prior, Tracers: []Tracer{CaNa}}, &Options{Draws: MaxDraws + 1}},
+		{"no end-members", Problem{Tracers: []Tracer{CaNa}}, nil},
+		{"seven end-members", Problem{EndMembers: seven, Tracers: []Tracer{CaNa}}, nil},
+		{"no tracers", Problem{EndMembers: prior}, nil},
+		{"tracer twice", Problem{EndMembers: prior, Tracers: []Tracer{CaNa, CaNa}}, nil},
+		{"unknown tracer", Problem{EndMembers: prior, Tracers: []Tracer{NTracers}}, nil},
+		{"isotope tracer, end-member without isotope", Problem{EndMembers: []EndMember{prior[0], noIso}, Tracers: []Tracer{Sr87Sr86}}, nil},
+		{"reversed range", Problem{EndMembers: []EndMember{prior[0], badPrior}, Tracers: []Tracer{CaNa}}, nil},
+		{"unnamed end-member", Problem{EndMembers: []EndMember{{Source: Silicate}}, Tracers: []Tracer{CaNa}}, nil},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			if _, err := Invert(context.Background(), tc.p, nil); err == nil {
+			if _, err := Invert(context.Background(), tc.p, tc.o); err == nil {
 				t.Error("got no error")
-			} else if _, err2 := NewRun(tc.p, nil); err2 == nil || err2.Error() != err.Error() {
+			} else if _, err2 := NewRun(tc.p, tc.o); err2 == nil || err2.Error() != err.Error() {
 				t.Errorf("NewRun error %v differs from Invert's %v", err2, err)
 			}
 		})

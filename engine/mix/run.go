@@ -2,11 +2,16 @@ package mix
 
 import (
 	"context"
+	"fmt"
 	"math/rand/v2"
 	"runtime"
 	"sync"
 	"sync/atomic"
 )
+
+// MaxDraws is the largest number of draws a run takes (the drawn ratios of
+// every draw are held in memory).
+const MaxDraws = 1_000_000
 
 // Run is an inversion in progress. Natively Invert drives it on all cores;
 // in the browser the caller drives it in chunks with Step, so that a
@@ -38,6 +43,9 @@ func NewRun(p Problem, o *Options) (*Run, error) {
 		return nil, err
 	}
 	opt := o.withDefaults()
+	if opt.Draws > MaxDraws {
+		return nil, fmt.Errorf("mix: %d draws; at most %d", opt.Draws, MaxDraws)
+	}
 	r := &Run{prob: p, opt: opt, n: len(p.EndMembers)}
 	r.src = make([]Source, r.n)
 	for j, e := range p.EndMembers {
