@@ -412,3 +412,60 @@ func TestExportsTableAndChart(t *testing.T) {
 		})
 	}
 }
+
+func TestUndoRedoKeys(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	name, before := co2Figure(t, ctx)
+	atm := cellOf(t, ctx, "atmosphere")
+	field := fmt.Sprintf(`document.getElementById("p-%s-na_per_cl").value`, atm)
+	original := eval[string](t, ctx, field)
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.5")
+	changed := figures(t, ctx)[name]
+	key := func(shift bool) {
+		gen := eval[string](t, ctx, `document.body.dataset.gen`)
+		eval[bool](t, ctx, fmt.Sprintf(`document.body.dispatchEvent(new KeyboardEvent("keydown", {key: "z", ctrlKey: true, shiftKey: %v, bubbles: true})) || true`, shift))
+		waitGen(t, ctx, gen)
+	}
+	key(false)
+	if got := eval[string](t, ctx, field); got != original {
+		t.Errorf("Na/Cl after Ctrl+Z: got %q, want %q", got, original)
+	}
+	if got := figures(t, ctx)[name]; got != before {
+		t.Errorf("%s after Ctrl+Z: got %q, want %q", name, got, before)
+	}
+	key(true)
+	if got := eval[string](t, ctx, field); got != "0.5" {
+		t.Errorf("Na/Cl after Ctrl+Shift+Z: got %q, want 0.5", got)
+	}
+	if got := figures(t, ctx)[name]; got != changed {
+		t.Errorf("%s after Ctrl+Shift+Z: got %q, want %q", name, got, changed)
+	}
+}
+
+func TestDropSamplesFile(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	block := samplesBlock(t, ctx, "DROP-1", "DROP-2", "DROP-3")
+	cols := eval[[]string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].map(e => e.value)`)
+	units := eval[[]string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr.units input")].map(e => e.value)`)
+	file := strings.Join(cols, "\t") + "\n" + strings.Join(units, "\t") + "\n" + block
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	text, _ := json.Marshal(file)
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { const dt = new DataTransfer();
+		dt.items.add(new File([%s], "new-samples.tsv", {type: "text/tab-separated-values"}));
+		document.querySelector(".page").dispatchEvent(new DragEvent("drop", {dataTransfer: dt, bubbles: true, cancelable: true}));
+		return true })()`, text))
+	waitGen(t, ctx, gen)
+	if got := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`); !strings.HasPrefix(got, "3 rows") {
+		t.Errorf("samples table after the drop: got %q, want 3 rows", got)
+	}
+	notes := eval[string](t, ctx, `document.querySelector("section.kind-samples .notes").textContent`)
+	if !strings.Contains(notes, "new-samples.tsv") {
+		t.Errorf("import note: got %q, want the file named", notes)
+	}
+}
