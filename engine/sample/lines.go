@@ -219,7 +219,7 @@ func detectComma(lines [][]byte) (comma byte, modal int) {
 		counts := map[int]int{}
 		for _, l := range lines {
 			fs = split(l, c, fs[:0], &scratch)
-			counts[trimmedLen(fs)]++
+			counts[len(fs)]++
 		}
 		m, n := 0, 0
 		for k, v := range counts {

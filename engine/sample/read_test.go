@@ -31,6 +31,8 @@ func TestReadDelimiters(t *testing.T) {
 		{"quoted fields", "\"Site\",\"Ca (mg/L)\",\"Na (mg/L)\"\n\"A\",\"40.078\",\"1\"\n", ',', '.'},
 		{"no final newline", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1", ',', '.'},
 		{"blank lines", "\n\nSite,Ca (mg/L),Na (mg/L)\n\nA,40.078,1\n\n", ',', '.'},
+		{"semicolon, decimal comma, trailing empty cells", "Site;Ca;Na;Remark\n;mg/L;mg/L;\nA;40,078;1,5;\nB;40,078;1,25;\nC;40,078;n.a.;dry\nD;40,078;2,5;\n", ';', ','},
+		{"tab with ragged trailing tabs", "Site\tCa (mg/L)\tNa (mg/L)\tNote\nA\t40.078\t1\t\nB\t40.078\t2\nC\t40.078\t3\tx\n", '\t', '.'},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -41,8 +43,8 @@ func TestReadDelimiters(t *testing.T) {
 			if tb.Comma != tc.comma || tb.Decimal != tc.dec {
 				t.Errorf("delimiter %q, decimal %q; want %q, %q", tb.Comma, tb.Decimal, tc.comma, tc.dec)
 			}
-			if len(tb.Samples) != 1 {
-				t.Fatalf("got %d samples, want 1", len(tb.Samples))
+			if len(tb.Samples) < 1 {
+				t.Fatalf("got no samples")
 			}
 			s := tb.Samples[0]
 			if s.Site != "A" || !near(s.C[chem.Ca], 1000, 1e-12) {
