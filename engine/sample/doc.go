@@ -35,7 +35,9 @@
 //     header and units-row units, a duplicated species) is reported and
 //     kept as text. Unknown columns are kept as text in Sample.Meta.
 //  5. Decimal mark: a comma when the delimiter is not a comma and the
-//     numeric cells use it ("0,25"), unless Options.Decimal sets it.
+//     numeric cells use it ("0,25"), unless Options.Decimal sets it. In a
+//     decimal-comma file a point is read as a decimal mark too; in a
+//     decimal-point file "1,234" is not a number and is reported.
 //  6. Rows: numbers are converted to the internal units. "<0.01", "< DL",
 //     "<LOD", "bdl" are censored: the limit is kept in Sample.Censored and
 //     C holds the substitute chosen by Options.Policy (half the limit by

@@ -162,6 +162,9 @@ func TestReadCensored(t *testing.T) {
 	}
 	// Substitute reruns a table under another policy; the limits stay.
 	tb := ParseText(text, "c.csv", Options{})
+	if n := tb.NCensored(); n != 4 {
+		t.Errorf("NCensored = %d, want 4", n)
+	}
 	tb.Substitute(AtLimit)
 	if got := tb.Samples[0].C[chem.Ca]; got != 0.4 {
 		t.Errorf("after Substitute(AtLimit) Ca = %v, want 0.4", got)

@@ -104,6 +104,15 @@ func (t *Table) Species() []chem.Species {
 	return out
 }
 
+// NCensored returns the number of values below detection in the table.
+func (t *Table) NCensored() int {
+	n := 0
+	for _, s := range t.Samples {
+		n += len(s.Censored)
+	}
+	return n
+}
+
 // Substitute sets the value of every censored concentration in the table to
 // the substitute given by policy p, so that results can be recomputed at 0,
 // half the limit and the limit (a sensitivity run). The limits are kept.
