@@ -68,32 +68,32 @@ func (lr *lineReader) next() (fields [][]byte, line int, ok bool) {
 	}
 	line = lr.line
 	lr.badQ = false
-	if bytes.IndexByte(b, '"') >= 0 && inQuote(b, lr.comma) {
-		// A quoted field runs onto the next lines.
-		lr.rec = append(lr.rec[:0], b...)
-		for {
-			nb, ok := lr.readLine(nil)
-			if !ok {
-				lr.badQ = true
-				break
+	if bytes.IndexByte(b, '"') >= 0 {
+		if q, _ := scanQuote(b, lr.comma, false, true); q {
+			// A quoted field runs onto the next lines.
+			lr.rec = append(lr.rec[:0], b...)
+			for q {
+				nb, ok := lr.readLine(nil)
+				if !ok {
+					lr.badQ = true
+					break
+				}
+				lr.rec = append(lr.rec, '\n')
+				lr.rec = append(lr.rec, nb...)
+				q, _ = scanQuote(nb, lr.comma, true, false)
 			}
-			lr.rec = append(lr.rec, '\n')
-			lr.rec = append(lr.rec, nb...)
-			if !inQuote(lr.rec, lr.comma) {
-				break
-			}
+			b = lr.rec
 		}
-		b = lr.rec
 	}
 	lr.fields = split(b, lr.comma, lr.fields[:0], &lr.scratch)
 	return lr.fields, line, true
 }
 
-// inQuote reports whether b ends inside a quoted field. A quote opens a
-// quoted field only at the start of a field.
-func inQuote(b []byte, comma byte) bool {
-	q := false
-	start := true
+// scanQuote follows the quoting through b, starting inside a quoted field
+// when q is true and at the start of a field when start is true, and
+// returns the state at the end. A quote opens a quoted field only at the
+// start of a field.
+func scanQuote(b []byte, comma byte, q, start bool) (bool, bool) {
 	for i := 0; i < len(b); i++ {
 		c := b[i]
 		switch {
@@ -113,7 +113,7 @@ func inQuote(b []byte, comma byte) bool {
 			start = false
 		}
 	}
-	return q
+	return q, start
 }
 
 // split cuts a record into fields. Quoted fields are unquoted into scratch.

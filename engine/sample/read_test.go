@@ -408,3 +408,20 @@ func TestMaxProblems(t *testing.T) {
 		t.Errorf("got %q, want %q", tb.Problems[10].Error(), want)
 	}
 }
+
+func TestReadOpenQuoteLongFile(t *testing.T) {
+	// A quote left open swallows the rest of the file into one field, which
+	// is reported; reading stays linear in the file size.
+	var b strings.Builder
+	b.WriteString("Sample,Na (mg/L),Note\nA,1,\"open\n")
+	for i := 0; i < 100000; i++ {
+		b.WriteString("B,2,x\n")
+	}
+	tb := ParseText(b.String(), "q.csv", Options{})
+	if len(tb.Samples) != 1 || tb.Problems.Count(ErrQuote) != 1 {
+		t.Errorf("got %d samples and problems %v; want 1 sample and one ErrQuote", len(tb.Samples), tb.Problems)
+	}
+	if got := len(tb.Samples[0].Meta["Note"]); got != len("open")+100000*len("\nB,2,x") {
+		t.Errorf("note holds %d bytes, want the whole rest of the file", got)
+	}
+}
