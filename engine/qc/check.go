@@ -91,6 +91,12 @@ type Options struct {
 	Thresholds Thresholds
 	// Measure is the imbalance the thresholds apply to: NICB (default) or CBE.
 	Measure Measure
+	// DiluteBelow and Dilute give other thresholds for dilute waters, whose
+	// TZ+ (µeq/L) is below DiluteBelow: such waters often tolerate ±10 %
+	// (common practice, no source; science.md §3.1). Off when DiluteBelow
+	// is 0 or Dilute is the zero value.
+	DiluteBelow float64
+	Dilute      Thresholds
 	// OutlierZ is the robust z-score beyond which a ratio to chloride is
 	// flagged; 0 means 3.5 (Iglewicz & Hoaglin 1993, modified z-score;
 	// from memory).
@@ -148,7 +154,11 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 		if opt.Measure == CBE {
 			x = r.Balance.CBE
 		}
-		r.Status = th.Classify(x)
+		lim := th
+		if opt.DiluteBelow > 0 && opt.Dilute != (Thresholds{}) && r.Balance.TZPlus < opt.DiluteBelow {
+			lim = opt.Dilute
+		}
+		r.Status = lim.Classify(x)
 		if r.Balance.TZPlus == 0 || r.Balance.TZMinus == 0 {
 			r.Status = Unknown
 		}
@@ -156,9 +166,9 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 		case Unknown:
 			r.Warnings = append(r.Warnings, fmt.Errorf("%w: need at least one cation and one anion", ErrNoBalance))
 		case Flagged:
-			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s %+.1f %% (accepted within ±%g %%)", ErrImbalance, opt.Measure, x, th.OK))
+			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s %+.1f %% (accepted within ±%g %%)", ErrImbalance, opt.Measure, x, lim.OK))
 		case Rejected:
-			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s %+.1f %% (rejected beyond ±%g %%)", ErrRejected, opt.Measure, x, th.Reject))
+			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s %+.1f %% (rejected beyond ±%g %%)", ErrRejected, opt.Measure, x, lim.Reject))
 		}
 		for _, m := range Majors {
 			if s.C.Has(m) || m == chem.Alk && s.C.Has(chem.HCO3) || s.IsCensored(m) {

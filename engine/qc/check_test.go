@@ -103,6 +103,15 @@ func TestCheckFlags(t *testing.T) {
 	if rs[0].Status != Accepted || rs[1].Status != Flagged {
 		t.Errorf("CBE statuses %v %v, want ok flag (CBE 1.67 %%, 5.17 %%)", rs[0].Status, rs[1].Status)
 	}
+	// Wider limits for dilute water: S2 has TZ+ 610 µeq/L.
+	rs = Check(table(t, text), Options{DiluteBelow: 700, Dilute: Thresholds{OK: 10, Reject: 20}})
+	if rs[1].Status != Accepted {
+		t.Errorf("dilute S2 status %v, want ok within ±10 %%", rs[1].Status)
+	}
+	rs = Check(table(t, text), Options{DiluteBelow: 500, Dilute: Thresholds{OK: 10, Reject: 20}})
+	if rs[1].Status != Flagged {
+		t.Errorf("S2 above the dilute limit: status %v, want flag", rs[1].Status)
+	}
 }
 
 func TestCheckOutliers(t *testing.T) {
