@@ -24,7 +24,8 @@
 //     thresholds apply to (NICB by default; CBE is about half of NICB).
 //  3. Status from the thresholds (DefaultThresholds: |NICB| ≤ 5 % accepted,
 //     5-10 % flagged, > 10 % rejected; common practice), which the user can
-//     change. Dilute waters often warrant wider limits (common practice).
+//     change. Dilute waters may get wider limits (Options.DiluteBelow and
+//     Options.Dilute; common practice).
 //  4. Missing major ions (Na, K, Ca, Mg, Cl, SO4, alkalinity) and the count
 //     of censored values, whose substitutes (sample.Policy) enter the sums.
 //  5. Outliers: for each species in Options.Ratios, the robust z-score
