@@ -44,7 +44,13 @@ var Examples = []Example{
 		}
 		// Two tracers for two end-members: over-determined by one, so the
 		// misfit test has something to say (methods brief §7.4).
-		return d, d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na")
+		if err := d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na"); err != nil {
+			return nil, err
+		}
+		c := notebook.NewCell(notebook.KindChart, "chart", "Silicate CO2 consumption per litre through the seasons")
+		s := c.Settings.(*notebook.ChartSettings)
+		s.X, s.Y = "co2.per-litre.date", "co2.per-litre.silicate"
+		return d, d.Insert(c, -1)
 	}},
 	{"examples/marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
 		return MarlowFen().Budget("global", "forward", 2000, 500,
