@@ -117,7 +117,7 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 					y3 := 1 - y0 - y1 - y2
 					if y0 >= 0 && y1 >= 0 && y2 >= 0 && y3 >= 0 {
 						a = [MaxEndMembers]float64{y0, y1, y2, y3}
-						if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+						if chi2 := r.misfit4(pr, d, &a); chi2 <= bound {
 							sr.keep(d, chi2, a[:n])
 						}
 						continue
@@ -127,7 +127,7 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		}
 		y0, y1, y2 := boundary4(h00, h10, h11, h20, h21, h22, b0, b1, b2)
 		a = [MaxEndMembers]float64{y0, y1, y2, max(0, 1-y0-y1-y2)}
-		if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+		if chi2 := r.misfit4(pr, d, &a); chi2 <= bound {
 			sr.keep(d, chi2, a[:n])
 		}
 	}
@@ -199,7 +199,7 @@ func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 				y2 := 1 - y0 - y1
 				if y0 >= 0 && y1 >= 0 && y2 >= 0 {
 					a = [MaxEndMembers]float64{y0, y1, y2}
-					if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+					if chi2 := r.misfit3(pr, d, &a); chi2 <= bound {
 						sr.keep(d, chi2, a[:n])
 					}
 					continue
@@ -208,8 +208,62 @@ func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		}
 		y0, y1 := boundary3(h00, h10, h11, b0, b1)
 		a = [MaxEndMembers]float64{y0, y1, max(0, 1-y0-y1)}
-		if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+		if chi2 := r.misfit3(pr, d, &a); chi2 <= bound {
 			sr.keep(d, chi2, a[:n])
 		}
 	}
+}
+
+// misfit4 is Run.misfit for four end-members, from the reduced rows:
+// E_k a - d_k = u_kᵀ y + E_kr - d_k, with the isotope row from the drawn
+// ratios.
+func (r *Run) misfit4(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
+	const n = 4
+	base := d * int(NTracers) * n
+	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
+	mr := pr.m
+	chi2 := 0.0
+	if pr.iso >= 0 {
+		mr--
+		o := base + int(SrNa)*n
+		s := (*[n]float64)(r.table[o : o+n])
+		o = base + int(Sr87Sr86)*n
+		R := (*[n]float64)(r.table[o : o+n])
+		rm := pr.riso
+		v := s[0]*(R[0]-rm)*a0 + s[1]*(R[1]-rm)*a1 + s[2]*(R[2]-rm)*a2 + s[3]*(R[3]-rm)*a3
+		chi2 = pr.w[pr.iso] * v * v
+	}
+	for k := 0; k < mr; k++ {
+		o := base + pr.par[k]*n
+		u := (*[n]float64)(r.rtab[o : o+n])
+		v := u[0]*a0 + u[1]*a1 + u[2]*a2 + (u[3] - pr.d[k])
+		chi2 += pr.w[k] * v * v
+	}
+	return chi2
+}
+
+// misfit3 is misfit4 for three end-members.
+func (r *Run) misfit3(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
+	const n = 3
+	base := d * int(NTracers) * n
+	a0, a1, a2 := a[0], a[1], a[2]
+	mr := pr.m
+	chi2 := 0.0
+	if pr.iso >= 0 {
+		mr--
+		o := base + int(SrNa)*n
+		s := (*[n]float64)(r.table[o : o+n])
+		o = base + int(Sr87Sr86)*n
+		R := (*[n]float64)(r.table[o : o+n])
+		rm := pr.riso
+		v := s[0]*(R[0]-rm)*a0 + s[1]*(R[1]-rm)*a1 + s[2]*(R[2]-rm)*a2
+		chi2 = pr.w[pr.iso] * v * v
+	}
+	for k := 0; k < mr; k++ {
+		o := base + pr.par[k]*n
+		u := (*[n]float64)(r.rtab[o : o+n])
+		v := u[0]*a0 + u[1]*a1 + (u[2] - pr.d[k])
+		chi2 += pr.w[k] * v * v
+	}
+	return chi2
 }
