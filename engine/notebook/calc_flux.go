@@ -79,6 +79,19 @@ func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int,
 func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncertainty, []string, error) {
 	var warns []string
 	opt := v.Options
+	if opt.Method == flux.Rating {
+		// ln C needs C > 0: a series with zero or negative values (clamped
+		// carbonate, CO2 released by sulfuric acid) would lose those samples
+		// from the fit, so it takes the interpolation estimator instead.
+		// A few non-positive Monte Carlo draws (under 1 %) only cost the
+		// bootstrap replicates that pick them, which Bootstrap reports.
+		point, draws, total := nonPositive(s)
+		if point > 0 || float64(draws) > 0.01*float64(total) {
+			warns = append(warns, fmt.Sprintf("%s: %d sample values and %d of %d draws are zero or negative, which a rating curve cannot fit; used interpolation",
+				s.Name, point, draws, total))
+			opt.Method = flux.PeriodWeighted
+		}
+	}
 	r, err := flux.Estimate(v.Record, s, opt)
 	if err != nil && opt.Method == flux.Rating {
 		warns = append(warns, fmt.Sprintf("%s: the rating curve failed (%v); used interpolation", s.Name, err))
@@ -266,6 +279,27 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	out.Warnings = groupSeries(out.Warnings, series)
 	return out, nil
+}
+
+// nonPositive counts the sample values of a series that are zero or
+// negative, and the kept draws that are, out of all kept draws.
+func nonPositive(s flux.Series) (point, draws, total int) {
+	for i, c := range s.C {
+		if c <= 0 {
+			point++
+		}
+		if s.Draws != nil && s.Draws[i] != nil {
+			for d, x := range s.Draws[i] {
+				if s.Weights[i][d] > 0 {
+					total++
+					if x <= 0 {
+						draws++
+					}
+				}
+			}
+		}
+	}
+	return point, draws, total
 }
 
 func countFinite(x []float64) int {

@@ -7,6 +7,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
+	"lixiv/engine/flux"
 	"lixiv/engine/mix"
 )
 
@@ -142,5 +143,37 @@ func TestPeriod(t *testing.T) {
 	s.End = discharge.Date(2021, 2, 1)
 	if _, err := period(rec, s); err == nil || !strings.Contains(err.Error(), "outside the discharge record") {
 		t.Errorf("end outside: got %v", err)
+	}
+}
+
+func TestRatingCurveNeedsPositiveValues(t *testing.T) {
+	q := make([]float64, 365)
+	for i := range q {
+		q[i] = 1 + float64(i%30)/10
+	}
+	first := discharge.Date(2021, 1, 1)
+	v := &Fluxes{Record: discharge.NewRecord("q", first, q), Options: flux.Options{Method: flux.Rating, AreaKm2: 10, FirstMonth: 1}}
+	days := []discharge.Day{first + 10, first + 100, first + 200, first + 300}
+	for _, tt := range []struct {
+		name     string
+		c        []float64
+		fallback bool
+	}{
+		{"positive", []float64{10, 12, 9, 11}, false},
+		{"one negative", []float64{10, -2, 9, 11}, true},
+	} {
+		t.Run(tt.name, func(t *testing.T) {
+			r, _, warns, err := v.estimate(flux.Series{Name: "x", Days: days, C: tt.c}, false)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got := r.Method != flux.Rating
+			if got != tt.fallback {
+				t.Errorf("method %v with warnings %q; want fallback %v", r.Method, warns, tt.fallback)
+			}
+			if tt.fallback && (len(warns) == 0 || !strings.Contains(warns[0], "used interpolation")) {
+				t.Errorf("fallback without saying so: %q", warns)
+			}
+		})
 	}
 }
