@@ -113,38 +113,43 @@ func (r *Result) weight(sr *SampleResult, k int) float64 {
 // that the sources add up to what was measured (the misfit is spread in
 // proportion). A cation that was not measured keeps the model amounts.
 func (r *Result) drawSplit(sr *SampleResult, k int, share, amount *Split) {
-	n := len(r.EndMembers)
-	stride := int(NTracers) * n
-	tab := r.table[int(sr.kept[k])*stride:]
-	a := sr.alpha[k*n : (k+1)*n]
+	var m Split
+	r.model(sr, k, &m)
 	na := sr.prep.na
-	var model Split
-	for j := 0; j < n; j++ {
-		src := r.src[j]
-		nj := a[j] * na
-		model[src][0] += nj
-		for c := 1; c < NCations; c++ {
-			model[src][c] += nj * tab[int(cationTracer[c])*n+j]
-		}
-	}
 	for c := 0; c < NCations; c++ {
-		tot := 0.0
-		for src := range NSources {
-			tot += model[src][c]
-		}
+		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
 		meas := sr.prep.meas[c]
 		for src := range NSources {
 			sh := 0.0
 			if tot > 0 {
-				sh = model[src][c] / tot
+				sh = m[src][c] / tot
 			}
 			share[src][c] = sh
 			if math.IsNaN(meas) {
-				amount[src][c] = model[src][c]
+				amount[src][c] = m[src][c] * na
 			} else {
 				amount[src][c] = sh * meas
 			}
 		}
+	}
+}
+
+// model fills m with the model amount of each cation from each source per
+// unit of the sample's Na under the k-th kept draw of sr: the sum over the
+// source's end-members j of a_j (X/Na)_j.
+func (r *Result) model(sr *SampleResult, k int, m *Split) {
+	n := len(r.EndMembers)
+	stride := int(NTracers) * n
+	d := int(sr.kept[k])
+	tab := r.table[d*stride : (d+1)*stride]
+	kt, ct, mt := tab[int(KNa)*n:int(KNa)*n+n], tab[int(CaNa)*n:int(CaNa)*n+n], tab[int(MgNa)*n:int(MgNa)*n+n]
+	*m = Split{}
+	for j, aj := range sr.alpha[k*n : (k+1)*n] {
+		s := &m[r.src[j]]
+		s[0] += aj
+		s[1] += aj * kt[j]
+		s[2] += aj * ct[j]
+		s[3] += aj * mt[j]
 	}
 }
 
@@ -202,17 +207,37 @@ func (r *Run) finish(s int, sc *scratch) {
 	const cells = int(NSources) * NCations
 	cols := n + 2*cells
 	sc.vals = slices.Grow(sc.vals[:0], cols*kept)[:cols*kept]
-	var share, amount Split
+	var present [NSources]bool
+	for _, src := range r.src {
+		present[src] = true
+	}
+	var srcs []Source
+	for src := range NSources {
+		if present[src] {
+			srcs = append(srcs, src)
+		}
+	}
+	na := sr.prep.na
+	var m Split
 	for k := range kept {
 		for j := 0; j < n; j++ {
 			sc.vals[j*kept+k] = sr.alpha[k*n+j]
 		}
-		res.drawSplit(sr, k, &share, &amount)
-		for src := range NSources {
-			for c := range NCations {
+		// As drawSplit, written straight into the columns.
+		res.model(sr, k, &m)
+		for c := 0; c < NCations; c++ {
+			tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
+			unmeasured := math.IsNaN(sr.prep.meas[c])
+			for _, src := range srcs {
 				i := int(src)*NCations + c
-				sc.vals[(n+i)*kept+k] = share[src][c]
-				sc.vals[(n+cells+i)*kept+k] = amount[src][c]
+				sh := 0.0
+				if tot > 0 {
+					sh = m[src][c] / tot
+				}
+				sc.vals[(n+i)*kept+k] = sh
+				if unmeasured {
+					sc.vals[(n+cells+i)*kept+k] = m[src][c] * na
+				}
 			}
 		}
 	}
@@ -222,10 +247,6 @@ func (r *Run) finish(s int, sc *scratch) {
 			return weightedInterval(v, sc.w, &sc.idx)
 		}
 		return interval(v)
-	}
-	var present [NSources]bool
-	for _, src := range r.src {
-		present[src] = true
 	}
 	for j := 0; j < n; j++ {
 		sr.Alpha[j] = q(j)
