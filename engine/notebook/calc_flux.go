@@ -24,6 +24,17 @@ type Fluxes struct {
 func init() { Register(KindFluxes, computeFluxes) }
 
 var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted, "rating-curve": flux.Rating}
+
+// estimatorName returns the settings word for a flux method.
+func estimatorName(m flux.Method) string {
+	for k, v := range methods {
+		if v == m {
+			return k
+		}
+	}
+	return m.String()
+}
+
 var biases = map[string]flux.Bias{"smearing": flux.Duan, "ferguson": flux.Ferguson, "none": flux.NoBias}
 
 // period cuts the record to the site's budget period.
@@ -224,6 +235,29 @@ func computeFluxes(e *Env) (*Output, error) {
 			add(r, nil)
 		}
 	}
+	// The three estimators side by side, for the cation sums (point values).
+	var eName, eMethod []string
+	var eMol, eYield []float64
+	for _, c := range []struct {
+		name string
+		src  mix.Source
+		ks   []int
+	}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}} {
+		ser := v.series(c.name, 0, false, sumOf(c.src, c.ks...))
+		for _, m := range []flux.Method{flux.FlowWeighted, flux.PeriodWeighted, flux.Rating} {
+			o := v.Options
+			o.Method = m
+			mol, yield := math.NaN(), math.NaN()
+			if r, err := flux.Estimate(v.Record, ser, o); err == nil {
+				mol, yield = r.Mean.Mol, r.Mean.MolPerKm2
+			}
+			eName, eMethod = append(eName, c.name), append(eMethod, estimatorName(m))
+			eMol, eYield = append(eMol, mol), append(eYield, yield)
+		}
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "estimators", Title: "Mean annual flux by estimator (point values)", Columns: []*Column{
+		TextColumn("series", eName), TextColumn("estimator", eMethod), NumColumn("flux", "mol/yr", eMol), NumColumn("yield", "mol/km²/yr", eYield)}})
+
 	var figs []Figure
 	var runoff *flux.Uncertainty
 	for _, c := range []struct {

@@ -69,8 +69,11 @@ func computeSamples(e *Env) (*Output, error) {
 	}
 	// Messages name the cell by its id, which (unlike the title) only an
 	// edit that recomputes the cell can change.
-	tab := sample.ParseText(t.TSV(), e.Cell.ID, sample.Options{Comma: '\t', Policy: policies[s.BelowDetection],
-		DateOrder: sampleOrders[s.DateOrder]})
+	opt := sample.Options{Comma: '\t', Policy: policies[s.BelowDetection], DateOrder: sampleOrders[s.DateOrder]}
+	if s.DefaultUnit != "" {
+		opt.Units = map[string]string{"": s.DefaultUnit}
+	}
+	tab := sample.ParseText(t.TSV(), e.Cell.ID, opt)
 	out := &Output{}
 	for _, p := range tab.Problems {
 		out.Warnings = append(out.Warnings, p.Error())

@@ -3,6 +3,8 @@ package notebook
 import (
 	"fmt"
 	"math"
+
+	"lixiv/engine/chem"
 )
 
 // Settings are the parameters of one cell. Each kind has its own struct;
@@ -34,6 +36,7 @@ type SamplesSettings struct {
 	DateOrder      string  `json:"date_order"`          // "auto", "day-first" or "month-first"
 	NICBFlag       float64 `json:"nicb_flag_percent"`   // |NICB| above this is flagged
 	NICBReject     float64 `json:"nicb_reject_percent"` // |NICB| above this leaves the sample out
+	DefaultUnit    string  `json:"default_unit"`        // unit of species columns that state none ("" = ask: such columns are kept as text)
 }
 
 // DischargeSettings control how the daily record is read.
@@ -225,7 +228,18 @@ func (s *SamplesSettings) Validate() error {
 		oneOf("date_order", s.DateOrder, "auto", "day-first", "month-first"),
 		inRange("nicb_flag_percent", s.NICBFlag, 0, 100),
 		inRange("nicb_reject_percent", s.NICBReject, 0, 1000),
+		unitOK("default_unit", s.DefaultUnit),
 	)
+}
+
+func unitOK(key, u string) error {
+	if u == "" {
+		return nil
+	}
+	if _, err := chem.ParseUnit(u); err != nil {
+		return fmt.Errorf("%s: %v", key, err)
+	}
+	return nil
 }
 
 // Validate implements Settings.
