@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"context"
 	"math"
 	"strings"
 	"testing"
@@ -175,5 +176,45 @@ func TestRatingCurveNeedsPositiveValues(t *testing.T) {
 				t.Errorf("fallback without saying so: %q", warns)
 			}
 		})
+	}
+}
+
+func TestSamplesCellReportsPositions(t *testing.T) {
+	d := New("s")
+	c := NewCell(KindSamples, "lab", "")
+	c.Table = &Table{Columns: []string{"sample", "date", "Na", "K", "Ca", "Mg", "Cl", "SO4", "Alk"},
+		Units: []string{"", "", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µeq/L"},
+		Rows: [][]string{
+			{"A", "2021-05-01", "100", "10", "200", "50", "50", "40", "460"},
+			{"B", "2021-05-15", "abc", "10", "200", "50", "50", "40", "460"},
+			{"C", "2021-05-29", "100", "10", "200", "50", "50", "40", "900"}, // NICB far below −10 %
+		}}
+	if err := d.Insert(c, -1); err != nil {
+		t.Fatal(err)
+	}
+	d.Recompute(context.Background(), nil)
+	o := d.Output("lab")
+	if o == nil {
+		st, err := d.Status("lab")
+		t.Fatalf("samples cell: %v %v", st, err)
+	}
+	found := false
+	for _, w := range o.Warnings {
+		if strings.Contains(w, "lab:") && strings.Contains(w, "abc") {
+			found = true
+		}
+	}
+	if !found {
+		t.Errorf("warnings %q do not name the bad cell", o.Warnings)
+	}
+	flags := o.Table("samples").Column("flag").Text
+	want := []string{"", "left out: no Na", "left out: |NICB| above 10 %"}
+	for i := range want {
+		if flags[i] != want[i] {
+			t.Errorf("sample %d flag %q, want %q", i+1, flags[i], want[i])
+		}
+	}
+	if got := o.Figure("samples left out").Median; got != 2 {
+		t.Errorf("left out %g, want 2", got)
 	}
 }
