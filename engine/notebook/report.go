@@ -74,24 +74,24 @@ type CellProblem struct {
 // as JSON (documented in SCHEMA.md). Figures the budget lacks (no fluxes
 // cell, say) are null or left out.
 type Report struct {
-	Format       string                `json:"format"`  // "lixiv-report"
-	Version      int                   `json:"version"` // 1
-	Engine       string                `json:"engine"`
-	Budget       string                `json:"budget"`
-	AreaKm2      Number                `json:"area_km2"`
-	RunoffMM     Range                 `json:"runoff_mm_per_yr"`
-	CationFluxes map[string]Amount     `json:"cation_fluxes,omitempty"`   // "silicate", "carbonate"
-	TimeScale    string                `json:"co2_time_scale,omitempty"`  // "short" or "long"
-	CO2          map[string]CO2Part    `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
-	Samples      []SampleReport        `json:"samples"`
-	Problems     []CellProblem         `json:"problems"`
-	Warnings     map[string][]string   `json:"warnings"`
-	Snapshot     *SnapshotCheck        `json:"snapshot"`
-	Figures      map[string][]FigureJS `json:"figures"`
+	Format       string                    `json:"format"`  // "lixiv-report"
+	Version      int                       `json:"version"` // 1
+	Engine       string                    `json:"engine"`
+	Budget       string                    `json:"budget"`
+	AreaKm2      Number                    `json:"area_km2"`
+	RunoffMM     Range                     `json:"runoff_mm_per_yr"`
+	CationFluxes map[string]Amount         `json:"cation_fluxes,omitempty"`   // "silicate", "carbonate"
+	TimeScale    string                    `json:"co2_time_scale,omitempty"`  // "short" or "long"
+	CO2          map[string]CO2Part        `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
+	Samples      []SampleReport            `json:"samples"`
+	Problems     []CellProblem             `json:"problems"`
+	Warnings     map[string][]string       `json:"warnings"`
+	Snapshot     *SnapshotCheck            `json:"snapshot"`
+	Figures      map[string][]ReportFigure `json:"figures"`
 }
 
-// FigureJS is a headline figure as the report writes it.
-type FigureJS struct {
+// ReportFigure is a headline figure as the report writes it.
+type ReportFigure struct {
 	Name string `json:"name"`
 	Unit string `json:"unit"`
 	Range
@@ -119,7 +119,7 @@ func (d *Document) firstOf(k Kind) (string, *Output) {
 // Report summarises the computed budget.
 func (d *Document) Report() *Report {
 	r := &Report{Format: "lixiv-report", Version: 1, Engine: EngineVersion, Budget: d.Title, AreaKm2: Number(math.NaN()),
-		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Figures: map[string][]FigureJS{}}
+		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Figures: map[string][]ReportFigure{}}
 	for _, c := range d.Cells {
 		st, err := d.Status(c.ID)
 		if st != UpToDate {
@@ -134,7 +134,7 @@ func (d *Document) Report() *Report {
 				r.Warnings[c.ID] = o.Warnings
 			}
 			for i := range o.Figures {
-				r.Figures[c.ID] = append(r.Figures[c.ID], FigureJS{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i])})
+				r.Figures[c.ID] = append(r.Figures[c.ID], ReportFigure{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i])})
 			}
 		}
 	}

@@ -3,6 +3,7 @@ package notebook
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -32,7 +33,7 @@ type StoredFigure struct {
 const SnapshotDigits = 12
 
 // ErrNotComputed is returned when results are asked of a budget with stale cells.
-var ErrNotComputed = fmt.Errorf("the budget has cells that are not computed")
+var ErrNotComputed = errors.New("the budget has cells that are not computed")
 
 // Snapshot returns the results of the computed document. Every cell must be
 // computed; cells with a problem enter the checksum with their message.
