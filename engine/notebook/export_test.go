@@ -65,3 +65,15 @@ func FuzzTableFromText(f *testing.F) {
 		}
 	})
 }
+
+func TestIsJSONNumber(t *testing.T) {
+	for s, want := range map[string]bool{
+		"0": true, "-0": true, "12": true, "3.860": true, "1e5": true, "1E+5": true, "-2.5e-3": true,
+		"": false, "-": false, "01": false, "1.": false, ".5": false, "1e": false, "1e+": false, "+1": false,
+		"0x10": false, "1,5": false, " 1": false, "NaN": false, "<0.01": false, "1.2.3": false,
+	} {
+		if got := isJSONNumber(s); got != want {
+			t.Errorf("isJSONNumber(%q) = %v, want %v", s, got, want)
+		}
+	}
+}

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
-	"regexp"
 	"sort"
 	"strconv"
 )
@@ -39,12 +38,48 @@ func (o *object) addExtra(m map[string]json.RawMessage) {
 	}
 }
 
-var jsonNumber = regexp.MustCompile(`^-?(0|[1-9][0-9]*)(\.[0-9]+)?([eE][+-]?[0-9]+)?$`)
+// isJSONNumber reports whether s is exactly a JSON number literal:
+// -?(0|[1-9][0-9]*)(\.[0-9]+)?([eE][+-]?[0-9]+)? (RFC 8259 §6).
+func isJSONNumber(s string) bool {
+	i, n := 0, len(s)
+	digits := func() int {
+		j := i
+		for i < n && s[i] >= '0' && s[i] <= '9' {
+			i++
+		}
+		return i - j
+	}
+	if i < n && s[i] == '-' {
+		i++
+	}
+	switch {
+	case i < n && s[i] == '0':
+		i++
+	case digits() == 0:
+		return false
+	}
+	if i < n && s[i] == '.' {
+		i++
+		if digits() == 0 {
+			return false
+		}
+	}
+	if i < n && (s[i] == 'e' || s[i] == 'E') {
+		i++
+		if i < n && (s[i] == '+' || s[i] == '-') {
+			i++
+		}
+		if digits() == 0 {
+			return false
+		}
+	}
+	return i == n
+}
 
 // cellValue writes table text as a JSON number when it is one, so that a
 // row reads [ "CV-01", "2021-10-04", 0.42, "<0.01" ]; the text is kept exactly.
 func cellValue(s string) any {
-	if len(s) < 40 && jsonNumber.MatchString(s) {
+	if len(s) < 40 && isJSONNumber(s) {
 		return literal(s)
 	}
 	return s

@@ -343,7 +343,7 @@ func cellText(v json.RawMessage) (string, error) {
 		return s, err
 	case string(v) == "null":
 		return "", nil
-	case jsonNumber.Match(v):
+	case isJSONNumber(string(v)):
 		return string(v), nil
 	}
 	return "", fmt.Errorf("want text or a number, not %s", shorten(v))
