@@ -62,6 +62,11 @@ func init() { Register(KindApportionment, computeApportionment) }
 // or with Document.Workers = 1).
 var ChunkDraws = 20000
 
+// MaxSampleDraws caps samples × draws in one apportionment: every draw of
+// every sample is kept (128 bytes each) for the fluxes and CO2 below, so
+// the cap bounds memory at about half a gigabyte.
+const MaxSampleDraws = 4_000_000
+
 // forwardRatios takes the forward model's silicate ratios from the first
 // silicate end-member: the central value, and as 1σ a quarter of the prior
 // range (a range read as about ±2σ; an assumption, no source).
@@ -120,6 +125,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.Corrected = append(a.Corrected, r)
 	}
 	n := len(a.Index)
+	if n*s.Draws > MaxSampleDraws {
+		return nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+	}
 	status := make([]string, n)
 	kept := make([]float64, n)
 	switch s.Model {
