@@ -12,10 +12,11 @@ import (
 	"lixiv/web/plot"
 )
 
-// ChartCache keeps drawn charts until the document or its results change,
-// so that a render of the page does not redraw them.
+// ChartCache keeps drawn charts until the results they are drawn from
+// change, so that a render of the page (every event renders the whole page)
+// does not redraw them, and a recompute redraws only the charts whose
+// inputs it replaced.
 type ChartCache struct {
-	Gen   uint64 // bumped by the page whenever results change
 	saved map[string]cachedCharts
 }
 
@@ -24,12 +25,29 @@ type cachedCharts struct {
 	views []ChartView
 }
 
+// chartInputs lists the kinds of the other cells whose outputs the charts
+// of a cell of kind k read.
+var chartInputs = map[notebook.Kind][]notebook.Kind{
+	notebook.KindDischarge: {notebook.KindSamples},
+	notebook.KindSources:   {notebook.KindSamples, notebook.KindAtmosphere, notebook.KindApportionment},
+}
+
 // For returns the charts of cell c, drawing them when needed.
 func (cc *ChartCache) For(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []ChartView {
 	if cc.saved == nil {
 		cc.saved = map[string]cachedCharts{}
 	}
-	key := fmt.Sprintf("%d/%d/%p", d.Revision(), cc.Gen, o)
+	key := fmt.Sprintf("%p|%s", o, c.Title)
+	if c.Kind == notebook.KindChart {
+		key += fmt.Sprintf("|%v", c.Settings)
+	}
+	for _, k := range chartInputs[c.Kind] {
+		for _, other := range d.Cells {
+			if other.Kind == k {
+				key += fmt.Sprintf("|%p", d.Output(other.ID))
+			}
+		}
+	}
 	if s, ok := cc.saved[c.ID]; ok && s.key == key {
 		return s.views
 	}

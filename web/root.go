@@ -40,12 +40,17 @@ type Root struct {
 	cancel   context.CancelFunc
 	loopDone chan struct{}
 
-	editStart float64 // when the edit now computing was made (ms)
-	painted   bool    // the page has repainted since that edit
-	gen       int     // completed recomputes
-	ready     bool
-	keys      js.Func
-	rows      map[string]int // rows shown per input table
+	editStart  float64 // when the edit now computing was made (ms)
+	painted    bool    // the page has repainted since that edit
+	stepMillis float64 // time in Step (including yields) since the edit
+
+	verifyGen  int                // recompute the cached verification belongs to
+	verifyDoc  *notebook.Document // and its document
+	verifyText string
+	gen        int // completed recomputes
+	ready      bool
+	keys       js.Func
+	rows       map[string]int // rows shown per input table
 }
 
 // Init loads the last autosaved budget, or the demo on a first visit.
@@ -163,6 +168,8 @@ func (c *Root) footer() (verify, seeds string) {
 		verify = "checking once the rerun is done"
 	case d.Stored == nil:
 		verify = "this budget holds no stored results"
+	case c.verifyGen == c.gen && c.verifyDoc == d:
+		verify = c.verifyText // the checksum covers every output: compute it once per recompute
 	default:
 		v, err := d.Verify()
 		switch {
@@ -173,6 +180,7 @@ func (c *Root) footer() (verify, seeds string) {
 		default:
 			verify = fmt.Sprintf("stored results DIFFER from the rerun (%d figures differ)", len(v.Differ))
 		}
+		c.verifyGen, c.verifyDoc, c.verifyText = c.gen, d, verify
 	}
 	return verify, seeds
 }
@@ -236,6 +244,8 @@ func (c *Root) Rendered() {
 		ds.Set("gen", fmt.Sprint(c.gen))
 		if !c.busy && c.editStart > 0 {
 			js.Global().Set("lixivLastRecompute", nowMillis()-c.editStart)
+			js.Global().Set("lixivLastStep", c.stepMillis)
+			c.stepMillis = 0
 			c.editStart = 0
 		}
 	}
@@ -265,8 +275,8 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 	if prev != nil {
 		<-prev
 	}
-	const slice, paintEvery = 40, 250 // ms
-	lastYield, lastPaint := nowMillis(), 0.0
+	const slice, paintEvery = 40, 250                // ms
+	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	breathe := func() {
 		if nowMillis()-lastYield > slice {
 			yieldToBrowser()
@@ -302,6 +312,7 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 			c.running, c.progress = pending[0], 0
 			c.env.UnlockOnly()
 		}
+		t0 := nowMillis()
 		more, err := func() (more bool, err error) {
 			defer func() {
 				if r := recover(); r != nil {
@@ -310,11 +321,11 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 			}()
 			return doc.Step(ctx, progress)
 		}()
+		c.stepMillis += nowMillis() - t0
 		if ctx.Err() != nil {
 			return
 		}
 		c.env.Lock()
-		c.charts.Gen++
 		if err != nil || !more {
 			c.running, c.busy = "", false
 			c.gen++
@@ -505,6 +516,7 @@ func (c *Root) DownloadBudget() {
 	d := c.S.Doc
 	if len(d.Pending()) == 0 && !c.busy {
 		_ = d.Keep()
+		c.verifyDoc = nil
 	}
 	name := c.S.FileName
 	if name == "" || !strings.HasSuffix(name, notebook.Extension) {

@@ -469,3 +469,31 @@ func TestDropSamplesFile(t *testing.T) {
 		t.Errorf("import note: got %q, want the file named", notes)
 	}
 }
+
+// TestLongRunStaysResponsive starts a long Monte Carlo run and checks that
+// the page shows its progress and still handles a click while it computes.
+func TestLongRunStaysResponsive(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	ap := cellOf(t, ctx, "apportionment")
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { const el = document.getElementById("p-%s-draws");
+		el.value = "40000"; el.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, ap))
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.querySelector("section.state-running progress")`,
+		chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
+		t.Fatalf("no progress bar while computing: %v", err)
+	}
+	// A click on the note's fold button is handled while the run goes on.
+	note := cellOf(t, ctx, "note")
+	eval[bool](t, ctx, fmt.Sprintf(`document.querySelector("#cell-%s .fold").click() || true`, note))
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](fmt.Sprintf(`!document.querySelector("#cell-%s .cell-body")`, note),
+		chromedp.WithPollingTimeout(10*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
+		t.Fatalf("the fold click was not handled: %v", err)
+	}
+	if busy := eval[string](t, ctx, `document.body.dataset.busy`); busy != "1" {
+		t.Logf("the run ended before the click was checked (busy %q); the click still went through", busy)
+	}
+	waitGen(t, ctx, gen)
+}
