@@ -162,8 +162,10 @@ func DefaultSettings(k Kind) Settings {
 		return &ApportionmentSettings{Model: "inverse", Tracers: []string{"Ca/Na", "Mg/Na", "HCO3/Na"},
 			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag"}
 	case KindFluxes:
-		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 500,
-			DischargeUncertainty: 7, Seed: 1} // 7 %: science brief 8.6, common practice
+		// B = 1000 and σ_Q = 7 %: methods brief §8.6 (Efron & Tibshirani 1993
+		// for B; σ_Q common practice).
+		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000,
+			DischargeUncertainty: 7, Seed: 1}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional"}
 	case KindNote:
