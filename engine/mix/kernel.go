@@ -36,21 +36,18 @@ const pivotTol = 1e-13
 func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	const n = 4
 	const stride = int(NTracers) * n
-	mr := pr.m
-	if pr.iso >= 0 {
-		mr--
-	}
 	rt, tab := r.rtab, r.table
+	rows := pr.rows
 	var a [MaxEndMembers]float64
 	for d := from; d < to; d++ {
 		base := d * stride
 		var h00, h10, h11, h20, h21, h22, b0, b1, b2, cc float64
-		for k := 0; k < mr; k++ {
-			o := base + pr.par[k]*n
+		for _, rw := range rows {
+			o := base + rw.off
 			u := (*[n]float64)(rt[o : o+n])
 			u0, u1, u2 := u[0], u[1], u[2]
-			w := pr.w[k]
-			t := pr.d[k] - u[3]
+			w := rw.w
+			t := rw.d - u[3]
 			v := w * u0
 			h00 += v * u0
 			b0 += v * t
@@ -136,21 +133,18 @@ func (r *Run) draws4(sr *SampleResult, pr *prep, from, to int, bound float64) {
 func (r *Run) draws3(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	const n = 3
 	const stride = int(NTracers) * n
-	mr := pr.m
-	if pr.iso >= 0 {
-		mr--
-	}
 	rt, tab := r.rtab, r.table
+	rows := pr.rows
 	var a [MaxEndMembers]float64
 	for d := from; d < to; d++ {
 		base := d * stride
 		var h00, h10, h11, b0, b1, cc float64
-		for k := 0; k < mr; k++ {
-			o := base + pr.par[k]*n
+		for _, rw := range rows {
+			o := base + rw.off
 			u := (*[n]float64)(rt[o : o+n])
 			u0, u1 := u[0], u[1]
-			w := pr.w[k]
-			t := pr.d[k] - u[2]
+			w := rw.w
+			t := rw.d - u[2]
 			v := w * u0
 			h00 += v * u0
 			b0 += v * t
@@ -221,10 +215,8 @@ func (r *Run) misfit4(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 	const n = 4
 	base := d * int(NTracers) * n
 	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
-	mr := pr.m
 	chi2 := 0.0
 	if pr.iso >= 0 {
-		mr--
 		o := base + int(SrNa)*n
 		s := (*[n]float64)(r.table[o : o+n])
 		o = base + int(Sr87Sr86)*n
@@ -233,11 +225,11 @@ func (r *Run) misfit4(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 		v := s[0]*(R[0]-rm)*a0 + s[1]*(R[1]-rm)*a1 + s[2]*(R[2]-rm)*a2 + s[3]*(R[3]-rm)*a3
 		chi2 = pr.w[pr.iso] * v * v
 	}
-	for k := 0; k < mr; k++ {
-		o := base + pr.par[k]*n
+	for _, rw := range pr.rows {
+		o := base + rw.off
 		u := (*[n]float64)(r.rtab[o : o+n])
-		v := u[0]*a0 + u[1]*a1 + u[2]*a2 + (u[3] - pr.d[k])
-		chi2 += pr.w[k] * v * v
+		v := u[0]*a0 + u[1]*a1 + u[2]*a2 + (u[3] - rw.d)
+		chi2 += rw.w * v * v
 	}
 	return chi2
 }
@@ -247,10 +239,8 @@ func (r *Run) misfit3(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 	const n = 3
 	base := d * int(NTracers) * n
 	a0, a1, a2 := a[0], a[1], a[2]
-	mr := pr.m
 	chi2 := 0.0
 	if pr.iso >= 0 {
-		mr--
 		o := base + int(SrNa)*n
 		s := (*[n]float64)(r.table[o : o+n])
 		o = base + int(Sr87Sr86)*n
@@ -259,11 +249,11 @@ func (r *Run) misfit3(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 		v := s[0]*(R[0]-rm)*a0 + s[1]*(R[1]-rm)*a1 + s[2]*(R[2]-rm)*a2
 		chi2 = pr.w[pr.iso] * v * v
 	}
-	for k := 0; k < mr; k++ {
-		o := base + pr.par[k]*n
+	for _, rw := range pr.rows {
+		o := base + rw.off
 		u := (*[n]float64)(r.rtab[o : o+n])
-		v := u[0]*a0 + u[1]*a1 + (u[2] - pr.d[k])
-		chi2 += pr.w[k] * v * v
+		v := u[0]*a0 + u[1]*a1 + (u[2] - rw.d)
+		chi2 += rw.w * v * v
 	}
 	return chi2
 }

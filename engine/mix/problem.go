@@ -88,6 +88,13 @@ func (o *Options) withDefaults() Options {
 var chi2q95 = [...]float64{0, 3.841458820694124, 5.991464547107979, 7.814727903251178,
 	9.487729036781154, 11.070497693516351, 12.591587243743977, 14.067140449340169, 15.507313055865453}
 
+// rowSpec is one ratio row for the kernels: its offset in a draw's block of
+// the (reduced) table, its weight and its measured ratio.
+type rowSpec struct {
+	off  int
+	w, d float64
+}
+
 // prep is what one water contributes to the per-draw solve.
 type prep struct {
 	skip     bool
@@ -101,6 +108,7 @@ type prep struct {
 	meas     [NCations]float64 // measured cations, NaN if missing
 	thresh   float64           // chi-square acceptance threshold
 	c        float64           // sum of w d² over the rows, the misfit of a = 0
+	rows     []rowSpec         // the ratio rows (not the isotope row), for the kernels
 	warnings []error
 }
 
@@ -198,10 +206,13 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 			pr.m++
 		}
 	}
+	n := len(p.EndMembers)
 	for k := 0; k < pr.m; k++ {
 		pr.c += pr.w[k] * pr.d[k] * pr.d[k]
+		if k != pr.iso {
+			pr.rows = append(pr.rows, rowSpec{off: pr.par[k] * n, w: pr.w[k], d: pr.d[k]})
+		}
 	}
-	n := len(p.EndMembers)
 	if pr.m == 0 {
 		pr.skip = true
 		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has none of the chosen tracers", ErrSkipped, w.Name))

@@ -271,6 +271,7 @@ func (r *Run) perturbed(s, from, to int, bound float64) {
 		sr.rng = rand.NewPCG(r.opt.Seed^0x6c8e9cf570932bd5, uint64(s))
 	}
 	var p prep
+	rows := make([]rowSpec, 0, len(sr.prep.rows))
 	for d := from; d < to; d++ {
 		p = sr.prep // copy; the data rows are arrays
 		p.c = 0
@@ -284,6 +285,13 @@ func (r *Run) perturbed(s, from, to int, bound float64) {
 			}
 			p.c += p.w[k] * p.d[k] * p.d[k]
 		}
+		rows = rows[:0]
+		for k := 0; k < p.m; k++ {
+			if k != p.iso {
+				rows = append(rows, rowSpec{off: p.par[k] * r.n, w: p.w[k], d: p.d[k]})
+			}
+		}
+		p.rows = rows
 		r.span(sr, &p, d, d+1, bound)
 	}
 }
