@@ -28,8 +28,9 @@ type Run struct {
 	rtab  []float64 // the same reduced for the kernels (kernel.go)
 	res   *Result
 
-	cur     int // Step: sample being worked on
-	curDraw int // Step: next draw of that sample
+	sc      scratch // Step: summary working space, kept between calls
+	cur     int     // Step: sample being worked on
+	curDraw int     // Step: next draw of that sample
 	done    atomic.Int64
 	mu      sync.Mutex // serialises Options.Progress
 }
@@ -119,7 +120,6 @@ func (r *Run) Done() bool { return r.cur >= len(r.prob.Waters) }
 // result. A cancelled context marks the unfinished samples Canceled and
 // ends the run.
 func (r *Run) Step(ctx context.Context, n int) (done bool) {
-	var sc scratch
 	for n > 0 && r.cur < len(r.prob.Waters) {
 		if ctx.Err() != nil {
 			r.cancel()
@@ -132,7 +132,7 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 		n -= k
 		r.advance(k)
 		if r.curDraw == r.opt.Draws {
-			r.finish(s, &sc)
+			r.finish(s, &r.sc)
 			r.cur++
 			r.curDraw = 0
 		}
