@@ -60,3 +60,18 @@ func BenchmarkInvert100x10000Default(b *testing.B) {
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(100*10000), "ns/sample-draw")
 }
+
+// Five end-members (granitic and basaltic silicate side by side) take the
+// general face-enumerating solver.
+func BenchmarkInvert100x10000FiveEndMembers(b *testing.B) {
+	truth, prior := catchment()
+	ws, _ := catchmentWaters(truth, 100, 0.02, 1)
+	p := Problem{EndMembers: append(prior, PresetBasaltic()), Tracers: allTracers, Waters: ws}
+	o := &Options{Draws: 10000, Seed: 1}
+	for b.Loop() {
+		if _, err := Invert(context.Background(), p, o); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(100*10000), "ns/sample-draw")
+}
