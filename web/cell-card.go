@@ -367,3 +367,19 @@ func (c *CellCard) EmptyTableHint() string {
 	}
 	return "The table is empty: paste rows below, or use \"Fill from preset\"."
 }
+
+// CellClass marks a table cell that a problem names.
+func (c *CellCard) CellClass(row, col int) string {
+	if c.V.bad[[2]int{row, col}] {
+		return "bad"
+	}
+	return ""
+}
+
+// HeadClass marks a column whose header or unit a problem names.
+func (c *CellCard) HeadClass(col int) string {
+	if c.V.bad[[2]int{-1, col}] {
+		return "colname bad"
+	}
+	return "colname"
+}

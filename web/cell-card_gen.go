@@ -517,8 +517,9 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 													{
 														vgparent := vgn
 														_ = vgparent
-														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "colname"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Column name"}}}
+														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "aria-label", Val: "Column name"}}}
 														vgparent.AppendChild(vgn)
+														vgn.AddAttrInterface("class", c.HeadClass(j))
 														{
 															b, err := vjson.Marshal(h)
 															if err != nil {
@@ -622,6 +623,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 															_ = vgparent
 															vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute(nil)}
 															vgparent.AppendChild(vgn)
+															vgn.AddAttrInterface("class", c.CellClass(i, j))
 															{
 																b, err := vjson.Marshal(v)
 																if err != nil {
@@ -716,6 +718,40 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 										_ = vgparent
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add rows"}
 										vgparent.AppendChild(vgn)
+									}
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+									vgparent.AppendChild(vgn)
+								}
+							}
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+							vgparent.AppendChild(vgn)
+							if len(c.V.TableProblems) > 0 {
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "table-problems"}}}
+								vgparent.AppendChild(vgn)
+								{
+									vgparent := vgn
+									_ = vgparent
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+									vgparent.AppendChild(vgn)
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "b", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.SetInnerHTML(vugu.HTML("Problems reading this table"))
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+									vgparent.AppendChild(vgn)
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									{
+										vgparent := vgn
+										_ = vgparent
+										for vgiterkeyt, p := range c.V.TableProblems {
+											var vgiterkey interface{} = vgiterkeyt
+											_ = vgiterkey
+											p := p
+											_ = p
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
+											vgparent.AppendChild(vgn)
+											vgn.SetInnerHTML(p.Text)
+										}
 									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 									vgparent.AppendChild(vgn)

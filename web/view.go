@@ -24,6 +24,8 @@ type CellView struct {
 	Table                      *notebook.Table
 	Notes                      []string // what an import or paste did
 	Warnings                   []string // the engine's warnings
+	TableProblems              []TableProblem
+	bad                        map[[2]int]bool // table cells named by a problem
 	Figures                    []FigureView
 	Results                    []*notebook.ResultTable
 	Charts                     []ChartView
@@ -179,7 +181,13 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			v.HasTable, v.Table = true, c.Table
 		}
 		if o := d.Output(c.ID); o != nil {
-			v.Warnings = o.Warnings
+			v.TableProblems, v.Warnings = TableProblems(c.ID, c.Table, o.Warnings)
+			if len(v.TableProblems) > 0 {
+				v.bad = map[[2]int]bool{}
+				for _, p := range v.TableProblems {
+					v.bad[[2]int{p.Row, p.Col}] = true
+				}
+			}
 			for _, f := range o.Figures {
 				val, iv := FormatFigure(f)
 				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit})

@@ -497,3 +497,26 @@ func TestLongRunStaysResponsive(t *testing.T) {
 	}
 	waitGen(t, ctx, gen)
 }
+
+func TestImportProblemBesideTable(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	col := eval[int](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].findIndex(e => e.value === "Na")`)
+	if col < 0 {
+		t.Fatal("the demo's samples table has no Na column")
+	}
+	sel := fmt.Sprintf("section.kind-samples table.data tbody tr:nth-child(3) td:nth-child(%d) input", col+2)
+	edit(t, ctx, sel, "abc")
+	text := eval[string](t, ctx, `(document.querySelector("section.kind-samples .table-problems") || {textContent: ""}).textContent`)
+	if !strings.Contains(text, "row 3") || !strings.Contains(text, "column Na") {
+		t.Errorf("problems beside the table: got %q, want row 3 and column Na named", text)
+	}
+	if cls := eval[string](t, ctx, fmt.Sprintf(`document.querySelector(%q).className`, sel)); cls != "bad" {
+		t.Errorf("the bad cell: got class %q, want it marked", cls)
+	}
+	if v := eval[string](t, ctx, fmt.Sprintf(`document.querySelector(%q).value`, sel)); v != "abc" {
+		t.Errorf("what the user typed: got %q, want it kept", v)
+	}
+}

@@ -3,6 +3,7 @@
 package browsertest
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"testing"
@@ -54,6 +55,14 @@ func TestShots(t *testing.T) {
 			continue
 		}
 		save(t, filepath.Join(dir, id+".png"), png)
+	}
+	// A problem in the samples table, shown beside it.
+	if col := eval[int](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].findIndex(e => e.value === "Na")`); col >= 0 {
+		edit(t, ctx, fmt.Sprintf("section.kind-samples table.data tbody tr:nth-child(3) td:nth-child(%d) input", col+2), "abc")
+		id := eval[string](t, ctx, `document.querySelector("section.kind-samples").id`)
+		if png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id))); err == nil {
+			save(t, filepath.Join(dir, id+"-problem.png"), png)
+		}
 	}
 }
 
