@@ -47,5 +47,7 @@
 // than the math package (which uses assembly on amd64), and each sample is
 // worked by one goroutine in draw order, so neither the number of cores
 // nor the chunking of Run.Step changes a bit. Result.Checksum hashes every
-// number of a result.
+// number of a result. (On arm64 and some other targets the Go compiler may
+// fuse a multiply and an add into one rounding, so bits there can differ
+// from amd64 and WebAssembly in the last place.)
 package mix
