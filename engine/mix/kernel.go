@@ -1,6 +1,6 @@
 package mix
 
-// The kernels below are the hot loop of the inverse model for three and
+// The kernels below are the hot loop of the inverse model for two, three and
 // four end-members, written out with scalar variables: WebAssembly runs
 // Go's loops over small arrays several times slower than native code, but
 // straight-line scalar code at close to native speed.
@@ -253,6 +253,76 @@ func (r *Run) misfit3(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 		o := base + rw.off
 		u := (*[n]float64)(r.rtab[o : o+n])
 		v := u[0]*a0 + u[1]*a1 + (u[2] - rw.d)
+		chi2 += rw.w * v * v
+	}
+	return chi2
+}
+
+// draws2 is the kernel for two end-members: one free fraction y = a_0,
+// whose constrained minimum is the unconstrained one clamped to [0, 1].
+func (r *Run) draws2(sr *SampleResult, pr *prep, from, to int, bound float64) {
+	const n = 2
+	const stride = int(NTracers) * n
+	rt, tab := r.rtab, r.table
+	rows := pr.rows
+	var a [MaxEndMembers]float64
+	for d := from; d < to; d++ {
+		base := d * stride
+		var h, b, cc float64
+		for _, rw := range rows {
+			o := base + rw.off
+			u := (*[n]float64)(rt[o : o+n])
+			t := rw.d - u[1]
+			v := rw.w * u[0]
+			h += v * u[0]
+			b += v * t
+			cc += rw.w * t * t
+		}
+		if pr.iso >= 0 {
+			o := base + int(SrNa)*n
+			s := (*[n]float64)(tab[o : o+n])
+			o = base + int(Sr87Sr86)*n
+			R := (*[n]float64)(tab[o : o+n])
+			rm := pr.riso
+			e1 := s[1] * (R[1] - rm)
+			u0 := s[0]*(R[0]-rm) - e1
+			t := -e1
+			w := pr.w[pr.iso]
+			v := w * u0
+			h += v * u0
+			b += v * t
+			cc += w * t * t
+		}
+		if h > 0 && cc-b*b/h-1e-9*(cc+1) > bound {
+			continue // even the unconstrained optimum misfits
+		}
+		y := clamp1(b, h)
+		a = [MaxEndMembers]float64{y, 1 - y}
+		if chi2 := r.misfit2(pr, d, &a); chi2 <= bound {
+			sr.keep(d, chi2, a[:n])
+		}
+	}
+}
+
+// misfit2 is misfit4 for two end-members.
+func (r *Run) misfit2(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
+	const n = 2
+	base := d * int(NTracers) * n
+	a0, a1 := a[0], a[1]
+	chi2 := 0.0
+	if pr.iso >= 0 {
+		o := base + int(SrNa)*n
+		s := (*[n]float64)(r.table[o : o+n])
+		o = base + int(Sr87Sr86)*n
+		R := (*[n]float64)(r.table[o : o+n])
+		rm := pr.riso
+		v := s[0]*(R[0]-rm)*a0 + s[1]*(R[1]-rm)*a1
+		chi2 = pr.w[pr.iso] * v * v
+	}
+	for _, rw := range pr.rows {
+		o := base + rw.off
+		u := (*[n]float64)(r.rtab[o : o+n])
+		v := u[0]*a0 + (u[1] - rw.d)
 		chi2 += rw.w * v * v
 	}
 	return chi2
