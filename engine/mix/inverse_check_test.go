@@ -186,13 +186,17 @@ func TestRunCancelAndProgress(t *testing.T) {
 }
 
 func TestKernelsMatchGeneralSolver(t *testing.T) {
-	// The unrolled two-, three- and four-end-member kernels must keep the same
-	// draws with the same fractions as the general face-enumerating solver.
+	// The kernels (unrolled for two to four end-members, looped for five and
+	// six) must keep the same draws with the same fractions as the general
+	// face-enumerating solver.
 	truth, prior := catchment()
 	ws, _ := catchmentWaters(truth, 8, 0.03, 12)
-	for _, n := range []int{2, 3, 4} {
+	for _, n := range []int{2, 3, 4, 5, 6} {
 		for _, tr := range [][]Tracer{allTracers, {CaNa, MgNa, ClNa}, {CaNa, HCO3Na}, {MgNa}} {
-			em := prior[4-n:]
+			em := append(slices.Clone(prior), PresetBasaltic(), PresetGranitic())[:n]
+			if n <= 4 {
+				em = prior[4-n:]
+			}
 			r, err := NewRun(Problem{EndMembers: em, Tracers: tr, Waters: ws}, &Options{Draws: 2000, Seed: 9})
 			if err != nil {
 				t.Fatal(err)

@@ -1,5 +1,7 @@
 package mix
 
+import "math"
+
 // The kernels below are the hot loop of the inverse model for two, three and
 // four end-members, written out with scalar variables: WebAssembly runs
 // Go's loops over small arrays several times slower than native code, but
@@ -326,4 +328,130 @@ func (r *Run) misfit2(pr *prep, d int, a *[MaxEndMembers]float64) float64 {
 		chi2 += rw.w * v * v
 	}
 	return chi2
+}
+
+// drawsN is the kernel for five or six end-members, with loops instead of
+// scalars: the same reduced normal equations, Cholesky factorisation and
+// misfit bound as draws4. Draws whose unconstrained optimum leaves the
+// simplex go to the general face-enumerating solver.
+func (r *Run) drawsN(sr *SampleResult, pr *prep, from, to int, bound float64) {
+	n := r.n
+	m1 := n - 1
+	stride := int(NTracers) * n
+	rt, tab := r.rtab, r.table
+	var H [MaxEndMembers - 1][MaxEndMembers - 1]float64
+	var b, u [MaxEndMembers - 1]float64
+	var a [MaxEndMembers]float64
+	for d := from; d < to; d++ {
+		base := d * stride
+		for i := 0; i < m1; i++ {
+			b[i] = 0
+			for j := 0; j <= i; j++ {
+				H[i][j] = 0
+			}
+		}
+		cc := 0.0
+		add := func(w, t float64) {
+			for i := 0; i < m1; i++ {
+				v := w * u[i]
+				b[i] += v * t
+				Hi := &H[i]
+				for j := 0; j <= i; j++ {
+					Hi[j] += v * u[j]
+				}
+			}
+			cc += w * t * t
+		}
+		for _, rw := range pr.rows {
+			row := rt[base+rw.off : base+rw.off+n]
+			copy(u[:m1], row)
+			add(rw.w, rw.d-row[m1])
+		}
+		if pr.iso >= 0 {
+			s := tab[base+int(SrNa)*n : base+int(SrNa)*n+n]
+			R := tab[base+int(Sr87Sr86)*n : base+int(Sr87Sr86)*n+n]
+			rm := pr.riso
+			er := s[m1] * (R[m1] - rm)
+			for j := 0; j < m1; j++ {
+				u[j] = s[j]*(R[j]-rm) - er
+			}
+			add(pr.w[pr.iso], -er)
+		}
+		if r.reducedSolve(&H, &b, m1, cc, bound, &a) {
+			continue // pruned
+		}
+		feasible := true
+		for j := 0; j < n; j++ {
+			if !(a[j] >= 0) {
+				feasible = false
+			}
+		}
+		if feasible {
+			if chi2 := r.misfit(pr, d, &a); chi2 <= bound {
+				sr.keep(d, chi2, a[:n])
+			}
+			continue
+		}
+		if chi2, ok := r.general(pr, d, bound, &a); ok {
+			sr.keep(d, chi2, a[:n])
+		}
+	}
+}
+
+// reducedSolve factorises H (lower triangle, m1 x m1) by Cholesky, and
+// reports true when the unconstrained minimum cc - zᵀz exceeds bound. It
+// writes the unconstrained solution to a (a_n-1 = 1 - sum y), or NaNs when
+// H is singular, so that the caller takes the general solver.
+func (r *Run) reducedSolve(H *[MaxEndMembers - 1][MaxEndMembers - 1]float64, b *[MaxEndMembers - 1]float64, m1 int, cc, bound float64, a *[MaxEndMembers]float64) (pruned bool) {
+	hm := 0.0
+	for i := 0; i < m1; i++ {
+		if H[i][i] > hm {
+			hm = H[i][i]
+		}
+	}
+	tol := pivotTol * hm
+	*a = [MaxEndMembers]float64{}
+	for j := 0; j < m1; j++ {
+		dj := H[j][j]
+		for p := 0; p < j; p++ {
+			dj -= H[j][p] * H[j][p]
+		}
+		if !(dj > tol) || !(tol > 0) {
+			a[0] = math.NaN()
+			return false
+		}
+		dj = sqrt(dj)
+		H[j][j] = dj
+		for i := j + 1; i < m1; i++ {
+			s := H[i][j]
+			for p := 0; p < j; p++ {
+				s -= H[i][p] * H[j][p]
+			}
+			H[i][j] = s / dj
+		}
+	}
+	var z [MaxEndMembers - 1]float64
+	zz := 0.0
+	for i := 0; i < m1; i++ {
+		s := b[i]
+		for p := 0; p < i; p++ {
+			s -= H[i][p] * z[p]
+		}
+		z[i] = s / H[i][i]
+		zz += z[i] * z[i]
+	}
+	if cc-zz-1e-9*(cc+1) > bound {
+		return true
+	}
+	sum := 0.0
+	for i := m1 - 1; i >= 0; i-- {
+		s := z[i]
+		for p := i + 1; p < m1; p++ {
+			s -= H[p][i] * a[p]
+		}
+		a[i] = s / H[i][i]
+		sum += a[i]
+	}
+	a[m1] = 1 - sum
+	return false
 }

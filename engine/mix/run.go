@@ -53,7 +53,7 @@ func NewRun(p Problem, o *Options) (*Run, error) {
 		r.src[j] = e.Source
 	}
 	r.table = drawTable(p.EndMembers, opt.Draws, opt.Seed)
-	if r.n >= 2 && r.n <= 4 {
+	if r.n >= 2 {
 		r.rtab = reduceTable(r.table, r.n)
 	}
 	r.res = &Result{
@@ -219,9 +219,9 @@ const maxWeightChi2 = 1400
 
 // draws works sample s through draws [from, to): for each draw it solves
 // the simplex-constrained least squares with the drawn end-member ratios,
-// scores chi-square and keeps or drops the draw. Two, three and four
-// end-members take unrolled kernels (kernel.go); other counts take the
-// general solver.
+// scores chi-square and keeps or drops the draw. Two to six end-members
+// take the kernels of kernel.go; a single end-member takes the general
+// solver.
 func (r *Run) draws(s, from, to int) {
 	sr := &r.res.Samples[s]
 	if sr.prep.skip {
@@ -253,6 +253,8 @@ func (r *Run) span(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		r.draws3(sr, pr, from, to, bound)
 	case 2:
 		r.draws2(sr, pr, from, to, bound)
+	case 5, 6:
+		r.drawsN(sr, pr, from, to, bound)
 	default:
 		var a [MaxEndMembers]float64
 		for d := from; d < to; d++ {
