@@ -153,3 +153,25 @@ func TestHeadlineOrder(t *testing.T) {
 		}
 	}
 }
+
+func TestEveryChoiceIsAccepted(t *testing.T) {
+	// Every value the page offers in a list must be one the engine accepts.
+	for _, k := range notebook.Kinds {
+		for _, p := range notebook.Params(notebook.DefaultSettings(k)) {
+			opts := choices[p.Key]
+			if k == notebook.KindChart && p.Key == "style" {
+				opts = choices["chart-style"]
+			}
+			for _, o := range opts {
+				d := notebook.New("choices")
+				c, err := d.Add(k, -1)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if err := d.SetParam(c.ID, p.Key, o); err != nil {
+					t.Errorf("%s %s = %q: %v", k, p.Key, o, err)
+				}
+			}
+		}
+	}
+}

@@ -79,13 +79,13 @@ var choices = map[string][]string{
 	"excess_chloride":    {"halite", "human"},
 	"preset":             {"global", "granite", "basalt", "custom"},
 	"model":              {"inverse", "forward"},
-	"sulfate":            {"gypsum", "sulfide", "split"},
+	"sulfate":            {"gypsum", "sulfide"},
 	"negative_residuals": {"zero-and-flag", "keep"},
 	"estimator":          {"rating-curve", "discharge-weighted", "interpolation"},
 	"bias_correction":    {"smearing", "ferguson", "none"},
 	"time_scale":         {"short", "long"},
 	"sulfur_split":       {"proportional", "carbonate"},
-	"style":              {"points", "line"},
+	"chart-style":        {"points", "line"},
 }
 
 // unitSuffixes turn a setting key's unit ending into a readable unit.
@@ -165,7 +165,13 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 					v.NoteText = p.Value
 					continue
 				}
-				v.Params = append(v.Params, ParamView{Key: p.Key, Label: ParamLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]})
+				pv := ParamView{Key: p.Key, Label: ParamLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]}
+				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
+					pv.Options = columnRefs(d, c.ID, p.Value)
+				} else if c.Kind == notebook.KindChart && p.Key == "style" {
+					pv.Options = choices["chart-style"]
+				}
+				v.Params = append(v.Params, pv)
 			}
 		}
 		for _, r := range c.Kind.Roles() {
@@ -233,4 +239,35 @@ func Headline(cells []CellView, max int) []FigureView {
 		all = all[:max]
 	}
 	return all
+}
+
+// columnRefs lists every output column of the other cells as a chart
+// reference "cell.table.column", with current first when it is not among
+// them (so a select never shows another value than the setting's).
+func columnRefs(d *notebook.Document, self, current string) []string {
+	var refs []string
+	found := current == ""
+	if current == "" {
+		refs = append(refs, "")
+	}
+	for _, c := range d.Cells {
+		if c.ID == self {
+			continue
+		}
+		o := d.Output(c.ID)
+		if o == nil {
+			continue
+		}
+		for _, t := range o.Tables {
+			for _, col := range t.Columns {
+				r := c.ID + "." + t.Name + "." + col.Name
+				refs = append(refs, r)
+				found = found || r == current
+			}
+		}
+	}
+	if !found {
+		refs = append([]string{current}, refs...)
+	}
+	return refs
 }
