@@ -234,3 +234,35 @@ func TestSampleDrawsCap(t *testing.T) {
 		t.Errorf("got %v %v, want a problem about sample-draws", st, err)
 	}
 }
+
+func TestChecksumIgnoresLastBits(t *testing.T) {
+	mk := func(vals []float64, med float64) *Document {
+		d := New("c")
+		d.funcs = map[Kind]ComputeFunc{KindNote: func(e *Env) (*Output, error) {
+			return &Output{Figures: []Figure{{Name: "f", Median: med, Low: med * 0.5, High: med * 2}},
+				Tables: []*ResultTable{{Name: "t", Columns: []*Column{NumColumn("x", "", vals)}}}}, nil
+		}}
+		d.Add(KindNote, -1)
+		d.Recompute(context.Background(), nil)
+		return d
+	}
+	base := mk([]float64{1234.5678, 1e-17, 3.25, -0.5}, 151344.47120206445)
+	for _, tt := range []struct {
+		name  string
+		vals  []float64
+		med   float64
+		match bool
+	}{
+		{"same", []float64{1234.5678, 1e-17, 3.25, -0.5}, 151344.47120206445, true},
+		{"last bits", []float64{1234.5678000000002, -3e-17, 3.2500000000000004, -0.49999999999999994}, 151344.4712020645, true},
+		{"real change", []float64{1234.5679, 1e-17, 3.25, -0.5}, 151344.47120206445, false},
+		{"figure change", []float64{1234.5678, 1e-17, 3.25, -0.5}, 151344.48, false},
+	} {
+		t.Run(tt.name, func(t *testing.T) {
+			d := mk(tt.vals, tt.med)
+			if got := d.checksum() == base.checksum(); got != tt.match {
+				t.Errorf("checksums match = %v, want %v", got, tt.match)
+			}
+		})
+	}
+}

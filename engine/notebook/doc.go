@@ -42,8 +42,9 @@
 // bootstrap) and option is a setting stored in the file, and the engine
 // version is written in its header. Keep stores a Snapshot of the results —
 // the headline figures and a SHA-256 checksum over every output table,
-// figure and warning (numbers at 12 significant digits, so that native and
-// WebAssembly runs agree) — and Verify compares a rerun with it.
+// figure and warning (numbers rounded to 10 significant digits of the
+// largest value in their column, so that native and WebAssembly runs, and
+// sums merely reordered, agree) — and Verify compares a rerun with it.
 //
 // # File format
 //

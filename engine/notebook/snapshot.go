@@ -14,9 +14,11 @@ import (
 // for a reader of the file, and a SHA-256 checksum over every output table
 // and figure, so that a rerun can be checked against it.
 //
-// The checksum covers numbers rounded to 12 significant digits, so that the
-// same engine verifies on any machine (natively or in WebAssembly) even
-// where the last bit of a transcendental function differs.
+// The checksum covers numbers rounded to SnapshotDigits significant digits
+// of the largest value in their column (or figure), so that the same
+// results verify on any machine (natively or in WebAssembly) and after a
+// change that only reorders a sum: a last-bit difference, and float noise
+// around zero, stay below the rounding step.
 type Snapshot struct {
 	Engine   string         // engine version that computed the results
 	Checksum string         // hex SHA-256 of the canonical results text
@@ -29,8 +31,9 @@ type StoredFigure struct {
 	Figure
 }
 
-// SnapshotDigits is the number of significant digits the checksum covers.
-const SnapshotDigits = 12
+// SnapshotDigits is the number of significant digits, relative to the
+// largest value of each column or figure, that the checksum covers.
+const SnapshotDigits = 10
 
 // ErrNotComputed is returned when results are asked of a budget with stale cells.
 var ErrNotComputed = errors.New("the budget has cells that are not computed")
@@ -93,7 +96,7 @@ func (d *Document) Verify() (*Verification, error) {
 			v.Differ = append(v.Differ, fmt.Sprintf("%s: %s is new (%s)", f.Cell, f.Name, fmtFig(f.Figure)))
 			continue
 		}
-		if round(o.Median) != round(f.Median) || round(o.Low) != round(f.Low) || round(o.High) != round(f.High) {
+		if figText(o.Figure) != figText(f.Figure) {
 			v.Differ = append(v.Differ, fmt.Sprintf("%s: %s stored %s, rerun %s", f.Cell, f.Name, fmtFig(o.Figure), fmtFig(f.Figure)))
 		}
 	}
@@ -107,7 +110,17 @@ func fmtFig(f Figure) string {
 	return fmt.Sprintf("%.4g [%.4g, %.4g] %s", f.Median, f.Low, f.High, f.Unit)
 }
 
-// round formats x at SnapshotDigits significant digits.
+// figText is the canonical text of a figure's three numbers.
+func figText(f Figure) string {
+	var b strings.Builder
+	q := quantum(maxAbs(f.Median, f.Low, f.High))
+	canon(&b, f.Median, q)
+	canon(&b, f.Low, q)
+	canon(&b, f.High, q)
+	return b.String()
+}
+
+// round formats x at SnapshotDigits significant digits (for messages).
 func round(x float64) string {
 	if math.IsNaN(x) {
 		return "NaN"
@@ -116,6 +129,45 @@ func round(x float64) string {
 		return "0" // +0 and -0 alike
 	}
 	return strconv.FormatFloat(x, 'g', SnapshotDigits, 64)
+}
+
+// quantum returns the rounding step for values whose largest magnitude is
+// scale: a power of ten, SnapshotDigits digits below the leading one.
+func quantum(scale float64) float64 {
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		return 0
+	}
+	return math.Pow10(int(math.Floor(math.Log10(scale))) - (SnapshotDigits - 1))
+}
+
+// canon writes x as a whole number of steps q (the canonical text of the
+// checksum); NaN and infinities are written by name.
+func canon(b *strings.Builder, x, q float64) {
+	switch {
+	case math.IsNaN(x):
+		b.WriteString("NaN")
+	case math.IsInf(x, 0):
+		b.WriteString(strconv.FormatFloat(x, 'g', -1, 64))
+	case q == 0:
+		b.WriteString("0")
+	default:
+		n := math.Round(x / q)
+		if n == 0 {
+			n = 0 // no -0
+		}
+		b.WriteString(strconv.FormatFloat(n, 'f', 0, 64))
+	}
+	b.WriteByte(' ')
+}
+
+func maxAbs(xs ...float64) float64 {
+	m := 0.0
+	for _, x := range xs {
+		if a := math.Abs(x); a > m && !math.IsInf(a, 0) {
+			m = a
+		}
+	}
+	return m
 }
 
 // checksum hashes the canonical text of every cell's outputs.
@@ -132,7 +184,12 @@ func (d *Document) checksum() string {
 		o := d.Output(c.ID)
 		if o != nil {
 			for _, f := range o.Figures {
-				fmt.Fprintf(&b, "figure %s|%s|%s|%s|%s\n", f.Name, f.Unit, round(f.Median), round(f.Low), round(f.High))
+				fmt.Fprintf(&b, "figure %s|%s|", f.Name, f.Unit)
+				q := quantum(maxAbs(f.Median, f.Low, f.High))
+				canon(&b, f.Median, q)
+				canon(&b, f.Low, q)
+				canon(&b, f.High, q)
+				b.WriteByte('\n')
 			}
 			for _, w := range o.Warnings {
 				fmt.Fprintf(&b, "warning %s\n", w)
@@ -141,9 +198,9 @@ func (d *Document) checksum() string {
 				fmt.Fprintf(&b, "table %s\n", t.Name)
 				for _, col := range t.Columns {
 					fmt.Fprintf(&b, "column %s|%s|", col.Name, col.Unit)
+					q := quantum(maxAbs(col.Num...))
 					for _, x := range col.Num {
-						b.WriteString(round(x))
-						b.WriteByte(' ')
+						canon(&b, x, q)
 					}
 					for _, x := range col.Text {
 						b.WriteString(strconv.Quote(x))

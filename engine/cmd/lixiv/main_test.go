@@ -35,7 +35,7 @@ var longNumber = regexp.MustCompile(`-?[0-9]+\.[0-9]{8,}(e[-+]?[0-9]+)?`)
 
 // normalise rounds numbers printed in full to 10 significant digits, so that
 // a last-bit change in an engine package (a reordered sum) does not fail a
-// golden file; the stored budgets' checksums cover results at 12 digits.
+// golden file; the stored budgets' checksums cover results at 10 digits of each column.
 func normalise(b []byte) []byte {
 	return longNumber.ReplaceAllFunc(b, func(m []byte) []byte {
 		x, err := strconv.ParseFloat(string(m), 64)
