@@ -1,5 +1,5 @@
 // Command gen writes the example budgets in examples/, and the small golden
-// budgets in testdata/budgets/, from their invented truth (package synth),
+// budgets in testdata/budgets/ and the command-line test CSV files, from their invented truth (package synth),
 // computes them and stores their results snapshot.
 // Run it from the repository root: go run ./examples/gen
 package main
@@ -31,6 +31,14 @@ func run(dir string) error {
 			return err
 		}
 		if err := os.WriteFile(path, d.Marshal(), 0o644); err != nil {
+			return err
+		}
+		fmt.Println("wrote", path)
+	}
+	smp, flow := synth.QuickCSV()
+	for i, text := range []string{smp, flow} {
+		path := filepath.Join(dir, synth.QuickFiles[i])
+		if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
 			return err
 		}
 		fmt.Println("wrote", path)

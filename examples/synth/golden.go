@@ -1,6 +1,8 @@
 package synth
 
 import (
+	"strings"
+
 	"lixiv/engine/discharge"
 	"lixiv/engine/notebook"
 )
@@ -74,3 +76,40 @@ func smallRain() (*notebook.Document, error) {
 	}
 	return d, d.SetTable("rain", rain)
 }
+
+// QuickCSV returns the samples and discharge files the command-line tests
+// feed to "lixiv quick": two years of a Corrie Vale-like burn, sampled every
+// three weeks, with units in the headers ("Na (mg/L)") as many laboratories
+// write them.
+func QuickCSV() (samples, flow string) {
+	t := CorrieVale()
+	t.Name, t.Code, t.Seed, t.Days, t.SampleEvery = "Corrie Vale (quick)", "CQ", 31, 730, 21
+	q := t.Discharge()
+	st := SampleTable(t.Samples(q))
+	var b strings.Builder
+	for i, c := range st.Columns {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		if st.Units[i] != "" {
+			c += " (" + st.Units[i] + ")"
+		}
+		b.WriteString(c)
+	}
+	b.WriteByte('\n')
+	for _, r := range st.Rows {
+		b.WriteString(strings.Join(r, ","))
+		b.WriteByte('\n')
+	}
+	samples = b.String()
+	b.Reset()
+	b.WriteString("date,Q (m3/s)\n")
+	for _, r := range DischargeTable(t.Start, q).Rows {
+		b.WriteString(strings.Join(r, ","))
+		b.WriteByte('\n')
+	}
+	return samples, b.String()
+}
+
+// QuickFiles are where QuickCSV's files live, from the repository root.
+var QuickFiles = [2]string{"engine/cmd/lixiv/testdata/quick-samples.csv", "engine/cmd/lixiv/testdata/quick-discharge.csv"}

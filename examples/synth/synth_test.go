@@ -80,3 +80,16 @@ func TestExamplesAreCurrent(t *testing.T) {
 		})
 	}
 }
+
+func TestQuickFilesAreCurrent(t *testing.T) {
+	smp, flow := QuickCSV()
+	for i, want := range []string{smp, flow} {
+		got, err := os.ReadFile("../../" + QuickFiles[i])
+		if err != nil {
+			t.Fatal(err)
+		}
+		if string(got) != want {
+			t.Errorf("%s is stale: run go run ./examples/gen", QuickFiles[i])
+		}
+	}
+}
