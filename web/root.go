@@ -47,10 +47,13 @@ type Root struct {
 	verifyGen  int                // recompute the cached verification belongs to
 	verifyDoc  *notebook.Document // and its document
 	verifyText string
-	gen        int // completed recomputes
-	ready      bool
-	keys       js.Func
-	rows       map[string]int // rows shown per input table
+
+	buildStart  float64 // when the render now running began (ms)
+	savePending bool    // an edit waits to be saved to browser storage
+	gen         int     // completed recomputes
+	ready       bool
+	keys        js.Func
+	rows        map[string]int // rows shown per input table
 }
 
 // Init loads the last autosaved budget, or the demo on a first visit.
@@ -110,13 +113,14 @@ func (c *Root) open(doc *notebook.Document, name string) {
 // changed runs after every change of the document: autosave, then recompute.
 func (c *Root) changed() {
 	c.Unsaved = true
-	c.autosave()
+	c.savePending = true // saved by the recompute, once the edit has painted
 	c.editStart, c.painted = nowMillis(), false
 	c.recompute()
 }
 
 func (c *Root) autosave() {
-	if err := storageSet(storageKey, string(c.S.Doc.Marshal())); err != nil {
+	c.savePending = false
+	if err := storageSet(storageKey, string(c.S.Current())); err != nil {
 		c.SavedText, c.SavedOK = "Not saved: "+err.Error(), false
 		return
 	}
@@ -141,6 +145,7 @@ func docFileName(d *notebook.Document) string {
 
 // Compute gathers what the page shows before each render.
 func (c *Root) Compute(ctx vugu.ComputeCtx) {
+	c.buildStart = nowMillis()
 	if c.S == nil {
 		return
 	}
@@ -224,6 +229,9 @@ func (c *Root) Rendered() {
 		return
 	}
 	ds := body.Get("dataset")
+	if c.buildStart > 0 { // for the timing harness: the cost of one full render
+		js.Global().Set("lixivLastRender", nowMillis()-c.buildStart)
+	}
 	if !c.ready && c.S != nil && c.Loading == "" {
 		c.ready = true
 		ds.Set("ready", "1")
@@ -275,6 +283,12 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 	if prev != nil {
 		<-prev
 	}
+	yieldToBrowser() // let the edit paint first
+	c.env.Lock()
+	if c.savePending {
+		c.autosave()
+	}
+	c.env.UnlockOnly()
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	breathe := func() {

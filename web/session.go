@@ -27,6 +27,16 @@ type Session struct {
 	Message   string              // last page-wide message (file problems)
 
 	changed func() // called after every change of the document
+	current []byte // the budget file of the document as it is, or nil
+}
+
+// Current returns the budget file of the document as it stands (without
+// results), kept between edits so that undo and autosave share one copy.
+func (s *Session) Current() []byte {
+	if s.current == nil {
+		s.current = s.Doc.Marshal()
+	}
+	return s.current
 }
 
 // NewSession opens doc.
@@ -53,7 +63,7 @@ func (s *Session) OnChange(f func()) { s.changed = f }
 // the redo stack is cleared and the change is announced; on failure the
 // document is unchanged and the message is kept for the cell.
 func (s *Session) Do(cell string, edit func(d *notebook.Document) error) error {
-	before := s.Doc.Marshal()
+	before := s.Current()
 	if err := edit(s.Doc); err != nil {
 		if cell != "" {
 			s.CellErr[cell] = err.Error()
@@ -64,6 +74,7 @@ func (s *Session) Do(cell string, edit func(d *notebook.Document) error) error {
 	}
 	delete(s.CellErr, cell)
 	s.Message = ""
+	s.current = nil
 	s.push(&s.undo, before)
 	s.redo = nil
 	s.announce()
@@ -105,8 +116,8 @@ func (s *Session) step(from, to *[][]byte) error {
 		return fmt.Errorf("undo: %w", err)
 	}
 	*from = (*from)[:len(*from)-1]
-	s.push(to, s.Doc.Marshal())
-	s.Doc = doc
+	s.push(to, s.Current())
+	s.Doc, s.current = doc, b
 	s.CellErr = map[string]string{}
 	s.announce()
 	return nil
@@ -115,9 +126,10 @@ func (s *Session) step(from, to *[][]byte) error {
 // Replace opens another document (a file the user opened); the current one
 // stays reachable by undo.
 func (s *Session) Replace(doc *notebook.Document, fileName string) {
-	s.push(&s.undo, s.Doc.Marshal())
+	s.push(&s.undo, s.Current())
 	s.redo = nil
 	s.reset(doc, fileName)
+	s.current = nil
 	s.announce()
 }
 

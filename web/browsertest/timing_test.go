@@ -65,6 +65,13 @@ func TestTiming(t *testing.T) {
 		notes = append(notes, eval[float64](t, ctx, `lixivLastRecompute`))
 	}
 	t.Logf("timing: edit of a note (no science downstream) to repainted page: %s", stats(notes))
+	var renders []float64
+	for i := 0; i < 8; i++ {
+		eval[bool](t, ctx, `document.querySelector("section.cell .fold").click() || true`)
+		time.Sleep(150 * time.Millisecond)
+		renders = append(renders, eval[float64](t, ctx, `lixivLastRender`))
+	}
+	t.Logf("timing: one full render of the page (a fold click): %s", stats(renders))
 	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
 	t.Logf("timing: (demo shows %d sample rows)", samples)
 }
