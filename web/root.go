@@ -65,6 +65,7 @@ func (c *Root) Init(ctx vugu.InitCtx) {
 		doc, err := notebook.Parse([]byte(text), "autosave")
 		if err == nil {
 			c.open(doc, docFileName(doc))
+			c.savePending = false // it is what storage holds
 			c.SavedText, c.SavedOK = "Reopened from this browser's storage", true
 			return
 		}

@@ -520,3 +520,31 @@ func TestImportProblemBesideTable(t *testing.T) {
 		t.Errorf("what the user typed: got %q, want it kept", v)
 	}
 }
+
+func TestAutosaveReopens(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	atm := cellOf(t, ctx, "atmosphere")
+	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.66")
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("saved-state").textContent.startsWith("Saved in this browser")`,
+		chromedp.WithPollingTimeout(10*time.Second))); err != nil {
+		t.Fatalf("no visible saved state: %v", err)
+	}
+	_, want := co2Figure(t, ctx)
+	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	waitReady(t, ctx)
+	waitIdle(t, ctx)
+	if got := eval[string](t, ctx, fmt.Sprintf(`document.getElementById("p-%s-na_per_cl").value`, atm)); got != "0.66" {
+		t.Errorf("Na/Cl after reopening: got %q, want the autosaved 0.66", got)
+	}
+	if _, got := co2Figure(t, ctx); got != want {
+		t.Errorf("CO2 after reopening: got %q, want %q", got, want)
+	}
+	if s := eval[string](t, ctx, `document.getElementById("saved-state").textContent`); !strings.Contains(s, "storage") {
+		t.Errorf("saved state after reopening: got %q", s)
+	}
+}
