@@ -307,7 +307,7 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 		c.env.UnlockOnly()
 	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice {
+		if nowMillis()-lastYield <= slice || ctx.Err() != nil {
 			return
 		}
 		c.env.Lock()
