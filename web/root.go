@@ -307,7 +307,11 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 		c.env.UnlockOnly()
 	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice || ctx.Err() != nil {
+		if nowMillis()-lastYield <= slice {
+			return
+		}
+		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
+			breathe()
 			return
 		}
 		c.env.Lock()
