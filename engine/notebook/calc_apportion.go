@@ -163,9 +163,9 @@ func computeApportionment(e *Env) (*Output, error) {
 			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
 				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
 		}
-		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.doc.Workers}
+		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.Workers()}
 		var res *mix.Result
-		if e.doc.Workers == 1 || runtime.GOOS == "js" {
+		if e.Workers() == 1 || runtime.GOOS == "js" {
 			// One goroutine, in chunks: the progress callback runs between
 			// chunks, so a page can yield to the browser there. The chunk
 			// size does not change the result.

@@ -250,3 +250,7 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 	}
 	return out, err
 }
+
+// Workers returns the number of goroutines the computation may use (0: all
+// cores); see Document.Workers.
+func (e *Env) Workers() int { return e.doc.Workers }
