@@ -9,6 +9,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/chromedp"
 )
 
@@ -62,6 +63,29 @@ func TestShots(t *testing.T) {
 		id := eval[string](t, ctx, `document.querySelector("section.kind-samples").id`)
 		if png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id))); err == nil {
 			save(t, filepath.Join(dir, id+"-problem.png"), png)
+		}
+	}
+	// A long run in progress.
+	ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`)
+	if ap != "" {
+		eval[bool](t, ctx, fmt.Sprintf(`(() => { const el = document.getElementById("p-%s-draws");
+			el.value = "40000"; el.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, ap[len("cell-"):]))
+		if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.querySelector("section.state-running progress")`,
+			chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err == nil {
+			time.Sleep(400 * time.Millisecond)
+			eval[bool](t, ctx, `(() => { (document.querySelector("section.state-running") || document.querySelector("section.kind-apportionment")).scrollIntoView(); return true })()`)
+			time.Sleep(200 * time.Millisecond)
+			if png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot()); err == nil {
+				save(t, filepath.Join(dir, "running.png"), png)
+			}
+		}
+		waitIdle(t, ctx)
+	}
+	// The page as printed (black and white is how most will print it).
+	if _, err := chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"}); err == nil {
+		eval[bool](t, ctx, `(() => { document.querySelector("section.kind-fluxes").scrollIntoView(); return true })()`)
+		if png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot()); err == nil {
+			save(t, filepath.Join(dir, "print.png"), png)
 		}
 	}
 }
