@@ -111,6 +111,14 @@ func TestDemoShowsCO2(t *testing.T) {
 		t.Errorf("summary strip: got %q, want a CO2 figure", summary)
 	}
 	t.Logf("%s = %s", name, value)
+	// The demo file carries the results computed natively; the page's rerun
+	// in WebAssembly must reproduce them.
+	if v := eval[string](t, ctx, `document.getElementById("verify").textContent`); v != "stored results match the rerun" {
+		t.Errorf("footer: got %q, want the demo's stored results to match the rerun", v)
+	}
+	if v := eval[string](t, ctx, `document.getElementById("engine-version").textContent`); v == "" {
+		t.Errorf("footer: no engine version")
+	}
 }
 
 func TestRainRatioChangesResult(t *testing.T) {

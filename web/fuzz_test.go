@@ -1,0 +1,43 @@
+package web
+
+import (
+	"strings"
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+// FuzzParseDelimited feeds arbitrary text to the page's table readers: they
+// must never panic, every row must fit the header, and pasting must never
+// lose a row or leave rows wider than the table.
+func FuzzParseDelimited(f *testing.F) {
+	for _, s := range []string{
+		"sample\tNa\n\tmg/L\nCV-1\t3.1\n",
+		"\ufeffa,b\n\"x\"\"y\",2\n",
+		"a;b\n1;2;3\n\"unterminated\n",
+		"",
+		"\n\n\t\t\n",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, text string) {
+		tab := ParseDelimited(text, true)
+		if len(tab.Units) != 0 && len(tab.Units) != len(tab.Columns) {
+			t.Fatalf("units %d for %d columns", len(tab.Units), len(tab.Columns))
+		}
+		base := &notebook.Table{Columns: []string{"sample", "Na"}, Units: []string{"", "mg/L"}}
+		n := AppendRows(base, text)
+		if n != len(base.Rows) {
+			t.Fatalf("AppendRows said %d, table has %d rows", n, len(base.Rows))
+		}
+		for i, r := range base.Rows {
+			if len(r) != len(base.Columns) {
+				t.Fatalf("row %d has %d cells for %d columns", i, len(r), len(base.Columns))
+			}
+		}
+		if len(base.Units) != len(base.Columns) {
+			t.Fatalf("units %d for %d columns after a paste", len(base.Units), len(base.Columns))
+		}
+		TableProblems("samples", base, strings.Split(text, "\n"))
+	})
+}
