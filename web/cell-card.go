@@ -19,7 +19,7 @@ type CellCard struct {
 }
 
 // pageRows is how many table rows show before "show more".
-const pageRows = 25
+const pageRows = 20
 
 // Rows returns the rows of the input table that are shown.
 func (c *CellCard) Rows() [][]string {
@@ -50,17 +50,33 @@ func (c *CellCard) RowCells(r []string) []string {
 	return pad(r, len(c.V.Table.Columns))
 }
 
-// ResultRows returns the rows of an output table shown, formatted.
+// Folded output tables show at most this many rows and columns.
+const (
+	foldedRows    = 10
+	foldedColumns = 14
+)
+
+// ResultColumns returns the columns of output table ti that are shown.
+func (c *CellCard) ResultColumns(ti int) []*notebook.Column {
+	cols := c.V.Results[ti].Columns
+	if !c.R.S.expanded(c.V.ID, ti) && len(cols) > foldedColumns {
+		cols = cols[:foldedColumns]
+	}
+	return cols
+}
+
+// ResultRows returns the rows of output table ti that are shown, formatted.
 func (c *CellCard) ResultRows(ti int) [][]string {
 	t := c.V.Results[ti]
+	cols := c.ResultColumns(ti)
 	n := t.Len()
-	if !c.R.S.expanded(c.V.ID, ti) && n > 10 {
-		n = 10
+	if !c.R.S.expanded(c.V.ID, ti) && n > foldedRows {
+		n = foldedRows
 	}
 	rows := make([][]string, n)
 	for i := range rows {
-		row := make([]string, len(t.Columns))
-		for j, col := range t.Columns {
+		row := make([]string, len(cols))
+		for j, col := range cols {
 			if col.Text != nil {
 				if i < len(col.Text) {
 					row[j] = col.Text[i]
@@ -74,9 +90,10 @@ func (c *CellCard) ResultRows(ti int) [][]string {
 	return rows
 }
 
-// ResultHidden says how many rows of output table ti are folded away.
-func (c *CellCard) ResultHidden(ti int) int {
-	return c.V.Results[ti].Len() - len(c.ResultRows(ti))
+// ResultHidden says whether output table ti has rows or columns folded away.
+func (c *CellCard) ResultHidden(ti int) bool {
+	t := c.V.Results[ti]
+	return !c.R.S.expanded(c.V.ID, ti) && (t.Len() > foldedRows || len(t.Columns) > foldedColumns)
 }
 
 // ResultExpanded reports whether output table ti shows all its rows.
@@ -329,9 +346,17 @@ func (c *CellCard) ResultTitle(ti int) string {
 // ResultToggleLine labels the fold button of output table ti.
 func (c *CellCard) ResultToggleLine(ti int) string {
 	if c.ResultExpanded(ti) {
-		return "Show fewer rows"
+		return "Fold the table"
 	}
-	return fmt.Sprintf("Show all rows (%d more)", c.ResultHidden(ti))
+	t := c.V.Results[ti]
+	var more []string
+	if n := t.Len() - foldedRows; n > 0 {
+		more = append(more, fmt.Sprintf("%d more rows", n))
+	}
+	if n := len(t.Columns) - foldedColumns; n > 0 {
+		more = append(more, fmt.Sprintf("%d more columns", n))
+	}
+	return "Show the whole table (" + strings.Join(more, ", ") + ")"
 }
 
 // IsSources reports an end-member cell.

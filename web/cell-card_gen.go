@@ -1028,7 +1028,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											{
 												vgparent := vgn
 												_ = vgparent
-												for vgiterkeyt, col := range t.Columns {
+												for vgiterkeyt, col := range c.ResultColumns(ti) {
 													var vgiterkey interface{} = vgiterkeyt
 													_ = vgiterkey
 													col := col
@@ -1076,7 +1076,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 								vgparent.AppendChild(vgn)
-								if c.ResultHidden(ti) > 0 || c.ResultExpanded(ti) {
+								if c.ResultHidden(ti) || c.ResultExpanded(ti) {
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
 									vgn.SetInnerHTML(c.ResultToggleLine(ti))
