@@ -375,7 +375,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							vgn.SetInnerHTML(vugu.HTML("Text"))
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "textarea", Attr: []vugu.VGAttribute{{Namespace: "", Key: "rows", Val: "4"}}}
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "textarea", Attr: []vugu.VGAttribute{{Namespace: "", Key: "rows", Val: "2"}}}
 							vgparent.AppendChild(vgn)
 							vgn.AddAttrInterface("id", "note-"+c.V.ID)
 							{

@@ -608,18 +608,28 @@ func (c *Root) Message() string {
 	return c.S.Message
 }
 
-// CountsLine counts the cells by state.
+// CountsLine counts the samples, flags, warnings and cells in trouble.
 func (c *Root) CountsLine() string {
-	ok, bad := 0, 0
+	var parts []string
 	for _, v := range c.Cells {
-		switch v.State {
-		case "ok":
-			ok++
-		case "problem", "waiting":
+		for _, f := range v.Figures {
+			switch f.Name {
+			case "samples read":
+				parts = append(parts, f.Value+" samples")
+			case "samples flagged":
+				parts = append(parts, f.Value+" flagged")
+			}
+		}
+	}
+	warn, bad := 0, 0
+	for _, v := range c.Cells {
+		warn += len(v.Warnings) + len(v.TableProblems)
+		if v.State == "problem" || v.State == "waiting" {
 			bad++
 		}
 	}
-	return fmt.Sprintf("%d up to date, %d with problems", ok, bad)
+	parts = append(parts, fmt.Sprintf("%d warnings", warn), fmt.Sprintf("%d cells with problems", bad))
+	return strings.Join(parts, ", ")
 }
 
 // BusyLine says whether a recompute is running.

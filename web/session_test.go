@@ -142,15 +142,18 @@ func TestParamLabel(t *testing.T) {
 }
 
 func TestHeadlineOrder(t *testing.T) {
-	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "samples read"},
+	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "runoff", Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
 		{Name: "carbonate CO2 consumption per km²", Unit: "mol/km²/yr"}, {Name: "silicate CO2 consumption per km²", Unit: "mol/km²/yr"}}}}
-	got := Headline(cells, 3)
-	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff"}
+	got := Headline(cells, 4)
+	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff", "median silicate CO2 consumption per litre"}
 	for i := range want {
 		if i >= len(got) || got[i].Name != want[i] {
 			t.Fatalf("headline: got %v, want %v", got, want)
 		}
+	}
+	if got[2].Interval == "" {
+		t.Errorf("runoff: got the figure without an interval, want the one with")
 	}
 }
 

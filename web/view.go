@@ -216,25 +216,43 @@ func Headline(cells []CellView, max int) []FigureView {
 	rank := func(f FigureView) int {
 		n := strings.ToLower(f.Name)
 		perArea := strings.Contains(f.Unit, "km²")
+		carbon := strings.Contains(f.Unit, "C/")
 		switch {
-		case strings.Contains(n, "co2") && strings.Contains(n, "silicate") && perArea && !strings.Contains(f.Unit, "C"):
+		case strings.Contains(n, "co2") && strings.Contains(n, "silicate") && perArea && !carbon:
 			return 0
-		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate") && perArea && !strings.Contains(f.Unit, "C"):
+		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate") && perArea && !carbon:
 			return 1
 		case strings.Contains(n, "silicate") && strings.Contains(n, "weathering rate"):
 			return 2
 		case n == "runoff":
 			return 3
-		case strings.Contains(n, "co2") && perArea:
+		case strings.Contains(n, "weathering rate"):
 			return 4
+		case strings.Contains(n, "co2") && perArea:
+			return 5
 		case strings.Contains(n, "co2"):
 			return 6
-		case strings.Contains(n, "runoff"):
-			return 7
 		}
 		return 10
 	}
-	sort.SliceStable(all, func(i, j int) bool { return rank(all[i]) < rank(all[j]) })
+	// Within a rank, a figure with an interval comes first, and a name
+	// shown once (runoff is reported by more than one cell).
+	sort.SliceStable(all, func(i, j int) bool {
+		ri, rj := rank(all[i]), rank(all[j])
+		if ri != rj {
+			return ri < rj
+		}
+		return all[i].Interval != "" && all[j].Interval == ""
+	})
+	seen := map[string]bool{}
+	kept := all[:0]
+	for _, f := range all {
+		if !seen[f.Name] {
+			seen[f.Name] = true
+			kept = append(kept, f)
+		}
+	}
+	all = kept
 	if len(all) > max {
 		all = all[:max]
 	}
