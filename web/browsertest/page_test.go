@@ -556,3 +556,35 @@ func TestAutosaveReopens(t *testing.T) {
 		t.Errorf("saved state after reopening: got %q", s)
 	}
 }
+
+// TestEveryExampleOpens opens each example budget through the file picker
+// and checks that every cell computes and the stored results match.
+func TestEveryExampleOpens(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join(repo, "examples", "*", "*.lixiv.json"))
+	if len(files) == 0 {
+		t.Skip("no example budgets")
+	}
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			gen := eval[string](t, ctx, `document.body.dataset.gen`)
+			if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{f})); err != nil {
+				t.Fatal(err)
+			}
+			waitGen(t, ctx, gen)
+			bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id + ": " + (s.querySelector(".problem") || {textContent: ""}).textContent)`)
+			if len(bad) > 0 {
+				t.Errorf("cells with problems: %q", bad)
+			}
+			if n := eval[int](t, ctx, `document.querySelectorAll(".svg-mount svg").length`); n == 0 {
+				t.Errorf("no chart drawn")
+			}
+			if v := eval[string](t, ctx, `document.getElementById("verify").textContent`); v != "stored results match the rerun" && v != "this budget holds no stored results" {
+				t.Errorf("footer: got %q", v)
+			}
+		})
+	}
+}
