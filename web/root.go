@@ -50,6 +50,7 @@ type Root struct {
 
 	buildStart  float64 // when the render now running began (ms)
 	savePending bool    // an edit waits to be saved to browser storage
+	docTitle    string  // the browser tab's title as last set
 	gen         int     // completed recomputes
 	ready       bool
 	keys        js.Func
@@ -228,6 +229,10 @@ func (c *Root) Rendered() {
 	body := js.Global().Get("document").Get("body")
 	if !body.Truthy() {
 		return
+	}
+	if t := c.Title() + " · Lixiv"; c.S != nil && c.docTitle != t {
+		c.docTitle = t
+		js.Global().Get("document").Set("title", t)
 	}
 	ds := body.Get("dataset")
 	if c.buildStart > 0 { // for the timing harness: the cost of one full render

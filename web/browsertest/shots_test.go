@@ -28,6 +28,13 @@ func TestShots(t *testing.T) {
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)
+	if f := os.Getenv("LIXIV_SHOTS_BUDGET"); f != "" { // pictures of another budget than the demo
+		gen := eval[string](t, ctx, `document.body.dataset.gen`)
+		if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{f})); err != nil {
+			t.Fatal(err)
+		}
+		waitGen(t, ctx, gen)
+	}
 	time.Sleep(300 * time.Millisecond)
 	png, err := chromedp.Run(ctx, chromedp.FullScreenshot(100))
 	if err != nil {
