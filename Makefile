@@ -50,6 +50,8 @@ chromium:
 
 # browser: chromedp tests against Debian's Chromium and the built page.
 browser: chromium build
+	$(GO) vet -tags browser ./web/browsertest/
+	GOOS=js GOARCH=wasm $(GO) vet ./web/... ./wasm/...
 	$(GO) test -count=1 -tags browser -timeout 10m ./web/browsertest/
 
 # browser-timing: first render of the demo and edit-to-repaint times, printed (no assertion).
