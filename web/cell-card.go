@@ -408,3 +408,12 @@ func (c *CellCard) HeadClass(col int) string {
 	}
 	return "colname"
 }
+
+// CellLabel names a table cell for screen readers: "row 3, Na".
+func (c *CellCard) CellLabel(row, col int) string {
+	name := ""
+	if col < len(c.V.Table.Columns) {
+		name = c.V.Table.Columns[col]
+	}
+	return fmt.Sprintf("row %d, %s", row+1, name)
+}

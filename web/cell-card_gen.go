@@ -623,6 +623,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 															_ = vgparent
 															vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute(nil)}
 															vgparent.AppendChild(vgn)
+															vgn.AddAttrInterface("aria-label", c.CellLabel(i, j))
 															vgn.AddAttrInterface("class", c.CellClass(i, j))
 															{
 																b, err := vjson.Marshal(v)
