@@ -1,0 +1,43 @@
+package notebook
+
+import (
+	"context"
+	"strings"
+	"testing"
+)
+
+// FuzzCompute feeds any text as the sample table of a small budget and
+// computes it: every cell must end up up to date or with a problem it
+// names, never with an internal error (a recovered panic).
+func FuzzCompute(f *testing.F) {
+	f.Add("sample,date,Na,K,Ca,Mg,Cl,SO4,Alk\n,,µmol/L,µmol/L,µmol/L,µmol/L,µmol/L,µmol/L,µeq/L\nA,2021-05-01,100,10,200,50,50,40,460\n")
+	f.Add("sample\tdate\tNa (mg/L)\tCa (mg/L)\tCl (mg/L)\tAlk (meq/L)\nA\t01/05/2021\t2,3\t<0.1\tn.d.\t0.5\n")
+	f.Add("sample,date,Na,Cl\n,,mg/L,mg/L\nA,2021-05-01,0,0\nB,2021-05-02,-1,1e308\n")
+	f.Fuzz(func(t *testing.T, text string) {
+		tab, err := TableFromText(text)
+		if err != nil || len(tab.Rows) > 50 || len(tab.Columns) > 20 {
+			return
+		}
+		d := New("fuzz")
+		for _, k := range []Kind{KindSamples, KindAtmosphere, KindSources, KindApportionment, KindCO2} {
+			if _, err := d.Add(k, -1); err != nil {
+				t.Fatal(err)
+			}
+		}
+		src, _ := SourcesTable("global")
+		d.SetTable("sources", src)
+		d.SetTable("samples", tab)
+		if len(text)%2 == 0 { // both models, chosen by the input
+			d.SetParam("apportionment", "model", "forward")
+		}
+		d.SetParam("apportionment", "draws", "20")
+		if err := d.Recompute(context.Background(), nil); err != nil {
+			t.Fatal(err)
+		}
+		for _, c := range d.Cells {
+			if _, err := d.Status(c.ID); err != nil && strings.Contains(err.Error(), "internal error") {
+				t.Fatalf("cell %s: %v", c.ID, err)
+			}
+		}
+	})
+}
