@@ -297,8 +297,12 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 	c.env.UnlockOnly()
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
+	longest, longestCell := 0.0, ""
 	breathe := func() {
-		if nowMillis()-lastYield > slice {
+		if d := nowMillis() - lastYield; d > slice {
+			if d > longest {
+				longest, longestCell = d, c.running
+			}
 			yieldToBrowser()
 			lastYield = nowMillis()
 		}
@@ -351,6 +355,8 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 		}
 		c.env.Lock()
 		if err != nil || !more {
+			// For the timing harness: the longest stretch without a yield.
+			js.Global().Set("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
 			c.running, c.busy = "", false
 			c.gen++
 			if err != nil {

@@ -72,6 +72,17 @@ func TestTiming(t *testing.T) {
 		renders = append(renders, eval[float64](t, ctx, `lixivLastRender`))
 	}
 	t.Logf("timing: one full render of the page (a fold click): %s", stats(renders))
+	// Responsiveness during a long run: the longest gap of a 10 ms heartbeat.
+	if ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`); ap != "" {
+		eval[bool](t, ctx, `(() => { window.lixivGap = 0; let last = performance.now();
+			window.lixivBeat = setInterval(() => { const n = performance.now(); lixivGap = Math.max(lixivGap, n - last); last = n; }, 10);
+			return true })()`)
+		edit(t, ctx, "#p-"+ap[len("cell-"):]+"-draws", "40000")
+		gap := eval[float64](t, ctx, `(() => { clearInterval(lixivBeat); return lixivGap })()`)
+		run := eval[float64](t, ctx, `lixivLastRecompute`)
+		t.Logf("timing: a 40000-draw run took %.0f ms; longest main-thread stall meanwhile %.0f ms (longest slice without a yield: %s)",
+			run, gap, eval[string](t, ctx, `lixivLongestSlice`))
+	}
 	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
 	t.Logf("timing: (demo shows %d sample rows)", samples)
 }
