@@ -1,0 +1,68 @@
+package web
+
+import (
+	"context"
+	"os"
+	"strings"
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+// TestChartsOfTheDemo computes the demo budget natively and checks that
+// every chart the page promises is drawn from the engine's outputs: a
+// renamed output table or column shows up here rather than as a chart
+// that silently goes missing.
+func TestChartsOfTheDemo(t *testing.T) {
+	b, err := os.ReadFile("../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Skip("no demo budget:", err)
+	}
+	d, err := notebook.Parse(b, "corrie-vale")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	want := map[notebook.Kind][]string{
+		notebook.KindSamples:       {"Charge balance"},
+		notebook.KindDischarge:     {"Hydrograph"},
+		notebook.KindSources:       {"Mixing diagram: Ca/Na against Mg/Na", "Mixing diagram: Ca/Na against HCO3/Na"},
+		notebook.KindApportionment: {"Sources of Ca", "Sources of Na"},
+		notebook.KindFluxes:        {"Concentration against discharge", "Mean annual yield of each cation", "Mean annual cation yield"},
+		notebook.KindCO2:           {"CO2 consumption by source"},
+	}
+	var cc ChartCache
+	for _, c := range d.Cells {
+		titles, ok := want[c.Kind]
+		if !ok {
+			continue
+		}
+		t.Run(string(c.Kind), func(t *testing.T) {
+			o := d.Output(c.ID)
+			if o == nil {
+				t.Fatalf("cell %s not computed", c.ID)
+			}
+			views := cc.For(d, c, o)
+			if len(views) != len(titles) {
+				var got []string
+				for _, v := range views {
+					got = append(got, v.Title)
+				}
+				t.Fatalf("charts: got %q, want %d: %q", got, len(titles), titles)
+			}
+			for i, v := range views {
+				if !strings.HasPrefix(v.Title, titles[i]) {
+					t.Errorf("chart %d: got %q, want %q", i, v.Title, titles[i])
+				}
+				if !strings.HasPrefix(v.SVG, "<svg") || strings.Count(v.SVG, "<path")+strings.Count(v.SVG, "<rect")+strings.Count(v.SVG, "<circle") < 10 {
+					t.Errorf("chart %q draws almost nothing", v.Title)
+				}
+			}
+			if again := cc.For(d, c, o); len(again) > 0 && &again[0] != &views[0] {
+				t.Errorf("charts redrawn with no change of their inputs")
+			}
+		})
+	}
+}
