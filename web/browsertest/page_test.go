@@ -588,3 +588,28 @@ func TestEveryExampleOpens(t *testing.T) {
 		})
 	}
 }
+
+func TestBadBudgetFileKeepsTheOpenOne(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	title := eval[string](t, ctx, `document.getElementById("budget-title").value`)
+	bad := filepath.Join(t.TempDir(), "broken.lixiv.json")
+	if err := os.WriteFile(bad, []byte("{\n  \"format\": \"lixiv-budget\",\n  \"cells\": [ oops ]\n}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{bad})); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("page-message")`, chromedp.WithPollingTimeout(10*time.Second))); err != nil {
+		t.Fatalf("no message about the bad file: %v", err)
+	}
+	msg := eval[string](t, ctx, `document.getElementById("page-message").textContent`)
+	if !strings.Contains(msg, "broken.lixiv.json") || !strings.Contains(msg, ":3") {
+		t.Errorf("message: got %q, want the file and line 3 named", msg)
+	}
+	if got := eval[string](t, ctx, `document.getElementById("budget-title").value`); got != title {
+		t.Errorf("open budget: got %q, want %q kept", got, title)
+	}
+}
