@@ -259,7 +259,8 @@ func (c *Root) Rendered() {
 		if !c.busy && c.editStart > 0 {
 			js.Global().Set("lixivLastRecompute", nowMillis()-c.editStart)
 			js.Global().Set("lixivLastStep", c.stepMillis)
-			c.stepMillis = 0
+			js.Global().Set("lixivLastCharts", c.charts.Millis)
+			c.stepMillis, c.charts.Millis = 0, 0
 			c.editStart = 0
 		}
 	}
