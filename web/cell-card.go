@@ -417,3 +417,11 @@ func (c *CellCard) CellLabel(row, col int) string {
 	}
 	return fmt.Sprintf("row %d, %s", row+1, name)
 }
+
+// OutputsClass dims outputs that are from before the last change.
+func (c *CellCard) OutputsClass() string {
+	if c.V.OldOutputs {
+		return "outputs old"
+	}
+	return "outputs"
+}

@@ -216,8 +216,9 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					_ = i
 					f := f
 					_ = f
-					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "figure"}}}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
 					vgparent.AppendChild(vgn)
+					vgn.AddAttrInterface("class", f.Class())
 					vgn.AddAttrInterface("href", "#cell-"+f.Cell)
 					vgn.AddAttrInterface("id", "fig-"+Slug(f.Name))
 					{

@@ -26,6 +26,8 @@ type Session struct {
 	Collapsed map[string]bool     // folded cells
 	Message   string              // last page-wide message (file problems)
 
+	lastOut map[string]*notebook.Output // the last results of each cell, shown dimmed while it recomputes
+
 	changed func() // called after every change of the document
 	current []byte // the budget file of the document as it is, or nil
 }
@@ -50,6 +52,7 @@ func (s *Session) reset(doc *notebook.Document, fileName string) {
 	s.Doc, s.FileName = doc, fileName
 	s.CellErr = map[string]string{}
 	s.Notes = map[string][]string{}
+	s.lastOut = map[string]*notebook.Output{}
 	if s.Collapsed == nil {
 		s.Collapsed = map[string]bool{}
 	}

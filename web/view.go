@@ -31,6 +31,7 @@ type CellView struct {
 	Charts                     []ChartView
 	NoteText                   string
 	Progress                   float64 // 0..1 while running
+	OldOutputs                 bool    // outputs shown are from before the last edit
 }
 
 // ParamView is one setting as a form field.
@@ -48,6 +49,15 @@ type RoleView struct {
 // FigureView is a headline figure formatted for the page.
 type FigureView struct {
 	Cell, Name, Value, Interval, Unit string
+	Old                               bool // from before the last change
+}
+
+// Class is the figure's css class: dimmed when it is from before the last change.
+func (f FigureView) Class() string {
+	if f.Old {
+		return "figure old"
+	}
+	return "figure"
 }
 
 // ChartView is a drawn chart: its id on the page, title and SVG text.
@@ -186,7 +196,15 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		if c.Table != nil {
 			v.HasTable, v.Table = true, c.Table
 		}
-		if o := d.Output(c.ID); o != nil {
+		o := d.Output(c.ID)
+		if o != nil {
+			s.lastOut[c.ID] = o
+		} else if v.State == "stale" || v.State == "running" {
+			// Keep showing the previous results, marked as such, so the
+			// page does not jump while the cell recomputes.
+			o, v.OldOutputs = s.lastOut[c.ID], s.lastOut[c.ID] != nil
+		}
+		if o != nil {
 			v.TableProblems, v.Warnings = TableProblems(c.ID, c.Table, o.Warnings)
 			if len(v.TableProblems) > 0 {
 				v.bad = map[[2]int]bool{}
@@ -196,7 +214,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			}
 			for _, f := range o.Figures {
 				val, iv := FormatFigure(f)
-				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit})
+				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Old: v.OldOutputs})
 			}
 			v.Results = o.Tables
 			v.Charts = charts.For(d, c, o)

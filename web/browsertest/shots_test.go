@@ -75,13 +75,11 @@ func TestShots(t *testing.T) {
 	// A long run in progress.
 	ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`)
 	if ap != "" {
+		eval[bool](t, ctx, `(() => { document.querySelector("section.kind-apportionment").scrollIntoView(); return true })()`)
 		eval[bool](t, ctx, fmt.Sprintf(`(() => { const el = document.getElementById("p-%s-draws");
 			el.value = "40000"; el.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, ap[len("cell-"):]))
 		if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.querySelector("section.state-running progress")`,
 			chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err == nil {
-			time.Sleep(400 * time.Millisecond)
-			eval[bool](t, ctx, `(() => { (document.querySelector("section.state-running") || document.querySelector("section.kind-apportionment")).scrollIntoView(); return true })()`)
-			time.Sleep(200 * time.Millisecond)
 			if png, err := chromedp.Run(ctx, chromedp.CaptureScreenshot()); err == nil {
 				save(t, filepath.Join(dir, "running.png"), png)
 			}
