@@ -672,3 +672,11 @@ func (c *Root) guard() {
 		c.S.Message = fmt.Sprintf("internal error: %v (the budget is unchanged; please report this)", r)
 	}
 }
+
+// VerifyClass marks a rerun that does not reproduce the stored results.
+func (c *Root) VerifyClass() string {
+	if strings.Contains(c.Verify, "DIFFER") {
+		return "verify bad"
+	}
+	return "verify"
+}

@@ -276,6 +276,13 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}}}
 					vgparent.AppendChild(vgn)
 					vgn.SetInnerHTML(c.BusyLine())
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					if c.VerifyClass() == "verify bad" {
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "verify bad"}}}
+						vgparent.AppendChild(vgn)
+						vgn.SetInnerHTML(c.Verify)
+					}
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 					vgparent.AppendChild(vgn)
 				}
@@ -428,6 +435,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgparent.AppendChild(vgn)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "verify"}}}
 			vgparent.AppendChild(vgn)
+			vgn.AddAttrInterface("class", c.VerifyClass())
 			vgn.SetInnerHTML(c.Verify)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 			vgparent.AppendChild(vgn)

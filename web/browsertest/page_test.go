@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"regexp"
 	"sort"
 	"strings"
 	"testing"
@@ -611,5 +612,33 @@ func TestBadBudgetFileKeepsTheOpenOne(t *testing.T) {
 	}
 	if got := eval[string](t, ctx, `document.getElementById("budget-title").value`); got != title {
 		t.Errorf("open budget: got %q, want %q kept", got, title)
+	}
+}
+
+func TestRerunThatDiffersIsFlagged(t *testing.T) {
+	data, err := os.ReadFile(filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json"))
+	if err != nil {
+		t.Skip("no demo budget")
+	}
+	re := regexp.MustCompile(`"sha256": "[0-9a-f]+"`)
+	if !re.Match(data) {
+		t.Fatal("the demo holds no results checksum")
+	}
+	tampered := re.ReplaceAll(data, []byte(`"sha256": "0000000000000000000000000000000000000000000000000000000000000000"`))
+	file := filepath.Join(t.TempDir(), "tampered.lixiv.json")
+	if err := os.WriteFile(file, tampered, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
+		t.Fatal(err)
+	}
+	waitGen(t, ctx, gen)
+	if v := eval[string](t, ctx, `document.getElementById("verify").className + ": " + document.getElementById("verify").textContent`); !strings.HasPrefix(v, "verify bad: stored results DIFFER") {
+		t.Errorf("footer: got %q, want the difference flagged", v)
 	}
 }
