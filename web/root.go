@@ -51,6 +51,7 @@ type Root struct {
 	buildStart  float64 // when the render now running began (ms)
 	savePending bool    // an edit waits to be saved to browser storage
 	docTitle    string  // the browser tab's title as last set
+	startMsg    string  // a problem met before the budget opened
 	gen         int     // completed recomputes
 	ready       bool
 	keys        js.Func
@@ -70,18 +71,26 @@ func (c *Root) Init(ctx vugu.InitCtx) {
 			c.SavedText, c.SavedOK = "Reopened from this browser's storage", true
 			return
 		}
-		c.S = NewSession(notebook.New("Untitled budget"), "")
-		c.S.Message = "The autosaved budget could not be read (" + err.Error() + "); it is kept in storage until the next save."
+		// Keep the unreadable text under another key before anything is saved.
+		c.startMsg = "The autosaved budget could not be read (" + err.Error() + "); the demo is open instead."
+		if storageSet(storageKey+".unreadable", text) == nil {
+			c.startMsg += " The unreadable text is kept in this browser's storage under " + storageKey + ".unreadable."
+		}
 	}
 	c.Loading = "Opening the demo budget…"
-	go c.loadDemo()
+	go c.loadDemo(true)
 }
 
-func (c *Root) loadDemo() {
+// loadDemo opens the demo budget. On the first visit (initial) it gives way
+// to a file the user opened while the demo was still loading.
+func (c *Root) loadDemo(initial bool) {
 	text, err := fetchText(demoFile)
 	c.env.Lock()
 	defer c.env.UnlockRender()
 	c.Loading = ""
+	if initial && c.S != nil {
+		return
+	}
 	var doc *notebook.Document
 	if err == nil && strings.TrimSpace(text) != "" {
 		doc, err = notebook.Parse([]byte(text), demoFile)
@@ -97,6 +106,9 @@ func (c *Root) loadDemo() {
 	c.Unsaved = false
 	if err != nil {
 		c.S.Message = "The demo budget could not be opened: " + err.Error()
+	}
+	if c.startMsg != "" {
+		c.S.Message, c.startMsg = strings.TrimSpace(c.startMsg+" "+c.S.Message), ""
 	}
 }
 
@@ -468,6 +480,10 @@ func (c *Root) readAndOpen(f js.Value) {
 	text, err := readFile(f)
 	c.env.Lock()
 	defer c.env.UnlockRender()
+	defer c.guard()
+	if c.S == nil { // still opening the demo: start from an empty budget
+		c.open(notebook.New("Untitled budget"), "")
+	}
 	if err != nil {
 		c.S.Message = name + ": " + err.Error()
 		return
@@ -560,7 +576,7 @@ func (c *Root) DownloadBudget() {
 // OpenDemo reopens the demo budget (the current one stays reachable by undo).
 func (c *Root) OpenDemo() {
 	c.Loading = "Opening the demo budget…"
-	go c.loadDemo()
+	go c.loadDemo(false)
 }
 
 // OnAddKind remembers the kind chosen for a new cell.
