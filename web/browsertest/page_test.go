@@ -642,3 +642,26 @@ func TestRerunThatDiffersIsFlagged(t *testing.T) {
 		t.Errorf("footer: got %q, want the difference flagged", v)
 	}
 }
+
+func TestUnreadableAutosaveIsKept(t *testing.T) {
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	eval[bool](t, ctx, `localStorage.setItem("lixiv.budget", "{ not a budget"); true`)
+	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	waitReady(t, ctx)
+	waitIdle(t, ctx)
+	msg := eval[string](t, ctx, `(document.getElementById("page-message") || {textContent: ""}).textContent`)
+	if !strings.Contains(msg, "could not be read") {
+		t.Errorf("message: got %q, want the unreadable autosave reported", msg)
+	}
+	if kept := eval[string](t, ctx, `localStorage.getItem("lixiv.budget.unreadable") || ""`); kept != "{ not a budget" {
+		t.Errorf("unreadable autosave: got %q kept, want the text as it was", kept)
+	}
+	if name, _ := co2Figure(t, ctx); name == "" {
+		t.Errorf("the demo did not open in its place")
+	}
+}
