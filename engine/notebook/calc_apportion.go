@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"strings"
 
 	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
@@ -67,6 +68,20 @@ var ChunkDraws = 20000
 // the cap bounds memory at about half a gigabyte.
 const MaxSampleDraws = 4_000_000
 
+// delta34S finds a sample's δ34S of sulfate (‰) among its unrecognised
+// columns ("d34S", "δ34S-SO4", "delta34S", …).
+func delta34S(meta map[string]string) (float64, bool) {
+	for k, v := range meta {
+		n := strings.ToLower(strings.NewReplacer(" ", "", "_", "", "-", "", "δ", "d", "(‰)", "", "‰", "", "permil", "").Replace(k))
+		if n == "d34s" || n == "d34sso4" || n == "delta34s" || n == "delta34sso4" {
+			if x, err := parseNum(v); err == nil {
+				return x, true
+			}
+		}
+	}
+	return 0, false
+}
+
 // forwardRatios takes the forward model's silicate ratios from the first
 // silicate end-member: the central value, and as 1σ a quarter of the prior
 // range (a range read as about ±2σ; an assumption, no source).
@@ -100,8 +115,15 @@ func computeApportionment(e *Env) (*Output, error) {
 	atm := ai.Value.(*Atmosphere)
 	ems := si.Value.([]mix.EndMember)
 	opt := atm.Options
-	if s.Sulfate == "sulfide" {
+	switch s.Sulfate {
+	case "sulfide":
 		opt.Sulfate = correct.Sulfide
+	case "isotope":
+		if s.D34SEvaporite == s.D34SSulfide {
+			return nil, fmt.Errorf("d34s_evaporite_permil and d34s_sulfide_permil must differ")
+		}
+		opt.Sulfate = correct.Isotope
+		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
 	}
 	if s.Negative == "keep" {
 		opt.Negative = correct.Keep
@@ -111,7 +133,13 @@ func computeApportionment(e *Env) (*Output, error) {
 	warn := map[string]int{}
 	for _, i := range atm.Samples.Used() {
 		sm := atm.Samples.Table.Samples[i]
-		r, err := correct.Apply(sm.C, &opt)
+		o := opt
+		if s.Sulfate == "isotope" {
+			if v, ok := delta34S(sm.Meta); ok {
+				o.Delta34S.River = v // the sample's own δ34S
+			}
+		}
+		r, err := correct.Apply(sm.C, &o)
 		if err != nil {
 			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}

@@ -266,3 +266,42 @@ func TestChecksumIgnoresLastBits(t *testing.T) {
 		})
 	}
 }
+
+func TestSulfateIsotopeSplit(t *testing.T) {
+	// Marlow Fen, one year: the isotope split lies between the gypsum and
+	// sulfide scenarios, which bracket it (methods brief §5.2).
+	carb := map[string]float64{}
+	for _, sc := range []struct{ name, sulfate, river string }{
+		{"gypsum", "gypsum", ""}, {"sulfide", "sulfide", ""}, {"isotope", "isotope", "2.5"}} {
+		d, err := loadFile("../../testdata/budgets/small-forward.lixiv.json")
+		if err != nil {
+			t.Fatal(err)
+		}
+		d.SetParam("co2", "time_scale", "short")
+		if err := d.SetParam("apportionment", "sulfate", sc.sulfate); err != nil {
+			t.Fatal(err)
+		}
+		if sc.river != "" {
+			// Halfway between +15 and −10 ‰: half the sulfate from sulfide.
+			d.SetParam("apportionment", "d34s_river_permil", sc.river)
+		}
+		d.Recompute(context.Background(), nil)
+		f := d.Output("co2").Figure("carbonate CO2 consumption per km²")
+		if f == nil {
+			st, err := d.Status("co2")
+			t.Fatalf("%s: %v %v", sc.name, st, err)
+		}
+		carb[sc.name] = f.Median
+	}
+	if !(carb["sulfide"] < carb["isotope"] && carb["isotope"] < carb["gypsum"]) {
+		t.Errorf("carbonate CO2: sulfide %g, isotope %g, gypsum %g; want the isotope split in between", carb["sulfide"], carb["isotope"], carb["gypsum"])
+	}
+	if got := map[string]string{"d34S": "7.5"}; true {
+		if v, ok := delta34S(got); !ok || v != 7.5 {
+			t.Errorf("delta34S(d34S) = %g %v, want 7.5", v, ok)
+		}
+	}
+	if v, ok := delta34S(map[string]string{"δ34S-SO4 (‰)": "-3,5"}); !ok || v != -3.5 {
+		t.Errorf("delta34S(δ34S-SO4 (‰)) = %g %v, want -3.5", v, ok)
+	}
+}

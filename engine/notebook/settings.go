@@ -67,12 +67,15 @@ type SourcesSettings struct {
 
 // ApportionmentSettings choose the model.
 type ApportionmentSettings struct {
-	Model    string   `json:"model"`              // "inverse" (Monte Carlo) or "forward"
-	Tracers  []string `json:"tracers"`            // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
-	Draws    int      `json:"draws"`              // Monte Carlo draws per sample
-	Seed     int64    `json:"seed"`               // random seed; results depend on it only
-	Sulfate  string   `json:"sulfate"`            // "gypsum" or "sulfide": origin of SO4 above the rain share
-	Negative string   `json:"negative_residuals"` // "zero-and-flag" or "keep"
+	Model         string   `json:"model"`                 // "inverse" (Monte Carlo) or "forward"
+	Tracers       []string `json:"tracers"`               // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
+	Draws         int      `json:"draws"`                 // Monte Carlo draws per sample
+	Seed          int64    `json:"seed"`                  // random seed; results depend on it only
+	Sulfate       string   `json:"sulfate"`               // "gypsum", "sulfide" or "isotope": origin of SO4 above the rain share
+	D34SRiver     float64  `json:"d34s_river_permil"`     // δ34S of river sulfate, ‰, for samples without a d34S column
+	D34SEvaporite float64  `json:"d34s_evaporite_permil"` // δ34S of evaporite sulfate, ‰
+	D34SSulfide   float64  `json:"d34s_sulfide_permil"`   // δ34S of sulfide-derived sulfate, ‰
+	Negative      string   `json:"negative_residuals"`    // "zero-and-flag" or "keep"
 }
 
 // FluxSettings choose the flux estimator and its uncertainty.
@@ -160,7 +163,11 @@ func DefaultSettings(k Kind) Settings {
 		return &SourcesSettings{Preset: "global"}
 	case KindApportionment:
 		return &ApportionmentSettings{Model: "inverse", Tracers: []string{"Ca/Na", "Mg/Na", "HCO3/Na"},
-			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag"}
+			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag",
+			// δ34S end-members: evaporite sulfate about +10 to +35 ‰ (Claypool
+			// et al. 1980), sedimentary sulfide usually negative; both from
+			// memory (methods brief §5.2). Users should set their own.
+			D34SRiver: 5, D34SEvaporite: 15, D34SSulfide: -10}
 	case KindFluxes:
 		// B = 1000 and σ_Q = 7 %: methods brief §8.6 (Efron & Tibshirani 1993
 		// for B; σ_Q common practice).
@@ -277,7 +284,10 @@ func (s *SourcesSettings) Validate() error { return nil }
 func (s *ApportionmentSettings) Validate() error {
 	err := firstErr(
 		oneOf("model", s.Model, "inverse", "forward"),
-		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide"),
+		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide", "isotope"),
+		inRange("d34s_river_permil", s.D34SRiver, -100, 100),
+		inRange("d34s_evaporite_permil", s.D34SEvaporite, -100, 100),
+		inRange("d34s_sulfide_permil", s.D34SSulfide, -100, 100),
 		oneOf("negative_residuals", s.Negative, "zero-and-flag", "keep"),
 		inRange("draws", float64(s.Draws), 1, MaxDraws),
 	)
