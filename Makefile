@@ -33,9 +33,10 @@ deps-check:
 unit:
 	$(GO) test -count=1 ./...
 
-# wasmtest: the engine tests again, compiled to WebAssembly and run in Node.
+# wasmtest: the engine tests again (and the page's DOM-free tests), compiled to
+# WebAssembly and run in Node.
 wasmtest:
-	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec="$(WASMEXEC)" $(ENGINE_PKGS)
+	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec="$(WASMEXEC)" $(ENGINE_PKGS) ./web ./web/plot
 
 # fuzz-short: every fuzz target for a few seconds each.
 fuzz-short:

@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
-# Runs every Fuzz target in the engine for the given time each.
+# Runs every Fuzz target in the engine and the page package for the given time each.
 set -euo pipefail
 t=${1:-3s}
-for pkg in $(go list ./engine/...); do
+for pkg in $(go list ./engine/... ./web/...); do
   for f in $(go test -list '^Fuzz' "$pkg" 2>/dev/null | grep '^Fuzz' || true); do
     echo "fuzz $pkg $f ($t)"
     go test -run '^$' -fuzz "^${f}\$" -fuzztime "$t" "$pkg" >/tmp/lixiv-fuzz.log 2>&1 || { cat /tmp/lixiv-fuzz.log; exit 1; }
