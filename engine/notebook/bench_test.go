@@ -52,3 +52,27 @@ func BenchmarkRainEdit(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkFluxesEdit times an edit of the fluxes cell (its bootstrap seed)
+// and the recompute of it and the cells below it (CO2, charts).
+func BenchmarkFluxesEdit(b *testing.B) {
+	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d, err := notebook.Parse(data, "corrie-vale")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d.Workers = 1
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		d.SetParam("fluxes", "seed", []string{"2", "1"}[i%2])
+		if err := d.Recompute(context.Background(), nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

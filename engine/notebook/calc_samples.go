@@ -2,10 +2,10 @@ package notebook
 
 import (
 	"fmt"
-	"math"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
+	"lixiv/engine/qc"
 	"lixiv/engine/sample"
 )
 
@@ -34,33 +34,6 @@ func init() { Register(KindSamples, computeSamples) }
 var policies = map[string]sample.Policy{"half-limit": sample.HalfLimit, "zero": sample.Zero, "limit": sample.AtLimit, "leave-out": sample.LeaveOut}
 var sampleOrders = map[string]sample.DateOrder{"auto": sample.DateAuto, "day-first": sample.DayFirst, "month-first": sample.MonthFirst}
 
-// nicb returns the normalised inorganic charge balance (TZ+ − TZ−)/TZ+ × 100
-// from the ions present (methods brief §3.1; NICB as used by Huh et al.
-// 1998, from memory). Alkalinity stands for HCO3 (+ CO3).
-func nicb(c *chem.Composition) float64 {
-	pos, neg := 0.0, 0.0
-	for _, s := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.NH4, chem.Sr, chem.H} {
-		if c.Has(s) {
-			pos += c.Eq(s)
-		}
-	}
-	anions := []chem.Species{chem.Cl, chem.SO4, chem.NO3, chem.F, chem.Br}
-	if c.Has(chem.Alk) {
-		anions = append(anions, chem.Alk)
-	} else {
-		anions = append(anions, chem.HCO3, chem.CO3)
-	}
-	for _, s := range anions {
-		if c.Has(s) {
-			neg += c.Eq(s)
-		}
-	}
-	if pos <= 0 {
-		return math.NaN()
-	}
-	return (pos - neg) / pos * 100
-}
-
 func computeSamples(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*SamplesSettings)
 	t := e.Cell.Table
@@ -86,6 +59,9 @@ func computeSamples(e *Env) (*Output, error) {
 	ids, dates, flags := make([]string, n), make([]string, n), make([]string, n)
 	species := []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2, chem.Sr}
 	conc := make([][]float64, len(species))
+	// The charge balance is engine/qc's, with the cell's thresholds, so the
+	// notebook and the quality-control report agree sample by sample.
+	reports := qc.Check(tab.Samples, qc.Options{Thresholds: qc.Thresholds{OK: s.NICBFlag, Reject: s.NICBReject}})
 	flagged, left := 0, 0
 	for i, smp := range tab.Samples {
 		ids[i] = smp.ID
@@ -97,16 +73,18 @@ func computeSamples(e *Env) (*Output, error) {
 		for k, sp := range species {
 			conc[k] = append(conc[k], smp.C[sp])
 		}
-		v.NICB[i] = nicb(&smp.C)
+		v.NICB[i] = reports[i].Balance.NICB
 		v.Use[i] = true
-		switch a := math.Abs(v.NICB[i]); {
+		switch st := reports[i].Status; {
 		case !smp.HasTime:
 			v.Use[i], flags[i] = false, "left out: no date"
 		case !smp.C.Has(chem.Na) || smp.C[chem.Na] <= 0:
 			v.Use[i], flags[i] = false, "left out: no Na"
-		case a > s.NICBReject:
+		case st == qc.Unknown:
+			v.Use[i], flags[i] = false, "left out: no charge balance (no anion measured)"
+		case st == qc.Rejected:
 			v.Use[i], flags[i] = false, fmt.Sprintf("left out: |NICB| above %g %%", s.NICBReject)
-		case a > s.NICBFlag:
+		case st == qc.Flagged:
 			flags[i] = fmt.Sprintf("|NICB| above %g %%", s.NICBFlag)
 			flagged++
 		}

@@ -10,21 +10,67 @@ import (
 	"lixiv/engine/discharge"
 	"lixiv/engine/flux"
 	"lixiv/engine/mix"
+	"lixiv/engine/qc"
 )
 
-func TestNICB(t *testing.T) {
-	c := chem.NewComposition()
-	for sp, v := range map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 200, chem.Mg: 50,
-		chem.Cl: 50, chem.SO4: 40, chem.NO3: 10, chem.Alk: 450} {
-		c[sp] = v
+// samplesCell computes a samples cell holding rows under the given columns
+// (µmol/L, Alk µeq/L) and returns its output.
+func samplesCell(t *testing.T, cols []string, rows [][]string) *Output {
+	t.Helper()
+	d := New("s")
+	c := NewCell(KindSamples, "lab", "")
+	units := make([]string, len(cols))
+	for i, h := range cols {
+		switch h {
+		case "sample", "date", "pH":
+		case "Alk":
+			units[i] = "µeq/L"
+		default:
+			units[i] = "µmol/L"
+		}
 	}
-	// Methods brief §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
-	if got, want := nicb(&c), 3.2787; math.Abs(got-want) > 1e-4 {
-		t.Errorf("NICB %g %%, want %g %% (±1e-4)", got, want)
+	c.Table = &Table{Columns: cols, Units: units, Rows: rows}
+	if err := d.Insert(c, -1); err != nil {
+		t.Fatal(err)
 	}
-	empty := chem.NewComposition()
-	if got := nicb(&empty); !math.IsNaN(got) {
-		t.Errorf("NICB without cations %g, want NaN", got)
+	d.Recompute(context.Background(), nil)
+	o := d.Output("lab")
+	if o == nil {
+		st, err := d.Status("lab")
+		t.Fatalf("samples cell: %v %v", st, err)
+	}
+	return o
+}
+
+func TestSamplesCellNICB(t *testing.T) {
+	cols := []string{"sample", "date", "pH", "Na", "K", "Ca", "Mg", "Cl", "SO4", "NO3", "Alk"}
+	tests := []struct {
+		name string
+		row  []string
+		want float64
+		flag string
+	}{
+		// Methods brief §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
+		{"brief example", []string{"A", "2021-05-01", "", "100", "10", "200", "50", "50", "40", "10", "450"}, 3.2787, ""},
+		// With alkalinity given, H+ from pH is not added to TZ+ (alkalinity
+		// already holds it; common practice): the same +3.2787 % at pH 4.
+		{"pH 4 with alkalinity", []string{"A", "2021-05-01", "4", "100", "10", "200", "50", "50", "40", "10", "450"}, 3.2787, ""},
+		// No anion measured: no balance, and the sample is left out.
+		{"no anions", []string{"A", "2021-05-01", "", "100", "10", "200", "50", "", "", "", ""}, math.NaN(),
+			"left out: no charge balance (no anion measured)"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			// A second, balanced sample keeps the cell from leaving every sample out.
+			o := samplesCell(t, cols, [][]string{tt.row, {"B", "2021-06-01", "", "100", "10", "200", "50", "50", "40", "10", "450"}})
+			got := o.Table("samples").Column("NICB").Num[0]
+			if math.IsNaN(tt.want) != math.IsNaN(got) || !math.IsNaN(got) && math.Abs(got-tt.want) > 1e-4 {
+				t.Errorf("NICB %g %%, want %g %% (±1e-4)", got, tt.want)
+			}
+			if f := o.Table("samples").Column("flag").Text[0]; f != tt.flag {
+				t.Errorf("flag %q, want %q", f, tt.flag)
+			}
+		})
 	}
 }
 
@@ -303,5 +349,38 @@ func TestSulfateIsotopeSplit(t *testing.T) {
 	}
 	if v, ok := delta34S(map[string]string{"δ34S-SO4 (‰)": "-3,5"}); !ok || v != -3.5 {
 		t.Errorf("delta34S(δ34S-SO4 (‰)) = %g %v, want -3.5", v, ok)
+	}
+}
+
+// TestSamplesNICBMatchesQC checks that the samples cell's charge balance is
+// engine/qc's, sample by sample, on the demo budget.
+func TestSamplesNICBMatchesQC(t *testing.T) {
+	d, err := loadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for range d.Cells { // the samples cell comes early in compute order
+		if d.Output("samples") != nil {
+			break
+		}
+		if _, err := d.Step(context.Background(), nil); err != nil {
+			t.Fatal(err)
+		}
+	}
+	o := d.Output("samples")
+	if o == nil {
+		st, err := d.Status("samples")
+		t.Fatalf("samples cell: %v %v", st, err)
+	}
+	v := o.Value.(*Samples)
+	got := o.Table("samples").Column("NICB").Num
+	if len(got) != len(v.Table.Samples) || len(got) < 10 {
+		t.Fatalf("%d NICB values for %d samples", len(got), len(v.Table.Samples))
+	}
+	for i, smp := range v.Table.Samples {
+		want := qc.ChargeBalance(smp.C, smp.PH, smp.Temp).NICB
+		if got[i] != want && !(math.IsNaN(got[i]) && math.IsNaN(want)) {
+			t.Errorf("sample %s: NICB %g %%, qc.ChargeBalance gives %g %% (exact)", smp.ID, got[i], want)
+		}
 	}
 }
