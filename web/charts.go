@@ -30,7 +30,7 @@ type cachedCharts struct {
 // of a cell of kind k read.
 var chartInputs = map[notebook.Kind][]notebook.Kind{
 	notebook.KindDischarge: {notebook.KindSamples},
-	notebook.KindSources:   {notebook.KindSamples, notebook.KindAtmosphere, notebook.KindApportionment},
+	notebook.KindSources:   {notebook.KindSamples, notebook.KindAtmosphere},
 }
 
 // For returns the charts of cell c, drawing them when needed.
@@ -291,25 +291,18 @@ func priorBoxes(t *notebook.ResultTable, xRatio string) []priorBox {
 	return out
 }
 
-// sampleRatios finds per-sample Ca/Na and xRatio: from an output table that
-// holds both (the apportionment's, after correction), else the measured
-// ratios of the samples table, labelled as such.
+// sampleRatios finds per-sample Ca/Na and xRatio: from the atmosphere
+// cell's ratios table (X*/Na* after rain and evaporite correction), else the
+// measured ratios of the samples table, labelled as such.
 func sampleRatios(d *notebook.Document, xRatio string) (x, y []float64, names []string, label string) {
-	for _, k := range []notebook.Kind{notebook.KindApportionment, notebook.KindAtmosphere} {
-		for _, c := range d.Cells {
-			if c.Kind != k {
-				continue
-			}
-			o := d.Output(c.ID)
-			if o == nil {
-				continue
-			}
-			for _, t := range o.Tables {
-				xc, yc := exact(t, xRatio), exact(t, "Ca/Na")
-				if xc != nil && yc != nil && xc.Num != nil && yc.Num != nil {
-					return xc.Num, yc.Num, texts(column(t, "sample")), "samples (corrected)"
-				}
-			}
+	for _, c := range d.Cells {
+		if c.Kind != notebook.KindAtmosphere {
+			continue
+		}
+		t := d.Output(c.ID).Table("ratios")
+		xc, yc := exact(t, xRatio), exact(t, "Ca/Na")
+		if xc != nil && yc != nil && xc.Num != nil && yc.Num != nil {
+			return xc.Num, yc.Num, texts(column(t, "sample")), "samples after rain correction"
 		}
 	}
 	for _, c := range d.Cells {

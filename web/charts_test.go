@@ -66,3 +66,52 @@ func TestChartsOfTheDemo(t *testing.T) {
 		})
 	}
 }
+
+// TestMixingDiagramRatios checks that the mixing diagrams plot the ratios
+// after rain correction when the budget has an atmosphere cell, and the
+// measured ratios, labelled as such, when it has none.
+func TestMixingDiagramRatios(t *testing.T) {
+	b, err := os.ReadFile("../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Skip("no demo budget:", err)
+	}
+	d, err := notebook.Parse(b, "corrie-vale")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	tests := []struct {
+		name   string
+		remove bool // remove the atmosphere cell first
+		label  string
+	}{
+		{"with atmosphere cell", false, "samples after rain correction"},
+		{"without atmosphere cell", true, "samples (measured, before rain correction)"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if tc.remove {
+				for _, c := range d.Cells {
+					if c.Kind == notebook.KindAtmosphere {
+						if err := d.Remove(c.ID); err != nil {
+							t.Fatal(err)
+						}
+						break
+					}
+				}
+				d.Recompute(context.Background(), nil) // cells below lose their input; the samples cell stays
+			}
+			for _, ratio := range []string{"Mg/Na", "HCO3/Na"} {
+				x, y, names, label := sampleRatios(d, ratio)
+				if label != tc.label {
+					t.Errorf("%s: label %q, want %q", ratio, label, tc.label)
+				}
+				if len(x) < 10 || len(x) != len(y) || len(names) != len(x) {
+					t.Errorf("%s: %d x, %d y, %d names; want equal lengths, at least 10", ratio, len(x), len(y), len(names))
+				}
+			}
+		})
+	}
+}

@@ -109,6 +109,7 @@ func computeAtmosphere(e *Env) (*Output, error) {
 	cols := map[string][]float64{}
 	names := []string{"Cl_atm", "Na_atm", "K_atm", "Ca_atm", "Mg_atm", "SO4_atm", "Cl_excess", "Na_evaporite", "Na_atm_share"}
 	warn := map[string]int{}
+	corrected := make([]correct.Result, len(used))
 	for k, i := range used {
 		sm := smp.Table.Samples[i]
 		ids[k] = sm.ID
@@ -119,6 +120,7 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		for _, w := range r.Warnings {
 			warn[w.Error()]++
 		}
+		corrected[k] = r
 		vals := []float64{r.Atm[chem.Cl], r.Atm[chem.Na], r.Atm[chem.K], r.Atm[chem.Ca], r.Atm[chem.Mg], r.Atm[chem.SO4],
 			r.ClExcess, r.Evap[chem.Na], r.Atm[chem.Na] / sm.C[chem.Na]}
 		for j, n := range names {
@@ -134,10 +136,59 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		tcols = append(tcols, NumColumn(n, unit, cols[n]))
 	}
 	out.Tables = append(out.Tables, &ResultTable{Name: "rain", Title: "Atmospheric input per sample", Columns: tcols})
+	dates := make([]string, len(used))
+	for k, i := range used {
+		dates[k] = smp.Days[i].String()
+	}
+	rt, blank := ratioTable(ids, dates, corrected)
+	out.Tables = append(out.Tables, rt)
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
+	if blank > 0 {
+		out.Warnings = append(out.Warnings, fmt.Sprintf("ratios: Na* ≤ 0 after correction in %d of %d samples; their ratios to Na are left blank", blank, len(used)))
+	}
 	out.Figures = append(out.Figures, Point("median atmospheric share of Na", "fraction", median(cols["Na_atm_share"])))
 	out.Value = &Atmosphere{Samples: smp, Options: opt}
 	return out, nil
+}
+
+// ratioSpecies are the numerators of the ratios table, with their column names.
+var ratioSpecies = []struct {
+	name string
+	sp   chem.Species
+}{{"Ca/Na", chem.Ca}, {"Mg/Na", chem.Mg}, {"HCO3/Na", chem.HCO3}, {"K/Na", chem.K}}
+
+// ratioTable gives each sample's molar ratios to Na after the rain,
+// evaporite and human-input corrections, X*/Na* (the residuals of
+// correct.Apply), for the mixing diagrams. HCO3 falls back to alkalinity
+// (µeq/L, taken as µmol/L of HCO3) when the sample has no HCO3 column. A
+// sample whose Na* is zero or below has NaN ratios; blank counts them.
+func ratioTable(ids, dates []string, rs []correct.Result) (t *ResultTable, blank int) {
+	cols := make([][]float64, len(ratioSpecies))
+	for j := range cols {
+		cols[j] = make([]float64, len(rs))
+	}
+	for i := range rs {
+		res := &rs[i].Residual
+		na := res[chem.Na]
+		if !(na > 0) {
+			blank++
+		}
+		for j, rsp := range ratioSpecies {
+			x := res[rsp.sp]
+			if rsp.sp == chem.HCO3 && math.IsNaN(x) {
+				x = res[chem.Alk]
+			}
+			cols[j][i] = math.NaN()
+			if na > 0 {
+				cols[j][i] = x / na
+			}
+		}
+	}
+	tc := []*Column{TextColumn("sample", ids), TextColumn("date", dates)}
+	for j, rsp := range ratioSpecies {
+		tc = append(tc, NumColumn(rsp.name, "mol/mol", cols[j]))
+	}
+	return &ResultTable{Name: "ratios", Title: "Ratios to Na after rain and evaporite correction (X*/Na*)", Columns: tc}, blank
 }
 
 // countedWarnings groups messages by their text before the first colon (the
