@@ -46,7 +46,22 @@ func computeCO2(e *Env) (*Output, error) {
 	var qb quantileBuf
 	// Per draw, kept for fluxing below.
 	silD, carbD, wD := make([][]float64, n), make([][]float64, n), make([][]float64, n)
+	// Progress: one unit per sample here, and n units for each of the two
+	// bootstraps below (when a fluxes cell is given), so that a page running
+	// on one goroutine can yield to the browser as the cell goes.
+	fi, err := e.Input("fluxes")
+	if err != nil {
+		return nil, err
+	}
+	total := n
+	if fi != nil {
+		total = 3 * n
+	}
 	for i := 0; i < n; i++ {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
+		e.Report(i, total)
 		vs, vc, ws = vs[:0], vc[:0], ws[:0]
 		silD[i], carbD[i], wD[i] = make([]float64, a.Draws), make([]float64, a.Draws), make([]float64, a.Draws)
 		for d := 0; d < a.Draws; d++ {
@@ -81,10 +96,7 @@ func computeCO2(e *Env) (*Output, error) {
 	out.Figures = append(out.Figures, Point("median silicate CO2 consumption per litre", "µmol/L", median(silMed)),
 		Point("median carbonate CO2 consumption per litre", "µmol/L", median(carbMed)))
 
-	fi, err := e.Input("fluxes")
-	if err != nil {
-		return nil, err
-	}
+	e.Report(n, total)
 	if fi == nil {
 		return out, nil
 	}
@@ -95,10 +107,13 @@ func computeCO2(e *Env) (*Output, error) {
 	}
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64
-	for _, part := range []struct {
+	for k, part := range []struct {
 		name string
 		carb bool
 	}{{"silicate", false}, {"carbonate", true}} {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
 		ser := fv.series(part.name+" CO2", 0, false, func(i int, sp *mix.Split) float64 {
 			x, y, err := co2Pair(sp, a.Corrected[i].SO4Sulf, opt, long)
 			if err != nil {
@@ -120,6 +135,7 @@ func computeCO2(e *Env) (*Output, error) {
 		if err != nil {
 			return nil, err
 		}
+		e.Report(n+(k+1)*n, total)
 		m := u.Mean
 		name := part.name + " CO2 consumption"
 		out.Figures = append(out.Figures,

@@ -18,12 +18,16 @@ type Fluxes struct {
 	Site      *Site
 	Options   flux.Options
 	Bootstrap flux.BootstrapOptions
-	App       *Apportioned
+	// SeriesReplicates is the number of bootstrap replicates for the
+	// series other than the cation sums (0: point values only).
+	SeriesReplicates int
+	App              *Apportioned
 }
 
 func init() { Register(KindFluxes, computeFluxes) }
 
-var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted, "rating-curve": flux.Rating}
+var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted,
+	"rating-curve": flux.Rating, "beale": flux.Beale}
 
 // estimatorName returns the settings word for a flux method.
 func estimatorName(m flux.Method) string {
@@ -86,8 +90,18 @@ func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int,
 }
 
 // estimate fluxes one series, falling back to the interpolation estimator
-// when the rating curve cannot take it (zero or negative values).
+// when the rating curve cannot take it (zero or negative values), and
+// bootstraps it when boot is set.
 func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncertainty, []string, error) {
+	reps := 0
+	if boot {
+		reps = max(v.Bootstrap.Replicates, 1)
+	}
+	return v.estimateN(s, reps)
+}
+
+// estimateN is estimate with reps bootstrap replicates (0: none).
+func (v *Fluxes) estimateN(s flux.Series, reps int) (*flux.Result, *flux.Uncertainty, []string, error) {
 	var warns []string
 	opt := v.Options
 	if opt.Method == flux.Rating {
@@ -115,10 +129,12 @@ func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncerta
 	for _, w := range r.Warnings {
 		warns = append(warns, w.Error())
 	}
-	if !boot {
+	if reps <= 0 {
 		return r, nil, warns, nil
 	}
-	u, err := flux.Bootstrap(v.Record, s, opt, v.Bootstrap)
+	bo := v.Bootstrap
+	bo.Replicates = reps
+	u, err := flux.Bootstrap(v.Record, s, opt, bo)
 	if err != nil {
 		return r, nil, warns, fmt.Errorf("%s: bootstrap: %v", s.Name, err)
 	}
@@ -151,6 +167,7 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
 			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma},
+		SeriesReplicates: s.SeriesBootstrap,
 	}, nil
 }
 
@@ -168,9 +185,18 @@ func sumOf(src mix.Source, cations ...int) func(int, *mix.Split) float64 {
 // meanRow is one line of the mean-annual table.
 type meanRow struct {
 	name, unit string
+	point      float64 // point estimate of the mean annual flux, mol/yr
 	mol, yield flux.Interval
 	tonnes     float64
 }
+
+// cationSums are the cation sums whose intervals the fluxes cell reports as
+// headline figures.
+var cationSums = []struct {
+	name string
+	src  mix.Source
+	ks   []int
+}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}}
 
 func computeFluxes(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*FluxSettings)
@@ -184,7 +210,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	var yName, yYear []string
 	var yMol, yYield, yRunoff []float64
 	add := func(r *flux.Result, u *flux.Uncertainty) {
-		row := meanRow{name: r.Series, mol: flux.Interval{Median: r.Mean.Mol, Lo: math.NaN(), Hi: math.NaN()},
+		row := meanRow{name: r.Series, point: r.Mean.Mol, mol: flux.Interval{Median: r.Mean.Mol, Lo: math.NaN(), Hi: math.NaN()},
 			yield: flux.Interval{Median: r.Mean.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}, tonnes: r.Mean.TonnesPerKm2}
 		if u != nil {
 			row.mol, row.yield = u.Mean.Mol, u.Mean.MolPerKm2
@@ -198,53 +224,12 @@ func computeFluxes(e *Env) (*Output, error) {
 			yMol, yYield, yRunoff = append(yMol, y.Mol), append(yYield, y.MolPerKm2), append(yRunoff, y.RunoffMM)
 		}
 	}
-	// Measured species, point estimates.
-	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
-		c := make([]float64, len(a.Names))
-		for i := range c {
-			c[i] = a.Corrected[i].Input[sp]
-		}
-		ser := flux.ForSpecies(sp, a.Days, c)
-		ser.Q = a.Q
-		if countFinite(c) == 0 {
-			continue
-		}
-		r, _, w, err := v.estimate(ser, false)
-		out.Warnings = append(out.Warnings, w...)
-		if err != nil {
-			out.Warnings = append(out.Warnings, err.Error())
-			continue
-		}
-		add(r, nil)
-	}
-	// Source-apportioned cations: each cation from each rock source (point),
-	// and the cation sums with intervals.
-	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
-		for k, sp := range mix.Cations {
-			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
-				continue
-			}
-			kk := k
-			ser := v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), false, sumOf(src, kk))
-			r, _, w, err := v.estimate(ser, false)
-			out.Warnings = append(out.Warnings, w...)
-			if err != nil {
-				out.Warnings = append(out.Warnings, err.Error())
-				continue
-			}
-			add(r, nil)
-		}
-	}
-	// The three estimators side by side, for the cation sums (point values).
+	// The estimators side by side, for the cation sums (point values).
 	var eName, eMethod []string
 	var eMol, eYield []float64
-	for _, c := range []struct {
-		name string
-		src  mix.Source
-		ks   []int
-	}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}} {
+	for _, c := range cationSums {
 		ser := v.series(c.name, 0, false, sumOf(c.src, c.ks...))
-		for _, m := range []flux.Method{flux.FlowWeighted, flux.PeriodWeighted, flux.Rating} {
+		for _, m := range []flux.Method{flux.FlowWeighted, flux.PeriodWeighted, flux.Rating, flux.Beale} {
 			o := v.Options
 			o.Method = m
 			mol, yield := math.NaN(), math.NaN()
@@ -258,23 +243,82 @@ func computeFluxes(e *Env) (*Output, error) {
 	out.Tables = append(out.Tables, &ResultTable{Name: "estimators", Title: "Mean annual flux by estimator (point values)", Columns: []*Column{
 		TextColumn("series", eName), TextColumn("estimator", eMethod), NumColumn("flux", "mol/yr", eMol), NumColumn("yield", "mol/km²/yr", eYield)}})
 
+	// Every series is bootstrapped with the same seed, so all of them
+	// resample the same samples in each replicate and share its discharge and
+	// area errors (flux.Bootstrap's PCG streams): measured species, each
+	// cation from each rock source, then the cation sums. The cation sums,
+	// the headline figures, take the bootstrap setting; the other series
+	// take series_bootstrap replicates (the first replicates of the same
+	// sequence), which keeps a recompute after an edit cheap.
+	type job struct {
+		ser flux.Series
+		sum bool
+	}
+	var jobs []job
+	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
+		c := make([]float64, len(a.Names))
+		for i := range c {
+			c[i] = a.Corrected[i].Input[sp]
+		}
+		if countFinite(c) == 0 {
+			continue
+		}
+		ser := flux.ForSpecies(sp, a.Days, c)
+		ser.Q = a.Q
+		jobs = append(jobs, job{ser: ser})
+	}
+	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
+		for k, sp := range mix.Cations {
+			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
+				continue
+			}
+			jobs = append(jobs, job{ser: v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0, sumOf(src, k))})
+		}
+	}
+	for _, c := range cationSums {
+		jobs = append(jobs, job{ser: v.series(c.name, 0, true, sumOf(c.src, c.ks...)), sum: true})
+	}
+	var rName []string
+	var rA, rB, rR2, rS, rFactor, rN []float64
 	var figs []Figure
 	var runoff *flux.Uncertainty
-	for _, c := range []struct {
-		name string
-		src  mix.Source
-		ks   []int
-	}{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}} {
-		r, u, w, err := v.estimate(v.series(c.name, 0, true, sumOf(c.src, c.ks...)), true)
-		out.Warnings = append(out.Warnings, w...)
-		if err != nil {
+	for j, jb := range jobs {
+		if err := e.Ctx.Err(); err != nil {
 			return nil, err
 		}
+		// Progress after every series, so that a page running on one
+		// goroutine can yield to the browser between bootstraps.
+		e.Report(j, len(jobs))
+		reps := v.SeriesReplicates
+		if jb.sum {
+			reps = max(v.Bootstrap.Replicates, 1)
+		}
+		r, u, w, err := v.estimateN(jb.ser, reps)
+		out.Warnings = append(out.Warnings, w...)
+		if err != nil && (jb.sum || r == nil) {
+			if jb.sum {
+				return nil, err
+			}
+			out.Warnings = append(out.Warnings, err.Error())
+			continue
+		}
+		if err != nil { // the point estimate stands; the bootstrap failed
+			out.Warnings = append(out.Warnings, err.Error())
+		}
 		add(r, u)
+		if f := r.Rating; f != nil {
+			rName = append(rName, r.Series)
+			rA, rB, rR2, rS = append(rA, f.A), append(rB, f.B), append(rR2, f.R2), append(rS, f.S)
+			rFactor, rN = append(rFactor, f.Factor), append(rN, f.N)
+		}
+		if !jb.sum {
+			continue
+		}
 		runoff = u
-		figs = append(figs, Figure{Name: c.name + " flux", Unit: "mol/yr", Median: u.Mean.Mol.Median, Low: u.Mean.Mol.Lo, High: u.Mean.Mol.Hi},
-			Figure{Name: c.name + " yield", Unit: "mol/km²/yr", Median: u.Mean.MolPerKm2.Median, Low: u.Mean.MolPerKm2.Lo, High: u.Mean.MolPerKm2.Hi})
+		figs = append(figs, Figure{Name: jb.ser.Name + " flux", Unit: "mol/yr", Median: u.Mean.Mol.Median, Low: u.Mean.Mol.Lo, High: u.Mean.Mol.Hi},
+			Figure{Name: jb.ser.Name + " yield", Unit: "mol/km²/yr", Median: u.Mean.MolPerKm2.Median, Low: u.Mean.MolPerKm2.Lo, High: u.Mean.MolPerKm2.Hi})
 	}
+	e.Report(len(jobs), len(jobs))
 	if runoff != nil {
 		out.Figures = append(out.Figures, Figure{Name: "runoff", Unit: "mm/yr", Median: runoff.Mean.RunoffMM.Median,
 			Low: runoff.Mean.RunoffMM.Lo, High: runoff.Mean.RunoffMM.Hi})
@@ -283,7 +327,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	// Silicate weathering rate in t/km²/yr from the point fluxes (cations, then cations + SiO2).
 	parts := map[string]float64{}
 	for _, r := range rows {
-		parts[r.name] = r.mol.Median
+		parts[r.name] = r.point
 	}
 	sil := []flux.Part{{Species: chem.Na, MolPerYr: parts["Na_silicate"]}, {Species: chem.K, MolPerYr: parts["K_silicate"]},
 		{Species: chem.Ca, MolPerYr: parts["Ca_silicate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_silicate"]}}
@@ -302,11 +346,16 @@ func computeFluxes(e *Env) (*Output, error) {
 		mol, molLo, molHi = append(mol, r.mol.Median), append(molLo, r.mol.Lo), append(molHi, r.mol.Hi)
 		yl, ylLo, ylHi = append(yl, r.yield.Median), append(ylLo, r.yield.Lo), append(ylHi, r.yield.Hi)
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (median and 95 % interval where bootstrapped)", Columns: []*Column{
+	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval)", Columns: []*Column{
 		TextColumn("series", names), NumColumn("flux", "mol/yr", mol), NumColumn("flux_low", "mol/yr", molLo), NumColumn("flux_high", "mol/yr", molHi),
 		NumColumn("yield", "mol/km²/yr", yl), NumColumn("yield_low", "mol/km²/yr", ylLo), NumColumn("yield_high", "mol/km²/yr", ylHi)}},
 		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
 			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
+	if len(rName) > 0 {
+		out.Tables = append(out.Tables, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q (point fits)", Columns: []*Column{
+			TextColumn("series", rName), NumColumn("a", "µmol/L", rA), NumColumn("b", "", rB), NumColumn("R2", "", rR2),
+			NumColumn("s", "ln units", rS), NumColumn("bias_factor", "", rFactor), NumColumn("n", "samples", rN)}})
+	}
 	series := map[string]bool{}
 	for _, r := range rows {
 		series[r.name] = true

@@ -384,3 +384,123 @@ func TestSamplesNICBMatchesQC(t *testing.T) {
 		}
 	}
 }
+
+// TestFluxesAndCO2ReportProgress checks that the fluxes and CO2 cells call
+// the progress callback as they go, ending at their total, so that a page
+// on one goroutine can yield to the browser between bootstraps.
+func TestFluxesAndCO2ReportProgress(t *testing.T) {
+	d, err := loadFile("../../testdata/budgets/small-forward.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.Workers = 1
+	got := map[string][]Progress{}
+	if err := d.Recompute(context.Background(), func(p Progress) { got[p.Cell] = append(got[p.Cell], p) }); err != nil {
+		t.Fatal(err)
+	}
+	for _, id := range []string{"fluxes", "co2"} {
+		t.Run(id, func(t *testing.T) {
+			ps := got[id]
+			if len(ps) < 3 {
+				t.Fatalf("%d progress reports, want at least 3", len(ps))
+			}
+			for i, p := range ps {
+				if p.Total <= 0 || p.Done < 0 || p.Done > p.Total || i > 0 && p.Done < ps[i-1].Done {
+					t.Errorf("report %d: %d of %d after %v", i, p.Done, p.Total, ps[max(i-1, 0)])
+				}
+			}
+			if last := ps[len(ps)-1]; last.Done != last.Total {
+				t.Errorf("last report %d of %d, want done = total", last.Done, last.Total)
+			}
+		})
+	}
+}
+
+// TestFluxesEveryRowHasInterval checks that every row of the mean table
+// carries a bootstrap interval around its median, and that the rating table
+// lists each series the rating curve fitted.
+func TestFluxesEveryRowHasInterval(t *testing.T) {
+	d, err := loadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.Workers = 1
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	o := d.Output("fluxes")
+	if o == nil {
+		st, err := d.Status("fluxes")
+		t.Fatalf("fluxes: %v %v", st, err)
+	}
+	m := o.Table("mean")
+	names := m.Column("series").Text
+	if len(names) < 16 {
+		t.Fatalf("%d rows in the mean table, want the 8 species, 6 source cations and 2 sums", len(names))
+	}
+	for i, name := range names {
+		lo, med, hi := m.Column("flux_low").Num[i], m.Column("flux").Num[i], m.Column("flux_high").Num[i]
+		if !(lo <= med && med <= hi && lo < hi) {
+			t.Errorf("%s: interval %g .. %g .. %g, want low ≤ median ≤ high, low < high", name, lo, med, hi)
+		}
+	}
+	r := o.Table("rating")
+	if r == nil {
+		t.Fatal("no rating table with the rating-curve estimator")
+	}
+	for i, name := range r.Column("series").Text {
+		a, b, n, f := r.Column("a").Num[i], r.Column("b").Num[i], r.Column("n").Num[i], r.Column("bias_factor").Num[i]
+		// Smearing factors of natural waters lie a little above 1 (Duan 1983; the
+		// bound of 2 is a loose sanity limit, common practice).
+		if !(a > 0) || math.IsNaN(b) || n < 10 || !(f >= 1 && f < 2) {
+			t.Errorf("%s: a %g, b %g, n %g, bias factor %g", name, a, b, n, f)
+		}
+	}
+	est := o.Table("estimators").Column("estimator").Text
+	if !strings.Contains(strings.Join(est, ","), "beale") {
+		t.Errorf("estimators %q lack beale", est)
+	}
+}
+
+// TestFluxesBealeSetting checks that estimator "beale" runs flux.Beale:
+// the cell's point value for the silicate cations equals the Beale row of
+// its estimators table, and no rating table is made.
+func TestFluxesBealeSetting(t *testing.T) {
+	d, err := loadFile("../../testdata/budgets/small-forward.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.Workers = 1
+	if err := d.SetParam("fluxes", "estimator", "beale"); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	o := d.Output("fluxes")
+	if o == nil {
+		st, err := d.Status("fluxes")
+		t.Fatalf("fluxes: %v %v", st, err)
+	}
+	if o.Table("rating") != nil {
+		t.Error("a rating table without the rating curve")
+	}
+	v := o.Value.(*Fluxes)
+	if v.Options.Method != flux.Beale {
+		t.Fatalf("method %v, want %v", v.Options.Method, flux.Beale)
+	}
+	r, err := flux.Estimate(v.Record, v.series("silicate cations", 0, false, sumOf(mix.Silicate, 0, 1, 2, 3)), v.Options)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e := o.Table("estimators")
+	for i, name := range e.Column("series").Text {
+		if name == "silicate cations" && e.Column("estimator").Text[i] == "beale" {
+			if got := e.Column("flux").Num[i]; got != r.Mean.Mol {
+				t.Errorf("beale row %g mol/yr, flux.Estimate gives %g (exact)", got, r.Mean.Mol)
+			}
+			return
+		}
+	}
+	t.Error("no beale row for the silicate cations")
+}

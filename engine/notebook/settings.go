@@ -80,10 +80,11 @@ type ApportionmentSettings struct {
 
 // FluxSettings choose the flux estimator and its uncertainty.
 type FluxSettings struct {
-	Estimator            string  `json:"estimator"`                     // "rating-curve", "discharge-weighted" or "interpolation"
+	Estimator            string  `json:"estimator"`                     // "rating-curve", "discharge-weighted", "interpolation" or "beale"
 	Seasonal             bool    `json:"seasonal_terms"`                // rating curve with sine and cosine terms
 	BiasCorrection       string  `json:"bias_correction"`               // "smearing", "ferguson" or "none"
-	Bootstrap            int     `json:"bootstrap"`                     // resamples for the interval
+	Bootstrap            int     `json:"bootstrap"`                     // resamples for the interval of the cation sums
+	SeriesBootstrap      int     `json:"series_bootstrap"`              // resamples for the intervals of the other series (0 = point values only)
 	DischargeUncertainty float64 `json:"discharge_uncertainty_percent"` // 1σ systematic error of Q, %
 	Seed                 int64   `json:"seed"`                          // random seed of the bootstrap
 }
@@ -171,7 +172,10 @@ func DefaultSettings(k Kind) Settings {
 	case KindFluxes:
 		// B = 1000 and σ_Q = 7 %: methods brief §8.6 (Efron & Tibshirani 1993
 		// for B; σ_Q common practice).
-		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000,
+		// SeriesBootstrap = 200 keeps the intervals of the other series
+		// cheap enough for the page to recompute after an edit (an
+		// engineering choice, no source).
+		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000, SeriesBootstrap: 200,
 			DischargeUncertainty: 7, Seed: 1}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional"}
@@ -303,9 +307,10 @@ func (s *ApportionmentSettings) Validate() error {
 // Validate implements Settings.
 func (s *FluxSettings) Validate() error {
 	return firstErr(
-		oneOf("estimator", s.Estimator, "rating-curve", "discharge-weighted", "interpolation"),
+		oneOf("estimator", s.Estimator, "rating-curve", "discharge-weighted", "interpolation", "beale"),
 		oneOf("bias_correction", s.BiasCorrection, "smearing", "ferguson", "none"),
 		inRange("bootstrap", float64(s.Bootstrap), 1, MaxBootstrap),
+		inRange("series_bootstrap", float64(s.SeriesBootstrap), 0, MaxBootstrap),
 		inRange("discharge_uncertainty_percent", s.DischargeUncertainty, 0, 100),
 	)
 }
