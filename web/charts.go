@@ -243,7 +243,9 @@ func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.
 		ch.Box(b.name, plot.StyleN(i+1), b.x0, b.x1, b.y0, b.y1)
 	}
 	if x, y, names, label := sampleRatios(d, xRatio); x != nil {
-		ch.Points(label, plot.StyleN(0), x, y, names)
+		st := plot.StyleN(0)
+		st.Open = true // rings: a dense cloud of samples still shows each one
+		ch.Points(label, st, x, y, names)
 	}
 	if ch.Empty() {
 		return nil

@@ -22,7 +22,8 @@ func (c *Chart) Line(name string, s Style, xs, ys []float64) {
 }
 
 // Box adds a hatched rectangle spanning [x0, x1] × [y0, y1], such as an
-// end-member's prior range, labelled inside its top left corner.
+// end-member's prior range, labelled inside its bottom left corner (sample
+// clouds of a mixing diagram tend to lie above or to the right of a range).
 func (c *Chart) Box(name string, s Style, x0, x1, y0, y1 float64) {
 	c.items = append(c.items, &box{name: name, s: s, x0: x0, x1: x1, y0: y0, y1: y1})
 	c.legend = append(c.legend, legendEntry{name, s, "box"})
@@ -140,7 +141,7 @@ func (bx *box) draw(b *strings.Builder, c *Chart) {
 	t, bt := math.Min(y0, y1), math.Max(y0, y1)
 	fmt.Fprintf(b, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" fill-opacity="0.6" stroke="%s" stroke-width="1.2" stroke-dasharray="%s"/>`,
 		l, t, math.Max(r-l, 1), math.Max(bt-t, 1), c.hatchURL(bx.s), bx.s.Colour, bx.s.Dash)
-	fmt.Fprintf(b, `<text x="%.1f" y="%.1f" font-size="11" fill="#111" stroke="#fff" stroke-width="3" paint-order="stroke">%s</text>`, l+3, t+12, esc(bx.name))
+	fmt.Fprintf(b, `<text x="%.1f" y="%.1f" font-size="11" fill="#111" stroke="#fff" stroke-width="3" paint-order="stroke">%s</text>`, l+3, bt-4, esc(bx.name))
 }
 
 type interval struct {
