@@ -55,7 +55,13 @@ func BenchmarkRainEdit(b *testing.B) {
 
 // BenchmarkFluxesEdit times an edit of the fluxes cell (its bootstrap seed)
 // and the recompute of it and the cells below it (CO2, charts).
-func BenchmarkFluxesEdit(b *testing.B) {
+func BenchmarkFluxesEdit(b *testing.B) { benchFluxesEdit(b, "") }
+
+// BenchmarkFluxesEditPointSeries is BenchmarkFluxesEdit with
+// series_bootstrap 0: intervals for the cation sums only.
+func BenchmarkFluxesEditPointSeries(b *testing.B) { benchFluxesEdit(b, "0") }
+
+func benchFluxesEdit(b *testing.B, seriesBootstrap string) {
 	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
 	if err != nil {
 		b.Fatal(err)
@@ -65,6 +71,11 @@ func BenchmarkFluxesEdit(b *testing.B) {
 		b.Fatal(err)
 	}
 	d.Workers = 1
+	if seriesBootstrap != "" {
+		if err := d.SetParam("fluxes", "series_bootstrap", seriesBootstrap); err != nil {
+			b.Fatal(err)
+		}
+	}
 	if err := d.Recompute(context.Background(), nil); err != nil {
 		b.Fatal(err)
 	}
