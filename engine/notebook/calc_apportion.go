@@ -28,19 +28,35 @@ type Apportioned struct {
 
 	inverse *mix.Result
 	forward [][]mix.Split
-	splits  [][]mix.Split // per sample and draw, atmosphere and evaporite added
-	weights [][]float64   // per sample and draw; 0 for a draw not kept
+	weights [][]float64 // per sample and draw; 0 for a draw not kept
+	// splits holds every draw of every sample, expanded for code that
+	// indexes it directly (the fluxes cell's series); nil when not expanded.
+	splits [][]mix.Split
 }
 
 // Draw returns the split of sample i under draw d (atmospheric and
 // evaporite rows included), its weight and whether the draw was kept. Draw
 // d stands for the same end-member values in every sample, so derived
-// fluxes can be propagated draw by draw.
+// fluxes can be propagated draw by draw. The split is worked out from the
+// model's result on each call; nothing per draw is stored but the weight.
 func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
 	if a.splits != nil {
 		w := a.weights[i][d]
 		return a.splits[i][d], w, w > 0
 	}
+	s, _, ok := a.drawAt(i, d)
+	w := a.weights[i][d]
+	return s, w, ok && w > 0
+}
+
+// Weights returns the weight of each draw of sample i (0 for a draw not
+// kept). The slice is shared: do not change it.
+func (a *Apportioned) Weights(i int) []float64 { return a.weights[i] }
+
+// drawAt works out the split of sample i under draw d from the model's
+// result: the forward model's draw, or the inverse model's with the
+// atmospheric and evaporite amounts added.
+func (a *Apportioned) drawAt(i, d int) (mix.Split, float64, bool) {
 	if a.forward != nil {
 		return a.forward[i][d], 1, true
 	}
@@ -48,12 +64,18 @@ func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
 	if !ok {
 		return s, 0, false
 	}
+	a.addRemoved(i, &s)
+	return s, w, true
+}
+
+// addRemoved adds to s the atmospheric and evaporite amounts the
+// correction removed from sample i.
+func (a *Apportioned) addRemoved(i int, s *mix.Split) {
 	r := &a.Corrected[i]
 	for k, sp := range mix.Cations {
 		s[mix.Atmosphere][k] += r.Atm[sp]
 		s[mix.Evaporite][k] += r.Evap[sp]
 	}
-	return s, w, true
 }
 
 func init() { Register(KindApportionment, computeApportionment) }
@@ -62,6 +84,14 @@ func init() { Register(KindApportionment, computeApportionment) }
 // between progress reports when it runs on one goroutine (in the browser,
 // or with Document.Workers = 1).
 var ChunkDraws = 20000
+
+// expandSplits says whether an apportionment stores every draw of every
+// sample (128 bytes each) in Apportioned.splits, for the fluxes cell's
+// series, which indexes it directly. Without it, Draw works each split out
+// from the model's result when asked, and an apportionment of 100 samples ×
+// 10,000 draws holds about 8 MB (the draw weights) instead of about 130 MB.
+// TODO(fluxes): set false once series reads a.Draw(i, k).
+var expandSplits = true
 
 // MaxSampleDraws caps samples × draws in one apportionment: every draw of
 // every sample is kept (128 bytes each) for the fluxes and CO2 below, so
@@ -227,20 +257,42 @@ func computeApportionment(e *Env) (*Output, error) {
 			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for some samples (see the status column)")
 		}
 	}
-	// Medians and bounds, cell by cell, from the draws.
+	// Medians and bounds, cell by cell, from the draws, one sample at a
+	// time: only that sample's draws are expanded.
 	a.Median, a.Lo, a.Hi = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	vals, ws := make([]float64, 0, s.Draws), make([]float64, 0, s.Draws)
 	var draws []mix.Split
 	var qb quantileBuf
-	splits, weights := make([][]mix.Split, n), make([][]float64, n)
+	a.weights = make([][]float64, n)
+	if expandSplits {
+		a.splits = make([][]mix.Split, n)
+	}
 	for i := 0; i < n; i++ {
 		draws, ws = draws[:0], ws[:0]
-		splits[i], weights[i] = make([]mix.Split, a.Draws), make([]float64, a.Draws)
-		for d := 0; d < a.Draws; d++ {
-			if sp, w, ok := a.Draw(i, d); ok {
+		a.weights[i] = make([]float64, a.Draws)
+		if a.splits != nil {
+			a.splits[i] = make([]mix.Split, a.Draws)
+		}
+		if a.inverse != nil {
+			for k := 0; k < a.inverse.Kept(i); k++ {
+				d, sp, w := a.inverse.Draw(i, k)
+				a.addRemoved(i, &sp)
 				draws = append(draws, sp)
 				ws = append(ws, w)
-				splits[i][d], weights[i][d] = sp, w
+				a.weights[i][d] = w
+				if a.splits != nil {
+					a.splits[i][d] = sp
+				}
+			}
+		} else {
+			for d := 0; d < a.Draws; d++ {
+				sp, w, _ := a.drawAt(i, d)
+				draws = append(draws, sp)
+				ws = append(ws, w)
+				a.weights[i][d] = w
+				if a.splits != nil {
+					a.splits[i][d] = sp
+				}
 			}
 		}
 		for src := mix.Source(0); src < mix.NSources; src++ {
@@ -254,8 +306,9 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 		}
 	}
-	a.splits, a.weights = splits, weights
-	a.inverse, a.forward = nil, nil // everything is in splits now
+	if a.splits != nil {
+		a.inverse, a.forward = nil, nil // everything is in splits now
+	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
 	out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
 	fit := 0
