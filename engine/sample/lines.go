@@ -89,6 +89,9 @@ func (lr *lineReader) next() (fields [][]byte, line int, ok bool) {
 	return lr.fields, line, true
 }
 
+// unclosedQuote reports whether the last record ended inside quotes.
+func (lr *lineReader) unclosedQuote() bool { return lr.badQ }
+
 // scanQuote follows the quoting through b, starting inside a quoted field
 // when q is true and at the start of a field when start is true, and
 // returns the state at the end. A quote opens a quoted field only at the

@@ -32,10 +32,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	if perr != nil && perr != io.EOF && perr != bufio.ErrBufferFull {
 		return t, perr
 	}
-	im := &importer{t: t, opt: opt, max: opt.MaxProblems}
-	if im.max <= 0 {
-		im.max = 10000
-	}
+	im := newImporter(t, opt)
 	switch {
 	case bytes.HasPrefix(peek, []byte("\xef\xbb\xbf")):
 		br.Discard(3)
@@ -51,7 +48,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 		whole = len(text) <= peekSize
 	}
 	if bytes.HasPrefix(peek, []byte("PK\x03\x04")) {
-		im.fileProblem(ErrNotTable, "this is a zip archive (an .xlsx workbook?); save the sheet as CSV or paste its cells")
+		im.fileProblem(ErrNotTable, "this is a zip archive (an .xlsx workbook?); open it as a workbook, save the sheet as CSV or paste its cells")
 		return t, nil
 	}
 	if bytes.IndexByte(peek, 0) >= 0 {
@@ -84,8 +81,38 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 			im.sizeHint = int(fi.Size() / int64(max(1, len(peek)/max(1, bytes.Count(peek, []byte{'\n'})))))
 		}
 	}
-	im.run(lr, sample, modal)
+	im.run(lr, comma, splitLines(sample, comma), modal)
 	return t, lr.err
+}
+
+// newImporter starts an import into t.
+func newImporter(t *Table, opt Options) *importer {
+	im := &importer{t: t, opt: opt, max: opt.MaxProblems}
+	if im.max <= 0 {
+		im.max = 10000
+	}
+	return im
+}
+
+// records is a source of rows of fields: the lines of a text file or the
+// rows of a worksheet.
+type records interface {
+	// next returns the fields of the next record and the line (or
+	// spreadsheet row) it starts on.
+	next() (fields [][]byte, line int, ok bool)
+	// unclosedQuote reports whether the last record ended inside quotes.
+	unclosedQuote() bool
+}
+
+// splitLines cuts sample lines into fields, each line with its own scratch
+// so that unquoted fields stay valid.
+func splitLines(lines [][]byte, comma byte) [][][]byte {
+	out := make([][][]byte, len(lines))
+	for i, l := range lines {
+		var scratch []byte
+		out[i] = split(l, comma, nil, &scratch)
+	}
+	return out
 }
 
 // ParseText imports a sample table from text, such as cells pasted from a
@@ -159,8 +186,10 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
 }
 
-// run reads the header, the units row if any, and every data row.
-func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
+// run reads the header, the units row if any, and every data row. comma
+// joins preamble fields and is recorded in the table; sample holds the
+// first rows, split into fields, for the decimal mark.
+func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 	need := 1
 	if modal >= 2 {
 		need = max(2, (modal+1)/2)
@@ -184,7 +213,7 @@ func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
 			}
 			break
 		}
-		im.t.Preamble = append(im.t.Preamble, string(joinFields(fs, lr.comma)))
+		im.t.Preamble = append(im.t.Preamble, string(joinFields(fs, comma)))
 	}
 	heads := make([]heading, len(header))
 	for i, h := range header {
@@ -216,14 +245,14 @@ func (im *importer) run(lr *lineReader, sample [][]byte, modal int) {
 		first = true
 	}
 	im.mapColumns(header, heads, units)
-	im.detectDecimal(sample, lr.comma)
-	im.t.Comma, im.t.Decimal = rune(lr.comma), rune(im.dec)
+	im.detectDecimal(sample, comma)
+	im.t.Comma, im.t.Decimal = rune(comma), rune(im.dec)
 	for ; ok; fs, line, ok = lr.next() {
 		if first {
 			first = false
 			continue // the units row
 		}
-		if lr.badQ {
+		if lr.unclosedQuote() {
 			im.add(&Problem{Line: line, Err: ErrQuote, Detail: "a quoted field is not closed before the end of the file"})
 		}
 		im.row(fs, line)
@@ -268,7 +297,7 @@ func isUnitsRow(fs [][]byte, heads []heading) bool {
 
 // detectDecimal chooses the decimal mark from the numeric cells of the
 // sample lines, unless Options.Decimal sets it.
-func (im *importer) detectDecimal(sample [][]byte, comma byte) {
+func (im *importer) detectDecimal(sample [][][]byte, comma byte) {
 	im.dec = '.'
 	switch im.opt.Decimal {
 	case ',':
@@ -283,10 +312,7 @@ func (im *importer) detectDecimal(sample [][]byte, comma byte) {
 		return
 	}
 	commas, dots := 0, 0
-	var fs [][]byte
-	var scratch []byte
-	for _, l := range sample {
-		fs = split(l, comma, fs[:0], &scratch)
+	for _, fs := range sample {
 		for i, f := range fs {
 			if i >= len(im.cols) || !numericKind(im.cols[i].Kind) {
 				continue

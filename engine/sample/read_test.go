@@ -228,7 +228,7 @@ func TestReadBadInput(t *testing.T) {
 		{"binary file", "\x00\x01\x02garbage", ErrNotTable,
 			`bad.csv: not a sample table; the file holds binary data, not text`, 0},
 		{"workbook", "PK\x03\x04xl/workbook.xml", ErrNotTable,
-			`bad.csv: not a sample table; this is a zip archive (an .xlsx workbook?); save the sheet as CSV or paste its cells`, 0},
+			`bad.csv: not a sample table; this is a zip archive (an .xlsx workbook?); open it as a workbook, save the sheet as CSV or paste its cells`, 0},
 		{"empty file", " \n\n", ErrNotTable, `bad.csv: not a sample table; the file is empty`, 0},
 		{"prose", "Dear colleague, please find the results attached.\nBest wishes\n", ErrNotTable,
 			`bad.csv:1: not a sample table; no column names a species, date, site or sample; every column is kept as text`, 1},
