@@ -265,7 +265,7 @@ func joinFields(fs [][]byte, comma byte) []byte {
 }
 
 func isUnitsRow(fs [][]byte, heads []heading) bool {
-	unitLike, numbers := 0, 0
+	unitLike, metaUnits, numbers := 0, 0, 0
 	for i, f := range fs {
 		s := string(trimSpace(f))
 		if s == "" || i >= len(heads) {
@@ -279,8 +279,11 @@ func isUnitsRow(fs [][]byte, heads []heading) bool {
 		}
 		switch {
 		case k == Meta:
+			// A unit under an unknown column supports a units row but
+			// cannot make one alone: a data row holding only "g/L" in a
+			// metadata column is data.
 			if _, err := chem.ParseUnit(s); err == nil {
-				unitLike++
+				metaUnits++
 			}
 		case k == PH || k == SrRatio:
 			if isNoUnit(s) && s != "" && s != "-" {
@@ -292,7 +295,7 @@ func isUnitsRow(fs [][]byte, heads []heading) bool {
 			}
 		}
 	}
-	return unitLike >= 1 && numbers == 0
+	return unitLike >= 1 && numbers == 0 || unitLike == 0 && metaUnits >= 2 && numbers == 0
 }
 
 // detectDecimal chooses the decimal mark from the numeric cells of the
