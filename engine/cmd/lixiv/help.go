@@ -15,7 +15,8 @@ Usage:
   lixiv tables -out DIR FILE           rerun and write every result table as CSV and JSON,
                                        with report.json and figures.csv, to DIR
   lixiv quick -samples S.csv [-discharge Q.csv -area KM2] [-save B.lixiv.json] [-json]
-                                       a budget with default settings from a samples file;
+                                       a budget with default settings from a samples file
+                                       (CSV, TSV or .xlsx; -sheet NAME picks a workbook's sheet);
                                        without discharge: per-sample apportionment and CO2 per litre
   lixiv batch [-j N] [-out DIR] [-check] FILE|DIR...
                                        run many budget files at once on all cores

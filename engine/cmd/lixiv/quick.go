@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"flag"
 	"fmt"
@@ -11,12 +12,14 @@ import (
 	"strings"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/sample"
 )
 
 // quickBudget builds a budget with default settings from a samples file
-// and, when given, a discharge file and the area. Without discharge it
-// stops at the per-sample apportionment and CO2 per litre.
-func quickBudget(samplesPath, dischargePath string, area float64) (*notebook.Document, error) {
+// (text, or an .xlsx workbook whose sheet is named by sheet, "" for the
+// first) and, when given, a discharge file and the area. Without discharge
+// it stops at the per-sample apportionment and CO2 per litre.
+func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*notebook.Document, error) {
 	name := strings.TrimSuffix(filepath.Base(samplesPath), filepath.Ext(samplesPath))
 	d := notebook.New("Quick budget from " + filepath.Base(samplesPath))
 	add := func(k notebook.Kind, id, title string) *notebook.Cell {
@@ -26,12 +29,18 @@ func quickBudget(samplesPath, dischargePath string, area float64) (*notebook.Doc
 		}
 		return c
 	}
-	readTable := func(path string) (*notebook.Table, error) {
+	readTable := func(path, sheet string) (*notebook.Table, error) {
 		b, err := os.ReadFile(path)
 		if err != nil {
 			return nil, err
 		}
-		t, err := notebook.TableFromText(string(b))
+		text := string(b)
+		if isWorkbook(path, b) {
+			if text, err = workbookText(b, path, sheet); err != nil {
+				return nil, err
+			}
+		}
+		t, err := notebook.TableFromText(text)
 		if err != nil {
 			return nil, fmt.Errorf("%s: %v", path, err)
 		}
@@ -44,13 +53,13 @@ func quickBudget(samplesPath, dischargePath string, area float64) (*notebook.Doc
 		s := add(notebook.KindSite, "site", name).Settings.(*notebook.SiteSettings)
 		s.Name, s.AreaKm2 = name, area
 	}
-	st, err := readTable(samplesPath)
+	st, err := readTable(samplesPath, sheet)
 	if err != nil {
 		return nil, err
 	}
 	add(notebook.KindSamples, "samples", filepath.Base(samplesPath)).Table = st
 	if dischargePath != "" {
-		qt, err := readTable(dischargePath)
+		qt, err := readTable(dischargePath, "")
 		if err != nil {
 			return nil, err
 		}
@@ -72,7 +81,8 @@ func quickBudget(samplesPath, dischargePath string, area float64) (*notebook.Doc
 func runQuick(args []string, stdout, stderr io.Writer) error {
 	fs := flag.NewFlagSet("quick", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	samples := fs.String("samples", "", "samples table (CSV, TSV)")
+	samples := fs.String("samples", "", "samples table (CSV, TSV or .xlsx)")
+	sheet := fs.String("sheet", "", "sheet of an .xlsx samples workbook (default the first)")
 	dis := fs.String("discharge", "", "daily discharge table (CSV, TSV); optional")
 	areaText := fs.String("area", "", "catchment area in km² (needed with -discharge)")
 	save := fs.String("save", "", "write the budget, with its results, to this .lixiv.json file")
@@ -90,7 +100,7 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			return usageError(fmt.Sprintf("quick: -area %q is not a positive number of km²", *areaText))
 		}
 	}
-	d, err := quickBudget(*samples, *dis, area)
+	d, err := quickBudget(*samples, *sheet, *dis, area)
 	if err != nil {
 		return err
 	}
@@ -116,6 +126,26 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 		perSample(stdout, d)
 	}
 	return nil
+}
+
+// isWorkbook reports whether a file is an .xlsx workbook, by its name or
+// its zip signature.
+func isWorkbook(path string, b []byte) bool {
+	return strings.EqualFold(filepath.Ext(path), ".xlsx") || bytes.HasPrefix(b, []byte("PK\x03\x04"))
+}
+
+// workbookText returns a sheet of a workbook as tab-separated text. Rows
+// the workbook reader cannot read are an error, so that none is lost
+// silently.
+func workbookText(b []byte, path, sheet string) (string, error) {
+	text, probs, err := sample.SheetText(b, path, sheet)
+	if err != nil {
+		return "", err
+	}
+	if len(probs) > 0 {
+		return "", probs
+	}
+	return text, nil
 }
 
 // perSample prints the silicate share of each cation and the CO2 per litre
