@@ -85,17 +85,21 @@ func init() { Register(KindApportionment, computeApportionment) }
 // or with Document.Workers = 1).
 var ChunkDraws = 20000
 
-// expandSplits says whether an apportionment stores every draw of every
-// sample (128 bytes each) in Apportioned.splits, for the fluxes cell's
-// series, which indexes it directly. Without it, Draw works each split out
-// from the model's result when asked, and an apportionment of 100 samples ×
-// 10,000 draws holds about 8 MB (the draw weights) instead of about 130 MB.
-// TODO(fluxes): set false once series reads a.Draw(i, k).
+// expandSplits says whether an apportionment may store every draw of every
+// sample (128 bytes each) in Apportioned.splits, which makes the fluxes
+// cell's series quick to build. It does so only up to expandLimit
+// sample-draws; above that, Draw works each split out from the model's
+// result when asked, and an apportionment of 100 samples × 10,000 draws
+// holds about 8 MB (the draw weights) instead of about 130 MB.
 var expandSplits = true
 
-// MaxSampleDraws caps samples × draws in one apportionment: every draw of
-// every sample is kept (128 bytes each) for the fluxes and CO2 below, so
-// the cap bounds memory at about half a gigabyte.
+// expandLimit is the largest samples × draws whose splits are stored
+// (about 64 MB).
+const expandLimit = 500_000
+
+// MaxSampleDraws caps samples × draws in one apportionment: above
+// expandLimit only a weight (8 bytes) is kept per draw, plus the model's
+// own per-draw record, so the cap bounds memory and work.
 const MaxSampleDraws = 4_000_000
 
 // delta34S finds a sample's δ34S of sulfate (‰) among its unrecognised
@@ -264,7 +268,7 @@ func computeApportionment(e *Env) (*Output, error) {
 	var draws []mix.Split
 	var qb quantileBuf
 	a.weights = make([][]float64, n)
-	if expandSplits {
+	if expandSplits && n*a.Draws <= expandLimit {
 		a.splits = make([][]mix.Split, n)
 	}
 	for i := 0; i < n; i++ {

@@ -76,9 +76,15 @@ func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int,
 		}
 		d := make([]float64, a.Draws)
 		total := 0.0
+		var sp mix.Split // outside the loop: f takes its address
 		for k := 0; k < a.Draws; k++ {
 			if w := a.weights[i][k]; w > 0 {
-				d[k] = f(i, &a.splits[i][k])
+				if a.splits != nil {
+					d[k] = f(i, &a.splits[i][k])
+				} else {
+					sp, _, _ = a.Draw(i, k)
+					d[k] = f(i, &sp)
+				}
 				total += w
 			}
 		}
