@@ -117,6 +117,18 @@ func readFile(f js.Value) (string, error) {
 	return t.String(), nil
 }
 
+// readFileBytes reads a File (from a picker or a drop) as bytes.
+func readFileBytes(f js.Value) ([]byte, error) {
+	buf, err := await(f.Call("arrayBuffer"))
+	if err != nil {
+		return nil, err
+	}
+	u8 := js.Global().Get("Uint8Array").New(buf)
+	b := make([]byte, u8.Length())
+	js.CopyBytesToGo(b, u8)
+	return b, nil
+}
+
 // download offers data to the user as a file.
 func download(name, mime string, data []byte) {
 	g := js.Global()

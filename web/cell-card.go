@@ -386,9 +386,9 @@ func (c *CellCard) EmptyTableHint() string {
 	case notebook.KindAtmosphere:
 		return "No rain chemistry yet. The rain method needs it: paste a table of rain samples below, or open a CSV/TSV file. The sea-salt method does without."
 	case notebook.KindDischarge:
-		return "No discharge record yet: drop a CSV/TSV file of dates and daily discharge on the page, or paste one below."
+		return "No discharge record yet: drop a CSV/TSV or .xlsx file of dates and daily discharge on the page, or paste one below."
 	case notebook.KindSamples:
-		return "No samples yet: drop a CSV/TSV file of stream samples on the page, or paste rows copied from a spreadsheet below (with the header row)."
+		return "No samples yet: drop a CSV/TSV or .xlsx file of stream samples on the page, or paste rows copied from a spreadsheet below (with the header row)."
 	}
 	return "The table is empty: paste rows below, or use \"Fill from preset\"."
 }

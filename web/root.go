@@ -11,6 +11,7 @@ import (
 	"github.com/vugu/vugu/js"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/sample"
 )
 
 // demoFile is the demo budget the build copies next to the page.
@@ -477,6 +478,10 @@ func (c *Root) OnDrop(e vugu.DOMEvent) {
 
 func (c *Root) readAndOpen(f js.Value) {
 	name := f.Get("name").String()
+	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
+		c.readWorkbook(f, name)
+		return
+	}
 	text, err := readFile(f)
 	c.env.Lock()
 	defer c.env.UnlockRender()
@@ -489,6 +494,45 @@ func (c *Root) readAndOpen(f js.Value) {
 		return
 	}
 	c.OpenText(name, text)
+}
+
+// readWorkbook reads the first sheet of an .xlsx workbook into the samples
+// or discharge cell, as OpenText does with its cells as tab-separated text.
+func (c *Root) readWorkbook(f js.Value, name string) {
+	b, err := readFileBytes(f)
+	c.env.Lock()
+	defer c.env.UnlockRender()
+	defer c.guard()
+	if c.S == nil { // still opening the demo: start from an empty budget
+		c.open(notebook.New("Untitled budget"), "")
+	}
+	if err != nil {
+		c.S.Message = name + ": " + err.Error()
+		return
+	}
+	c.OpenWorkbook(name, b)
+}
+
+// OpenWorkbook reads the first sheet of an .xlsx workbook into the samples
+// or discharge cell (by its header). Rows the workbook reader cannot read
+// stop the import, so that none is lost silently; a workbook of several
+// sheets is named in the message with the sheet read.
+func (c *Root) OpenWorkbook(name string, b []byte) {
+	defer c.guard()
+	text, probs, err := sample.SheetText(b, name, "")
+	switch {
+	case err != nil:
+		c.S.Message = err.Error()
+		return
+	case len(probs) > 0:
+		c.S.Message = probs.Error()
+		return
+	}
+	c.OpenText(name, text)
+	if sheets, _ := sample.Sheets(b); len(sheets) > 1 && c.S.Message == "" {
+		c.S.Message = fmt.Sprintf("%s: read sheet %q, the first of %d; to read another, move it to the front or save it as CSV",
+			name, sheets[0], len(sheets))
+	}
 }
 
 // OpenText opens a budget file, or reads a CSV/TSV table into the samples

@@ -81,12 +81,12 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 				_ = vgparent
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 				vgparent.AppendChild(vgn)
-				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "label", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "button"}, vugu.VGAttribute{Namespace: "", Key: "for", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Open a budget file, or a CSV/TSV table of samples or discharge"}}}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "label", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "button"}, vugu.VGAttribute{Namespace: "", Key: "for", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Open a budget file, or a CSV/TSV table or .xlsx workbook of samples or discharge"}}}
 				vgparent.AppendChild(vgn)
 				vgn.SetInnerHTML(vugu.HTML("Open…"))
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 				vgparent.AppendChild(vgn)
-				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "type", Val: "file"}, vugu.VGAttribute{Namespace: "", Key: "id", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "hidden-file"}, vugu.VGAttribute{Namespace: "", Key: "accept", Val: ".json,.csv,.tsv,.txt"}}}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "type", Val: "file"}, vugu.VGAttribute{Namespace: "", Key: "id", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "hidden-file"}, vugu.VGAttribute{Namespace: "", Key: "accept", Val: ".json,.csv,.tsv,.txt,.xlsx"}}}
 				vgparent.AppendChild(vgn)
 				vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 					EventType: "change",
@@ -181,7 +181,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			{
 				vgparent := vgn
 				_ = vgparent
-				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Drop a budget file, or a CSV/TSV table of samples or discharge, to open it."}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Drop a budget file, or a CSV/TSV table or .xlsx workbook (first sheet) of samples or discharge, to open it."}
 				vgparent.AppendChild(vgn)
 			}
 		}
