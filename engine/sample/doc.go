@@ -59,6 +59,15 @@
 //     held is dropped: unusable cells stay as text in Sample.Meta or in the
 //     problem's Value.
 //
+// ReadXLSX reads one sheet of an .xlsx workbook (Sheets lists them)
+// through the same steps from step 3, row by row: Line is then the
+// spreadsheet row and Col the column (A = 1). Number cells keep their
+// value; cells formatted as dates or times arrive as ISO 8601 text, read
+// from the serial day the workbook stores (to the millisecond). A file
+// that is not a workbook, or a sheet it lacks, is an error (ErrNotWorkbook,
+// ErrNoSheet) naming the file and the sheet. SheetText gives a sheet as
+// tab-separated text, for callers that keep the cells as typed.
+//
 // Table.WriteCSV writes the normalised table (µmol/L, µeq/L for
 // alkalinity, "<limit" for censored values), which Read reads back to the
 // same table.
