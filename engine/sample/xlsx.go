@@ -249,6 +249,7 @@ func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, prob
 	if !found {
 		return fail(ErrNoSheet, fmt.Sprintf("sheet %q is not in the workbook, which holds %s", sheet, quoteList(raw.Sheets)))
 	}
+	epoch1904 := date1904(b)
 	// Which cells are formatted as dates: from a second, styled reading.
 	var dates []map[int]bool
 	var dateLines []int
@@ -301,7 +302,7 @@ func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, prob
 			for len(cells) <= col {
 				cells = append(cells, nil)
 			}
-			cells[col] = []byte(xlsxCell(c, isDate[col]))
+			cells[col] = []byte(xlsxCell(c, isDate[col], epoch1904))
 		}
 		slots += len(cells)
 		if slots > maxXLSXCells {
@@ -319,8 +320,8 @@ func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, prob
 
 // xlsxCell is a cell as the text importer reads it: numbers in plain
 // decimal notation, dates in ISO 8601, times as hh:mm:ss, booleans as
-// TRUE or FALSE.
-func xlsxCell(c xlsxreader.Cell, date bool) string {
+// TRUE or FALSE. epoch1904 says the workbook counts days from 1904.
+func xlsxCell(c xlsxreader.Cell, date, epoch1904 bool) string {
 	switch c.Type {
 	case xlsxreader.TypeBoolean:
 		switch c.Value {
@@ -335,6 +336,9 @@ func xlsxCell(c xlsxreader.Cell, date bool) string {
 			return c.Value
 		}
 		if date {
+			if epoch1904 && v >= 1 {
+				v += days1904 // a time of day alone is the same in both systems
+			}
 			if s, ok := serialText(v); ok {
 				return s
 			}
@@ -365,6 +369,53 @@ func serialText(v float64) (string, bool) {
 		return t.Format("2006-01-02"), true
 	}
 	return t.Format("2006-01-02T" + clock), true
+}
+
+// days1904 is the serial day of 1904-01-01 in the 1900 date system: a
+// workbook in the 1904 system (older Mac spreadsheets) counts its serial
+// days from there (common practice).
+const days1904 = 1462
+
+// date1904 reports whether a workbook uses the 1904 date system
+// (workbookPr date1904 in xl/workbook.xml).
+func date1904(b []byte) bool {
+	zr, err := zip.NewReader(bytes.NewReader(b), int64(len(b)))
+	if err != nil {
+		return false
+	}
+	for _, f := range zr.File {
+		if f.Name != "xl/workbook.xml" {
+			continue
+		}
+		rc, err := f.Open()
+		if err != nil {
+			return false
+		}
+		defer rc.Close()
+		d := xml.NewDecoder(io.LimitReader(rc, 1<<20))
+		for {
+			tok, err := d.Token()
+			if err != nil {
+				return false
+			}
+			se, ok := tok.(xml.StartElement)
+			if !ok {
+				continue
+			}
+			switch se.Name.Local {
+			case "workbookPr":
+				for _, a := range se.Attr {
+					if a.Name.Local == "date1904" {
+						return a.Value == "1" || a.Value == "true"
+					}
+				}
+				return false
+			case "sheets":
+				return false // workbookPr comes before the sheets
+			}
+		}
+	}
+	return false
 }
 
 func quoteList(s []string) string {

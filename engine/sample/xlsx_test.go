@@ -24,7 +24,9 @@ type xc struct {
 // buildXLSX writes a minimal workbook (Office Open XML, ECMA-376 part 1:
 // content types, package and workbook relationships, workbook, styles,
 // shared strings and one worksheet per sheet) holding the given sheets.
-func buildXLSX(t testing.TB, names []string, sheets [][][]xc) []byte {
+// Extra text, such as a workbookPr element, goes into the workbook before
+// its sheets.
+func buildXLSX(t testing.TB, names []string, sheets [][][]xc, extra ...string) []byte {
 	t.Helper()
 	var shared []string
 	index := map[string]int{}
@@ -48,7 +50,7 @@ func buildXLSX(t testing.TB, names []string, sheets [][][]xc) []byte {
 		`<Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/>` +
 		`<Override PartName="/xl/styles.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.styles+xml"/>` +
 		`<Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/>`)
-	wb.WriteString(`<workbook ` + main + ` xmlns:r="` + rel + `"><sheets>`)
+	wb.WriteString(`<workbook ` + main + ` xmlns:r="` + rel + `">` + strings.Join(extra, "") + `<sheets>`)
 	wbRels.WriteString(`<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">`)
 	for i, name := range names {
 		n := strconv.Itoa(i + 1)
@@ -338,6 +340,39 @@ func TestSheetText(t *testing.T) {
 	}
 	if _, _, err := SheetText(book, "vale.xlsx", "Chemistry"); !errors.Is(err, ErrNoSheet) {
 		t.Errorf("missing sheet: error %v, want ErrNoSheet", err)
+	}
+}
+
+// TestReadXLSX1904 reads a workbook in the 1904 date system: serial day
+// 43894 counts from 1904-01-01 (common practice) and is 2024-03-05, as
+// 45356 is in the 1900 system; a time of day alone is the same in both.
+func TestReadXLSX1904(t *testing.T) {
+	sheet := [][]xc{
+		{{"A1", "s", 0, "Sample"}, {"B1", "s", 0, "Date"}, {"C1", "s", 0, "Time"}, {"D1", "s", 0, "Ca (mg/L)"}},
+		{{"A2", "s", 0, "CV-01"}, {"B2", "", 1, "43894"}, {"C2", "", 2, "0.4375"}, {"D2", "", 0, "4.5"}},
+		{{"A3", "s", 0, "CV-02"}, {"B3", "", 1, "43894.5"}, {"D3", "", 0, "4.6"}},
+	}
+	tests := []struct {
+		name  string
+		extra string
+		want  []string
+	}{
+		{"1904", `<workbookPr date1904="1"/>`, []string{"2024-03-05 10:30", "2024-03-05 12:00"}},
+		{"1904 false", `<workbookPr date1904="false"/>`, []string{"2020-03-04 10:30", "2020-03-04 12:00"}},
+		{"1900", ``, []string{"2020-03-04 10:30", "2020-03-04 12:00"}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			tb, err := ReadXLSX(buildXLSX(t, []string{"S"}, [][][]xc{sheet}, tt.extra), "mac.xlsx", "", Options{})
+			if err != nil || len(tb.Samples) != 2 || len(tb.Problems) > 0 {
+				t.Fatalf("%v, %d samples, problems %v", err, len(tb.Samples), tb.Problems)
+			}
+			for i, s := range tb.Samples {
+				if got := s.Time.Format("2006-01-02 15:04"); !s.HasTime || got != tt.want[i] {
+					t.Errorf("sample %d: time %q, want %q", i, got, tt.want[i])
+				}
+			}
+		})
 	}
 }
 
