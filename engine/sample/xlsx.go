@@ -315,6 +315,13 @@ func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, prob
 	if err != nil {
 		return sheet, nil, nil, err
 	}
+	// The reader stops quietly where a sheet's XML breaks off; say so.
+	if f := (&xlsxreader.XlsxFileCloser{XlsxFile: *raw}).GetSheetFileForSheetName(sheet); f != nil {
+		if err := checkXML(f); err != nil {
+			probs = append(probs, &Problem{File: name, Err: ErrBadRow,
+				Detail: fmt.Sprintf("sheet %q: %v; rows after that point are not read", sheet, err)})
+		}
+	}
 	return sheet, rows, probs, nil
 }
 
@@ -369,6 +376,23 @@ func serialText(v float64) (string, bool) {
 		return t.Format("2006-01-02"), true
 	}
 	return t.Format("2006-01-02T" + clock), true
+}
+
+// checkXML reads an XML part to its end and returns the first error.
+func checkXML(f *zip.File) error {
+	rc, err := f.Open()
+	if err != nil {
+		return err
+	}
+	defer rc.Close()
+	d := xml.NewDecoder(rc)
+	for {
+		if _, err := d.Token(); err == io.EOF {
+			return nil
+		} else if err != nil {
+			return fmt.Errorf("the sheet's XML breaks off near byte %d (%v)", d.InputOffset(), err)
+		}
+	}
 }
 
 // days1904 is the serial day of 1904-01-01 in the 1900 date system: a

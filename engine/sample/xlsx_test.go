@@ -327,6 +327,46 @@ func TestReadXLSXBad(t *testing.T) {
 	}
 }
 
+// TestReadXLSXBrokenSheet cuts a sheet's XML short: the rows before the
+// break load and the break is reported, not passed over.
+func TestReadXLSXBrokenSheet(t *testing.T) {
+	book := corrieValeBook(t)
+	zr, err := zip.NewReader(bytes.NewReader(book), int64(len(book)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	zw := zip.NewWriter(&buf)
+	for _, f := range zr.File {
+		rc, _ := f.Open()
+		var body bytes.Buffer
+		body.ReadFrom(rc)
+		rc.Close()
+		b := body.Bytes()
+		if f.Name == "xl/worksheets/sheet1.xml" {
+			i := bytes.Index(b, []byte(`<row r="6">`))
+			b = append(b[:i:i], []byte(`<row r="6"><c r="A6" t="inlineStr"><is><t>CV-03</t></is></c></row><row </sheetData>`)...)
+		}
+		w, _ := zw.Create(f.Name)
+		w.Write(b)
+	}
+	zw.Close()
+	tb, err := ReadXLSX(buf.Bytes(), "cut.xlsx", "", Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(tb.Samples) != 3 {
+		t.Errorf("%d samples, want the 3 before the break", len(tb.Samples))
+	}
+	if n := tb.Problems.Count(ErrBadRow); n != 1 {
+		t.Errorf("problems %v, want one ErrBadRow", tb.Problems)
+	}
+	want := `cut.xlsx: unreadable row; sheet "Samples": the sheet's XML breaks off near byte`
+	if len(tb.Problems) == 0 || !strings.HasPrefix(tb.Problems[0].Error(), want) {
+		t.Errorf("first problem %v, want it to start %q", tb.Problems, want)
+	}
+}
+
 func TestSheetText(t *testing.T) {
 	book := corrieValeBook(t)
 	text, probs, err := SheetText(book, "vale.xlsx", "")
