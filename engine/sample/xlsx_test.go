@@ -506,3 +506,72 @@ func BenchmarkReadXLSX(b *testing.B) {
 		}
 	}
 }
+
+// replaceParts returns book with the named parts' contents replaced.
+func replaceParts(t testing.TB, book []byte, parts map[string][]byte) []byte {
+	zr, err := zip.NewReader(bytes.NewReader(book), int64(len(book)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	zw := zip.NewWriter(&buf)
+	for _, f := range zr.File {
+		b, ok := parts[f.Name]
+		if !ok {
+			rc, _ := f.Open()
+			var body bytes.Buffer
+			body.ReadFrom(rc)
+			rc.Close()
+			b = body.Bytes()
+		}
+		w, _ := zw.Create(f.Name)
+		w.Write(b)
+	}
+	zw.Close()
+	return buf.Bytes()
+}
+
+// FuzzXLSXParts feeds arbitrary worksheet, shared-strings and styles XML,
+// inside a sound zip, to the workbook importer: it must never panic, and
+// a failure must be a Problem naming the file.
+func FuzzXLSXParts(f *testing.F) {
+	book := corrieValeBook(f)
+	zr, err := zip.NewReader(bytes.NewReader(book), int64(len(book)))
+	if err != nil {
+		f.Fatal(err)
+	}
+	part := func(name string) []byte {
+		for _, z := range zr.File {
+			if z.Name == name {
+				rc, _ := z.Open()
+				var b bytes.Buffer
+				b.ReadFrom(rc)
+				rc.Close()
+				return b.Bytes()
+			}
+		}
+		f.Fatalf("no part %s", name)
+		return nil
+	}
+	f.Add(part("xl/worksheets/sheet1.xml"), part("xl/sharedStrings.xml"), part("xl/styles.xml"))
+	f.Add([]byte(`<worksheet><sheetData><row><c t="s"><v>0</v></c><c><v>1e400</v></c></row></sheetData></worksheet>`),
+		[]byte(`<sst count="-1"><si><t>x</t></si></sst>`), []byte(`<styleSheet><cellXfs><xf numFmtId="14"/></cellXfs></styleSheet>`))
+	f.Fuzz(func(t *testing.T, sheet, shared, styles []byte) {
+		in := replaceParts(t, book, map[string][]byte{"xl/worksheets/sheet1.xml": sheet, "xl/sharedStrings.xml": shared, "xl/styles.xml": styles})
+		tb, err := ReadXLSX(in, "fuzz.xlsx", "", Options{})
+		if tb == nil {
+			t.Fatal("nil table")
+		}
+		var p *Problem
+		if err != nil && (!errors.As(err, &p) || p.File != "fuzz.xlsx") {
+			t.Fatalf("error is not a problem naming the file: %v", err)
+		}
+		for _, s := range tb.Samples {
+			for _, v := range s.C {
+				if v < 0 || math.IsInf(v, 0) {
+					t.Fatalf("concentration %v", v)
+				}
+			}
+		}
+	})
+}
