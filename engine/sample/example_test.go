@@ -56,3 +56,37 @@ func ExampleRead() {
 	// Sample,Site,Date,Q (m3/s),pH,Temperature (°C),EC (µS/cm),87Sr/86Sr,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Sr (µmol/L),Cl (µmol/L),SO4 (µmol/L),NO3 (µmol/L),Alk (µeq/L),SiO2 (µmol/L),pH_lab
 	// CV-01,Corrie Vale burn,2024-01-14T10:15:00Z,0.0852,6.82,3.1,48.5,0.72135,179.21014995066534,10.742155029758326,58.63566046209891,36.20654186381403,0.1380963250399452,158.2,35.4,14.992503748125936,195.83158483704017,107.35149709568431,7.05
 }
+
+// Read the first sheet of a workbook; problems name the spreadsheet row
+// and column.
+func ExampleReadXLSX() {
+	b, err := os.ReadFile("testdata/corrie-vale.xlsx")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	sheets, _ := sample.Sheets(b)
+	fmt.Println("sheets:", sheets)
+	t, err := sample.ReadXLSX(b, "corrie-vale.xlsx", "", sample.Options{})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range t.Samples {
+		fmt.Printf("row %d %s %s Ca %.2f µmol/L\n", s.Line, s.ID, s.Time.Format("2006-01-02 15:04"), s.C[chem.Ca])
+	}
+	for _, p := range t.Problems {
+		fmt.Println(p)
+	}
+	if _, err := sample.ReadXLSX(b, "corrie-vale.xlsx", "Chemistry", sample.Options{}); err != nil {
+		fmt.Println(err)
+	}
+	// Output:
+	// sheets: [Samples Field notes]
+	// row 3 CV-01 2024-03-05 10:30 Ca 112.28 µmol/L
+	// row 4 CV-02 2024-03-19 11:31 Ca 127.25 µmol/L
+	// row 6 CV-03 2024-04-02 00:00 Ca NaN µmol/L
+	// corrie-vale.xlsx:6:4 (Ca (mg/L)): "high": not a number; left missing
+	// corrie-vale.xlsx:6:5 (Na (mg/L)): "-1": negative value; a concentration cannot be negative; left missing
+	// corrie-vale.xlsx: no such sheet; sheet "Chemistry" is not in the workbook, which holds "Samples", "Field notes"
+}

@@ -6,6 +6,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -574,4 +576,30 @@ func FuzzXLSXParts(f *testing.F) {
 			}
 		}
 	})
+}
+
+// TestXLSXTestdata keeps testdata/corrie-vale.xlsx, written from corrieVale
+// by this test with -update, reading as the generator's workbook does, and
+// its reading in testdata/corrie-vale-xlsx.golden.
+func TestXLSXTestdata(t *testing.T) {
+	path := filepath.Join("testdata", "corrie-vale.xlsx")
+	gen := corrieValeBook(t)
+	if *update {
+		if err := os.WriteFile(path, gen, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run go test -update to create it)", err)
+	}
+	got, err := ReadXLSX(b, "corrie-vale.xlsx", "", Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, _ := ReadXLSX(gen, "corrie-vale.xlsx", "", Options{})
+	if g, w := dump(got), dump(want); g != w {
+		t.Errorf("committed workbook reads\n%s\nthe generator's reads\n%s", g, w)
+	}
+	checkGolden(t, "corrie-vale-xlsx.golden", dump(got))
 }
