@@ -121,6 +121,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 		return u, err
 	}
 	e := newEngine(rec, smp, years, opt)
+	e.replicate = true
 	groups := make([][]int, len(years))
 	for i, sm := range smp {
 		groups[sm.year] = append(groups[sm.year], i)

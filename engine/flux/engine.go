@@ -27,6 +27,12 @@ type engine struct {
 
 	cd []float64 // scratch: daily concentration
 	ly []float64 // scratch: per-sample ln C − ln Cref
+
+	// replicate marks bootstrap use: the rating curve may then sum its
+	// days through mom (moments.go), prepared at the first replicate.
+	replicate bool
+	mom       *moments
+	summed    bool // the last rating call already added its sums to out
 }
 
 func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt Options) *engine {
@@ -107,10 +113,13 @@ func (e *engine) loads(method Method, w, c, out []float64, fit *RatingFit) bool 
 		}
 		e.sumDaily(cref, out)
 	case Rating:
-		if !e.rating(w, c, cref, fit) {
+		e.summed = false
+		if !e.rating(w, c, cref, fit, out) {
 			return false
 		}
-		e.sumDaily(cref, out)
+		if !e.summed {
+			e.sumDaily(cref, out)
+		}
 	}
 	for y := range out {
 		out[y] = 86.4 * (cref*e.sumQ[y] + out[y])

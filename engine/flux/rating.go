@@ -59,7 +59,7 @@ func FergusonFactor(s float64) float64 { return pexp(s * s / 2) }
 // discharge (weighted by w) and fills e.cd with the corrected daily
 // concentrations. It returns false when the fit is singular or has no
 // degrees of freedom.
-func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
+func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit, out []float64) bool {
 	m := 1
 	if e.opt.Seasonal {
 		m = 3
@@ -203,6 +203,15 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit) bool {
 		bcf = FergusonFactor(s)
 	default:
 		bcf = 1
+	}
+	if e.replicate && useMoments && m == 1 && fit == nil {
+		if e.mom == nil {
+			e.mom = e.prepareMoments(beta[0])
+		}
+		if e.mom != nil && e.mom.sumRating(e, cpos, b0, beta[0], bcf, cref, out) {
+			e.summed = true
+			return true
+		}
 	}
 	for k, q := range e.q {
 		if math.IsNaN(q) || q == 0 {
