@@ -9,7 +9,11 @@ import (
 )
 
 // Cells pasted from a spreadsheet: tab-separated, decimal commas, a value
-// below detection and a negative value that is reported, not loaded.
+// below detection and a negative value that is reported, not loaded. The
+// printed µmol/L follow from the IUPAC/CIAAW 2021 standard atomic weights
+// (Prohaska et al. 2022): 2.35 mg/L Ca / 40.078 g/mol = 58.64 µmol/L,
+// 0.21 mg/L NO3-N / 14.007 g/mol = 14.993 µmol/L, and 9.8 mg/L as CaCO3 /
+// 50.043 g/eq = 195.8 µeq/L.
 func ExampleParseText() {
 	text := "Sample\tDate\tCa (mg/L)\tNO3-N (mg/L)\tAlk (mg/L CaCO3)\n" +
 		"CV-01\t2024-03-05\t2,35\t0,21\t9,8\n" +
