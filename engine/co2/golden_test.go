@@ -2,19 +2,15 @@ package co2
 
 import (
 	"bytes"
-	"flag"
 	"fmt"
-	"os"
-	"path/filepath"
 	"testing"
 	"text/tabwriter"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
+	"lixiv/engine/internal/golden"
 	"lixiv/engine/mix"
 )
-
-var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
 
 // goldenSamples are invented samples from the fictional Corrie Vale granite
 // burn (CV) and Marlow Fen limestone-and-shale river (MF), µmol/L.
@@ -33,7 +29,7 @@ var goldenSamples = []struct {
 // TestGoldenChain runs the golden samples through correct.Bracket,
 // mix.Forward and Consumption and compares a fixed-precision table with
 // testdata/chain.golden (run with -update to rewrite it; a mismatch writes
-// testdata/chain.got). The file guards against unnoticed changes; the
+// testdata/chain.golden.got). The file guards against unnoticed changes; the
 // numbers themselves are checked by the other tests.
 func TestGoldenChain(t *testing.T) {
 	rain := chem.NewComposition()
@@ -71,20 +67,5 @@ func TestGoldenChain(t *testing.T) {
 		}
 	}
 	w.Flush()
-	path := filepath.Join("testdata", "chain.golden")
-	if *update {
-		if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run go test -update to create it)", err)
-	}
-	if !bytes.Equal(buf.Bytes(), want) {
-		got := filepath.Join(t.TempDir(), "chain.got")
-		_ = os.WriteFile(got, buf.Bytes(), 0o644)
-		t.Errorf("chain table differs from %s; got (also in %s):\n%s\nwant:\n%s", path, got, buf.Bytes(), want)
-	}
+	golden.Check(t, "chain.golden", buf.Bytes())
 }

@@ -1,37 +1,15 @@
 package discharge
 
 import (
-	"flag"
 	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 	"text/tabwriter"
+
+	"lixiv/engine/internal/golden"
 )
-
-var update = flag.Bool("update", false, "rewrite golden files")
-
-// checkGolden compares got with testdata/name, rewriting it under -update;
-// on a mismatch it writes testdata/name.got beside it.
-func checkGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", name)
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if string(want) != got {
-		_ = os.WriteFile(path+".got", []byte(got), 0o644)
-		t.Errorf("%s differs from the golden file; got written to %s.got\n%s", name, path, got)
-	}
-}
 
 func formatImport(imp *Import) string {
 	var b strings.Builder
@@ -63,5 +41,5 @@ func TestGoldenMessy(t *testing.T) {
 	}
 	defer f.Close()
 	imp := Read(f, Options{File: "discharge_corrie_vale_messy.csv"})
-	checkGolden(t, "messy.golden", formatImport(imp))
+	golden.Check(t, "messy.golden", []byte(formatImport(imp)))
 }

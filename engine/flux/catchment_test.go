@@ -1,37 +1,13 @@
 package flux
 
 import (
-	"flag"
 	"fmt"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 	"text/tabwriter"
+
+	"lixiv/engine/internal/golden"
 )
-
-var update = flag.Bool("update", false, "rewrite golden files")
-
-// checkGolden compares got with testdata/name, rewriting it under -update;
-// on a mismatch it writes testdata/name.got beside it.
-func checkGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", name)
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if string(want) != got {
-		_ = os.WriteFile(path+".got", []byte(got), 0o644)
-		t.Errorf("%s differs from the golden file; got written to %s.got\n%s", name, path, got)
-	}
-}
 
 // corrieOptions are the settings of the synthetic catchment runs: the
 // seasonal rating curve with Duan's smearing, 7 % discharge and 2 % area
@@ -87,5 +63,5 @@ func TestSyntheticCatchment(t *testing.T) {
 		})
 	}
 	tw.Flush()
-	checkGolden(t, "corrie_vale.golden", b.String())
+	golden.Check(t, "corrie_vale.golden", []byte(b.String()))
 }

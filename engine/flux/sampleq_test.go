@@ -10,6 +10,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/golden"
 )
 
 // TestDischargeAtSampling: a discharge measured at sampling (Series.Q)
@@ -63,7 +64,7 @@ func TestCorrieValeDischargeFile(t *testing.T) {
 		fmt.Fprintf(&b, "%s,%.4f\n", d, cv.gauge.Q[i])
 	}
 	path := filepath.Join("..", "..", "testdata", "discharge_corrie_vale.csv")
-	if *update {
+	if *golden.Update {
 		if err := os.WriteFile(path, []byte(b.String()), 0o644); err != nil {
 			t.Fatal(err)
 		}

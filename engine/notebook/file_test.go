@@ -2,35 +2,13 @@ package notebook
 
 import (
 	"bytes"
-	"flag"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/golden"
 )
-
-var update = flag.Bool("update", false, "rewrite golden files under testdata/")
-
-// golden compares got with testdata/name, rewriting it under -update and
-// writing name.got beside it on a mismatch.
-func golden(t *testing.T, name string, got []byte) {
-	t.Helper()
-	path := filepath.Join("testdata", name)
-	if *update {
-		if err := os.WriteFile(path, got, 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if !bytes.Equal(got, want) {
-		os.WriteFile(path+".got", got, 0o644)
-		t.Errorf("%s differs from the golden file; see %s.got", name, path)
-	}
-}
 
 func TestMigrateV0(t *testing.T) {
 	data, err := os.ReadFile("testdata/v0-corrie.json")
@@ -68,7 +46,7 @@ func TestMigrateV0(t *testing.T) {
 			t.Errorf("cell %s broken: %s", c.ID, c.Problem)
 		}
 	}
-	golden(t, "v0-corrie.migrated.lixiv.json", d.Marshal())
+	golden.Check(t, "v0-corrie.migrated.lixiv.json", d.Marshal())
 }
 
 func TestUnknownFieldsSurvive(t *testing.T) {

@@ -2,7 +2,6 @@ package sample
 
 import (
 	"bytes"
-	"flag"
 	"fmt"
 	"math"
 	"os"
@@ -12,9 +11,8 @@ import (
 	"text/tabwriter"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/golden"
 )
-
-var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
 
 // dump prints a table as tabwriter text at fixed precision: the columns and
 // what they were read as, the samples in µmol/L (µeq/L for Alk), and the
@@ -82,27 +80,6 @@ func dump(t *Table) string {
 	return b.String()
 }
 
-// checkGolden compares got with testdata/name, rewriting it with -update and
-// writing name.got beside it on a mismatch.
-func checkGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", name)
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run go test -update to create it)", err)
-	}
-	if got != string(want) {
-		os.WriteFile(path+".got", []byte(got), 0o644)
-		t.Errorf("%s differs from the golden file; see %s.got\n--- got ---\n%s", path, path, got)
-	}
-}
-
 func readFile(t *testing.T, path string, opt Options) *Table {
 	t.Helper()
 	f, err := os.Open(path)
@@ -121,7 +98,7 @@ func TestGolden(t *testing.T) {
 	for _, name := range []string{"samples-messy.csv", "samples-messy-decimal-comma.csv"} {
 		t.Run(name, func(t *testing.T) {
 			tb := readFile(t, filepath.Join("..", "..", "testdata", name), Options{})
-			checkGolden(t, strings.TrimSuffix(name, ".csv")+".golden", dump(tb))
+			golden.Check(t, strings.TrimSuffix(name, ".csv")+".golden", []byte(dump(tb)))
 		})
 	}
 }

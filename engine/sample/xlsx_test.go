@@ -11,6 +11,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/golden"
 )
 
 // xc is one cell of a test worksheet: ref such as "B3", t the cell type
@@ -584,7 +586,7 @@ func FuzzXLSXParts(f *testing.F) {
 func TestXLSXTestdata(t *testing.T) {
 	path := filepath.Join("testdata", "corrie-vale.xlsx")
 	gen := corrieValeBook(t)
-	if *update {
+	if *golden.Update {
 		if err := os.WriteFile(path, gen, 0o644); err != nil {
 			t.Fatal(err)
 		}
@@ -601,5 +603,5 @@ func TestXLSXTestdata(t *testing.T) {
 	if g, w := dump(got), dump(want); g != w {
 		t.Errorf("committed workbook reads\n%s\nthe generator's reads\n%s", g, w)
 	}
-	checkGolden(t, "corrie-vale-xlsx.golden", dump(got))
+	golden.Check(t, "corrie-vale-xlsx.golden", []byte(dump(got)))
 }

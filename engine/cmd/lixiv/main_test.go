@@ -2,23 +2,22 @@ package main
 
 import (
 	"bytes"
-	"flag"
 	"os"
 	"path/filepath"
 	"regexp"
 	"strconv"
 	"strings"
 	"testing"
-)
 
-var update = flag.Bool("update", false, "rewrite the .stdout golden files")
+	"lixiv/engine/internal/golden"
+)
 
 // golden compares got with testdata/name.stdout (a missing file counts as
 // empty), writing name.got-stdout beside it on a mismatch.
-func golden(t *testing.T, name string, got []byte) {
+func checkStdout(t *testing.T, name string, got []byte) {
 	t.Helper()
 	path := filepath.Join("testdata", name+".stdout")
-	if *update {
+	if *golden.Update {
 		if err := os.WriteFile(path, got, 0o644); err != nil {
 			t.Fatal(err)
 		}
@@ -89,7 +88,7 @@ func TestCommands(t *testing.T) {
 			if tt.err != "" && (err == nil || !strings.Contains(err.Error(), tt.err)) {
 				t.Errorf("error %v, want one containing %q", err, tt.err)
 			}
-			golden(t, tt.name, stdout.Bytes())
+			checkStdout(t, tt.name, stdout.Bytes())
 		})
 	}
 }
@@ -132,7 +131,7 @@ func TestTables(t *testing.T) {
 	if err := run([]string{"tables", "-out", dir, small}, &stdout, &stderr); err != nil {
 		t.Fatal(err)
 	}
-	golden(t, "tables", stdout.Bytes())
+	checkStdout(t, "tables", stdout.Bytes())
 	for _, name := range []string{"report.json", "figures.csv", "co2-per-litre.csv", "apportionment-shares.json"} {
 		b, err := os.ReadFile(filepath.Join(dir, name))
 		if err != nil || len(b) == 0 {
