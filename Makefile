@@ -44,7 +44,7 @@ fuzz-short:
 
 # fuzz: long fuzzing, not part of `make test`.
 fuzz:
-	bash scripts/fuzz.sh 2m
+	FUZZ_MINIMIZE=60s bash scripts/fuzz.sh 2m
 
 chromium:
 	@command -v chromium >/dev/null 2>&1 || (apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y chromium)
