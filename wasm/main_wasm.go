@@ -6,6 +6,7 @@ package main
 
 import (
 	"log"
+	"syscall/js"
 
 	"github.com/vugu/vugu"
 	"github.com/vugu/vugu/domrender"
@@ -25,9 +26,17 @@ func main() {
 	}
 	root := &web.Root{}
 	for ok := true; ok; ok = renderer.EventWait() {
-		if err := renderer.Render(env.RunBuild(root)); err != nil {
+		t0 := now()
+		built := env.RunBuild(root)
+		t1 := now()
+		if err := renderer.Render(built); err != nil {
 			log.Print("render: ", err)
 		}
+		// For the timing harness: building the page and syncing it to the DOM.
+		js.Global().Set("lixivLastBuild", t1-t0)
+		js.Global().Set("lixivLastSync", now()-t1)
 		root.Rendered()
 	}
 }
+
+func now() float64 { return js.Global().Get("performance").Call("now").Float() }

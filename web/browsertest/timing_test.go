@@ -67,13 +67,17 @@ func TestTiming(t *testing.T) {
 		notes = append(notes, eval[float64](t, ctx, `lixivLastRecompute`))
 	}
 	t.Logf("timing: edit of a note (no science downstream) to repainted page: %s", stats(notes))
-	var renders []float64
+	var renders, builds, syncs []float64
 	for i := 0; i < 8; i++ {
 		eval[bool](t, ctx, `document.querySelector("section.cell .fold").click() || true`)
 		time.Sleep(150 * time.Millisecond)
 		renders = append(renders, eval[float64](t, ctx, `lixivLastRender`))
+		builds = append(builds, eval[float64](t, ctx, `lixivLastBuild`))
+		syncs = append(syncs, eval[float64](t, ctx, `lixivLastSync`))
 	}
 	t.Logf("timing: one full render of the page (a fold click): %s", stats(renders))
+	t.Logf("timing: of which building the page: %s; syncing it to the DOM: %s", stats(builds), stats(syncs))
+	t.Logf("timing: (the page holds %d elements)", eval[int](t, ctx, `document.querySelectorAll("*").length`))
 	// Responsiveness during a long run: the longest gap of a 10 ms heartbeat.
 	if ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`); ap != "" {
 		eval[bool](t, ctx, `(() => { window.lixivGap = 0; let last = performance.now();
