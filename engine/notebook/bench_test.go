@@ -87,3 +87,45 @@ func benchFluxesEdit(b *testing.B, seriesBootstrap string) {
 		}
 	}
 }
+
+// BenchmarkRainEditQuickPass times the quick pass of a rain edit
+// (Document.Quick): from the edit to point values in every cell, before
+// the fluxes and CO2 cells are refined with their bootstrap intervals.
+func BenchmarkRainEditQuickPass(b *testing.B) {
+	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d, err := notebook.Parse(data, "corrie-vale")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d.Workers, d.Quick = 1, true
+	ctx := context.Background()
+	d.Recompute(ctx, nil)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := "0.86"
+		if i%2 == 1 {
+			v = "0.859120"
+		}
+		d.SetParam("rain", "na_per_cl", v)
+		for {
+			stale := false
+			for _, id := range d.Pending() {
+				if st, _ := d.Status(id); st == notebook.Stale {
+					stale = true
+				}
+			}
+			if !stale {
+				break
+			}
+			if _, err := d.Step(ctx, nil); err != nil {
+				b.Fatal(err)
+			}
+		}
+		b.StopTimer()
+		d.Recompute(ctx, nil) // refine, untimed
+		b.StartTimer()
+	}
+}

@@ -130,26 +130,39 @@ func computeCO2(e *Env) (*Output, error) {
 				ser.Draws = carbD
 			}
 		}
-		_, u, w, err := fv.estimate(ser, true)
+		boot := !e.Rough() // the quick pass: point values now, intervals in the full pass
+		out.Rough = out.Rough || !boot
+		r, u, w, err := fv.estimate(ser, boot)
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil {
 			return nil, err
 		}
 		e.Report(n+(k+1)*n, total)
-		m := u.Mean
 		name := part.name + " CO2 consumption"
+		perKm2 := withInterval(name+" per km²", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
 		out.Figures = append(out.Figures,
-			Figure{Name: name, Unit: "mol/yr", Median: m.Mol.Median, Low: m.Mol.Lo, High: m.Mol.Hi},
-			Figure{Name: name + " per km²", Unit: "mol/km²/yr", Median: m.MolPerKm2.Median, Low: m.MolPerKm2.Lo, High: m.MolPerKm2.Hi},
-			Figure{Name: name + " as carbon", Unit: "t C/km²/yr", Median: flux.CarbonMass(m.MolPerKm2.Median),
-				Low: flux.CarbonMass(m.MolPerKm2.Lo), High: flux.CarbonMass(m.MolPerKm2.Hi)})
-		for _, y := range u.Years {
+			withInterval(name, "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }), perKm2,
+			Figure{Name: name + " as carbon", Unit: "t C/km²/yr", Median: flux.CarbonMass(perKm2.Median),
+				Low: flux.CarbonMass(perKm2.Low), High: flux.CarbonMass(perKm2.High)})
+		intervals := map[int]*flux.YearInterval{}
+		if u != nil {
+			for i := range u.Years {
+				intervals[u.Years[i].Label] = &u.Years[i]
+			}
+		}
+		for _, y := range r.Years {
 			if !y.Complete() {
 				continue
 			}
+			// The bootstrap median and interval, or the point estimate alone.
+			mol := flux.Interval{Median: y.Mol, Lo: math.NaN(), Hi: math.NaN()}
+			km2 := flux.Interval{Median: y.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}
+			if in := intervals[y.Label]; in != nil {
+				mol, km2 = in.Mol, in.MolPerKm2
+			}
 			yName, yYear = append(yName, part.name), append(yYear, fmt.Sprint(y.Label))
-			yMed, yLo, yHi = append(yMed, y.Mol.Median), append(yLo, y.Mol.Lo), append(yHi, y.Mol.Hi)
-			kMed, kLo, kHi = append(kMed, y.MolPerKm2.Median), append(kLo, y.MolPerKm2.Lo), append(kHi, y.MolPerKm2.Hi)
+			yMed, yLo, yHi = append(yMed, mol.Median), append(yLo, mol.Lo), append(yHi, mol.Hi)
+			kMed, kLo, kHi = append(kMed, km2.Median), append(kLo, km2.Lo), append(kHi, km2.Hi)
 		}
 	}
 	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + scale + ")", Columns: []*Column{

@@ -211,7 +211,10 @@ func computeFluxes(e *Env) (*Output, error) {
 		return nil, err
 	}
 	a := v.App
-	out := &Output{Value: v}
+	// The quick pass (Document.Quick) gives point values now; the full pass
+	// adds the bootstrap intervals.
+	rough := e.Rough()
+	out := &Output{Value: v, Rough: rough}
 	var rows []meanRow
 	var yName, yYear []string
 	var yMol, yYield, yRunoff []float64
@@ -278,16 +281,16 @@ func computeFluxes(e *Env) (*Output, error) {
 			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
 				continue
 			}
-			jobs = append(jobs, job{ser: v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0, sumOf(src, k))})
+			jobs = append(jobs, job{ser: v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, sumOf(src, k))})
 		}
 	}
 	for _, c := range cationSums {
-		jobs = append(jobs, job{ser: v.series(c.name, 0, true, sumOf(c.src, c.ks...)), sum: true})
+		jobs = append(jobs, job{ser: v.series(c.name, 0, !rough, sumOf(c.src, c.ks...)), sum: true})
 	}
 	var rName []string
 	var rA, rB, rR2, rS, rFactor, rN []float64
 	var figs []Figure
-	var runoff *flux.Uncertainty
+	var runoff Figure
 	for j, jb := range jobs {
 		if err := e.Ctx.Err(); err != nil {
 			return nil, err
@@ -298,6 +301,9 @@ func computeFluxes(e *Env) (*Output, error) {
 		reps := v.SeriesReplicates
 		if jb.sum {
 			reps = max(v.Bootstrap.Replicates, 1)
+		}
+		if rough {
+			reps = 0
 		}
 		r, u, w, err := v.estimateN(jb.ser, reps)
 		out.Warnings = append(out.Warnings, w...)
@@ -320,14 +326,13 @@ func computeFluxes(e *Env) (*Output, error) {
 		if !jb.sum {
 			continue
 		}
-		runoff = u
-		figs = append(figs, Figure{Name: jb.ser.Name + " flux", Unit: "mol/yr", Median: u.Mean.Mol.Median, Low: u.Mean.Mol.Lo, High: u.Mean.Mol.Hi},
-			Figure{Name: jb.ser.Name + " yield", Unit: "mol/km²/yr", Median: u.Mean.MolPerKm2.Median, Low: u.Mean.MolPerKm2.Lo, High: u.Mean.MolPerKm2.Hi})
+		runoff = withInterval("runoff", "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
+		figs = append(figs, withInterval(jb.ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
+			withInterval(jb.ser.Name+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 }))
 	}
 	e.Report(len(jobs), len(jobs))
-	if runoff != nil {
-		out.Figures = append(out.Figures, Figure{Name: "runoff", Unit: "mm/yr", Median: runoff.Mean.RunoffMM.Median,
-			Low: runoff.Mean.RunoffMM.Lo, High: runoff.Mean.RunoffMM.Hi})
+	if runoff.Name != "" {
+		out.Figures = append(out.Figures, runoff)
 	}
 	out.Figures = append(out.Figures, figs...)
 	// Silicate weathering rate in t/km²/yr from the point fluxes (cations, then cations + SiO2).
@@ -368,6 +373,17 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	out.Warnings = groupSeries(out.Warnings, series)
 	return out, nil
+}
+
+// withInterval is a headline figure: the bootstrap median and 95 % interval
+// pick takes from the mean-annual figures of u or, without a bootstrap (the
+// quick pass), the point estimate v without an interval.
+func withInterval(name, unit string, v float64, u *flux.Uncertainty, pick func(*flux.LoadInterval) flux.Interval) Figure {
+	if u == nil {
+		return Point(name, unit, v)
+	}
+	in := pick(&u.Mean)
+	return Figure{Name: name, Unit: unit, Median: in.Median, Low: in.Lo, High: in.Hi}
 }
 
 // nonPositive counts the sample values of a series that are zero or

@@ -33,7 +33,12 @@ type Env struct {
 	Cell     *Cell
 	doc      *Document
 	progress func(Progress)
+	rough    bool
 }
+
+// Rough reports that this is the quick first pass of Document.Quick: the
+// cell may leave out its intervals, and then sets Output.Rough.
+func (e *Env) Rough() bool { return e.rough }
 
 // Input returns the output of the cell filling role, or nil when an optional
 // role is empty.
@@ -93,6 +98,7 @@ type cellState struct {
 	out   *Output
 	err   error
 	stale bool
+	rough bool // computed by the quick pass without intervals, or from an input that was
 	runs  int
 }
 
@@ -117,9 +123,10 @@ const (
 	UpToDate              // computed without a problem
 	Waiting               // an input cell has a problem
 	Problem               // failed; see Status.Err
+	Refining              // point values computed, intervals to follow (Document.Quick)
 )
 
-var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem"}
+var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem", "computing intervals"}
 
 // String returns the state as the page shows it.
 func (s State) String() string { return stateNames[s] }
@@ -135,6 +142,8 @@ func (d *Document) Status(id string) (State, error) {
 	switch {
 	case s.stale:
 		return Stale, nil
+	case s.err == nil && s.rough:
+		return Refining, nil
 	case s.err == nil:
 		return UpToDate, nil
 	case errors.As(s.err, &ie):
@@ -144,7 +153,8 @@ func (d *Document) Status(id string) (State, error) {
 }
 
 // Output returns the output of a computed cell, or nil when it is stale or
-// has a problem.
+// has a problem. While the cell is Refining it is the output of the quick
+// pass (Output.Rough set).
 func (d *Document) Output(id string) *Output {
 	if d.Cell(id) == nil {
 		return nil
@@ -160,19 +170,23 @@ func (d *Document) Output(id string) *Output {
 // was loaded; tests use it to prove an edit reruns only what it must.
 func (d *Document) Runs(id string) int { return d.st(id).runs }
 
-// Pending returns the ids of the stale cells in compute order.
+// Pending returns the ids of the cells still to compute in compute order:
+// the stale ones, then those the quick pass left rough.
 func (d *Document) Pending() []string {
 	order, err := d.order()
 	if err != nil {
 		return nil
 	}
-	var ids []string
+	var ids, rough []string
 	for _, c := range order {
-		if d.st(c.ID).stale {
+		switch s := d.st(c.ID); {
+		case s.stale:
 			ids = append(ids, c.ID)
+		case s.rough:
+			rough = append(rough, c.ID)
 		}
 	}
-	return ids
+	return append(ids, rough...)
 }
 
 // Step computes the next stale cell and reports whether any remain. The
@@ -192,11 +206,16 @@ func (d *Document) Step(ctx context.Context, progress func(Progress)) (more bool
 	}
 	c := d.Cell(pending[0])
 	s := d.st(c.ID)
-	out, cerr := d.computeCell(ctx, c, progress)
-	if ctx.Err() != nil { // cancelled mid-cell: leave it stale
+	// A stale cell is computed quickly when asked; a rough one (all stale
+	// cells done) in full. Its inputs come before it in the order, so when
+	// a rough cell is refined its inputs are already refined.
+	rough := d.Quick && s.stale
+	out, cerr := d.computeCell(ctx, c, progress, rough)
+	if ctx.Err() != nil { // cancelled mid-cell: leave it as it was
 		return true, ctx.Err()
 	}
 	s.out, s.err, s.stale = out, cerr, false
+	s.rough = cerr == nil && (out.Rough || d.roughInputs(c))
 	s.runs++
 	return len(pending) > 1, nil
 }
@@ -217,7 +236,7 @@ func (d *Document) Recompute(ctx context.Context, progress func(Progress)) error
 
 // computeCell runs the compute function of c, turning a panic in it into
 // a problem on the cell rather than a crash of the page.
-func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progress)) (out *Output, err error) {
+func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progress), rough bool) (out *Output, err error) {
 	if c.Broken() {
 		return nil, fmt.Errorf("this cell could not be read: %s", c.Problem)
 	}
@@ -244,11 +263,22 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 			out, err = nil, fmt.Errorf("internal error in the %s computation: %v", c.Kind, r)
 		}
 	}()
-	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress})
+	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress, rough: rough})
 	if err == nil && out == nil {
 		out = &Output{}
 	}
 	return out, err
+}
+
+// roughInputs reports whether any cell c reads (charts read any cell) is
+// rough: then c's output rests on values without their intervals.
+func (d *Document) roughInputs(c *Cell) bool {
+	for _, id := range d.depIDs(c) {
+		if s, ok := d.state[id]; ok && !s.stale && s.rough {
+			return true
+		}
+	}
+	return false
 }
 
 // Workers returns the number of goroutines the computation may use (0: all

@@ -84,6 +84,12 @@ type Document struct {
 	// Workers is the number of goroutines a long computation may use; 0
 	// means all cores. Results do not depend on it.
 	Workers int
+	// Quick makes Step compute stale cells first without their intervals
+	// (the bootstraps of fluxes and CO2), so that a page can show the new
+	// point values at once, and then refine those cells in order. The
+	// refined results are the same as without Quick; only the order of the
+	// work changes.
+	Quick bool
 
 	rev   uint64
 	state map[string]*cellState
@@ -375,7 +381,7 @@ func (d *Document) Repair(id string, raw []byte) error {
 // Clone returns a deep copy of the document's cells, title and fields,
 // without computed results (for undo stacks and what-if copies).
 func (d *Document) Clone() *Document {
-	n := &Document{Title: d.Title, Engine: d.Engine, Extra: cloneRaw(d.Extra), Stored: d.Stored, Workers: d.Workers, rev: d.rev, funcs: d.funcs}
+	n := &Document{Title: d.Title, Engine: d.Engine, Extra: cloneRaw(d.Extra), Stored: d.Stored, Workers: d.Workers, Quick: d.Quick, rev: d.rev, funcs: d.funcs}
 	for _, c := range d.Cells {
 		n.Cells = append(n.Cells, c.clone())
 	}

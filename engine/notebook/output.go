@@ -7,6 +7,9 @@ type Output struct {
 	Tables   []*ResultTable // tables for the page, the CSV export and charts
 	Figures  []Figure       // headline figures with their intervals
 	Warnings []string       // problems that did not stop the computation
+	// Rough says the output lacks intervals that a full computation gives
+	// (see Document.Quick); a compute function that skips that work sets it.
+	Rough bool
 	// Value is the typed result cells below read (for example the
 	// apportioned samples); it is not written to files.
 	Value any
