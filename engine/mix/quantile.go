@@ -1,6 +1,10 @@
 package mix
 
-import "slices"
+import (
+	"slices"
+
+	"lixiv/engine/internal/order"
+)
 
 // interval returns the 2.5 %, 50 % and 97.5 % quantiles of v (linear
 // interpolation between order statistics, Hyndman & Fan 1996 type 7, the
@@ -10,7 +14,7 @@ import "slices"
 func interval(v []float64) Interval {
 	n := len(v)
 	im, _ := qindex(n, 0.5)
-	vim := selectK(v, im) // now v[:im] <= vim <= v[im+1:]
+	vim := order.Select(v, im) // now v[:im] <= vim <= v[im+1:]
 	left, right := v[:im], v[im+1:]
 	// stat returns the k-th order statistic and the (k+1)-th (or the k-th
 	// again at the end), selecting only within the half that holds them.
@@ -22,16 +26,16 @@ func interval(v []float64) Interval {
 			if len(right) == 0 {
 				return vim, vim
 			}
-			return vim, minOf(right)
+			return vim, order.Min(right)
 		case k < im:
 			part, j = left, k
 		default:
 			part, j = right, k-im-1
 		}
-		a := selectK(part, j)
+		a := order.Select(part, j)
 		switch {
 		case j+1 < len(part):
-			return a, minOf(part[j+1:])
+			return a, order.Min(part[j+1:])
 		case k < im:
 			return a, vim
 		}
@@ -54,59 +58,6 @@ func qindex(n int, p float64) (int, float64) {
 	h := p * float64(n-1)
 	i := int(h)
 	return i, h - float64(i)
-}
-
-func minOf(v []float64) float64 {
-	m := v[0]
-	for _, x := range v[1:] {
-		if x < m {
-			m = x
-		}
-	}
-	return m
-}
-
-// selectK reorders v so that v[k] is its k-th smallest element, smaller or
-// equal ones to the left and greater or equal ones to the right (Hoare
-// selection with a median-of-three pivot; deterministic).
-func selectK(v []float64, k int) float64 {
-	lo, hi := 0, len(v)-1
-	for hi > lo {
-		mid := lo + (hi-lo)/2
-		if v[mid] < v[lo] {
-			v[mid], v[lo] = v[lo], v[mid]
-		}
-		if v[hi] < v[lo] {
-			v[hi], v[lo] = v[lo], v[hi]
-		}
-		if v[hi] < v[mid] {
-			v[hi], v[mid] = v[mid], v[hi]
-		}
-		pivot := v[mid]
-		i, j := lo, hi
-		for i <= j {
-			for v[i] < pivot {
-				i++
-			}
-			for v[j] > pivot {
-				j--
-			}
-			if i <= j {
-				v[i], v[j] = v[j], v[i]
-				i++
-				j--
-			}
-		}
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return v[k]
-		}
-	}
-	return v[k]
 }
 
 // weightedInterval returns weighted 2.5 %, 50 % and 97.5 % quantiles: the

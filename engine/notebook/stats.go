@@ -7,6 +7,8 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+
+	"lixiv/engine/internal/order"
 )
 
 // parseNum reads a number typed in a table cell (a decimal comma is accepted).
@@ -51,7 +53,9 @@ func allOnes(w []float64) bool {
 }
 
 // equal is quantiles with every weight 1: the same arithmetic (the
-// cumulative weight before value i is exactly i), without the weights.
+// cumulative weight before value i is exactly i), without the weights, and
+// with the two order statistics each quantile needs selected rather than
+// the values sorted.
 func (b *quantileBuf) equal(x []float64, ps []float64) []float64 {
 	s := b.f[:0]
 	for _, v := range x {
@@ -61,30 +65,33 @@ func (b *quantileBuf) equal(x []float64, ps []float64) []float64 {
 	}
 	b.f = s
 	out := make([]float64, len(ps))
-	if len(s) == 0 {
-		for i := range out {
-			out[i] = math.NaN()
-		}
-		return out
-	}
-	slices.Sort(s)
-	total := float64(len(s))
+	n := len(s)
 	for k, p := range ps {
-		target := p * total
-		out[k] = s[len(s)-1]
-		for i := range s {
+		if n == 0 {
+			out[k] = math.NaN()
+			continue
+		}
+		// The first i whose mid-point i + 0.5 reaches the target.
+		target := p * float64(n)
+		i := max(int(math.Ceil(target-0.5)), 0)
+		for i > 0 && float64(i-1)+0.5 >= target {
+			i--
+		}
+		for i < n && float64(i)+0.5 < target {
+			i++
+		}
+		switch {
+		case i >= n:
+			out[k] = order.Max(s)
+		case i == 0:
+			out[k] = order.Min(s)
+		default:
+			lo := order.Select(s, i-1) // s[i:] now holds the greater values
+			hi := order.Min(s[i:])
 			cum := float64(i)
-			mid := cum + 0.5
-			if mid >= target {
-				if i == 0 {
-					out[k] = s[0]
-				} else {
-					prevMid := cum - 0.5
-					f := (target - prevMid) / (mid - prevMid)
-					out[k] = s[i-1] + f*(s[i]-s[i-1])
-				}
-				break
-			}
+			mid, prevMid := cum+0.5, cum-0.5
+			f := (target - prevMid) / (mid - prevMid)
+			out[k] = lo + f*(hi-lo)
 		}
 	}
 	return out
