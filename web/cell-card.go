@@ -130,17 +130,33 @@ func (c *CellCard) CanPaste() bool {
 		c.V.Kind == string(notebook.KindSources) || c.V.Kind == string(notebook.KindAtmosphere)
 }
 
-// RoleChoice says whether a choice is the current one of a role.
-func RoleChoice(r RoleView, id string) bool { return r.Current == id }
-
 // Fill mounts a chart's SVG into its element when it changed (the
 // external-DOM pattern: vugu never touches the element's children).
-func (c *CellCard) Fill(el js.Value, ch ChartView) {
-	if d := el.Get("__lixivSVG"); d.Type() == js.TypeString && d.String() == ch.SVG {
-		return
+func (c *CellCard) Fill(el js.Value, ch ChartView) { mountHTML(el, ch.Key, ch.SVG) }
+
+// FillResult mounts output table ti into its element when its text changed.
+func (c *CellCard) FillResult(el js.Value, ti int) {
+	text := ResultHTML(c.V.ID, c.V.Results[ti], c.ResultColumns(ti), c.ResultRows(ti))
+	mountHTML(el, htmlKey(text), text)
+}
+
+// FillParam fills the select of a setting with its choices.
+func (c *CellCard) FillParam(el js.Value, p ParamView) {
+	choices := make([]Choice, len(p.Options))
+	for i, o := range p.Options {
+		choices[i] = Choice{o, o}
 	}
-	el.Set("innerHTML", ch.SVG)
-	el.Set("__lixivSVG", ch.SVG)
+	mountOptions(el, choices, p.Value)
+}
+
+// FillRole fills the select of an input role with the cells it can read.
+func (c *CellCard) FillRole(el js.Value, r RoleView) {
+	choices := make([]Choice, 0, len(r.Choices)+1)
+	choices = append(choices, Choice{"", "nearest above"})
+	for _, id := range r.Choices {
+		choices = append(choices, Choice{id, id})
+	}
+	mountOptions(el, choices, r.Current)
 }
 
 // OnParam sets a setting from its field.

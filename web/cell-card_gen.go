@@ -197,53 +197,12 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "select", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
+									vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.FillRole(value, r) })
 									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 										EventType: "change",
 										Func:      func(event vugu.DOMEvent) { c.OnUses(r.Name, event) },
 										// TODO: implement capture, etc. mostly need to decide syntax
 									})
-									{
-										vgparent := vgn
-										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "option", Attr: []vugu.VGAttribute{{Namespace: "", Key: "value", Val: ""}}}
-										vgparent.AppendChild(vgn)
-										{
-											b, err := vjson.Marshal(r.Current == "")
-											if err != nil {
-												panic(err)
-											}
-											vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "selected", JSONVal: vjson.RawMessage(b)})
-										}
-										{
-											vgparent := vgn
-											_ = vgparent
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "nearest above"}
-											vgparent.AppendChild(vgn)
-										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-										vgparent.AppendChild(vgn)
-										for vgiterkeyt, id := range r.Choices {
-											var vgiterkey interface{} = vgiterkeyt
-											_ = vgiterkey
-											id := id
-											_ = id
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "option", Attr: []vugu.VGAttribute(nil)}
-											vgparent.AppendChild(vgn)
-											vgn.AddAttrInterface("value", id)
-											{
-												b, err := vjson.Marshal(RoleChoice(r, id))
-												if err != nil {
-													panic(err)
-												}
-												vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "selected", JSONVal: vjson.RawMessage(b)})
-											}
-											vgn.SetInnerHTML(id)
-										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-										vgparent.AppendChild(vgn)
-									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 									vgparent.AppendChild(vgn)
 								}
@@ -283,36 +242,12 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "select", Attr: []vugu.VGAttribute(nil)}
 										vgparent.AppendChild(vgn)
 										vgn.AddAttrInterface("id", "p-"+c.V.ID+"-"+p.Key)
+										vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.FillParam(value, p) })
 										vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 											EventType: "change",
 											Func:      func(event vugu.DOMEvent) { c.OnParam(p.Key, event) },
 											// TODO: implement capture, etc. mostly need to decide syntax
 										})
-										{
-											vgparent := vgn
-											_ = vgparent
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-											vgparent.AppendChild(vgn)
-											for vgiterkeyt, o := range p.Options {
-												var vgiterkey interface{} = vgiterkeyt
-												_ = vgiterkey
-												o := o
-												_ = o
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "option", Attr: []vugu.VGAttribute(nil)}
-												vgparent.AppendChild(vgn)
-												vgn.AddAttrInterface("value", o)
-												{
-													b, err := vjson.Marshal(o == p.Value)
-													if err != nil {
-														panic(err)
-													}
-													vgn.Prop = append(vgn.Prop, vugu.VGProperty{Key: "selected", JSONVal: vjson.RawMessage(b)})
-												}
-												vgn.SetInnerHTML(o)
-											}
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-											vgparent.AppendChild(vgn)
-										}
 									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
@@ -973,13 +908,11 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 						vgparent.AppendChild(vgn)
-						for ti, t := range c.V.Results {
+						for ti := range c.V.Results {
 							var vgiterkey interface{} = ti
 							_ = vgiterkey
 							ti := ti
 							_ = ti
-							t := t
-							_ = t
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "result"}}}
 							vgparent.AppendChild(vgn)
 							{
@@ -1019,75 +952,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								vgparent.AppendChild(vgn)
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "table-wrap"}}}
 								vgparent.AppendChild(vgn)
-								{
-									vgparent := vgn
-									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "table", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "out"}}}
-									vgparent.AppendChild(vgn)
-									vgn.AddAttrInterface("id", "out-"+c.V.ID+"-"+t.Name)
-									{
-										vgparent := vgn
-										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "thead", Attr: []vugu.VGAttribute(nil)}
-										vgparent.AppendChild(vgn)
-										{
-											vgparent := vgn
-											_ = vgparent
-											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute(nil)}
-											vgparent.AppendChild(vgn)
-											{
-												vgparent := vgn
-												_ = vgparent
-												for vgiterkeyt, col := range c.ResultColumns(ti) {
-													var vgiterkey interface{} = vgiterkeyt
-													_ = vgiterkey
-													col := col
-													_ = col
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "th", Attr: []vugu.VGAttribute(nil)}
-													vgparent.AppendChild(vgn)
-													vgn.SetInnerHTML(Header(col))
-												}
-											}
-										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n            "}
-										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tbody", Attr: []vugu.VGAttribute(nil)}
-										vgparent.AppendChild(vgn)
-										{
-											vgparent := vgn
-											_ = vgparent
-											for vgiterkeyt, r := range c.ResultRows(ti) {
-												var vgiterkey interface{} = vgiterkeyt
-												_ = vgiterkey
-												r := r
-												_ = r
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "tr", Attr: []vugu.VGAttribute(nil)}
-												vgparent.AppendChild(vgn)
-												{
-													vgparent := vgn
-													_ = vgparent
-													for vgiterkeyt, v := range r {
-														var vgiterkey interface{} = vgiterkeyt
-														_ = vgiterkey
-														v := v
-														_ = v
-														vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "td", Attr: []vugu.VGAttribute(nil)}
-														vgparent.AppendChild(vgn)
-														vgn.SetInnerHTML(v)
-													}
-												}
-											}
-										}
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-										vgparent.AppendChild(vgn)
-									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-									vgparent.AppendChild(vgn)
-								}
+								vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.FillResult(value, ti) })
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 								vgparent.AppendChild(vgn)
 								if c.ResultHidden(ti) || c.ResultExpanded(ti) {

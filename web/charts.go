@@ -55,7 +55,8 @@ func (cc *ChartCache) For(d *notebook.Document, c *notebook.Cell, o *notebook.Ou
 	t0 := nowMillis()
 	var views []ChartView
 	for _, ch := range Charts(d, c, o) {
-		views = append(views, ChartView{ID: ch.ID, Title: ch.Title, SVG: ch.SVG()})
+		svg := ch.SVG()
+		views = append(views, ChartView{ID: ch.ID, Title: ch.Title, SVG: svg, Key: htmlKey(svg)})
 	}
 	cc.Millis += nowMillis() - t0
 	cc.saved[c.ID] = cachedCharts{key: key, views: views}

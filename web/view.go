@@ -60,9 +60,10 @@ func (f FigureView) Class() string {
 	return "figure"
 }
 
-// ChartView is a drawn chart: its id on the page, title and SVG text.
+// ChartView is a drawn chart: its id on the page, title and SVG text, and
+// the key (htmlKey) of that text.
 type ChartView struct {
-	ID, Title, SVG string
+	ID, Title, SVG, Key string
 }
 
 var kindLabels = map[notebook.Kind]string{

@@ -1,0 +1,110 @@
+package web
+
+import (
+	"hash/fnv"
+	"html"
+	"strconv"
+	"strings"
+
+	"github.com/vugu/vugu/js"
+
+	"lixiv/engine/notebook"
+)
+
+// Large read-only parts of the page (output tables, the option lists of
+// choice fields, charts) are written as HTML text and mounted into an
+// element that has no children in the template, so vugu's DOM sync, which
+// rewrites every node it knows on every render, never visits them. They are
+// written again only when their text changes.
+
+// mountKey is the JS property, set on the first node of a mounted block,
+// that holds the key of the HTML it was made from.
+const mountKey = "__lixivKey"
+
+// mountHTML puts text (HTML) into el unless el already holds the text of
+// that key (htmlKey of the text). The key sits on the first node mounted,
+// not on el: vugu syncs by position and may reuse el for another element,
+// and then the children are no longer ours.
+func mountHTML(el js.Value, key, text string) {
+	if first := el.Get("firstChild"); first.Truthy() {
+		if k := first.Get(mountKey); k.Type() == js.TypeString && k.String() == key {
+			return
+		}
+	}
+	el.Set("innerHTML", text)
+	if first := el.Get("firstChild"); first.Truthy() {
+		first.Set(mountKey, key)
+	}
+}
+
+// htmlKey is a short digest of a block of HTML, with its length.
+func htmlKey(text string) string {
+	h := fnv.New64a()
+	h.Write([]byte(text))
+	return strconv.FormatUint(h.Sum64(), 36) + "." + strconv.Itoa(len(text))
+}
+
+// esc escapes text for HTML content and attribute values.
+func esc(s string) string { return html.EscapeString(s) }
+
+// ResultHTML writes an output table as the HTML of
+// <table class="out" id="out-<cell>-<table>">, with one header row and the
+// given rows, every text escaped.
+func ResultHTML(cell string, t *notebook.ResultTable, cols []*notebook.Column, rows [][]string) string {
+	var b strings.Builder
+	b.WriteString(`<table class="out" id="`)
+	b.WriteString(esc("out-" + cell + "-" + t.Name))
+	b.WriteString(`"><thead><tr>`)
+	for _, col := range cols {
+		b.WriteString("<th>")
+		b.WriteString(esc(Header(col)))
+		b.WriteString("</th>")
+	}
+	b.WriteString("</tr></thead><tbody>")
+	for _, r := range rows {
+		b.WriteString("<tr>")
+		for _, v := range r {
+			b.WriteString("<td>")
+			b.WriteString(esc(v))
+			b.WriteString("</td>")
+		}
+		b.WriteString("</tr>")
+	}
+	b.WriteString("</tbody></table>")
+	return b.String()
+}
+
+// Choice is one option of a choice field: the value sent and its label.
+type Choice struct{ Value, Label string }
+
+// OptionsHTML writes the options of a select, the current one selected.
+func OptionsHTML(choices []Choice, current string) string {
+	var b strings.Builder
+	for _, c := range choices {
+		b.WriteString(`<option value="`)
+		b.WriteString(esc(c.Value))
+		if c.Value == current {
+			b.WriteString(`" selected>`)
+		} else {
+			b.WriteString(`">`)
+		}
+		b.WriteString(esc(c.Label))
+		b.WriteString("</option>")
+	}
+	return b.String()
+}
+
+// mountOptions fills a select with its options and shows the current
+// choice (again after a rejected change), when it is one of them.
+func mountOptions(el js.Value, choices []Choice, current string) {
+	text := OptionsHTML(choices, current)
+	mountHTML(el, htmlKey(text), text)
+	for _, c := range choices {
+		if c.Value == current {
+			if el.Get("value").String() != current {
+				el.Set("value", current)
+			}
+			return
+		}
+	}
+}
