@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/sample"
@@ -16,7 +17,7 @@ var (
 	ErrImbalance    = errors.New("charge imbalance beyond the accepted limit")
 	ErrRejected     = errors.New("charge imbalance beyond the reject limit")
 	ErrNoBalance    = errors.New("no ions to balance")
-	ErrMissingMajor = errors.New("major ion missing")
+	ErrMissingMajor = errors.New("missing major ion(s)")
 	ErrCensored     = errors.New("values below detection")
 	ErrOutlier      = errors.New("unusual ratio to chloride")
 )
@@ -26,10 +27,11 @@ type Status int
 
 // Charge-balance outcomes.
 const (
-	Unknown  Status = iota // no cations or no anions to balance
-	Accepted               // |imbalance| within Thresholds.OK
-	Flagged                // between Thresholds.OK and Thresholds.Reject
-	Rejected               // beyond Thresholds.Reject
+	Unknown    Status = iota // no cations or no anions to balance
+	Accepted                 // |imbalance| within Thresholds.OK
+	Flagged                  // between Thresholds.OK and Thresholds.Reject
+	Rejected                 // beyond Thresholds.Reject
+	Incomplete               // a major ion is missing: no imbalance is computed
 )
 
 // String names the status.
@@ -41,6 +43,8 @@ func (s Status) String() string {
 		return "flag"
 	case Rejected:
 		return "reject"
+	case Incomplete:
+		return "incomplete"
 	}
 	return "unknown"
 }
@@ -109,8 +113,14 @@ type Options struct {
 	Ratios []chem.Species
 }
 
-// Majors are the ions a charge balance needs; a missing one is reported.
-// Alkalinity counts as present when Alk or HCO3 is.
+// Majors are the ions a charge balance needs (science.md §3.1: TZ+ = Na + K
+// + 2Ca + 2Mg, TZ− = Cl + 2SO4 + NO3 + Alk; NO3 is left out, as it is often
+// not measured and rarely carries much charge; common practice). With one
+// of them missing the sums would compare part of the water with the whole
+// and the imbalance could be anything (a blank Na turns a balanced water
+// into NICB −100 % or so), so Check gives no NICB or CBE and the status
+// Incomplete. Alkalinity counts as present when Alk or HCO3 is; a value
+// below detection counts as present.
 var Majors = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk}
 
 var defaultRatios = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Sr, chem.SO4, chem.NO3, chem.Alk, chem.SiO2}
@@ -150,6 +160,10 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 		r := &out[i]
 		r.Index, r.ID, r.Line = i, s.ID, s.Line
 		r.Balance = ChargeBalance(s.C, s.PH, s.Temp)
+		r.Missing = missingMajors(s)
+		if len(r.Missing) > 0 {
+			r.Balance.NICB, r.Balance.CBE = math.NaN(), math.NaN()
+		}
 		x := r.Balance.NICB
 		if opt.Measure == CBE {
 			x = r.Balance.CBE
@@ -159,8 +173,11 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 			lim = opt.Dilute
 		}
 		r.Status = lim.Classify(x)
-		if r.Balance.TZPlus == 0 || r.Balance.TZMinus == 0 {
+		switch {
+		case r.Balance.TZPlus == 0 || r.Balance.TZMinus == 0:
 			r.Status = Unknown
+		case len(r.Missing) > 0:
+			r.Status = Incomplete
 		}
 		switch r.Status {
 		case Unknown:
@@ -170,14 +187,8 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 		case Rejected:
 			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s %+.1f %% (rejected beyond ±%g %%)", ErrRejected, opt.Measure, x, lim.Reject))
 		}
-		for _, m := range Majors {
-			if s.C.Has(m) || m == chem.Alk && s.C.Has(chem.HCO3) || s.IsCensored(m) {
-				continue
-			}
-			r.Missing = append(r.Missing, m)
-		}
 		if len(r.Missing) > 0 {
-			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %v", ErrMissingMajor, r.Missing))
+			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %s (no NICB without them)", ErrMissingMajor, MissingList(r.Missing)))
 		}
 		if r.Censored = s.NCensored(); r.Censored > 0 {
 			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %d (substituted values enter the balance)", ErrCensored, r.Censored))
@@ -185,6 +196,40 @@ func Check(samples []*sample.Sample, opt Options) []Report {
 	}
 	outliers(samples, out, opt)
 	return out
+}
+
+// missingMajors lists the Majors that sample s lacks.
+func missingMajors(s *sample.Sample) []chem.Species {
+	var out []chem.Species
+	for _, m := range Majors {
+		if s.C.Has(m) || m == chem.Alk && s.C.Has(chem.HCO3) || s.IsCensored(m) {
+			continue
+		}
+		out = append(out, m)
+	}
+	return out
+}
+
+// MissingList names missing ions for a message or a flag column, such as
+// "Na, alkalinity".
+func MissingList(sp []chem.Species) string {
+	names := make([]string, len(sp))
+	for i, s := range sp {
+		names[i] = s.Symbol()
+		if s == chem.Alk {
+			names[i] = "alkalinity"
+		}
+	}
+	return strings.Join(names, ", ")
+}
+
+// Flag is the short note for a sample table's flag column: "missing major
+// ion(s): Na" for an Incomplete sample, "" otherwise.
+func (r Report) Flag() string {
+	if r.Status != Incomplete {
+		return ""
+	}
+	return ErrMissingMajor.Error() + ": " + MissingList(r.Missing)
 }
 
 // usable reports whether species sp of s is a measured, positive value.

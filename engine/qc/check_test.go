@@ -46,7 +46,8 @@ func table(t *testing.T, text string) []*sample.Sample {
 func TestCheckFlags(t *testing.T) {
 	// Row 1 is science.md §13 item 4 (NICB +3.2787 %); row 2 has 40 µmol/L
 	// less Cl; row 3 lacks K and SO4 and has NO3 below a 2 µmol/L limit (1
-	// substituted): TZ+ 600, TZ- 501; row 4 has no anions.
+	// substituted): TZ+ 600, TZ- 501 from the ions present, but no NICB,
+	// since two majors are missing; row 4 has no anions.
 	text := "Sample,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),NO3 (µmol/L),Alk (µeq/L)\n" +
 		"S1,100,10,200,50,50,40,10,450\n" +
 		"S2,100,10,200,50,10,40,10,450\n" +
@@ -64,7 +65,7 @@ func TestCheckFlags(t *testing.T) {
 	}{
 		{Accepted, 3.2787, 0, 0, nil},
 		{Flagged, 9.8361, 0, 0, []error{ErrImbalance}},
-		{Rejected, (600.0 - 501) / 600 * 100, 2, 1, []error{ErrRejected, ErrMissingMajor, ErrCensored}},
+		{Incomplete, math.NaN(), 2, 1, []error{ErrMissingMajor, ErrCensored}},
 		{Unknown, math.NaN(), 3, 0, []error{ErrNoBalance, ErrMissingMajor}},
 	}
 	for i, w := range want {
@@ -87,6 +88,12 @@ func TestCheckFlags(t *testing.T) {
 		if len(r.Warnings) != len(w.warn) {
 			t.Errorf("%s: %d warnings %v, want %d", r.ID, len(r.Warnings), r.Warnings, len(w.warn))
 		}
+	}
+	if rs[2].Balance.TZPlus != 600 || math.Abs(rs[2].Balance.TZMinus-501) > 1e-9 {
+		t.Errorf("S3 sums %g %g, want 600 and 501 from the ions present", rs[2].Balance.TZPlus, rs[2].Balance.TZMinus)
+	}
+	if got := rs[2].Flag(); got != "missing major ion(s): K, SO4" {
+		t.Errorf("S3 flag %q", got)
 	}
 	if rs[1].Warnings[0].Error() != "charge imbalance beyond the accepted limit: NICB +9.8 % (accepted within ±5 %)" {
 		t.Errorf("message %q", rs[1].Warnings[0])
@@ -111,6 +118,40 @@ func TestCheckFlags(t *testing.T) {
 	rs = Check(table(t, text), Options{DiluteBelow: 500, Dilute: Thresholds{OK: 10, Reject: 20}})
 	if rs[1].Status != Flagged {
 		t.Errorf("S2 above the dilute limit: status %v, want flag", rs[1].Status)
+	}
+}
+
+func TestCheckMissingMajor(t *testing.T) {
+	// science.md §13 item 4 (TZ+ 610, TZ- 590 µeq/L, NICB +3.2787 %) with
+	// one major ion blanked at a time. From the ions present a blank Na
+	// would give (410 - 590)/410 = -43.9 %, a blank Ca -116 %: values that
+	// say nothing about the analysis. Every such sample must have no NICB
+	// or CBE and be Incomplete, naming the missing ion; a value below
+	// detection counts as measured.
+	head := "Sample,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),NO3 (µmol/L),Alk (µeq/L)\n"
+	tests := []struct {
+		row, flag string
+		status    Status
+	}{
+		{"all,100,10,200,50,50,40,10,450", "", Accepted},
+		{"noNa,,10,200,50,50,40,10,450", "missing major ion(s): Na", Incomplete},
+		{"noCa,100,10,,50,50,40,10,450", "missing major ion(s): Ca", Incomplete},
+		{"noCl,100,10,200,50,,40,10,450", "missing major ion(s): Cl", Incomplete},
+		{"noAlk,100,10,200,50,50,40,10,", "missing major ion(s): alkalinity", Incomplete},
+		{"noNaCa,,10,,50,50,40,10,450", "missing major ion(s): Na, Ca", Incomplete},
+		{"noNO3,100,10,200,50,50,40,,450", "", Accepted},
+		{"censNa,<5,10,200,50,50,40,10,450", "", Rejected},
+	}
+	for _, tc := range tests {
+		t.Run(tc.row, func(t *testing.T) {
+			r := Check(table(t, head+tc.row+"\n"), Options{})[0]
+			if r.Status != tc.status || r.Flag() != tc.flag {
+				t.Errorf("status %v flag %q, want %v %q", r.Status, r.Flag(), tc.status, tc.flag)
+			}
+			if incomplete := tc.status == Incomplete; incomplete != math.IsNaN(r.Balance.NICB) || incomplete != math.IsNaN(r.Balance.CBE) {
+				t.Errorf("NICB %g CBE %g with status %v", r.Balance.NICB, r.Balance.CBE, r.Status)
+			}
+		})
 	}
 }
 

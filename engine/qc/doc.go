@@ -26,8 +26,11 @@
 //     5-10 % flagged, > 10 % rejected; common practice), which the user can
 //     change. Dilute waters may get wider limits (Options.DiluteBelow and
 //     Options.Dilute; common practice).
-//  4. Missing major ions (Na, K, Ca, Mg, Cl, SO4, alkalinity) and the count
-//     of censored values, whose substitutes (sample.Policy) enter the sums.
+//  4. Missing major ions (Na, K, Ca, Mg, Cl, SO4, alkalinity): with any of
+//     them missing there is no NICB or CBE (NaN) and the status is
+//     Incomplete, "missing major ion(s): …" (Report.Flag), since sums over
+//     part of the water say nothing about the analysis. Also the count of
+//     censored values, whose substitutes (sample.Policy) enter the sums.
 //  5. Outliers: for each species in Options.Ratios, the robust z-score
 //     0.6745 (ln(X/Cl) − median)/MAD against all the samples given, flagged
 //     beyond 3.5 (Iglewicz & Hoaglin 1993, from memory). Censored values
