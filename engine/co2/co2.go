@@ -48,10 +48,22 @@ type Result struct {
 	PhiCarb     float64 // short-term CO2 consumption by carbonate weathering (negative: release)
 	PhiTotal    float64 // PhiSil + PhiCarb, independent of the sulfur split
 	// NetLong is the geological figure after marine carbonate compensation:
-	// PhiTotal − (AlkSil + AlkCarb)/2 (negative: a CO2 source).
-	NetLong float64
-	// SinkSil is the conventional long-term silicate sink (Ca+Mg)_sil
-	// (Berner, Lasaga & Garrels 1983, from memory).
+	// PhiTotal − (AlkSil + AlkCarb)/2 (negative: a CO2 source). It is the
+	// sum of a silicate part NetLongSil = PhiSil − AlkSil/2 = AlkSil/2 =
+	// ½(Na+K)_sil + (Ca+Mg)_sil − S_sil and a carbonate part NetLongCarb =
+	// PhiCarb − AlkCarb/2 = −S_carb (methods brief §9.3).
+	NetLong, NetLongSil, NetLongCarb float64
+	// SinkSil is the conventional long-term silicate sink (methods brief
+	// §9.2; Berner, Lasaga & Garrels 1983, from memory): (Ca+Mg)_sil under
+	// carbonic acid, the Ca+Mg part of NetLongSil without its Na, K half.
+	// Silicate weathering by sulfuric acid consumes no CO2 (§9.3), so with
+	// sulfide-derived sulfate S_sil comes off: Alk_sil/2 is shared between
+	// Na+K and Ca+Mg by their charge, as §9.3 shares SO4_sulf between the
+	// reservoirs, and SinkSil = (Ca+Mg)_sil × Alk_sil/(Na+K+2Ca+2Mg)_sil =
+	// (Ca+Mg)_sil − S_sil × 2(Ca+Mg)_sil/(Na+K+2Ca+2Mg)_sil. With no silicate
+	// Na or K this is (Ca+Mg)_sil − S_sil; it is never above NetLongSil and
+	// never below 0 while the acid does not exceed the silicate cations
+	// (derivation, common practice).
 	SinkSil float64
 	// Warnings are problems that do not stop the accounting.
 	Warnings []error
@@ -102,7 +114,11 @@ func Consumption(s *mix.Split, so4Sulf float64, opt *Options) (Result, error) {
 	r.PhiCarb = (caC + mgC) - 2*r.SCarb
 	r.PhiTotal = r.PhiSil + r.PhiCarb
 	r.NetLong = r.PhiTotal - (r.AlkSil+r.AlkCarb)/2
+	r.NetLongSil, r.NetLongCarb = r.PhiSil-r.AlkSil/2, r.PhiCarb-r.AlkCarb/2
 	r.SinkSil = ca + mg
+	if r.SSil > 0 {
+		r.SinkSil = (ca + mg) * r.AlkSil / eqSil
+	}
 	if math.IsNaN(r.PhiTotal) || math.IsNaN(r.SinkSil) {
 		r.Warnings = append(r.Warnings, fmt.Errorf("%w: a silicate or carbonate cation is missing (NaN), so the CO2 figures are NaN", ErrInput))
 	}

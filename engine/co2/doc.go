@@ -14,8 +14,10 @@
 //     (Ca+Mg)_carb − 2 S_carb, which with no sulfuric acid are the standard
 //     Na_sil + K_sil + 2(Ca_sil + Mg_sil) and Ca_carb + Mg_carb (§9.2);
 //  4. gives the geological figures: the alkalinity-based net_long =
-//     phi_total − (Alk_sil + Alk_carb)/2 and the conventional silicate sink
-//     (Ca+Mg)_sil.
+//     phi_total − (Alk_sil + Alk_carb)/2, split into its silicate part
+//     Alk_sil/2 and its carbonate part −S_carb, and the conventional
+//     silicate sink (Ca+Mg)_sil, less the Ca+Mg share of S_sil when there
+//     is sulfuric acid (Result.SinkSil).
 //
 // OverDraws repeats this on every draw of the forward Monte Carlo
 // (mix.ForwardResult.Draws) and returns 2.5, 50 and 97.5 % quantiles.

@@ -21,7 +21,7 @@ func ExampleConsumption() {
 		fmt.Println(err)
 		return
 	}
-	fmt.Println("scenario   phi_sil  phi_carb  phi_total  net_long  (Ca+Mg)_sil")
+	fmt.Println("scenario   phi_sil  phi_carb  phi_total  net_long   sink_sil")
 	for _, sc := range []struct {
 		name string
 		r    correct.Result
@@ -41,8 +41,8 @@ func ExampleConsumption() {
 	// A silicate yield of 6.00445e4 mol CO2/km²/yr in tonnes:
 	fmt.Printf("%.4f t C/km²/yr, %.4f t CO2/km²/yr\n", co2.TonnesC(6.00445e4), co2.TonnesCO2(6.00445e4))
 	// Output:
-	// scenario   phi_sil  phi_carb  phi_total  net_long  (Ca+Mg)_sil
+	// scenario   phi_sil  phi_carb  phi_total  net_long   sink_sil
 	// gypsum       257.7    1800.8     2058.4     128.8         59.7
-	// sulfide      218.8    1497.3     1716.2    -213.4         59.7
+	// sulfide      218.8    1497.3     1716.2    -213.4         50.7
 	// 0.7212 t C/km²/yr, 2.6425 t CO2/km²/yr
 }

@@ -29,6 +29,10 @@ var reactions = []struct {
 	{"calcite by sulfuric acid, buffered", "2 CaCO3 + H2SO4 -> 2 Ca+2 + 2 HCO3- + SO4-2"},
 	{"calcite by excess sulfuric acid", "CaCO3 + H2SO4 -> Ca+2 + SO4-2 + CO2 + H2O"},
 	{"albite by sulfuric acid", "2 NaAlSi3O8 + H2SO4 + 9 H2O -> Al2Si2O5(OH)4 + 2 Na+ + SO4-2 + 4 H4SiO4"},
+	// The Ca silicates by sulfuric acid, written like albite's (§9.3:
+	// silicate weathering by H2SO4 consumes no CO2); balanced by TestBalance.
+	{"anorthite by sulfuric acid", "CaAl2Si2O8 + H2SO4 + H2O -> Al2Si2O5(OH)4 + Ca+2 + SO4-2"},
+	{"wollastonite by sulfuric acid", "CaSiO3 + H2SO4 + H2O -> Ca+2 + SO4-2 + H4SiO4"},
 	{"Urey reaction", "CaSiO3 + CO2 -> CaCO3 + SiO2"},
 }
 

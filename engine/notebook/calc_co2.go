@@ -11,20 +11,39 @@ import (
 
 func init() { Register(KindCO2, computeCO2) }
 
+// LongTermConvention names the long-term accounting the co2 cell uses, for
+// table titles and the report (methods brief §9.2 asks the notebook to say
+// which one is used).
+const LongTermConvention = "conventional silicate sink (Ca+Mg)_sil, less its share of sulfuric acid"
+
 // co2Pair returns the silicate and carbonate CO2 consumption of one split
 // (µmol/L). Short term: phi_sil and phi_carb (methods brief §9.2-9.3).
-// Long term: the conventional silicate sink (Ca+Mg)_sil and, for carbonate,
-// phi_carb − Alk_carb/2 = −S_carb, which is zero under carbonic acid and a
-// release of one CO2 per sulfide-derived sulfate under sulfuric acid (§9.3).
+// Long term: the conventional silicate sink, (Ca+Mg)_sil under carbonic
+// acid, with the Ca+Mg share of the sulfide-derived sulfate given to
+// silicate weathering taken off, since silicate weathering by sulfuric acid
+// consumes no CO2 (co2.Result.SinkSil); for carbonate, phi_carb −
+// Alk_carb/2 = −S_carb, zero under carbonic acid and a release of one CO2
+// per sulfide-derived sulfate under sulfuric acid (§9.3).
 func co2Pair(s *mix.Split, so4 float64, opt *co2.Options, long bool) (sil, carb float64, err error) {
 	r, err := co2.Consumption(s, so4, opt)
 	if err != nil {
 		return 0, 0, err
 	}
 	if long {
-		return r.SinkSil, r.PhiCarb - r.AlkCarb/2, nil
+		return r.SinkSil, r.NetLongCarb, nil
 	}
 	return r.PhiSil, r.PhiCarb, nil
+}
+
+// alkalinityLongSil returns the silicate part of the alkalinity-based
+// long-term figure, Alk_sil/2 = ½(Na+K)_sil + (Ca+Mg)_sil − S_sil (methods
+// brief §9.3), shown beside the conventional sink; NaN on error.
+func alkalinityLongSil(s *mix.Split, so4 float64, opt *co2.Options) float64 {
+	r, err := co2.Consumption(s, so4, opt)
+	if err != nil {
+		return math.NaN()
+	}
+	return r.NetLongSil
 }
 
 func computeCO2(e *Env) (*Output, error) {
@@ -42,7 +61,8 @@ func computeCO2(e *Env) (*Output, error) {
 	n := len(a.Names)
 	// Per litre: quantiles over the draws of each sample.
 	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
-	var vs, vc, ws []float64
+	var vs, vc, ws, va []float64
+	var alkMed []float64 // long term: alkalinity-based silicate figure per sample
 	var qb quantileBuf
 	// Per draw, kept for fluxing below.
 	silD, carbD, wD := make([][]float64, n), make([][]float64, n), make([][]float64, n)
@@ -62,7 +82,7 @@ func computeCO2(e *Env) (*Output, error) {
 			return nil, err
 		}
 		e.Report(i, total)
-		vs, vc, ws = vs[:0], vc[:0], ws[:0]
+		vs, vc, ws, va = vs[:0], vc[:0], ws[:0], va[:0]
 		silD[i], carbD[i], wD[i] = make([]float64, a.Draws), make([]float64, a.Draws), make([]float64, a.Draws)
 		for d := 0; d < a.Draws; d++ {
 			sp, w, ok := a.Draw(i, d)
@@ -74,6 +94,9 @@ func computeCO2(e *Env) (*Output, error) {
 				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
+			if long {
+				va = append(va, alkalinityLongSil(&sp, a.Corrected[i].SO4Sulf, opt))
+			}
 			silD[i][d], carbD[i][d], wD[i][d] = x, y, w
 		}
 		if len(ws) == 0 {
@@ -83,10 +106,13 @@ func computeCO2(e *Env) (*Output, error) {
 		silLo, silMed, silHi = append(silLo, q[0]), append(silMed, q[1]), append(silHi, q[2])
 		q = qb.quantiles(vc, ws, 0.025, 0.5, 0.975)
 		carbLo, carbMed, carbHi = append(carbLo, q[0]), append(carbMed, q[1]), append(carbHi, q[2])
+		if long {
+			alkMed = append(alkMed, qb.quantiles(va, ws, 0.5)[0])
+		}
 	}
 	scale := "short-term"
 	if long {
-		scale = "long-term"
+		scale = "long-term, " + LongTermConvention
 	}
 	out := &Output{Warnings: []string{"CO2 consumption is a geochemical budget, not a carbon-removal credit"}}
 	out.Tables = append(out.Tables, &ResultTable{Name: "per-litre", Title: "CO2 consumption per litre of stream water (" + scale + ")",
@@ -95,6 +121,9 @@ func computeCO2(e *Env) (*Output, error) {
 			NumColumn("carbonate", "µmol/L", carbMed), NumColumn("carbonate_low", "µmol/L", carbLo), NumColumn("carbonate_high", "µmol/L", carbHi)}})
 	out.Figures = append(out.Figures, Point("median silicate CO2 consumption per litre", "µmol/L", median(silMed)),
 		Point("median carbonate CO2 consumption per litre", "µmol/L", median(carbMed)))
+	if long {
+		out.Figures = append(out.Figures, Point("median alkalinity-based long-term silicate CO2 per litre (½ Alk_sil)", "µmol/L", median(alkMed)))
+	}
 
 	e.Report(n, total)
 	if fi == nil {

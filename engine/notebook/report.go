@@ -74,20 +74,23 @@ type CellProblem struct {
 // as JSON (documented in SCHEMA.md). Figures the budget lacks (no fluxes
 // cell, say) are null or left out.
 type Report struct {
-	Format       string                    `json:"format"`  // "lixiv-report"
-	Version      int                       `json:"version"` // 1
-	Engine       string                    `json:"engine"`
-	Budget       string                    `json:"budget"`
-	AreaKm2      Number                    `json:"area_km2"`
-	RunoffMM     Range                     `json:"runoff_mm_per_yr"`
-	CationFluxes map[string]Amount         `json:"cation_fluxes,omitempty"`   // "silicate", "carbonate"
-	TimeScale    string                    `json:"co2_time_scale,omitempty"`  // "short" or "long"
-	CO2          map[string]CO2Part        `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
-	Samples      []SampleReport            `json:"samples"`
-	Problems     []CellProblem             `json:"problems"`
-	Warnings     map[string][]string       `json:"warnings"`
-	Snapshot     *SnapshotCheck            `json:"snapshot"`
-	Figures      map[string][]ReportFigure `json:"figures"`
+	Format       string            `json:"format"`  // "lixiv-report"
+	Version      int               `json:"version"` // 1
+	Engine       string            `json:"engine"`
+	Budget       string            `json:"budget"`
+	AreaKm2      Number            `json:"area_km2"`
+	RunoffMM     Range             `json:"runoff_mm_per_yr"`
+	CationFluxes map[string]Amount `json:"cation_fluxes,omitempty"`  // "silicate", "carbonate"
+	TimeScale    string            `json:"co2_time_scale,omitempty"` // "short" or "long"
+	// Convention names the long-term accounting when TimeScale is "long"
+	// (LongTermConvention).
+	Convention string                    `json:"co2_long_term_convention,omitempty"`
+	CO2        map[string]CO2Part        `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
+	Samples    []SampleReport            `json:"samples"`
+	Problems   []CellProblem             `json:"problems"`
+	Warnings   map[string][]string       `json:"warnings"`
+	Snapshot   *SnapshotCheck            `json:"snapshot"`
+	Figures    map[string][]ReportFigure `json:"figures"`
 }
 
 // ReportFigure is a headline figure as the report writes it.
@@ -155,6 +158,9 @@ func (d *Document) Report() *Report {
 	id, co := d.firstOf(KindCO2)
 	if co != nil {
 		r.TimeScale = d.Cell(id).Settings.(*CO2Settings).TimeScale
+		if r.TimeScale == "long" {
+			r.Convention = LongTermConvention
+		}
 		if co.Figure("silicate CO2 consumption") != nil {
 			r.CO2 = map[string]CO2Part{}
 			yt := co.Table("years")
