@@ -146,9 +146,34 @@ func computeAtmosphere(e *Env) (*Output, error) {
 	if blank > 0 {
 		out.Warnings = append(out.Warnings, fmt.Sprintf("ratios: Na* ≤ 0 after correction in %d of %d samples; their ratios to Na are left blank", blank, len(used)))
 	}
+	if w := rainExcessWarning(cols["Na_atm_share"]); w != "" {
+		out.Warnings = append(out.Warnings, w)
+	}
 	out.Figures = append(out.Figures, Point("median atmospheric share of Na", "fraction", median(cols["Na_atm_share"])))
 	out.Value = &Atmosphere{Samples: smp, Options: opt}
 	return out, nil
+}
+
+// rainExcessWarning returns a warning when the atmospheric share of Na,
+// Na_atm/Na_riv, is above 1 in some samples, or "". The share is kept as
+// computed, not capped: a share above 1 means the rain correction (Cl_atm ×
+// (Na/Cl)_rain) takes more Na than the river carries, the Na deficit of the
+// methods brief §5.1 (cation exchange, or Cl that is not from rain, such as
+// road salt or sewage; common practice), and Na* is set to 0 with its own
+// warning.
+func rainExcessWarning(share []float64) string {
+	n, max := 0, 0.0
+	for _, x := range share {
+		if x > 1+1e-9 {
+			n++
+			max = math.Max(max, x)
+		}
+	}
+	if n == 0 {
+		return ""
+	}
+	return fmt.Sprintf("atmospheric share of Na above 1 in %d of %d samples (largest %.3g): rain supplies more Na than the river carries; "+
+		"Na was lost (cation exchange) or Cl is not from rain (road salt, sewage, evaporite); see the Cl* setting", n, len(share), max)
 }
 
 // ratioSpecies are the numerators of the ratios table, with their column names.

@@ -96,3 +96,34 @@ func TestRatioTableBlank(t *testing.T) {
 		}
 	}
 }
+
+// TestRainExcessWarning checks that an atmospheric share of Na above 1 is
+// kept and warned about, never capped.
+func TestRainExcessWarning(t *testing.T) {
+	// A water with Cl above Na/0.85912 (sea-salt Na/Cl, Millero et al. 2008,
+	// Table 4 as in science.md §4.2): Na 80, Cl 100 µmol/L gives Na_atm
+	// 85.912, a share of 1.0739.
+	c := chem.NewComposition()
+	c[chem.Na], c[chem.Cl] = 80, 100
+	r, err := correct.Apply(c, &correct.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	over := r.Atm[chem.Na] / c[chem.Na]
+	if math.Abs(over-1.0739) > 1e-4 {
+		t.Fatalf("share %g, want 1.0739", over)
+	}
+	tests := []struct {
+		share []float64
+		want  string
+	}{
+		{[]float64{0.2, 1, math.NaN()}, ""},
+		{[]float64{0.2, over, 1}, "atmospheric share of Na above 1 in 1 of 3 samples (largest 1.07): rain supplies more Na than the river carries; " +
+			"Na was lost (cation exchange) or Cl is not from rain (road salt, sewage, evaporite); see the Cl* setting"},
+	}
+	for _, tc := range tests {
+		if got := rainExcessWarning(tc.share); got != tc.want {
+			t.Errorf("shares %v: %q, want %q", tc.share, got, tc.want)
+		}
+	}
+}
