@@ -63,20 +63,15 @@ func runOne(ctx context.Context, path, outDir string) outcome {
 	}
 	o := outcome{}
 	var parts []string
-	problems := 0
-	for _, c := range d.Cells {
-		if st, _ := d.Status(c.ID); st != notebook.UpToDate {
-			problems++
-		}
-	}
-	if problems > 0 {
-		parts = append(parts, fmt.Sprintf("%d cells with problems", problems))
+	if problems := cellProblems(d); len(problems) > 0 {
+		parts = append(parts, fmt.Sprintf("%d cells with problems", len(problems)))
 		o.failed = true
 	}
 	r := d.Report()
 	if p, ok := r.CO2["silicate"]; ok {
 		m := p.Mean.MolPerKm2PerY
-		parts = append(parts, fmt.Sprintf("silicate CO2 %.4g [%.4g, %.4g] mol/km²/yr", float64(m.Median), float64(m.Low), float64(m.High)))
+		f := notebook.Figure{Unit: "mol/km²/yr", Median: float64(m.Median), Low: float64(m.Low), High: float64(m.High)}
+		parts = append(parts, "silicate CO2 "+fmtRange(f, "no sample could be apportioned"))
 	}
 	if r.Snapshot != nil {
 		if r.Snapshot.Match {

@@ -23,7 +23,9 @@ Usage:
   lixiv serve [-addr A] [-dir D]       serve the notebook page
   lixiv help                           this text
 
-Budget files end in .lixiv.json. Exit status: 0 ok, 1 error, 2 usage, 3 results differ.
+Budget files end in .lixiv.json. Exit status: 0 ok; 1 error, or a budget with cells that did not
+compute (rerun, quick and batch still print it); 2 usage; 3 results differ.
+A figure without a value is printed as "no value" with the reason.
 CO2 consumption is a geochemical budget, not a carbon-removal credit.
 `
 

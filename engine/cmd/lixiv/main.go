@@ -56,7 +56,8 @@ func usageError(msg string) error { return &statusError{code: 2, msg: msg} }
 const errMismatch = 3
 
 // exitCode maps an error to the process exit status: 2 for a usage error,
-// 3 for results that do not match the stored snapshot, 1 otherwise.
+// 3 for results that do not match the stored snapshot, 1 otherwise, which
+// includes a budget whose cells did not all compute (rerun, quick, batch).
 func exitCode(err error) int {
 	var se *statusError
 	if errors.As(err, &se) {

@@ -45,6 +45,16 @@ func normalise(b []byte) []byte {
 	})
 }
 
+// runStatus runs a command line and returns its standard output, its exit
+// status and its error.
+func runStatus(args []string) (stdout []byte, code int, err error) {
+	var out, stderr bytes.Buffer
+	if err = run(args, &out, &stderr); err != nil {
+		code = exitCode(err)
+	}
+	return out.Bytes(), code, err
+}
+
 const (
 	corrie = "../../../examples/corrie-vale/corrie-vale.lixiv.json"
 	marlow = "../../../examples/marlow-fen/marlow-fen.lixiv.json"
@@ -76,19 +86,14 @@ func TestCommands(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			var stdout, stderr bytes.Buffer
-			err := run(tt.args, &stdout, &stderr)
-			code := 0
-			if err != nil {
-				code = exitCode(err)
-			}
+			stdout, code, err := runStatus(tt.args)
 			if code != tt.code {
 				t.Fatalf("exit status %d (%v), want %d", code, err, tt.code)
 			}
 			if tt.err != "" && (err == nil || !strings.Contains(err.Error(), tt.err)) {
 				t.Errorf("error %v, want one containing %q", err, tt.err)
 			}
-			checkStdout(t, tt.name, stdout.Bytes())
+			checkStdout(t, tt.name, stdout)
 		})
 	}
 }

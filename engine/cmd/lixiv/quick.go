@@ -6,6 +6,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -118,12 +119,17 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 		}
 	}
 	if *asJSON {
-		_, err = stdout.Write(d.Report().JSON())
-		return err
+		if _, err = stdout.Write(d.Report().JSON()); err != nil {
+			return err
+		}
+	} else {
+		summary(stdout, *samples, d)
+		if *dis == "" {
+			perSample(stdout, d)
+		}
 	}
-	summary(stdout, *samples, d)
-	if *dis == "" {
-		perSample(stdout, d)
+	if p := cellProblems(d); len(p) > 0 {
+		return problemsError([]string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")})
 	}
 	return nil
 }
@@ -149,19 +155,46 @@ func workbookText(b []byte, path, sheet string) (string, error) {
 }
 
 // perSample prints the silicate share of each cation and the CO2 per litre
-// of every sample.
+// of every sample; a sample without them says so and gives its status.
 func perSample(w io.Writer, d *notebook.Document) {
 	r := d.Report()
 	fmt.Fprintln(w, "  per sample: silicate share of Na, K, Ca, Mg; CO2 consumption per litre (µmol/L, silicate and carbonate)")
 	for _, s := range r.Samples {
 		fmt.Fprintf(w, "    %s %s %s:", s.Sample, s.Date, s.Status)
+		some := false
 		for _, c := range []string{"Na", "K", "Ca", "Mg"} {
-			x := s.Shares[c]["silicate"]
-			fmt.Fprintf(w, " %s %.2f [%.2f, %.2f]", c, float64(x.Median), float64(x.Low), float64(x.High))
+			if x := s.Shares[c]["silicate"]; finite(x.Median) {
+				fmt.Fprintf(w, " %s %s", c, fmtShare(x))
+				some = true
+			}
 		}
-		if s.CO2PerL != nil {
-			fmt.Fprintf(w, "; CO2 %.4g / %.4g", float64(s.CO2PerL["silicate"].Median), float64(s.CO2PerL["carbonate"].Median))
+		if !some {
+			fmt.Fprintf(w, " no value: the sample was not apportioned (status %s; see the apportionment warnings)", s.Status)
+		}
+		if sil, carb := s.CO2PerL["silicate"].Median, s.CO2PerL["carbonate"].Median; s.CO2PerL != nil && (finite(sil) || finite(carb)) {
+			fmt.Fprintf(w, "; CO2 %s / %s", fmtNumber(sil), fmtNumber(carb))
 		}
 		fmt.Fprintln(w)
 	}
+}
+
+// finite reports whether x is a number (not NaN or infinite).
+func finite(x notebook.Number) bool {
+	return !math.IsNaN(float64(x)) && !math.IsInf(float64(x), 0)
+}
+
+// fmtShare writes a share with its interval, leaving out bounds it lacks.
+func fmtShare(x notebook.Range) string {
+	if !finite(x.Low) || !finite(x.High) {
+		return fmt.Sprintf("%.2f", float64(x.Median))
+	}
+	return fmt.Sprintf("%.2f [%.2f, %.2f]", float64(x.Median), float64(x.Low), float64(x.High))
+}
+
+// fmtNumber writes x to 4 significant digits, or "no value".
+func fmtNumber(x notebook.Number) string {
+	if !finite(x) {
+		return "no value"
+	}
+	return fmt.Sprintf("%.4g", float64(x))
 }

@@ -41,6 +41,7 @@ func runRerun(args []string, stdout, stderr io.Writer) error {
 	if fs.NArg() == 0 {
 		return usageError("rerun: name at least one budget file")
 	}
+	var bad []string
 	for _, path := range fs.Args() {
 		d, err := openBudget(context.Background(), path, 0)
 		if err != nil {
@@ -48,19 +49,65 @@ func runRerun(args []string, stdout, stderr io.Writer) error {
 		}
 		if *asJSON {
 			stdout.Write(d.Report().JSON())
-			continue
+		} else {
+			summary(stdout, path, d)
 		}
-		summary(stdout, path, d)
+		if p := cellProblems(d); len(p) > 0 {
+			bad = append(bad, fmt.Sprintf("%s: %s", filepath.Base(path), strings.Join(p, ", ")))
+		}
 	}
-	return nil
+	return problemsError(bad)
 }
 
-// fmtRange writes a figure with its interval.
-func fmtRange(f notebook.Figure) string {
-	if math.IsNaN(f.Low) {
-		return fmt.Sprintf("%.4g %s", f.Median, f.Unit)
+// cellProblems names the cells of d that did not compute, with their state:
+// "samples (problem)", "rain (waiting for inputs)".
+func cellProblems(d *notebook.Document) []string {
+	var out []string
+	for _, c := range d.Cells {
+		if st, _ := d.Status(c.ID); st != notebook.UpToDate {
+			out = append(out, fmt.Sprintf("%s (%s)", c.ID, st))
+		}
 	}
-	return fmt.Sprintf("%.4g [%.4g, %.4g] %s", f.Median, f.Low, f.High, f.Unit)
+	return out
+}
+
+// problemsError is the error, exit status 1 as in batch, for budgets whose
+// cells did not all compute (one entry per budget), or nil.
+func problemsError(bad []string) error {
+	if len(bad) == 0 {
+		return nil
+	}
+	return fmt.Errorf("cells with problems (see above): %s", strings.Join(bad, "; "))
+}
+
+// fmtRange writes a figure with its interval, or "no value" and why when it
+// has none.
+func fmtRange(f notebook.Figure, why string) string {
+	if math.IsNaN(f.Median) || math.IsInf(f.Median, 0) {
+		return "no value: " + why
+	}
+	if math.IsNaN(f.Low) || math.IsNaN(f.High) {
+		return strings.TrimSpace(fmt.Sprintf("%.4g %s", f.Median, f.Unit))
+	}
+	return strings.TrimSpace(fmt.Sprintf("%.4g [%.4g, %.4g] %s", f.Median, f.Low, f.High, f.Unit))
+}
+
+// noValueReason says why a figure of cell c has no value: no sample could
+// be apportioned (for the cells that rest on the apportionment), or no
+// sample gave one.
+func noValueReason(d *notebook.Document, c *notebook.Cell) string {
+	switch c.Kind {
+	case notebook.KindApportionment, notebook.KindCO2, notebook.KindFluxes:
+		for _, a := range d.Cells {
+			if a.Kind != notebook.KindApportionment {
+				continue
+			}
+			if f := d.Output(a.ID).Figure("samples apportioned"); f != nil && f.Median == 0 {
+				return "no sample could be apportioned (see the apportionment warnings)"
+			}
+		}
+	}
+	return "no sample gave one (see the warnings)"
 }
 
 // summary prints each cell's state, headline figures and warnings.
@@ -78,7 +125,7 @@ func summary(w io.Writer, path string, d *notebook.Document) {
 			continue
 		}
 		for _, f := range o.Figures {
-			fmt.Fprintf(w, "    %s: %s\n", f.Name, fmtRange(f))
+			fmt.Fprintf(w, "    %s: %s\n", f.Name, fmtRange(f, noValueReason(d, c)))
 		}
 		for _, m := range o.Warnings {
 			fmt.Fprintf(w, "    warning: %s\n", m)

@@ -1,0 +1,81 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestProblemsExitStatus checks that quick and rerun, like batch, print the
+// whole budget and then exit with status 1 when cells did not compute.
+func TestProblemsExitStatus(t *testing.T) {
+	dir := t.TempDir()
+	// A samples table whose headers name no species or date (misspelt).
+	wrong := filepath.Join(dir, "misspelt.csv")
+	// A budget whose one cell cannot be read: a row longer than the header.
+	broken := filepath.Join(dir, "broken.lixiv.json")
+	for path, text := range map[string]string{
+		wrong:  "Sample,When,Sodum,Potasium,Calc,Magn,Chlor\nA1,2024-01-01,4.1,0.4,2.3,0.9,5\nA2,2024-02-01,4.2,0.5,2.5,1.0,5.5\n",
+		broken: `{"format":"lixiv-budget","version":1,"cells":[{"id":"s","kind":"samples","table":{"columns":["a"],"rows":[[1,2]]}}]}`,
+	} {
+		if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	tests := []struct {
+		name     string
+		args     []string
+		code     int
+		err, out string // parts of the error message and of stdout
+	}{
+		{"quick, nothing recognised", []string{"quick", "-samples", wrong}, 1, "misspelt.csv: samples (problem)", "samples (samples): problem"},
+		{"quick -json, nothing recognised", []string{"quick", "-json", "-samples", wrong}, 1, "samples (problem)", `"problems"`},
+		{"rerun, unreadable cell", []string{"rerun", broken}, 1, "broken.lixiv.json: s (problem)", "this cell could not be read"},
+		{"rerun, good and unreadable", []string{"rerun", rain, broken}, 1, "broken.lixiv.json: s (problem)", "stored results: match"},
+		{"rerun, good", []string{"rerun", rain}, 0, "", "stored results: match"},
+		{"batch, unreadable cell", []string{"batch", broken}, 1, "1 of 1 budgets failed", "1 cells with problems"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			stdout, code, err := runStatus(tt.args)
+			if code != tt.code || tt.err != "" && !strings.Contains(err.Error(), tt.err) {
+				t.Errorf("exit status %d (%v), want %d with %q", code, err, tt.code, tt.err)
+			}
+			if !bytes.Contains(stdout, []byte(tt.out)) {
+				t.Errorf("stdout lacks %q:\n%s", tt.out, stdout)
+			}
+		})
+	}
+}
+
+// TestNoValue checks that a figure or a per-sample result without a value
+// is printed as "no value" with the reason, never as NaN.
+func TestNoValue(t *testing.T) {
+	// Invented samples whose Cl exceeds Na/0.85912 (the sea-salt Na/Cl of
+	// Millero et al. 2008, science.md §4.2), so that the rain correction
+	// takes all their Na and none can be apportioned. Alkalinity is chosen
+	// so that both balance (TZ+ = TZ− = 610 and 652 µeq/L).
+	path := filepath.Join(t.TempDir(), "salty.csv")
+	text := "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
+		"S1,2024-01-10,100,10,200,50,150,40,380\n" +
+		"S2,2024-02-10,110,12,210,55,160,42,408\n"
+	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	stdout, _, err := runStatus([]string{"quick", "-samples", path})
+	out := string(stdout)
+	if strings.Contains(out, "NaN") {
+		t.Errorf("NaN printed:\n%s", out)
+	}
+	for _, want := range []string{
+		"median silicate CO2 consumption per litre: no value: no sample could be apportioned",
+		"S1 2024-01-10 skipped: no value: the sample was not apportioned",
+		"atmospheric share of Na above 1 in 2 of 2 samples",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("stdout lacks %q:\n%s (error %v)", want, out, err)
+		}
+	}
+}
