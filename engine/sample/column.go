@@ -1,6 +1,10 @@
 package sample
 
 import (
+	"fmt"
+	"strconv"
+	"strings"
+
 	"lixiv/engine/chem"
 )
 
@@ -69,4 +73,73 @@ func (c Column) Mapping() string {
 		return "temperature, " + c.Label + " -> °C"
 	}
 	return c.Kind.String()
+}
+
+// requirements describes, for the kinds Require checks, what the column
+// holds and headers that are recognised as it.
+var requirements = map[Kind]string{
+	Concentration: "a species concentration (such as \"Na (mg/L)\", \"Ca2+ [µmol/L]\", \"Alkalinity as CaCO3 (mg/L)\")",
+	Date:          "the sampling date (such as \"Date\", \"Sampling date\" or \"Datetime\")",
+	ID:            "the sample name (such as \"Sample\" or \"Sample ID\")",
+	Site:          "the site (such as \"Site\" or \"Station\")",
+	Discharge:     "discharge (such as \"Q (L/s)\" or \"Discharge (m3/s)\")",
+}
+
+// Unrecognised returns the headers of the columns kept as metadata because
+// the importer found no meaning for them, in file order. Columns set aside
+// for a stated reason (a second pH column, a unit that does not apply) are
+// not among them: their Column.Note says why.
+func (t *Table) Unrecognised() []string {
+	var out []string
+	for _, c := range t.Columns {
+		if c.Kind == Meta && c.Note == "" && c.Header != "" {
+			out = append(out, c.Header)
+		}
+	}
+	return out
+}
+
+// Require returns a problem (ErrNoColumn) for each of kinds that no column
+// of the table was read as, naming the headers that were not recognised so
+// that the user can rename one; it returns nil when every kind is there.
+func (t *Table) Require(kinds ...Kind) ProblemList {
+	var out ProblemList
+	for _, k := range kinds {
+		found := false
+		for _, c := range t.Columns {
+			found = found || c.Kind == k
+		}
+		if found {
+			continue
+		}
+		what := requirements[k]
+		if what == "" {
+			what = k.String()
+		}
+		out = append(out, &Problem{File: t.Name, Line: t.Header, Err: ErrNoColumn,
+			Detail: "no column was recognised as " + what + unrecognisedNote(t.Unrecognised())})
+	}
+	return out
+}
+
+// unrecognisedNote lists unrecognised headers for a message.
+func unrecognisedNote(heads []string) string {
+	if len(heads) == 0 {
+		return ""
+	}
+	const most = 8
+	var b strings.Builder
+	b.WriteString("; headers not recognised: ")
+	for i, h := range heads {
+		if i == most {
+			fmt.Fprintf(&b, " and %d more", len(heads)-most)
+			break
+		}
+		if i > 0 {
+			b.WriteString(", ")
+		}
+		b.WriteString(strconv.Quote(h))
+	}
+	b.WriteString(" (rename a column to a name the importer reads)")
+	return b.String()
 }

@@ -33,7 +33,10 @@
 //     overrides a header; Options.Units gives a unit the file lacks. A
 //     column that cannot be used (no unit, an unknown unit, conflicting
 //     header and units-row units, a duplicated species) is reported and
-//     kept as text. Unknown columns are kept as text in Sample.Meta.
+//     kept as text. Unknown columns are kept as text in Sample.Meta; a table
+//     with no species column is reported (ErrNoColumn) with the headers not
+//     recognised, and Table.Require does the same for other columns a
+//     caller needs (a date).
 //  5. Decimal mark: a comma when the delimiter is not a comma and the
 //     numeric cells use it ("0,25"), unless Options.Decimal sets it. In a
 //     decimal-comma file a point is read as a decimal mark too; in a
@@ -51,7 +54,8 @@
 //     in the units row or header ("dd/mm/yyyy"), or the column itself (a
 //     first number above 12 means day first). A column where every date
 //     could be read either way is reported as ErrAmbiguousDate and its
-//     dates are kept as text until the caller chooses; it is never guessed.
+//     dates are kept as text until the user chooses the date order; it is
+//     never guessed.
 //  8. Problems: each is a *Problem with file, line, column number and
 //     header, unwrapping to one of the Err* sentinels, collected in
 //     Table.Problems in file order; Table.Problems.Err() is nil when there
@@ -67,6 +71,11 @@
 // that is not a workbook, or a sheet it lacks, is an error (ErrNotWorkbook,
 // ErrNoSheet) naming the file and the sheet. SheetText gives a sheet as
 // tab-separated text, for callers that keep the cells as typed.
+//
+// ReadGrid and SplitText stop after the units row of step 4 and return the
+// cells as text (a Grid), with the line each row starts on; SheetGrid does
+// the same for a worksheet. Callers that keep a table as the user wrote it
+// read through them, so that they split a file as Read does.
 //
 // Table.WriteCSV writes the normalised table (µmol/L, µeq/L for
 // alkalinity, "<limit" for censored values), which Read reads back to the

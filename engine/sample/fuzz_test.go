@@ -24,7 +24,7 @@ func FuzzRead(f *testing.F) {
 	if b, err := os.ReadFile("../../testdata/samples-messy.csv"); err == nil {
 		f.Add(b)
 	}
-	sentinels := []error{ErrNotTable, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
+	sentinels := []error{ErrNotTable, ErrNoColumn, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany}
 	f.Fuzz(func(t *testing.T, in []byte) {
 		tb, err := Read(bytes.NewReader(in), "fuzz.csv", Options{})

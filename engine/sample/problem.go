@@ -10,6 +10,7 @@ import (
 // Sentinel errors a Problem unwraps to. Test for them with errors.Is.
 var (
 	ErrNotTable        = errors.New("not a sample table")
+	ErrNoColumn        = errors.New("column not found")
 	ErrNotNumber       = errors.New("not a number")
 	ErrNegative        = errors.New("negative value")
 	ErrOutOfRange      = errors.New("value out of range")

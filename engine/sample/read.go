@@ -22,6 +22,13 @@ const peekSize = 64 << 10
 // Table.Problems, and the rest of the table still loads.
 func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	t := &Table{Name: name, Policy: opt.Policy}
+	return t, newImporter(t, opt).read(r)
+}
+
+// read runs steps 1 to 8 of the package documentation on r (steps 1 to 3
+// and the units row when the importer fills a Grid).
+func (im *importer) read(r io.Reader) error {
+	opt := im.opt
 	size := 1 << 20
 	if l, ok := r.(interface{ Len() int }); ok && l.Len() < size-16 {
 		size = l.Len() + 16 // small input: a small buffer
@@ -30,9 +37,8 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	peek, perr := br.Peek(min(peekSize, size))
 	whole := perr != nil
 	if perr != nil && perr != io.EOF && perr != bufio.ErrBufferFull {
-		return t, perr
+		return perr
 	}
-	im := newImporter(t, opt)
 	switch {
 	case bytes.HasPrefix(peek, []byte("\xef\xbb\xbf")):
 		br.Discard(3)
@@ -40,7 +46,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	case bytes.HasPrefix(peek, []byte("\xff\xfe")), bytes.HasPrefix(peek, []byte("\xfe\xff")):
 		all, err := io.ReadAll(br)
 		if err != nil {
-			return t, err
+			return err
 		}
 		text := decodeUTF16(all[2:], all[0] == 0xfe)
 		br = bufio.NewReaderSize(bytes.NewReader(text), 1<<20)
@@ -49,11 +55,11 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	}
 	if bytes.HasPrefix(peek, []byte("PK\x03\x04")) {
 		im.fileProblem(ErrNotTable, "this is a zip archive (an .xlsx workbook?); open it as a workbook, save the sheet as CSV or paste its cells")
-		return t, nil
+		return nil
 	}
 	if bytes.IndexByte(peek, 0) >= 0 {
 		im.fileProblem(ErrNotTable, "the file holds binary data, not text")
-		return t, nil
+		return nil
 	}
 	if bytes.IndexByte(peek, '\n') < 0 && bytes.IndexByte(peek, '\r') >= 0 {
 		br = bufio.NewReaderSize(crReader{br}, 1<<20)
@@ -68,7 +74,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 	sample := sampleLines(peek, whole, 60)
 	if len(sample) == 0 {
 		im.fileProblem(ErrNotTable, "the file is empty")
-		return t, lr.err
+		return lr.err
 	}
 	comma, modal := detectComma(sample)
 	switch opt.Comma {
@@ -82,7 +88,7 @@ func Read(r io.Reader, name string, opt Options) (*Table, error) {
 		}
 	}
 	im.run(lr, comma, splitLines(sample, comma), modal)
-	return t, lr.err
+	return lr.err
 }
 
 // newImporter starts an import into t.
@@ -132,6 +138,7 @@ type importer struct {
 	cols  []plan
 	block []Sample
 	sites map[string]string
+	grid  *Grid // when set, the text is only split into cells (ReadGrid)
 
 	dateCol  int // index into cols of the date column, or -1
 	order    DateOrder
@@ -190,6 +197,13 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 // joins preamble fields and is recorded in the table; sample holds the
 // first rows, split into fields, for the decimal mark.
 func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
+	if g := im.grid; g != nil {
+		g.Comma = rune(comma)
+		if g.raw {
+			g.rows(lr)
+			return
+		}
+	}
 	need := 1
 	if modal >= 2 {
 		need = max(2, (modal+1)/2)
@@ -206,7 +220,7 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 			continue
 		}
 		if n >= need {
-			im.header = line
+			im.header, im.t.Header = line, line
 			header = make([]string, len(fs))
 			for i, f := range fs {
 				header[i] = strings.TrimSpace(string(trimSpace(f)))
@@ -243,6 +257,16 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 		}
 		im.unitLine = line
 		first = true
+	}
+	if g := im.grid; g != nil {
+		g.HeaderLine, g.Header, g.Units, g.UnitsLine = im.header, header, units, im.unitLine
+		if ok && !first {
+			g.row(fs, line)
+		}
+		if ok {
+			g.rows(lr)
+		}
+		return
 	}
 	im.mapColumns(header, heads, units)
 	im.detectDecimal(sample, comma)
@@ -411,7 +435,7 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 		switch c.Kind {
 		case Concentration:
 			if unitText == "" {
-				bad(ErrNoUnit, fmt.Sprintf("no unit for %s in the header or a units row; values kept as text (set Options.Units)", hd.species))
+				bad(ErrNoUnit, fmt.Sprintf("no unit for %s in the header or a units row; values kept as text (give the unit in the header, as in %q, or choose a default unit)", hd.species, h+" (mg/L)"))
 				break
 			}
 			u, err := chem.ParseUnit(unitText)
@@ -435,7 +459,7 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 			c.Species, c.Unit, c.Scale, c.Label = hd.species, u, f, u.String()
 		case Discharge:
 			if unitText == "" {
-				bad(ErrNoUnit, "no unit for discharge (m3/s, L/s or cfs); values kept as text (set Options.Units)")
+				bad(ErrNoUnit, "no unit for discharge (m3/s, L/s or cfs); values kept as text (give one in the header, such as \"Q (L/s)\")")
 				break
 			}
 			f, ok := dischargeUnit(unitText)
@@ -501,11 +525,17 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 		seen[h]++
 		c.metaKey = key
 	}
-	if im.nMapped == 0 {
-		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "no column names a species, date, site or sample; every column is kept as text"})
-	}
 	for _, c := range im.cols {
 		im.t.Columns = append(im.t.Columns, c.Column)
+	}
+	switch {
+	case im.nMapped == 0:
+		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "no column names a species, date, site or sample; every column is kept as text" +
+			unrecognisedNote(im.t.Unrecognised())})
+	case len(im.t.Species()) == 0:
+		if p := im.t.Require(Concentration); p != nil {
+			im.add(p[0])
+		}
 	}
 }
 
@@ -733,14 +763,14 @@ func (im *importer) finish() {
 		switch {
 		case im.anyA13 && im.anyB13:
 			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Err: ErrAmbiguousDate,
-				Detail: "the column mixes day-first and month-first dates; set Options.DateOrder; dates kept as text"})
+				Detail: "the column mixes day-first and month-first dates; choose the date order (day-first or month-first); dates kept as text"})
 		case im.anyA13:
 			im.order = DayFirst
 		case im.anyB13:
 			im.order = MonthFirst
 		default:
 			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Value: im.pending[0].raw, Err: ErrAmbiguousDate,
-				Detail: fmt.Sprintf("all %d dates could be day-first or month-first; set Options.DateOrder to DayFirst or MonthFirst; dates kept as text", len(im.pending))})
+				Detail: fmt.Sprintf("all %d dates could be day-first or month-first; choose the date order (day-first or month-first); dates kept as text", len(im.pending))})
 		}
 		if im.order != DateAuto {
 			c.Note = "date order " + im.order.String() + " (read from the column)"

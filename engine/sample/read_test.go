@@ -212,7 +212,7 @@ func TestReadBadInput(t *testing.T) {
 		{"unknown unit", "Sample,Ca (mg/L),Na\n,mg/L,furlongs\nA,1,2\n", ErrUnknownUnit,
 			`bad.csv:2:3 (Na): "furlongs": unknown unit; "furlongs" is not a unit for concentration; values kept as text`, 1},
 		{"no unit", "Sample,Ca,Na (mg/L)\nA,1,2\n", ErrNoUnit,
-			`bad.csv:1:2 (Ca): no unit given; no unit for Ca in the header or a units row; values kept as text (set Options.Units)`, 1},
+			`bad.csv:1:2 (Ca): no unit given; no unit for Ca in the header or a units row; values kept as text (give the unit in the header, as in "Ca (mg/L)", or choose a default unit)`, 1},
 		{"unit that does not apply", "Sample,Ca (mg/L as N),Na (mg/L)\nA,1,2\n", ErrUnitMismatch,
 			`bad.csv:1:2 (Ca (mg/L as N)): unit does not apply; Ca cannot be in mg/L as N; values kept as text`, 1},
 		{"pH out of range", "Sample,pH,Na (mg/L)\nA,17,2\n", ErrOutOfRange,
@@ -231,7 +231,9 @@ func TestReadBadInput(t *testing.T) {
 			`bad.csv: not a sample table; this is a zip archive (an .xlsx workbook?); open it as a workbook, save the sheet as CSV or paste its cells`, 0},
 		{"empty file", " \n\n", ErrNotTable, `bad.csv: not a sample table; the file is empty`, 0},
 		{"prose", "Dear colleague, please find the results attached.\nBest wishes\n", ErrNotTable,
-			`bad.csv:1: not a sample table; no column names a species, date, site or sample; every column is kept as text`, 1},
+			`bad.csv:1: not a sample table; no column names a species, date, site or sample; every column is kept as text; headers not recognised: "Dear colleague", "please find the results attached." (rename a column to a name the importer reads)`, 1},
+		{"no species recognised", "Sample,When,Sodum,Potasium\nA1,2024-01-01,4.1,0.4\n", ErrNoColumn,
+			`bad.csv:1: column not found; no column was recognised as a species concentration (such as "Na (mg/L)", "Ca2+ [µmol/L]", "Alkalinity as CaCO3 (mg/L)"); headers not recognised: "When", "Sodum", "Potasium" (rename a column to a name the importer reads)`, 1},
 		{"header only", "Sample,Na (mg/L)\n", ErrNotTable, `bad.csv:1: not a sample table; the header has no data rows below it`, 0},
 	}
 	for _, tc := range tests {
@@ -303,7 +305,7 @@ func TestReadDates(t *testing.T) {
 		if n := tb.Problems.Count(ErrAmbiguousDate); n != 1 {
 			t.Fatalf("%d ambiguous-date problems, want 1: %v", n, tb.Problems)
 		}
-		want := `d.csv:1:2 (Date): "03/04/2024": ambiguous date order; all 2 dates could be day-first or month-first; set Options.DateOrder to DayFirst or MonthFirst; dates kept as text`
+		want := `d.csv:1:2 (Date): "03/04/2024": ambiguous date order; all 2 dates could be day-first or month-first; choose the date order (day-first or month-first); dates kept as text`
 		if got := tb.Problems[0].Error(); got != want {
 			t.Errorf("message\n got %s\nwant %s", got, want)
 		}
@@ -423,5 +425,33 @@ func TestReadOpenQuoteLongFile(t *testing.T) {
 	}
 	if got := len(tb.Samples[0].Meta["Note"]); got != len("open")+100000*len("\nB,2,x") {
 		t.Errorf("note holds %d bytes, want the whole rest of the file", got)
+	}
+}
+
+func TestRequire(t *testing.T) {
+	tests := []struct {
+		name, text string
+		kinds      []Kind
+		want       []string
+	}{
+		{"all there", "Sample,Date,Na (mg/L)\nA,2024-01-02,1\n", []Kind{Concentration, Date}, nil},
+		{"no date", "# lab sheet\nSample,When,Na (mg/L),Remark\nA,2024-01-02,1,ok\n", []Kind{Concentration, Date},
+			[]string{`r.csv:2: column not found; no column was recognised as the sampling date (such as "Date", "Sampling date" or "Datetime"); headers not recognised: "When", "Remark" (rename a column to a name the importer reads)`}},
+		{"no site, nothing unrecognised", "Sample,Date,Na (mg/L)\nA,2024-01-02,1\n", []Kind{Site},
+			[]string{`r.csv:1: column not found; no column was recognised as the site (such as "Site" or "Station")`}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			var got []string
+			for _, p := range ParseText(tc.text, "r.csv", Options{}).Require(tc.kinds...) {
+				if !errors.Is(p, ErrNoColumn) {
+					t.Errorf("%v does not unwrap to ErrNoColumn", p)
+				}
+				got = append(got, p.Error())
+			}
+			if strings.Join(got, "\n") != strings.Join(tc.want, "\n") {
+				t.Errorf("got\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(tc.want, "\n"))
+			}
+		})
 	}
 }

@@ -81,6 +81,7 @@ type Table struct {
 	Columns  []Column  // one per column of the file, in file order
 	Problems ProblemList
 	Preamble []string // lines above the header row, kept as written
+	Header   int      // line of the header row in the file (0 when none was found)
 	Policy   Policy   // substitution applied to censored values in C
 	Comma    rune     // field delimiter read (detected or given)
 	Decimal  rune     // decimal mark read (detected or given)

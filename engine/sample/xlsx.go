@@ -53,13 +53,33 @@ func Sheets(b []byte) ([]string, error) {
 // Table.Problems only, and the rest of the table still loads.
 func ReadXLSX(b []byte, name, sheet string, opt Options) (*Table, error) {
 	t := &Table{Name: name, Policy: opt.Policy}
+	return t, readSheet(newImporter(t, opt), b, name, sheet)
+}
+
+// SheetGrid splits one sheet of a workbook into a Grid as ReadXLSX reads
+// it (see ReadGrid): Lines and HeaderLine are spreadsheet row numbers. A
+// file that is not a workbook, or a sheet it lacks, is the error, as with
+// ReadXLSX; rows that cannot be read are in Grid.Problems.
+func SheetGrid(b []byte, name, sheet string) (*Grid, error) {
+	g := &Grid{Name: name}
+	t := &Table{Name: name}
+	im := newImporter(t, Options{})
+	im.grid = g
+	err := readSheet(im, b, name, sheet)
+	g.Preamble, g.Comma = t.Preamble, 0
+	g.Problems = append(g.Problems, t.Problems...)
+	return g, err
+}
+
+// readSheet runs the importer on one sheet.
+func readSheet(im *importer, b []byte, name, sheet string) error {
+	t := im.t
 	sheet, rows, probs, err := sheetRows(b, name, sheet)
 	if err != nil {
 		p := err.(*Problem)
 		t.Problems = append(t.Problems, p)
-		return t, p
+		return p
 	}
-	im := newImporter(t, opt)
 	for _, p := range probs {
 		im.add(p)
 	}
@@ -73,7 +93,7 @@ func ReadXLSX(b []byte, name, sheet string, opt Options) (*Table, error) {
 	}
 	if len(sample) == 0 {
 		im.fileProblem(ErrNotTable, fmt.Sprintf("sheet %q is empty", sheet))
-		return t, nil
+		return nil
 	}
 	modal, n := 1, 0
 	for k, v := range counts {
@@ -83,7 +103,7 @@ func ReadXLSX(b []byte, name, sheet string, opt Options) (*Table, error) {
 	}
 	im.run(&rowSource{rows: rows}, '\t', sample, modal)
 	t.Comma = 0
-	return t, nil
+	return nil
 }
 
 // SheetText returns one sheet of an .xlsx workbook (an empty name means
