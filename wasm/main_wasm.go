@@ -7,6 +7,7 @@ package main
 import (
 	"log"
 	"syscall/js"
+	"time"
 
 	"github.com/vugu/vugu"
 	"github.com/vugu/vugu/domrender"
@@ -25,7 +26,22 @@ func main() {
 		log.Fatal(err)
 	}
 	root := &web.Root{}
+	ee := renderer.EventEnv()
 	for ok := true; ok; ok = renderer.EventWait() {
+		// After an edit, give the recompute a moment to have its point
+		// values, so that the page paints once, with the result.
+		ee.Lock()
+		hold := root.Hold()
+		ee.UnlockOnly()
+		if hold != nil {
+			select {
+			case <-hold:
+			case <-time.After(web.HoldMillis * time.Millisecond):
+			}
+			ee.Lock()
+			root.Unhold()
+			ee.UnlockOnly()
+		}
 		t0 := now()
 		built := env.RunBuild(root)
 		t1 := now()

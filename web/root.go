@@ -45,6 +45,13 @@ type Root struct {
 	painted    bool    // the page has repainted since that edit
 	stepMillis float64 // time in Step (including yields) since the edit
 
+	// The render loop holds the repaint after an edit until the quick pass
+	// (notebook.Document.Quick) has point values, for at most HoldMillis,
+	// so that a quick edit paints once, with its result.
+	quickDone  chan struct{} // closed when the quick pass of the run is done
+	holding    bool          // the render loop waits on quickDone
+	quickShown bool          // the quick pass's result has been painted
+
 	verifyGen  int                // recompute the cached verification belongs to
 	verifyDoc  *notebook.Document // and its document
 	verifyText string
@@ -197,8 +204,12 @@ func (c *Root) footer() (verify, seeds string) {
 			verify = "cannot compare: " + err.Error()
 		case v.Match:
 			verify = "stored results match the rerun"
+		case c.S.Edited():
+			verify = "the budget was edited after its results were stored; downloading it stores the new results"
+		case len(v.Differ) == 0:
+			verify = "stored results DIFFER from the rerun in the tables (the headline figures agree)"
 		default:
-			verify = fmt.Sprintf("stored results DIFFER from the rerun (%d figures differ)", len(v.Differ))
+			verify = fmt.Sprintf("stored results DIFFER from the rerun (%d headline figures differ)", len(v.Differ))
 		}
 		c.verifyGen, c.verifyDoc, c.verifyText = c.gen, d, verify
 	}
@@ -262,6 +273,14 @@ func (c *Root) Rendered() {
 		c.painted = true
 		js.Global().Set("lixivLastFirstPaint", nowMillis()-c.editStart)
 	}
+	if c.editStart > 0 && !c.quickShown && c.quickDone != nil {
+		select {
+		case <-c.quickDone: // for the timing harness: point values painted
+			c.quickShown = true
+			js.Global().Set("lixivLastQuickPaint", nowMillis()-c.editStart)
+		default:
+		}
+	}
 	busy := "0"
 	if c.busy {
 		busy = "1"
@@ -290,7 +309,71 @@ func (c *Root) recompute() {
 	prev, done := c.loopDone, make(chan struct{})
 	c.loopDone = done
 	c.busy = true
-	go c.run(ctx, c.S.Doc, prev, done)
+	c.S.Doc.Quick = true
+	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
+	go c.run(ctx, c.S.Doc, prev, done, c.quickDone)
+}
+
+// HoldMillis is the longest the render loop holds a repaint for the quick
+// pass of a recompute.
+const HoldMillis = 120
+
+// Hold returns a channel the render loop waits on, for at most HoldMillis,
+// before it renders: it is closed when the quick pass of the recompute
+// just started has its point values. It is nil when there is nothing to
+// wait for. Call it with the event lock held.
+func (c *Root) Hold() <-chan struct{} {
+	if !c.ready || !c.busy || c.quickDone == nil || c.painted || c.editStart == 0 {
+		return nil
+	}
+	select {
+	case <-c.quickDone:
+		return nil
+	default:
+	}
+	c.holding = true
+	return c.quickDone
+}
+
+// Unhold tells the root the render loop stopped holding (the quick pass
+// took longer than HoldMillis, or was done). Call it with the event lock held.
+func (c *Root) Unhold() { c.holding = false }
+
+// quickPassDone closes done once and repaints: through the render loop
+// when it is holding for it, else by asking for a render. Call it with the
+// event lock held; it releases it.
+func (c *Root) quickPassDone(done chan struct{}) {
+	if done != c.quickDone { // a run cancelled by a later edit: nothing to show
+		c.env.UnlockOnly()
+		return
+	}
+	select {
+	case <-done:
+		c.env.UnlockOnly()
+		return
+	default:
+	}
+	close(done)
+	if c.editStart > 0 {
+		js.Global().Set("lixivLastQuick", nowMillis()-c.editStart)
+	}
+	if c.holding && done == c.quickDone {
+		c.holding = false
+		c.env.UnlockOnly() // the render loop renders as it wakes
+		return
+	}
+	c.env.UnlockRender()
+}
+
+// quickPassOver reports whether doc has no stale cell left (only cells the
+// quick pass left to refine, or none).
+func quickPassOver(doc *notebook.Document) bool {
+	for _, id := range doc.Pending() {
+		if st, _ := doc.Status(id); st == notebook.Stale {
+			return false
+		}
+	}
+	return true
 }
 
 // run computes the stale cells of doc one at a time, handing the main
@@ -298,14 +381,17 @@ func (c *Root) recompute() {
 // inside a long cell, through its progress reports) so that the page
 // scrolls and takes typing. The page repaints at most every paintEvery ms
 // while computing (each repaint rebuilds the page), and once at the end.
-func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan struct{}) {
+func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quick chan struct{}) {
 	defer close(done)
+	defer func() { // cancelled or failed before the quick pass was over
+		c.env.Lock()
+		c.quickPassDone(quick)
+	}()
 	if prev != nil {
 		<-prev
 	}
-	yieldToBrowser() // let the edit paint first
 	c.env.Lock()
-	if c.savePending {
+	if c.savePending { // before computing: an edit is never lost to a closed tab
 		c.autosave()
 	}
 	c.env.UnlockOnly()
@@ -368,6 +454,18 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 			return
 		}
 		c.env.Lock()
+		if err == nil && more && quickPassOver(doc) {
+			select {
+			case <-quick:
+			default:
+				// The point values are in: paint them, then refine.
+				lastPaint = nowMillis()
+				c.quickPassDone(quick)
+				yieldToBrowser()
+				lastYield = nowMillis()
+				continue
+			}
+		}
 		if err != nil || !more {
 			// For the timing harness: the longest stretch without a yield.
 			js.Global().Set("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
@@ -376,7 +474,12 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done chan 
 			if err != nil {
 				c.S.Message = "Recompute stopped: " + err.Error()
 			}
-			publish(true)
+			select {
+			case <-quick:
+				publish(true)
+			default: // no refining: the quick pass was the whole run
+				c.quickPassDone(quick)
+			}
 			return
 		}
 		publish(false)

@@ -1,6 +1,7 @@
 package web
 
 import (
+	"bytes"
 	"fmt"
 	"strings"
 
@@ -26,11 +27,17 @@ type Session struct {
 	Collapsed map[string]bool     // folded cells
 	Message   string              // last page-wide message (file problems)
 
-	lastOut map[string]*notebook.Output // the last results of each cell, shown dimmed while it recomputes
+	lastOut     map[string]*notebook.Output // the last results of each cell, shown dimmed while it recomputes
+	hadInterval map[string]bool             // "cell\x00figure" names shown with an interval, so the quick pass can say one follows
 
 	changed func() // called after every change of the document
 	current []byte // the budget file of the document as it is, or nil
+	opened  []byte // the budget file as it was opened (without results)
 }
+
+// Edited reports whether the document differs from the file as it was
+// opened, so that its stored results no longer describe it.
+func (s *Session) Edited() bool { return !bytes.Equal(s.Current(), s.opened) }
 
 // Current returns the budget file of the document as it stands (without
 // results), kept between edits so that undo and autosave share one copy.
@@ -50,9 +57,11 @@ func NewSession(doc *notebook.Document, fileName string) *Session {
 
 func (s *Session) reset(doc *notebook.Document, fileName string) {
 	s.Doc, s.FileName = doc, fileName
+	s.opened = doc.Marshal()
 	s.CellErr = map[string]string{}
 	s.Notes = map[string][]string{}
 	s.lastOut = map[string]*notebook.Output{}
+	s.hadInterval = map[string]bool{}
 	if s.Collapsed == nil {
 		s.Collapsed = map[string]bool{}
 	}

@@ -178,3 +178,32 @@ func TestEveryChoiceIsAccepted(t *testing.T) {
 		}
 	}
 }
+
+// TestEdited follows whether the budget still is the file as opened: an
+// edit makes it edited, undo back to the opened state does not, and
+// opening another file starts afresh.
+func TestEdited(t *testing.T) {
+	s := newTestSession(t)
+	if s.Edited() {
+		t.Fatal("a budget just opened counts as edited")
+	}
+	if err := s.SetParam("site", "area_km2", "12.5"); err != nil {
+		t.Fatal(err)
+	}
+	if !s.Edited() {
+		t.Fatal("an edit is not seen")
+	}
+	if err := s.Undo(); err != nil {
+		t.Fatal(err)
+	}
+	if s.Edited() {
+		t.Fatal("undo back to the opened state still counts as edited")
+	}
+	if err := s.Redo(); err != nil {
+		t.Fatal(err)
+	}
+	s.Replace(notebook.New("Another"), "another.lixiv.json")
+	if s.Edited() {
+		t.Fatal("a file opened after an edit counts as edited")
+	}
+}

@@ -153,8 +153,12 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		st, err := d.Status(c.ID)
 		switch {
+		case c.ID == running && st == notebook.Refining:
+			v.State, v.StateText, v.Progress = "running", "computing intervals", progress
 		case c.ID == running:
 			v.State, v.StateText, v.Progress = "running", "recomputing", progress
+		case st == notebook.Refining:
+			v.State, v.StateText = "refining", "point values; intervals to follow"
 		case st == notebook.UpToDate:
 			v.State, v.StateText = "ok", "up to date"
 		case st == notebook.Stale:
@@ -215,6 +219,13 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			}
 			for _, f := range o.Figures {
 				val, iv := FormatFigure(f)
+				key := c.ID + "\x00" + f.Name
+				switch {
+				case iv != "":
+					s.hadInterval[key] = true
+				case o.Rough && s.hadInterval[key]: // the quick pass: the interval follows
+					iv = "95 %: computing…"
+				}
 				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Old: v.OldOutputs})
 			}
 			v.Results = o.Tables
