@@ -76,14 +76,16 @@ func (g *Grid) rows(lr records) {
 	}
 }
 
-// row adds one record unless it is blank.
+// row adds one record unless it is blank. Cells are trimmed as Read trims
+// them (spaces, tabs and no-break spaces), so that a row Read counts stays
+// a row.
 func (g *Grid) row(fs [][]byte, line int) {
 	if trimmedLen(fs) == 0 {
 		return
 	}
 	cells := make([]string, len(fs))
 	for i, f := range fs {
-		cells[i] = strings.TrimSpace(string(trimSpace(f)))
+		cells[i] = string(trimSpace(f))
 	}
 	g.Rows = append(g.Rows, cells)
 	g.Lines = append(g.Lines, line)

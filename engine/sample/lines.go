@@ -216,25 +216,35 @@ func (c crReader) Read(p []byte) (int, error) {
 // semicolon, then comma.
 func detectComma(lines [][]byte) (comma byte, modal int) {
 	best, bestN, bestModal := byte(','), -1, 1
-	var scratch []byte
-	var fs [][]byte
 	for _, c := range []byte{'\t', ';', ','} {
-		counts := map[int]int{}
-		for _, l := range lines {
-			fs = split(l, c, fs[:0], &scratch)
-			counts[len(fs)]++
-		}
-		m, n := 0, 0
-		for k, v := range counts {
-			if k >= 2 && (v > n || v == n && k > m) {
-				m, n = k, v
-			}
-		}
-		if m >= 2 && (n > bestN || n == bestN && m > bestModal) {
+		if m, n := modalFields(lines, c); m >= 2 && (n > bestN || n == bestN && m > bestModal) {
 			best, bestN, bestModal = c, n, m
 		}
 	}
 	return best, bestModal
+}
+
+// modalFields returns the most common number of fields (at least two) of
+// the lines split at comma, and how many lines have it; 1, 0 when no line
+// has two fields.
+func modalFields(lines [][]byte, comma byte) (modal, count int) {
+	var scratch []byte
+	var fs [][]byte
+	counts := map[int]int{}
+	for _, l := range lines {
+		fs = split(l, comma, fs[:0], &scratch)
+		counts[len(fs)]++
+	}
+	m, n := 0, 0
+	for k, v := range counts {
+		if k >= 2 && (v > n || v == n && k > m) {
+			m, n = k, v
+		}
+	}
+	if m < 2 {
+		return 1, 0
+	}
+	return m, n
 }
 
 // trimmedLen is the number of fields without trailing empty ones.

@@ -80,6 +80,7 @@ func (im *importer) read(r io.Reader) error {
 	switch opt.Comma {
 	case ',', ';', '\t', '|':
 		comma = byte(opt.Comma)
+		modal, _ = modalFields(sample, comma)
 	}
 	lr.comma = comma
 	if st, ok := r.(interface{ Stat() (os.FileInfo, error) }); ok {
