@@ -1,7 +1,10 @@
 package notebook
 
 import (
+	"errors"
 	"fmt"
+	"strconv"
+	"strings"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
@@ -34,6 +37,10 @@ func init() { Register(KindSamples, computeSamples) }
 var policies = map[string]sample.Policy{"half-limit": sample.HalfLimit, "zero": sample.Zero, "limit": sample.AtLimit, "leave-out": sample.LeaveOut}
 var sampleOrders = map[string]sample.DateOrder{"auto": sample.DateAuto, "day-first": sample.DayFirst, "month-first": sample.MonthFirst}
 
+// computeSamples reads the cell's table with engine/sample. When no sample
+// can enter the budget it returns its output (the samples table with its
+// flag column, and the import warnings) together with the error that says
+// why, so that cells reading it wait while the table stays inspectable.
 func computeSamples(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*SamplesSettings)
 	t := e.Cell.Table
@@ -41,19 +48,31 @@ func computeSamples(e *Env) (*Output, error) {
 		return nil, fmt.Errorf("the sample table is empty: paste or open a table of water samples")
 	}
 	// Messages name the cell by its id, which (unlike the title) only an
-	// edit that recomputes the cell can change.
+	// edit that recomputes the cell can change; a table read from a file
+	// this session (Table.Source) is named by the file, its lines counted
+	// as in the file.
+	name, src := e.Cell.ID, t.Source != nil && t.Source.File != "" && len(t.Source.Lines) == len(t.Rows)
+	if src {
+		name = t.Source.File
+	}
 	opt := sample.Options{Comma: '\t', Policy: policies[s.BelowDetection], DateOrder: sampleOrders[s.DateOrder]}
 	if s.DefaultUnit != "" {
 		opt.Units = map[string]string{"": s.DefaultUnit}
 	}
-	tab := sample.ParseText(t.TSV(), e.Cell.ID, opt)
+	tab := sample.ParseText(t.TSV(), name, opt)
+	if tab.Problems.Count(sample.ErrNotTable) == 0 {
+		tab.Problems = append(tab.Problems, tab.Require(sample.Date)...)
+	}
+	if src {
+		toFileLines(tab, t)
+	}
 	out := &Output{}
 	for _, p := range tab.Problems {
 		out.Warnings = append(out.Warnings, p.Error())
 	}
 	n := len(tab.Samples)
 	if n == 0 {
-		return nil, fmt.Errorf("no samples could be read: %v", tab.Problems.Err())
+		return out, fmt.Errorf("no samples could be read: %v", tab.Problems.Err())
 	}
 	v := &Samples{Table: tab, Use: make([]bool, n), NICB: make([]float64, n), Days: make([]discharge.Day, n)}
 	ids, dates, flags := make([]string, n), make([]string, n), make([]string, n)
@@ -105,8 +124,87 @@ func computeSamples(e *Env) (*Output, error) {
 	out.Figures = append(out.Figures, Point("samples read", "", float64(n)), Point("samples flagged", "", float64(flagged)),
 		Point("samples left out", "", float64(left)))
 	if left == n {
-		return nil, fmt.Errorf("every sample was left out; see the flag column")
+		return out, noneUsed(tab, flags)
 	}
 	out.Value = v
 	return out, nil
+}
+
+// toFileLines moves the line numbers of tab, read from t's TSV text, to the
+// lines of the file t was read from.
+func toFileLines(tab *sample.Table, t *Table) {
+	m := t.fileLines()
+	if m == nil {
+		return
+	}
+	for _, p := range tab.Problems {
+		if l, ok := m[p.Line]; ok {
+			p.Line = l
+		}
+	}
+	for _, s := range tab.Samples {
+		if l, ok := m[s.Line]; ok {
+			s.Line = l
+		}
+	}
+	if l, ok := m[tab.Header]; ok {
+		tab.Header = l
+	}
+	tab.Preamble = t.Source.Preamble
+}
+
+// noneUsed says why no sample enters the budget: how many samples were left
+// out for each reason, then the import problems that explain it (an
+// ambiguous date order, a column not recognised, a missing Na column).
+func noneUsed(tab *sample.Table, flags []string) error {
+	var reasons []string
+	count := map[string]int{}
+	for _, f := range flags {
+		r := strings.TrimPrefix(f, "left out: ")
+		if count[r]++; count[r] == 1 {
+			reasons = append(reasons, r)
+		}
+	}
+	for i, r := range reasons {
+		reasons[i] = r + " (" + plural(count[r], "sample") + ")"
+	}
+	msg := "no sample enters the budget; left out: " + strings.Join(reasons, ", ")
+	var why []string
+	for _, p := range tab.Problems {
+		if errors.Is(p, sample.ErrAmbiguousDate) || errors.Is(p, sample.ErrNoColumn) || errors.Is(p, sample.ErrNotTable) {
+			why = append(why, p.Error())
+		}
+	}
+	hasNa := false
+	for _, sp := range tab.Species() {
+		hasNa = hasNa || sp == chem.Na
+	}
+	if count["no Na"] > 0 && !hasNa {
+		for _, p := range tab.Problems {
+			if p.Line == tab.Header && p.Col > 0 && (errors.Is(p, sample.ErrNoUnit) || errors.Is(p, sample.ErrUnknownUnit) || errors.Is(p, sample.ErrUnitMismatch)) {
+				why = append(why, p.Error())
+			}
+		}
+		w := "no column was read as Na, which the budget needs"
+		if u := tab.Unrecognised(); len(u) > 0 {
+			q := make([]string, len(u))
+			for i, h := range u {
+				q[i] = strconv.Quote(h)
+			}
+			w += "; headers not recognised: " + strings.Join(q, ", ")
+		}
+		why = append(why, w)
+	}
+	if len(why) > 0 {
+		msg += ". " + strings.Join(why, ". ")
+	}
+	return errors.New(msg)
+}
+
+// plural returns "1 sample" or "n samples".
+func plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return strconv.Itoa(n) + " " + noun + "s"
 }

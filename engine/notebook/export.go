@@ -7,9 +7,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
-	"lixiv/engine/chem"
+	"lixiv/engine/sample"
 )
 
 func numText(x float64) string {
@@ -79,78 +78,71 @@ func (t *ResultTable) JSON(cell string) []byte {
 	return b.Bytes()
 }
 
-// TableFromText splits a CSV, TSV or semicolon-separated text (as saved by
-// a spreadsheet) into a Table: the first line names the columns; a second
-// line that holds units ("mg/L", "µeq/L", "m3/s") and no numbers becomes the
-// units row. Cells are kept as written.
-//
-// Text that is not valid UTF-8 is read as Latin-1, as older spreadsheets
-// save it, so that the table holds exactly the characters shown.
-func TableFromText(text string) (*Table, error) {
-	if !utf8.ValidString(text) {
-		r := make([]rune, len(text))
-		for i := 0; i < len(text); i++ {
-			r[i] = rune(text[i])
-		}
-		text = string(r)
+// TableFromText reads CSV, TSV or semicolon-separated text (a file saved
+// by a spreadsheet, or cells pasted from one) into a Table by the rules of
+// engine/sample (sample.SplitText): the delimiter is detected, lines above
+// the header row (a lab's comment lines) are set aside, a units row under
+// the header is recognised as the importer recognises it, blank lines are
+// skipped and quoted cells may hold delimiters and line breaks. Cells are
+// kept as written, so the samples cell reads the table as sample.Read
+// reads the file. A row longer than the header gets unnamed columns, so
+// that no cell is lost.
+func TableFromText(text string) (*Table, error) { return ReadTable("", text) }
+
+// ReadTable is TableFromText for the file called name: messages name it,
+// and the table remembers the file and the line of each row
+// (Table.Source), so that the samples cell's messages count rows as the
+// file does.
+func ReadTable(name, text string) (*Table, error) {
+	return TableFromGrid(sample.SplitText(text, name, sample.Options{}))
+}
+
+// TableFromGrid turns cells split by engine/sample (sample.SplitText,
+// sample.SheetGrid) into a Table. When the grid has a name, the table
+// remembers the file and the line of each row (Table.Source).
+func TableFromGrid(g *sample.Grid) (*Table, error) {
+	name := g.Name
+	if g.Header != nil && strings.Join(g.Header, "") == "" {
+		return nil, fmt.Errorf("%s:%d: the header row has no names", textName(name), g.HeaderLine)
 	}
-	text = strings.TrimPrefix(text, "\ufeff")
-	first, _, _ := strings.Cut(text, "\n")
-	sep := ','
-	switch {
-	case strings.Count(first, "\t") > 0:
-		sep = '\t'
-	case strings.Count(first, ";") > strings.Count(first, ","):
-		sep = ';'
+	if g.Header == nil {
+		return nil, fmt.Errorf("%s: %s", textName(name), problemText(g.Problems))
 	}
-	r := csv.NewReader(strings.NewReader(text))
-	r.Comma, r.FieldsPerRecord, r.LazyQuotes = sep, -1, true
-	recs, err := r.ReadAll()
-	if err != nil {
-		return nil, fmt.Errorf("not a table: %v", err)
+	n := g.Width()
+	if n > MaxColumns || len(g.Rows) > MaxRows {
+		return nil, fmt.Errorf("%s: the table is larger than %d columns by %d rows", textName(name), MaxColumns, MaxRows)
 	}
-	if len(recs) == 0 {
-		return nil, fmt.Errorf("not a table: the text is empty")
+	t := &Table{Columns: widen(g.Header, n), Rows: g.Rows}
+	if g.Units != nil {
+		t.Units = widen(g.Units, n)
 	}
-	t := &Table{Columns: recs[0]}
-	rows := recs[1:]
-	if len(rows) > 0 && unitsRow(rows[0]) {
-		t.Units, rows = rows[0], rows[1:]
-		for len(t.Units) < len(t.Columns) {
-			t.Units = append(t.Units, "")
-		}
-		t.Units = t.Units[:len(t.Columns)]
-	}
-	if len(t.Columns) > MaxColumns || len(rows) > MaxRows {
-		return nil, fmt.Errorf("the table is larger than %d columns by %d rows", MaxColumns, MaxRows)
-	}
-	for i, row := range rows {
-		if len(row) > len(t.Columns) {
-			return nil, fmt.Errorf("row %d has %d cells for %d columns", i+2, len(row), len(t.Columns))
-		}
-		if len(row) == 1 && row[0] == "" {
-			continue
-		}
-		t.Rows = append(t.Rows, row)
+	if name != "" {
+		t.Source = &Source{File: name, Preamble: g.Preamble, Header: g.HeaderLine, Units: g.UnitsLine, Lines: g.Lines}
 	}
 	return t, nil
 }
 
-// unitsRow reports whether a row reads as units: no number, and at least
-// one cell a concentration or discharge unit.
-func unitsRow(row []string) bool {
-	unit := false
-	for _, c := range row {
-		c = strings.TrimSpace(c)
-		if c == "" {
-			continue
-		}
-		if _, err := strconv.ParseFloat(strings.ReplaceAll(c, ",", "."), 64); err == nil {
-			return false
-		}
-		if _, err := chem.ParseUnit(c); err == nil || strings.Contains(c, "/s") || strings.Contains(c, "/day") {
-			unit = true
-		}
+// widen pads cells with empty ones to n.
+func widen(cells []string, n int) []string {
+	out := make([]string, n)
+	copy(out, cells)
+	return out
+}
+
+func textName(name string) string {
+	if name == "" {
+		return "the text"
 	}
-	return unit
+	return name
+}
+
+// problemText gives the reason a text is not a table, without the file
+// name the caller adds.
+func problemText(l sample.ProblemList) string {
+	if len(l) == 0 {
+		return "no table found"
+	}
+	p := *l[0]
+	p.File = ""
+	return strings.TrimPrefix(p.Error(), ": ")
 }

@@ -1,8 +1,12 @@
 package notebook
 
 import (
+	"fmt"
+	"os"
 	"strings"
 	"testing"
+
+	"lixiv/engine/sample"
 )
 
 func TestTableFromText(t *testing.T) {
@@ -31,8 +35,31 @@ func TestTableFromText(t *testing.T) {
 			}
 		})
 	}
-	if _, err := TableFromText("a,b\n1,2,3\n"); err == nil || !strings.Contains(err.Error(), "row 2 has 3 cells for 2 columns") {
-		t.Errorf("a long row: got %v", err)
+	if tab, err := TableFromText("a,b\n1,2,3\n"); err != nil || len(tab.Columns) != 3 || tab.Cell(0, 2) != "3" {
+		t.Errorf("a long row keeps its cells under an unnamed column: got %v, %v", tab, err)
+	}
+	if _, err := ReadTable("x.csv", "\x00\x01"); err == nil || err.Error() != "x.csv: not a sample table; the file holds binary data, not text" {
+		t.Errorf("a binary file: got %v", err)
+	}
+}
+
+// The project's messy lab file (comment lines above the header, a units
+// row, a blank line) splits as engine/sample reads it, and the table
+// remembers the file's lines.
+func TestReadTableMessy(t *testing.T) {
+	b, err := os.ReadFile("../../testdata/samples-messy.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	tab, err := ReadTable("samples-messy.csv", string(b))
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := tab.Source
+	if len(tab.Columns) != 21 || tab.Columns[0] != "Sample ID" || tab.Units[9] != "mg/L" || len(tab.Rows) != 8 ||
+		src == nil || src.File != "samples-messy.csv" || src.Header != 3 || src.Units != 4 || len(src.Preamble) != 2 ||
+		fmt.Sprint(src.Lines) != "[5 6 7 8 10 11 12 13]" {
+		t.Errorf("got columns %q, units %q, %d rows, source %+v", tab.Columns, tab.Units, len(tab.Rows), src)
 	}
 }
 
@@ -47,6 +74,12 @@ func FuzzTableFromText(f *testing.F) {
 		}
 		if err := tab.check(); err != nil {
 			t.Fatalf("TableFromText gave a table that fails its own check: %v", err)
+		}
+		// The samples cell reads the table as engine/sample reads the text.
+		direct := sample.ParseText(text, "f", sample.Options{})
+		kept := sample.ParseText(tab.TSV(), "f", sample.Options{Comma: '\t'})
+		if len(direct.Samples) != len(kept.Samples) {
+			t.Fatalf("%d samples read from the text, %d from the table:\n%q", len(direct.Samples), len(kept.Samples), tab.TSV())
 		}
 		// What it read survives the budget file unchanged.
 		d := New("f")

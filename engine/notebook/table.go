@@ -13,6 +13,50 @@ type Table struct {
 	Columns []string   // column names as written
 	Units   []string   // unit of each column, "" where none
 	Rows    [][]string // cells, row by row
+	Source  *Source    // the file the table was read from; nil when typed, pasted or loaded from a budget
+}
+
+// Source says where a table's rows came from, so that messages about them
+// name the file and count lines as the file does. Budget files do not
+// store it, and it is used only while the table has one row per entry of
+// Lines: code that adds or removes rows should set Table.Source to nil.
+type Source struct {
+	File     string   // file name
+	Preamble []string // lines above the header row, as written
+	Header   int      // line of the header row
+	Units    int      // line of the units row, 0 when none
+	Lines    []int    // line on which each row starts
+}
+
+// fileLines maps the lines of the text TSV writes to the lines of the
+// source file they come from (header, units row and the first line of each
+// row); it is nil when the table has no usable Source.
+func (t *Table) fileLines() map[int]int {
+	s := t.Source
+	if s == nil || len(s.Lines) != len(t.Rows) {
+		return nil
+	}
+	m := make(map[int]int, len(t.Rows)+2)
+	m[1] = s.Header
+	at := 2 + lineBreaks(t.Columns)
+	if t.hasUnits() {
+		m[at] = s.Units
+		at += 1 + lineBreaks(t.Units)
+	}
+	for i, r := range t.Rows {
+		m[at] = s.Lines[i]
+		at += 1 + lineBreaks(r)
+	}
+	return m
+}
+
+// lineBreaks counts the line breaks inside the cells of a row.
+func lineBreaks(cells []string) int {
+	n := 0
+	for _, c := range cells {
+		n += strings.Count(c, "\n")
+	}
+	return n
 }
 
 // Clone returns a deep copy of t.
@@ -21,6 +65,7 @@ func (t *Table) Clone() *Table {
 		return nil
 	}
 	c := &Table{
+		Source:  t.Source, // never changed in place
 		Columns: append([]string(nil), t.Columns...),
 		Units:   append([]string(nil), t.Units...),
 		Rows:    make([][]string, len(t.Rows)),
@@ -61,19 +106,24 @@ func (t *Table) TSV() string { return t.delimited('\t') }
 func (t *Table) delimited(sep byte) string {
 	var b strings.Builder
 	writeCSVRow(&b, t.Columns, sep)
-	hasUnits := false
-	for _, u := range t.Units {
-		if u != "" {
-			hasUnits = true
-		}
-	}
-	if hasUnits {
+	if t.hasUnits() {
 		writeCSVRow(&b, t.Units, sep)
 	}
 	for _, r := range t.Rows {
 		writeCSVRow(&b, r, sep)
 	}
 	return b.String()
+}
+
+// hasUnits reports whether any column has a unit: only then is the units
+// row written.
+func (t *Table) hasUnits() bool {
+	for _, u := range t.Units {
+		if u != "" {
+			return true
+		}
+	}
+	return false
 }
 
 func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
