@@ -35,17 +35,14 @@ func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*noteb
 		if err != nil {
 			return nil, err
 		}
-		text := string(b)
 		if isWorkbook(path, b) {
-			if text, err = workbookText(b, path, sheet); err != nil {
+			g, err := workbookGrid(b, path, sheet)
+			if err != nil {
 				return nil, err
 			}
+			return notebook.TableFromGrid(g)
 		}
-		t, err := notebook.TableFromText(text)
-		if err != nil {
-			return nil, fmt.Errorf("%s: %v", path, err)
-		}
-		return t, nil
+		return notebook.ReadTable(filepath.Base(path), string(b))
 	}
 	if dischargePath != "" {
 		if area <= 0 {
@@ -140,18 +137,18 @@ func isWorkbook(path string, b []byte) bool {
 	return strings.EqualFold(filepath.Ext(path), ".xlsx") || bytes.HasPrefix(b, []byte("PK\x03\x04"))
 }
 
-// workbookText returns a sheet of a workbook as tab-separated text. Rows
-// the workbook reader cannot read are an error, so that none is lost
-// silently.
-func workbookText(b []byte, path, sheet string) (string, error) {
-	text, probs, err := sample.SheetText(b, path, sheet)
+// workbookGrid returns a sheet of a workbook split into cells, its rows
+// numbered as in the spreadsheet. Rows the workbook reader cannot read are
+// an error, so that none is lost silently.
+func workbookGrid(b []byte, path, sheet string) (*sample.Grid, error) {
+	g, err := sample.SheetGrid(b, filepath.Base(path), sheet)
 	if err != nil {
-		return "", err
+		return nil, err
 	}
-	if len(probs) > 0 {
-		return "", probs
+	if len(g.Problems) > 0 {
+		return nil, g.Problems
 	}
-	return text, nil
+	return g, nil
 }
 
 // perSample prints the silicate share of each cation and the CO2 per litre
