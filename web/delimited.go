@@ -1,122 +1,27 @@
 package web
 
 import (
-	"strings"
-
 	"lixiv/engine/notebook"
+	"lixiv/engine/sample"
 )
 
 // ParseDelimited splits text copied from a spreadsheet, or read from a CSV
-// or TSV file, into a notebook table kept as text. The delimiter is the one
-// of tab, semicolon and comma found most often in the first line; double
-// quotes protect delimiters and line breaks; a UTF-8 byte order mark is
-// dropped. When header is true the first row names the columns, and a
-// second row without any number is taken as a units row. Blank lines are
-// skipped. Nothing is converted: units and numbers are read by the engine,
-// which reports problems by row and column.
+// or TSV file, into a notebook table kept as text, by engine/sample's rules
+// (notebook.TableFromText): the delimiter is detected, comment lines above
+// the header are set aside, quotes protect delimiters and line breaks, and a
+// units row is recognised as the importer recognises it. When header is
+// false every non-blank row is data. Nothing is converted: units and
+// numbers are read by the engine, which reports problems by row and
+// column. Text with no header row gives a table without columns.
 func ParseDelimited(text string, header bool) *notebook.Table {
-	text = strings.TrimPrefix(text, "\ufeff")
-	rows := splitRows(text, delimiter(text))
-	t := &notebook.Table{}
-	if header && len(rows) > 0 {
-		t.Columns = rows[0]
-		rows = rows[1:]
-		if len(rows) > 0 && looksLikeUnits(rows[0]) {
-			t.Units = pad(rows[0], len(t.Columns))
-			rows = rows[1:]
-		}
+	if !header {
+		return &notebook.Table{Rows: sample.SplitCells(text).Rows}
 	}
-	t.Rows = rows
+	t, err := notebook.TableFromText(text)
+	if err != nil {
+		return &notebook.Table{}
+	}
 	return t
-}
-
-// delimiter picks tab, semicolon or comma by their count in the first line.
-func delimiter(text string) rune {
-	first, _, _ := strings.Cut(text, "\n")
-	best, n := ',', strings.Count(first, ",")
-	if c := strings.Count(first, ";"); c > n {
-		best, n = ';', c
-	}
-	if c := strings.Count(first, "\t"); c > 0 && c >= n {
-		best = '\t'
-	}
-	return best
-}
-
-func splitRows(text string, delim rune) [][]string {
-	var rows [][]string
-	var row []string
-	var cell strings.Builder
-	quoted, atStart := false, true
-	endRow := func() {
-		row = append(row, strings.TrimSpace(cell.String()))
-		cell.Reset()
-		blank := true
-		for _, c := range row {
-			if c != "" {
-				blank = false
-			}
-		}
-		if !blank {
-			rows = append(rows, row)
-		}
-		row = nil
-	}
-	rs := []rune(text)
-	for i := 0; i < len(rs); i++ {
-		r := rs[i]
-		switch {
-		case quoted && r == '"' && i+1 < len(rs) && rs[i+1] == '"':
-			cell.WriteRune('"')
-			i++
-		case quoted && r == '"':
-			quoted = false
-		case quoted:
-			cell.WriteRune(r)
-		case r == '"' && atStart:
-			quoted = true
-		case r == delim:
-			row = append(row, strings.TrimSpace(cell.String()))
-			cell.Reset()
-			atStart = true
-			continue
-		case r == '\r':
-		case r == '\n':
-			endRow()
-			atStart = true
-			continue
-		default:
-			cell.WriteRune(r)
-			if r != ' ' {
-				atStart = false
-			}
-			continue
-		}
-		atStart = false
-	}
-	if cell.Len() > 0 || len(row) > 0 {
-		endRow()
-	}
-	return rows
-}
-
-// looksLikeUnits reports a row with no number in it and at least one cell
-// that names a unit, such as "mg/L" or "µmol/L".
-func looksLikeUnits(row []string) bool {
-	unit := false
-	for _, c := range row {
-		if c == "" {
-			continue
-		}
-		if strings.IndexAny(c, "0123456789") >= 0 && !strings.ContainsAny(c, "/³²") {
-			return false
-		}
-		l := strings.ToLower(c)
-		if strings.Contains(l, "/") || strings.Contains(l, "mol") || strings.Contains(l, "eq") || l == "ppm" || l == "ppb" {
-			unit = true
-		}
-	}
-	return unit
 }
 
 func pad(row []string, n int) []string {
@@ -142,7 +47,7 @@ func AppendRows(t *notebook.Table, text string) int {
 		hdr := rows[0]
 		rows = rows[1:]
 		var units []string
-		if len(rows) > 0 && looksLikeUnits(rows[0]) {
+		if len(rows) > 0 && sample.IsUnitsRow(hdr, rows[0]) {
 			units, rows = rows[0], rows[1:]
 		}
 		for j, name := range hdr {

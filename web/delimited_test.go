@@ -1,10 +1,14 @@
 package web
 
 import (
+	"bytes"
+	"context"
+	"os"
 	"reflect"
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/sample"
 )
 
 func TestParseDelimited(t *testing.T) {
@@ -99,5 +103,44 @@ func TestTableKind(t *testing.T) {
 		if got := TableKind(&notebook.Table{Columns: tt.cols}); got != tt.want {
 			t.Errorf("TableKind(%q): got %s, want %s", tt.cols, got, tt.want)
 		}
+	}
+}
+
+// The project's messy lab file opened on the page gives the samples
+// engine/sample reads from the file itself (its golden test).
+func TestParseDelimitedMessyFile(t *testing.T) {
+	b, err := os.ReadFile("../testdata/samples-messy.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, _ := sample.Read(bytes.NewReader(b), "samples-messy.csv", sample.Options{})
+	tab := ParseDelimited(string(b), true)
+	if TableKind(tab) != notebook.KindSamples {
+		t.Fatalf("read as a %s table", TableKind(tab))
+	}
+	d := notebook.New("messy")
+	c := notebook.NewCell(notebook.KindSamples, "samples", "")
+	c.Table = tab
+	if err := d.Insert(c, -1); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	o := d.Output("samples")
+	if o == nil {
+		st, err := d.Status("samples")
+		t.Fatalf("samples cell %s: %v", st, err)
+	}
+	var got, exp bytes.Buffer
+	o.Value.(*notebook.Samples).Table.WriteCSV(&got)
+	want.WriteCSV(&exp)
+	if got.String() != exp.String() {
+		t.Errorf("samples differ:\n%s\nwant\n%s", got.String(), exp.String())
+	}
+	// The page shows the problems at their rows of the table: MF-04 is row 8.
+	probs, _ := TableProblems("samples", tab, o.Warnings)
+	if len(probs) != 2 || probs[0].Row != 7 || probs[0].Col != 5 || probs[1].Col != 9 {
+		t.Errorf("table problems %+v", probs)
 	}
 }
