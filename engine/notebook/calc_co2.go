@@ -46,6 +46,22 @@ func alkalinityLongSil(s *mix.Split, so4 float64, opt *co2.Options) float64 {
 	return r.NetLongSil
 }
 
+// SilicatePlausibleMax is the silicate CO2 consumption (mol/km²/yr) above
+// which the co2 cell flags the result for review: single catchments span
+// roughly 1e3 to 1e6 mol/km²/yr (from memory), and values above about 5e6
+// are flagged (common practice, no source; methods brief §9.4).
+const SilicatePlausibleMax = 5e6
+
+// implausibleSilicate returns the §9.4 plausibility warning for a silicate
+// CO2 consumption of perKm2 mol/km²/yr, or "".
+func implausibleSilicate(perKm2 float64) string {
+	if !(perKm2 > SilicatePlausibleMax) {
+		return ""
+	}
+	return fmt.Sprintf("silicate CO2 consumption of %.3g mol/km²/yr is above %.0g, beyond what single catchments show (about 1e3 to 1e6); "+
+		"check the catchment area, the units of the samples and the silicate end-member ratios", perKm2, SilicatePlausibleMax)
+}
+
 func computeCO2(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*CO2Settings)
 	ai, err := e.Input("apportionment")
@@ -169,6 +185,9 @@ func computeCO2(e *Env) (*Output, error) {
 		e.Report(n+(k+1)*n, total)
 		name := part.name + " CO2 consumption"
 		perKm2 := withInterval(name+" per km²", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
+		if w := implausibleSilicate(perKm2.Median); w != "" && !part.carb {
+			out.Warnings = append(out.Warnings, w)
+		}
 		out.Figures = append(out.Figures,
 			withInterval(name, "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }), perKm2,
 			Figure{Name: name + " as carbon", Unit: "t C/km²/yr", Median: flux.CarbonMass(perKm2.Median),

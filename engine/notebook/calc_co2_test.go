@@ -50,3 +50,25 @@ func TestCO2PairLongTerm(t *testing.T) {
 		t.Errorf("alkalinity-based long-term silicate %g, want 87.2", got)
 	}
 }
+
+func TestImplausibleSilicate(t *testing.T) {
+	// Methods brief §9.4: silicate CO2 consumption in single catchments spans
+	// about 1e3 to 1e6 mol/km²/yr (from memory); above about 5e6 it is
+	// flagged for review (common practice, no source).
+	tests := []struct {
+		perKm2 float64
+		warn   bool
+	}{
+		{6.00445e4, false}, // §13 item 9
+		{1e6, false}, {5e6, false}, {5.1e6, true}, {2e7, true}, {math.NaN(), false},
+	}
+	for _, tc := range tests {
+		if got := implausibleSilicate(tc.perKm2); (got != "") != tc.warn {
+			t.Errorf("%g mol/km²/yr: warning %q, want one: %v", tc.perKm2, got, tc.warn)
+		}
+	}
+	if got := implausibleSilicate(2e7); got != "silicate CO2 consumption of 2e+07 mol/km²/yr is above 5e+06, beyond what single catchments show (about 1e3 to 1e6); "+
+		"check the catchment area, the units of the samples and the silicate end-member ratios" {
+		t.Errorf("message %q", got)
+	}
+}

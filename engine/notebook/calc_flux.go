@@ -188,12 +188,13 @@ func sumOf(src mix.Source, cations ...int) func(int, *mix.Split) float64 {
 	}
 }
 
-// meanRow is one line of the mean-annual table.
+// meanRow is one line of the mean-annual table: the flux and yield in mol
+// and in tonnes (NaN tonnes for a series without a molar mass, such as a sum
+// of cations).
 type meanRow struct {
-	name, unit string
-	point      float64 // point estimate of the mean annual flux, mol/yr
-	mol, yield flux.Interval
-	tonnes     float64
+	name, unit                 string
+	point                      float64 // point estimate of the mean annual flux, mol/yr
+	mol, yield, tonnes, tYield flux.Interval
 }
 
 // cationSums are the cation sums whose intervals the fluxes cell reports as
@@ -219,10 +220,11 @@ func computeFluxes(e *Env) (*Output, error) {
 	var yName, yYear []string
 	var yMol, yYield, yRunoff []float64
 	add := func(r *flux.Result, u *flux.Uncertainty) {
-		row := meanRow{name: r.Series, point: r.Mean.Mol, mol: flux.Interval{Median: r.Mean.Mol, Lo: math.NaN(), Hi: math.NaN()},
-			yield: flux.Interval{Median: r.Mean.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}, tonnes: r.Mean.TonnesPerKm2}
+		pt := func(x float64) flux.Interval { return flux.Interval{Median: x, Lo: math.NaN(), Hi: math.NaN()} }
+		row := meanRow{name: r.Series, point: r.Mean.Mol, mol: pt(r.Mean.Mol), yield: pt(r.Mean.MolPerKm2),
+			tonnes: pt(r.Mean.Tonnes), tYield: pt(r.Mean.TonnesPerKm2)}
 		if u != nil {
-			row.mol, row.yield = u.Mean.Mol, u.Mean.MolPerKm2
+			row.mol, row.yield, row.tonnes, row.tYield = u.Mean.Mol, u.Mean.MolPerKm2, u.Mean.Tonnes, u.Mean.TonnesPerKm2
 		}
 		rows = append(rows, row)
 		for _, y := range r.Years {
@@ -289,7 +291,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	var rName []string
 	var rA, rB, rR2, rS, rFactor, rN []float64
-	var figs []Figure
+	var figs, cover []Figure
 	var runoff Figure
 	for j, jb := range jobs {
 		if err := e.Ctx.Err(); err != nil {
@@ -326,6 +328,10 @@ func computeFluxes(e *Env) (*Output, error) {
 		if !jb.sum {
 			continue
 		}
+		if runoff.Name == "" { // the first cation sum: the samples every apportioned series uses
+			f, w := flowCoverage(r)
+			cover, out.Warnings = f, append(out.Warnings, w...)
+		}
 		runoff = withInterval("runoff", "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
 		figs = append(figs, withInterval(jb.ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
 			withInterval(jb.ser.Name+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 }))
@@ -335,6 +341,7 @@ func computeFluxes(e *Env) (*Output, error) {
 		out.Figures = append(out.Figures, runoff)
 	}
 	out.Figures = append(out.Figures, figs...)
+	out.Figures = append(out.Figures, cover...)
 	// Silicate weathering rate in t/km²/yr from the point fluxes (cations, then cations + SiO2).
 	parts := map[string]float64{}
 	for _, r := range rows {
@@ -350,16 +357,28 @@ func computeFluxes(e *Env) (*Output, error) {
 	carb := []flux.Part{{Species: chem.Ca, MolPerYr: parts["Ca_carbonate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_carbonate"]}}
 	out.Figures = append(out.Figures, Point("carbonate weathering rate (cations)", "t/km²/yr", flux.WeatheringRate(v.Site.AreaKm2, carb...)))
 
-	var names []string
-	var mol, molLo, molHi, yl, ylLo, ylHi []float64
-	for _, r := range rows {
-		names = append(names, r.name)
-		mol, molLo, molHi = append(mol, r.mol.Median), append(molLo, r.mol.Lo), append(molHi, r.mol.Hi)
-		yl, ylLo, ylHi = append(yl, r.yield.Median), append(ylLo, r.yield.Lo), append(ylHi, r.yield.Hi)
+	names := make([]string, len(rows))
+	for i, r := range rows {
+		names[i] = r.name
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval)", Columns: []*Column{
-		TextColumn("series", names), NumColumn("flux", "mol/yr", mol), NumColumn("flux_low", "mol/yr", molLo), NumColumn("flux_high", "mol/yr", molHi),
-		NumColumn("yield", "mol/km²/yr", yl), NumColumn("yield_low", "mol/km²/yr", ylLo), NumColumn("yield_high", "mol/km²/yr", ylHi)}},
+	meanCols := []*Column{TextColumn("series", names)}
+	for _, c := range []struct {
+		name, unit string
+		pick       func(*meanRow) flux.Interval
+	}{
+		{"flux", "mol/yr", func(r *meanRow) flux.Interval { return r.mol }},
+		{"yield", "mol/km²/yr", func(r *meanRow) flux.Interval { return r.yield }},
+		{"mass_flux", "t/yr", func(r *meanRow) flux.Interval { return r.tonnes }},
+		{"mass_yield", "t/km²/yr", func(r *meanRow) flux.Interval { return r.tYield }},
+	} {
+		med, lo, hi := make([]float64, len(rows)), make([]float64, len(rows)), make([]float64, len(rows))
+		for i := range rows {
+			in := c.pick(&rows[i])
+			med[i], lo[i], hi[i] = in.Median, in.Lo, in.Hi
+		}
+		meanCols = append(meanCols, NumColumn(c.name, c.unit, med), NumColumn(c.name+"_low", c.unit, lo), NumColumn(c.name+"_high", c.unit, hi))
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval); tonnes of each species, none for cation sums", Columns: meanCols},
 		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
 			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
 	if len(rName) > 0 {
@@ -373,6 +392,46 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	out.Warnings = groupSeries(out.Warnings, series)
 	return out, nil
+}
+
+// Flow-coverage limits above which the fluxes cell warns (common practice,
+// no source): a tenth of the flow on days the samples do not bracket in time
+// or in discharge, or a highest sample exceeded on more than one day in
+// twenty (below the 95th percentile of the flow-duration curve).
+const (
+	coverageFlowLimit = 0.10
+	coverageTopLimit  = 0.05
+)
+
+// flowCoverage gives the sample coverage of the discharge record for the
+// series of r as headline figures, and cautions when it is poor: the share
+// of flow before the first or after the last sample, where interpolation
+// holds the end values (methods brief §8.2); the share of flow outside the
+// sampled discharge range, where a rating curve extrapolates (§8.3); and
+// the share of days with at least the highest sampled discharge, the
+// sample coverage of the flow-duration curve (§12: sparse sampling that
+// misses floods biases annual loads).
+func flowCoverage(r *flux.Result) ([]Figure, []string) {
+	figs := []Figure{
+		Point("share of flow before the first or after the last sample", "fraction", r.HeldFlow),
+		Point("share of flow outside the sampled discharge range", "fraction", r.OutsideFlow),
+		Point("share of days with at least the highest sampled discharge", "fraction", r.TopSampled),
+	}
+	var warns []string
+	if r.HeldFlow > coverageFlowLimit {
+		warns = append(warns, fmt.Sprintf("%.2g %% of the flow passed before the first or after the last sample, where the concentrations are held or modelled, not measured; annual loads may be biased", 100*r.HeldFlow))
+	}
+	if r.OutsideFlow > coverageFlowLimit {
+		where := "where no sample shows how concentration follows discharge"
+		if r.Method == flux.Rating {
+			where = "where the rating curve extrapolates (methods brief §8.3)"
+		}
+		warns = append(warns, fmt.Sprintf("%.2g %% of the flow passed on days with discharge outside the sampled range, %s; annual loads may be biased", 100*r.OutsideFlow, where))
+	}
+	if r.TopSampled > coverageTopLimit {
+		warns = append(warns, fmt.Sprintf("the highest sampled discharge is reached on %.2g %% of days: the floods went unsampled, which biases annual loads (methods brief §12)", 100*r.TopSampled))
+	}
+	return figs, warns
 }
 
 // withInterval is a headline figure: the bootstrap median and 95 % interval
