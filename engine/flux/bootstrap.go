@@ -45,6 +45,18 @@ type BootstrapOptions struct {
 	// redrawn while that is not positive.
 	AreaError float64
 	Draws     DrawMode
+	// Tick, when set, is called now and then during a long bootstrap
+	// (after each sample's draws are checked and after each replicate),
+	// so that a caller running on one goroutine can hand control back to
+	// its host. It must not change anything the bootstrap reads; results
+	// do not depend on it.
+	Tick func()
+}
+
+func (b *BootstrapOptions) tick() {
+	if b.Tick != nil {
+		b.Tick()
+	}
 }
 
 // Interval is a bootstrap summary: the median and the 2.5 % and 97.5 %
@@ -116,7 +128,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	if len(smp) == 0 {
 		return u, fmt.Errorf("%s: %w", s.Name, ErrNoSamples)
 	}
-	pick, err := newPicker(s, smp, b.Draws)
+	pick, err := newPicker(s, smp, b.Draws, b.tick)
 	if err != nil {
 		return u, err
 	}
@@ -179,6 +191,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 			vals[y*nf+4][r] = l.RunoffMM
 		}
 		u.MeanMol[r] = mean.Mol
+		b.tick()
 	}
 	u.Replicates = nrep - u.Failed
 	if u.Failed > 0 {
@@ -241,7 +254,7 @@ func Quantile(sorted []float64, p float64) float64 {
 
 // newPicker returns a function that fills c with one replicate's
 // concentrations: the samples' values, or draws from s.Draws.
-func newPicker(s Series, smp []sample, mode DrawMode) (func(*rand.Rand, []float64), error) {
+func newPicker(s Series, smp []sample, mode DrawMode, tick func()) (func(*rand.Rand, []float64), error) {
 	base := make([]float64, len(smp))
 	for i, sm := range smp {
 		base[i] = sm.c
@@ -252,6 +265,7 @@ func newPicker(s Series, smp []sample, mode DrawMode) (func(*rand.Rand, []float6
 	draws := make([][]float64, len(smp))
 	nd := -1
 	for i, sm := range smp {
+		tick()
 		if sm.idx < len(s.Draws) && len(s.Draws[sm.idx]) > 0 {
 			draws[i] = s.Draws[sm.idx]
 			for d, v := range draws[i] {
@@ -274,6 +288,7 @@ func newPicker(s Series, smp []sample, mode DrawMode) (func(*rand.Rand, []float6
 			if draws[i] == nil {
 				continue
 			}
+			tick()
 			if sm.idx >= len(s.Weights) || len(s.Weights[sm.idx]) != len(draws[i]) {
 				return nil, fmt.Errorf("%s: %w: sample %d needs one weight per draw", s.Name, ErrDraws, sm.idx+1)
 			}

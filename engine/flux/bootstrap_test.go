@@ -72,10 +72,16 @@ func TestBootstrapDeterministic(t *testing.T) {
 	opt := Options{Method: Rating, AreaKm2: cv.area}
 	b := BootstrapOptions{Replicates: 200, Seed: 99, DischargeError: 0.1}
 	u1, _ := Bootstrap(cv.gauge, cv.series, opt, b)
+	ticks := 0
+	b.Tick = func() { ticks++ }
 	u2, _ := Bootstrap(cv.gauge, cv.series, opt, b)
 	if u1.Mean != u2.Mean {
-		t.Errorf("same seed, different results: %+v vs %+v", u1.Mean, u2.Mean)
+		t.Errorf("same seed, different results (the second with a progress tick): %+v vs %+v", u1.Mean, u2.Mean)
 	}
+	if ticks < b.Replicates {
+		t.Errorf("%d progress ticks for %d replicates, want one per replicate at least", ticks, b.Replicates)
+	}
+	b.Tick = nil
 	b.Seed = 100
 	u3, _ := Bootstrap(cv.gauge, cv.series, opt, b)
 	if u1.Mean.Mol == u3.Mean.Mol {

@@ -272,6 +272,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.splits = make([][]mix.Split, n)
 	}
 	for i := 0; i < n; i++ {
+		if a.inverse != nil { // the draws are done; keep reporting while they are summarised
+			e.Report(a.inverse.Draws*n, a.inverse.Draws*n)
+		}
 		draws, ws = draws[:0], ws[:0]
 		a.weights[i] = make([]float64, a.Draws)
 		if a.splits != nil {

@@ -150,6 +150,8 @@ func computeCO2(e *Env) (*Output, error) {
 		out.Warnings = append(out.Warnings, "the fluxes cell reads another apportionment; its discharge record and options are used here")
 		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, App: a}
 	}
+	done := n // progress units: per litre, then each bootstrap
+	fv = fv.ticking(func() { e.Report(done, total) })
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64
 	for k, part := range []struct {
@@ -182,7 +184,8 @@ func computeCO2(e *Env) (*Output, error) {
 		if err != nil {
 			return nil, err
 		}
-		e.Report(n+(k+1)*n, total)
+		done = n + (k+1)*n
+		e.Report(done, total)
 		name := part.name + " CO2 consumption"
 		perKm2 := withInterval(name+" per km²", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
 		if w := implausibleSilicate(perKm2.Median); w != "" && !part.carb {

@@ -22,6 +22,16 @@ type Fluxes struct {
 	// series other than the cation sums (0: point values only).
 	SeriesReplicates int
 	App              *Apportioned
+	// tick reports progress while a long series is built (Bootstrap.Tick
+	// while it is bootstrapped); set only while a cell computes with it.
+	tick func()
+}
+
+// ticking returns a copy of v whose long loops call tick.
+func (v *Fluxes) ticking(tick func()) *Fluxes {
+	w := *v
+	w.tick, w.Bootstrap.Tick = tick, tick
+	return &w
 }
 
 func init() { Register(KindFluxes, computeFluxes) }
@@ -73,6 +83,9 @@ func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int,
 		s.C[i] = f(i, &a.Median[i])
 		if s.Draws == nil {
 			continue
+		}
+		if v.tick != nil {
+			v.tick()
 		}
 		d := make([]float64, a.Draws)
 		total := 0.0
@@ -261,11 +274,18 @@ func computeFluxes(e *Env) (*Output, error) {
 	// the headline figures, take the bootstrap setting; the other series
 	// take series_bootstrap replicates (the first replicates of the same
 	// sequence), which keeps a recompute after an edit cheap.
+	// A job builds its series only when its turn comes: with many draws a
+	// series holds every draw of every sample, so building them all first
+	// would hold them all in memory and run long without a progress report.
 	type job struct {
-		ser flux.Series
-		sum bool
+		build func() flux.Series
+		sum   bool
 	}
 	var jobs []job
+	// tv is v reporting progress from inside a long series, so that a page
+	// on one goroutine can yield to the browser there too.
+	cur := 0
+	tv := v.ticking(func() { e.Report(cur, len(jobs)) })
 	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
 		c := make([]float64, len(a.Names))
 		for i := range c {
@@ -274,20 +294,24 @@ func computeFluxes(e *Env) (*Output, error) {
 		if countFinite(c) == 0 {
 			continue
 		}
-		ser := flux.ForSpecies(sp, a.Days, c)
-		ser.Q = a.Q
-		jobs = append(jobs, job{ser: ser})
+		jobs = append(jobs, job{build: func() flux.Series {
+			ser := flux.ForSpecies(sp, a.Days, c)
+			ser.Q = a.Q
+			return ser
+		}})
 	}
 	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
 		for k, sp := range mix.Cations {
 			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
 				continue
 			}
-			jobs = append(jobs, job{ser: v.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, sumOf(src, k))})
+			jobs = append(jobs, job{build: func() flux.Series {
+				return tv.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, sumOf(src, k))
+			}})
 		}
 	}
 	for _, c := range cationSums {
-		jobs = append(jobs, job{ser: v.series(c.name, 0, !rough, sumOf(c.src, c.ks...)), sum: true})
+		jobs = append(jobs, job{build: func() flux.Series { return tv.series(c.name, 0, !rough, sumOf(c.src, c.ks...)) }, sum: true})
 	}
 	var rName []string
 	var rA, rB, rR2, rS, rFactor, rN []float64
@@ -299,6 +323,7 @@ func computeFluxes(e *Env) (*Output, error) {
 		}
 		// Progress after every series, so that a page running on one
 		// goroutine can yield to the browser between bootstraps.
+		cur = j
 		e.Report(j, len(jobs))
 		reps := v.SeriesReplicates
 		if jb.sum {
@@ -307,7 +332,8 @@ func computeFluxes(e *Env) (*Output, error) {
 		if rough {
 			reps = 0
 		}
-		r, u, w, err := v.estimateN(jb.ser, reps)
+		ser := jb.build()
+		r, u, w, err := tv.estimateN(ser, reps)
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil && (jb.sum || r == nil) {
 			if jb.sum {
@@ -333,8 +359,8 @@ func computeFluxes(e *Env) (*Output, error) {
 			cover, out.Warnings = f, append(out.Warnings, w...)
 		}
 		runoff = withInterval("runoff", "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
-		figs = append(figs, withInterval(jb.ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
-			withInterval(jb.ser.Name+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 }))
+		figs = append(figs, withInterval(ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
+			withInterval(ser.Name+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 }))
 	}
 	e.Report(len(jobs), len(jobs))
 	if runoff.Name != "" {
