@@ -106,6 +106,9 @@ func computeSamples(e *Env) (*Output, error) {
 		case st == qc.Flagged:
 			flags[i] = fmt.Sprintf("|NICB| above %g %%", s.NICBFlag)
 			flagged++
+		case st == qc.Incomplete: // kept, without a charge balance
+			flags[i] = reports[i].Flag()
+			flagged++
 		}
 		if !v.Use[i] {
 			left++

@@ -2,6 +2,8 @@ package notebook
 
 import (
 	"bytes"
+	"context"
+	"math"
 	"os"
 	"strings"
 	"testing"
@@ -121,5 +123,62 @@ func TestSamplesCellNoneUsed(t *testing.T) {
 	tab, _ := ReadTable("ambig.csv", tests[0].text)
 	if _, err := computeSamplesOf(t, tab, "day-first"); err != nil {
 		t.Errorf("day-first: %v", err)
+	}
+}
+
+// TestSamplesCellNoneUsedShown follows a samples cell where no sample
+// enters the budget through the document: its output (the table with the
+// flag column) is there for the page, its state is a problem, and the
+// cells below it wait.
+func TestSamplesCellNoneUsedShown(t *testing.T) {
+	d := New("none used")
+	sc, err := d.Add(KindSamples, -1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rc, err := d.Add(KindAtmosphere, -1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	tab, err := ReadTable("ambig.csv", "Sample,Date,Na (mg/L),Cl (mg/L),Alkalinity (meq/L)\nA1,01/02/2024,4.1,5,0.2\n")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err = d.SetTable(sc.ID, tab); err != nil {
+		t.Fatal(err)
+	}
+	d.Recompute(context.Background(), nil)
+	if st, err := d.Status(sc.ID); st != Problem || err == nil {
+		t.Fatalf("samples cell: %v, %v; want a problem", st, err)
+	}
+	out := d.Output(sc.ID)
+	if out == nil || out.Table("samples").Column("flag") == nil {
+		t.Fatalf("the samples cell's output is not shown with its problem: %+v", out)
+	}
+	if st, _ := d.Status(rc.ID); st != Waiting {
+		t.Errorf("the cell below is %v, want waiting", st)
+	}
+}
+
+// TestSamplesCellIncomplete: a sample without alkalinity has no charge
+// balance; it is kept in the budget and flagged as missing a major ion.
+func TestSamplesCellIncomplete(t *testing.T) {
+	tab, err := ReadTable("incomplete.csv", "Sample,Date,Na (mg/L),K (mg/L),Ca (mg/L),Mg (mg/L),Cl (mg/L),SO4 (mg/L)\nA1,2024-01-01,4.1,0.4,6,1.2,5,3\n")
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, err := computeSamplesOf(t, tab, "auto")
+	if err != nil {
+		t.Fatal(err)
+	}
+	st := out.Table("samples")
+	if f := st.Column("flag").Text[0]; !strings.Contains(f, "missing major ion(s)") || !strings.Contains(f, "alkalinity") {
+		t.Errorf("flag %q, want missing major ion(s) naming alkalinity", f)
+	}
+	if v := st.Column("NICB").Num[0]; !math.IsNaN(v) {
+		t.Errorf("NICB %v without alkalinity, want none", v)
+	}
+	if out.Figure("samples flagged").Median != 1 || out.Figure("samples left out").Median != 0 {
+		t.Errorf("flagged %v, left out %v; want 1 and 0", out.Figure("samples flagged").Median, out.Figure("samples left out").Median)
 	}
 }

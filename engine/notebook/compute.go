@@ -152,15 +152,17 @@ func (d *Document) Status(id string) (State, error) {
 	return Problem, s.err
 }
 
-// Output returns the output of a computed cell, or nil when it is stale or
-// has a problem. While the cell is Refining it is the output of the quick
-// pass (Output.Rough set).
+// Output returns the output of a computed cell, or nil when it is stale.
+// A cell with a problem may still have an output that shows why (the
+// samples cell keeps its table and flags when no sample enters the
+// budget); cells below it wait all the same. While the cell is Refining it
+// is the output of the quick pass (Output.Rough set).
 func (d *Document) Output(id string) *Output {
 	if d.Cell(id) == nil {
 		return nil
 	}
 	s := d.st(id)
-	if s.stale || s.err != nil {
+	if s.stale {
 		return nil
 	}
 	return s.out
