@@ -60,7 +60,7 @@ func PresetSilicate() EndMember {
 func PresetGranitic() EndMember {
 	e := PresetSilicate()
 	e.Name = "silicate (granitic)"
-	e.Ref = "methods brief §6.2 lithology ranges (from memory); Faure 1986 (from memory); K/Na assumed"
+	e.Ref = "granitic Ca/Na, Mg/Na: trade ranges from memory, no published source to hand (calibrate on local monolithologic streams); 87Sr/86Sr: Faure 1986 (from memory); K/Na assumed"
 	e.Ratio[CaNa] = Range(0.15, 0.3, 0.5)
 	e.Ratio[MgNa] = Range(0.1, 0.2, 0.5)
 	e.Ratio[Sr87Sr86] = Range(0.710, 0.730, 0.760)
@@ -76,7 +76,7 @@ func PresetGranitic() EndMember {
 func PresetBasaltic() EndMember {
 	e := PresetSilicate()
 	e.Name = "silicate (basaltic)"
-	e.Ref = "methods brief §6.2 lithology ranges (from memory); Faure 1986 (from memory); upper bounds and K/Na assumed"
+	e.Ref = "basaltic Ca/Na, Mg/Na: trade ranges from memory, no published source to hand (calibrate on local monolithologic streams); 87Sr/86Sr: Faure 1986 (from memory); upper bounds and K/Na assumed"
 	e.Ratio[CaNa] = Range(0.7, 1.0, 3)
 	e.Ratio[MgNa] = Range(0.5, 1.0, 3)
 	e.Ratio[KNa] = Range(0.02, 0.1, 0.3)
