@@ -140,6 +140,12 @@ func (c *CellCard) FillResult(el js.Value, ti int) {
 	mountHTML(el, htmlKey(text), text)
 }
 
+// FillTable mounts the input table into its element and takes its edits.
+func (c *CellCard) FillTable(el js.Value) {
+	listenTable(el, c.R)
+	mountTable(el, c.DataTable())
+}
+
 // FillParam fills the select of a setting with its choices.
 func (c *CellCard) FillParam(el js.Value, p ParamView) {
 	choices := make([]Choice, len(p.Options))
@@ -177,24 +183,6 @@ func (c *CellCard) OnCheck(key string, e vugu.DOMEvent) {
 
 // OnTitle renames the cell.
 func (c *CellCard) OnTitle(e vugu.DOMEvent) { c.R.S.SetTitle(c.V.ID, e.PropString("target", "value")) }
-
-// OnValue sets one table cell.
-func (c *CellCard) OnValue(row, col int, e vugu.DOMEvent) {
-	defer c.R.guard()
-	c.R.S.SetValue(c.V.ID, row, col, e.PropString("target", "value"))
-}
-
-// OnColumn renames a column.
-func (c *CellCard) OnColumn(col int, e vugu.DOMEvent) {
-	defer c.R.guard()
-	c.R.S.SetColumn(c.V.ID, col, e.PropString("target", "value"))
-}
-
-// OnUnit sets a column's unit.
-func (c *CellCard) OnUnit(col int, e vugu.DOMEvent) {
-	defer c.R.guard()
-	c.R.S.SetUnit(c.V.ID, col, e.PropString("target", "value"))
-}
 
 // OnPaste adds rows pasted into the paste box at once.
 func (c *CellCard) OnPaste(e vugu.DOMEvent) {

@@ -79,3 +79,72 @@ func TestHTMLKey(t *testing.T) {
 		}
 	}
 }
+
+// TestDataTableHTML checks the HTML of an input table: the id and classes
+// the page's style and tests rely on, one field per column name, unit and
+// value, each saying what it edits, and every text escaped.
+func TestDataTableHTML(t *testing.T) {
+	tab := DataTable{Cell: "samples", Columns: 2, Widths: []int{2, 3}, Fields: []Field{
+		{"sample", "colname", "Column name"}, {"Na", "colname bad", "Column name"},
+		{"", "unit", "Unit"}, {"µmol/L", "unit", "Unit"},
+		{`<b>CV-1</b>`, "", "row 1, sample"}, {"210", "bad", "row 1, Na"},
+		{"CV-2", "", "row 2, sample"}, {"195", "", "row 2, Na"}, {"extra", "", "row 2, "},
+	}}
+	got := tab.HTML()
+	tests := []struct{ name, want string }{
+		{"table", `<table class="data" id="table-samples"><thead><tr><th class="rownum">row</th><th><input class="colname"`},
+		{"column name", `<input class="colname bad" aria-label="Column name" value="Na" data-edit="column" data-row="-1" data-col="1">`},
+		{"units row", `<tr class="units"><th class="rownum">unit</th><th><input class="unit" aria-label="Unit" value="" data-edit="unit" data-row="-1" data-col="0">`},
+		{"markup as text", `value="&lt;b&gt;CV-1&lt;/b&gt;" data-edit="value" data-row="0" data-col="0">`},
+		{"bad value", `<input class="bad" aria-label="row 1, Na" value="210" data-edit="value" data-row="0" data-col="1">`},
+		{"row number", `<tr><td class="rownum">2</td>`},
+		{"extra value kept", `value="extra" data-edit="value" data-row="1" data-col="2">`},
+		{"remove button", `<td><button class="row-remove" title="Remove row" data-edit="remove" data-row="1">×</button></td></tr></tbody></table>`},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if !strings.Contains(got, tt.want) {
+				t.Errorf("got %s\nwant it to hold %s", got, tt.want)
+			}
+		})
+	}
+	if n := strings.Count(got, "<input"); n != len(tab.Fields) {
+		t.Errorf("inputs: got %d, want one per field (%d)", n, len(tab.Fields))
+	}
+}
+
+// TestDataTableKeys checks what makes an input table be written anew
+// (its shape) and what only updates its fields (its key).
+func TestDataTableKeys(t *testing.T) {
+	base := DataTable{Cell: "samples", Columns: 1, Widths: []int{1}, Fields: []Field{{"Na", "colname", "Column name"}, {"", "unit", "Unit"}, {"210", "", "row 1, Na"}}}
+	with := func(f func(*DataTable)) DataTable {
+		t := base
+		t.Widths = append([]int(nil), base.Widths...)
+		t.Fields = append([]Field(nil), base.Fields...)
+		f(&t)
+		return t
+	}
+	tests := []struct {
+		name               string
+		t                  DataTable
+		sameShape, sameKey bool
+	}{
+		{"unchanged", with(func(*DataTable) {}), true, true},
+		{"value", with(func(t *DataTable) { t.Fields[2].Value = "211" }), true, false},
+		{"class", with(func(t *DataTable) { t.Fields[2].Class = "bad" }), true, false},
+		{"label", with(func(t *DataTable) { t.Fields[2].Label = "row 1, K" }), true, false},
+		{"other cell", with(func(t *DataTable) { t.Cell = "rain" }), false, false},
+		{"more rows", with(func(t *DataTable) { t.Widths = append(t.Widths, 1); t.Fields = append(t.Fields, Field{}) }), false, false},
+		{"wider row", with(func(t *DataTable) { t.Widths[0] = 2; t.Fields = append(t.Fields, Field{}) }), false, false},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if got := tt.t.shape() == base.shape(); got != tt.sameShape {
+				t.Errorf("same shape: got %v, want %v", got, tt.sameShape)
+			}
+			if got := tt.t.key() == base.key(); got != tt.sameKey {
+				t.Errorf("same key: got %v, want %v", got, tt.sameKey)
+			}
+		})
+	}
+}

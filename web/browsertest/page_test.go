@@ -512,10 +512,7 @@ func TestImportProblemBesideTable(t *testing.T) {
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)
-	col := eval[int](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].findIndex(e => e.value === "Na")`)
-	if col < 0 {
-		t.Fatal("the demo's samples table has no Na column")
-	}
+	col := naColumn(t, ctx)
 	sel := fmt.Sprintf("section.kind-samples table.data tbody tr:nth-child(3) td:nth-child(%d) input", col+2)
 	edit(t, ctx, sel, "abc")
 	text := eval[string](t, ctx, `(document.querySelector("section.kind-samples .table-problems") || {textContent: ""}).textContent`)
@@ -664,4 +661,62 @@ func TestUnreadableAutosaveIsKept(t *testing.T) {
 	if name, _ := co2Figure(t, ctx); name == "" {
 		t.Errorf("the demo did not open in its place")
 	}
+}
+
+// TestInputTableEdits edits the samples table as a user would: a value
+// typed in one field keeps the focus in the next field (the table is
+// updated in place, not written anew), and a row's remove button removes it.
+func TestInputTableEdits(t *testing.T) {
+	ctx := openDemo(t)
+	col := naColumn(t, ctx)
+	field := func(row int) string {
+		return fmt.Sprintf("section.kind-samples table.data tbody tr:nth-child(%d) td:nth-child(%d) input", row, col+2)
+	}
+	// Type in row 2, then move to row 3 (as Tab does): change fires on row 2.
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { const a = document.querySelector(%q), b = document.querySelector(%q);
+		a.focus(); a.value = "123.5"; a.dispatchEvent(new Event("input", {bubbles: true}));
+		b.focus(); b.lixivMark = 1; a.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, field(2), field(3)))
+	waitGen(t, ctx, gen)
+	if v := eval[string](t, ctx, fmt.Sprintf(`document.querySelector(%q).value`, field(2))); v != "123.5" {
+		t.Errorf("edited field: got %q, want 123.5", v)
+	}
+	if !eval[bool](t, ctx, `document.activeElement.lixivMark === 1`) {
+		t.Errorf("the field moved to lost the focus after the edit was painted")
+	}
+	before := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`)
+	first := eval[string](t, ctx, `document.querySelector("section.kind-samples table.data tbody tr:nth-child(2) td:nth-child(2) input").value`)
+	gen = eval[string](t, ctx, `document.body.dataset.gen`)
+	eval[bool](t, ctx, `document.querySelector("section.kind-samples table.data tbody tr:first-child .row-remove").click() || true`)
+	waitGen(t, ctx, gen)
+	var nBefore, nAfter int
+	fmt.Sscanf(before, "%d", &nBefore)
+	fmt.Sscanf(eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`), "%d", &nAfter)
+	if nAfter != nBefore-1 {
+		t.Errorf("rows after removing one: got %d, want %d", nAfter, nBefore-1)
+	}
+	if got := eval[string](t, ctx, `document.querySelector("section.kind-samples table.data tbody tr:first-child td:nth-child(2) input").value`); got != first {
+		t.Errorf("first row after removing the first: got %q, want the former second row's %q", got, first)
+	}
+}
+
+// naColumn returns the index of the Na column of the samples input table.
+func naColumn(t testing.TB, ctx context.Context) int {
+	t.Helper()
+	col := eval[int](t, ctx, `[...document.querySelectorAll("section.kind-samples table.data thead tr:first-child input")].findIndex(e => e.value === "Na")`)
+	if col < 0 {
+		t.Fatal("the demo's samples table has no Na column")
+	}
+	return col
+}
+
+// openDemo starts a server and a browser, and opens the demo budget,
+// computed.
+func openDemo(t testing.TB) context.Context {
+	t.Helper()
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	return ctx
 }

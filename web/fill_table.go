@@ -1,0 +1,235 @@
+package web
+
+import (
+	"hash/fnv"
+	"strconv"
+	"strings"
+
+	"github.com/vugu/vugu/js"
+)
+
+// The input table of a cell (table.data) is mounted as HTML too: its
+// fields are the bulk of the page's form fields. One listener on the
+// mount element takes the changes of every field and the clicks on the
+// row buttons, and hands them to the session as vugu's own handlers would.
+// After an edit the fields are updated in place (value, class, label), so
+// the field that has the focus keeps it; the table is written anew only
+// when its shape (cell, rows, columns) changes.
+
+// Field is one form field of an input table, in document order: the
+// column names, then the units, then the values row by row.
+type Field struct{ Value, Class, Label string }
+
+// DataTable is the input table of a cell as the page shows it.
+type DataTable struct {
+	Cell    string
+	Columns int
+	Widths  []int // fields in each shown row (rows longer than the header keep their extra values)
+	Fields  []Field
+}
+
+// DataTable gathers the shown part of the cell's input table.
+func (c *CellCard) DataTable() DataTable {
+	cols := c.V.Table.Columns
+	rows := c.Rows()
+	t := DataTable{Cell: c.V.ID, Columns: len(cols), Widths: make([]int, len(rows))}
+	t.Fields = make([]Field, 0, len(cols)*(len(rows)+2))
+	for j, h := range cols {
+		t.Fields = append(t.Fields, Field{h, c.HeadClass(j), "Column name"})
+	}
+	for j := range cols {
+		t.Fields = append(t.Fields, Field{c.Unit(j), "unit", "Unit"})
+	}
+	for i, r := range rows {
+		cells := c.RowCells(r)
+		t.Widths[i] = len(cells)
+		for j, v := range cells {
+			t.Fields = append(t.Fields, Field{v, c.CellClass(i, j), c.CellLabel(i, j)})
+		}
+	}
+	return t
+}
+
+// shape is the key of what the table's HTML holds besides its fields.
+func (t DataTable) shape() string {
+	var b strings.Builder
+	b.WriteString(t.Cell + "|" + strconv.Itoa(t.Columns))
+	for _, w := range t.Widths {
+		b.WriteString("," + strconv.Itoa(w))
+	}
+	return b.String()
+}
+
+// key is a digest of the whole table, fields included.
+func (t DataTable) key() string {
+	h := fnv.New64a()
+	h.Write([]byte(t.shape()))
+	for _, f := range t.Fields {
+		h.Write([]byte{0})
+		h.Write([]byte(f.Value))
+		h.Write([]byte{1})
+		h.Write([]byte(f.Class))
+		h.Write([]byte{2})
+		h.Write([]byte(f.Label))
+	}
+	return strconv.FormatUint(h.Sum64(), 36)
+}
+
+// HTML writes the table: <table class="data" id="table-<cell>"> with a row
+// of column names, a row of units, the value rows, and a remove button at
+// the end of each row. Each field and button says what it edits in its
+// data-edit, data-row and data-col attributes.
+func (t DataTable) HTML() string {
+	var b strings.Builder
+	field := func(f Field, edit string, row, col int) {
+		b.WriteString(`<input class="`)
+		b.WriteString(esc(f.Class))
+		b.WriteString(`" aria-label="`)
+		b.WriteString(esc(f.Label))
+		b.WriteString(`" value="`)
+		b.WriteString(esc(f.Value))
+		b.WriteString(`" data-edit="` + edit + `" data-row="` + strconv.Itoa(row) + `" data-col="` + strconv.Itoa(col) + `">`)
+	}
+	b.WriteString(`<table class="data" id="`)
+	b.WriteString(esc("table-" + t.Cell))
+	b.WriteString(`"><thead><tr><th class="rownum">row</th>`)
+	k := 0
+	for j := 0; j < t.Columns; j++ {
+		b.WriteString("<th>")
+		field(t.Fields[k], "column", -1, j)
+		b.WriteString("</th>")
+		k++
+	}
+	b.WriteString(`<th></th></tr><tr class="units"><th class="rownum">unit</th>`)
+	for j := 0; j < t.Columns; j++ {
+		b.WriteString("<th>")
+		field(t.Fields[k], "unit", -1, j)
+		b.WriteString("</th>")
+		k++
+	}
+	b.WriteString(`<th></th></tr></thead><tbody>`)
+	for i, w := range t.Widths {
+		b.WriteString(`<tr><td class="rownum">` + strconv.Itoa(i+1) + "</td>")
+		for j := 0; j < w; j++ {
+			b.WriteString("<td>")
+			field(t.Fields[k], "value", i, j)
+			b.WriteString("</td>")
+			k++
+		}
+		b.WriteString(`<td><button class="row-remove" title="Remove row" data-edit="remove" data-row="` + strconv.Itoa(i) + `">×</button></td></tr>`)
+	}
+	b.WriteString("</tbody></table>")
+	return b.String()
+}
+
+// shapeKey is the JS property, beside mountKey, that holds a mounted
+// table's shape.
+const shapeKey = "__lixivShape"
+
+// mountTable puts the input table into el: the whole table when its shape
+// changed, else only the fields that changed.
+func mountTable(el js.Value, t DataTable) {
+	key, shape := t.key(), t.shape()
+	first := el.Get("firstChild")
+	if first.Truthy() && first.Get(mountKey).Type() == js.TypeString {
+		if first.Get(mountKey).String() == key {
+			return
+		}
+		if s := first.Get(shapeKey); s.Type() == js.TypeString && s.String() == shape && updateFields(first, t.Fields) {
+			first.Set(mountKey, key)
+			return
+		}
+	}
+	el.Set("innerHTML", t.HTML())
+	if first = el.Get("firstChild"); first.Truthy() {
+		first.Set(mountKey, key)
+		first.Set(shapeKey, shape)
+	}
+}
+
+// updateFields sets the value, class and label of each input of table
+// that differs from fields. It reports false when the inputs do not match
+// the fields one for one.
+func updateFields(table js.Value, fields []Field) bool {
+	inputs := table.Call("querySelectorAll", "input")
+	if inputs.Length() != len(fields) {
+		return false
+	}
+	for i, f := range fields {
+		in := inputs.Index(i)
+		if in.Get("value").String() != f.Value {
+			in.Set("value", f.Value)
+		}
+		if in.Get("className").String() != f.Class {
+			in.Set("className", f.Class)
+		}
+		if in.Call("getAttribute", "aria-label").String() != f.Label {
+			in.Call("setAttribute", "aria-label", f.Label)
+		}
+	}
+	return true
+}
+
+// tableListener is the one listener of every mounted input table.
+var tableListener struct {
+	root *Root
+	fn   js.Func
+}
+
+// listenTable makes el hand the edits of its input table to the session of
+// root, once.
+func listenTable(el js.Value, root *Root) {
+	if tableListener.root != root {
+		tableListener.root = root
+		tableListener.fn = js.FuncOf(func(_ js.Value, args []js.Value) any {
+			if len(args) > 0 {
+				onTableEvent(root, args[0])
+			}
+			return nil
+		})
+	}
+	if el.Get("__lixivListener").Truthy() {
+		return
+	}
+	el.Call("addEventListener", "change", tableListener.fn.Value)
+	el.Call("addEventListener", "click", tableListener.fn.Value)
+	el.Set("__lixivListener", true)
+}
+
+// onTableEvent applies a change of a field, or a click on a row's remove
+// button, of a mounted input table.
+func onTableEvent(root *Root, ev js.Value) {
+	target := ev.Get("target")
+	ds := target.Get("dataset")
+	if !ds.Truthy() || ds.Get("edit").Type() != js.TypeString {
+		return
+	}
+	edit, kind := ds.Get("edit").String(), ev.Get("type").String()
+	if (kind == "click") != (edit == "remove") {
+		return
+	}
+	table := target.Call("closest", "table.data")
+	if !table.Truthy() {
+		return
+	}
+	cell := strings.TrimPrefix(table.Get("id").String(), "table-")
+	row, _ := strconv.Atoi(ds.Get("row").String())
+	col, _ := strconv.Atoi(ds.Get("col").String())
+	value := ""
+	if edit != "remove" {
+		value = target.Get("value").String()
+	}
+	root.env.Lock()
+	defer root.env.UnlockRender()
+	defer root.guard()
+	switch edit {
+	case "value":
+		root.S.SetValue(cell, row, col, value)
+	case "column":
+		root.S.SetColumn(cell, col, value)
+	case "unit":
+		root.S.SetUnit(cell, col, value)
+	case "remove":
+		root.S.RemoveRow(cell, row)
+	}
+}
