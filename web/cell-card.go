@@ -67,13 +67,8 @@ func (c *CellCard) ResultColumns(ti int) []*notebook.Column {
 
 // ResultRows returns the rows of output table ti that are shown, formatted.
 func (c *CellCard) ResultRows(ti int) [][]string {
-	t := c.V.Results[ti]
 	cols := c.ResultColumns(ti)
-	n := t.Len()
-	if !c.R.S.expanded(c.V.ID, ti) && n > foldedRows {
-		n = foldedRows
-	}
-	rows := make([][]string, n)
+	rows := make([][]string, c.resultLen(ti))
 	for i := range rows {
 		row := make([]string, len(cols))
 		for j, col := range cols {
@@ -88,6 +83,15 @@ func (c *CellCard) ResultRows(ti int) [][]string {
 		rows[i] = row
 	}
 	return rows
+}
+
+// resultLen is how many rows of output table ti are shown.
+func (c *CellCard) resultLen(ti int) int {
+	n := c.V.Results[ti].Len()
+	if !c.R.S.expanded(c.V.ID, ti) && n > foldedRows {
+		n = foldedRows
+	}
+	return n
 }
 
 // ResultHidden says whether output table ti has rows or columns folded away.
@@ -132,12 +136,31 @@ func (c *CellCard) CanPaste() bool {
 
 // Fill mounts a chart's SVG into its element when it changed (the
 // external-DOM pattern: vugu never touches the element's children).
-func (c *CellCard) Fill(el js.Value, ch ChartView) { mountHTML(el, ch.Key, ch.SVG) }
+func (c *CellCard) Fill(el js.Value, ch ChartView) {
+	mountHTML(el, ch.Key, func() string { return ch.SVG })
+}
 
 // FillResult mounts output table ti into its element when its text changed.
 func (c *CellCard) FillResult(el js.Value, ti int) {
-	text := ResultHTML(c.V.ID, c.V.Results[ti], c.ResultColumns(ti), c.ResultRows(ti))
-	mountHTML(el, htmlKey(text), text)
+	t, cols, n := c.V.Results[ti], c.ResultColumns(ti), c.resultLen(ti)
+	d := newDigest()
+	d.str(c.V.ID)
+	d.str(t.Name)
+	d.num(float64(n))
+	for _, col := range cols {
+		d.str(col.Name)
+		d.str(col.Unit)
+		for i := 0; i < n; i++ {
+			if col.Text != nil {
+				if i < len(col.Text) {
+					d.str(col.Text[i])
+				}
+			} else if i < len(col.Num) {
+				d.num(col.Num[i])
+			}
+		}
+	}
+	mountHTML(el, d.key(), func() string { return ResultHTML(c.V.ID, t, cols, c.ResultRows(ti)) })
 }
 
 // FillTable mounts the input table into its element and takes its edits.
@@ -411,15 +434,6 @@ func (c *CellCard) HeadClass(col int) string {
 		return "colname bad"
 	}
 	return "colname"
-}
-
-// CellLabel names a table cell for screen readers: "row 3, Na".
-func (c *CellCard) CellLabel(row, col int) string {
-	name := ""
-	if col < len(c.V.Table.Columns) {
-		name = c.V.Table.Columns[col]
-	}
-	return fmt.Sprintf("row %d, %s", row+1, name)
 }
 
 // OutputsClass dims outputs that are from before the last change.

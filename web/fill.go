@@ -1,8 +1,8 @@
 package web
 
 import (
-	"hash/fnv"
 	"html"
+	"math"
 	"strconv"
 	"strings"
 
@@ -21,27 +21,57 @@ import (
 // that holds the key of the HTML it was made from.
 const mountKey = "__lixivKey"
 
-// mountHTML puts text (HTML) into el unless el already holds the text of
-// that key (htmlKey of the text). The key sits on the first node mounted,
-// not on el: vugu syncs by position and may reuse el for another element,
-// and then the children are no longer ours.
-func mountHTML(el js.Value, key, text string) {
+// mountHTML puts the HTML that text makes into el unless el already holds
+// the HTML of that key. The key sits on the first node mounted, not on el:
+// vugu syncs by position and may reuse el for another element, and then
+// the children are no longer ours. text is called only when the HTML is
+// written, so a render that changes nothing costs the key alone.
+func mountHTML(el js.Value, key string, text func() string) {
 	if first := el.Get("firstChild"); first.Truthy() {
 		if k := first.Get(mountKey); k.Type() == js.TypeString && k.String() == key {
 			return
 		}
 	}
-	el.Set("innerHTML", text)
+	el.Set("innerHTML", text())
 	if first := el.Get("firstChild"); first.Truthy() {
 		first.Set(mountKey, key)
 	}
 }
 
-// htmlKey is a short digest of a block of HTML, with its length.
+// digest is a 64-bit FNV-1a hash of what a mounted block is made from.
+type digest uint64
+
+const (
+	fnvOffset digest = 14695981039346656037
+	fnvPrime  digest = 1099511628211
+)
+
+func newDigest() digest { return fnvOffset }
+
+// str adds a text and its end.
+func (d *digest) str(s string) {
+	for i := 0; i < len(s); i++ {
+		*d = (*d ^ digest(s[i])) * fnvPrime
+	}
+	*d = (*d ^ 0xff) * fnvPrime // no UTF-8 byte is 0xff: texts cannot run into each other
+}
+
+// num adds a number's bits.
+func (d *digest) num(f float64) {
+	b := math.Float64bits(f)
+	for i := 0; i < 64; i += 8 {
+		*d = (*d ^ digest(byte(b>>i))) * fnvPrime
+	}
+}
+
+// key is the digest as a short text.
+func (d digest) key() string { return strconv.FormatUint(uint64(d), 36) }
+
+// htmlKey is the key of a block of HTML.
 func htmlKey(text string) string {
-	h := fnv.New64a()
-	h.Write([]byte(text))
-	return strconv.FormatUint(h.Sum64(), 36) + "." + strconv.Itoa(len(text))
+	d := newDigest()
+	d.str(text)
+	return d.key()
 }
 
 // esc escapes text for HTML content and attribute values.
@@ -97,14 +127,16 @@ func OptionsHTML(choices []Choice, current string) string {
 // mountOptions fills a select with its options and shows the current
 // choice (again after a rejected change), when it is one of them.
 func mountOptions(el js.Value, choices []Choice, current string) {
-	text := OptionsHTML(choices, current)
-	mountHTML(el, htmlKey(text), text)
+	d := newDigest()
+	d.str(current)
+	found := false
 	for _, c := range choices {
-		if c.Value == current {
-			if el.Get("value").String() != current {
-				el.Set("value", current)
-			}
-			return
-		}
+		d.str(c.Value)
+		d.str(c.Label)
+		found = found || c.Value == current
+	}
+	mountHTML(el, d.key(), func() string { return OptionsHTML(choices, current) })
+	if found && el.Get("value").String() != current {
+		el.Set("value", current)
 	}
 }

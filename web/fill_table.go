@@ -1,7 +1,6 @@
 package web
 
 import (
-	"hash/fnv"
 	"strconv"
 	"strings"
 
@@ -18,7 +17,7 @@ import (
 
 // Field is one form field of an input table, in document order: the
 // column names, then the units, then the values row by row.
-type Field struct{ Value, Class, Label string }
+type Field struct{ Value, Class string }
 
 // DataTable is the input table of a cell as the page shows it.
 type DataTable struct {
@@ -35,19 +34,42 @@ func (c *CellCard) DataTable() DataTable {
 	t := DataTable{Cell: c.V.ID, Columns: len(cols), Widths: make([]int, len(rows))}
 	t.Fields = make([]Field, 0, len(cols)*(len(rows)+2))
 	for j, h := range cols {
-		t.Fields = append(t.Fields, Field{h, c.HeadClass(j), "Column name"})
+		t.Fields = append(t.Fields, Field{h, c.HeadClass(j)})
 	}
 	for j := range cols {
-		t.Fields = append(t.Fields, Field{c.Unit(j), "unit", "Unit"})
+		t.Fields = append(t.Fields, Field{c.Unit(j), "unit"})
 	}
 	for i, r := range rows {
 		cells := c.RowCells(r)
 		t.Widths[i] = len(cells)
 		for j, v := range cells {
-			t.Fields = append(t.Fields, Field{v, c.CellClass(i, j), c.CellLabel(i, j)})
+			t.Fields = append(t.Fields, Field{v, c.CellClass(i, j)})
 		}
 	}
 	return t
+}
+
+// Labels names each field for screen readers, in the order of Fields:
+// "Column name", "Unit", then "row 3, Na".
+func (t DataTable) Labels() []string {
+	labels := make([]string, 0, len(t.Fields))
+	for j := 0; j < t.Columns; j++ {
+		labels = append(labels, "Column name")
+	}
+	for j := 0; j < t.Columns; j++ {
+		labels = append(labels, "Unit")
+	}
+	for i, w := range t.Widths {
+		row := "row " + strconv.Itoa(i+1) + ", "
+		for j := 0; j < w; j++ {
+			name := ""
+			if j < t.Columns {
+				name = t.Fields[j].Value
+			}
+			labels = append(labels, row+name)
+		}
+	}
+	return labels
 }
 
 // shape is the key of what the table's HTML holds besides its fields.
@@ -60,19 +82,16 @@ func (t DataTable) shape() string {
 	return b.String()
 }
 
-// key is a digest of the whole table, fields included.
+// key is a digest of the whole table, fields included (their labels
+// follow from the shape and the column names).
 func (t DataTable) key() string {
-	h := fnv.New64a()
-	h.Write([]byte(t.shape()))
+	d := newDigest()
+	d.str(t.shape())
 	for _, f := range t.Fields {
-		h.Write([]byte{0})
-		h.Write([]byte(f.Value))
-		h.Write([]byte{1})
-		h.Write([]byte(f.Class))
-		h.Write([]byte{2})
-		h.Write([]byte(f.Label))
+		d.str(f.Value)
+		d.str(f.Class)
 	}
-	return strconv.FormatUint(h.Sum64(), 36)
+	return d.key()
 }
 
 // HTML writes the table: <table class="data" id="table-<cell>"> with a row
@@ -81,11 +100,13 @@ func (t DataTable) key() string {
 // data-edit, data-row and data-col attributes.
 func (t DataTable) HTML() string {
 	var b strings.Builder
+	labels := t.Labels()
+	k := 0
 	field := func(f Field, edit string, row, col int) {
 		b.WriteString(`<input class="`)
 		b.WriteString(esc(f.Class))
 		b.WriteString(`" aria-label="`)
-		b.WriteString(esc(f.Label))
+		b.WriteString(esc(labels[k]))
 		b.WriteString(`" value="`)
 		b.WriteString(esc(f.Value))
 		b.WriteString(`" data-edit="` + edit + `" data-row="` + strconv.Itoa(row) + `" data-col="` + strconv.Itoa(col) + `">`)
@@ -93,7 +114,6 @@ func (t DataTable) HTML() string {
 	b.WriteString(`<table class="data" id="`)
 	b.WriteString(esc("table-" + t.Cell))
 	b.WriteString(`"><thead><tr><th class="rownum">row</th>`)
-	k := 0
 	for j := 0; j < t.Columns; j++ {
 		b.WriteString("<th>")
 		field(t.Fields[k], "column", -1, j)
@@ -135,7 +155,7 @@ func mountTable(el js.Value, t DataTable) {
 		if first.Get(mountKey).String() == key {
 			return
 		}
-		if s := first.Get(shapeKey); s.Type() == js.TypeString && s.String() == shape && updateFields(first, t.Fields) {
+		if s := first.Get(shapeKey); s.Type() == js.TypeString && s.String() == shape && updateFields(first, t) {
 			first.Set(mountKey, key)
 			return
 		}
@@ -148,14 +168,15 @@ func mountTable(el js.Value, t DataTable) {
 }
 
 // updateFields sets the value, class and label of each input of table
-// that differs from fields. It reports false when the inputs do not match
-// the fields one for one.
-func updateFields(table js.Value, fields []Field) bool {
+// that differs from t's fields. It reports false when the inputs do not
+// match the fields one for one.
+func updateFields(table js.Value, t DataTable) bool {
 	inputs := table.Call("querySelectorAll", "input")
-	if inputs.Length() != len(fields) {
+	if inputs.Length() != len(t.Fields) {
 		return false
 	}
-	for i, f := range fields {
+	labels := t.Labels()
+	for i, f := range t.Fields {
 		in := inputs.Index(i)
 		if in.Get("value").String() != f.Value {
 			in.Set("value", f.Value)
@@ -163,8 +184,8 @@ func updateFields(table js.Value, fields []Field) bool {
 		if in.Get("className").String() != f.Class {
 			in.Set("className", f.Class)
 		}
-		if in.Call("getAttribute", "aria-label").String() != f.Label {
-			in.Call("setAttribute", "aria-label", f.Label)
+		if in.Call("getAttribute", "aria-label").String() != labels[i] {
+			in.Call("setAttribute", "aria-label", labels[i])
 		}
 	}
 	return true

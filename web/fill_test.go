@@ -1,6 +1,7 @@
 package web
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -64,6 +65,36 @@ func TestOptionsHTML(t *testing.T) {
 	}
 }
 
+// TestDigest checks that the key of a mounted block tells apart what it is
+// made from: texts split differently, numbers, and their order.
+func TestDigest(t *testing.T) {
+	key := func(add func(d *digest)) string {
+		d := newDigest()
+		add(&d)
+		return d.key()
+	}
+	tests := []struct {
+		name string
+		a, b func(d *digest)
+	}{
+		{"split", func(d *digest) { d.str("ab"); d.str("c") }, func(d *digest) { d.str("a"); d.str("bc") }},
+		{"empty text", func(d *digest) { d.str("") }, func(d *digest) {}},
+		{"numbers", func(d *digest) { d.num(1) }, func(d *digest) { d.num(1.0000000000000002) }},
+		{"order", func(d *digest) { d.num(1); d.num(2) }, func(d *digest) { d.num(2); d.num(1) }},
+		{"NaN", func(d *digest) { d.num(math.NaN()) }, func(d *digest) { d.num(0) }},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if key(tt.a) == key(tt.b) {
+				t.Errorf("both give the key %s", key(tt.a))
+			}
+			if key(tt.a) != key(tt.a) {
+				t.Errorf("the key is not stable")
+			}
+		})
+	}
+}
+
 // TestHTMLKey checks that the key of a mounted block tells texts apart.
 func TestHTMLKey(t *testing.T) {
 	texts := []string{"", "<td>1</td>", "<td>2</td>", "<td>1</td><td>1</td>"}
@@ -85,10 +116,10 @@ func TestHTMLKey(t *testing.T) {
 // value, each saying what it edits, and every text escaped.
 func TestDataTableHTML(t *testing.T) {
 	tab := DataTable{Cell: "samples", Columns: 2, Widths: []int{2, 3}, Fields: []Field{
-		{"sample", "colname", "Column name"}, {"Na", "colname bad", "Column name"},
-		{"", "unit", "Unit"}, {"µmol/L", "unit", "Unit"},
-		{`<b>CV-1</b>`, "", "row 1, sample"}, {"210", "bad", "row 1, Na"},
-		{"CV-2", "", "row 2, sample"}, {"195", "", "row 2, Na"}, {"extra", "", "row 2, "},
+		{"sample", "colname"}, {"Na", "colname bad"},
+		{"", "unit"}, {"µmol/L", "unit"},
+		{`<b>CV-1</b>`, ""}, {"210", "bad"},
+		{"CV-2", ""}, {"195", ""}, {"extra", ""},
 	}}
 	got := tab.HTML()
 	tests := []struct{ name, want string }{
@@ -98,7 +129,7 @@ func TestDataTableHTML(t *testing.T) {
 		{"markup as text", `value="&lt;b&gt;CV-1&lt;/b&gt;" data-edit="value" data-row="0" data-col="0">`},
 		{"bad value", `<input class="bad" aria-label="row 1, Na" value="210" data-edit="value" data-row="0" data-col="1">`},
 		{"row number", `<tr><td class="rownum">2</td>`},
-		{"extra value kept", `value="extra" data-edit="value" data-row="1" data-col="2">`},
+		{"extra value kept", `<input class="" aria-label="row 2, " value="extra" data-edit="value" data-row="1" data-col="2">`},
 		{"remove button", `<td><button class="row-remove" title="Remove row" data-edit="remove" data-row="1">×</button></td></tr></tbody></table>`},
 	}
 	for _, tt := range tests {
@@ -116,7 +147,7 @@ func TestDataTableHTML(t *testing.T) {
 // TestDataTableKeys checks what makes an input table be written anew
 // (its shape) and what only updates its fields (its key).
 func TestDataTableKeys(t *testing.T) {
-	base := DataTable{Cell: "samples", Columns: 1, Widths: []int{1}, Fields: []Field{{"Na", "colname", "Column name"}, {"", "unit", "Unit"}, {"210", "", "row 1, Na"}}}
+	base := DataTable{Cell: "samples", Columns: 1, Widths: []int{1}, Fields: []Field{{"Na", "colname"}, {"", "unit"}, {"210", ""}}}
 	with := func(f func(*DataTable)) DataTable {
 		t := base
 		t.Widths = append([]int(nil), base.Widths...)
@@ -132,7 +163,7 @@ func TestDataTableKeys(t *testing.T) {
 		{"unchanged", with(func(*DataTable) {}), true, true},
 		{"value", with(func(t *DataTable) { t.Fields[2].Value = "211" }), true, false},
 		{"class", with(func(t *DataTable) { t.Fields[2].Class = "bad" }), true, false},
-		{"label", with(func(t *DataTable) { t.Fields[2].Label = "row 1, K" }), true, false},
+		{"column name", with(func(t *DataTable) { t.Fields[0].Value = "K" }), true, false},
 		{"other cell", with(func(t *DataTable) { t.Cell = "rain" }), false, false},
 		{"more rows", with(func(t *DataTable) { t.Widths = append(t.Widths, 1); t.Fields = append(t.Fields, Field{}) }), false, false},
 		{"wider row", with(func(t *DataTable) { t.Widths[0] = 2; t.Fields = append(t.Fields, Field{}) }), false, false},
