@@ -43,23 +43,12 @@ func Apply(c chem.Composition, opt *Options) (Result, error) {
 	if err := r.atmosphere(opt); err != nil {
 		return r, err
 	}
-	r.Atm[chem.Cl] = math.Min(cl, r.ClCritical)
-	for _, s := range corrected {
-		r.Atm[s] = r.Atm[chem.Cl] * r.Ratios[s]
-	}
+	r.excess, r.policy = opt.Excess, opt.Negative
 
-	// Step 3: excess chloride.
-	r.ClExcess = cl - r.Atm[chem.Cl]
-	if r.ClExcess > 0 {
-		switch opt.Excess {
-		case Halite:
-			r.Evap[chem.Cl] = r.ClExcess
-			r.Evap[chem.Na] = r.ClExcess
-		case HumanInput:
-			r.Human[chem.Cl] = r.ClExcess
-			r.Human[chem.Na] = r.ClExcess
-			r.Warnings = append(r.Warnings, fmt.Errorf("%w: %.4g µmol/L Cl and Na above Cl* = %.4g µmol/L", ErrHumanInput, r.ClExcess, r.ClCritical))
-		}
+	// Step 3: atmospheric input and excess chloride.
+	r.remove()
+	if r.ClExcess > 0 && opt.Excess == HumanInput {
+		r.Warnings = append(r.Warnings, fmt.Errorf("%w: %.4g µmol/L Cl and Na above Cl* = %.4g µmol/L", ErrHumanInput, r.ClExcess, r.ClCritical))
 	}
 
 	// Step 4: sulfate.
@@ -68,10 +57,36 @@ func Apply(c chem.Composition, opt *Options) (Result, error) {
 	}
 
 	// Step 5: residuals and the negative policy.
-	for s := range c {
-		r.Residual[s] = c[s] - r.Atm[s] - r.Evap[s] - r.Human[s]
-	}
+	r.residuals()
 	return r, r.negatives(opt.Negative)
+}
+
+// remove fills the atmospheric input from Ratios and ClCritical, and gives
+// the chloride above Cl* (with its Na) to halite or human input.
+func (r *Result) remove() {
+	cl := r.Input[chem.Cl]
+	r.Atm[chem.Cl] = math.Min(cl, r.ClCritical)
+	for _, s := range corrected {
+		r.Atm[s] = r.Atm[chem.Cl] * r.Ratios[s]
+	}
+	r.ClExcess = cl - r.Atm[chem.Cl]
+	if r.ClExcess > 0 {
+		switch r.excess {
+		case Halite:
+			r.Evap[chem.Cl] = r.ClExcess
+			r.Evap[chem.Na] = r.ClExcess
+		case HumanInput:
+			r.Human[chem.Cl] = r.ClExcess
+			r.Human[chem.Na] = r.ClExcess
+		}
+	}
+}
+
+// residuals sets X* = Input − Atm − Evap − Human for every species.
+func (r *Result) residuals() {
+	for s := range r.Input {
+		r.Residual[s] = r.Input[s] - r.Atm[s] - r.Evap[s] - r.Human[s]
+	}
 }
 
 // atmosphere fills Ratios, F and ClCritical from the options.
@@ -139,14 +154,27 @@ func (r *Result) sulfate(opt *Options) error {
 		}
 		r.FSulf = f
 	}
-	gyp := (1 - r.FSulf) * star
-	if gyp > 0 && math.IsNaN(r.Input[chem.Ca]) {
+	if (1-r.FSulf)*star > 0 && math.IsNaN(r.Input[chem.Ca]) {
 		return fmt.Errorf("%w: Ca is needed to remove gypsum sulfate", ErrMissing)
 	}
+	r.splitSulfate()
+	return nil
+}
+
+// splitSulfate gives SO4* (from SO4 less its atmospheric share) to gypsum,
+// with an equal amount of Ca, and to sulfide oxidation in the shares FSulf
+// sets. A missing SO4 leaves both at zero.
+func (r *Result) splitSulfate() {
+	so4 := r.Input[chem.SO4]
+	if math.IsNaN(so4) {
+		return
+	}
+	r.SO4Star = so4 - r.Atm[chem.SO4]
+	star := math.Max(r.SO4Star, 0)
+	gyp := (1 - r.FSulf) * star
 	r.Evap[chem.SO4] = gyp
 	r.Evap[chem.Ca] += gyp
 	r.SO4Sulf = r.FSulf * star
-	return nil
 }
 
 // negatives records residuals below zero and applies the policy.

@@ -30,6 +30,9 @@ type Result struct {
 	Negatives []Deficit // residuals that were below zero, before the policy
 	Rejected  bool      // the sample was rejected by the Reject policy
 	Warnings  []error   // problems that do not stop the correction
+
+	excess Excess   // where Cl above Cl* went (for Vary)
+	policy Negative // the negative-residual policy (for Vary)
 }
 
 // Deficit is a species whose residual fell below zero after correction.

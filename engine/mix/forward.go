@@ -54,6 +54,11 @@ type ForwardOptions struct {
 	// Seed seeds the Monte Carlo generator (PCG); the same seed gives the
 	// same draws on every platform.
 	Seed uint64
+	// Vary, when set with Draws > 0, gives the corrected sample under
+	// Monte Carlo draw k (the rain correction drawn with its uncertainty,
+	// correct.Result.Vary): each draw subtracts from its own correction.
+	// nil means the sample's correction for every draw.
+	Vary func(k int) correct.Result
 }
 
 // ForwardResult is the source apportionment of one sample by the forward

@@ -27,7 +27,12 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 		if opt.KFromRatio {
 			kk = fwdNormal(rng, rat.KNa)
 		}
-		d.run(c, ca, mg, kk, opt.KFromRatio)
+		if opt.Vary != nil {
+			ck := opt.Vary(k)
+			d.run(&ck, ca, mg, kk, opt.KFromRatio)
+		} else {
+			d.run(c, ca, mg, kk, opt.KFromRatio)
+		}
 		res.Draws[k] = d.split
 		for i := range clamped {
 			if d.deficit[i] > 0 {

@@ -54,6 +54,14 @@ type Options struct {
 	Perturb     bool                   // also draw the measured ratios from their analytical errors, per sample and draw (science.md §7.3 step 1)
 	Workers     int                    // goroutines for Invert; 0 means GOMAXPROCS
 	Progress    func(done, total int)  // called with sample-draws done so far; never concurrently
+	// Vary, when set, gives the concentrations of water s under draw d
+	// (the water's Conc redone with that draw's rain correction, say):
+	// each draw is then fitted to its own data, and the amounts of each
+	// source follow that draw's concentrations. It returns false to drop
+	// the draw. It is called for different samples at once and must give
+	// the same numbers for the same s and d on every call. nil means Conc
+	// for every draw.
+	Vary func(s, d int) (chem.Composition, bool)
 }
 
 func (o *Options) withDefaults() Options {
@@ -154,24 +162,23 @@ func measured(c *chem.Composition, t Tracer) float64 {
 	return c[t.Species()]
 }
 
-// prepare sets up the rows of one water and its warnings.
-func (p *Problem) prepare(w *Water, o *Options) prep {
-	var pr prep
-	pr.iso = -1
-	c := &w.Conc
+// fill sets the data rows of pr from the concentrations c: the measured
+// cations, Na, and for each tracer its measured ratio to Na and weight,
+// ratio rows first and the isotope row (if any) last, which the fast
+// kernels rely on. rows is reused for pr.rows. It returns false when Na is
+// missing or not positive; missing lists the tracers left out (bit t for
+// tracer t).
+func (p *Problem) fill(pr *prep, c *chem.Composition, sr87 float64, o *Options, rows []rowSpec) (ok bool, missing uint32) {
+	*pr = prep{iso: -1, rows: rows[:0]}
 	for i, sp := range Cations {
 		pr.meas[i] = c[sp]
 	}
 	na := c[chem.Na]
 	if math.IsNaN(na) || na <= 0 {
-		pr.skip = true
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has no Na > 0", ErrSkipped, w.Name))
-		return pr
+		return false, 0
 	}
 	pr.na = na
 	sNa := math.Max(o.RelErr[chem.Na]*na, o.FloorErr)
-	// Ratio rows first, the isotope row (if any) last: the fast kernels
-	// rely on that order.
 	iso := false
 	for _, t := range p.Tracers {
 		if t == Sr87Sr86 {
@@ -180,7 +187,7 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 		}
 		x := measured(c, t)
 		if math.IsNaN(x) || x < 0 {
-			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q is missing or negative; left out", ErrMissingTracer, t, w.Name))
+			missing |= 1 << t
 			continue
 		}
 		sp := t.Species()
@@ -195,13 +202,13 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 	}
 	if iso {
 		x := c[chem.Sr]
-		if math.IsNaN(w.Sr87Sr86) || math.IsNaN(x) || x <= 0 {
-			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, Sr87Sr86, w.Name))
+		if math.IsNaN(sr87) || math.IsNaN(x) || x <= 0 {
+			missing |= 1 << Sr87Sr86
 		} else {
 			// Row sum_j a_j (Sr/Na)_j (R_j - R) = 0; its 1σ is (Sr/Na) σ_R.
 			s := x / na * o.IsoErr
 			pr.iso = pr.m
-			pr.riso = w.Sr87Sr86
+			pr.riso = sr87
 			pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(Sr87Sr86), 1/(s*s), 0
 			pr.m++
 		}
@@ -213,6 +220,27 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 			pr.rows = append(pr.rows, rowSpec{off: pr.par[k] * n, w: pr.w[k], d: pr.d[k]})
 		}
 	}
+	return true, missing
+}
+
+// prepare sets up the rows of one water and its warnings.
+func (p *Problem) prepare(w *Water, o *Options) prep {
+	var pr prep
+	ok, missing := p.fill(&pr, &w.Conc, w.Sr87Sr86, o, nil)
+	if !ok {
+		pr.skip = true
+		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has no Na > 0", ErrSkipped, w.Name))
+		return pr
+	}
+	for _, t := range p.Tracers {
+		if t != Sr87Sr86 && missing&(1<<t) != 0 {
+			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q is missing or negative; left out", ErrMissingTracer, t, w.Name))
+		}
+	}
+	if missing&(1<<Sr87Sr86) != 0 {
+		pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, Sr87Sr86, w.Name))
+	}
+	n := len(p.EndMembers)
 	if pr.m == 0 {
 		pr.skip = true
 		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has none of the chosen tracers", ErrSkipped, w.Name))

@@ -2,7 +2,9 @@ package mix
 
 import (
 	"encoding/binary"
+
 	"hash/fnv"
+	"lixiv/engine/chem"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -27,6 +29,21 @@ type Result struct {
 
 	table []float64 // drawn ratios [draw][tracer][end-member]
 	src   []Source
+	vary  func(s, d int) (chem.Composition, bool) // Options.Vary
+}
+
+// data returns the Na and the measured cations of sample s under draw d:
+// the sample's own, or those Options.Vary gave for the draw.
+func (r *Result) data(s, d int) (na float64, meas [NCations]float64) {
+	sr := &r.Samples[s]
+	if r.vary == nil {
+		return sr.prep.na, sr.prep.meas
+	}
+	c, _ := r.vary(s, d)
+	for i, sp := range Cations {
+		meas[i] = c[sp]
+	}
+	return c[chem.Na], meas
 }
 
 // SampleResult is the posterior of one water sample.
@@ -75,8 +92,10 @@ func (r *Result) Kept(s int) int { return len(r.Samples[s].kept) }
 func (r *Result) Draw(s, k int) (d int, split Split, weight float64) {
 	sr := &r.Samples[s]
 	var share Split
-	r.drawSplit(sr, k, &share, &split)
-	return int(sr.kept[k]), split, r.weight(sr, k)
+	d = int(sr.kept[k])
+	na, meas := r.data(s, d)
+	r.drawSplit(sr, k, na, &meas, &share, &split)
+	return d, split, r.weight(sr, k)
 }
 
 // SplitAt returns the split of sample s under draw d and its weight, with
@@ -111,14 +130,14 @@ func (r *Result) weight(sr *SampleResult, k int) float64 {
 // cation X from end-member j is alpha_j Na (X/Na)_j; shares are these over
 // their sum, and amounts are shares times the measured concentration, so
 // that the sources add up to what was measured (the misfit is spread in
-// proportion). A cation that was not measured keeps the model amounts.
-func (r *Result) drawSplit(sr *SampleResult, k int, share, amount *Split) {
+// proportion). A cation that was not measured keeps the model amounts. na
+// and ms are the draw's Na and measured cations.
+func (r *Result) drawSplit(sr *SampleResult, k int, na float64, ms *[NCations]float64, share, amount *Split) {
 	var m Split
 	r.model(sr, k, &m)
-	na := sr.prep.na
 	for c := 0; c < NCations; c++ {
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		meas := sr.prep.meas[c]
+		meas := ms[c]
 		for src := range NSources {
 			sh := 0.0
 			if tot > 0 {
@@ -217,17 +236,20 @@ func (r *Run) finish(s int, sc *scratch) {
 			srcs = append(srcs, src)
 		}
 	}
-	na := sr.prep.na
+	// With per-draw data the amounts are not the shares times one
+	// measured value, so every amount column is filled and summarised.
+	varying := res.vary != nil
 	var m Split
 	for k := range kept {
 		for j := 0; j < n; j++ {
 			sc.vals[j*kept+k] = sr.alpha[k*n+j]
 		}
+		na, meas := res.data(s, int(sr.kept[k]))
 		// As drawSplit, written straight into the columns.
 		res.model(sr, k, &m)
 		for c := 0; c < NCations; c++ {
 			tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-			unmeasured := math.IsNaN(sr.prep.meas[c])
+			unmeasured := math.IsNaN(meas[c])
 			for _, src := range srcs {
 				i := int(src)*NCations + c
 				sh := 0.0
@@ -235,8 +257,11 @@ func (r *Run) finish(s int, sc *scratch) {
 					sh = m[src][c] / tot
 				}
 				sc.vals[(n+i)*kept+k] = sh
-				if unmeasured {
+				switch {
+				case unmeasured:
 					sc.vals[(n+cells+i)*kept+k] = m[src][c] * na
+				case varying:
+					sc.vals[(n+cells+i)*kept+k] = sh * meas[c]
 				}
 			}
 		}
@@ -259,7 +284,7 @@ func (r *Run) finish(s int, sc *scratch) {
 			i := int(src)*NCations + c
 			iv := q(n + i)
 			sr.Share.Lo[src][c], sr.Share.Median[src][c], sr.Share.Hi[src][c] = iv.Lo, iv.Median, iv.Hi
-			if meas := sr.prep.meas[c]; !math.IsNaN(meas) {
+			if meas := sr.prep.meas[c]; !math.IsNaN(meas) && !varying {
 				// amount = share x measured, a monotone map: its quantiles follow.
 				sr.Amount.Lo[src][c], sr.Amount.Median[src][c], sr.Amount.Hi[src][c] = iv.Lo*meas, iv.Median*meas, iv.Hi*meas
 				continue

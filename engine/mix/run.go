@@ -64,7 +64,9 @@ func NewRun(p Problem, o *Options) (*Run, error) {
 		Samples:    make([]SampleResult, len(p.Waters)),
 		table:      r.table,
 		src:        r.src,
+		vary:       opt.Vary,
 	}
+
 	for s := range p.Waters {
 		sr := &r.res.Samples[s]
 		sr.Name = p.Waters[s].Name
@@ -237,8 +239,8 @@ func (r *Run) draws(s, from, to int) {
 	if r.opt.Scoring == Weight {
 		bound = maxWeightChi2
 	}
-	if r.opt.Perturb {
-		r.perturbed(s, from, to, bound)
+	if r.opt.Perturb || r.opt.Vary != nil {
+		r.perDraw(s, from, to, bound)
 		return
 	}
 	r.span(sr, &sr.prep, from, to, bound)
@@ -265,38 +267,66 @@ func (r *Run) span(sr *SampleResult, pr *prep, from, to int, bound float64) {
 	}
 }
 
-// perturbed works draws [from, to) of sample s with the measured ratios of
-// each draw drawn from N(d, σ²) (science.md §7.3 step 1). The normal
-// deviates come from a PCG stream of the sample's own, m per draw in row
-// order, so chunking does not change them.
-func (r *Run) perturbed(s, from, to int, bound float64) {
+// perDraw works draws [from, to) of sample s, each against data of its
+// own: the concentrations Options.Vary gives for the draw (a draw it drops,
+// or whose data lose Na or a tracer the sample has, is not kept), and with
+// Options.Perturb the measured ratios drawn from N(d, σ²) (science.md §7.3
+// step 1). The normal deviates come from a PCG stream of the sample's own,
+// m per draw in row order, so chunking does not change them.
+func (r *Run) perDraw(s, from, to int, bound float64) {
 	sr := &r.res.Samples[s]
-	if sr.rng == nil {
+	if r.opt.Perturb && sr.rng == nil {
 		sr.rng = rand.NewPCG(r.opt.Seed^0x6c8e9cf570932bd5, uint64(s))
 	}
+	w := &r.prob.Waters[s]
 	var p prep
 	rows := make([]rowSpec, 0, len(sr.prep.rows))
 	for d := from; d < to; d++ {
 		p = sr.prep // copy; the data rows are arrays
-		p.c = 0
-		for k := 0; k < p.m; k++ {
-			u := (float64(sr.rng.Uint64()>>11) + 0.5) * 0x1p-53
-			z := normQuantile(u)
-			if k == p.iso {
-				p.riso += z * r.opt.IsoErr
-			} else {
-				p.d[k] += z / sqrt(p.w[k])
+		if r.opt.Vary != nil {
+			c, ok := r.opt.Vary(s, d)
+			if ok {
+				ok, _ = r.prob.fill(&p, &c, w.Sr87Sr86, &r.opt, rows)
+				rows = p.rows
 			}
-			p.c += p.w[k] * p.d[k] * p.d[k]
-		}
-		rows = rows[:0]
-		for k := 0; k < p.m; k++ {
-			if k != p.iso {
-				rows = append(rows, rowSpec{off: p.par[k] * r.n, w: p.w[k], d: p.d[k]})
+			if !ok || p.m != sr.prep.m || p.iso != sr.prep.iso {
+				r.skipNormals(sr, sr.prep.m)
+				continue
 			}
+			p.thresh = sr.prep.thresh
 		}
-		p.rows = rows
+		if r.opt.Perturb {
+			p.c = 0
+			for k := 0; k < p.m; k++ {
+				u := (float64(sr.rng.Uint64()>>11) + 0.5) * 0x1p-53
+				z := normQuantile(u)
+				if k == p.iso {
+					p.riso += z * r.opt.IsoErr
+				} else {
+					p.d[k] += z / sqrt(p.w[k])
+				}
+				p.c += p.w[k] * p.d[k] * p.d[k]
+			}
+			rows = rows[:0]
+			for k := 0; k < p.m; k++ {
+				if k != p.iso {
+					rows = append(rows, rowSpec{off: p.par[k] * r.n, w: p.w[k], d: p.d[k]})
+				}
+			}
+			p.rows = rows
+		}
 		r.span(sr, &p, d, d+1, bound)
+	}
+}
+
+// skipNormals draws and drops the m normal deviates of a draw that is not
+// fitted, so that the perturbations of later draws stay the same.
+func (r *Run) skipNormals(sr *SampleResult, m int) {
+	if !r.opt.Perturb {
+		return
+	}
+	for range m {
+		sr.rng.Uint64()
 	}
 }
 

@@ -6,6 +6,7 @@ import (
 	"runtime"
 	"strings"
 
+	"lixiv/engine/chem"
 	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
 	"lixiv/engine/mix"
@@ -25,6 +26,10 @@ type Apportioned struct {
 	Lo, Hi    []mix.Split // 2.5 % and 97.5 % quantiles
 	Draws     int         // draw numbers run; Draw(i, d) for d < Draws
 	Model     string      // "inverse" or "forward"
+
+	// scales holds each draw's multipliers of the rain correction's
+	// inputs; nil when the correction is exact (no rain uncertainty).
+	scales []correct.Scale
 
 	inverse *mix.Result
 	forward [][]mix.Split
@@ -64,14 +69,40 @@ func (a *Apportioned) drawAt(i, d int) (mix.Split, float64, bool) {
 	if !ok {
 		return s, 0, false
 	}
-	a.addRemoved(i, &s)
+	a.addRemoved(i, d, &s)
 	return s, w, true
 }
 
+// corrected returns the correction of sample i under draw d: the rain
+// correction redone with the draw's multipliers when the rain inputs carry
+// an uncertainty, else the sample's correction.
+func (a *Apportioned) corrected(i, d int) correct.Result {
+	if a.scales == nil {
+		return a.Corrected[i]
+	}
+	return a.Corrected[i].Vary(&a.scales[d])
+}
+
+// SO4Sulf returns the sulfide-derived sulfate (µmol/L) of sample i under
+// draw d, which follows the draw's atmospheric sulfate.
+func (a *Apportioned) SO4Sulf(i, d int) float64 {
+	if a.scales == nil {
+		return a.Corrected[i].SO4Sulf
+	}
+	r := a.corrected(i, d)
+	return r.SO4Sulf
+}
+
 // addRemoved adds to s the atmospheric and evaporite amounts the
-// correction removed from sample i.
-func (a *Apportioned) addRemoved(i int, s *mix.Split) {
-	r := &a.Corrected[i]
+// correction removed from sample i under draw d.
+func (a *Apportioned) addRemoved(i, d int, s *mix.Split) {
+	var r *correct.Result
+	if a.scales == nil {
+		r = &a.Corrected[i]
+	} else {
+		v := a.Corrected[i].Vary(&a.scales[d])
+		r = &v
+	}
 	for k, sp := range mix.Cations {
 		s[mix.Atmosphere][k] += r.Atm[sp]
 		s[mix.Evaporite][k] += r.Evap[sp]
@@ -192,6 +223,14 @@ func computeApportionment(e *Env) (*Output, error) {
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
+	if err := atm.Uncertainty.Check(); err != nil {
+		return nil, err
+	}
+	if !atm.Uncertainty.Zero() {
+		// The rain ratios (and the ET factor) are drawn once per draw and
+		// shared by every sample, like the end-member ratios.
+		a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
+	}
 	switch s.Model {
 	case "forward":
 		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
@@ -199,6 +238,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		for i := range a.Corrected {
 			if err := e.Ctx.Err(); err != nil {
 				return nil, err
+			}
+			if a.scales != nil {
+				fo.Vary = func(k int) correct.Result { return a.Corrected[i].Vary(&a.scales[k]) }
 			}
 			fr, err := mix.Forward(&a.Corrected[i], fo)
 			if err != nil {
@@ -226,6 +268,12 @@ func computeApportionment(e *Env) (*Output, error) {
 				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
 		}
 		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.Workers()}
+		if a.scales != nil {
+			mo.Vary = func(i, d int) (chem.Composition, bool) {
+				r := a.Corrected[i].Vary(&a.scales[d])
+				return r.Residual, !r.Rejected
+			}
+		}
 		var res *mix.Result
 		if e.Workers() == 1 || runtime.GOOS == "js" {
 			// One goroutine, in chunks: the progress callback runs between
@@ -283,7 +331,7 @@ func computeApportionment(e *Env) (*Output, error) {
 		if a.inverse != nil {
 			for k := 0; k < a.inverse.Kept(i); k++ {
 				d, sp, w := a.inverse.Draw(i, k)
-				a.addRemoved(i, &sp)
+				a.addRemoved(i, d, &sp)
 				draws = append(draws, sp)
 				ws = append(ws, w)
 				a.weights[i][d] = w

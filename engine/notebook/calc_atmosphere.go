@@ -15,6 +15,12 @@ import (
 type Atmosphere struct {
 	Samples *Samples
 	Options correct.Options // Sulfate is left at its default; the apportionment sets it
+	// Uncertainty is the relative 1σ of the rain ratios and of the ET
+	// factor, which the apportionment draws with its Monte Carlo.
+	Uncertainty correct.Uncertainty
+	// ScaleCl says that Cl* comes from measured rain (Cl_rain × F ×
+	// f_dry), so that the ET factor's uncertainty moves it.
+	ScaleCl bool
 }
 
 func init() { Register(KindAtmosphere, computeAtmosphere) }
@@ -135,7 +141,11 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		}
 		tcols = append(tcols, NumColumn(n, unit, cols[n]))
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "rain", Title: "Atmospheric input per sample", Columns: tcols})
+	title := "Atmospheric input per sample"
+	if s.RatioUncertainty > 0 || (s.Method == "rain" && s.CriticalChloride == 0 && s.FactorUncertainty > 0) {
+		title += " (central values; the apportionment draws the rain inputs with their uncertainty)"
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "rain", Title: title, Columns: tcols})
 	dates := make([]string, len(used))
 	for k, i := range used {
 		dates[k] = smp.Days[i].String()
@@ -150,7 +160,11 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		out.Warnings = append(out.Warnings, w)
 	}
 	out.Figures = append(out.Figures, Point("median atmospheric share of Na", "fraction", median(cols["Na_atm_share"])))
-	out.Value = &Atmosphere{Samples: smp, Options: opt}
+	unc := correct.Uncertainty{Ratios: s.RatioUncertainty / 100}
+	if opt.Rain != nil && s.CriticalChloride == 0 {
+		unc.Factor = s.FactorUncertainty / 100
+	}
+	out.Value = &Atmosphere{Samples: smp, Options: opt, Uncertainty: unc, ScaleCl: unc.Factor > 0}
 	return out, nil
 }
 

@@ -105,13 +105,14 @@ func computeCO2(e *Env) (*Output, error) {
 			if !ok {
 				continue
 			}
-			x, y, err := co2Pair(&sp, a.Corrected[i].SO4Sulf, opt, long)
+			so4 := a.SO4Sulf(i, d)
+			x, y, err := co2Pair(&sp, so4, opt, long)
 			if err != nil {
 				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
 			if long {
-				va = append(va, alkalinityLongSil(&sp, a.Corrected[i].SO4Sulf, opt))
+				va = append(va, alkalinityLongSil(&sp, so4, opt))
 			}
 			silD[i][d], carbD[i][d], wD[i][d] = x, y, w
 		}

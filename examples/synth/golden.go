@@ -9,8 +9,9 @@ import (
 
 // Goldens are small budgets kept under testdata/budgets/ that exercise
 // settings the examples leave at their defaults: the forward model, a
-// critical chloride, measured rain, human excess chloride, a budget
-// period, sulfide sulfate, the long time scale and a chart.
+// critical chloride, an exact rain correction, measured rain (with the
+// uncertainty of its ratios and ET factor), human excess chloride, a
+// budget period, sulfide sulfate, the long time scale and a chart.
 var Goldens = []Example{
 	{"testdata/budgets/small-forward.lixiv.json", smallForward},
 	{"testdata/budgets/small-rain.lixiv.json", smallRain},
@@ -31,6 +32,10 @@ func smallForward() (*notebook.Document, error) {
 	}
 	for _, e := range [][3]string{
 		{"rain", "critical_chloride_umol", "400"},
+		// An exact rain correction: this budget's results stay those of
+		// the engine before the rain uncertainty was propagated.
+		{"rain", "rain_ratio_uncertainty_percent", "0"},
+		{"rain", "et_factor_uncertainty_percent", "0"},
 		{"apportionment", "sulfate", "sulfide"},
 		{"fluxes", "estimator", "interpolation"},
 		{"co2", "time_scale", "long"},
