@@ -91,7 +91,11 @@ type Uncertainty struct {
 	// MeanMol holds each replicate's mean annual load (mol/yr; NaN for a
 	// failed replicate), so that series bootstrapped with the same seed and
 	// samples can be combined replicate by replicate.
-	MeanMol  []float64
+	MeanMol []float64
+	// Area holds each replicate's catchment area (km², after its area
+	// error), the same in every series bootstrapped with the same seed, so
+	// that yields of combined replicates can be formed.
+	Area     []float64
 	Warnings []error
 }
 
@@ -149,6 +153,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 		vals[i] = make([]float64, nrep)
 	}
 	u.MeanMol = make([]float64, nrep)
+	u.Area = make([]float64, nrep)
 	w := make([]float64, len(smp))
 	c := make([]float64, len(smp))
 	out := make([]float64, ny)
@@ -191,6 +196,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 			vals[y*nf+4][r] = l.RunoffMM
 		}
 		u.MeanMol[r] = mean.Mol
+		u.Area[r] = ropt.AreaKm2
 		b.tick()
 	}
 	u.Replicates = nrep - u.Failed
@@ -221,6 +227,12 @@ func factor(rng *rand.Rand, sd float64) float64 {
 		}
 	}
 }
+
+// Summary returns the median and 95 % interval of the non-NaN values of v
+// (NaN throughout when there are none), as Bootstrap reports its figures:
+// for quantities formed replicate by replicate from several series
+// (Uncertainty.MeanMol). v is not changed.
+func Summary(v []float64) Interval { return summary(v) }
 
 // summary returns the median and 95 % interval of the non-NaN values of v.
 func summary(v []float64) Interval {

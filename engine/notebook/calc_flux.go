@@ -232,7 +232,9 @@ func computeFluxes(e *Env) (*Output, error) {
 	var rows []meanRow
 	var yName, yYear []string
 	var yMol, yYield, yRunoff []float64
+	reps := map[string]*flux.Uncertainty{} // each series' bootstrap, for the weathering rates
 	add := func(r *flux.Result, u *flux.Uncertainty) {
+		reps[r.Series] = u
 		pt := func(x float64) flux.Interval { return flux.Interval{Median: x, Lo: math.NaN(), Hi: math.NaN()} }
 		row := meanRow{name: r.Series, point: r.Mean.Mol, mol: pt(r.Mean.Mol), yield: pt(r.Mean.MolPerKm2),
 			tonnes: pt(r.Mean.Tonnes), tYield: pt(r.Mean.TonnesPerKm2)}
@@ -368,20 +370,17 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	out.Figures = append(out.Figures, figs...)
 	out.Figures = append(out.Figures, cover...)
-	// Silicate weathering rate in t/km²/yr from the point fluxes (cations, then cations + SiO2).
-	parts := map[string]float64{}
+	// Weathering rates in t/km²/yr (methods brief §6.1), from the point
+	// fluxes, and their intervals from the series' replicates.
+	points := map[string]float64{}
 	for _, r := range rows {
-		parts[r.name] = r.point
+		points[r.name] = r.point
 	}
-	sil := []flux.Part{{Species: chem.Na, MolPerYr: parts["Na_silicate"]}, {Species: chem.K, MolPerYr: parts["K_silicate"]},
-		{Species: chem.Ca, MolPerYr: parts["Ca_silicate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_silicate"]}}
-	out.Figures = append(out.Figures, Point("silicate weathering rate (cations)", "t/km²/yr", flux.WeatheringRate(v.Site.AreaKm2, sil...)))
-	if x, ok := parts["SiO2"]; ok {
-		out.Figures = append(out.Figures, Point("silicate weathering rate (cations + SiO2)", "t/km²/yr",
-			flux.WeatheringRate(v.Site.AreaKm2, append(sil, flux.Part{Species: chem.SiO2, MolPerYr: x})...)))
+	for _, wr := range weatheringRates {
+		if f, ok := weatheringRate(wr.name, wr.parts, points, reps, v.Site.AreaKm2); ok {
+			out.Figures = append(out.Figures, f)
+		}
 	}
-	carb := []flux.Part{{Species: chem.Ca, MolPerYr: parts["Ca_carbonate"]}, {Species: chem.Mg, MolPerYr: parts["Mg_carbonate"]}}
-	out.Figures = append(out.Figures, Point("carbonate weathering rate (cations)", "t/km²/yr", flux.WeatheringRate(v.Site.AreaKm2, carb...)))
 
 	names := make([]string, len(rows))
 	for i, r := range rows {
@@ -542,4 +541,72 @@ func dedupe(ws []string) []string {
 		}
 	}
 	return out
+}
+
+// ratePart is one term of a weathering rate: the mean annual flux of a
+// series, times k, in tonnes of species sp.
+type ratePart struct {
+	series string
+	sp     chem.Species
+	k      float64
+}
+
+// weatheringRates are the fluxes cell's weathering rates (methods brief
+// §6.1, Gaillardet et al. 1999 style, from memory): SWR from the silicate
+// cations, and with SiO2; CWR from the carbonate cations, and with the
+// carbonate carbon ½ HCO3_carb M_HCO3, where HCO3_carb = 2(Ca+Mg)_carb, so
+// (Ca+Mg)_carb mol of HCO3 mass.
+var weatheringRates = []struct {
+	name  string
+	parts []ratePart
+}{
+	{"silicate weathering rate (cations)", siliCations},
+	{"silicate weathering rate (cations + SiO2)", append(append([]ratePart(nil), siliCations...), ratePart{"SiO2", chem.SiO2, 1})},
+	{"carbonate weathering rate (cations)", carbCations},
+	{"carbonate weathering rate (cations + carbonate carbon, ½ HCO3_carb)", append(append([]ratePart(nil), carbCations...),
+		ratePart{"Ca_carbonate", chem.HCO3, 1}, ratePart{"Mg_carbonate", chem.HCO3, 1})},
+}
+
+var (
+	siliCations = []ratePart{{"Na_silicate", chem.Na, 1}, {"K_silicate", chem.K, 1}, {"Ca_silicate", chem.Ca, 1}, {"Mg_silicate", chem.Mg, 1}}
+	carbCations = []ratePart{{"Ca_carbonate", chem.Ca, 1}, {"Mg_carbonate", chem.Mg, 1}}
+)
+
+// weatheringRate returns a weathering rate in t/km²/yr: the point value
+// from the point fluxes, and, when every part was bootstrapped, the median
+// and 95 % interval over replicates. The series share their seed, so
+// replicate r of each resampled the same samples and drew the same
+// discharge and area errors: the rate of replicate r is Σ k mol_r M ×
+// 1e-6 / area_r. ok is false when a part's series is absent (no SiO2).
+func weatheringRate(name string, parts []ratePart, points map[string]float64, reps map[string]*flux.Uncertainty, areaKm2 float64) (Figure, bool) {
+	fp := make([]flux.Part, len(parts))
+	n := -1
+	for i, p := range parts {
+		x, ok := points[p.series]
+		if !ok {
+			return Figure{}, false
+		}
+		fp[i] = flux.Part{Species: p.sp, MolPerYr: p.k * x}
+		u := reps[p.series]
+		switch {
+		case u == nil || len(u.MeanMol) == 0 || len(u.Area) != len(u.MeanMol):
+			n = 0
+		case n < 0 || len(u.MeanMol) < n:
+			n = len(u.MeanMol)
+		}
+	}
+	f := Point(name, "t/km²/yr", flux.WeatheringRate(areaKm2, fp...))
+	if n <= 0 {
+		return f, true
+	}
+	rate := make([]float64, n)
+	for r := range rate {
+		for i, p := range parts {
+			fp[i].MolPerYr = p.k * reps[p.series].MeanMol[r]
+		}
+		rate[r] = flux.WeatheringRate(reps[parts[0].series].Area[r], fp...)
+	}
+	in := flux.Summary(rate)
+	f.Median, f.Low, f.High = in.Median, in.Lo, in.Hi
+	return f, true
 }

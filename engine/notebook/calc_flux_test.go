@@ -90,3 +90,40 @@ func TestFlowCoverage(t *testing.T) {
 		}
 	}
 }
+
+// TestWeatheringRateReplicates checks the weathering rates against
+// hand-worked values: each replicate's rate is its parts' mass fluxes over
+// its own area, and the interval is taken over replicates; without
+// replicates (the quick pass) the rate is a point value.
+func TestWeatheringRateReplicates(t *testing.T) {
+	// Molar masses, methods brief §2.2 (IUPAC 2021): Ca 40.078, Mg 24.305,
+	// HCO3 61.016 g/mol. CWR with carbon, §6.1: Ca M_Ca + Mg M_Mg + (Ca +
+	// Mg) M_HCO3.
+	mass := func(ca, mg, area float64) float64 { return (ca*40.078 + mg*24.305 + (ca+mg)*61.016) * 1e-6 / area }
+	parts := weatheringRates[3].parts
+	points := map[string]float64{"Ca_carbonate": 1e6, "Mg_carbonate": 2e5}
+	ca := []float64{1e6, 2e6, 3e6}
+	mg := []float64{1e5, 2e5, math.NaN()} // a failed replicate is left out
+	area := []float64{10, 10, 10}
+	reps := map[string]*flux.Uncertainty{
+		"Ca_carbonate": {MeanMol: ca, Area: area},
+		"Mg_carbonate": {MeanMol: mg, Area: area},
+	}
+	f, ok := weatheringRate("cwr", parts, points, reps, 10)
+	if !ok {
+		t.Fatal("no rate")
+	}
+	// Two usable replicates: the median lies halfway between them.
+	r1, r2 := mass(1e6, 1e5, 10), mass(2e6, 2e5, 10)
+	if math.Abs(f.Median-(r1+r2)/2) > 1e-12 || !(f.Low >= r1 && f.High <= r2 && f.Low < f.High) {
+		t.Errorf("interval %g [%g, %g], want median %g within [%g, %g]", f.Median, f.Low, f.High, (r1+r2)/2, r1, r2)
+	}
+	delete(reps, "Mg_carbonate")
+	f, _ = weatheringRate("cwr", parts, points, reps, 10)
+	if want := mass(1e6, 2e5, 10); math.Abs(f.Median-want) > 1e-12 || !math.IsNaN(f.Low) || !math.IsNaN(f.High) {
+		t.Errorf("without replicates: %g [%g, %g], want the point value %g alone", f.Median, f.Low, f.High, want)
+	}
+	if _, ok := weatheringRate("swr", weatheringRates[1].parts, points, reps, 10); ok {
+		t.Error("a rate whose series are absent should be left out")
+	}
+}
