@@ -11,10 +11,28 @@ import (
 
 func init() { Register(KindCO2, computeCO2) }
 
-// LongTermConvention names the long-term accounting the co2 cell uses, for
-// table titles and the report (methods brief §9.2 asks the notebook to say
-// which one is used).
+// LongTermConvention names the conventional long-term accounting, the co2
+// cell's default, for table titles and the report (methods brief §9.2 asks
+// the notebook to say which one is used); LongTermConventionOf names the
+// one a cell uses.
 const LongTermConvention = "conventional silicate sink (Ca+Mg)_sil, less its share of sulfuric acid"
+
+// longTerm describes the long-term silicate conventions of the co2 cell's
+// long_term_convention setting (methods brief §9.2–9.3): a description for
+// titles and the report, and the short form figure names carry.
+var longTerm = map[string]struct{ label, short string }{
+	"conventional": {LongTermConvention, "(Ca+Mg)_sil"},
+	"alkalinity":   {"alkalinity-based silicate sink ½ Alk_sil = (Ca+Mg)_sil + ½(Na+K)_sil, less its share of sulfuric acid", "½ Alk_sil"},
+}
+
+// LongTermConventionOf names the long-term accounting of a co2 cell with
+// settings s ("" for the short time scale).
+func LongTermConventionOf(s *CO2Settings) string {
+	if s.TimeScale != "long" {
+		return ""
+	}
+	return longTerm[s.LongTerm].label
+}
 
 // co2Pair returns the silicate and carbonate CO2 consumption of one split
 // (µmol/L). Short term: phi_sil and phi_carb (methods brief §9.2-9.3).
@@ -24,24 +42,33 @@ const LongTermConvention = "conventional silicate sink (Ca+Mg)_sil, less its sha
 // consumes no CO2 (co2.Result.SinkSil); for carbonate, phi_carb −
 // Alk_carb/2 = −S_carb, zero under carbonic acid and a release of one CO2
 // per sulfide-derived sulfate under sulfuric acid (§9.3).
-func co2Pair(s *mix.Split, so4 float64, opt *co2.Options, long bool) (sil, carb float64, err error) {
+//
+// scale is "short", or for the long term its convention: "conventional"
+// takes the sink above, "alkalinity" the alkalinity-based Alk_sil/2 =
+// ½(Na+K)_sil + (Ca+Mg)_sil − S_sil (co2.Result.NetLongSil).
+func co2Pair(s *mix.Split, so4 float64, opt *co2.Options, scale string) (sil, carb float64, err error) {
 	r, err := co2.Consumption(s, so4, opt)
 	if err != nil {
 		return 0, 0, err
 	}
-	if long {
+	switch scale {
+	case "conventional":
 		return r.SinkSil, r.NetLongCarb, nil
+	case "alkalinity":
+		return r.NetLongSil, r.NetLongCarb, nil
 	}
 	return r.PhiSil, r.PhiCarb, nil
 }
 
-// alkalinityLongSil returns the silicate part of the alkalinity-based
-// long-term figure, Alk_sil/2 = ½(Na+K)_sil + (Ca+Mg)_sil − S_sil (methods
-// brief §9.3), shown beside the conventional sink; NaN on error.
-func alkalinityLongSil(s *mix.Split, so4 float64, opt *co2.Options) float64 {
+// otherLongSil returns the silicate part of the long-term convention not
+// chosen, shown beside the chosen one; NaN on error.
+func otherLongSil(s *mix.Split, so4 float64, opt *co2.Options, chosen string) float64 {
 	r, err := co2.Consumption(s, so4, opt)
 	if err != nil {
 		return math.NaN()
+	}
+	if chosen == "alkalinity" {
+		return r.SinkSil
 	}
 	return r.NetLongSil
 }
@@ -74,11 +101,19 @@ func computeCO2(e *Env) (*Output, error) {
 		opt.Sulfur = co2.AllCarbonate
 	}
 	long := s.TimeScale == "long"
+	scale := "short"
+	if long {
+		scale = s.LongTerm
+		if _, ok := longTerm[scale]; !ok {
+			scale = "conventional" // a file written before the setting existed
+		}
+	}
+	other := map[string]string{"conventional": "alkalinity", "alkalinity": "conventional"}[scale]
 	n := len(a.Names)
 	// Per litre: quantiles over the draws of each sample.
 	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
 	var vs, vc, ws, va []float64
-	var alkMed []float64 // long term: alkalinity-based silicate figure per sample
+	var alkMed []float64 // long term: the other convention's silicate figure per sample
 	var qb quantileBuf
 	// Per draw, kept for fluxing below.
 	silD, carbD, wD := make([][]float64, n), make([][]float64, n), make([][]float64, n)
@@ -106,13 +141,13 @@ func computeCO2(e *Env) (*Output, error) {
 				continue
 			}
 			so4 := a.SO4Sulf(i, d)
-			x, y, err := co2Pair(&sp, so4, opt, long)
+			x, y, err := co2Pair(&sp, so4, opt, scale)
 			if err != nil {
 				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
 			if long {
-				va = append(va, alkalinityLongSil(&sp, so4, opt))
+				va = append(va, otherLongSil(&sp, so4, opt, scale))
 			}
 			silD[i][d], carbD[i][d], wD[i][d] = x, y, w
 		}
@@ -127,19 +162,21 @@ func computeCO2(e *Env) (*Output, error) {
 			alkMed = append(alkMed, qb.quantiles(va, ws, 0.5)[0])
 		}
 	}
-	scale := "short-term"
+	title := "short-term"
+	silName := "median silicate CO2 consumption per litre"
 	if long {
-		scale = "long-term, " + LongTermConvention
+		title = "long-term, " + longTerm[scale].label
+		silName += " (long-term, " + longTerm[scale].short + ")"
 	}
 	out := &Output{Warnings: []string{"CO2 consumption is a geochemical budget, not a carbon-removal credit"}}
-	out.Tables = append(out.Tables, &ResultTable{Name: "per-litre", Title: "CO2 consumption per litre of stream water (" + scale + ")",
+	out.Tables = append(out.Tables, &ResultTable{Name: "per-litre", Title: "CO2 consumption per litre of stream water (" + title + ")",
 		Columns: []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()),
 			NumColumn("silicate", "µmol/L", silMed), NumColumn("silicate_low", "µmol/L", silLo), NumColumn("silicate_high", "µmol/L", silHi),
 			NumColumn("carbonate", "µmol/L", carbMed), NumColumn("carbonate_low", "µmol/L", carbLo), NumColumn("carbonate_high", "µmol/L", carbHi)}})
-	out.Figures = append(out.Figures, Point("median silicate CO2 consumption per litre", "µmol/L", median(silMed)),
+	out.Figures = append(out.Figures, Point(silName, "µmol/L", median(silMed)),
 		Point("median carbonate CO2 consumption per litre", "µmol/L", median(carbMed)))
 	if long {
-		out.Figures = append(out.Figures, Point("median alkalinity-based long-term silicate CO2 per litre (½ Alk_sil)", "µmol/L", median(alkMed)))
+		out.Figures = append(out.Figures, Point("median silicate CO2 consumption per litre under the other long-term convention ("+longTerm[other].short+")", "µmol/L", median(alkMed)))
 	}
 
 	e.Report(n, total)
@@ -163,7 +200,7 @@ func computeCO2(e *Env) (*Output, error) {
 			return nil, err
 		}
 		ser := fv.series(part.name+" CO2", 0, false, func(i int, sp *mix.Split) float64 {
-			x, y, err := co2Pair(sp, a.Corrected[i].SO4Sulf, opt, long)
+			x, y, err := co2Pair(sp, a.Corrected[i].SO4Sulf, opt, scale)
 			if err != nil {
 				return math.NaN()
 			}
@@ -217,7 +254,7 @@ func computeCO2(e *Env) (*Output, error) {
 			kMed, kLo, kHi = append(kMed, km2.Median), append(kLo, km2.Lo), append(kHi, km2.Hi)
 		}
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + scale + ")", Columns: []*Column{
+	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + title + ")", Columns: []*Column{
 		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
 		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi),
 		NumColumn("per_km2", "mol/km²/yr", kMed), NumColumn("per_km2_low", "mol/km²/yr", kLo), NumColumn("per_km2_high", "mol/km²/yr", kHi)}})

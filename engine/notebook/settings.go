@@ -98,6 +98,10 @@ type FluxSettings struct {
 type CO2Settings struct {
 	TimeScale   string `json:"time_scale"`   // "short" (years) or "long" (geological)
 	SulfurSplit string `json:"sulfur_split"` // "proportional" or "carbonate"
+	// LongTerm is the long-term silicate convention (methods brief §9.2):
+	// "conventional", (Ca+Mg)_sil, or "alkalinity", ½ Alk_sil, which also
+	// counts ½(Na+K)_sil; both less the share of sulfuric acid.
+	LongTerm string `json:"long_term_convention"`
 }
 
 // NoteSettings hold free text.
@@ -188,7 +192,7 @@ func DefaultSettings(k Kind) Settings {
 		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000, SeriesBootstrap: 200,
 			DischargeUncertainty: 7, Seed: 1}
 	case KindCO2:
-		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional"}
+		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
 	case KindNote:
 		return &NoteSettings{}
 	case KindChart:
@@ -332,6 +336,7 @@ func (s *CO2Settings) Validate() error {
 	return firstErr(
 		oneOf("time_scale", s.TimeScale, "short", "long"),
 		oneOf("sulfur_split", s.SulfurSplit, "proportional", "carbonate"),
+		oneOf("long_term_convention", s.LongTerm, "conventional", "alkalinity"),
 	)
 }
 
