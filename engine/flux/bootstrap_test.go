@@ -104,6 +104,30 @@ func TestBootstrapDeterministic(t *testing.T) {
 			t.Fatalf("replicate %d: %g vs 2 × %g", r, ub.MeanMol[r], ua.MeanMol[r])
 		}
 	}
+	// Each replicate's area is the same in both series, and with a 5 %
+	// area error it spreads about the catchment's area (common practice:
+	// a normal error of that size stays within ±25 % in 200 draws).
+	b.AreaError = 0.05
+	ua, _ = Bootstrap(cv.gauge, cv.series, opt, b)
+	ub, _ = Bootstrap(cv.gauge, s2, opt, b)
+	spread := false
+	for r, a := range ua.Area {
+		if a != ub.Area[r] || relErr(a, cv.area) > 0.25 {
+			t.Fatalf("replicate %d: areas %g and %g, catchment %g", r, a, ub.Area[r], cv.area)
+		}
+		spread = spread || a != cv.area
+	}
+	if len(ua.Area) != b.Replicates || !spread {
+		t.Errorf("%d replicate areas (want %d), spread %v", len(ua.Area), b.Replicates, spread)
+	}
+	// Summary of the per-replicate yields agrees with the bootstrap's own.
+	y := make([]float64, len(ua.MeanMol))
+	for r := range y {
+		y[r] = ua.MeanMol[r] / ua.Area[r]
+	}
+	if got := Summary(y); relErr(got.Median, ua.Mean.MolPerKm2.Median) > 1e-12 || relErr(got.Lo, ua.Mean.MolPerKm2.Lo) > 1e-12 {
+		t.Errorf("yield from replicates %+v, bootstrap %+v", got, ua.Mean.MolPerKm2)
+	}
 }
 
 // TestBootstrapDraws checks how draws enter: with a constant concentration
