@@ -32,13 +32,24 @@ func computeDischarge(e *Env) (*Output, error) {
 	if err != nil {
 		return nil, fmt.Errorf("unit: %v", err)
 	}
+	// Messages name the file the table was read from in this session, and
+	// its lines, when there is one; else the cell and the table's lines.
 	opt := discharge.Options{File: e.Cell.ID, Unit: unit, Delimiter: '\t'}
+	lines := t.fileLines()
+	if lines != nil && t.Source.File != "" {
+		opt.File = t.Source.File
+	} else {
+		lines = nil
+	}
 	if site != nil {
 		opt.AreaKm2 = site.AreaKm2
 	}
 	im := discharge.ReadString(t.TSV(), opt)
 	out := &Output{}
 	for _, p := range im.Problems {
+		if l, ok := lines[p.Row]; ok && p.Row > 0 {
+			p.Row = l
+		}
 		out.Warnings = append(out.Warnings, p.Error())
 	}
 	rec := im.Record

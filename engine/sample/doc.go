@@ -23,7 +23,8 @@
 //     Options.Comma sets it. Fields may be quoted ("a, b"), with "" for a
 //     quote and line breaks inside quotes.
 //  3. Header: the first line with at least half as many fields as the
-//     typical line; lines above it are kept in Table.Preamble.
+//     typical line that does not start with "#"; lines above it are kept
+//     in Table.Preamble.
 //  4. Columns: each header is read as a species with its unit ("Ca (mg/L)",
 //     "Ca2+ [µmol/L]", "Calcium mg/l", "Ca_umol_L", "NO3-N (mg/L)",
 //     "Alkalinity as CaCO3"), or as sample, site, date, time of day,

@@ -24,6 +24,8 @@ func TestSplitText(t *testing.T) {
 			"Sample|Na (mg/L)|Note", "", "A|0,5|two\nlines/B|1,5|x", "1 0 [2 5]", 0},
 		{"tab pasted, units row", "date\tQ\n\tm3/s\n2021-01-01\t0.5\n", "date|Q", "|m3/s", "2021-01-01|0.5", "1 2 [3]", 0},
 		{"long row kept", "a,b\n1,2,3\n", "a|b", "", "1|2|3", "1 0 [2]", 0},
+		// A logger's note above a two-column header, with a comma in it.
+		{"comment lines with commas", "# gauge 7, Corrie Vale\n# m3/s, daily\ndate,Q\n2021-01-01,0.5\n", "date|Q", "", "2021-01-01|0.5", "3 0 [4]", 2},
 		{"no header", "", "", "", "", "0 0 []", 0},
 	}
 	for _, tt := range tests {

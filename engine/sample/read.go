@@ -194,6 +194,13 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
 }
 
+// commentLine reports a line above the header that starts with "#", which
+// labs and loggers use for notes (common practice): it stays in the
+// preamble however many fields its commas make.
+func commentLine(fs [][]byte) bool {
+	return len(fs) > 0 && bytes.HasPrefix(bytes.TrimSpace(fs[0]), []byte("#"))
+}
+
 // run reads the header, the units row if any, and every data row. comma
 // joins preamble fields and is recorded in the table; sample holds the
 // first rows, split into fields, for the decimal mark.
@@ -220,7 +227,7 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 		if n == 0 {
 			continue
 		}
-		if n >= need {
+		if n >= need && !commentLine(fs) {
 			im.header, im.t.Header = line, line
 			header = make([]string, len(fs))
 			for i, f := range fs {
