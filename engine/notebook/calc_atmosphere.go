@@ -156,6 +156,9 @@ func computeAtmosphere(e *Env) (*Output, error) {
 	if blank > 0 {
 		out.Warnings = append(out.Warnings, fmt.Sprintf("ratios: Na* ≤ 0 after correction in %d of %d samples; their ratios to Na are left blank", blank, len(used)))
 	}
+	if s.Method == "rain" && s.RatioUncertainty == 0 {
+		out.Warnings = append(out.Warnings, "the measured rain ratios are taken as exact; set the rain ratio uncertainty (%) to carry their spread through the apportionment")
+	}
 	if w := rainExcessWarning(cols["Na_atm_share"]); w != "" {
 		out.Warnings = append(out.Warnings, w)
 	}

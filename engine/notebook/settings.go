@@ -169,11 +169,15 @@ func DefaultSettings(k Kind) Settings {
 		return &AtmosphereSettings{Method: "sea-salt", NaPerCl: 0.859120, KPerCl: 0.0186998, CaPerCl: 0.0188361,
 			MgPerCl: 0.0967577, SO4PerCl: 0.0517252, SrPerCl: 0.000166147, DryDeposition: 1,
 			ExcessChloride: "halite", RatioSource: "seawater, Millero et al. 2008",
-			// 10 % (1σ) on the rain ratios and on the ET factor: the methods
-			// brief §8.6 asks for a user value and gives none; 10 % is a
-			// common-practice choice (no source), and 0 makes the correction
-			// exact.
-			RatioUncertainty: 10, FactorUncertainty: 10}
+			// The methods brief §8.6 asks for user values and gives none.
+			// The default method takes the reference-seawater ratios, whose
+			// major-ion proportions are constant in the open ocean (common
+			// practice, from memory), so they start exact (0); a user who
+			// measures rain, or expects fractionated aerosol, sets a spread
+			// (the rain cell warns when measured rain ratios are taken as
+			// exact). The ET factor starts at 10 % (1σ; common practice, no
+			// source); it matters only where Cl* comes from measured rain.
+			RatioUncertainty: 0, FactorUncertainty: 10}
 	case KindSources:
 		return &SourcesSettings{Preset: "global"}
 	case KindApportionment:

@@ -68,6 +68,9 @@ func smallRain() (*notebook.Document, error) {
 		}}
 	for _, e := range [][3]string{
 		{"rain", "method", "rain"},
+		// Measured rain: its X/Cl ratios carry 10 % (1σ), drawn in the
+		// apportionment's Monte Carlo.
+		{"rain", "rain_ratio_uncertainty_percent", "10"},
 		{"rain", "excess_chloride", "human"},
 		{"rain", "dry_deposition_factor", "1.5"},
 		{"apportionment", "tracers", "Ca/Na, Mg/Na"},
