@@ -89,8 +89,12 @@ func TestLongTermConventionSetting(t *testing.T) {
 		for _, f := range d.Output("co2").Figures {
 			got[conv][f.Name] = f.Median
 		}
-		if want := LongTermConventionOf(d.Cell("co2").Settings.(*CO2Settings)); !strings.Contains(d.Output("co2").Table("per-litre").Title, want) {
+		want := LongTermConventionOf(d.Cell("co2").Settings.(*CO2Settings))
+		if !strings.Contains(d.Output("co2").Table("per-litre").Title, want) {
 			t.Errorf("%s: per-litre title %q does not name %q", conv, d.Output("co2").Table("per-litre").Title, want)
+		}
+		if got := d.Report().Convention; got != want {
+			t.Errorf("%s: the report names the convention %q, want %q", conv, got, want)
 		}
 	}
 	const conv, alk = "median silicate CO2 consumption per litre (long-term, (Ca+Mg)_sil)", "median silicate CO2 consumption per litre (long-term, ½ Alk_sil)"

@@ -83,7 +83,7 @@ type Report struct {
 	CationFluxes map[string]Amount `json:"cation_fluxes,omitempty"`  // "silicate", "carbonate"
 	TimeScale    string            `json:"co2_time_scale,omitempty"` // "short" or "long"
 	// Convention names the long-term accounting when TimeScale is "long"
-	// (LongTermConvention).
+	// (LongTermConventionOf).
 	Convention string                    `json:"co2_long_term_convention,omitempty"`
 	CO2        map[string]CO2Part        `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
 	Samples    []SampleReport            `json:"samples"`
@@ -157,9 +157,10 @@ func (d *Document) Report() *Report {
 	}
 	id, co := d.firstOf(KindCO2)
 	if co != nil {
-		r.TimeScale = d.Cell(id).Settings.(*CO2Settings).TimeScale
+		cs := d.Cell(id).Settings.(*CO2Settings)
+		r.TimeScale = cs.TimeScale
 		if r.TimeScale == "long" {
-			r.Convention = LongTermConvention
+			r.Convention = LongTermConventionOf(cs)
 		}
 		if co.Figure("silicate CO2 consumption") != nil {
 			r.CO2 = map[string]CO2Part{}
