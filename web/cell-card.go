@@ -70,17 +70,18 @@ func (c *CellCard) ResultRows(ti int) [][]string {
 	cols := c.ResultColumns(ti)
 	rows := make([][]string, c.resultLen(ti))
 	for i := range rows {
-		row := make([]string, len(cols))
-		for j, col := range cols {
-			if col.Text != nil {
-				if i < len(col.Text) {
-					row[j] = col.Text[i]
-				}
-			} else if i < len(col.Num) {
-				row[j] = plot.Number(col.Num[i])
+		rows[i] = make([]string, len(cols))
+	}
+	for j, col := range cols {
+		text := col.Text
+		if text == nil {
+			text = plot.Column(col.Num) // the whole column: folding does not change its notation
+		}
+		for i := range rows {
+			if i < len(text) {
+				rows[i][j] = text[i]
 			}
 		}
-		rows[i] = row
 	}
 	return rows
 }

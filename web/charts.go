@@ -182,11 +182,7 @@ func texts(c *notebook.Column) []string {
 	if c.Text != nil {
 		return c.Text
 	}
-	out := make([]string, len(c.Num))
-	for i, v := range c.Num {
-		out[i] = plot.Number(v)
-	}
-	return out
+	return plot.Column(c.Num)
 }
 
 func nums(c *notebook.Column) []float64 {

@@ -131,13 +131,14 @@ func ParamLabel(key string) string {
 	return l
 }
 
-// FormatFigure formats a figure's median and its 95 % interval.
+// FormatFigure formats a figure's median and its 95 % interval, the three
+// numbers in one notation.
 func FormatFigure(f notebook.Figure) (value, interval string) {
-	value = plot.Number(f.Median)
-	if !math.IsNaN(f.Low) && !math.IsNaN(f.High) {
-		interval = fmt.Sprintf("95 %%: %s to %s", plot.Number(f.Low), plot.Number(f.High))
+	if math.IsNaN(f.Low) || math.IsNaN(f.High) {
+		return plot.Column([]float64{f.Median})[0], ""
 	}
-	return value, interval
+	s := plot.Column([]float64{f.Median, f.Low, f.High})
+	return s[0], fmt.Sprintf("95 %%: %s to %s", s[1], s[2])
 }
 
 // Cells gathers the views of every cell. running names the cell being

@@ -1,9 +1,6 @@
 package plot
 
-import (
-	"math"
-	"strconv"
-)
+import "math"
 
 // Axis maps data values onto a pixel range, linearly or by log10.
 type Axis struct {
@@ -112,14 +109,10 @@ func (a *Axis) Ticks() []Tick {
 					continue
 				}
 				lab := m == 1 || (few && (m == 2 || m == 5))
-				tk := Tick{Value: v, Minor: !lab}
-				if lab {
-					tk.Label = Number(v)
-				}
-				t = append(t, tk)
+				t = append(t, Tick{Value: v, Minor: !lab})
 			}
 		}
-		return t
+		return labelTicks(t)
 	}
 	step := niceStep((a.Max - a.Min) / 5)
 	var t []Tick
@@ -127,7 +120,26 @@ func (a *Axis) Ticks() []Tick {
 		if math.Abs(v) < step*1e-9 {
 			v = 0
 		}
-		t = append(t, Tick{Value: v, Label: Number(v)})
+		t = append(t, Tick{Value: v})
+	}
+	return labelTicks(t)
+}
+
+// labelTicks writes the labels of the major ticks in one notation.
+func labelTicks(t []Tick) []Tick {
+	var vs []float64
+	for _, tk := range t {
+		if !tk.Minor {
+			vs = append(vs, tk.Value)
+		}
+	}
+	labels := TickLabels(vs)
+	k := 0
+	for i := range t {
+		if !t[i].Minor {
+			t[i].Label = labels[k]
+			k++
+		}
 	}
 	return t
 }
@@ -147,24 +159,4 @@ func niceStep(x float64) float64 {
 		return 5 * p
 	}
 	return 10 * p
-}
-
-// Number formats a tick or figure value compactly: up to four significant
-// digits, scientific notation only for very large or small values.
-func Number(v float64) string {
-	switch {
-	case math.IsNaN(v):
-		return "–"
-	case v == 0:
-		return "0"
-	}
-	av := math.Abs(v)
-	if av >= 1e6 || av < 1e-3 {
-		return strconv.FormatFloat(v, 'e', 2, 64)
-	}
-	s := strconv.FormatFloat(v, 'g', 4, 64)
-	if f, err := strconv.ParseFloat(s, 64); err == nil && av >= 1000 {
-		s = strconv.FormatFloat(f, 'f', -1, 64)
-	}
-	return s
 }

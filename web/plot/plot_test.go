@@ -76,13 +76,44 @@ func TestNumber(t *testing.T) {
 		v    float64
 		want string
 	}{
-		{0, "0"}, {1, "1"}, {0.25, "0.25"}, {1234.6, "1235"}, {45.678, "45.68"},
-		{2.5e10, "2.50e+10"}, {0.0001, "1.00e-04"}, {math.NaN(), "–"},
+		{0, "0"}, {1, "1"}, {0.25, "0.25"}, {1234.6, "1235"}, {45.678, "45.68"}, {-3.9104, "-3.91"},
+		{151300, "151,300"}, {112449, "112,400"}, {1.4351e6, "1.44 × 10⁶"}, {2.5e10, "2.50 × 10¹⁰"},
+		{0.0001, "1.00 × 10⁻⁴"}, {-2e-5, "-2.00 × 10⁻⁵"}, {math.NaN(), "–"},
 	}
 	for _, tt := range tests {
 		if got := Number(tt.v); got != tt.want {
 			t.Errorf("Number(%g): got %q, want %q", tt.v, got, tt.want)
 		}
+	}
+}
+
+func TestColumnAndTickLabels(t *testing.T) {
+	nan := math.NaN()
+	tests := []struct {
+		name   string
+		format func([]float64) []string
+		vs     []float64
+		want   []string
+	}{
+		{"column: large values all scientific", Column, []float64{1.44e6, 380000, 0}, []string{"1.44 × 10⁶", "3.80 × 10⁵", "0"}},
+		{"column: whole numbers", Column, []float64{78, 2021, 12000}, []string{"78", "2021", "12,000"}},
+		{"column: narrow range, fixed decimals", Column, []float64{1.059, 0.3686, -3.91, -4.0012, nan}, []string{"1.059", "0.369", "-3.910", "-4.001", "–"}},
+		{"column: large values rounded alike", Column, []float64{256012.4, 12913.2, 8851.7}, []string{"256,010", "12,910", "8850"}},
+		{"column: small values keep three digits", Column, []float64{171.24, 8.514, 5.762}, []string{"171.24", "8.51", "5.76"}},
+		{"column: wide range, value by value", Column, []float64{0.002, 25, 0.707}, []string{"0.002", "25", "0.707"}},
+		{"column: nothing but zeros and gaps", Column, []float64{0, nan}, []string{"0", "–"}},
+		{"ticks: plain", TickLabels, []float64{0, 0.2, 0.4, 0.6000000000000001}, []string{"0", "0.2", "0.4", "0.6"}},
+		{"ticks: grouped", TickLabels, []float64{0, 50000, 100000, 150000}, []string{"0", "50,000", "100,000", "150,000"}},
+		{"ticks: scientific", TickLabels, []float64{0, 5e5, 1e6, 1.5e6}, []string{"0", "5 × 10⁵", "10⁶", "1.5 × 10⁶"}},
+		{"ticks: decades", TickLabels, []float64{0.1, 1, 10, 100}, []string{"0.1", "1", "10", "100"}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			got := tt.format(tt.vs)
+			if strings.Join(got, "|") != strings.Join(tt.want, "|") {
+				t.Errorf("got %q, want %q", got, tt.want)
+			}
+		})
 	}
 }
 
