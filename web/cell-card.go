@@ -76,6 +76,11 @@ func (c *CellCard) ResultRows(ti int) [][]string {
 		text := col.Text
 		if text == nil {
 			text = plot.Column(col.Num) // the whole column: folding does not change its notation
+		} else if col.Name == "year" && c.V.YearStart > 1 {
+			text = make([]string, min(len(col.Text), len(rows)))
+			for i := range text {
+				text[i] = WaterYear(col.Text[i], c.V.YearStart)
+			}
 		}
 		for i := range rows {
 			if i < len(text) {
@@ -148,6 +153,7 @@ func (c *CellCard) FillResult(el js.Value, ti int) {
 	d.str(c.V.ID)
 	d.str(t.Name)
 	d.num(float64(n))
+	d.num(float64(c.V.YearStart))
 	for _, col := range cols {
 		d.str(col.Name)
 		d.str(col.Unit)
@@ -175,6 +181,9 @@ func (c *CellCard) FillParam(el js.Value, p ParamView) {
 	choices := make([]Choice, len(p.Options))
 	for i, o := range p.Options {
 		choices[i] = Choice{o, o}
+		if i < len(p.OptionLabels) {
+			choices[i].Label = p.OptionLabels[i]
+		}
 	}
 	mountOptions(el, choices, p.Value)
 }
@@ -368,7 +377,22 @@ func (c *CellCard) ResultTitle(ti int) string {
 	if title == "" {
 		title = t.Name
 	}
+	if cs := c.chartSettings(); cs != nil && t.Name == "points" {
+		_, y := lookupRef(c.R.S.Doc, cs.Y)
+		_, x := lookupRef(c.R.S.Doc, cs.X)
+		title = y + " against " + x
+	}
 	return fmt.Sprintf("%s (%d rows)", title, t.Len())
+}
+
+// chartSettings returns the settings of a chart cell, else nil.
+func (c *CellCard) chartSettings() *notebook.ChartSettings {
+	if cell := c.R.S.Doc.Cell(c.V.ID); cell != nil {
+		if cs, ok := cell.Settings.(*notebook.ChartSettings); ok {
+			return cs
+		}
+	}
+	return nil
 }
 
 // ResultToggleLine labels the fold button of output table ti.

@@ -530,12 +530,12 @@ func userChart(id string, d *notebook.Document, c *notebook.Cell) *plot.Chart {
 	return ch
 }
 
-// lookupRef finds the column named by "cell.table.column".
+// lookupRef finds the column named by "cell.table.column" and its label.
 func lookupRef(d *notebook.Document, ref string) (*notebook.Column, string) {
 	parts := strings.SplitN(ref, ".", 3)
 	if len(parts) != 3 {
 		return nil, ref
 	}
 	t := d.Output(parts[0]).Table(parts[1])
-	return t.Column(parts[2]), parts[2]
+	return t.Column(parts[2]), ColumnName(parts[1], parts[2])
 }

@@ -87,7 +87,7 @@ func ResultHTML(cell string, t *notebook.ResultTable, cols []*notebook.Column, r
 	b.WriteString(`"><thead><tr>`)
 	for _, col := range cols {
 		b.WriteString("<th>")
-		b.WriteString(esc(Header(col)))
+		b.WriteString(esc(ColumnLabel(t.Name, col)))
 		b.WriteString("</th>")
 	}
 	b.WriteString("</tr></thead><tbody>")

@@ -32,12 +32,14 @@ type CellView struct {
 	NoteText                   string
 	Progress                   float64 // 0..1 while running
 	OldOutputs                 bool    // outputs shown are from before the last edit
+	YearStart                  int     // first month of the reporting years of its tables (1: calendar years)
 }
 
 // ParamView is one setting as a form field.
 type ParamView struct {
 	Key, Label, Value, Type string
 	Options                 []string // choices, for a select
+	OptionLabels            []string // what the select shows of each choice, when not the choice itself
 }
 
 // RoleView is one input of a cell and the cells that can fill it.
@@ -176,14 +178,22 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			v.Problem = c.Problem
 		}
 		if c.Settings != nil && !c.Broken() {
-			for _, p := range notebook.Params(c.Settings) {
+			params := notebook.Params(c.Settings)
+			for _, p := range params {
 				if c.Kind == notebook.KindNote && p.Key == "text" {
 					v.NoteText = p.Value
 					continue
 				}
-				pv := ParamView{Key: p.Key, Label: ParamLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]}
+				if idle(c.Kind, p.Key, params) {
+					continue
+				}
+				pv := ParamView{Key: p.Key, Label: SettingLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]}
 				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
 					pv.Options = columnRefs(d, c.ID, p.Value)
+					pv.OptionLabels = make([]string, len(pv.Options))
+					for i, r := range pv.Options {
+						pv.OptionLabels[i] = RefLabel(d, r)
+					}
 				} else if c.Kind == notebook.KindChart && p.Key == "style" {
 					pv.Options = choices["chart-style"]
 				}
@@ -230,6 +240,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Old: v.OldOutputs})
 			}
 			v.Results = o.Tables
+			v.YearStart = waterYearStart(d, c.ID)
 			v.Charts = charts.For(d, c, o)
 		}
 		out = append(out, v)

@@ -1,0 +1,55 @@
+package web
+
+import (
+	"testing"
+
+	"lixiv/engine/notebook"
+)
+
+func TestLabels(t *testing.T) {
+	tests := []struct {
+		name, got, want string
+	}{
+		{"column by table", ColumnName("per-litre", "silicate"), "silicate CO2 consumption"},
+		{"column bound", ColumnName("years", "consumption_high"), "CO2 consumption, 97.5 %"},
+		{"column by name", ColumnName("rain", "Na_atm_share"), "atmospheric share of Na"},
+		{"cation and source", ColumnName("shares", "Ca_silicate_low"), "Ca from silicate, 2.5 %"},
+		{"per km² bound", ColumnName("other", "per_km2_low"), "per km², 2.5 %"},
+		{"unknown column kept", ColumnName("t", "odd_name"), "odd_name"},
+		{"column with unit", ColumnLabel("rain", &notebook.Column{Name: "Cl_atm", Unit: "µmol/L"}), "atmospheric Cl (µmol/L)"},
+		{"setting from the table", SettingLabel("d34s_river_permil"), "δ34S river (‰)"},
+		{"setting by rule", SettingLabel("area_km2"), "area (km²)"},
+		{"water year", WaterYear("2021", 10), "2021 (water year Oct 2020–Sep 2021)"},
+		{"calendar year", WaterYear("2021", 1), "2021"},
+		{"not a year", WaterYear("mean", 10), "mean"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if tt.got != tt.want {
+				t.Errorf("got %q, want %q", tt.got, tt.want)
+			}
+		})
+	}
+}
+
+func TestIdleSettings(t *testing.T) {
+	params := func(sulfate string) []notebook.Param {
+		return []notebook.Param{{Key: "sulfate", Value: sulfate}, {Key: "d34s_river_permil", Value: "5"}}
+	}
+	tests := []struct {
+		kind    notebook.Kind
+		key     string
+		sulfate string
+		want    bool
+	}{
+		{notebook.KindApportionment, "d34s_river_permil", "gypsum", true},
+		{notebook.KindApportionment, "d34s_river_permil", "isotope", false},
+		{notebook.KindApportionment, "draws", "gypsum", false},
+		{notebook.KindAtmosphere, "d34s_river_permil", "gypsum", false},
+	}
+	for _, tt := range tests {
+		if got := idle(tt.kind, tt.key, params(tt.sulfate)); got != tt.want {
+			t.Errorf("idle(%s, %s, sulfate %s): got %v, want %v", tt.kind, tt.key, tt.sulfate, got, tt.want)
+		}
+	}
+}
