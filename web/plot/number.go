@@ -40,7 +40,7 @@ func Number(v float64) string {
 // Column formats the values of one table column alike. The notation is
 // chosen for the whole column: scientific when its largest value calls for
 // it; whole numbers when every value is whole; else fixed decimals, enough
-// for four significant digits in the largest value and three in the
+// for four significant digits in the largest value and two in the
 // smallest, when that asks no more than five of the largest; else each
 // value plainly with four significant digits.
 func Column(vs []float64) []string {
@@ -48,7 +48,7 @@ func Column(vs []float64) []string {
 	exp, ok := 0, false // the column's values are multiples of 10^exp
 	if hi > 0 {
 		eHi, eLo := int(math.Floor(math.Log10(hi))), int(math.Floor(math.Log10(lo)))
-		exp = min(eHi-plainSig+1, eLo-sciSig+1)
+		exp = min(eHi-plainSig+1, eLo-1)
 		ok = exp >= eHi-plainSig
 	}
 	out := make([]string, len(vs))
