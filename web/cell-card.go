@@ -445,6 +445,25 @@ func (c *CellCard) EmptyTableHint() string {
 	return "The table is empty: paste rows below, or use \"Fill from preset\"."
 }
 
+// TableUnused reports an empty input table that the cell's current
+// settings do not read: the rain table of the sea-salt method.
+func (c *CellCard) TableUnused() bool {
+	if c.V.Kind != string(notebook.KindAtmosphere) || len(c.V.Table.Rows) > 0 {
+		return false
+	}
+	for _, p := range c.V.Params {
+		if p.Key == "method" {
+			return p.Value == "sea-salt"
+		}
+	}
+	return false
+}
+
+// UnusedTableHint stands in for an unused empty table.
+func (c *CellCard) UnusedTableHint() string {
+	return "The sea-salt method needs no rain chemistry; choose the rain method to enter rain samples."
+}
+
 // CellClass marks a table cell that a problem names.
 func (c *CellCard) CellClass(row, col int) string {
 	if c.V.bad[[2]int{row, col}] {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/vugu/vugu/js"
 
@@ -93,8 +94,15 @@ func ResultHTML(cell string, t *notebook.ResultTable, cols []*notebook.Column, r
 	b.WriteString("</tr></thead><tbody>")
 	for _, r := range rows {
 		b.WriteString("<tr>")
-		for _, v := range r {
-			b.WriteString("<td>")
+		for j, v := range r {
+			switch {
+			case j < len(cols) && cols[j].Text != nil && utf8.RuneCountInString(v) > wrapText:
+				b.WriteString(`<td class="text long">`) // long text wraps
+			case j < len(cols) && cols[j].Text != nil:
+				b.WriteString(`<td class="text">`)
+			default:
+				b.WriteString("<td>")
+			}
 			b.WriteString(esc(v))
 			b.WriteString("</td>")
 		}
@@ -103,6 +111,10 @@ func ResultHTML(cell string, t *notebook.ResultTable, cols []*notebook.Column, r
 	b.WriteString("</tbody></table>")
 	return b.String()
 }
+
+// wrapText is the length of text above which a table cell wraps it onto
+// more lines (short texts, dates and names, stay on one).
+const wrapText = 24
 
 // Choice is one option of a choice field: the value sent and its label.
 type Choice struct{ Value, Label string }

@@ -3,6 +3,7 @@ package web
 import (
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/vugu/vugu/js"
 )
@@ -33,20 +34,57 @@ func (c *CellCard) DataTable() DataTable {
 	rows := c.Rows()
 	t := DataTable{Cell: c.V.ID, Columns: len(cols), Widths: make([]int, len(rows))}
 	t.Fields = make([]Field, 0, len(cols)*(len(rows)+2))
+	width := columnWidths(cols, rows)
 	for j, h := range cols {
-		t.Fields = append(t.Fields, Field{h, c.HeadClass(j)})
+		t.Fields = append(t.Fields, Field{h, withWidth(c.HeadClass(j), width, j)})
 	}
 	for j := range cols {
-		t.Fields = append(t.Fields, Field{c.Unit(j), "unit"})
+		t.Fields = append(t.Fields, Field{c.Unit(j), withWidth("unit", width, j)})
 	}
 	for i, r := range rows {
 		cells := c.RowCells(r)
 		t.Widths[i] = len(cells)
 		for j, v := range cells {
-			t.Fields = append(t.Fields, Field{v, c.CellClass(i, j)})
+			t.Fields = append(t.Fields, Field{v, withWidth(c.CellClass(i, j), width, j)})
 		}
 	}
 	return t
+}
+
+// columnWidths gives each column of an input table the width class its
+// longest shown text asks for: "" (a number's width), "wide" or "wider".
+// Text longer than the widest field ends in "…" and shows whole on hover.
+func columnWidths(cols []string, rows [][]string) []string {
+	longest := make([]int, len(cols))
+	for j, h := range cols {
+		longest[j] = utf8.RuneCountInString(h)
+	}
+	for _, r := range rows {
+		for j := 0; j < len(r) && j < len(cols); j++ {
+			longest[j] = max(longest[j], utf8.RuneCountInString(r[j]))
+		}
+	}
+	out := make([]string, len(cols))
+	for j, n := range longest {
+		switch {
+		case n > 22:
+			out[j] = "wider"
+		case n > 11:
+			out[j] = "wide"
+		}
+	}
+	return out
+}
+
+// withWidth adds column j's width class to a field's class.
+func withWidth(class string, width []string, j int) string {
+	if j >= len(width) || width[j] == "" {
+		return class
+	}
+	if class == "" {
+		return width[j]
+	}
+	return class + " " + width[j]
 }
 
 // Labels names each field for screen readers, in the order of Fields:
@@ -107,6 +145,10 @@ func (t DataTable) HTML() string {
 		b.WriteString(esc(f.Class))
 		b.WriteString(`" aria-label="`)
 		b.WriteString(esc(labels[k]))
+		if utf8.RuneCountInString(f.Value) > longField {
+			b.WriteString(`" title="`)
+			b.WriteString(esc(f.Value))
+		}
 		b.WriteString(`" value="`)
 		b.WriteString(esc(f.Value))
 		b.WriteString(`" data-edit="` + edit + `" data-row="` + strconv.Itoa(row) + `" data-col="` + strconv.Itoa(col) + `">`)
@@ -141,6 +183,10 @@ func (t DataTable) HTML() string {
 	b.WriteString("</tbody></table>")
 	return b.String()
 }
+
+// longField is the length of text above which a field carries its whole
+// text as a tooltip: the widest field shows about this much.
+const longField = 48
 
 // shapeKey is the JS property, beside mountKey, that holds a mounted
 // table's shape.
@@ -183,6 +229,9 @@ func updateFields(table js.Value, t DataTable) bool {
 		}
 		if in.Get("className").String() != f.Class {
 			in.Set("className", f.Class)
+		}
+		if utf8.RuneCountInString(f.Value) > longField && in.Get("title").String() != f.Value {
+			in.Set("title", f.Value)
 		}
 		if in.Call("getAttribute", "aria-label").String() != labels[i] {
 			in.Call("setAttribute", "aria-label", labels[i])

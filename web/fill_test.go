@@ -19,8 +19,8 @@ func TestResultHTML(t *testing.T) {
 	tests := []struct{ name, want string }{
 		{"table", `<table class="out" id="out-samples-samples"><thead><tr>`},
 		{"headings", `<th>sample</th><th>Na (µmol/L)</th>`},
-		{"markup as text", `<td>&lt;b&gt;CV-1&lt;/b&gt;</td><td>210</td>`},
-		{"ampersand", `<td>CV-2 &amp; 3</td>`},
+		{"markup as text", `<td class="text">&lt;b&gt;CV-1&lt;/b&gt;</td><td>210</td>`},
+		{"ampersand", `<td class="text">CV-2 &amp; 3</td>`},
 		{"end", `</tr></tbody></table>`},
 	}
 	for _, tt := range tests {
