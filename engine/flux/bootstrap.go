@@ -6,6 +6,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"sort"
+	"strings"
 
 	"lixiv/engine/discharge"
 )
@@ -27,8 +28,51 @@ const (
 	PerSampleDraw
 )
 
+// Sources is a set of the inputs whose uncertainty Bootstrap propagates.
+type Sources uint8
+
+// The sources of a bootstrap replicate, each drawn from its own PCG stream.
+const (
+	// Sampling is the resampling of the samples within each reporting year.
+	Sampling Sources = 1 << iota
+	// Apportionment is each sample's draw from Series.Draws: the end-member
+	// ratios of the inverse model, and the rain ratios and ET factor where
+	// their spread is set, all enter through the draws.
+	Apportionment
+	// Discharge is the systematic discharge error (DischargeError).
+	Discharge
+	// Area is the catchment-area error (AreaError).
+	Area
+	// AllSources is every source.
+	AllSources = Sampling | Apportionment | Discharge | Area
+)
+
+// String names the sources, as "sampling+discharge" ("none" for none).
+func (s Sources) String() string {
+	var parts []string
+	for i, n := range []string{"sampling", "apportionment", "discharge", "area"} {
+		if s&(1<<i) != 0 {
+			parts = append(parts, n)
+		}
+	}
+	if len(parts) == 0 {
+		return "none"
+	}
+	return strings.Join(parts, "+")
+}
+
+// Alone returns the options with every source but s held at its central
+// value, for a breakdown of an interval by source: the same seed, so the
+// varied source takes the same values, replicate by replicate, as in a
+// bootstrap of all sources together.
+func (b BootstrapOptions) Alone(s Sources) BootstrapOptions {
+	b.Hold = AllSources &^ s
+	return b
+}
+
 // BootstrapOptions control Bootstrap. The zero value runs 1000 replicates
-// with seed 0, no discharge or area error and shared draws.
+// with seed 0, no discharge or area error, shared draws and every source
+// varied.
 type BootstrapOptions struct {
 	Replicates int    // number of replicates; 0 means 1000
 	Seed       uint64 // seed of the PCG generators; the same seed gives the same bits natively and in WebAssembly
@@ -45,6 +89,14 @@ type BootstrapOptions struct {
 	// redrawn while that is not positive.
 	AreaError float64
 	Draws     DrawMode
+	// Hold lists the sources held at their central values: every sample
+	// once (Sampling), each sample's point concentration, Series.C or the
+	// median of its draws (Apportionment), the recorded discharge (Discharge) and the given area
+	// (Area). The zero value holds none. A held source's stream is still
+	// drawn from, so the others take the same values as with none held.
+	// With every source held, every replicate gives the point estimate
+	// (to rounding, for the rating curve's summed moments).
+	Hold Sources
 	// Tick, when set, is called now and then during a long bootstrap
 	// (after each sample's draws are checked and after each replicate),
 	// so that a caller running on one goroutine can hand control back to
@@ -132,7 +184,11 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	if len(smp) == 0 {
 		return u, fmt.Errorf("%s: %w", s.Name, ErrNoSamples)
 	}
-	pick, err := newPicker(s, smp, b.Draws, b.tick)
+	ps := s
+	if b.Hold&Apportionment != 0 {
+		ps.Draws = nil // every sample keeps its point value; the draws are not read
+	}
+	pick, err := newPicker(ps, smp, b.Draws, b.tick)
 	if err != nil {
 		return u, err
 	}
@@ -157,6 +213,11 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	w := make([]float64, len(smp))
 	c := make([]float64, len(smp))
 	out := make([]float64, ny)
+	// With neither the samples nor their concentrations varied, every
+	// replicate has the same loads before its discharge and area errors:
+	// they are computed once, into fixed.
+	var fixed []float64
+	fixedOK := false
 	for r := 0; r < nrep; r++ {
 		for i := range w {
 			w[i] = 0
@@ -166,10 +227,31 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 				w[g[rs.IntN(len(g))]]++
 			}
 		}
+		if b.Hold&Sampling != 0 {
+			for i := range w {
+				w[i] = 1
+			}
+		}
 		pick(rd, c)
 		fq := factor(re, b.DischargeError)
 		fa := factor(re, b.AreaError)
-		ok := e.loads(opt.Method, w, c, out, nil)
+		if b.Hold&Discharge != 0 {
+			fq = 1
+		}
+		if b.Hold&Area != 0 {
+			fa = 1
+		}
+		var ok bool
+		switch {
+		case b.Hold&(Sampling|Apportionment) != Sampling|Apportionment:
+			ok = e.loads(opt.Method, w, c, out, nil)
+		case fixed == nil:
+			ok = e.loads(opt.Method, w, c, out, nil)
+			fixed, fixedOK = append([]float64(nil), out...), ok
+		default:
+			ok = fixedOK
+			copy(out, fixed)
+		}
 		ropt := opt
 		ropt.AreaKm2 = opt.AreaKm2 * fa
 		sumQ := make([]float64, ny)

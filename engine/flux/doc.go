@@ -45,6 +45,9 @@
 //     concentration (Series.Draws, shared draw index or per sample), a
 //     systematic discharge error and an area error; it reports the median
 //     and 95 % interval of every figure (science brief §8.6).
+//     BootstrapOptions.Hold holds chosen sources at their central values
+//     (Alone varies one source only), for a breakdown of an interval by
+//     source; its zero value varies them all.
 //
 // # Reproducibility
 //

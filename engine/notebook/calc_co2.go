@@ -186,12 +186,13 @@ func computeCO2(e *Env) (*Output, error) {
 	fv := fi.Value.(*Fluxes)
 	if fv.App != a {
 		out.Warnings = append(out.Warnings, "the fluxes cell reads another apportionment; its discharge record and options are used here")
-		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, App: a}
+		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, SeriesReplicates: fv.SeriesReplicates, App: a}
 	}
 	done := n // progress units: per litre, then each bootstrap
 	fv = fv.ticking(func() { e.Report(done, total) })
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64
+	bySource := &sourceTable{unit: "mol/km²/yr", n: fv.breakdownReplicates()}
 	for k, part := range []struct {
 		name string
 		carb bool
@@ -217,10 +218,18 @@ func computeCO2(e *Env) (*Output, error) {
 		}
 		boot := !e.Rough() // the quick pass: point values now, intervals in the full pass
 		out.Rough = out.Rough || !boot
-		r, u, w, err := fv.estimate(ser, boot)
+		reps := 0
+		if boot {
+			reps = max(fv.Bootstrap.Replicates, 1)
+		}
+		fr, w, err := fv.fit(ser, reps)
+		r, u := fr.r, fr.u
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil {
 			return nil, err
+		}
+		if boot {
+			out.Warnings = append(out.Warnings, bySource.add(fv, part.name+" CO2 consumption per km²", fr, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })...)
 		}
 		done = n + (k+1)*n
 		e.Report(done, total)
@@ -258,6 +267,9 @@ func computeCO2(e *Env) (*Output, error) {
 		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
 		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi),
 		NumColumn("per_km2", "mol/km²/yr", kMed), NumColumn("per_km2_low", "mol/km²/yr", kLo), NumColumn("per_km2_high", "mol/km²/yr", kHi)}})
+	if t := bySource.table(); t != nil {
+		out.Tables = append(out.Tables, t)
+	}
 	out.Warnings = groupSeries(out.Warnings, map[string]bool{"silicate CO2": true, "carbonate CO2": true})
 	return out, nil
 }

@@ -121,6 +121,22 @@ func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncerta
 
 // estimateN is estimate with reps bootstrap replicates (0: none).
 func (v *Fluxes) estimateN(s flux.Series, reps int) (*flux.Result, *flux.Uncertainty, []string, error) {
+	f, warns, err := v.fit(s, reps)
+	return f.r, f.u, warns, err
+}
+
+// fitted is one series fluxed by fit: the point result, its bootstrap (nil
+// without one), and the series and options used (the estimator after any
+// fallback), so that it can be bootstrapped again one source at a time.
+type fitted struct {
+	s   flux.Series
+	opt flux.Options
+	r   *flux.Result
+	u   *flux.Uncertainty
+}
+
+// fit does estimateN's work and keeps what it used.
+func (v *Fluxes) fit(s flux.Series, reps int) (fitted, []string, error) {
 	var warns []string
 	opt := v.Options
 	if opt.Method == flux.Rating {
@@ -142,25 +158,28 @@ func (v *Fluxes) estimateN(s flux.Series, reps int) (*flux.Result, *flux.Uncerta
 		opt.Method = flux.PeriodWeighted
 		r, err = flux.Estimate(v.Record, s, opt)
 	}
+	f := fitted{s: s, opt: opt}
 	if err != nil {
-		return nil, nil, warns, fmt.Errorf("%s: %v", s.Name, err)
+		return f, warns, fmt.Errorf("%s: %v", s.Name, err)
 	}
+	f.r = r
 	for _, w := range r.Warnings {
 		warns = append(warns, w.Error())
 	}
 	if reps <= 0 {
-		return r, nil, warns, nil
+		return f, warns, nil
 	}
 	bo := v.Bootstrap
 	bo.Replicates = reps
 	u, err := flux.Bootstrap(v.Record, s, opt, bo)
 	if err != nil {
-		return r, nil, warns, fmt.Errorf("%s: bootstrap: %v", s.Name, err)
+		return f, warns, fmt.Errorf("%s: bootstrap: %v", s.Name, err)
 	}
 	if u.Failed > 0 {
 		warns = append(warns, fmt.Sprintf("%s: %d of %d bootstrap replicates could not be fitted", s.Name, u.Failed, u.Failed+u.Replicates))
 	}
-	return r, u, warns, nil
+	f.u = u
+	return f, warns, nil
 }
 
 func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
@@ -317,6 +336,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	var rName []string
 	var rA, rB, rR2, rS, rFactor, rN []float64
+	bySource := &sourceTable{unit: "mol/km²/yr", n: v.breakdownReplicates()}
 	var figs, cover []Figure
 	var runoff Figure
 	for j, jb := range jobs {
@@ -335,7 +355,8 @@ func computeFluxes(e *Env) (*Output, error) {
 			reps = 0
 		}
 		ser := jb.build()
-		r, u, w, err := tv.estimateN(ser, reps)
+		fr, w, err := tv.fit(ser, reps)
+		r, u := fr.r, fr.u
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil && (jb.sum || r == nil) {
 			if jb.sum {
@@ -359,6 +380,9 @@ func computeFluxes(e *Env) (*Output, error) {
 		if runoff.Name == "" { // the first cation sum: the samples every apportioned series uses
 			f, w := flowCoverage(r)
 			cover, out.Warnings = f, append(out.Warnings, w...)
+		}
+		if !rough {
+			out.Warnings = append(out.Warnings, bySource.add(tv, ser.Name+" yield", fr, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })...)
 		}
 		runoff = withInterval("runoff", "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
 		figs = append(figs, withInterval(ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
@@ -410,6 +434,9 @@ func computeFluxes(e *Env) (*Output, error) {
 		out.Tables = append(out.Tables, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q (point fits)", Columns: []*Column{
 			TextColumn("series", rName), NumColumn("a", "µmol/L", rA), NumColumn("b", "", rB), NumColumn("R2", "", rR2),
 			NumColumn("s", "ln units", rS), NumColumn("bias_factor", "", rFactor), NumColumn("n", "samples", rN)}})
+	}
+	if t := bySource.table(); t != nil {
+		out.Tables = append(out.Tables, t)
 	}
 	series := map[string]bool{}
 	for _, r := range rows {
@@ -609,4 +636,77 @@ func weatheringRate(name string, parts []ratePart, points map[string]float64, re
 	in := flux.Summary(rate)
 	f.Median, f.Low, f.High = in.Median, in.Lo, in.Hi
 	return f, true
+}
+
+// uncertaintySources are the inputs the "uncertainty by source" table varies
+// one at a time (methods brief §8.6), in table order.
+var uncertaintySources = []struct {
+	name string
+	src  flux.Sources
+}{
+	{"sampling (samples resampled within years)", flux.Sampling},
+	{"apportionment (end-member draws, with the rain ratios and ET factor where their spread is set)", flux.Apportionment},
+	{"discharge (systematic error)", flux.Discharge},
+	{"catchment area", flux.Area},
+}
+
+// BreakdownReplicates is the most bootstrap replicates the "uncertainty by
+// source" table takes for each source alone; fewer when the bootstrap
+// setting is lower, none when series_bootstrap is 0.
+const BreakdownReplicates = 200
+
+// breakdownReplicates returns the replicates for each source alone.
+func (v *Fluxes) breakdownReplicates() int {
+	return min(BreakdownReplicates, v.SeriesReplicates, max(v.Bootstrap.Replicates, 1))
+}
+
+// sourceTable collects the rows of the "uncertainty by source" table: for
+// each headline figure, all sources together, then each source alone.
+type sourceTable struct {
+	figure, source         []string
+	med, lo, hi, rel, reps []float64
+	unit                   string
+	n                      int // replicates for each source alone
+}
+
+func (t *sourceTable) row(figure, source string, in flux.Interval, reps int) {
+	t.figure, t.source = append(t.figure, figure), append(t.source, source)
+	t.med, t.lo, t.hi = append(t.med, in.Median), append(t.lo, in.Lo), append(t.hi, in.Hi)
+	t.rel, t.reps = append(t.rel, (in.Hi-in.Lo)/math.Abs(in.Median)), append(t.reps, float64(reps))
+}
+
+// add adds the rows of one headline figure of f, taken by pick: all
+// sources from f's bootstrap, then each source alone with the others held
+// at their central values, bootstrapped with t.n replicates of the same seed
+// (the first replicates of the same sequence). It returns warnings.
+func (t *sourceTable) add(v *Fluxes, figure string, f fitted, pick func(*flux.LoadInterval) flux.Interval) []string {
+	if f.u == nil || t.n <= 0 {
+		return nil
+	}
+	t.row(figure, "all sources", pick(&f.u.Mean), f.u.Replicates)
+	var warns []string
+	for _, us := range uncertaintySources {
+		bo := v.Bootstrap.Alone(us.src)
+		bo.Replicates = t.n
+		u, err := flux.Bootstrap(v.Record, f.s, f.opt, bo)
+		if err != nil {
+			warns = append(warns, fmt.Sprintf("%s: %s alone: %v", f.s.Name, us.name, err))
+			continue
+		}
+		t.row(figure, us.name, pick(&u.Mean), u.Replicates)
+	}
+	return warns
+}
+
+// table returns the result table, or nil without rows.
+func (t *sourceTable) table() *ResultTable {
+	if len(t.figure) == 0 {
+		return nil
+	}
+	return &ResultTable{Name: "by-source",
+		Title: fmt.Sprintf("Uncertainty by source: median and 95 %% interval with each source varied alone, the others held at their central values "+
+			"(%d replicates each, so approximate), beside all sources together; one-at-a-time widths do not add up to the total (common practice)", t.n),
+		Columns: []*Column{TextColumn("figure", t.figure), TextColumn("source", t.source),
+			NumColumn("median", t.unit, t.med), NumColumn("low", t.unit, t.lo), NumColumn("high", t.unit, t.hi),
+			NumColumn("relative_width", "fraction of the median", t.rel), NumColumn("replicates", "", t.reps)}}
 }

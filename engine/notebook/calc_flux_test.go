@@ -127,3 +127,124 @@ func TestWeatheringRateReplicates(t *testing.T) {
 		t.Error("a rate whose series are absent should be left out")
 	}
 }
+
+// TestUncertaintyBySource checks the "uncertainty by source" tables of the
+// demo budget (Corrie Vale: inverse apportionment with draws, discharge
+// error 7 %, area error 2 %, series_bootstrap 200): every headline figure
+// has its all-sources row, the headline interval itself, and one row per
+// source alone with BreakdownReplicates replicates; the discharge and area
+// rows have the widths their normal errors give; the quick pass and
+// series_bootstrap 0 leave the table out.
+func TestUncertaintyBySource(t *testing.T) {
+	const path = "../../examples/corrie-vale/corrie-vale.lixiv.json"
+	d, err := loadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	sources := []string{"all sources"}
+	for _, us := range uncertaintySources {
+		sources = append(sources, us.name)
+	}
+	for _, c := range []struct {
+		kind    Kind
+		figures []string
+	}{
+		{KindFluxes, []string{"silicate cations yield", "carbonate cations yield"}},
+		{KindCO2, []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²"}},
+	} {
+		_, o := d.firstOf(c.kind)
+		tb := o.Table("by-source")
+		if tb == nil {
+			t.Fatalf("%v: no by-source table", c.kind)
+		}
+		if !strings.Contains(tb.Title, "do not add up to the total") || !strings.Contains(tb.Title, "200 replicates") {
+			t.Errorf("%v: title %q should give the replicates and say the widths do not add up", c.kind, tb.Title)
+		}
+		fig, src := tb.Column("figure").Text, tb.Column("source").Text
+		med, lo, hi := tb.Column("median").Num, tb.Column("low").Num, tb.Column("high").Num
+		rel, reps := tb.Column("relative_width").Num, tb.Column("replicates").Num
+		if len(fig) != len(c.figures)*len(sources) {
+			t.Fatalf("%v: %d rows, want %d", c.kind, len(fig), len(c.figures)*len(sources))
+		}
+		for i := range fig {
+			f, s := c.figures[i/len(sources)], sources[i%len(sources)]
+			if fig[i] != f || src[i] != s {
+				t.Errorf("%v row %d: %q / %q, want %q / %q", c.kind, i, fig[i], src[i], f, s)
+				continue
+			}
+			if !(lo[i] < med[i] && med[i] < hi[i]) || math.Abs(rel[i]-(hi[i]-lo[i])/med[i]) > 1e-12 {
+				t.Errorf("%v %s, %s: %g [%g, %g], relative width %g", c.kind, f, s, med[i], lo[i], hi[i], rel[i])
+			}
+			if s == "all sources" {
+				// The headline figure's own interval.
+				found := false
+				for _, h := range o.Figures {
+					if h.Name != f {
+						continue
+					}
+					found = true
+					if h.Median != med[i] || h.Low != lo[i] || h.High != hi[i] {
+						t.Errorf("%v %s: all sources %g [%g, %g], headline %g [%g, %g]", c.kind, f, med[i], lo[i], hi[i], h.Median, h.Low, h.High)
+					}
+				}
+				if !found {
+					t.Errorf("%v: no headline figure %q", c.kind, f)
+				}
+				continue
+			}
+			if reps[i] > BreakdownReplicates || reps[i] < 0.95*BreakdownReplicates {
+				t.Errorf("%v %s, %s: %g replicates, want %d less a few failed fits", c.kind, f, s, reps[i], BreakdownReplicates)
+			}
+			// Normal quantiles ±1.96 (common practice): the discharge error
+			// (7 %) alone gives a width of 3.92 × 0.07 = 0.274 of the
+			// median, the area error (2 %) 1/(1 − 0.0392) − 1/(1 + 0.0392)
+			// = 0.0785 of the yield; 15 % for the quantiles of 200 draws.
+			want := map[string]float64{"discharge (systematic error)": 3.92 * 0.07, "catchment area": 1/(1-0.0392) - 1/(1+0.0392)}[s]
+			if want > 0 && math.Abs(rel[i]/want-1) > 0.15 {
+				t.Errorf("%v %s, %s: relative width %.4f, want about %.4f", c.kind, f, s, rel[i], want)
+			}
+		}
+	}
+
+	// series_bootstrap 0 turns the breakdown off.
+	if err := d.SetParam("fluxes", "series_bootstrap", "0"); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	for _, k := range []Kind{KindFluxes, KindCO2} {
+		if _, o := d.firstOf(k); o.Table("by-source") != nil {
+			t.Errorf("%v: a by-source table with series_bootstrap 0", k)
+		}
+	}
+
+	// The quick pass leaves it out too.
+	d, err = loadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d.Quick = true
+	for more := true; more; {
+		stale := false
+		for _, id := range d.Pending() {
+			if st, _ := d.Status(id); st == Stale {
+				stale = true
+			}
+		}
+		if !stale {
+			break
+		}
+		if more, err = d.Step(context.Background(), nil); err != nil {
+			t.Fatal(err)
+		}
+	}
+	for _, k := range []Kind{KindFluxes, KindCO2} {
+		if _, o := d.firstOf(k); o == nil || !o.Rough || o.Table("by-source") != nil {
+			t.Errorf("%v after the quick pass: want a rough output without a by-source table", k)
+		}
+	}
+}
