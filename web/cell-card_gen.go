@@ -707,6 +707,18 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Export PNG"}
 												vgparent.AppendChild(vgn)
 											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+											vgparent.AppendChild(vgn)
+											if ch.Wide {
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
+												vgparent.AppendChild(vgn)
+												{
+													vgparent := vgn
+													_ = vgparent
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Scroll the chart sideways for every sample →"}
+													vgparent.AppendChild(vgn)
+												}
+											}
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 											vgparent.AppendChild(vgn)
 										}

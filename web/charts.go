@@ -3,6 +3,7 @@ package web
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"time"
 
@@ -56,7 +57,7 @@ func (cc *ChartCache) For(d *notebook.Document, c *notebook.Cell, o *notebook.Ou
 	var views []ChartView
 	for _, ch := range Charts(d, c, o) {
 		svg := ch.SVG()
-		views = append(views, ChartView{ID: ch.ID, Title: ch.Title, SVG: svg, Key: htmlKey(svg)})
+		views = append(views, ChartView{ID: ch.ID, Title: ch.Title, SVG: svg, Key: htmlKey(svg), Wide: ch.Wide()})
 	}
 	cc.Millis += nowMillis() - t0
 	cc.saved[c.ID] = cachedCharts{key: key, views: views}
@@ -75,7 +76,7 @@ func Charts(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []*plot.
 	id := c.ID
 	switch c.Kind {
 	case notebook.KindSamples:
-		add(chargeBalanceChart(id, o))
+		add(chargeBalanceChart(id, c, o))
 	case notebook.KindDischarge:
 		add(hydrograph(id, d, o))
 	case notebook.KindSources:
@@ -192,20 +193,85 @@ func nums(c *notebook.Column) []float64 {
 	return c.Num
 }
 
-// chargeBalanceChart shows each sample's NICB.
-func chargeBalanceChart(id string, o *notebook.Output) *plot.Chart {
+// chargeBalanceChart shows each sample's NICB, with the flag and reject
+// thresholds of the samples cell as dashed lines, and the flagged and
+// left-out samples in their own marker shapes.
+func chargeBalanceChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 	t := table(o, []string{"qc", "samples", "normalised"}, "nicb")
 	nicb := column(t, "nicb", "nicb_percent")
 	if nicb == nil || nicb.Num == nil {
 		return nil
 	}
 	ch := plot.New(id, "Charge balance of each sample", "sample (table order)", labelWithUnit("NICB", nicb))
-	xs := make([]float64, len(nicb.Num))
-	for i := range xs {
-		xs[i] = float64(i + 1)
+	names, flags := texts(column(t, "sample", "name", "id")), texts(exact(t, "flag"))
+	n := len(nicb.Num)
+	groups := []struct {
+		name  string
+		style plot.Style
+		xs    []float64
+		ys    []float64
+		names []string
+	}{
+		{name: "samples", style: plot.StyleN(0)},
+		{name: "flagged", style: plot.Style{Colour: "#b5651d", Marker: "triangle"}},
+		{name: "left out", style: plot.Style{Colour: "#a4262c", Marker: "cross"}},
 	}
-	ch.Points("samples", plot.StyleN(0), xs, nicb.Num, texts(column(t, "sample", "name", "id")))
+	for i, v := range nicb.Num {
+		g := 0
+		if i < len(flags) && strings.HasPrefix(flags[i], "left out") {
+			g = 2
+		} else if i < len(flags) && flags[i] != "" {
+			g = 1
+		}
+		groups[g].xs, groups[g].ys = append(groups[g].xs, float64(i+1)), append(groups[g].ys, v)
+		name := ""
+		if i < len(names) {
+			name = names[i]
+		}
+		if i < len(flags) && flags[i] != "" {
+			name += ": " + flags[i]
+		}
+		groups[g].names = append(groups[g].names, name)
+	}
+	for _, th := range nicbThresholds(c) {
+		if th.value > 0 {
+			x0, x1 := 0.5, float64(n)+0.5
+			ch.Line(th.name, th.style, []float64{x0, x1, math.NaN(), x0, x1}, []float64{th.value, th.value, math.NaN(), -th.value, -th.value})
+		}
+	}
+	for _, g := range groups {
+		if len(g.xs) > 0 {
+			ch.Points(g.name, g.style, g.xs, g.ys, g.names)
+		}
+	}
 	return ch
+}
+
+type threshold struct {
+	name  string
+	value float64
+	style plot.Style
+}
+
+// nicbThresholds reads the flag and reject thresholds (%) of a samples cell.
+func nicbThresholds(c *notebook.Cell) []threshold {
+	var out []threshold
+	if c == nil || c.Settings == nil {
+		return nil
+	}
+	for _, p := range notebook.Params(c.Settings) {
+		v, err := strconv.ParseFloat(p.Value, 64)
+		if err != nil {
+			continue
+		}
+		switch p.Key {
+		case "nicb_flag_percent":
+			out = append(out, threshold{"±" + plot.Number(v) + " % (flag)", v, plot.Style{Colour: "#6b6b6b", Dash: "6 3"}})
+		case "nicb_reject_percent":
+			out = append(out, threshold{"±" + plot.Number(v) + " % (left out)", v, plot.Style{Colour: "#a4262c", Dash: "2 3"}})
+		}
+	}
+	return out
 }
 
 // hydrograph draws the daily discharge with the sample days marked.
@@ -355,6 +421,7 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 	}
 	ch := plot.New(id, "Sources of "+cation+", per sample (median and 95 % interval)", "sample", "share of "+cation+" (fraction)")
 	ch.Height = 340
+	ch.MinStep = 18                             // bars wide enough for their hatching and interval whiskers; the page scrolls the rest
 	ch.Y.Min, ch.Y.Max, ch.Y.Fixed = 0, 1, true // shares
 	var segs []plot.Segment
 	for i, src := range sourceNames {

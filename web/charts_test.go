@@ -14,17 +14,7 @@ import (
 // renamed output table or column shows up here rather than as a chart
 // that silently goes missing.
 func TestChartsOfTheDemo(t *testing.T) {
-	b, err := os.ReadFile("../examples/corrie-vale/corrie-vale.lixiv.json")
-	if err != nil {
-		t.Skip("no demo budget:", err)
-	}
-	d, err := notebook.Parse(b, "corrie-vale")
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := d.Recompute(context.Background(), nil); err != nil {
-		t.Fatal(err)
-	}
+	d := demoBudget(t)
 	want := map[notebook.Kind][]string{
 		notebook.KindSamples:       {"Charge balance"},
 		notebook.KindDischarge:     {"Hydrograph"},
@@ -71,17 +61,7 @@ func TestChartsOfTheDemo(t *testing.T) {
 // after rain correction when the budget has an atmosphere cell, and the
 // measured ratios, labelled as such, when it has none.
 func TestMixingDiagramRatios(t *testing.T) {
-	b, err := os.ReadFile("../examples/corrie-vale/corrie-vale.lixiv.json")
-	if err != nil {
-		t.Skip("no demo budget:", err)
-	}
-	d, err := notebook.Parse(b, "corrie-vale")
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := d.Recompute(context.Background(), nil); err != nil {
-		t.Fatal(err)
-	}
+	d := demoBudget(t)
 	tests := []struct {
 		name   string
 		remove bool // remove the atmosphere cell first
@@ -114,4 +94,57 @@ func TestMixingDiagramRatios(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestChartMarks checks the marks the demo's charts must carry: the
+// charge-balance thresholds of the samples cell (5 and 10 % in the demo),
+// and per-sample bars that keep their width at 78 samples.
+func TestChartMarks(t *testing.T) {
+	d := demoBudget(t)
+	tests := []struct {
+		kind  notebook.Kind
+		chart int
+		want  []string
+	}{
+		{notebook.KindSamples, 0, []string{"±5 % (flag)", "±10 % (left out)", `stroke-dasharray="6 3"`}},
+		{notebook.KindApportionment, 0, []string{`class="chart wide"`}},
+	}
+	for _, tt := range tests {
+		t.Run(string(tt.kind), func(t *testing.T) {
+			for _, c := range d.Cells {
+				if c.Kind != tt.kind {
+					continue
+				}
+				charts := Charts(d, c, d.Output(c.ID))
+				if len(charts) <= tt.chart {
+					t.Fatalf("got %d charts", len(charts))
+				}
+				svg := charts[tt.chart].SVG()
+				for _, w := range tt.want {
+					if !strings.Contains(svg, w) {
+						t.Errorf("the chart lacks %s", w)
+					}
+				}
+				return
+			}
+			t.Fatalf("no %s cell", tt.kind)
+		})
+	}
+}
+
+// demoBudget reads and computes the demo budget.
+func demoBudget(t *testing.T) *notebook.Document {
+	t.Helper()
+	b, err := os.ReadFile("../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Skip("no demo budget:", err)
+	}
+	d, err := notebook.Parse(b, "corrie-vale")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	return d
 }

@@ -66,6 +66,7 @@ func (f FigureView) Class() string {
 // the key (htmlKey) of that text.
 type ChartView struct {
 	ID, Title, SVG, Key string
+	Wide                bool // wider than the page: it scrolls sideways
 }
 
 var kindLabels = map[notebook.Kind]string{

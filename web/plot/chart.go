@@ -15,6 +15,11 @@ type Chart struct {
 	Height float64 // pixels; 0 means 380
 	X, Y   Axis
 	Note   string // a line under the chart, such as a fit equation
+	// MinStep is the least room, in pixels, for each category of a
+	// category axis: with many categories the chart grows wider than
+	// Width (and is marked "wide", for the page to scroll it sideways)
+	// rather than thin its bars to hairlines. 0 means no least room.
+	MinStep float64
 
 	items  []item
 	legend []legendEntry
@@ -47,7 +52,7 @@ const (
 	legendRow    = 18.0
 )
 
-func (c *Chart) size() (w, h float64) {
+func (c *Chart) size() (w, h float64, wide bool) {
 	w, h = c.Width, c.Height
 	if w <= 0 {
 		w = 640
@@ -55,7 +60,17 @@ func (c *Chart) size() (w, h float64) {
 	if h <= 0 {
 		h = 380
 	}
-	return w, h
+	if need := marginLeft + marginRight + c.MinStep*float64(len(c.X.Names)); c.X.Names != nil && need > w {
+		w, wide = math.Ceil(need), true
+	}
+	return w, h, wide
+}
+
+// Wide reports whether the chart grows beyond its Width to give each
+// category MinStep pixels (call after the series are added).
+func (c *Chart) Wide() bool {
+	_, _, wide := c.size()
+	return wide
 }
 
 // SVG returns the drawing as an SVG document fragment.
@@ -65,7 +80,11 @@ func (c *Chart) SVG() string {
 	}
 	c.X.finish()
 	c.Y.finish()
-	w, h := c.size()
+	w, h, wide := c.size()
+	class := "chart"
+	if wide {
+		class = "chart wide"
+	}
 	rows := c.legendRows(w)
 	plotBottom := h - marginBottom - float64(rows)*legendRow - 4
 	if c.Note != "" {
@@ -75,8 +94,8 @@ func (c *Chart) SVG() string {
 	c.Y.lo, c.Y.hi = plotBottom, marginTop
 
 	var b strings.Builder
-	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" class="chart" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-label="%s" font-family="Helvetica, Arial, sans-serif" font-size="12">`,
-		w, h, w, h, esc(c.Title))
+	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" class="%s" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-label="%s" font-family="Helvetica, Arial, sans-serif" font-size="12">`,
+		class, w, h, w, h, esc(c.Title))
 	b.WriteString(`<title>` + esc(c.Title) + `</title>`)
 	c.defs(&b)
 	fmt.Fprintf(&b, `<rect x="0" y="0" width="%g" height="%g" fill="#ffffff"/>`, w, h)
