@@ -146,6 +146,15 @@ func (c *CellCard) Fill(el js.Value, ch ChartView) {
 	mountHTML(el, ch.Key, func() string { return ch.SVG })
 }
 
+// MountClass is the class of a chart's mount: "svg-mount wide" scrolls a
+// wide chart sideways.
+func (c *CellCard) MountClass(ch ChartView) string {
+	if ch.Wide {
+		return "svg-mount wide"
+	}
+	return "svg-mount"
+}
+
 // FillResult mounts output table ti into its element when its text changed.
 func (c *CellCard) FillResult(el js.Value, ti int) {
 	t, cols, n := c.V.Results[ti], c.ResultColumns(ti), c.resultLen(ti)

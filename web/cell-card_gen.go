@@ -666,8 +666,9 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 										_ = vgparent
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 										vgparent.AppendChild(vgn)
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "svg-mount"}}}
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute(nil)}
 										vgparent.AppendChild(vgn)
+										vgn.AddAttrInterface("class", c.MountClass(ch))
 										vgn.AddAttrInterface("id", "chart-"+ch.ID)
 										vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.Fill(value, ch) })
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
