@@ -36,8 +36,7 @@ var columnLabels = map[string]string{
 	"bias_factor":          "bias factor",
 	"R2":                   "R²",
 	"s":                    "s (residual)",
-	"n":                    "n",
-	"end-member":           "end-member",
+	"relative_width":       "width of the interval",
 }
 
 // sourceWords name the sources in column names such as "Na_silicate".

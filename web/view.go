@@ -86,20 +86,21 @@ func KindLabel(k notebook.Kind) string {
 
 // choices lists the accepted values of settings that take one of a few words.
 var choices = map[string][]string{
-	"below_detection":    {"half-limit", "zero", "limit", "leave-out"},
-	"date_order":         {"auto", "day-first", "month-first"},
-	"unit":               {"m3/s", "L/s", "m3/day", "mm/day"},
-	"method":             {"sea-salt", "rain"},
-	"excess_chloride":    {"halite", "human"},
-	"preset":             {"global", "granite", "basalt", "custom"},
-	"model":              {"inverse", "forward"},
-	"sulfate":            {"gypsum", "sulfide", "isotope"},
-	"negative_residuals": {"zero-and-flag", "keep"},
-	"estimator":          {"rating-curve", "discharge-weighted", "interpolation", "beale"},
-	"bias_correction":    {"smearing", "ferguson", "none"},
-	"time_scale":         {"short", "long"},
-	"sulfur_split":       {"proportional", "carbonate"},
-	"chart-style":        {"points", "line"},
+	"below_detection":      {"half-limit", "zero", "limit", "leave-out"},
+	"date_order":           {"auto", "day-first", "month-first"},
+	"unit":                 {"m3/s", "L/s", "m3/day", "mm/day"},
+	"method":               {"sea-salt", "rain"},
+	"excess_chloride":      {"halite", "human"},
+	"preset":               {"global", "granite", "basalt", "custom"},
+	"model":                {"inverse", "forward"},
+	"sulfate":              {"gypsum", "sulfide", "isotope"},
+	"negative_residuals":   {"zero-and-flag", "keep"},
+	"estimator":            {"rating-curve", "discharge-weighted", "interpolation", "beale"},
+	"bias_correction":      {"smearing", "ferguson", "none"},
+	"time_scale":           {"short", "long"},
+	"sulfur_split":         {"proportional", "carbonate"},
+	"long_term_convention": {"conventional", "alkalinity"},
+	"chart-style":          {"points", "line"},
 }
 
 // unitSuffixes turn a setting key's unit ending into a readable unit.
