@@ -36,7 +36,7 @@ var columnLabels = map[string]string{
 	"bias_factor":          "bias factor",
 	"R2":                   "R²",
 	"s":                    "s (residual)",
-	"relative_width":       "width of the interval",
+	"relative_width":       "interval width ÷ median",
 }
 
 // sourceWords name the sources in column names such as "Na_silicate".
