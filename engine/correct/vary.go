@@ -57,27 +57,41 @@ func Unit() Scale {
 // policy a negative residual marks the result Rejected. Vary adds no
 // warnings and allocates nothing, so that it can run for every draw of a
 // Monte Carlo; with k = Unit() it returns r's numbers bit for bit.
+//
+// VaryInto fills a Result without the copies; VaryResidual, VaryRemoved
+// and VarySO4Sulf give single parts of it.
 func (r *Result) Vary(k *Scale) Result {
-	v := *r
-	v.Warnings, v.Negatives, v.Rejected = nil, nil, false
-	v.Atm, v.Evap, v.Human = chem.Composition{}, chem.Composition{}, chem.Composition{}
-	for _, s := range corrected {
-		v.Ratios[s] = r.Ratios[s] * k.Ratios[s]
+	var v Result
+	r.VaryInto(&v, k)
+	return v
+}
+
+// VaryInto sets *dst to r.Vary(k), writing each field once. dst may be r,
+// which then becomes its own draw.
+func (r *Result) VaryInto(dst *Result, k *Scale) {
+	if dst != r {
+		dst.Input, dst.Ratios = r.Input, r.Ratios
+		dst.F, dst.SO4Star, dst.SO4Sulf, dst.FSulf = r.F, r.SO4Star, r.SO4Sulf, r.FSulf
+		dst.excess, dst.policy = r.excess, r.policy
 	}
-	v.ClCritical = r.ClCritical * k.ClCritical
-	v.remove()
-	v.splitSulfate()
-	v.residuals()
-	for s, x := range v.Residual {
+	dst.Warnings, dst.Negatives, dst.Rejected = nil, nil, false
+	dst.Atm, dst.Evap, dst.Human = chem.Composition{}, chem.Composition{}, chem.Composition{}
+	for _, s := range corrected {
+		dst.Ratios[s] = r.Ratios[s] * k.Ratios[s]
+	}
+	dst.ClCritical = r.ClCritical * k.ClCritical
+	dst.remove()
+	dst.splitSulfate()
+	dst.residuals()
+	for s, x := range dst.Residual {
 		if !(x < 0) {
 			continue
 		}
 		switch {
-		case -x <= roundoff*v.Input[s] || v.policy == Zero:
-			v.Residual[s] = 0
-		case v.policy == Reject:
-			v.Rejected = true
+		case -x <= roundoff*dst.Input[s] || dst.policy == Zero:
+			dst.Residual[s] = 0
+		case dst.policy == Reject:
+			dst.Rejected = true
 		}
 	}
-	return v
 }

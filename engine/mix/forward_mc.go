@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"lixiv/engine/correct"
+	"lixiv/engine/internal/order"
 )
 
 // fwdStream is the second PCG word of the forward Monte Carlo, so that
@@ -46,19 +47,25 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 	col := make([]float64, n)
 	for s := range res.Sigma {
 		for i := range res.Sigma[s] {
-			same := true
+			same, nan := true, false
 			for k := range res.Draws {
 				col[k] = res.Draws[k][s][i]
 				same = same && col[k] == col[0]
+				nan = nan || col[k] != col[k]
 			}
 			if same { // a row the ratios do not touch: no spread
 				res.Sigma[s][i], res.Lo[s][i], res.Hi[s][i] = 0, col[0], col[0]
 				continue
 			}
 			res.Sigma[s][i] = fwdStdDev(col)
-			slices.Sort(col)
-			res.Lo[s][i] = fwdQuantile(col, 0.025)
-			res.Hi[s][i] = fwdQuantile(col, 0.975)
+			if nan {
+				slices.Sort(col)
+				res.Lo[s][i] = fwdQuantile(col, 0.025)
+				res.Hi[s][i] = fwdQuantile(col, 0.975)
+				continue
+			}
+			res.Lo[s][i] = fwdQuantileUnsorted(col, 0.025)
+			res.Hi[s][i] = fwdQuantileUnsorted(col, 0.975)
 		}
 	}
 }
@@ -93,6 +100,24 @@ func fwdStdDev(x []float64) float64 {
 		ss += (v - m) * (v - m)
 	}
 	return math.Sqrt(ss / float64(len(x)-1))
+}
+
+// fwdQuantileUnsorted returns fwdQuantile of x sorted, bit for bit,
+// without sorting: it selects the two order statistics it interpolates
+// between, reordering x, which must hold no NaN. Values that compare equal
+// have the same bits but for ±0, and the interpolation gives +0 from any
+// two zeros and the same result from one zero of either sign, so the
+// order in which equal values land does not show.
+func fwdQuantileUnsorted(x []float64, p float64) float64 {
+	h := p * float64(len(x)-1)
+	lo := int(math.Floor(h))
+	if len(x) == 0 || lo >= len(x)-1 {
+		slices.Sort(x)
+		return fwdQuantile(x, p)
+	}
+	a := order.Select(x, lo)
+	b := order.Min(x[lo+1:]) // the right of lo holds the larger ones
+	return a + (h-float64(lo))*(b-a)
 }
 
 // fwdQuantile returns the p quantile of sorted x by linear interpolation

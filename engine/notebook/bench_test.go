@@ -91,7 +91,12 @@ func benchFluxesEdit(b *testing.B, seriesBootstrap string) {
 // BenchmarkRainEditQuickPass times the quick pass of a rain edit
 // (Document.Quick): from the edit to point values in every cell, before
 // the fluxes and CO2 cells are refined with their bootstrap intervals.
-func BenchmarkRainEditQuickPass(b *testing.B) {
+func BenchmarkRainEditQuickPass(b *testing.B) { benchRainEditQuickPass(b, "") }
+
+// benchRainEditQuickPass times the quick pass of a rain edit with the rain
+// cell's rain_ratio_uncertainty_percent set to ratioSpread ("" leaves the
+// demo's value) and the settings in set (cell, name, value, …) changed.
+func benchRainEditQuickPass(b *testing.B, ratioSpread string, set ...string) {
 	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
 	if err != nil {
 		b.Fatal(err)
@@ -99,6 +104,16 @@ func BenchmarkRainEditQuickPass(b *testing.B) {
 	d, err := notebook.Parse(data, "corrie-vale")
 	if err != nil {
 		b.Fatal(err)
+	}
+	if ratioSpread != "" {
+		if err := d.SetParam("rain", "rain_ratio_uncertainty_percent", ratioSpread); err != nil {
+			b.Fatal(err)
+		}
+	}
+	for i := 0; i+2 < len(set); i += 3 {
+		if err := d.SetParam(set[i], set[i+1], set[i+2]); err != nil {
+			b.Fatal(err)
+		}
 	}
 	d.Workers, d.Quick = 1, true
 	ctx := context.Background()
@@ -128,4 +143,18 @@ func BenchmarkRainEditQuickPass(b *testing.B) {
 		d.Recompute(ctx, nil) // refine, untimed
 		b.StartTimer()
 	}
+}
+
+// BenchmarkRainEditQuickPassRatioSpread is BenchmarkRainEditQuickPass with
+// a 10 % spread on the rain ratios, so that every draw of every sample
+// redoes its rain correction.
+func BenchmarkRainEditQuickPassRatioSpread(b *testing.B) {
+	benchRainEditQuickPass(b, "10")
+}
+
+// BenchmarkRainEditQuickPassForwardRatioSpread is
+// BenchmarkRainEditQuickPassRatioSpread with the forward model, whose
+// draws each subtract from their own redone correction.
+func BenchmarkRainEditQuickPassForwardRatioSpread(b *testing.B) {
+	benchRainEditQuickPass(b, "10", "apportionment", "model", "forward")
 }

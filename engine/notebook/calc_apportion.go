@@ -73,39 +73,27 @@ func (a *Apportioned) drawAt(i, d int) (mix.Split, float64, bool) {
 	return s, w, true
 }
 
-// corrected returns the correction of sample i under draw d: the rain
-// correction redone with the draw's multipliers when the rain inputs carry
-// an uncertainty, else the sample's correction.
-func (a *Apportioned) corrected(i, d int) correct.Result {
-	if a.scales == nil {
-		return a.Corrected[i]
-	}
-	return a.Corrected[i].Vary(&a.scales[d])
-}
-
 // SO4Sulf returns the sulfide-derived sulfate (µmol/L) of sample i under
 // draw d, which follows the draw's atmospheric sulfate.
 func (a *Apportioned) SO4Sulf(i, d int) float64 {
 	if a.scales == nil {
 		return a.Corrected[i].SO4Sulf
 	}
-	r := a.corrected(i, d)
-	return r.SO4Sulf
+	return a.Corrected[i].VarySO4Sulf(&a.scales[d])
 }
 
 // addRemoved adds to s the atmospheric and evaporite amounts the
 // correction removed from sample i under draw d.
 func (a *Apportioned) addRemoved(i, d int, s *mix.Split) {
-	var r *correct.Result
-	if a.scales == nil {
-		r = &a.Corrected[i]
-	} else {
-		v := a.Corrected[i].Vary(&a.scales[d])
-		r = &v
+	atm, evap := &a.Corrected[i].Atm, &a.Corrected[i].Evap
+	if a.scales != nil {
+		var va, ve chem.Composition
+		a.Corrected[i].VaryRemoved(&a.scales[d], &va, &ve)
+		atm, evap = &va, &ve
 	}
 	for k, sp := range mix.Cations {
-		s[mix.Atmosphere][k] += r.Atm[sp]
-		s[mix.Evaporite][k] += r.Evap[sp]
+		s[mix.Atmosphere][k] += atm[sp]
+		s[mix.Evaporite][k] += evap[sp]
 	}
 }
 
@@ -240,7 +228,10 @@ func computeApportionment(e *Env) (*Output, error) {
 				return nil, err
 			}
 			if a.scales != nil {
-				fo.Vary = func(k int) correct.Result { return a.Corrected[i].Vary(&a.scales[k]) }
+				fo.Vary = func(k int) (v correct.Result) {
+					a.Corrected[i].VaryInto(&v, &a.scales[k])
+					return v
+				}
 			}
 			fr, err := mix.Forward(&a.Corrected[i], fo)
 			if err != nil {
@@ -269,9 +260,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		}
 		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.Workers()}
 		if a.scales != nil {
-			mo.Vary = func(i, d int) (chem.Composition, bool) {
-				r := a.Corrected[i].Vary(&a.scales[d])
-				return r.Residual, !r.Rejected
+			mo.Vary = func(i, d int) (c chem.Composition, ok bool) {
+				rejected := a.Corrected[i].VaryResidual(&a.scales[d], &c)
+				return c, !rejected
 			}
 		}
 		var res *mix.Result

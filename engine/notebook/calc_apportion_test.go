@@ -2,9 +2,14 @@ package notebook
 
 import (
 	"context"
+	"math"
 	"runtime"
 	"strconv"
 	"testing"
+
+	"lixiv/engine/chem"
+	"lixiv/engine/correct"
+	"lixiv/engine/mix"
 )
 
 // bigApportionment returns the demo budget cut to its apportionment, with
@@ -115,4 +120,130 @@ func TestDrawsWithoutExpanding(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestRainDrawsFollowVary checks that an apportionment with a spread on
+// the rain ratios gives, draw by draw, what the whole redone correction
+// (correct.Result.Vary) gives: the inversion is rerun with the residuals
+// of Vary, the forward model with Vary's Result, and every split's
+// atmospheric and evaporite rows and every sulfide sulfate are compared
+// with Vary's, bit for bit, under the negative policies and sulfate
+// scenarios the cell offers.
+func TestRainDrawsFollowVary(t *testing.T) {
+	defer func(v bool) { expandSplits = v }(expandSplits)
+	expandSplits = false // keep the model's result for the reruns
+	for _, tc := range []struct{ model, sulfate, negative string }{
+		{"inverse", "gypsum", "zero-and-flag"}, {"inverse", "sulfide", "keep"}, {"inverse", "isotope", "zero-and-flag"},
+		{"forward", "gypsum", "zero-and-flag"}, {"forward", "isotope", "keep"},
+	} {
+		t.Run(tc.model+"/"+tc.sulfate+"/"+tc.negative, func(t *testing.T) {
+			d := bigApportionment(t, 12, 300)
+			for _, p := range [][3]string{{"rain", "rain_ratio_uncertainty_percent", "10"}, {"apportionment", "model", tc.model},
+				{"apportionment", "sulfate", tc.sulfate}, {"apportionment", "negative_residuals", tc.negative}} {
+				if err := d.SetParam(p[0], p[1], p[2]); err != nil {
+					t.Fatal(err)
+				}
+			}
+			if err := d.Recompute(context.Background(), nil); err != nil {
+				t.Fatal(err)
+			}
+			o := d.Output("apportionment")
+			if o == nil {
+				st, err := d.Status("apportionment")
+				t.Fatalf("apportionment: %v %v", st, err)
+			}
+			a := o.Value.(*Apportioned)
+			if a.scales == nil {
+				t.Fatal("no rain draws; the comparison would test nothing")
+			}
+			ems := d.Output("sources").Value.([]mix.EndMember)
+			s := d.Cell("apportionment").Settings.(*ApportionmentSettings)
+			vary := func(i, dr int) correct.Result { return a.Corrected[i].Vary(&a.scales[dr]) }
+			if tc.model == "inverse" {
+				checkInverseFollowsVary(t, a, ems, s, vary)
+			} else {
+				for i := range a.Corrected {
+					fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed),
+						Vary: func(k int) correct.Result { return vary(i, k) }}
+					fr, err := mix.Forward(&a.Corrected[i], fo)
+					if err != nil {
+						t.Fatal(err)
+					}
+					for dr, want := range fr.Draws {
+						if got, _, _ := a.Draw(i, dr); !sameSplit(got, want) {
+							t.Fatalf("sample %d draw %d: %v, Vary gives %v", i, dr, got, want)
+						}
+					}
+				}
+			}
+			for i := range a.Corrected {
+				for dr := 0; dr < a.Draws; dr++ {
+					if got, want := a.SO4Sulf(i, dr), vary(i, dr).SO4Sulf; math.Float64bits(got) != math.Float64bits(want) {
+						t.Fatalf("sample %d draw %d: SO4 from sulfide %g, Vary gives %g", i, dr, got, want)
+					}
+				}
+			}
+		})
+	}
+}
+
+// checkInverseFollowsVary reruns the inversion of a with the residuals of
+// Vary and compares every kept draw, and the rows added from the
+// correction, with a's.
+func checkInverseFollowsVary(t *testing.T, a *Apportioned, ems []mix.EndMember, s *ApportionmentSettings, vary func(i, d int) correct.Result) {
+	t.Helper()
+	p := mix.Problem{EndMembers: ems}
+	for _, name := range s.Tracers {
+		tr, err := mix.ParseTracer(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p.Tracers = append(p.Tracers, tr)
+	}
+	for i, r := range a.Corrected {
+		p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
+			Sr87Sr86: a.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
+	}
+	mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: 1, Vary: func(i, d int) (chem.Composition, bool) {
+		v := vary(i, d)
+		return v.Residual, !v.Rejected
+	}}
+	ref, err := mix.Invert(context.Background(), p, mo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	kept := 0
+	for i := range a.Corrected {
+		if got, want := a.inverse.Kept(i), ref.Kept(i); got != want {
+			t.Fatalf("sample %d: %d draws kept, %d with Vary", i, got, want)
+		}
+		for k := 0; k < ref.Kept(i); k++ {
+			dr, want, w := ref.Draw(i, k)
+			v := vary(i, dr)
+			for c, sp := range mix.Cations {
+				want[mix.Atmosphere][c] += v.Atm[sp]
+				want[mix.Evaporite][c] += v.Evap[sp]
+			}
+			got, gw, ok := a.Draw(i, dr)
+			if !ok || math.Float64bits(gw) != math.Float64bits(w) || !sameSplit(got, want) {
+				t.Fatalf("sample %d draw %d: (%v, %g, %v), Vary gives (%v, %g)", i, dr, got, gw, ok, want, w)
+			}
+			kept++
+		}
+	}
+	if kept == 0 {
+		t.Error("no draw kept in any sample; the comparison tested nothing")
+	}
+}
+
+// sameSplit reports whether two splits agree bit for bit.
+func sameSplit(a, b mix.Split) bool {
+	for src := range a {
+		for k := range a[src] {
+			if math.Float64bits(a[src][k]) != math.Float64bits(b[src][k]) {
+				return false
+			}
+		}
+	}
+	return true
 }
