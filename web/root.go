@@ -135,7 +135,7 @@ func (c *Root) open(doc *notebook.Document, name string) {
 // changed runs after every change of the document: autosave, then recompute.
 func (c *Root) changed() {
 	c.Unsaved = true
-	c.savePending = true // saved by the recompute, once the edit has painted
+	c.savePending = true // saved by the recompute at its first yield
 	c.editStart, c.painted = nowMillis(), false
 	c.recompute()
 }
@@ -278,6 +278,9 @@ func (c *Root) Rendered() {
 		case <-c.quickDone: // for the timing harness: point values painted
 			c.quickShown = true
 			js.Global().Set("lixivLastQuickPaint", nowMillis()-c.editStart)
+			g := js.Global()
+			js.Global().Set("lixivLastQuickRender", fmt.Sprintf("build %.0f ms, sync %.0f ms",
+				g.Get("lixivLastBuild").Float(), g.Get("lixivLastSync").Float()))
 		default:
 		}
 	}
@@ -390,11 +393,25 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 	if prev != nil {
 		<-prev
 	}
-	c.env.Lock()
-	if c.savePending { // before computing: an edit is never lost to a closed tab
-		c.autosave()
+	// The edit is saved to browser storage at the first yield: after the
+	// quick pass has painted, or at the first hand-back of a long one.
+	saveIfPending := func() {
+		c.env.Lock()
+		if c.savePending {
+			c.autosave()
+		}
+		c.env.UnlockOnly()
 	}
-	c.env.UnlockOnly()
+	defer func() { // a run without a yield saves at its end, and shows it
+		c.env.Lock()
+		if c.savePending {
+			c.autosave()
+			c.env.UnlockRender()
+			return
+		}
+		c.env.UnlockOnly()
+	}()
+	var stepped []string                             // for the timing harness: when each step began
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
@@ -403,6 +420,7 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			if d > longest {
 				longest, longestCell = d, c.running
 			}
+			saveIfPending()
 			yieldToBrowser()
 			lastYield = nowMillis()
 		}
@@ -441,6 +459,7 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			c.env.UnlockOnly()
 		}
 		t0 := nowMillis()
+		stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
 		more, err := func() (more bool, err error) {
 			defer func() {
 				if r := recover(); r != nil {
@@ -459,9 +478,11 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			case <-quick:
 			default:
 				// The point values are in: paint them, then refine.
+				js.Global().Set("lixivQuickSteps", strings.Join(stepped, ", ")+fmt.Sprintf(", done %.0f", nowMillis()-c.editStart))
 				lastPaint = nowMillis()
 				c.quickPassDone(quick)
 				yieldToBrowser()
+				saveIfPending()
 				lastYield = nowMillis()
 				continue
 			}

@@ -48,17 +48,20 @@ func TestTiming(t *testing.T) {
 		edit(t, ctx, "#p-"+id+"-draws", "2000")
 	}
 	atm := cellOf(t, ctx, "atmosphere")
-	var edits, first, quick, steps, charts []float64
+	var edits, first, quick, quickDone, steps, charts []float64
 	for i := 0; i < 8; i++ {
 		edit(t, ctx, "#p-"+atm+"-na_per_cl", fmt.Sprintf("%.3f", 0.80+0.01*float64(i%5)))
 		edits = append(edits, eval[float64](t, ctx, `lixivLastRecompute`))
 		first = append(first, eval[float64](t, ctx, `lixivLastFirstPaint`))
 		quick = append(quick, eval[float64](t, ctx, `lixivLastQuickPaint`))
+		quickDone = append(quickDone, eval[float64](t, ctx, `lixivLastQuick`))
 		steps = append(steps, eval[float64](t, ctx, `lixivLastStep`))
 		charts = append(charts, eval[float64](t, ctx, `lixivLastCharts`))
 	}
 	t.Logf("timing: edit of a rain ratio to first repaint: %s", stats(first))
 	t.Logf("timing: edit of a rain ratio to repainted result at 2000 draws (every cell's point values; flux and CO2 intervals still computing): %s", stats(quick))
+	t.Logf("timing: of which the quick pass (edit to point values computed, before the render): %s", stats(quickDone))
+	t.Logf("timing: the last of those repaints: %s; its steps began at (ms after the edit): %s", eval[string](t, ctx, `lixivLastQuickRender`), eval[string](t, ctx, `lixivQuickSteps`))
 	t.Logf("timing: edit of a rain ratio to repainted result with every interval: %s", stats(edits))
 	t.Logf("timing: of which computing (engine steps, with their yields to the browser): %s", stats(steps))
 	t.Logf("timing: of which drawing the charts again: %s", stats(charts))
