@@ -255,7 +255,9 @@ func (r *Run) span(sr *SampleResult, pr *prep, from, to int, bound float64) {
 		r.draws3(sr, pr, from, to, bound)
 	case 2:
 		r.draws2(sr, pr, from, to, bound)
-	case 5, 6:
+	case 5:
+		r.draws5(sr, pr, from, to, bound)
+	case 6:
 		r.drawsN(sr, pr, from, to, bound)
 	default:
 		var a [MaxEndMembers]float64
