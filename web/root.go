@@ -420,7 +420,16 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			if d > longest {
 				longest, longestCell = d, c.running
 			}
-			saveIfPending()
+			// Save at this hand-back once the quick pass has painted, or
+			// when it runs long; a short quick pass saves after its paint.
+			select {
+			case <-quick:
+				saveIfPending()
+			default:
+				if nowMillis()-c.editStart > 250 {
+					saveIfPending()
+				}
+			}
 			yieldToBrowser()
 			lastYield = nowMillis()
 		}
