@@ -44,7 +44,7 @@ func BenchmarkRainEdit(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		v := "0.86"
 		if i%2 == 1 {
-			v = "0.859120"
+			v = "0.859120" // near the demo's seawater Na/Cl (Millero et al. 2008, from memory); only a value to edit to
 		}
 		d.SetParam("rain", "na_per_cl", v)
 		if err := d.Recompute(context.Background(), nil); err != nil {
@@ -122,7 +122,7 @@ func benchRainEditQuickPass(b *testing.B, ratioSpread string, set ...string) {
 	for i := 0; i < b.N; i++ {
 		v := "0.86"
 		if i%2 == 1 {
-			v = "0.859120"
+			v = "0.859120" // near the demo's seawater Na/Cl (Millero et al. 2008, from memory); only a value to edit to
 		}
 		d.SetParam("rain", "na_per_cl", v)
 		for {
