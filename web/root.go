@@ -368,17 +368,6 @@ func (c *Root) quickPassDone(done chan struct{}) {
 	c.env.UnlockRender()
 }
 
-// quickPassOver reports whether doc has no stale cell left (only cells the
-// quick pass left to refine, or none).
-func quickPassOver(doc *notebook.Document) bool {
-	for _, id := range doc.Pending() {
-		if st, _ := doc.Status(id); st == notebook.Stale {
-			return false
-		}
-	}
-	return true
-}
-
 // run computes the stale cells of doc one at a time, handing the main
 // thread back to the browser every few tens of milliseconds (also from
 // inside a long cell, through its progress reports) so that the page
@@ -482,7 +471,7 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			return
 		}
 		c.env.Lock()
-		if err == nil && more && quickPassOver(doc) {
+		if err == nil && more && doc.QuickPassDone() {
 			select {
 			case <-quick:
 			default:

@@ -30,14 +30,7 @@ func BenchmarkDemo(b *testing.B) {
 // BenchmarkRainEdit times an edit of the rain cell and the recompute of
 // the cells below it, the page's edit-to-result path.
 func BenchmarkRainEdit(b *testing.B) {
-	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
-	if err != nil {
-		b.Fatal(err)
-	}
-	d, err := notebook.Parse(data, "corrie-vale")
-	if err != nil {
-		b.Fatal(err)
-	}
+	d := demoBudget(b)
 	d.Workers = 1
 	d.Recompute(context.Background(), nil)
 	b.ResetTimer()
@@ -62,14 +55,7 @@ func BenchmarkFluxesEdit(b *testing.B) { benchFluxesEdit(b, "") }
 func BenchmarkFluxesEditPointSeries(b *testing.B) { benchFluxesEdit(b, "0") }
 
 func benchFluxesEdit(b *testing.B, seriesBootstrap string) {
-	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
-	if err != nil {
-		b.Fatal(err)
-	}
-	d, err := notebook.Parse(data, "corrie-vale")
-	if err != nil {
-		b.Fatal(err)
-	}
+	d := demoBudget(b)
 	d.Workers = 1
 	if seriesBootstrap != "" {
 		if err := d.SetParam("fluxes", "series_bootstrap", seriesBootstrap); err != nil {
@@ -97,14 +83,7 @@ func BenchmarkRainEditQuickPass(b *testing.B) { benchRainEditQuickPass(b, "") }
 // cell's rain_ratio_uncertainty_percent set to ratioSpread ("" leaves the
 // demo's value) and the settings in set (cell, name, value, …) changed.
 func benchRainEditQuickPass(b *testing.B, ratioSpread string, set ...string) {
-	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
-	if err != nil {
-		b.Fatal(err)
-	}
-	d, err := notebook.Parse(data, "corrie-vale")
-	if err != nil {
-		b.Fatal(err)
-	}
+	d := demoBudget(b)
 	if ratioSpread != "" {
 		if err := d.SetParam("rain", "rain_ratio_uncertainty_percent", ratioSpread); err != nil {
 			b.Fatal(err)
@@ -125,16 +104,7 @@ func benchRainEditQuickPass(b *testing.B, ratioSpread string, set ...string) {
 			v = "0.859120" // near the demo's seawater Na/Cl (Millero et al. 2008, from memory); only a value to edit to
 		}
 		d.SetParam("rain", "na_per_cl", v)
-		for {
-			stale := false
-			for _, id := range d.Pending() {
-				if st, _ := d.Status(id); st == notebook.Stale {
-					stale = true
-				}
-			}
-			if !stale {
-				break
-			}
+		for !d.QuickPassDone() {
 			if _, err := d.Step(ctx, nil); err != nil {
 				b.Fatal(err)
 			}
@@ -157,4 +127,18 @@ func BenchmarkRainEditQuickPassRatioSpread(b *testing.B) {
 // draws each subtract from their own redone correction.
 func BenchmarkRainEditQuickPassForwardRatioSpread(b *testing.B) {
 	benchRainEditQuickPass(b, "10", "apportionment", "model", "forward")
+}
+
+// demoBudget reads the demo budget (Corrie Vale) for a benchmark.
+func demoBudget(b *testing.B) *notebook.Document {
+	b.Helper()
+	data, err := os.ReadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	d, err := notebook.Parse(data, "corrie-vale")
+	if err != nil {
+		b.Fatal(err)
+	}
+	return d
 }

@@ -191,6 +191,18 @@ func (d *Document) Pending() []string {
 	return append(ids, rough...)
 }
 
+// QuickPassDone reports whether no cell is stale: every cell has at least
+// its point values, and what remains pending (see Document.Quick) is only
+// refining.
+func (d *Document) QuickPassDone() bool {
+	for _, id := range d.Pending() {
+		if d.st(id).stale {
+			return false
+		}
+	}
+	return true
+}
+
 // Step computes the next stale cell and reports whether any remain. The
 // page calls it between frames so that it stays responsive. Only a
 // cancelled context or a cycle is returned as an error; a cell's own

@@ -20,16 +20,7 @@ func TestQuickPassRefinesToTheSameResults(t *testing.T) {
 		d.Quick = true
 		ctx := context.Background()
 		// The quick pass: step until no cell is stale.
-		for {
-			stale := false
-			for _, id := range d.Pending() {
-				if st, _ := d.Status(id); st == notebook.Stale {
-					stale = true
-				}
-			}
-			if !stale {
-				break
-			}
+		for !d.QuickPassDone() {
 			if _, err := d.Step(ctx, nil); err != nil {
 				t.Fatalf("%s: %v", path, err)
 			}
