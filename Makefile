@@ -9,7 +9,7 @@ DIST    := web/dist
 FUZZTIME ?= 3s
 ENGINE_PKGS = $$($(GO) list ./engine/... | grep -v /cmd/)
 
-.PHONY: all build serve test vet unit wasmtest fuzz-short fuzz browser browser-timing shots chromium bench deps-check clean
+.PHONY: all build serve test vet unit wasmtest fuzz-short fuzz browser browser-timing shots chromium bench deps-check validation clean
 
 all: build
 
@@ -63,6 +63,12 @@ browser-timing: chromium build
 SHOTS ?= /tmp/lixiv/shots
 shots: chromium build
 	LIXIV_SHOTS=$(SHOTS) $(GO) test -count=1 -tags browser -timeout 5m -run Shots -v ./web/browsertest/ | grep -E 'wrote|ok|FAIL'
+
+# validation: rerun the simulations with a known truth and rewrite the tables of
+# docs/validation.md (the same tests check their thresholds in `make test`).
+validation:
+	@LIXIV_VALIDATION=docs/validation.md $(GO) test -count=1 -timeout 30m -run 'Validation' -v ./engine/... >/tmp/lixiv-validation.log 2>&1; \
+	status=$$?; grep -E 'validation:|^(ok|FAIL|--- FAIL)' /tmp/lixiv-validation.log; exit $$status
 
 bench:
 	$(GO) test -run '^$$' -bench . -benchmem ./engine/...
