@@ -30,7 +30,7 @@ var columnLabels = map[string]string{
 	"Cl_excess":            "Cl above the rain input",
 	"Na_atm_share":         "atmospheric share of Na",
 	"SO4_sulfide":          "SO4 from sulfide",
-	"accepted":             "draws accepted",
+	"shares.ESS":           "effective sample size",
 	"mass_flux":            "mass flux",
 	"mass_yield":           "mass yield",
 	"bias_factor":          "bias factor",
@@ -102,7 +102,14 @@ var paramLabels = map[string]string{
 	"negative_residuals":            "negative residuals",
 	"bootstrap":                     "bootstrap replicates",
 	"series_bootstrap":              "series bootstrap replicates",
-	"draws":                         "Monte Carlo draws",
+	"draws":                         "prior draws (first stage)",
+	"target_ess":                    "target effective sample size",
+	"max_draws":                     "most draws per sample",
+	"precision_percent":             "analytical precision (%, 1σ)",
+	"precision_floor_umol":          "precision floor, major ions",
+	"alkalinity_floor_ueq":          "precision floor, alkalinity",
+	"sr_floor_umol":                 "precision floor, Sr",
+	"sr_isotope_precision":          "87Sr/86Sr precision (1σ)",
 }
 
 // SettingLabel labels a setting: from the table above, else by ParamLabel.
@@ -114,17 +121,25 @@ func SettingLabel(key string) string {
 }
 
 // idle reports a setting that does nothing in the cell's current mode:
-// the δ34S values are read only when the sulfate source is "isotope".
+// the δ34S values are read only when the sulfate source is "isotope", and
+// the tracers and the refinement of the inverse model only by it.
 func idle(kind notebook.Kind, key string, params []notebook.Param) bool {
-	if kind != notebook.KindApportionment || !strings.HasPrefix(key, "d34s_") {
+	if kind != notebook.KindApportionment {
 		return false
 	}
-	for _, p := range params {
-		if p.Key == "sulfate" {
-			return p.Value != "isotope"
+	value := func(k string) string {
+		for _, p := range params {
+			if p.Key == k {
+				return p.Value
+			}
 		}
+		return ""
 	}
-	return false
+	switch key {
+	case "tracers", "target_ess", "max_draws":
+		return value("model") == "forward"
+	}
+	return strings.HasPrefix(key, "d34s_") && value("sulfate") != "isotope"
 }
 
 // RefLabel labels a chart reference "cell.table.column" with the title of

@@ -73,7 +73,7 @@ func DefaultPrecision() correct.Precision {
 // Options tune an inversion. The zero value means the documented defaults.
 type Options struct {
 	// Draws is the number of prior draws of the first stage, shared by all
-	// samples; 0 means 1000.
+	// samples; 0 means 400.
 	Draws int
 	// TargetESS is the effective sample size at which a sample's
 	// refinement stops; 0 means 1000.
@@ -100,9 +100,11 @@ type Options struct {
 	// (in draws), never concurrently.
 	Progress func(done, total int)
 
-	// noVolume drops the Gaussian volume term from the likelihood of the
-	// end-member ratios (for the calibration study of the tests).
-	noVolume bool
+	// perturb selects the other sampler of the calibration study: the
+	// amounts solved by non-negative least squares for data perturbed by
+	// their errors, the ratios weighted by the constrained misfit
+	// (noVolume drops the Gaussian volume term ½ log det ÃᵀÃ from it).
+	perturb, noVolume bool
 }
 
 func (o *Options) withDefaults() Options {
@@ -111,7 +113,7 @@ func (o *Options) withDefaults() Options {
 		d = *o
 	}
 	if d.Draws <= 0 {
-		d.Draws = 1000
+		d.Draws = 400
 	}
 	if d.TargetESS <= 0 {
 		d.TargetESS = 1000

@@ -44,6 +44,7 @@ type Run struct {
 	cur      int         // Step: next sample
 	work     *sampleWork // Step: the sample being worked on
 	finished atomic.Int64
+	shown    float64    // Progress: the largest fraction reported so far
 	mu       sync.Mutex // serialises Options.Progress
 }
 
@@ -160,7 +161,10 @@ func (r *Run) Progress() float64 {
 	if w := r.work; w != nil {
 		f += 0.99 * min(1, float64(w.n)/float64(max(w.planned, 1)))
 	}
-	return min(1, f/float64(ns))
+	// A sample's planned draws grow as stages are added: never report
+	// less than before.
+	r.shown = max(r.shown, min(1, f/float64(ns)))
+	return r.shown
 }
 
 // Done reports whether every sample has been worked through.

@@ -16,6 +16,9 @@ var debugStages = false
 // (tempering the likelihood when the draws so far give fewer).
 const fitDraws = 300
 
+// exploreStage is the size of a stage fitted to a tempered likelihood.
+const exploreStage = 300
+
 // minStage is the smallest refinement stage, in draws.
 const minStage = 200
 
@@ -35,7 +38,9 @@ type sampleWork struct {
 	planned  int   // draws planned so far, over all stages (for progress)
 	n        int   // draws so far
 	eff      float64
-	lq       []float64 // log mixture density over the prior density, per draw
+	lq       []float64  // log mixture density over the prior density, per draw
+	essStart float64    // ESS of all draws when the current stage began
+	own      [3]float64 // the current stage's own weights: log scale, sum, sum of squares
 	stop     Stop
 	finished bool
 
@@ -46,7 +51,7 @@ type sampleWork struct {
 // Offsets in a draw record (after the d latents).
 const (
 	oLogL = iota // log likelihood of the draw's ratios
-	oChi2        // χ² of the data at their best fit under the draw's ratios
+	oFace        // the set of end-members present in the draw, as a bit mask
 	oD           // misfit of the data at the draw's (perturbed) solution, for the predictive check
 	oFrac        // the k Na fractions, then the split, the sulfide sulfate and the predicted data
 )
@@ -119,6 +124,14 @@ func (w *sampleWork) advance(r *Run, budget int) int {
 		w.nStage[s]++
 		w.n++
 		done++
+		// A refinement stage ends early once its own effective draws
+		// with those before it reach the target (checked now and then;
+		// the sample's ESS is then computed over all draws).
+		if s > 0 && w.nStage[s]%128 == 0 {
+			if o := &w.own; o[2] > 0 && w.essStart+o[1]*o[1]/o[2] >= float64(r.opt.TargetESS) {
+				w.size = w.nStage[s]
+			}
+		}
 	}
 	return done
 }
@@ -143,13 +156,14 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 		}
 	} else {
 		prior := uniform(w.rng) < defensive
+		uc := uniform(w.rng)
 		for a := range w.eta {
 			w.u[a] = normQuantile(uniform(w.rng))
 		}
 		if prior {
 			copy(w.eta, w.u)
 		} else {
-			w.props[s-1].draw(w.u, w.eta)
+			w.props[s-1].draw(uc, w.u, w.eta)
 		}
 		for a, k := range st.dims {
 			d := r.dims[k]
@@ -175,12 +189,32 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	}
 	k := len(w.stageOf)
 	w.stageOf = append(w.stageOf, int8(min(s, 127)))
-	w.rec = append(w.rec, make([]float64, w.stride)...)
+	if len(w.rec)+w.stride > cap(w.rec) {
+		w.rec = slices.Grow(w.rec, max(w.stride, len(w.rec)))
+	}
+	w.rec = w.rec[:len(w.rec)+w.stride]
+	clear(w.rec[len(w.rec)-w.stride:])
 	copy(w.latents(k), w.eta)
 	for si := range w.props {
 		w.ell[si] = append(w.ell[si], w.props[si].ell(w.eta, w.u))
 	}
 	r.eval(w, k)
+	if s > 0 {
+		e := w.ell[s-1][k]
+		big := math.Max(plog(defensive), plog(1-defensive)+e)
+		lw := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
+		if o := &w.own; !math.IsInf(lw, -1) {
+			if o[1] == 0 {
+				o[0] = lw
+			} else if lw > o[0] {
+				f := pexp(o[0] - lw)
+				o[0], o[1], o[2] = lw, o[1]*f, o[2]*f*f
+			}
+			v := pexp(lw - o[0])
+			o[1] += v
+			o[2] += v * v
+		}
+	}
 }
 
 // eval solves draw k: the whitened design Ã = L⁻¹A of the draw's ratios,
@@ -240,21 +274,41 @@ func (r *Run) eval(w *sampleWork, k int) {
 		}
 		b0[i], b1[i] = s0, s0+s1
 	}
-	nnls(K, &H, &b0, &n0)
-	nnls(K, &H, &b1, &n1)
-	chi2 := max(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
-	dd := max(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
-	logL := -0.5 * chi2
-	if !r.opt.noVolume && R >= K {
-		hd, ok := logDetChol(K, &H)
-		if !ok {
-			hd = 0.5 * float64(K) * plog(1e-13*max(H[0][0], 1e-300))
+	var dd, logL float64
+	if r.opt.perturb {
+		nnls(K, &H, &b0, &n0)
+		nnls(K, &H, &b1, &n1)
+		chi2 := max(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
+		dd = max(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		logL = -0.5 * chi2
+		if !r.opt.noVolume && R >= K {
+			hd, ok := logDetChol(K, &H)
+			if !ok {
+				hd = 0.5 * float64(K) * plog(1e-13*max(H[0][0], 1e-300))
+			}
+			logL -= hd
 		}
-		logL -= hd
+	} else {
+		var c vec6
+		for jj, j := range st.act {
+			c[jj] = 1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]
+		}
+		logL = r.slabDraw(w, K, &H, &b0, st.yy, &c, &n1)
+		if logL != logL {
+			logL = math.Inf(-1)
+		}
+		dd = max(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		n0 = n1
 	}
 	o := k*w.stride + w.d
 	rec := w.rec
-	rec[o+oLogL], rec[o+oChi2], rec[o+oD] = logL, chi2, dd
+	face := 0
+	for jj := 0; jj < K; jj++ {
+		if n1[jj] > 0 {
+			face |= 1 << jj
+		}
+	}
+	rec[o+oLogL], rec[o+oFace], rec[o+oD] = logL, float64(face), dd
 	f := w.frac(k)
 	tot := 0.0
 	for jj := 0; jj < K; jj++ {
@@ -378,6 +432,10 @@ func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
 		wt[k] = beta*w.at(k, oLogL) - w.lq[k]
 		top = math.Max(top, wt[k])
 	}
+	if math.IsInf(top, -1) || top != top {
+		clear(wt[:w.n]) // no draw has a finite weight
+		return 0
+	}
 	sw, sw2 := 0.0, 0.0
 	for k := 0; k < w.n; k++ {
 		v := pexp(wt[k] - top)
@@ -456,14 +514,9 @@ func (w *sampleWork) endStage(r *Run) {
 		beta = lo
 		fitESS = w.tempered(wt, beta)
 	}
-	p := fitProposal(w.d, w.rec, w.stride, wt, fitESS)
+	p := fitProposal(w.d, &draws{rec: w.rec, stride: w.stride, face: w.d + oFace, n: w.n}, wt, fitESS)
 	if debugStages {
 		println("   beta", beta, "fitESS", int(fitESS))
-	}
-	if debugStages {
-		for i := 0; i < w.d; i++ {
-			println("   dim", i, "mu", p.mu[i], "sd", p.l[i*w.d+i])
-		}
 	}
 	ell := make([]float64, w.n, w.n+w.size)
 	for k := 0; k < w.n; k++ {
@@ -471,12 +524,17 @@ func (w *sampleWork) endStage(r *Run) {
 	}
 	w.props = append(w.props, p)
 	w.ell = append(w.ell, ell)
-	// Draws for the target at the last stage's efficiency, but at most
-	// twice the draws so far, so that the proposal is refitted a few times
-	// on the way when the first fits are poor.
+	// While the likelihood is still tempered, short stages, so that the
+	// proposal is refitted often on the way to the posterior; then draws
+	// for the target at the last stage's efficiency, but at most twice the
+	// draws so far.
 	need := (float64(r.opt.TargetESS) - ess) / w.eff * 1.1
 	need = min(need, 2*float64(w.n))
+	if beta < 1 {
+		need = exploreStage
+	}
 	w.size = min(r.opt.MaxDraws-w.n, max(minStage, int(need)+1))
 	w.planned += w.size
 	w.nStage = append(w.nStage, 0)
+	w.essStart, w.own = ess, [3]float64{}
 }

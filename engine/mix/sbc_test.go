@@ -55,19 +55,6 @@ func (s sbcSources) count() int {
 	return n
 }
 
-// sbcGroups are the mixtures of the study: every source alone, and two,
-// three and four together; withEvap marks the problem with the evaporite
-// end-member and the Cl/Na tracer.
-var sbcGroups = []struct {
-	src      sbcSources
-	withEvap bool
-}{
-	{sbcRain, false}, {sbcSil, false}, {sbcCarb, false}, {sbcEvap, true},
-	{sbcRain | sbcSil, false}, {sbcRain | sbcCarb, false}, {sbcSil | sbcCarb, false}, {sbcRain | sbcEvap, true}, {sbcEvap | sbcSil, true},
-	{sbcRain | sbcSil | sbcCarb, false}, {sbcRain | sbcSil | sbcCarb, true}, {sbcRain | sbcEvap | sbcSil, true}, {sbcEvap | sbcSil | sbcCarb, true},
-	{sbcRain | sbcEvap | sbcSil | sbcCarb, true}, {sbcRain | sbcEvap | sbcSil | sbcCarb, true},
-}
-
 // sbcRainSpread is the relative 1σ of the rain's X/Cl ratios in the study.
 const sbcRainSpread = 0.05
 
@@ -149,7 +136,9 @@ func sbcMake(i int, src sbcSources, withEvap bool, mode string, rng *rand.Rand) 
 			c[sp] += x
 		}
 	}
-	// Rock Na split among the rock sources uniformly (a flat Dirichlet).
+	// The rock sources' shares of the rock-derived cation charge uniform
+	// (a flat Dirichlet), the total log-uniform, as the prior of the
+	// amounts (slab.go) takes them.
 	var rock []Source
 	for _, s := range []struct {
 		f sbcSources
@@ -160,7 +149,7 @@ func sbcMake(i int, src sbcSources, withEvap bool, mode string, rng *rand.Rand) 
 		}
 	}
 	if len(rock) > 0 {
-		total := logU(20, 300)
+		total := logU(40, 1000)
 		g := make([]float64, len(rock))
 		sum := 0.0
 		for k := range g {
@@ -171,7 +160,8 @@ func sbcMake(i int, src sbcSources, withEvap bool, mode string, rng *rand.Rand) 
 		for k, s := range rock {
 			e := ems[s]
 			r := drawRatios(&e, mode, rng)
-			add(s, total*g[k]/sum, &r)
+			charge := 1 + r[KNa] + 2*r[CaNa] + 2*r[MgNa]
+			add(s, total*g[k]/sum/charge, &r)
 		}
 	}
 	// Measured with the default precision: x + σ(x) z.
@@ -197,22 +187,36 @@ func sbcMake(i int, src sbcSources, withEvap bool, mode string, rng *rand.Rand) 
 	return w
 }
 
-// sbcWaters returns the study's waters: per group, prior, centre and edge
-// truths.
-func sbcWaters(perGroup int, seed uint64) []sbcWater {
+// sbcWaters returns the study's waters: alternately without and with the
+// evaporite end-member (and the Cl/Na tracer), each end-member of the
+// problem present with probability ½ and rain with probability ¾ (at least
+// one source), so that one-, two-, three- and four-source mixtures all
+// occur; ratios from the priors, at their centres (one water in six) or
+// near their edges (one in six).
+func sbcWaters(n int, seed uint64) []sbcWater {
 	rng := rand.New(rand.NewPCG(seed, 77))
 	var out []sbcWater
-	for _, g := range sbcGroups {
-		for k := range perGroup {
-			mode := "prior"
-			switch k % 6 {
-			case 4:
-				mode = "centre"
-			case 5:
-				mode = "edge"
+	for i := range n {
+		withEvap := i%2 == 1
+		var src sbcSources
+		for src == 0 {
+			if rng.Float64() < 0.75 {
+				src |= sbcRain
 			}
-			out = append(out, sbcMake(len(out), g.src, g.withEvap, mode, rng))
+			for _, f := range []sbcSources{sbcSil, sbcCarb, sbcEvap} {
+				if (f != sbcEvap || withEvap) && rng.IntN(2) == 0 {
+					src |= f
+				}
+			}
 		}
+		mode := "prior"
+		switch i % 6 {
+		case 2:
+			mode = "centre"
+		case 5:
+			mode = "edge"
+		}
+		out = append(out, sbcMake(i, src, withEvap, mode, rng))
 	}
 	return out
 }
@@ -307,7 +311,7 @@ func (st *sbcStats) score(t testing.TB, res *Result, s int, w *sbcWater, rng *ra
 				st.cover[src]++
 				st.groups[key][src][0]++
 			}
-			if w.mode == "prior" && truth > 0 && truth < 1 {
+			if w.mode == "prior" {
 				rk := (below + rng.Float64()*equal) / sw
 				st.ranks[src] = append(st.ranks[src], rk)
 				st.rankBy[src][c] = append(st.rankBy[src][c], rk)
@@ -348,9 +352,9 @@ func TestSBCExplore(t *testing.T) {
 	if os.Getenv("LIXIV_SBC_EXPLORE") == "" {
 		t.Skip("set LIXIV_SBC_EXPLORE=1 to compare the samplers")
 	}
-	ws := sbcWaters(12, 1)
+	ws := sbcWaters(240, 1)
 	for _, nv := range []bool{false, true} {
-		st := sbcRun(t, ws, Options{Seed: 3, noVolume: nv})
+		st := sbcRun(t, ws, Options{Seed: 3, perturb: nv})
 		for src := range NSources {
 			if st.total[src] == 0 {
 				continue
@@ -368,7 +372,7 @@ func TestSBCExplore(t *testing.T) {
 				}
 				t.Logf("      %s %v", Cations[c], h)
 			}
-			t.Logf("noVolume=%v %-10s coverage %.3f (%d) ranks chi2 %.1f p %.3g", nv, Source(src), float64(st.cover[src])/float64(st.total[src]), st.total[src], chi, p)
+			t.Logf("perturb=%v %-10s coverage %.3f (%d) ranks chi2 %.1f p %.3g", nv, Source(src), float64(st.cover[src])/float64(st.total[src]), st.total[src], chi, p)
 		}
 		t.Logf("single: %d checks, worst %.4f, off: %v", st.singleN, st.worstSingle, st.single)
 		for _, m := range st.misses[:0] {

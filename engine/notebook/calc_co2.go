@@ -134,12 +134,10 @@ func computeCO2(e *Env) (*Output, error) {
 		}
 		e.Report(i, total)
 		vs, vc, ws, va = vs[:0], vc[:0], ws[:0], va[:0]
-		silD[i], carbD[i], wD[i] = make([]float64, a.Draws), make([]float64, a.Draws), make([]float64, a.Draws)
-		for d := 0; d < a.Draws; d++ {
-			sp, w, ok := a.Draw(i, d)
-			if !ok {
-				continue
-			}
+		nd := a.Kept(i)
+		silD[i], carbD[i], wD[i] = make([]float64, nd), make([]float64, nd), make([]float64, nd)
+		for d := 0; d < nd; d++ {
+			sp, w := a.Draw(i, d)
 			so4 := a.SO4Sulf(i, d)
 			x, y, err := co2Pair(&sp, so4, opt, scale)
 			if err != nil {
@@ -151,7 +149,7 @@ func computeCO2(e *Env) (*Output, error) {
 			}
 			silD[i][d], carbD[i][d], wD[i][d] = x, y, w
 		}
-		if len(ws) == 0 {
+		if len(ws) < 2 {
 			silD[i], carbD[i], wD[i] = nil, nil, nil
 		}
 		q := qb.quantiles(vs, ws, 0.025, 0.5, 0.975)
@@ -210,11 +208,9 @@ func computeCO2(e *Env) (*Output, error) {
 			}
 			return x
 		})
-		if a.Draws > 1 {
-			ser.Draws, ser.Weights = silD, wD
-			if part.carb {
-				ser.Draws = carbD
-			}
+		ser.Draws, ser.Weights = silD, wD
+		if part.carb {
+			ser.Draws = carbD
 		}
 		boot := !e.Rough() // the quick pass: point values now, intervals in the full pass
 		out.Rough = out.Rough || !boot

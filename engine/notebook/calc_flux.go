@@ -71,39 +71,30 @@ func period(rec *discharge.Record, site *Site) (*discharge.Record, error) {
 }
 
 // series builds a flux series from a per-sample quantity f of each draw's
-// split; the point value is f of the cell-by-cell median.
+// split; the point value is f of the cell-by-cell median. With draws, each
+// sample carries its own weighted posterior (Apportioned.Draw), so the
+// bootstrap picks each sample's draw on its own (flux.PerSampleDraw).
 func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int, s *mix.Split) float64) flux.Series {
 	a := v.App
 	n := len(a.Names)
 	s := flux.Series{Name: name, MolarMass: mass, Days: a.Days, Q: a.Q, C: make([]float64, n)}
-	if withDraws && a.Draws > 1 {
+	if withDraws {
 		s.Draws, s.Weights = make([][]float64, n), make([][]float64, n)
 	}
 	for i := 0; i < n; i++ {
 		s.C[i] = f(i, &a.Median[i])
-		if s.Draws == nil {
+		if s.Draws == nil || a.Kept(i) < 2 {
 			continue
 		}
 		if v.tick != nil {
 			v.tick()
 		}
-		d := make([]float64, a.Draws)
-		total := 0.0
-		var sp mix.Split // outside the loop: f takes its address
-		for k := 0; k < a.Draws; k++ {
-			if w := a.weights[i][k]; w > 0 {
-				if a.splits != nil {
-					d[k] = f(i, &a.splits[i][k])
-				} else {
-					sp, _, _ = a.Draw(i, k)
-					d[k] = f(i, &sp)
-				}
-				total += w
-			}
+		d := make([]float64, a.Kept(i))
+		for k := range d {
+			sp, _ := a.Draw(i, k)
+			d[k] = f(i, &sp)
 		}
-		if total > 0 {
-			s.Draws[i], s.Weights[i] = d, a.weights[i]
-		}
+		s.Draws[i], s.Weights[i] = d, a.Weights(i)
 	}
 	return s
 }
@@ -204,7 +195,7 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
-			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma},
+			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma, Draws: flux.PerSampleDraw},
 		SeriesReplicates: s.SeriesBootstrap,
 	}, nil
 }
