@@ -36,14 +36,19 @@ type SampleResult struct {
 	// WellSampled is false when the effective sample size stayed below
 	// min(200, Options.TargetESS): the quantiles are then rough.
 	WellSampled bool
-	// PriorDecided is true when for some end-member the posterior 95 %
-	// width of its Na fraction is at least 0.8 of the width its range
-	// alone allows (and at least 0.1): the data did not narrow the split.
+	// PriorDecided is true when for some end-member's Na fraction, or some
+	// rock source's share of Na, Ca or Mg, the posterior 95 % width is at
+	// least 0.8 of the width the end-member ranges alone give these data
+	// (the unweighted prior draws) and at least 0.1: the data did not
+	// narrow the split.
 	PriorDecided bool
-	Draws        int     // draws taken, over all stages
-	Stages       int     // the prior stage and the refinement stages
-	Stop         Stop    // why the refinement ended
-	ESS          float64 // effective sample size (sum w)² / sum w² (NaN for a rule)
+	// NoRock is the posterior probability that no end-member contributes
+	// at all: rain (and the correction's evaporite) explain the water.
+	NoRock float64
+	Draws  int     // draws taken, over all stages
+	Stages int     // the prior stage and the refinement stages
+	Stop   Stop    // why the refinement ended
+	ESS    float64 // effective sample size (sum w)² / sum w² (NaN for a rule)
 	// PPP is the posterior predictive probability of the misfit: the
 	// weighted share of replicated data sets whose χ² exceeds that of the
 	// data. Below 0.01 the sample does not fit (science.md §7.3).
@@ -53,8 +58,11 @@ type SampleResult struct {
 	// fraction over the width its prior ranges alone give these data (the
 	// unweighted prior draws): near 1, the ranges decide the split.
 	PriorWidth []float64
-	// Corr is the posterior correlation of the end-members' Na fractions
-	// (NaN for an end-member that took no part).
+	// Corr is the posterior correlation of the Na the end-members bring
+	// (NaN for an end-member that took no part or does not vary); near −1
+	// the data fix the sum of two but not the split between them
+	// (science.md §7.4; the fractions of two end-members alone are always
+	// perfectly anticorrelated, their amounts are not).
 	Corr   [][]float64
 	Amount Quantiles // µmol/L of each cation from each source
 	Share  Quantiles // fraction of each cation from each source
@@ -104,9 +112,10 @@ type kept struct {
 func (s *SampleResult) Err() error { return s.Status.Err() }
 
 // Doubtful reports whether the sample's result should not be trusted as
-// it stands: it does not fit, is poorly sampled, or was not inverted.
+// it stands: it does not fit, fits only with end-member ratios beyond
+// their prior ranges, is poorly sampled, or was not inverted.
 func (s *SampleResult) Doubtful() bool {
-	return s.Status != Fits && s.Status != Rule || !s.WellSampled
+	return s.Status != Fits && s.Status != Rule || !s.WellSampled || len(s.Bounds) > 0
 }
 
 // worst returns the status of the whole result.

@@ -6,9 +6,12 @@ import (
 	"slices"
 )
 
-// sampleStream is the second PCG word of a sample's own stream (data
-// perturbations and refinement draws).
-const sampleStream = 0x6c8e9cf570932bd5
+// sampleStream and errorStream are the second PCG words of a sample's own
+// streams: refinement draws, and the errors of its data.
+const (
+	sampleStream = 0x6c8e9cf570932bd5
+	errorStream  = 0x6572726f72732d7a // "errors-z"
+)
 
 var debugStages = false
 
@@ -26,9 +29,10 @@ const minStage = 200
 type sampleWork struct {
 	s        int
 	st       *setup
-	rng      *rand.Rand
-	d, k     int // latent dimensions and end-members taking part
-	stride   int // floats per draw record
+	rng      *rand.Rand // end-member ratios, faces and amounts
+	zrng     *rand.Rand // errors of the data
+	d, k     int        // latent dimensions and end-members taking part
+	stride   int        // floats per draw record
 	rec      []float64
 	stageOf  []int8
 	ell      [][]float64 // ell[s-1][draw]: log of stage s's Gaussian over the prior density
@@ -53,12 +57,28 @@ const (
 	oLogL = iota // log likelihood of the draw's ratios
 	oFace        // the set of end-members present in the draw, as a bit mask
 	oD           // misfit of the data at the draw's (perturbed) solution, for the predictive check
-	oFrac        // the k Na fractions, then the split, the sulfide sulfate and the predicted data
+	oFrac        // the k amounts of Na, then the split, the sulfide sulfate and the predicted data
 )
 
-func (w *sampleWork) frac(k int) []float64 {
+// amounts returns the µmol/L of Na from each end-member taking part in
+// draw k.
+func (w *sampleWork) amounts(k int) []float64 {
 	o := k*w.stride + w.d + oFrac
 	return w.rec[o : o+w.k]
+}
+
+// frac returns the Na fraction of the jj-th end-member taking part in draw
+// k (0 when the draw has no rock-derived Na).
+func (w *sampleWork) frac(k, jj int) float64 {
+	n := w.amounts(k)
+	t := 0.0
+	for _, v := range n {
+		t += v
+	}
+	if t > 0 {
+		return n[jj] / t
+	}
+	return 0
 }
 
 func (w *sampleWork) split(k int) (sp Split) {
@@ -99,6 +119,10 @@ func (r *Run) begin(s int) *sampleWork {
 		return w
 	}
 	w.rng = rand.New(rand.NewPCG(r.opt.Seed^sampleStream, uint64(s)))
+	// The data perturbations come from a stream of their own, so that an
+	// error source of no effect (a spread of 0 against one too small to
+	// move a value) leaves the other draws unchanged.
+	w.zrng = rand.New(rand.NewPCG(r.opt.Seed^errorStream, uint64(s)))
 	w.stride = w.d + oFrac + w.k + int(NSources)*NCations + 1 + st.r
 	w.size = min(r.opt.Draws, r.opt.MaxDraws)
 	w.planned = w.size
@@ -185,7 +209,7 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 		}
 	}
 	for i := range w.z {
-		w.z[i] = normQuantile(uniform(w.rng))
+		w.z[i] = normQuantile(uniform(w.zrng))
 	}
 	k := len(w.stageOf)
 	w.stageOf = append(w.stageOf, int8(min(s, 127)))
@@ -309,16 +333,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 		}
 	}
 	rec[o+oLogL], rec[o+oFace], rec[o+oD] = logL, float64(face), dd
-	f := w.frac(k)
-	tot := 0.0
-	for jj := 0; jj < K; jj++ {
-		tot += n1[jj]
-	}
-	for jj := 0; jj < K; jj++ {
-		if tot > 0 {
-			f[jj] = n1[jj] / tot
-		}
-	}
+	copy(w.amounts(k), n1[:K])
 	pr := w.pred(k)
 	for i := 0; i < R; i++ {
 		s := 0.0

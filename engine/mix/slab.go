@@ -22,8 +22,8 @@ import "math"
 // the Laplace estimates only steer it. A proposed amount below zero, or a
 // total outside the slab, has weight 0.
 const (
-	slabLo = 0.01 // µeq/L: smallest total rock-derived cation charge of the prior (assumption)
-	slabHi = 1e5  // µeq/L: largest (assumption)
+	slabLo = 1   // µeq/L: smallest total rock-derived cation charge of the prior (assumption)
+	slabHi = 1e5 // µeq/L: largest (assumption)
 )
 
 // logSlabNorm is ln ln(slabHi/slabLo), the log normaliser of the total's

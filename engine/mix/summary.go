@@ -66,12 +66,12 @@ func (r *Run) finish(w *sampleWork) {
 	n0 := w.nStage[0]
 	for jj, j := range st.act {
 		for a, i := range keep {
-			col[a] = w.frac(i)[jj]
+			col[a] = w.frac(i, jj)
 		}
 		iv := weightedInterval(col[:len(keep)], kw, &idx)
 		sr.Alpha[j] = iv
 		for i := range n0 {
-			col[i] = w.frac(i)[jj]
+			col[i] = w.frac(i, jj)
 		}
 		prior := interval(col[:n0])
 		if pw := prior.Hi - prior.Lo; pw > 0 {
@@ -82,6 +82,23 @@ func (r *Run) finish(w *sampleWork) {
 		if sr.PriorWidth[j] >= priorDecides && iv.Hi-iv.Lo >= wideSplit {
 			sr.PriorDecided = true
 		}
+	}
+	// The chance that the draws give no rock-derived Na at all: where it is
+	// high, the split of that nothing is no statement about the ranges.
+	p0, sw0 := 0.0, 0.0
+	for a, i := range keep {
+		sw0 += kw[a]
+		none := true
+		for _, v := range w.amounts(i) {
+			none = none && v == 0
+		}
+		if none {
+			p0 += kw[a]
+		}
+	}
+	sr.NoRock = p0 / sw0
+	if sr.NoRock >= 0.5 {
+		sr.PriorDecided = false
 	}
 	sr.Corr = make([][]float64, n)
 	for i := range sr.Corr {
@@ -98,7 +115,7 @@ func (r *Run) finish(w *sampleWork) {
 	for a := range k {
 		for b := a + 1; b < k; b++ {
 			if rho := sr.Corr[st.act[a]][st.act[b]]; abs(rho) > corrWarn {
-				sr.Warnings = append(sr.Warnings, fmt.Errorf("%w: %s and %s in sample %q correlate (ρ = %.2f): the tracers cannot split them",
+				sr.Warnings = append(sr.Warnings, fmt.Errorf("%w: the Na from %s and from %s in sample %q correlate (ρ = %.2f): the tracers cannot split them",
 					ErrCorrelated, r.prob.EndMembers[st.act[a]].Name, r.prob.EndMembers[st.act[b]].Name, sr.Name, rho))
 			}
 		}
@@ -135,6 +152,20 @@ func (r *Run) finish(w *sampleWork) {
 			sr.Amount.Lo[src][c], sr.Amount.Median[src][c], sr.Amount.Hi[src][c] = iv.Lo, iv.Median, iv.Hi
 			iv = weightedInterval(shr, kw, &idx)
 			sr.Share.Lo[src][c], sr.Share.Median[src][c], sr.Share.Hi[src][c] = iv.Lo, iv.Median, iv.Hi
+			if c != 1 && (src == Silicate || src == Carbonate || src == Evaporite) && iv.Hi-iv.Lo >= wideSplit {
+				// The same share under the prior draws alone, unweighted:
+				// near as wide, and the end-member ranges decide it.
+				for i := range n0 {
+					sp := w.split(i)
+					col[i] = 0
+					if tot := sp[0][c] + sp[1][c] + sp[2][c] + sp[3][c]; tot > 0 {
+						col[i] = sp[src][c] / tot
+					}
+				}
+				if pr := interval(col[:n0]); pr.Hi-pr.Lo > 0 && (iv.Hi-iv.Lo)/(pr.Hi-pr.Lo) >= priorDecides {
+					sr.PriorDecided = true
+				}
+			}
 		}
 	}
 	// Fit: posterior predictive probability of the misfit.
@@ -168,12 +199,13 @@ func (r *Run) finish(w *sampleWork) {
 	}
 }
 
-// corr returns the weighted correlation of the Na fractions of the a-th
-// and b-th end-members taking part (NaN when one does not vary).
+// corr returns the weighted correlation of the Na contributed by the a-th
+// and b-th end-members taking part (NaN when one does not vary): near −1,
+// the data fix their sum but not the split between them.
 func (w *sampleWork) corr(keep []int, kw []float64, a, b int) float64 {
 	var sw, ma, mb float64
 	for x, i := range keep {
-		f := w.frac(i)
+		f := w.amounts(i)
 		sw += kw[x]
 		ma += kw[x] * f[a]
 		mb += kw[x] * f[b]
@@ -181,7 +213,7 @@ func (w *sampleWork) corr(keep []int, kw []float64, a, b int) float64 {
 	ma, mb = ma/sw, mb/sw
 	var saa, sbb, sab float64
 	for x, i := range keep {
-		f := w.frac(i)
+		f := w.amounts(i)
 		da, db := f[a]-ma, f[b]-mb
 		saa += kw[x] * da * da
 		sbb += kw[x] * db * db
@@ -310,8 +342,13 @@ func (r *Run) verdict(sr *SampleResult) string {
 			t += ": " + sr.Misfit.Text
 		}
 		parts = append(parts, t)
+	} else if len(sr.Bounds) > 0 {
+		parts = append(parts, "fits only with end-member ratios beyond their ranges")
 	} else {
 		parts = append(parts, "fits")
+	}
+	if sr.NoRock >= 0.5 {
+		parts = append(parts, fmt.Sprintf("no rock-derived Na detected (%.0f %% of the posterior has none)", 100*sr.NoRock))
 	}
 	if sr.PriorDecided {
 		parts = append(parts, "the end-member ranges decide the split")
@@ -325,7 +362,7 @@ func (r *Run) verdict(sr *SampleResult) string {
 		if b.Upper {
 			edge = "upper"
 		}
-		parts = append(parts, fmt.Sprintf("%s %s at the %s edge of its range (%.3g)", r.prob.EndMembers[b.EndMember].Name, b.Tracer, edge, b.Limit))
+		parts = append(parts, fmt.Sprintf("%s %s %.3g, beyond the %s edge of its range (%.3g)", r.prob.EndMembers[b.EndMember].Name, b.Tracer, b.Median, edge, b.Limit))
 	}
 	if !sr.WellSampled {
 		parts = append(parts, fmt.Sprintf("poorly sampled (ESS %.0f from %d draws)", sr.ESS, sr.Draws))
@@ -369,7 +406,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	sr.draws = make([]kept, nd)
 	for k := range sr.draws {
 		for i := range w.z {
-			w.z[i] = normQuantile(uniform(w.rng))
+			w.z[i] = normQuantile(uniform(w.zrng))
 		}
 		var sp Split
 		x := func(c int) float64 { return math.Max(0, st.x[c].at(w.z)) }

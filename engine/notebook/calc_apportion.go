@@ -298,7 +298,7 @@ func (a *Apportioned) runForward(e *Env, s *ApportionmentSettings, ems []mix.End
 			return fmt.Errorf("sample %s: %v", a.Names[i], err)
 		}
 		for _, w := range fr.Warnings {
-			warn[w.Error()]++
+			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
 		}
 		a.forward[i] = fr.Draws
 		a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
@@ -369,7 +369,8 @@ func (a *Apportioned) runInverse(e *Env, s *ApportionmentSettings, ems []mix.End
 		sr := &res.Samples[i]
 		a.Status[i], a.Verdict[i], a.ESS[i], a.doubtful[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
 		for _, w := range sr.Warnings {
-			warn[w.Error()]++
+			// Grouped by kind: "end-member left out, no tracer sees it: …".
+			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
 		}
 		if sr.Status == mix.NoFit && sr.Misfit != nil {
 			a.Diagram.Misfit[i] = "Na"

@@ -102,9 +102,9 @@ func Example_budget() {
 	v, _ := again.Verify()
 	fmt.Println("rerun matches the saved results:", v.Match)
 	// Output:
-	// silicate CO2 consumption per km²: 1.48e+05 [1.14e+05, 1.96e+05] mol/km²/yr
-	// carbonate CO2 consumption per km²: 5.76e+04 [3.93e+04, 7.77e+04] mol/km²/yr
+	// silicate CO2 consumption per km²: 1.53e+05 [1.25e+05, 1.81e+05] mol/km²/yr
+	// carbonate CO2 consumption per km²: 5.51e+04 [4.68e+04, 6.85e+04] mol/km²/yr
 	// site ran 1 time(s); co2 ran 2 times
-	// after the edit: 1.27e+05 mol/km²/yr
+	// after the edit: 1.32e+05 mol/km²/yr
 	// rerun matches the saved results: true
 }

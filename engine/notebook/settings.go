@@ -185,13 +185,15 @@ func DefaultSettings(k Kind) Settings {
 			MgPerCl: 0.0967577, SO4PerCl: 0.0517252, SrPerCl: 0.000166147, DryDeposition: 1,
 			ExcessChloride: "halite", RatioSource: "seawater, Millero et al. 2008",
 			// The methods brief §8.6 asks for user values and gives none.
-			// Rain is not seawater: its ratios to Cl stray from the
-			// reference composition with dust, pollution and the loss of
-			// Cl from aged aerosol (common practice, from memory), so the
-			// ratios start with a spread of 10 % (1σ; common practice, no
-			// source), as does the ET factor, which matters only where Cl*
-			// comes from measured rain. 0 makes the correction exact.
-			RatioUncertainty: 10, FactorUncertainty: 10}
+			// The default method takes the reference-seawater ratios, whose
+			// major-ion proportions are constant in the open ocean (common
+			// practice, from memory), so they start exact (0); a user who
+			// measures rain, or expects fractionated aerosol or dust, sets a
+			// spread (the rain cell warns when measured rain ratios are
+			// taken as exact). The ET factor starts at 10 % (1σ; common
+			// practice, no source); it matters only where Cl* comes from
+			// measured rain. SCHEMA.md states both (a test reads it).
+			RatioUncertainty: 0, FactorUncertainty: 10}
 	case KindSources:
 		return &SourcesSettings{Preset: "global"}
 	case KindApportionment:

@@ -55,8 +55,10 @@ func TestProblemsExitStatus(t *testing.T) {
 func TestNoValue(t *testing.T) {
 	// Invented samples whose Cl exceeds Na/0.85912 (the sea-salt Na/Cl of
 	// Millero et al. 2008, science.md §4.2), so that the rain correction
-	// takes all their Na and none can be apportioned. Alkalinity is chosen
-	// so that both balance (TZ+ = TZ− = 610 and 652 µeq/L).
+	// takes all their Na: no mix of Na-bearing end-members fits, and the
+	// Na-free rule answers them (Ca* and Mg* to carbonate, K* to silicate),
+	// saying so; nothing prints as NaN. Alkalinity is chosen so that both
+	// balance (TZ+ = TZ− = 610 and 652 µeq/L).
 	path := filepath.Join(t.TempDir(), "salty.csv")
 	text := "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
 		"S1,2024-01-10,100,10,200,50,150,40,380\n" +
@@ -70,8 +72,8 @@ func TestNoValue(t *testing.T) {
 		t.Errorf("NaN printed:\n%s", out)
 	}
 	for _, want := range []string{
-		"median silicate CO2 consumption per litre: no value: no sample could be apportioned",
-		"S1 2024-01-10 skipped: no value: the sample was not apportioned",
+		"S1 2024-01-10 Na* ≤ 0: no silicate or evaporite Na; all Ca* and Mg* to carbonate, K* to silicate",
+		"Na* <= 0 after the corrections",
 		"atmospheric share of Na above 1 in 2 of 2 samples",
 	} {
 		if !strings.Contains(out, want) {
