@@ -127,6 +127,7 @@ func Estimate(rec *discharge.Record, s Series, opt Options) (*Result, error) {
 	}
 	years := rec.Years(opt.FirstMonth)
 	smp, warns := match(rec, s, years)
+	smp = withValues(smp)
 	res := &Result{Series: s.Name, Method: opt.Method, Warnings: warns}
 	if opt.Method == Rating {
 		kept := smp[:0:0]
