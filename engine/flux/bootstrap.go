@@ -274,10 +274,10 @@ func valued(smp []sample) int {
 // the resampling counts of the samples, each sample's draw and the
 // discharge and area factors, each from its own PCG stream.
 type replicates struct {
-	b      BootstrapOptions
-	nrep   int
-	groups [][]int   // matched samples of each reporting year
-	w      []float64 // this replicate's count of each matched sample
+	b          BootstrapOptions
+	nrep       int
+	groups     [][]int   // matched samples of each reporting year
+	w          []float64 // this replicate's count of each matched sample
 	rs, rd, re *rand.Rand
 }
 
@@ -456,4 +456,3 @@ func Quantile(sorted []float64, p float64) float64 {
 	}
 	return sorted[lo] + (h-float64(lo))*(sorted[lo+1]-sorted[lo])
 }
-
