@@ -305,8 +305,9 @@ type refLoads struct {
 	e   *engine
 }
 
-// loads returns the replicate loads of the measured series s (matched to
-// smp), computing them for at least b's replicates.
+// loads returns the replicate loads of the measured series s, whose
+// samples smp are matched to the record, computing them for at least b's
+// replicates.
 func (c *Cache) loads(rec *discharge.Record, s Series, opt Options, b BootstrapOptions, smp []sample, years []discharge.Year) (*refLoads, error) {
 	nrep := b.Replicates
 	if nrep <= 0 {
@@ -319,7 +320,18 @@ func (c *Cache) loads(rec *discharge.Record, s Series, opt Options, b BootstrapO
 	if rl != nil && len(rl.mol) >= nrep {
 		return rl, nil
 	}
-	if valued(smp) == 0 {
+	// smp may have been matched for another series with the same samples:
+	// the concentrations are s's.
+	c0 := make([]float64, len(smp))
+	some := false
+	for j, sm := range smp {
+		c0[j] = math.NaN()
+		if sm.idx < len(s.C) {
+			c0[j] = s.C[sm.idx]
+		}
+		some = some || !math.IsNaN(c0[j])
+	}
+	if !some {
 		return nil, fmt.Errorf("%s: %w", s.Name, ErrNoSamples)
 	}
 	// The resampling stream alone decides the samples' counts; the other
@@ -331,10 +343,6 @@ func (c *Cache) loads(rec *discharge.Record, s Series, opt Options, b BootstrapO
 	rb.Replicates = nrep
 	rb.Hold = b.Hold & Sampling
 	rp := newReplicates(smp, len(s.Days), years, rb)
-	c0 := make([]float64, len(smp))
-	for j, sm := range smp {
-		c0[j] = sm.c
-	}
 	rl = &refLoads{mol: make([][]float64, nrep), ok: make([]bool, nrep), e: e}
 	for r := 0; r < nrep; r++ {
 		rp.next(nil, nil)

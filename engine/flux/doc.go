@@ -17,9 +17,12 @@
 //   - FlowWeighted: each year's discharge-weighted mean concentration
 //     C_fw = Σ C_i Q_i / Σ Q_i over that year's samples, times the year's
 //     discharge: L = 86.4 C_fw Σ Q_d.
-//   - PeriodWeighted: concentration interpolated linearly in time between
-//     sample days (same-day samples averaged), held at the ends of the
-//     record, times daily discharge: L = 86.4 Σ C_d Q_d.
+//   - PeriodWeighted: concentration interpolated in time between sample
+//     days (same-day samples averaged), held at the ends of the record,
+//     times daily discharge: L = 86.4 Σ C_d Q_d. The interpolation is
+//     flow-adjusted: C_d = Q_d^b × interp(C_i Q_i^−b), with b the
+//     least-squares slope of ln C on ln Q of the samples, which is plain
+//     linear interpolation when b = 0.
 //   - Beale: the bias-corrected ratio estimator on each year's samples (§8.4).
 //   - Rating: ln C = b0 + b1 ln Q (+ b2 sin 2πt + b3 cos 2πt) fitted by least
 //     squares over all samples, applied to every day and multiplied by a
