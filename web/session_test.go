@@ -142,11 +142,11 @@ func TestParamLabel(t *testing.T) {
 }
 
 func TestHeadlineOrder(t *testing.T) {
-	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "runoff", Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
+	cells := []CellView{{Figures: []FigureView{{Name: notebook.RecordRunoffFigure, Unit: "mm/yr"}, {Name: notebook.RunoffFigure, Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
 		{Name: "carbonate CO2 consumption per km²", Unit: "mol/km²/yr"}, {Name: "silicate CO2 consumption per km²", Unit: "mol/km²/yr"}}}}
 	got := Headline(cells, 4)
-	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff", "median silicate CO2 consumption per litre"}
+	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", notebook.RunoffFigure, "median silicate CO2 consumption per litre"}
 	for i := range want {
 		if i >= len(got) || got[i].Name != want[i] {
 			t.Fatalf("headline: got %v, want %v", got, want)

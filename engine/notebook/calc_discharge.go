@@ -16,6 +16,12 @@ type Flow struct {
 
 func init() { Register(KindDischarge, computeDischarge) }
 
+// RecordRunoffFigure names the discharge cell's runoff: that of every day
+// of the record with discharge, scaled to a year of 365.25 days. The
+// fluxes cell's (RunoffFigure) covers the complete years of the budget
+// period only.
+const RecordRunoffFigure = "runoff of the whole record"
+
 func computeDischarge(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*DischargeSettings)
 	t := e.Cell.Table
@@ -92,7 +98,7 @@ func computeDischarge(e *Env) (*Output, error) {
 		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
 		if n > 0 {
 			r := mm / float64(n) * 365.25
-			out.Figures = append(out.Figures, Point("runoff", "mm/yr", r))
+			out.Figures = append(out.Figures, Point(RecordRunoffFigure, "mm/yr", r))
 			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
 			// brief §1.3; common practice, no source).
 			if site.P > 0 && site.ET > 0 {

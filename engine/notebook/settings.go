@@ -92,6 +92,17 @@ type FluxSettings struct {
 	SeriesBootstrap      int     `json:"series_bootstrap"`              // resamples for the intervals of the other series (0 = point values only)
 	DischargeUncertainty float64 `json:"discharge_uncertainty_percent"` // 1σ systematic error of Q, %
 	Seed                 int64   `json:"seed"`                          // random seed of the bootstrap
+	// Unapportioned says what becomes of samples without a usable
+	// apportionment: "leave-out" (their measured values are left out of
+	// the source fluxes too, which the estimator then makes from the other
+	// samples) or "fill-shares" (the measured species are fluxed from every
+	// sample, and the missing samples take the flow-weighted source shares
+	// of the apportioned samples of their year).
+	Unapportioned string `json:"unapportioned_samples"`
+	// DoubtfulPercent is the share of the flow-weighted cation load in
+	// samples without a usable apportionment, or of the flow the samples
+	// do not bracket, above which the fluxes and CO2 cells are doubtful, %.
+	DoubtfulPercent float64 `json:"doubtful_above_percent"`
 }
 
 // CO2Settings choose the CO2 accounting.
@@ -193,8 +204,11 @@ func DefaultSettings(k Kind) Settings {
 		// SeriesBootstrap = 200 keeps the intervals of the other series
 		// cheap enough for the page to recompute after an edit (an
 		// engineering choice, no source).
+		// A quarter of the load resting on unapportioned samples or
+		// unbracketed flow makes the fluxes doubtful (an engineering
+		// choice, no source).
 		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000, SeriesBootstrap: 200,
-			DischargeUncertainty: 7, Seed: 1}
+			DischargeUncertainty: 7, Seed: 1, Unapportioned: "leave-out", DoubtfulPercent: 25}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
 	case KindNote:
@@ -332,6 +346,8 @@ func (s *FluxSettings) Validate() error {
 		inRange("bootstrap", float64(s.Bootstrap), 1, MaxBootstrap),
 		inRange("series_bootstrap", float64(s.SeriesBootstrap), 0, MaxBootstrap),
 		inRange("discharge_uncertainty_percent", s.DischargeUncertainty, 0, 100),
+		oneOf("unapportioned_samples", s.Unapportioned, "leave-out", "fill-shares"),
+		inRange("doubtful_above_percent", s.DoubtfulPercent, 0, 100),
 	)
 }
 

@@ -55,7 +55,7 @@ var Examples = []Example{
 	{"examples/marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
 		return MarlowFen().Budget("global", "forward", 2000, 500,
 			"Marlow Fen is a fictional lowland river on limestone and shale with gypsum and pyrite. The data are invented (examples/synth), not measured.",
-			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; set the apportionment's sulfate to sulfide to see the other end of the bracket.")
+			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; the CO2 cell shows beside it the other end of the bracket, all from sulfide oxidation.")
 	}},
 }
 
