@@ -76,7 +76,7 @@ func fromReaction(t *testing.T, eq string, xi float64) (chem.Composition, float6
 }
 
 func TestReactionWaters(t *testing.T) {
-	// Water made by each weathering reaction of the methods brief §9.1,
+	// Water made by each weathering reaction of the docs/methods.md §9.1,
 	// apportioned by the forward model: the short-term consumption
 	// phi_total equals the CO2 the reaction consumed, and the geological
 	// figure net_long follows §9.3 (0 for calcite and carbonic acid, ½ Alk
@@ -252,7 +252,7 @@ func TestSulfurSplit(t *testing.T) {
 }
 
 func TestLongTermSilicateSink(t *testing.T) {
-	// Silicate waters made by the reactions of the methods brief §9.1, their
+	// Silicate waters made by the reactions of the docs/methods.md §9.1, their
 	// cations booked to silicate and their sulfate to sulfide oxidation.
 	// Short term phi_sil is the CO2 the reaction consumed. Long term
 	// (§9.2-9.3): carbonic-acid weathering of a Ca or Mg silicate is a sink

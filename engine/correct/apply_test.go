@@ -169,7 +169,7 @@ func TestRainBelowCritical(t *testing.T) {
 }
 
 func TestRainFactor(t *testing.T) {
-	// F = P/(P−ET) = P/R (methods brief §4.3); worked values computed by hand.
+	// F = P/(P−ET) = P/R (docs/methods.md §4.3); worked values computed by hand.
 	tests := []struct {
 		name string
 		rain Rain
@@ -308,7 +308,7 @@ func TestBracket(t *testing.T) {
 
 func TestNegativePolicy(t *testing.T) {
 	// A residual below zero is reported with its amount and handled by the
-	// policy, never clipped silently (issue 3; methods brief §5.1).
+	// policy, never clipped silently (issue 3; docs/methods.md §5.1).
 	// K 0.5 with sea-salt K/Cl 0.0186998 × Cl 100 gives K* = −1.36998;
 	// Cl 200 with Cl* 100 makes Na_evap 100, so Na* = 100 − 85.912 − 100.
 	river := sample(map[chem.Species]float64{chem.Cl: 200, chem.Na: 100, chem.K: 0.5, chem.Ca: 50, chem.Mg: 30})

@@ -85,7 +85,7 @@ type BootstrapOptions struct {
 	// DischargeError is the relative standard deviation σ_Q of a systematic
 	// error of the whole discharge record (a rating error): each replicate
 	// multiplies every daily and sampled discharge by f = 1 + σ_Q ε, ε
-	// standard normal, redrawn while f ≤ 0 (science brief §8.6). Since every
+	// standard normal, redrawn while f ≤ 0 (docs/methods.md §8.6). Since every
 	// estimator's concentrations are unchanged by a common scale of Q (the
 	// rating curve's intercept absorbs it), the replicate's loads and runoff
 	// are multiplied by f.

@@ -282,7 +282,7 @@ func TestWaterYearFlux(t *testing.T) {
 	if y := res.Years[0]; y.String() != "2020-10/2021-09" || y.Samples != 26 || y.Mol != 86.4*(100*365) {
 		t.Errorf("water year 2021: %s, %d samples, %g mol", y, y.Samples, y.Mol)
 	}
-	if relErr(res.Mean.Mol, 3.1536e6) > 1e-12 { // science brief §13 item 10
+	if relErr(res.Mean.Mol, 3.1536e6) > 1e-12 { // docs/methods.md §13 item 10
 		t.Errorf("mean %g mol/yr, want 3.1536e6", res.Mean.Mol)
 	}
 	cal, _ := Estimate(rec, s, Options{AreaKm2: 100})

@@ -12,7 +12,7 @@
 // t CO2, and WeatheringRate sums mass yields of several species (silicate
 // cations, with or without SiO2). Further CO2 accounting belongs to co2.
 //
-// # Estimators (science brief §8)
+// # Estimators (docs/methods.md §8)
 //
 //   - FlowWeighted: each year's discharge-weighted mean concentration
 //     C_fw = Σ C_i Q_i / Σ Q_i over that year's samples, times the year's
@@ -47,7 +47,7 @@
 //     samples within years, a Monte Carlo draw of each sample's
 //     concentration (Series.Draws, shared draw index or per sample), a
 //     systematic discharge error and an area error; it reports the median
-//     and 95 % interval of every figure (science brief §8.6).
+//     and 95 % interval of every figure (docs/methods.md §8.6).
 //     BootstrapOptions.Hold holds chosen sources at their central values
 //     (Alone varies one source only), for a breakdown of an interval by
 //     source; its zero value varies them all.

@@ -11,7 +11,7 @@ import (
 // Method is a flux estimator.
 type Method int
 
-// The estimators (science brief §8). The zero value is FlowWeighted.
+// The estimators (docs/methods.md §8). The zero value is FlowWeighted.
 const (
 	// FlowWeighted multiplies each year's discharge-weighted mean
 	// concentration Σ C_i Q_i / Σ Q_i (samples of that year) by the year's
@@ -33,7 +33,7 @@ const (
 	Rating
 	// Beale is the bias-corrected ratio estimator applied to each year's
 	// samples (Beale 1962, from memory; described by Tin 1965; used for
-	// river loads by Dolan, Yui & Geist 1981; science brief §8.4).
+	// river loads by Dolan, Yui & Geist 1981; docs/methods.md §8.4).
 	Beale
 	NMethods // number of methods; not a method
 )
@@ -118,7 +118,7 @@ type Result struct {
 	OutsideFlow float64
 	// TopSampled is the place on the flow-duration curve of the highest
 	// sampled discharge: the share of days with at least that flow. A large
-	// value means the floods went unsampled (science brief §12).
+	// value means the floods went unsampled (docs/methods.md §12).
 	TopSampled float64
 	Samples    int     // samples used
 	Warnings   []error // samples left out, incomplete years, years without samples

@@ -8,7 +8,7 @@ import (
 	"lixiv/engine/discharge"
 )
 
-// slowLoads is a literal transcription of the science brief's §8.1, §8.2
+// slowLoads is a literal transcription of the docs/methods.md §8.1, §8.2
 // and §8.4 formulas for one year of samples, written for clarity, not
 // speed, as an oracle for the fast estimators.
 func slowLoads(rec *discharge.Record, days []discharge.Day, c []float64) (fw, pw, beale float64) {

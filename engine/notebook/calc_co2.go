@@ -12,13 +12,13 @@ import (
 func init() { Register(KindCO2, computeCO2) }
 
 // LongTermConvention names the conventional long-term accounting, the co2
-// cell's default, for table titles and the report (methods brief §9.2 asks
+// cell's default, for table titles and the report (docs/methods.md §9.2 asks
 // the notebook to say which one is used); LongTermConventionOf names the
 // one a cell uses.
 const LongTermConvention = "conventional silicate sink (Ca+Mg)_sil, less its share of sulfuric acid"
 
 // longTerm describes the long-term silicate conventions of the co2 cell's
-// long_term_convention setting (methods brief §9.2–9.3): a description for
+// long_term_convention setting (docs/methods.md §9.2–9.3): a description for
 // titles and the report, and the short form figure names carry.
 var longTerm = map[string]struct{ label, short string }{
 	"conventional": {LongTermConvention, "(Ca+Mg)_sil"},
@@ -35,7 +35,7 @@ func LongTermConventionOf(s *CO2Settings) string {
 }
 
 // co2Pair returns the silicate and carbonate CO2 consumption of one split
-// (µmol/L). Short term: phi_sil and phi_carb (methods brief §9.2-9.3).
+// (µmol/L). Short term: phi_sil and phi_carb (docs/methods.md §9.2-9.3).
 // Long term: the conventional silicate sink, (Ca+Mg)_sil under carbonic
 // acid, with the Ca+Mg share of the sulfide-derived sulfate given to
 // silicate weathering taken off, since silicate weathering by sulfuric acid
@@ -76,7 +76,7 @@ func otherLongSil(s *mix.Split, so4 float64, opt *co2.Options, chosen string) fl
 // SilicatePlausibleMax is the silicate CO2 consumption (mol/km²/yr) above
 // which the co2 cell flags the result for review: single catchments span
 // roughly 1e3 to 1e6 mol/km²/yr (from memory), and values above about 5e6
-// are flagged (common practice, no source; methods brief §9.4).
+// are flagged (common practice, no source; docs/methods.md §9.4).
 const SilicatePlausibleMax = 5e6
 
 // implausibleSilicate returns the §9.4 plausibility warning for a silicate

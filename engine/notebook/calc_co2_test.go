@@ -11,7 +11,7 @@ import (
 )
 
 func TestCO2PairLongTerm(t *testing.T) {
-	// Silicate Na 100, K 0, Ca 35, Mg 24 (the methods brief §13 item 8
+	// Silicate Na 100, K 0, Ca 35, Mg 24 (the docs/methods.md §13 item 8
 	// silicate part) and carbonate Ca 400, Mg 80. Long term the silicate
 	// figure is the conventional sink (Ca+Mg)_sil = 59 under carbonic acid
 	// (§9.2); with sulfide-derived sulfate the Ca+Mg share of S_sil comes

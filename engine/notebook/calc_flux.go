@@ -474,7 +474,7 @@ const (
 // flowCoverage gives the sample coverage of the discharge record for the
 // series of r as headline figures, and cautions when it is poor: the share
 // of flow before the first or after the last sample, where interpolation
-// holds the end values (methods brief §8.2); the share of flow outside the
+// holds the end values (docs/methods.md §8.2); the share of flow outside the
 // sampled discharge range, where a rating curve extrapolates (§8.3); and
 // the share of days with at least the highest sampled discharge, the
 // sample coverage of the flow-duration curve (§12: sparse sampling that
@@ -492,12 +492,12 @@ func flowCoverage(r *flux.Result) ([]Figure, []string) {
 	if r.OutsideFlow > coverageFlowLimit {
 		where := "where no sample shows how concentration follows discharge"
 		if r.Method == flux.Rating {
-			where = "where the rating curve extrapolates (methods brief §8.3)"
+			where = "where the rating curve extrapolates (docs/methods.md §8.3)"
 		}
 		warns = append(warns, fmt.Sprintf("%.2g %% of the flow passed on days with discharge outside the sampled range, %s; annual loads may be biased", 100*r.OutsideFlow, where))
 	}
 	if r.TopSampled > coverageTopLimit {
-		warns = append(warns, fmt.Sprintf("the highest sampled discharge is reached on %.2g %% of days: the floods went unsampled, which biases annual loads (methods brief §12)", 100*r.TopSampled))
+		warns = append(warns, fmt.Sprintf("the highest sampled discharge is reached on %.2g %% of days: the floods went unsampled, which biases annual loads (docs/methods.md §12)", 100*r.TopSampled))
 	}
 	return figs, warns
 }
@@ -573,7 +573,7 @@ type ratePart struct {
 	k      float64
 }
 
-// weatheringRates are the fluxes cell's weathering rates (methods brief
+// weatheringRates are the fluxes cell's weathering rates (docs/methods.md
 // §6.1, Gaillardet et al. 1999 style, from memory): SWR from the silicate
 // cations, and with SiO2; CWR from the carbonate cations, and with the
 // carbonate carbon ½ HCO3_carb M_HCO3, where HCO3_carb = 2(Ca+Mg)_carb, so
@@ -634,7 +634,7 @@ func weatheringRate(name string, parts []ratePart, points map[string]float64, re
 }
 
 // uncertaintySources are the inputs the "uncertainty by source" table varies
-// one at a time (methods brief §8.6), in table order.
+// one at a time (docs/methods.md §8.6), in table order.
 var uncertaintySources = []struct {
 	name string
 	src  flux.Sources

@@ -190,7 +190,7 @@ func TestRainVWM(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// VWM = Σ c P / Σ P (methods brief §1.3): Na (3000 + 3000)/400 = 15, Cl (6000 + 4000)/400 = 25.
+	// VWM = Σ c P / Σ P (docs/methods.md §1.3): Na (3000 + 3000)/400 = 15, Cl (6000 + 4000)/400 = 25.
 	if c[chem.Na] != 15 || c[chem.Cl] != 25 {
 		t.Errorf("VWM Na %g Cl %g, want 15 and 25", c[chem.Na], c[chem.Cl])
 	}
@@ -342,7 +342,7 @@ func TestChecksumIgnoresLastBits(t *testing.T) {
 
 func TestSulfateIsotopeSplit(t *testing.T) {
 	// Marlow Fen, one year: the isotope split lies between the gypsum and
-	// sulfide scenarios, which bracket it (methods brief §5.2).
+	// sulfide scenarios, which bracket it (docs/methods.md §5.2).
 	carb := map[string]float64{}
 	for _, sc := range []struct{ name, sulfate, river string }{
 		{"gypsum", "gypsum", ""}, {"sulfide", "sulfide", ""}, {"isotope", "isotope", "2.5"}} {

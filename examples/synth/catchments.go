@@ -43,7 +43,7 @@ var Examples = []Example{
 			return nil, err
 		}
 		// Two tracers for two end-members: over-determined by one, so the
-		// misfit test has something to say (methods brief §7.4).
+		// misfit test has something to say (docs/methods.md §7.4).
 		if err := d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na"); err != nil {
 			return nil, err
 		}
