@@ -1,8 +1,11 @@
 package flux
 
 import (
+	"encoding/binary"
 	"fmt"
+	"hash/fnv"
 	"math"
+	"math/rand/v2"
 	"sync"
 
 	"lixiv/engine/discharge"
@@ -223,26 +226,15 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 		}
 		refs[p] = rl
 	}
-	var pk *picker
+	rp := newReplicates(smp, len(a.Days), years, b)
+	var picks [][]int32 // each replicate's draw of each sample; nil: the point values
 	if b.Hold&Apportionment == 0 && a.hasDraws() {
-		// The first part with draws stands for all (check made sure the
-		// counts agree); the weights are shared.
-		for _, p := range a.Parts {
-			if p.Draws != nil {
-				var err error
-				if pk, err = newPicker(a.Name, len(a.Days), p.Draws, a.Weights, b.Draws, b.tick); err != nil {
-					return u, err
-				}
-				break
-			}
+		var err error
+		if picks, err = cache.picks(a, b, rp.nrep); err != nil {
+			return u, err
 		}
 	}
-	rp := newReplicates(smp, len(a.Days), years, b)
 	col := newCollector(u, years, rp.nrep, opt, a.MolarMass)
-	idx := make([]int, len(a.Days))
-	for i := range idx {
-		idx[i] = -1
-	}
 	am := make([][]float64, len(a.Parts))
 	x := make([][]float64, len(a.Parts))
 	for p := range a.Parts {
@@ -253,8 +245,19 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 	}
 	num, den := make([]float64, ny), make([]float64, ny)
 	out := make([]float64, ny)
+	// With neither the samples nor their draws varied, every replicate has
+	// the same loads before its discharge and area errors.
+	held := b.Hold&(Sampling|Apportionment) == Sampling|Apportionment
+	var fixed []float64
+	fixedOK := false
 	for r := 0; r < rp.nrep; r++ {
-		fq, fa := rp.next(pk, idx)
+		fq, fa := rp.next(nil, nil)
+		if held && fixed != nil {
+			copy(out, fixed)
+			col.add(r, out, refs[0].e.sumQ, fq, fa, fixedOK)
+			b.tick()
+			continue
+		}
 		ok := true
 		for y := range out {
 			out[y] = 0
@@ -262,8 +265,10 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 		for p, part := range a.Parts {
 			for j, sm := range smp {
 				am[p][j] = part.Amount[sm.idx]
-				if k := idx[sm.idx]; k >= 0 {
-					am[p][j] = part.Draws[sm.idx][k]
+				if picks != nil {
+					if k := picks[r][sm.idx]; k >= 0 {
+						am[p][j] = part.Draws[sm.idx][k]
+					}
 				}
 			}
 			shareSums(smp, rp.w, am[p], x[p], num, den)
@@ -271,6 +276,9 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 			for y := range out {
 				out[y] += refs[p].mol[r][y] * ratio(num[y], den[y])
 			}
+		}
+		if held {
+			fixed, fixedOK = append([]float64(nil), out...), ok
 		}
 		col.add(r, out, refs[0].e.sumQ, fq, fa, ok)
 		b.tick()
@@ -280,12 +288,104 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 }
 
 // Cache keeps the replicate loads of measured series for the bootstraps
-// of one budget (BootstrapOptions.Cache). It is safe for concurrent use.
-// Entries are keyed by the series' name, the options and the seed, and
-// whether sampling is held; a series must keep its values under one name.
+// of one budget (BootstrapOptions.Cache), and the draws each sample takes in
+// each replicate. It is safe for concurrent use. Loads are keyed by the
+// series' name, the options and the seed, and whether sampling is held; a
+// series must keep its values under one name. Draws are keyed by the
+// Apportioned.Weights slice (its first element's address), the seed and
+// the draw mode: quantities that share one Weights slice have the same
+// samples and kept draws, and take the same draws.
 type Cache struct {
 	mu sync.Mutex
 	m  map[cacheKey]*refLoads
+	pk map[pickKey][][]int32
+	rs map[repKey]*repSet
+}
+
+type repKey struct {
+	seed   uint64
+	dq, da float64 // discharge and area errors
+	n      int     // matched samples
+	print  uint64  // their days and years
+}
+
+// replicateSet returns the resampling counts and factors of b's seed for
+// the matched samples smp, for at least nrep replicates.
+func (c *Cache) replicateSet(smp []sample, years []discharge.Year, b BootstrapOptions, nrep int) *repSet {
+	h := fnv.New64a()
+	var buf [8]byte
+	for _, sm := range smp {
+		binary.LittleEndian.PutUint64(buf[:], uint64(sm.k)<<16|uint64(sm.year+1))
+		h.Write(buf[:])
+	}
+	key := repKey{seed: b.Seed, dq: b.DischargeError, da: b.AreaError, n: len(smp), print: h.Sum64()}
+	c.mu.Lock()
+	got := c.rs[key]
+	c.mu.Unlock()
+	if got != nil && len(got.w) >= nrep {
+		return got
+	}
+	set := drawReplicates(smp, years, b, nrep)
+	c.mu.Lock()
+	if c.rs == nil {
+		c.rs = map[repKey]*repSet{}
+	}
+	c.rs[key] = set
+	c.mu.Unlock()
+	return set
+}
+
+type pickKey struct {
+	w    *[]float64
+	seed uint64
+	mode DrawMode
+	n    int
+}
+
+// picks returns each replicate's draw of each sample of a (-1: its point
+// value) for at least nrep replicates, drawn from the draw stream of b's
+// seed as Bootstrap would draw them.
+func (c *Cache) picks(a Apportioned, b BootstrapOptions, nrep int) ([][]int32, error) {
+	var key pickKey
+	if len(a.Weights) > 0 {
+		key = pickKey{w: &a.Weights[0], seed: b.Seed, mode: b.Draws, n: len(a.Days)}
+		c.mu.Lock()
+		got := c.pk[key]
+		c.mu.Unlock()
+		if len(got) >= nrep {
+			return got, nil
+		}
+	}
+	var draws [][]float64
+	for _, p := range a.Parts { // every part has the same number of draws (check)
+		if p.Draws != nil {
+			draws = p.Draws
+			break
+		}
+	}
+	pk, err := newPicker(a.Name, len(a.Days), draws, a.Weights, b.Draws, b.tick)
+	if err != nil {
+		return nil, err
+	}
+	rd := rand.New(rand.NewPCG(b.Seed, streamDraw))
+	idx := make([]int, len(a.Days))
+	out := make([][]int32, nrep)
+	for r := range out {
+		pk.pick(rd, idx)
+		out[r] = make([]int32, len(idx))
+		for i, k := range idx {
+			out[r][i] = int32(k)
+		}
+	}
+	if key.w != nil {
+		c.mu.Lock()
+		if c.pk == nil {
+			c.pk = map[pickKey][][]int32{}
+		}
+		c.pk[key] = out
+		c.mu.Unlock()
+	}
+	return out, nil
 }
 
 type cacheKey struct {

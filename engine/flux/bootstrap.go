@@ -270,57 +270,88 @@ func valued(smp []sample) int {
 	return n
 }
 
-// replicates draws what varies from one bootstrap replicate to the next:
-// the resampling counts of the samples, each sample's draw and the
-// discharge and area factors, each from its own PCG stream.
+// replicates hands out what varies from one bootstrap replicate to the
+// next: the resampling counts of the samples, each sample's draw and the
+// discharge and area factors, each from its own PCG stream. The counts and
+// factors of a seed are the same for every series with the same samples,
+// so they are drawn once (repSet) and shared through BootstrapOptions.Cache.
 type replicates struct {
-	b          BootstrapOptions
-	nrep       int
-	groups     [][]int   // matched samples of each reporting year
-	w          []float64 // this replicate's count of each matched sample
-	rs, rd, re *rand.Rand
+	b    BootstrapOptions
+	nrep int
+	set  *repSet
+	r    int       // the next replicate
+	w    []float64 // this replicate's count of each matched sample
+	ones []float64
+	rd   *rand.Rand
 }
 
-// newReplicates prepares the streams for the matched samples smp of a
+// repSet holds every replicate's resampling counts and its discharge and
+// area factors, before any source is held.
+type repSet struct {
+	w      [][]float64
+	fq, fa []float64
+}
+
+// newReplicates prepares the replicates for the matched samples smp of a
 // series of n samples.
 func newReplicates(smp []sample, n int, years []discharge.Year, b BootstrapOptions) *replicates {
-	rp := &replicates{b: b, nrep: b.Replicates, w: make([]float64, len(smp)), groups: make([][]int, len(years)),
-		rs: rand.New(rand.NewPCG(b.Seed, streamResample)), rd: rand.New(rand.NewPCG(b.Seed, streamDraw)),
-		re: rand.New(rand.NewPCG(b.Seed, streamError))}
+	rp := &replicates{b: b, nrep: b.Replicates, rd: rand.New(rand.NewPCG(b.Seed, streamDraw))}
 	if rp.nrep <= 0 {
 		rp.nrep = 1000
 	}
-	for i, sm := range smp {
-		if sm.year >= 0 {
-			rp.groups[sm.year] = append(rp.groups[sm.year], i)
-		}
+	rp.ones = make([]float64, len(smp))
+	for i := range rp.ones {
+		rp.ones[i] = 1
+	}
+	if b.Cache != nil {
+		rp.set = b.Cache.replicateSet(smp, years, b, rp.nrep)
+	} else {
+		rp.set = drawReplicates(smp, years, b, rp.nrep)
 	}
 	return rp
 }
 
-// next draws the next replicate: rp.w, the draw of each sample into idx
-// (by the series' sample index; -1 for the point value) when pk is set,
-// and the discharge and area factors. Held sources take their central
+// drawReplicates draws nrep replicates' resampling counts (stratified by
+// year) and discharge and area factors from the seed's streams.
+func drawReplicates(smp []sample, years []discharge.Year, b BootstrapOptions, nrep int) *repSet {
+	groups := make([][]int, len(years))
+	for i, sm := range smp {
+		if sm.year >= 0 {
+			groups[sm.year] = append(groups[sm.year], i)
+		}
+	}
+	rs := rand.New(rand.NewPCG(b.Seed, streamResample))
+	re := rand.New(rand.NewPCG(b.Seed, streamError))
+	set := &repSet{w: make([][]float64, nrep), fq: make([]float64, nrep), fa: make([]float64, nrep)}
+	for r := range set.w {
+		w := make([]float64, len(smp))
+		for _, g := range groups {
+			for range g {
+				w[g[rs.IntN(len(g))]]++
+			}
+		}
+		set.w[r] = w
+		set.fq[r] = factor(re, b.DischargeError)
+		set.fa[r] = factor(re, b.AreaError)
+	}
+	return set
+}
+
+// next moves to the next replicate: rp.w, the draw of each sample into
+// idx (by the series' sample index; -1 for the point value) when pk is
+// set, and the discharge and area factors. Held sources take their central
 // values, but their streams are drawn from all the same.
 func (rp *replicates) next(pk *picker, idx []int) (fq, fa float64) {
-	for i := range rp.w {
-		rp.w[i] = 0
-	}
-	for _, g := range rp.groups {
-		for range g {
-			rp.w[g[rp.rs.IntN(len(g))]]++
-		}
-	}
+	r := rp.r
+	rp.r++
+	rp.w = rp.set.w[r]
 	if rp.b.Hold&Sampling != 0 {
-		for i := range rp.w {
-			rp.w[i] = 1
-		}
+		rp.w = rp.ones
 	}
 	if pk != nil {
 		pk.pick(rp.rd, idx)
 	}
-	fq = factor(rp.re, rp.b.DischargeError)
-	fa = factor(rp.re, rp.b.AreaError)
+	fq, fa = rp.set.fq[r], rp.set.fa[r]
 	if rp.b.Hold&Discharge != 0 {
 		fq = 1
 	}

@@ -6,6 +6,7 @@ import (
 	"math"
 	"runtime"
 	"strings"
+	"sync"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
@@ -37,6 +38,9 @@ type Apportioned struct {
 	doubtful []string
 	// kept lists, per sample, the draw numbers with a positive weight.
 	kept [][]int32
+	// kw holds the weights of the kept draws (keptWeights).
+	kw     [][]float64
+	kwOnce sync.Once
 	// redo apportions the samples again with another sulfate origin
 	// (Under).
 	redo func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error)
@@ -77,6 +81,36 @@ func (a *Apportioned) KeptDraw(i, k int) (d int, split mix.Split, weight float64
 	d = int(a.kept[i][k])
 	split, weight, _ = a.Draw(i, d)
 	return d, split, weight
+}
+
+// keptSplit is KeptDraw without a copy where the splits are stored: the
+// split is a.splits' own, or else worked out into buf.
+func (a *Apportioned) keptSplit(i, k int, buf *mix.Split) (d int, split *mix.Split, weight float64) {
+	d = int(a.kept[i][k])
+	if a.splits != nil {
+		return d, &a.splits[i][d], a.weights[i][d]
+	}
+	*buf, weight, _ = a.Draw(i, d)
+	return d, buf, weight
+}
+
+// keptWeights returns the weights of each sample's kept draws, one slice
+// for every caller (flux.Cache shares the draws taken among the quantities
+// built on it).
+func (a *Apportioned) keptWeights() [][]float64 {
+	a.kwOnce.Do(func() {
+		a.kw = make([][]float64, len(a.kept))
+		for i, ks := range a.kept {
+			if len(ks) == 0 {
+				continue
+			}
+			a.kw[i] = make([]float64, len(ks))
+			for k, d := range ks {
+				a.kw[i][k] = a.weights[i][d]
+			}
+		}
+	})
+	return a.kw
 }
 
 // Usable reports whether sample i has a usable apportionment: at least
@@ -248,14 +282,14 @@ func computeApportionment(e *Env) (*Output, error) {
 	atm := ai.Value.(*Atmosphere)
 	ems := si.Value.([]mix.EndMember)
 	workers := e.Workers()
-	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems)
+	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true)
 	if err != nil {
 		return nil, err
 	}
 	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 		o := s
 		o.Sulfate = sulfate
-		b, _, err := apportion(ctx, workers, report, &o, atm, ems)
+		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false)
 		return b, err
 	}
 	return out, nil
@@ -264,8 +298,10 @@ func computeApportionment(e *Env) (*Output, error) {
 // apportion corrects every sample and splits its cations among the
 // sources with the settings s, reporting progress; computeApportionment
 // runs it for the cell, and Apportioned.Under again with another sulfate
-// origin.
-func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember) (*Apportioned, *Output, error) {
+// origin. Without summary it leaves out what only the cell shows (the
+// per-sample quantiles Median, Lo and Hi, and the tables): the draws,
+// their weights and each sample's mean split are all fluxes need.
+func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary bool) (*Apportioned, *Output, error) {
 	opt := atm.Options
 	switch s.Sulfate {
 	case "sulfide":
@@ -450,7 +486,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			}
 		}
 		a.Mean[i] = meanSplit(draws, ws)
-		for src := mix.Source(0); src < mix.NSources; src++ {
+		for src := mix.Source(0); src < mix.NSources && summary; src++ {
 			for k := 0; k < mix.NCations; k++ {
 				vals = vals[:0]
 				for _, sp := range draws {
@@ -465,7 +501,9 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		a.inverse, a.forward = nil, nil // everything is in splits now
 	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
-	out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+	if summary {
+		out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+	}
 	fit := 0
 	for _, st := range status {
 		if st == "success" {

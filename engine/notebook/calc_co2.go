@@ -95,20 +95,26 @@ func implausibleSilicate(perKm2 float64) string {
 // when it delivered none), so that each cation's estimator fluxes its part
 // (flux.Apportioned): under carbonic acid alone the silicate part of Ca is
 // 2 Ca_sil, and silicate CO2 is fluxed as Na_sil + K_sil + 2(Ca_sil +
-// Mg_sil).
-func co2Amounts(a *Apportioned, opt *co2.Options, scale string, carb bool) amounts {
-	src := mix.Silicate
+// Mg_sil). pairs, when not nil, holds the silicate and carbonate figures
+// of each sample's kept draws, already worked out.
+func co2Amounts(a *Apportioned, opt *co2.Options, scale string, carb bool, pairs [][][2]float64) amounts {
+	src, j := mix.Silicate, 0
 	if carb {
-		src = mix.Carbonate
+		src, j = mix.Carbonate, 1
 	}
-	return func(i int, s *mix.Split, so4 float64, out *[mix.NCations]float64) {
-		sil, cb, err := co2Pair(s, so4, opt, scale)
-		v := sil
-		if carb {
-			v = cb
-		}
-		if err != nil {
-			v = math.NaN()
+	return func(i, k int, s *mix.Split, so4 float64, out *[mix.NCations]float64) {
+		var v float64
+		if k >= 0 && pairs != nil {
+			v = pairs[i][k][j]
+		} else {
+			sil, cb, err := co2Pair(s, so4, opt, scale)
+			v = sil
+			if carb {
+				v = cb
+			}
+			if err != nil {
+				v = math.NaN()
+			}
 		}
 		var basis [mix.NCations]float64
 		tot := 0.0
@@ -183,6 +189,7 @@ func computeCO2(e *Env) (*Output, error) {
 	var vs, vc, ws, va []float64
 	var alkMed []float64 // long term: the other convention's silicate figure per sample
 	var qb quantileBuf
+	pairs := make([][][2]float64, n) // silicate and carbonate of each kept draw, for the fluxes
 	// Progress: one unit per sample here, and n units for each of the two
 	// bootstraps below (when a fluxes cell is given), so that a page running
 	// on one goroutine can yield to the browser as the cell goes.
@@ -200,16 +207,19 @@ func computeCO2(e *Env) (*Output, error) {
 		}
 		e.Report(i, total)
 		vs, vc, ws, va = vs[:0], vc[:0], ws[:0], va[:0]
-		for k := 0; k < a.Kept(i); k++ {
-			d, sp, w := a.KeptDraw(i, k)
+		pairs[i] = make([][2]float64, a.Kept(i))
+		var buf mix.Split
+		for k := range pairs[i] {
+			d, sp, w := a.keptSplit(i, k, &buf)
 			so4 := a.SO4Sulf(i, d)
-			x, y, err := co2Pair(&sp, so4, opt, scale)
+			x, y, err := co2Pair(sp, so4, opt, scale)
 			if err != nil {
 				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
+			pairs[i][k] = [2]float64{x, y}
 			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
 			if long {
-				va = append(va, otherLongSil(&sp, so4, opt, scale))
+				va = append(va, otherLongSil(sp, so4, opt, scale))
 			}
 		}
 		q := qb.quantiles(vs, ws, 0.025, 0.5, 0.975)
@@ -267,7 +277,7 @@ func computeCO2(e *Env) (*Output, error) {
 		if boot {
 			reps = max(fv.Bootstrap.Replicates, 1)
 		}
-		q := fv.quantity(part.name+" CO2", 0, true, []int{0, 1, 2, 3}, co2Amounts(a, opt, scale, part.carb))
+		q := fv.quantity(part.name+" CO2", 0, true, []int{0, 1, 2, 3}, co2Amounts(a, opt, scale, part.carb, pairs))
 		fr, w, err := fv.fitQuantity(q, reps, fv.Options)
 		r, u := fr.r, fr.u
 		out.Warnings = append(out.Warnings, w...)
@@ -316,7 +326,7 @@ func computeCO2(e *Env) (*Output, error) {
 		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
 		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi),
 		NumColumn("per_km2", "mol/km²/yr", kMed), NumColumn("per_km2_low", "mol/km²/yr", kLo), NumColumn("per_km2_high", "mol/km²/yr", kHi)}})
-	et, w := co2Estimators(fv, headline, opt, scale, !boot)
+	et, w := co2Estimators(fv, headline, opt, scale, !boot, pairs)
 	out.Tables = append(out.Tables, et)
 	out.Warnings = append(out.Warnings, w...)
 	if boot {
@@ -335,17 +345,36 @@ func computeCO2(e *Env) (*Output, error) {
 	return out, nil
 }
 
+// co2Pairs works out the silicate and carbonate CO2 figures of every kept
+// draw of every sample of a (NaN where co2Pair fails).
+func co2Pairs(a *Apportioned, opt *co2.Options, scale string) [][][2]float64 {
+	out := make([][][2]float64, len(a.Names))
+	var buf mix.Split
+	for i := range out {
+		out[i] = make([][2]float64, a.Kept(i))
+		for k := range out[i] {
+			d, sp, _ := a.keptSplit(i, k, &buf)
+			x, y, err := co2Pair(sp, a.SO4Sulf(i, d), opt, scale)
+			if err != nil {
+				x, y = math.NaN(), math.NaN()
+			}
+			out[i][k] = [2]float64{x, y}
+		}
+	}
+	return out
+}
+
 // co2Estimators gives the silicate and carbonate CO2 consumption per km²
 // with each of the four estimators, side by side with their intervals
 // (Fluxes.sideBySide).
-func co2Estimators(fv *Fluxes, headline map[string]fitted, opt *co2.Options, scale string, rough bool) (*ResultTable, []string) {
+func co2Estimators(fv *Fluxes, headline map[string]fitted, opt *co2.Options, scale string, rough bool, pairs [][][2]float64) (*ResultTable, []string) {
 	var name, method []string
 	var med, lo, hi, nrep []float64
 	var warns []string
 	for _, part := range co2Parts {
 		h, ok := headline[part.name]
 		fs, w := fv.sideBySide(part.name+" CO2", h, ok, func(draws bool) flux.Apportioned {
-			return fv.quantity(part.name+" CO2", 0, draws, []int{0, 1, 2, 3}, co2Amounts(fv.App, opt, scale, part.carb))
+			return fv.quantity(part.name+" CO2", 0, draws, []int{0, 1, 2, 3}, co2Amounts(fv.App, opt, scale, part.carb, pairs))
 		}, rough)
 		warns = append(warns, w...)
 		for k, f := range fs {
@@ -398,8 +427,9 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 			}
 			fo.App = b
 		}
+		pairs := co2Pairs(fo.App, opt, scale)
 		for _, p := range co2Parts {
-			q := fo.quantity(p.name+" CO2", 0, true, []int{0, 1, 2, 3}, co2Amounts(fo.App, opt, scale, p.carb))
+			q := fo.quantity(p.name+" CO2", 0, true, []int{0, 1, 2, 3}, co2Amounts(fo.App, opt, scale, p.carb, pairs))
 			f, _, err := fo.fitQuantity(q, fv.sideBySideReplicates(), fv.Options)
 			if err != nil {
 				warns = append(warns, fmt.Sprintf("%s CO2 with the sulfate from %s: %v", p.name, sulfateOrigins[o], err))

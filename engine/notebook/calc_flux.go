@@ -339,6 +339,9 @@ func (v *Fluxes) sideBySide(label string, headline fitted, ok bool, build func(d
 	var q *flux.Apportioned
 	var out []fitted
 	var warns []string
+	if ok && headline.a != nil && (n == 0 || headline.a.Weights != nil) {
+		q = headline.a // the headline's own quantity, with draws when they are needed
+	}
 	for _, m := range allMethods {
 		f := headline
 		if !ok || m != v.Options.Method {
@@ -418,7 +421,7 @@ func (v *Fluxes) closureTable() (*ResultTable, []string) {
 		row := [mix.NSources + 1]float64{}
 		var part flux.Share
 		for s := range row {
-			f := func(i int, _ *mix.Split, _ float64, out *[mix.NCations]float64) {
+			f := func(i, _ int, _ *mix.Split, _ float64, out *[mix.NCations]float64) {
 				*out = [mix.NCations]float64{}
 				out[k] = a.Corrected[i].Human[sp]
 			}

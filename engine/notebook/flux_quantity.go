@@ -46,15 +46,16 @@ func (v *Fluxes) ticking(tick func()) *Fluxes {
 // cationCharge is the charge of Na, K, Ca and Mg (mix.Cations order).
 var cationCharge = [mix.NCations]float64{1, 1, 2, 2}
 
-// amounts gives, for one split of sample i (with its sulfide-derived
-// sulfate so4), the amount of a quantity attributed to each measured
-// cation (mix.Cations order), µmol/L; NaN where the quantity is undefined.
-type amounts func(i int, s *mix.Split, so4 float64, out *[mix.NCations]float64)
+// amounts gives, for one split of sample i (its k-th kept draw, or -1 for
+// the point value) with its sulfide-derived sulfate so4, the amount of a
+// quantity attributed to each measured cation (mix.Cations order),
+// µmol/L; NaN where the quantity is undefined.
+type amounts func(i, k int, s *mix.Split, so4 float64, out *[mix.NCations]float64)
 
 // cationsOf returns the amounts of the cations ks from source src, each
 // attributed to itself.
 func cationsOf(src mix.Source, ks ...int) amounts {
-	return func(_ int, s *mix.Split, _ float64, out *[mix.NCations]float64) {
+	return func(_, _ int, s *mix.Split, _ float64, out *[mix.NCations]float64) {
 		*out = [mix.NCations]float64{}
 		for _, k := range ks {
 			out[k] = s[src][k]
@@ -93,9 +94,10 @@ func (v *Fluxes) quantity(name string, mass float64, withDraws bool, parts []int
 		q.Parts = append(q.Parts, p)
 	}
 	if draws {
-		q.Weights = make([][]float64, n)
+		q.Weights = a.keptWeights()
 	}
 	var out [mix.NCations]float64
+	var buf mix.Split
 	for i := 0; i < n; i++ {
 		usable := a.Usable(i)
 		for j, k := range parts {
@@ -109,7 +111,7 @@ func (v *Fluxes) quantity(name string, mass float64, withDraws bool, parts []int
 		if !usable {
 			continue
 		}
-		f(i, &a.Mean[i], a.Corrected[i].SO4Sulf, &out)
+		f(i, -1, &a.Mean[i], a.Corrected[i].SO4Sulf, &out)
 		for j, k := range parts {
 			q.Parts[j].Amount[i] = out[k]
 		}
@@ -120,14 +122,12 @@ func (v *Fluxes) quantity(name string, mass float64, withDraws bool, parts []int
 			v.tick()
 		}
 		nk := a.Kept(i)
-		q.Weights[i] = make([]float64, nk)
 		for j := range parts {
 			q.Parts[j].Draws[i] = make([]float64, nk)
 		}
 		for kk := 0; kk < nk; kk++ {
-			d, sp, w := a.KeptDraw(i, kk)
-			f(i, &sp, a.SO4Sulf(i, d), &out)
-			q.Weights[i][kk] = w
+			d, sp, _ := a.keptSplit(i, kk, &buf)
+			f(i, kk, sp, a.SO4Sulf(i, d), &out)
 			for j, k := range parts {
 				q.Parts[j].Draws[i][kk] = out[k]
 			}
