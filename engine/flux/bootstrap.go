@@ -100,13 +100,14 @@ type BootstrapOptions struct {
 	// Cache, when set, keeps each measured series' replicate loads, so
 	// that the bootstraps of one budget that rest on the same measured
 	// species (Series without draws, and the parts of Apportioned
-	// quantities) fit it once per replicate. Results are the same with or
-	// without it.
+	// quantities) fit it once per replicate, and the replicates'
+	// resampling counts, error factors and draws. Results are the same
+	// with or without it.
 	Cache *Cache
 	// Hold lists the sources held at their central values: every sample
 	// once (Sampling), each sample's point concentration, Series.C or the
-	// median of its draws (Apportionment), the recorded discharge (Discharge) and the given area
-	// (Area). The zero value holds none. A held source's stream is still
+	// median of its draws, or Share.Amount (Apportionment), the recorded
+	// discharge (Discharge) and the given area (Area). The zero value holds none. A held source's stream is still
 	// drawn from, so the others take the same values as with none held.
 	// With every source held, every replicate gives the point estimate
 	// (to rounding, for the rating curve's summed moments).

@@ -45,12 +45,27 @@
 //     load (fill gaps first with discharge.Record.Fill if they should count).
 //  3. Bootstrap repeats step 2 for each replicate: a stratified resampling of
 //     samples within years, a Monte Carlo draw of each sample's
-//     concentration (Series.Draws, shared draw index or per sample), a
-//     systematic discharge error and an area error; it reports the median
-//     and 95 % interval of every figure (docs/methods.md §8.6).
-//     BootstrapOptions.Hold holds chosen sources at their central values
-//     (Alone varies one source only), for a breakdown of an interval by
-//     source; its zero value varies them all.
+//     concentration (Series.Draws: per sample from its own weighted
+//     posterior, a rejected draw never taken; or one joint draw number for
+//     every sample, JointDraw), a systematic discharge error and an area
+//     error; it reports the median and 95 % interval of every figure
+//     (docs/methods.md §8.6). BootstrapOptions.Hold holds chosen sources at
+//     their central values (Alone varies one source only), for a breakdown
+//     of an interval by source; its zero value varies them all.
+//
+// # Apportioned quantities
+//
+// A quantity a source apportionment attributes to measured species (a
+// cation from a source, a sum of them, CO2 consumption) is an Apportioned:
+// each measured species is fluxed by the estimator, and the quantity takes
+// the flow-weighted share of it that its amounts are in each year's samples
+// (EstimateApportioned, BootstrapApportioned; docs/methods.md §8.7). The
+// sources of a species then add up to its load with every estimator, and
+// the rating curve never meets the zeros and negative values of
+// apportioned amounts. A Cache shared by the bootstraps of one budget keeps
+// each measured species' replicate loads, the resampling counts and error
+// factors of the seed, and each sample's draws, which are the same in every
+// bootstrap with the same seed and samples.
 //
 // # Reproducibility
 //

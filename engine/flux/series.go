@@ -23,10 +23,12 @@ type Series struct {
 
 	// Draws optionally holds Monte Carlo draws of the concentration for each
 	// sample, as from the inverse mixing model: Draws[i][d] is draw d of
-	// sample i. The inverse model uses draw index d for the same end-member
-	// draw in every sample, so Bootstrap can keep that pairing (SharedDraw).
+	// sample i. Bootstrap takes each sample's draw from its own weighted
+	// posterior (PerSampleDraw); for JointDraw, draw d of every sample must
+	// stand for the same shared end-member values.
 	Draws [][]float64
-	// Weights optionally weight the draws: Weights[i][d] >= 0. Nil means equal.
+	// Weights optionally weight the draws: Weights[i][d] >= 0, 0 for a draw
+	// the model rejected (never taken, whatever it holds). Nil means equal.
 	Weights [][]float64
 }
 
