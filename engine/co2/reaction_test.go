@@ -224,8 +224,8 @@ func TestFormulaCounter(t *testing.T) {
 
 func TestReactionsBalanced(t *testing.T) {
 	// Every reaction of the docs/methods.md §9.1 conserves each element and
-	// charge exactly (the brief says the counts were checked; this checks
-	// them again).
+	// charge exactly (docs/methods.md says the counts were checked; this
+	// checks them again).
 	for _, r := range reactions {
 		t.Run(r.name, func(t *testing.T) {
 			diff, charge, err := balance(r.equation)

@@ -299,7 +299,7 @@ func TestApportionedMissingSamples(t *testing.T) {
 }
 
 // TestRunoffIsTheRecords: the runoff of Estimate is the discharge record's
-// own, Σ Q_d × 86.4 / A over each year's days with discharge (methods
+// own, Σ Q_d × 86.4 / A over each year's days with discharge (docs/methods.md
 // §8.5), exactly; the bootstrap's runoff interval comes from the discharge
 // and area errors alone: R (1 + σ_Q ε) / (1 + σ_A ε′).
 func TestRunoffIsTheRecords(t *testing.T) {

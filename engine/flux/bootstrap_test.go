@@ -292,7 +292,7 @@ func TestWaterYearFlux(t *testing.T) {
 }
 
 func TestWeatheringRate(t *testing.T) {
-	// Science brief §13 items 8-9: Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24
+	// docs/methods.md §13 items 8-9: Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24
 	// µmol/L at 2 m³/s for 365 days (63072 m³/s·day × 86.4/86.4 → × 63072
 	// mol per µmol/L) over 250 km².
 	const perUM = 2 * 365 * 86.4

@@ -82,7 +82,7 @@ func TestConstantConcentration(t *testing.T) {
 						for _, c := range checks {
 							tol := 1e-12
 							if c.name == "Ca t/km2/yr" {
-								tol = 1e-5 // the brief gives 6 figures
+								tol = 1e-5 // docs/methods.md §13 gives 6 figures
 							}
 							if relErr(c.got, c.want) > tol {
 								t.Errorf("%s = %.10g, want %.10g (tolerance %g relative)", c.name, c.got, c.want, tol)

@@ -130,7 +130,7 @@ func (a *Apportioned) Unusable() int {
 
 // Under returns the samples apportioned again with the sulfate above the
 // rain share from another origin ("gypsum" or "sulfide"), every other
-// setting unchanged, for the CO2 cell's sulfate bracket (methods §5.2).
+// setting unchanged, for the CO2 cell's sulfate bracket (docs/methods.md §5.2).
 func (a *Apportioned) Under(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 	if a.redo == nil {
 		return nil, fmt.Errorf("this apportionment cannot be repeated with another sulfate origin")

@@ -151,7 +151,7 @@ var co2Parts = []struct {
 var sulfateOrigins = map[string]string{"gypsum": "gypsum", "sulfide": "sulfide oxidation", "isotope": "the δ34S split"}
 
 // otherOrigins returns the sulfate origins that bracket the chosen one
-// (methods §5.2: all from gypsum and all from sulfide bracket the CO2
+// (docs/methods.md §5.2: all from gypsum and all from sulfide bracket the CO2
 // consumption).
 func otherOrigins(chosen string) []string {
 	switch chosen {
@@ -390,7 +390,7 @@ func co2Estimators(fv *Fluxes, headline map[string]fitted, opt *co2.Options, sca
 
 // sulfateBracket gives the CO2 consumption per km² under the other origins
 // of the sulfate above the rain share (all gypsum, all sulfide oxidation;
-// methods §5.2, which bracket the result), as headline figures with
+// docs/methods.md §5.2, which bracket the result), as headline figures with
 // series_bootstrap intervals, and a table of every origin with the span of
 // their medians. When no sample has sulfate above its rain share the
 // origins give the same result, which the table says without apportioning
@@ -451,7 +451,7 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 		sp := span[p.name]
 		row("span of the origins", p.name, flux.Interval{Median: math.NaN(), Lo: sp[0], Hi: sp[1]})
 	}
-	title := "CO2 consumption per km² with the sulfate above the rain share from each origin (methods §5.2: all gypsum and all sulfide oxidation bracket the result)"
+	title := "CO2 consumption per km² with the sulfate above the rain share from each origin (docs/methods.md §5.2: all gypsum and all sulfide oxidation bracket the result)"
 	if !a.SulfateAboveRain() {
 		title += "; no sample has sulfate above its rain share, so every origin gives the same result"
 	}

@@ -99,8 +99,8 @@ func computeDischarge(e *Env) (*Output, error) {
 		if n > 0 {
 			r := mm / float64(n) * 365.25
 			out.Figures = append(out.Figures, Point(RecordRunoffFigure, "mm/yr", r))
-			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
-			// brief §1.3; common practice, no source).
+			// Water balance: |P − ET − R| / P above 20 % is flagged (docs/methods.md
+			// §1.3; common practice, no source).
 			if site.P > 0 && site.ET > 0 {
 				if gap := math.Abs(site.P-site.ET-r) / site.P; gap > 0.2 {
 					out.Warnings = append(out.Warnings, fmt.Sprintf("water balance: P − ET = %.0f mm/yr but the record gives %.0f mm/yr of runoff (%.0f %% of P apart); check the area, P and ET", site.P-site.ET, r, 100*gap))

@@ -260,7 +260,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	out.Figures = append(out.Figures, cover...)
 	v.Doubtful = v.doubtfulReasons(share, first)
 	out.Doubtful = v.Doubtful
-	// Weathering rates in t/km²/yr (methods §6.1), from the point
+	// Weathering rates in t/km²/yr (docs/methods.md §6.1), from the point
 	// fluxes, and their intervals from the series' replicates.
 	points := map[string]float64{}
 	for _, r := range rows {

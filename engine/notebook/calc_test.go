@@ -52,7 +52,7 @@ func TestSamplesCellNICB(t *testing.T) {
 		want float64
 		flag string
 	}{
-		// Methods brief §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
+		// docs/methods.md §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
 		{"brief example", []string{"A", "2021-05-01", "", "100", "10", "200", "50", "50", "40", "10", "450"}, 3.2787, ""},
 		// With alkalinity given, H+ from pH is not added to TZ+ (alkalinity
 		// already holds it; common practice): the same +3.2787 % at pH 4.

@@ -161,7 +161,7 @@ func TestUnapportionedSamplesAreNamed(t *testing.T) {
 }
 
 // TestRunoffIsTheRecords: the fluxes cell's runoff is exactly the discharge
-// record's over the complete years (Σ Q_d × 86.4 / A; methods §8.5), with an
+// record's over the complete years (Σ Q_d × 86.4 / A; docs/methods.md §8.5), with an
 // interval around it, and the report carries both runoffs.
 func TestRunoffIsTheRecords(t *testing.T) {
 	d, err := loadFile(demoPath)
@@ -234,7 +234,7 @@ func TestDemoEstimatorsAgree(t *testing.T) {
 // sulfate above the rain share to gypsum) shows its CO2 with that sulfate
 // from sulfide oxidation beside the chosen figures: sulfuric acid takes
 // alkalinity from carbonate weathering, so the carbonate CO2 consumption is
-// lower (methods §9.3), and the span covers both; the report carries both.
+// lower (docs/methods.md §9.3), and the span covers both; the report carries both.
 func TestSulfateBracket(t *testing.T) {
 	d, err := loadFile("../../examples/marlow-fen/marlow-fen.lixiv.json")
 	if err != nil {
