@@ -1,6 +1,8 @@
 package web
 
 import (
+	"context"
+	"os"
 	"strings"
 	"testing"
 
@@ -205,5 +207,52 @@ func TestEdited(t *testing.T) {
 	s.Replace(notebook.New("Another"), "another.lixiv.json")
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
+	}
+}
+
+// TestDoubtfulCellView: a doubtful cell shows its state, its reasons under
+// its head, its figures marked (in the summary strip too) and each
+// figure's note. The demo's fluxes become doubtful with a limit of 1 % on
+// the flow its samples do not bracket (1.6 %).
+func TestDoubtfulCellView(t *testing.T) {
+	f, err := os.Open("../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := notebook.Load(f, "corrie")
+	f.Close()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.SetParam("fluxes", "doubtful_above_percent", "1"); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	s := NewSession(d, "corrie.lixiv.json")
+	cells := s.Cells("", 0, &ChartCache{})
+	found := false
+	for _, c := range cells {
+		if c.ID != "fluxes" {
+			continue
+		}
+		found = true
+		if c.State != "doubtful" || c.StateText != "doubtful" || !strings.Contains(c.Doubtful, "of the flow passed before the first or after the last apportioned sample (above 1 %)") || c.Problem != "" {
+			t.Errorf("fluxes view: state %q %q, doubtful %q, problem %q", c.State, c.StateText, c.Doubtful, c.Problem)
+		}
+		for _, fv := range c.Figures {
+			if fv.Name == "silicate cations flux" && (!fv.Doubtful || fv.Note == "" || !strings.Contains(fv.Class(), "doubtful")) {
+				t.Errorf("silicate cations flux: %+v, class %q", fv, fv.Class())
+			}
+		}
+	}
+	if !found {
+		t.Fatal("no fluxes cell")
+	}
+	for _, h := range Headline(cells, 6) {
+		if h.Cell == "co2" && !h.Doubtful {
+			t.Errorf("summary strip: %q from the doubtful CO2 cell is not marked", h.Name)
+		}
 	}
 }
