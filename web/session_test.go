@@ -2,11 +2,11 @@ package web
 
 import (
 	"context"
-	"os"
 	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/examples/synth"
 )
 
 func newTestSession(t *testing.T) *Session {
@@ -212,19 +212,10 @@ func TestEdited(t *testing.T) {
 
 // TestDoubtfulCellView: a doubtful cell shows its state, its reasons under
 // its head, its figures marked (in the summary strip too) and each
-// figure's note. The demo's fluxes become doubtful with a limit of 1 % on
-// the flow its samples do not bracket (1.6 %).
+// figure's note (synth.DoubtfulDemo).
 func TestDoubtfulCellView(t *testing.T) {
-	f, err := os.Open("../examples/corrie-vale/corrie-vale.lixiv.json")
+	d, err := synth.DoubtfulDemo()
 	if err != nil {
-		t.Fatal(err)
-	}
-	d, err := notebook.Load(f, "corrie")
-	f.Close()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := d.SetParam("fluxes", "doubtful_above_percent", "1"); err != nil {
 		t.Fatal(err)
 	}
 	if err := d.Recompute(context.Background(), nil); err != nil {

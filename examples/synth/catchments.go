@@ -76,3 +76,15 @@ func Computed(ctx context.Context, ex Example) (*notebook.Document, error) {
 	}
 	return d, d.Keep()
 }
+
+// DoubtfulDemo returns the demo budget (the first example) with its fluxes
+// made doubtful, for tests of the doubtful state: a limit of 1 % on the
+// flow its samples do not bracket, which the 1.6 % of flow before its first
+// sample exceeds. It is not computed.
+func DoubtfulDemo() (*notebook.Document, error) {
+	d, err := Examples[0].Build()
+	if err != nil {
+		return nil, err
+	}
+	return d, d.SetParam("fluxes", "doubtful_above_percent", "1")
+}

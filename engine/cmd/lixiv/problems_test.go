@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"lixiv/engine/notebook"
+	"lixiv/examples/synth"
 )
 
 // TestProblemsExitStatus checks that quick and rerun, like batch, print the
@@ -31,22 +31,12 @@ func TestProblemsExitStatus(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	// The demo with doubtful fluxes: a limit of 1 % on the flow the samples
-	// do not bracket, which its 1.6 % before the first sample exceeds.
+	// The demo with doubtful fluxes (synth.DoubtfulDemo).
 	doubtful := filepath.Join(dir, "doubtful.lixiv.json")
-	f, err := os.Open(corrie)
+	d, err := synth.DoubtfulDemo()
 	if err != nil {
 		t.Fatal(err)
 	}
-	d, err := notebook.Load(f, "corrie")
-	f.Close()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := d.SetParam("fluxes", "doubtful_above_percent", "1"); err != nil {
-		t.Fatal(err)
-	}
-	d.Stored = nil
 	if err := os.WriteFile(doubtful, d.Marshal(), 0o644); err != nil {
 		t.Fatal(err)
 	}
