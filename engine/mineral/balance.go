@@ -3,6 +3,7 @@ package mineral
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 )
 
@@ -23,6 +24,13 @@ type Balance struct {
 	// Checks are the water components reported as residuals but left out
 	// of the fit.
 	Checks []Component
+	// Relative and Floor, when Relative is above zero, weight each
+	// component of a least-squares fit by 1/σ with σ = Relative × |value|
+	// + Floor (in the water's unit): the analytical uncertainty of each
+	// measured value, so that a large, loosely known value (alkalinity)
+	// does not outweigh a small, well known one. Zero Relative weights
+	// every component alike. Weights do not change an exact solution.
+	Relative, Floor float64
 	cols   [][NComponents]float64 // per phase
 	pivot  int                    // the secondary phase Al is solved into; −1 without Al
 	// reduced[j] is phase j's column with Al carried by the pivot phase
@@ -135,10 +143,9 @@ type Solution struct {
 // and that are not checks. When the phases outnumber what those rows can
 // tell apart, the water is not solved and Message says which phases
 // cannot be told apart. Otherwise the amounts minimise the sum of squared
-// residuals (µmol/L, every component weighted alike; an assumption, no
-// source), primary phases held at zero or above (non-negative least
-// squares, Lawson & Hanson 1974) and secondary phases free: exact when
-// square.
+// residuals, each weighted as Relative and Floor say, primary phases held
+// at zero or above (non-negative least squares, Lawson & Hanson 1974) and
+// secondary phases free: exact when square.
 func (b *Balance) Solve(water [NWater]float64) Solution {
 	n := len(b.Phases)
 	s := Solution{Amount: make([]float64, n), CO2: make([]float64, n)}
@@ -151,21 +158,11 @@ func (b *Balance) Solve(water [NWater]float64) Solution {
 		}
 		return s
 	}
-	checked := map[Component]bool{}
-	for _, c := range b.Checks {
-		checked[c] = true
-	}
 	var rows []Component
 	var missing []string
 	for i := Component(0); i < NWater; i++ {
-		touched := false
-		for j := range b.Phases {
-			if j != b.pivot && math.Abs(b.reduced[j][i]) > 1e-12 {
-				touched = true
-			}
-		}
 		switch {
-		case !touched || checked[i]:
+		case !b.Fitted(i):
 		case math.IsNaN(water[i]):
 			missing = append(missing, i.String())
 		default:
@@ -189,6 +186,13 @@ func (b *Balance) Solve(water [NWater]float64) Solution {
 	rhs := make([]float64, len(rows))
 	for i, c := range rows {
 		rhs[i] = water[c]
+		if b.Relative > 0 {
+			w := 1 / (b.Relative*math.Abs(water[c]) + b.Floor)
+			rhs[i] *= w
+			for k := range a {
+				a[k][i] *= w
+			}
+		}
 	}
 	lack := ""
 	if len(missing) > 0 {
@@ -207,12 +211,7 @@ func (b *Balance) Solve(water [NWater]float64) Solution {
 			if len(unk) > len(rows) {
 				s.Message = fmt.Sprintf("under-determined: %d minerals to find from %d components%s; choose fewer minerals", len(unk), len(rows), lack)
 			} else {
-				var names []string
-				for _, k := range q.perm[r:] {
-					names = append(names, b.Phases[unk[k]].Key)
-				}
-				s.Message = fmt.Sprintf("under-determined: %s cannot be told apart from the other minerals by the components balanced%s; leave %s out",
-					strings.Join(names, ", "), lack, map[bool]string{true: "it", false: "one of them"}[len(names) == 1])
+				s.Message = "under-determined: " + b.dependence(a, unk, q.perm, r) + lack + "; leave one of them out"
 			}
 			return s
 		}
@@ -262,8 +261,12 @@ func (b *Balance) Solve(water [NWater]float64) Solution {
 			s.HeldAtZero = append(s.HeldAtZero, j)
 		}
 	}
+	big := 0.0
+	for _, c := range rows {
+		big = math.Max(big, math.Abs(water[c]))
+	}
 	for j := range b.Phases {
-		if b.Phases[j].Secondary && s.Amount[j] > 1e-9*scale {
+		if b.Phases[j].Secondary && s.Amount[j] > 1e-9*big {
 			s.Backwards = append(s.Backwards, j)
 		}
 	}
@@ -279,6 +282,60 @@ func (b *Balance) Solve(water [NWater]float64) Solution {
 	}
 	s.Message = strings.Join(msgs, "; ")
 	return s
+}
+
+// dependence says which phases the balance cannot tell apart: each column
+// left out of the first r of the pivoted factorisation, written as the
+// combination of the others that gives the water the same.
+func (b *Balance) dependence(a [][]float64, unk, perm []int, r int) string {
+	set := make([]bool, len(a))
+	for _, k := range perm[:r] {
+		set[k] = true
+	}
+	var parts []string
+	for _, k := range perm[r:] {
+		x, ok := lsq(a, a[k], set)
+		if !ok {
+			continue
+		}
+		var terms []string
+		for j, c := range x {
+			if math.Abs(c) < 1e-9 {
+				continue
+			}
+			sign := " + "
+			if c < 0 {
+				sign = " − "
+			}
+			if len(terms) == 0 {
+				sign = map[bool]string{true: "−", false: ""}[c < 0]
+			}
+			coef := ""
+			if math.Abs(math.Abs(c)-1) > 1e-9 {
+				coef = strconv.FormatFloat(math.Abs(c), 'g', 3, 64) + " "
+			}
+			terms = append(terms, sign+coef+b.Phases[unk[j]].Key)
+		}
+		parts = append(parts, fmt.Sprintf("%s gives the water what %s give, so they cannot be told apart by the components balanced",
+			b.Phases[unk[k]].Key, strings.Join(terms, "")))
+	}
+	return strings.Join(parts, "; ")
+}
+
+// Fitted reports whether water component c is fitted: some phase gives
+// it (Al carried into the secondary phase) and it is not a check.
+func (b *Balance) Fitted(c Component) bool {
+	for _, k := range b.Checks {
+		if k == c {
+			return false
+		}
+	}
+	for j := range b.Phases {
+		if j != b.pivot && math.Abs(b.reduced[j][c]) > 1e-12 {
+			return true
+		}
+	}
+	return false
 }
 
 func (b *Balance) names(idx []int) string {

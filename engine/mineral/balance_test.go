@@ -98,6 +98,8 @@ func TestBalanceSaysWhy(t *testing.T) {
 	}{
 		{"more minerals than components", []string{"albite", "K-feldspar", "biotite", "calcite", "dolomite", "forsterite", "diopside", "kaolinite*"},
 			[]Component{SiO2, HCO3}, [NWater]float64{100, 20, 300, 80, 0, 0, 900, 200}, UnderDetermined, "7 minerals to find from 4 components"},
+		{"biotite or dolomite", []string{"plagioclase An30", "K-feldspar", "biotite", "calcite", "dolomite", "kaolinite*"}, nil,
+			[NWater]float64{70, 20, 400, 80, 0, 0, 1040, 160}, UnderDetermined, "dolomite gives the water what −0.333 K-feldspar + 0.333 biotite + calcite give"},
 		{"gypsum or pyrite with calcite", []string{"gypsum", "pyrite", "calcite"}, nil,
 			[NWater]float64{0, 0, 500, 0, 0, 200, 600, 0}, UnderDetermined, "cannot be told apart"},
 		{"K-feldspar must form", []string{"albite", "K-feldspar", "kaolinite*"}, nil,
