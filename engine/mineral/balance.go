@@ -31,8 +31,8 @@ type Balance struct {
 	// does not outweigh a small, well known one. Zero Relative weights
 	// every component alike. Weights do not change an exact solution.
 	Relative, Floor float64
-	cols   [][NComponents]float64 // per phase
-	pivot  int                    // the secondary phase Al is solved into; −1 without Al
+	cols            [][NComponents]float64 // per phase
+	pivot           int                    // the secondary phase Al is solved into; −1 without Al
 	// reduced[j] is phase j's column with Al carried by the pivot phase
 	// (nil for the pivot).
 	reduced [][NWater]float64

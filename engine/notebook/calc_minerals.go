@@ -266,6 +266,14 @@ func computeMinerals(e *Env) (*Output, error) {
 		out.Rough = e.Rough()
 		out.Tables = append(out.Tables, v.periodTable())
 		out.Figures = append(out.Figures, v.co2Total(fv))
+		for j, p := range v.Balance.Phases {
+			y := v.Period[j].Yield
+			name := p.Key + " dissolved, per km²"
+			if p.Secondary {
+				name = p.Key + " dissolved, per km² (below zero: formed)"
+			}
+			out.Figures = append(out.Figures, Figure{Name: name, Unit: "mol/km²/yr", Median: y.Median, Low: y.Lo, High: y.Hi})
+		}
 	}
 	out.Tables = append(out.Tables, catalogueTable())
 	return out, nil
