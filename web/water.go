@@ -178,8 +178,9 @@ func mineralCO2Chart(id string, o *notebook.Output) *plot.Chart {
 	if len(keys) == 0 || v == nil {
 		return nil
 	}
-	ch := plot.New(id, "CO2 consumed by each mineral (mean annual)", "mineral", labelWithUnit("CO2 consumed", v))
+	ch := plot.New(id, "CO2 consumed by each mineral (mean annual)", "", labelWithUnit("CO2 consumed", v))
 	ch.Height = 320
+	ch.StaggerLabels = true // mineral names are long
 	ch.DivergingBars(keys, []plot.Segment{{Name: "median with 95 % interval (below zero: released)", Style: plot.StyleN(1),
 		Value: v.Num, Lo: nums(exact(t, "CO2_consumed_low")), Hi: nums(exact(t, "CO2_consumed_high"))}})
 	return ch

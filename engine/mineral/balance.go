@@ -322,6 +322,10 @@ func (b *Balance) dependence(a [][]float64, unk, perm []int, r int) string {
 	return strings.Join(parts, "; ")
 }
 
+// AlBalanced reports whether a secondary phase takes the Al balance (some
+// phase holds Al).
+func (b *Balance) AlBalanced() bool { return b.pivot >= 0 }
+
 // Fitted reports whether water component c is fitted: some phase gives
 // it (Al carried into the secondary phase) and it is not a check.
 func (b *Balance) Fitted(c Component) bool {

@@ -387,12 +387,17 @@ func (v *MineralBalance) mineralTable() *ResultTable {
 			NumColumn("CO2_per_mol", "mol/mol", co2), TextColumn("reaction", reaction), TextColumn("source", source)}}
 }
 
-// fitText describes how a sample was balanced.
-func fitText(s mineral.Solution) string {
-	if s.Fit == mineral.LeastSquares && s.Rows > s.Unknowns {
-		return fmt.Sprintf("least squares (%d components, %d minerals)", s.Rows, s.Unknowns)
+// fitText describes how a sample was balanced: the components fitted
+// (with Al, which the secondary phase balances exactly) and the minerals.
+func fitText(b *mineral.Balance, s mineral.Solution) string {
+	if s.Fit != mineral.LeastSquares && s.Fit != mineral.Exact {
+		return s.Fit.String()
 	}
-	return s.Fit.String()
+	rows, al := s.Rows, ""
+	if b.AlBalanced() {
+		rows, al = rows+1, " with Al"
+	}
+	return fmt.Sprintf("%s (%d components%s, %d minerals)", s.Fit, rows, al, len(b.Phases))
 }
 
 // amountTable lists each sample's moles of each mineral per litre: the
@@ -402,7 +407,7 @@ func (v *MineralBalance) amountTable() *ResultTable {
 	fit, note := make([]string, n), make([]string, n)
 	co2 := make([]float64, n)
 	for i, s := range v.Solution {
-		fit[i], note[i] = fitText(s), s.Message
+		fit[i], note[i] = fitText(v.Balance, s), s.Message
 		for _, c := range s.CO2 {
 			co2[i] += c
 		}
@@ -572,7 +577,7 @@ func (d *Document) mineralReport() *MineralReport {
 		r.Minerals = append(r.Minerals, mp)
 	}
 	for i, s := range v.Solution {
-		ms := MineralSample{Sample: v.Names[i], Date: v.Days[i], Fit: fitText(s), Amounts: map[string]Number{}, Residuals: map[string]Number{}, Note: s.Message}
+		ms := MineralSample{Sample: v.Names[i], Date: v.Days[i], Fit: fitText(v.Balance, s), Amounts: map[string]Number{}, Residuals: map[string]Number{}, Note: s.Message}
 		for j, p := range v.Balance.Phases {
 			ms.Amounts[p.Key] = Number(s.Amount[j])
 		}

@@ -201,3 +201,24 @@ func TestDivergingBars(t *testing.T) {
 		t.Error("plain bars drew values below zero")
 	}
 }
+
+// TestStaggerLabels: long category labels that one row would thin take two
+// rows, every one shown, when the chart asks for it.
+func TestStaggerLabels(t *testing.T) {
+	cats := []string{"plagioclase An30", "K-feldspar", "biotite", "magnesian calcite", "kaolinite"}
+	draw := func(stagger bool) string {
+		c := New("s", "t", "", "y")
+		c.StaggerLabels = stagger
+		c.Bars(cats, []Segment{{Name: "v", Style: StyleN(0), Value: []float64{1, 2, 3, 4, 5}}})
+		return c.SVG()
+	}
+	plain, two := draw(false), draw(true)
+	if strings.Contains(plain, ">K-feldspar<") {
+		t.Error("one row kept every long label (the test needs thinning to happen)")
+	}
+	for _, l := range cats {
+		if !strings.Contains(two, ">"+l+"<") {
+			t.Errorf("staggered labels lack %q", l)
+		}
+	}
+}
