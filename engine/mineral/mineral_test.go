@@ -119,6 +119,8 @@ func TestReactionsAsPublished(t *testing.T) {
 		{"K-feldspar", "KAlSi3O8 + CO2 + 5.5 H2O → K⁺ + HCO3⁻ + 2 H4SiO4 + 0.5 Al2Si2O5(OH)4"},
 		{"pyrite", "FeS2 + 3.75 O2 + 4 HCO3⁻ → 4 CO2 + 1.5 H2O + 2 SO4²⁻ + FeOOH"},
 		{"gypsum", "CaSO4·2H2O → 2 H2O + Ca²⁺ + SO4²⁻"},
+		{"kaolinite", "Al2Si2O5(OH)4 + 5 H2O → 2 H4SiO4 + 2 Al(OH)3"},
+		{"gibbsite", ""},
 	} {
 		m, _, _ := Lookup(c.key)
 		if got := m.Reaction().String(); got != c.want {

@@ -99,6 +99,20 @@ type ReactionTerm struct {
 // Reaction is a balanced weathering reaction.
 type Reaction []ReactionTerm
 
+// The Al products of weathering reactions, as Formula.String writes them.
+var (
+	kaoliniteFormula = mustParse(spKaolinite.text).String()
+	gibbsiteFormula  = mustParse(spGibbsite.text).String()
+)
+
+func mustParse(s string) Formula {
+	f, err := Parse(s)
+	if err != nil {
+		panic("mineral: " + err.Error())
+	}
+	return f
+}
+
 // Reaction returns the balanced reaction of one mole of the mineral with
 // carbonic acid (CO2 and water), with O2 where Fe, Mn or sulfide are
 // oxidised: Na⁺, K⁺, Ca²⁺, Mg²⁺ and Cl⁻ go to the water, S as SO4²⁻, the
@@ -106,7 +120,8 @@ type Reaction []ReactionTerm
 // gibbsite for Al beyond the Si), the rest of the Si to H4SiO4, Fe to
 // FeOOH, Mn to MnO2 and Ti to TiO2; CO2, H2O and O2 close the carbon,
 // hydrogen and oxygen balances. A coefficient below zero puts the species
-// among the reactants.
+// among the reactants. Kaolinite weathers to gibbsite; gibbsite, where Al
+// ends, has no reaction (nil).
 func (m Mineral) Reaction() Reaction {
 	f := m.Formula
 	col := m.Column()
@@ -118,6 +133,12 @@ func (m Mineral) Reaction() Reaction {
 	}
 	al, si := col[Al], col[SiO2]
 	kaol := math.Min(al, si) / 2
+	switch m.Formula.String() {
+	case kaoliniteFormula: // kaolinite itself weathers to gibbsite
+		kaol = 0
+	case gibbsiteFormula: // where Al ends: no reaction
+		return nil
+	}
 	gibb := al - 2*kaol
 	h4sio4 := si - 2*kaol
 	h := col[HCO3]
@@ -146,8 +167,11 @@ func (m Mineral) Reaction() Reaction {
 }
 
 // String writes the reaction as "NaAlSi3O8 + CO2 + 5.5 H2O → Na⁺ + HCO3⁻ +
-// 2 H4SiO4 + 0.5 Al2Si2O5(OH)4".
+// 2 H4SiO4 + 0.5 Al2Si2O5(OH)4", and no reaction as "".
 func (r Reaction) String() string {
+	if len(r) == 0 {
+		return ""
+	}
 	var left, right []string
 	for _, t := range r {
 		s := chargeText(t.Species, t.Charge)

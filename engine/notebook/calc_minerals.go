@@ -380,7 +380,11 @@ func (v *MineralBalance) mineralTable() *ResultTable {
 	for _, p := range v.Balance.Phases {
 		key, name, formula = append(key, p.Key), append(name, p.Name), append(formula, p.Text)
 		roles, source = append(roles, role(p)), append(source, p.Source)
-		co2, reaction = append(co2, p.CO2PerMole()), append(reaction, p.Reaction().String())
+		r := p.Reaction().String()
+		if r == "" {
+			r = "none: the Al of the others ends in it"
+		}
+		co2, reaction = append(co2, p.CO2PerMole()), append(reaction, r)
 	}
 	return &ResultTable{Name: "minerals", Title: "Minerals of the balance: formula, role, CO2 consumed per mole and the balanced reaction with carbonic acid",
 		Columns: []*Column{TextColumn("mineral", key), TextColumn("name", name), TextColumn("formula", formula), TextColumn("role", roles),
@@ -400,14 +404,37 @@ func fitText(b *mineral.Balance, s mineral.Solution) string {
 	return fmt.Sprintf("%s (%d components%s, %d minerals)", s.Fit, rows, al, len(b.Phases))
 }
 
+// fitColumn gives each sample's fit: in full where it differs from the
+// fit most samples share, which is returned for the table's title, and
+// in a word where it does not.
+func (v *MineralBalance) fitColumn() (fit []string, common string) {
+	full := make([]string, len(v.Solution))
+	count := map[string]int{}
+	for i, s := range v.Solution {
+		full[i] = fitText(v.Balance, s)
+		if count[full[i]]++; count[full[i]] > count[common] {
+			common = full[i]
+		}
+	}
+	fit = make([]string, len(full))
+	for i, f := range full {
+		fit[i] = f
+		if f == common {
+			fit[i] = v.Solution[i].Fit.String()
+		}
+	}
+	return fit, common
+}
+
 // amountTable lists each sample's moles of each mineral per litre: the
 // stacked-bar chart's data.
 func (v *MineralBalance) amountTable() *ResultTable {
 	n := len(v.Solution)
-	fit, note := make([]string, n), make([]string, n)
+	note := make([]string, n)
+	fit, common := v.fitColumn()
 	co2 := make([]float64, n)
 	for i, s := range v.Solution {
-		fit[i], note[i] = fitText(v.Balance, s), s.Message
+		note[i] = s.Message
 		for _, c := range s.CO2 {
 			co2[i] += c
 		}
@@ -421,8 +448,11 @@ func (v *MineralBalance) amountTable() *ResultTable {
 		cols = append(cols, NumColumn(p.Key, "µmol/L", x))
 	}
 	cols = append(cols, NumColumn("CO2_consumed", "µmol/L", co2), TextColumn("note", note))
-	return &ResultTable{Name: "amounts", Title: "Moles of each mineral per litre of stream water (above zero dissolved, below zero formed) and the CO2 they consumed",
-		Columns: cols}
+	title := "Moles of each mineral per litre of stream water (above zero dissolved, below zero formed) and the CO2 they consumed"
+	if common != "" {
+		title += "; most samples: " + common
+	}
+	return &ResultTable{Name: "amounts", Title: title, Columns: cols}
 }
 
 // residualTable lists what the minerals leave unexplained of each water.
