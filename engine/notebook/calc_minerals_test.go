@@ -160,3 +160,31 @@ func TestReportHasWaterSections(t *testing.T) {
 		t.Error("a budget without the cells reports them")
 	}
 }
+
+// TestLeansHigh: a primary mineral held at zero in more than a tenth of
+// the samples is named as leaning high; one held at zero less often is not.
+func TestLeansHigh(t *testing.T) {
+	ps, _, err := mineralPhases(defaultMineralSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := mineral.NewBalance(ps)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := &MineralBalance{Balance: b}
+	for i := 0; i < 20; i++ {
+		s := mineral.Solution{Fit: mineral.LeastSquares}
+		if i < 3 { // biotite (phase 2) in 3 of 20
+			s.HeldAtZero = []int{2}
+		}
+		if i == 5 { // K-feldspar (phase 1) in 1 of 20
+			s.HeldAtZero = append(s.HeldAtZero, 1)
+		}
+		v.Solution = append(v.Solution, s)
+	}
+	w := v.leansHigh()
+	if len(w) != 1 || !strings.HasPrefix(w[0], "biotite is held at zero in 3 of 20 samples") {
+		t.Errorf("warnings %q", w)
+	}
+}

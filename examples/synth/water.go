@@ -76,7 +76,7 @@ func blankNaN(x float64, digits int) string {
 func Greyhope() *Truth {
 	t := &Truth{Name: "Greyhope Beck", Code: "GB", Title: "Greyhope Beck weathering budget", AreaKm2: 46, P: 1150, ET: 460,
 		Start: discharge.Date(2021, 10, 1), Days: 1095, SampleEvery: 21, Seed: 37, BaseQ: 0.9, Storminess: 3,
-		Cl: 210, NaSil: 90, CaNaSil: 0.3 / 0.7, MgNaSil: 0.12, KNaSil: 0.15, CaCarb: 900, MgCarb: 900 * 0.15 / 0.85, NO3: 25,
+		Cl: 210, NaSil: 90, CaNaSil: 0.3 / 0.7, MgNaSil: 0.12, KNaSil: 0.15, CaCarb: 900, MgCarb: 900 * 0.15 / 0.85,
 		Slope: -0.15, Noise: 0.03,
 		Water: &WaterTruth{TempMean: 9, TempAmp: 5, AirPCO2: 420, Excess: 2.2, ExcessSlope: 0.45, NoPH: []int{9}, NoTemp: []int{31}}}
 	m := GreyhopeMinerals(t, 1, 0)
@@ -97,6 +97,34 @@ func GreyhopeMinerals(t *Truth, naSil, caCarb float64) map[string]float64 {
 	ksp := t.KNaSil*naSil - bio
 	return map[string]float64{"plagioclase An30": plag, "biotite": bio, "K-feldspar": ksp, MagnesianCalcite: caCarb / 0.85,
 		"kaolinite": -(1.3*plag + bio + ksp) / 2}
+}
+
+// GreyhopeYields returns the truth's mean annual yield (mol/km²/yr) of each
+// mineral of GreyhopeMinerals over the days of its record before end: the
+// minerals weathered day by day at the day's discharge.
+func GreyhopeYields(t *Truth, end discharge.Day) map[string]float64 {
+	q := t.Discharge()
+	mean := 0.0
+	for _, x := range q {
+		mean += x
+	}
+	mean /= float64(len(q))
+	sum := map[string]float64{}
+	days := 0
+	for i, x := range q {
+		if t.Start+discharge.Day(i) >= end {
+			break
+		}
+		days++
+		dil := math.Pow(x/mean, t.Slope)
+		for k, v := range GreyhopeMinerals(t, t.NaSil*dil, t.CaCarb*dil) {
+			sum[k] += v * x * 86.4 // mol/day: µmol/L × m³/s × 86.4
+		}
+	}
+	for k := range sum {
+		sum[k] = sum[k] / t.AreaKm2 / float64(days) * 365.25
+	}
+	return sum
 }
 
 // MagnesianCalcite names the typed mineral of the Greyhope balance.
