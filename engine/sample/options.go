@@ -97,6 +97,11 @@ type Options struct {
 	// would be ("Ca (mg/L)", "Alkalinity as CaCO3 mg/L", "date", "site",
 	// "Q (L/s)"). An empty value keeps the column as metadata.
 	Map map[string]string
+	// Use names, by header text, the column to read when a species has
+	// more than one column (two Ca columns); the others are kept as text.
+	// Without it every column of a repeated species is refused (kept as
+	// text) and reported as ErrDuplicateColumn naming them all.
+	Use []string
 	// MaxProblems caps the problems kept in Table.Problems; the rest are
 	// counted in a final entry. 0 means 10000.
 	MaxProblems int
