@@ -39,15 +39,15 @@ type Options struct {
 
 // Import is what Read made of a table.
 type Import struct {
-	Record       *Record   // the daily record; empty (Len 0) when nothing could load
-	Readings     []int     // readings averaged into each day of Record (sub-daily input); nil for daily input
-	Problems     Problems  // everything wrong, positioned; Problems.Err() is nil when all is well
-	Notes        []string  // what was detected and done (delimiter, date order, unit, averaging, sorting)
+	Record   *Record  // the daily record; empty (Len 0) when nothing could load
+	Readings []int    // readings averaged into each day of Record (sub-daily input); nil for daily input
+	Problems Problems // everything wrong, positioned; Problems.Err() is nil when all is well
+	Notes    []string // what was detected and done (delimiter, date order, unit, averaging, sorting)
 	// Notices are positioned like Problems but name no wrong cell: the
 	// date order and the line that decided it, each day whose cell is
 	// empty or a no-data code (left out as a gap), and the count of days
 	// left out for any reason (the last entry, with no line).
-	Notices Problems
+	Notices      Problems
 	Delimiter    rune      // delimiter used
 	DecimalComma bool      // whether numbers were read with a decimal comma
 	DateOrder    DateOrder // order used for year-last dates (AutoOrder if none occurred)
