@@ -35,6 +35,9 @@ type Options struct {
 	DateOrder DateOrder   // order of year-last dates; AutoOrder decides from the column
 	Delimiter rune        // field delimiter; 0 detects tab, semicolon, comma or spaces
 	Decimal   DecimalMark // decimal separator; AutoDecimal detects
+	// Line, when set, maps the lines of the text read to the lines
+	// problems should name (those of the file the text was taken from).
+	Line func(int) int
 }
 
 // Import is what Read made of a table.
@@ -122,6 +125,16 @@ func Read(r io.Reader, opt Options) *Import {
 	}
 	data = bytes.TrimPrefix(data, []byte("\ufeff"))
 	rows, lines := splitRows(data, opt, imp, add)
+	if opt.Line != nil {
+		for i, l := range lines {
+			lines[i] = opt.Line(l)
+		}
+		for _, p := range imp.Problems { // syntax errors, met while splitting
+			if p.Row > 0 {
+				p.Row = opt.Line(p.Row)
+			}
+		}
+	}
 	if len(rows) == 0 {
 		add(0, 0, "", ErrNotTable, "no rows")
 		return imp

@@ -28,28 +28,6 @@ type Source struct {
 	Lines    []int    // line on which each row starts
 }
 
-// fileLines maps the lines of the text TSV writes to the lines of the
-// source file they come from (header, units row and the first line of each
-// row); it is nil when the table has no usable Source.
-func (t *Table) fileLines() map[int]int {
-	s := t.Source
-	if s == nil || len(s.Lines) != len(t.Rows) {
-		return nil
-	}
-	m := make(map[int]int, len(t.Rows)+2)
-	m[1] = s.Header
-	at := 2 + lineBreaks(t.Columns)
-	if t.hasUnits() {
-		m[at] = s.Units
-		at += 1 + lineBreaks(t.Units)
-	}
-	for i, r := range t.Rows {
-		m[at] = s.Lines[i]
-		at += 1 + lineBreaks(r)
-	}
-	return m
-}
-
 // lineBreaks counts the line breaks inside the cells of a row.
 func lineBreaks(cells []string) int {
 	n := 0

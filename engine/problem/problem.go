@@ -56,9 +56,12 @@ const (
 	// Refused: the input was refused until the user chooses (two columns
 	// of one species, an ambiguous date column).
 	Refused
+	// Flagged: kept, and marked for the user to check (a charge balance
+	// above the flag limit).
+	Flagged
 )
 
-var effectNames = [...]string{"unread", "substituted", "left out", "inferred", "refused"}
+var effectNames = [...]string{"unread", "substituted", "left out", "inferred", "refused", "flagged"}
 
 // String names the effect.
 func (e Effect) String() string {

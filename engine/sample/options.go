@@ -102,6 +102,11 @@ type Options struct {
 	// Without it every column of a repeated species is refused (kept as
 	// text) and reported as ErrDuplicateColumn naming them all.
 	Use []string
+	// Line, when set, maps the lines of the text given to Read to the
+	// lines messages should name: those of the file the text was taken
+	// from. Every line the importer writes (Problem.Line, the lines quoted
+	// in details, Sample.Line, Table.Header) goes through it.
+	Line func(int) int
 	// MaxProblems caps the problems kept in Table.Problems; the rest are
 	// counted in a final entry. 0 means 10000.
 	MaxProblems int

@@ -249,6 +249,20 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
 }
 
+// mappedLines renames the lines of a record source (Options.Line).
+type mappedLines struct {
+	records
+	line func(int) int
+}
+
+func (m mappedLines) next() ([][]byte, int, bool) {
+	fs, l, ok := m.records.next()
+	if ok {
+		l = m.line(l)
+	}
+	return fs, l, ok
+}
+
 // commentLine reports a line above the header that starts with "#", which
 // labs and loggers use for notes (common practice): it stays in the
 // preamble however many fields its commas make.
@@ -260,6 +274,9 @@ func commentLine(fs [][]byte) bool {
 // joins preamble fields and is recorded in the table; sample holds the
 // first rows, split into fields, for the decimal mark.
 func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
+	if im.opt.Line != nil {
+		lr = mappedLines{lr, im.opt.Line}
+	}
 	if g := im.grid; g != nil {
 		g.Comma = rune(comma)
 		if g.raw {
