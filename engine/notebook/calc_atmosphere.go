@@ -16,7 +16,7 @@ type Atmosphere struct {
 	Samples *Samples
 	// Use holds the positions in Samples.Table.Samples of the samples the
 	// correction applies to: those the samples cell uses that have Cl.
-	Use []int
+	Use     []int
 	Options correct.Options // Sulfate is left at its default; the apportionment sets it
 	// Uncertainty is the relative 1σ of the rain ratios and of the ET
 	// factor, which the apportionment draws with its Monte Carlo.

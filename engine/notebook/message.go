@@ -122,9 +122,9 @@ func sortMessages(l Messages) {
 // (Table.Source) or, for a table typed, pasted or loaded from a budget,
 // the lines of that text, under the cell's id.
 type placer struct {
-	name  string      // file name, or the cell id
-	file  map[int]int // TSV line -> file line; nil when there is no file
-	rows  map[int]int // named line -> row index (-1 header, -2 units row)
+	name string      // file name, or the cell id
+	file map[int]int // TSV line -> file line; nil when there is no file
+	rows map[int]int // named line -> row index (-1 header, -2 units row)
 }
 
 // newPlacer returns the placer of t, held by cell id.

@@ -75,7 +75,7 @@ type CellProblem struct {
 	Severity string `json:"severity"`         // "problem", "warning" or "note"
 	Effect   string `json:"effect,omitempty"` // "unread", "substituted", "left out", "inferred", "refused", "flagged"
 	File     string `json:"file,omitempty"`
-	Line     int    `json:"line,omitempty"`   // as the file counts it (spreadsheet row for a workbook)
+	Line     int    `json:"line,omitempty"` // as the file counts it (spreadsheet row for a workbook)
 	Col      int    `json:"column_number,omitempty"`
 	Column   string `json:"column,omitempty"` // header of the column
 	Value    string `json:"value,omitempty"`  // the cell as written
