@@ -72,7 +72,8 @@ type Problem struct {
 	Effect   problem.Effect
 }
 
-// Error formats the problem as "file:row:col (column): kind: detail".
+// Error formats the problem as "file:row:col (column): kind: detail",
+// without the kind for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
 	if p.File != "" {
@@ -88,6 +89,10 @@ func (p *Problem) Error() string {
 	}
 	if p.Column != "" {
 		fmt.Fprintf(&b, " (%s)", p.Column)
+	}
+	if p.Detail != "" && (errors.Is(p.Err, ErrMissingDay) || errors.Is(p.Err, ErrBadDays) || errors.Is(p.Err, ErrDateOrder)) {
+		b.WriteString(": " + p.Detail) // a notice says it all in its detail
+		return b.String()
 	}
 	fmt.Fprintf(&b, ": %v", p.Err)
 	if p.Detail != "" {

@@ -167,7 +167,7 @@ func computeSamples(e *Env) (*Output, error) {
 		v.Use[i] = true
 		msg := &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: pl.name, Line: smp.Line,
 			Sample: sampleName(smp), Row: rows[i], Err: ErrChargeBalance}
-		nicb := strconv.FormatFloat(v.NICB[i], 'f', 1, 64) + " %"
+		nicb := strconv.FormatFloat(v.NICB[i], 'f', 2, 64) + " %"
 		switch st := reports[i].Status; {
 		case !smp.HasTime:
 			v.Use[i], flags[i] = false, "left out: no date"

@@ -194,13 +194,9 @@ func (p *placer) fromSample(l sample.ProblemList) Messages {
 // sampleText is what a problem says without its position: the sentinel
 // and the detail.
 func sampleText(x *sample.Problem) string {
-	switch {
-	case x.Err == nil:
-		return x.Detail
-	case x.Detail == "":
-		return x.Err.Error()
-	}
-	return x.Err.Error() + "; " + x.Detail
+	c := *x
+	c.File, c.Line, c.Col, c.Header, c.Value = "", 0, 0, "", ""
+	return strings.TrimPrefix(c.Error(), ": ")
 }
 
 // fromDischarge turns discharge import problems into messages placed by p.
@@ -208,10 +204,9 @@ func (p *placer) fromDischarge(l discharge.Problems) Messages {
 	out := make(Messages, 0, len(l))
 	for _, x := range l {
 		row, line := p.row(x.Row), x.Row
-		text := x.Err.Error()
-		if x.Detail != "" {
-			text += ": " + x.Detail
-		}
+		c := *x
+		c.File, c.Row, c.Col, c.Column = "-", 0, 0, ""
+		text := strings.TrimPrefix(c.Error(), "-: ")
 		out = append(out, &Message{Severity: x.Severity, Effect: x.Effect, File: p.name, Line: line, Col: x.Col,
 			Column: x.Column, Value: x.Value, Text: text, Row: row, Err: x.Err})
 	}

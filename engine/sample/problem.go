@@ -61,6 +61,17 @@ var effects = map[error]struct {
 	ErrBadRow: {problem.Error, problem.Unread},
 }
 
+// sentinelSeverity is the severity of p's sentinel (Error when unknown).
+// The notes' sentinels are all warnings or notes.
+func (p *Problem) sentinelSeverity() problem.Severity {
+	for _, err := range []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit, ErrComment, ErrChosenColumn} {
+		if errors.Is(p.Err, err) {
+			return effects[err].sev
+		}
+	}
+	return problem.Error
+}
+
 // classify sets p's severity and effect from its sentinel.
 func (p *Problem) classify() {
 	for err, e := range effects {
@@ -102,7 +113,8 @@ type Problem struct {
 	Effect   problem.Effect
 }
 
-// Error returns "file:line:col (header): value: err; detail".
+// Error returns "file:line:col (header): value: err; detail", without err
+// for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
 	b.WriteString(p.File)
@@ -119,11 +131,15 @@ func (p *Problem) Error() string {
 	if p.Value != "" {
 		fmt.Fprintf(&b, "%q: ", p.Value)
 	}
-	if p.Err != nil {
+	switch {
+	case p.Detail != "" && p.sentinelSeverity() != problem.Error:
+		b.WriteString(p.Detail) // a note or warning says it all in its detail
+	case p.Err != nil && p.Detail != "":
+		b.WriteString(p.Err.Error() + "; " + p.Detail)
+	case p.Err != nil:
 		b.WriteString(p.Err.Error())
-	}
-	if p.Detail != "" {
-		b.WriteString("; " + p.Detail)
+	default:
+		b.WriteString(p.Detail)
 	}
 	return b.String()
 }
