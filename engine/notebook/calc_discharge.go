@@ -43,6 +43,7 @@ func computeDischarge(e *Env) (*Output, error) {
 	}
 	im := discharge.ReadString(t.TSV(), opt)
 	out := &Output{Messages: append(pl.fromDischarge(im.Problems), pl.fromDischarge(im.Notices)...)}
+	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
 	sortMessages(out.Messages)
 	rec := im.Record
 	if rec == nil || rec.Len() == 0 {

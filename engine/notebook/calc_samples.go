@@ -129,6 +129,7 @@ func computeSamples(e *Env) (*Output, error) {
 		tab.Problems = append(tab.Problems, tab.Require(sample.Date)...)
 	}
 	out := &Output{Messages: append(pl.fromSample(tab.Problems), pl.fromSample(tab.Notes)...)}
+	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
 	n := len(tab.Samples)
 	rows := make([]int, n)
 	for i, smp := range tab.Samples {

@@ -199,6 +199,15 @@ func sampleText(x *sample.Problem) string {
 	return strings.TrimPrefix(c.Error(), ": ")
 }
 
+// sourceNotes returns the notes of the file t was read from, when the
+// messages name that file.
+func (p *placer) sourceNotes(t *Table) Messages {
+	if p.file == nil {
+		return nil
+	}
+	return p.fromSample(t.Source.Notes)
+}
+
 // fromDischarge turns discharge import problems into messages placed by p.
 func (p *placer) fromDischarge(l discharge.Problems) Messages {
 	out := make(Messages, 0, len(l))

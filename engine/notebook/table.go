@@ -3,6 +3,8 @@ package notebook
 import (
 	"fmt"
 	"strings"
+
+	"lixiv/engine/sample"
 )
 
 // Table is a data table typed or pasted by the user, kept as text so that
@@ -26,6 +28,10 @@ type Source struct {
 	Header   int      // line of the header row
 	Units    int      // line of the units row, 0 when none
 	Lines    []int    // line on which each row starts
+	// Notes says how the file was read before its cells reached the
+	// table (a workbook's header joined from merged cells, the sheet
+	// read); the cells reading the table list them with their own.
+	Notes sample.ProblemList
 }
 
 // lineBreaks counts the line breaks inside the cells of a row.

@@ -38,6 +38,8 @@ var (
 	ErrCellUnit     = errors.New("unit in the cell")
 	ErrComment      = errors.New("comment line")
 	ErrChosenColumn = errors.New("column chosen")
+	ErrMergedHeader = errors.New("header over several rows")
+	ErrOtherSheets  = errors.New("other sheets")
 )
 
 // effects gives the severity and effect of each problem sentinel.
@@ -57,6 +59,7 @@ var effects = map[error]struct {
 	ErrDateOrder: {problem.Note, problem.Inferred}, ErrDecimalComma: {problem.Note, problem.Inferred},
 	ErrUnits: {problem.Note, problem.Inferred}, ErrDefaultUnit: {problem.Warning, problem.Substituted}, ErrCellUnit: {problem.Note, problem.Inferred},
 	ErrComment: {problem.Note, problem.LeftOut}, ErrChosenColumn: {problem.Note, problem.LeftOut},
+	ErrMergedHeader: {problem.Note, problem.Inferred}, ErrOtherSheets: {problem.Note, problem.LeftOut},
 	ErrNotWorkbook: {problem.Error, problem.Unread}, ErrNoSheet: {problem.Error, problem.Unread},
 	ErrBadRow: {problem.Error, problem.Unread},
 }
@@ -64,7 +67,7 @@ var effects = map[error]struct {
 // sentinelSeverity is the severity of p's sentinel (Error when unknown).
 // The notes' sentinels are all warnings or notes.
 func (p *Problem) sentinelSeverity() problem.Severity {
-	for _, err := range []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit, ErrComment, ErrChosenColumn} {
+	for _, err := range []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit, ErrComment, ErrChosenColumn, ErrMergedHeader, ErrOtherSheets} {
 		if errors.Is(p.Err, err) {
 			return effects[err].sev
 		}
