@@ -256,7 +256,11 @@ func Read(r io.Reader, opt Options) *Import {
 
 	// Rows.
 	rd := make([]reading, 0, len(rows))
-	var bad struct{ neg, code, empty, text int } // days left out, by reason
+	var bad struct{ neg, code, empty, text int } // days (readings) left out, by reason
+	leftOut, what, whats := "the day is left out (a gap)", "day", "days"
+	if cols.time >= 0 {
+		leftOut, what, whats = "the reading is left out", "reading", "readings"
+	}
 	firstUnit := Unit(-1)
 	unitName := ""
 	if cols.unitCol >= 0 {
@@ -324,15 +328,15 @@ func Read(r io.Reader, opt Options) *Import {
 				bad.code++
 				bad.empty--
 			}
-			add(line, cols.q+1, qName, ErrMissingDay, "%s: the discharge %s; the day is left out (a gap)", d, what)
+			add(line, cols.q+1, qName, ErrMissingDay, "%s: the discharge %s; %s", d, what, leftOut)
 			value(raw)
 		case perr != nil:
-			add(line, cols.q+1, qName, ErrNotNumber, "%s: %q is not a number; the day is left out (a gap)", d, strings.TrimSpace(raw))
+			add(line, cols.q+1, qName, ErrNotNumber, "%s: %q is not a number; %s", d, strings.TrimSpace(raw), leftOut)
 			value(raw)
 			v = math.NaN()
 			bad.text++
 		case v < 0:
-			add(line, cols.q+1, qName, ErrNegative, "%s: %s is below zero; the day is left out (a gap)", d, strings.TrimSpace(raw))
+			add(line, cols.q+1, qName, ErrNegative, "%s: %s is below zero; %s", d, strings.TrimSpace(raw), leftOut)
 			value(raw)
 			v = math.NaN()
 			bad.neg++
@@ -359,7 +363,7 @@ func Read(r io.Reader, opt Options) *Import {
 				parts = append(parts, fmt.Sprintf("%d %s", k.n, k.what))
 			}
 		}
-		add(0, cols.q+1, qName, ErrBadDays, "%d %s left out as gaps (%s), each named at its line", n, plural(n, "day", "days"), strings.Join(parts, ", "))
+		add(0, cols.q+1, qName, ErrBadDays, "%d %s left out (%s), each named at its line", n, plural(n, what, whats), strings.Join(parts, ", "))
 	}
 	if firstUnit >= 0 {
 		imp.Unit = firstUnit
