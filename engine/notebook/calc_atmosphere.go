@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -135,6 +136,15 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		sm := smp.Table.Samples[i]
 		ids[k] = sm.ID
 		r, err := correct.Apply(sm.C, &opt)
+		if errors.Is(err, correct.ErrMissing) && !sm.C.Has(chem.Ca) {
+			// Without Ca the sulfate above the rain's share cannot go to
+			// gypsum. Nothing this cell shows depends on that split (its
+			// ratio of Ca is blank anyway); the apportionment, which knows
+			// the sulfate source, leaves the sample out by name.
+			o := opt
+			o.Sulfate = correct.Sulfide
+			r, err = correct.Apply(sm.C, &o)
+		}
 		if err != nil {
 			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
