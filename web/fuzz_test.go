@@ -1,7 +1,6 @@
 package web
 
 import (
-	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
@@ -38,6 +37,8 @@ func FuzzParseDelimited(f *testing.F) {
 		if len(base.Units) != len(base.Columns) {
 			t.Fatalf("units %d for %d columns after a paste", len(base.Units), len(base.Columns))
 		}
-		TableProblems("samples", base, strings.Split(text, "\n"))
+		// Messages at odd places (past the table, on no row) must not panic.
+		k := len(text)
+		TableProblems("samples", base, notebook.Messages{{File: "samples", Line: k % 7, Col: k % 5, Row: k%4 - 2, Text: text}})
 	})
 }
