@@ -24,12 +24,14 @@ func (p TableProblem) Class() string { return p.Severity.String() }
 
 // TableProblems splits a cell's messages into those about its own table
 // (named by the file the table was read from, or by the cell's id), placed
-// at rows and columns of the table the user sees, and the rest, as text.
+// at rows and columns of the table the user sees ("row 2 (line 5)" for a
+// table read from a file, whose lines the message counts), and the rest,
+// as text.
 // It reads the messages' fields; it never parses their text.
 func TableProblems(cell string, t *notebook.Table, msgs notebook.Messages) (probs []TableProblem, rest []string) {
-	name, header, units := cell, 1, 0
+	name, header, units, file := cell, 1, 0, false
 	if t != nil && t.Source != nil && t.Source.File != "" && len(t.Source.Lines) == len(t.Rows) {
-		name, header, units = t.Source.File, t.Source.Header, t.Source.Units
+		name, header, units, file = t.Source.File, t.Source.Header, t.Source.Units, true
 	} else if t != nil {
 		for _, u := range t.Units {
 			if u != "" {
@@ -49,6 +51,8 @@ func TableProblems(cell string, t *notebook.Table, msgs notebook.Messages) (prob
 		}
 		var where []string
 		switch {
+		case p.Row >= 0 && file:
+			where = append(where, "row "+strconv.Itoa(p.Row+1)+" (line "+strconv.Itoa(m.Line)+")")
 		case p.Row >= 0:
 			where = append(where, "row "+strconv.Itoa(p.Row+1))
 		case m.Line == header && m.Line > 0:

@@ -35,7 +35,7 @@ func TestTableProblems(t *testing.T) {
 			Source: &notebook.Source{File: "flow.csv", Header: 3, Lines: []int{5}}}
 		probs, _ := TableProblems("flow", tab, notebook.Messages{{File: "flow.csv", Line: 5, Col: 1, Row: 0, Text: "not a date"},
 			{File: "flow.csv", Line: 3, Col: 2, Row: -1, Text: "no unit"}})
-		if len(probs) != 2 || probs[0].Row != 0 || probs[0].Col != 0 || probs[1].Text != "header row, column Q: no unit" {
+		if len(probs) != 2 || probs[0].Row != 0 || probs[0].Col != 0 || probs[0].Text != "row 1 (line 5), column date: not a date" || probs[1].Text != "header row, column Q: no unit" {
 			t.Errorf("got %+v, want row 0 column 0, then the header", probs)
 		}
 	})
