@@ -1,6 +1,9 @@
 package web
 
 import (
+	"os"
+	"path/filepath"
+	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
@@ -18,6 +21,15 @@ func FuzzParseDelimited(f *testing.F) {
 		"\n\n\t\t\n",
 	} {
 		f.Add(s)
+	}
+	// The awkward laboratory and discharge files of the engine's tests.
+	for _, dir := range []string{"../engine/sample/testdata/awkward", "../engine/discharge/testdata/awkward"} {
+		names, _ := filepath.Glob(filepath.Join(dir, "*.*"))
+		for _, n := range names {
+			if b, err := os.ReadFile(n); err == nil && !strings.HasSuffix(n, ".md") {
+				f.Add(string(b))
+			}
+		}
 	}
 	f.Fuzz(func(t *testing.T, text string) {
 		tab := ParseDelimited(text, true)

@@ -453,6 +453,8 @@ func FuzzReadXLSX(f *testing.F) {
 	f.Add(corrieValeBook(f), "Field notes")
 	f.Add(buildXLSX(f, []string{"S"}, [][][]xc{{{{"XFD1", "", 0, "1"}, {"A", "s", 0, "x"}}, {{"B0", "", 1, "-5"}}}}), "S")
 	f.Add([]byte("PK\x03\x04"), "")
+	f.Add(mergedWorkbook(f), "")
+	f.Add(mergedWorkbook(f), "Notes")
 	sentinels := []error{ErrNotTable, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany,
 		ErrNotWorkbook, ErrNoSheet, ErrBadRow}
