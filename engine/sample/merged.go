@@ -62,6 +62,10 @@ func cellRef(s string) (col, row int, ok bool) {
 	return col - 1, r, true
 }
 
+// maxHeaderRows is the most rows a header of merged cells may span; a
+// range merged further down is cut there (a header is a few rows).
+const maxHeaderRows = 8
+
 // mergeHeader joins a header written over several rows with merged cells
 // (a heading such as "Major cations (mg/L)" merged over the columns Na, K,
 // Ca, Mg of the row below, and "Sample" merged down both rows) into one
@@ -87,6 +91,7 @@ func mergeHeader(rows []sheetRow, spans []span, name, sheet string) ([]sheetRow,
 	if across {
 		end = max(end, top+1) // the names under a heading merged across
 	}
+	end = min(end, top+maxHeaderRows-1)
 	if end == top {
 		return rows, nil
 	}
