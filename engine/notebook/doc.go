@@ -30,6 +30,15 @@
 // below it wait. A panic inside a computation becomes a Problem, never a
 // crash.
 //
+// A cell's Output.Messages say, typed and positioned (severity, effect,
+// file, line as the file counts it, column, value, sample, row of the
+// cell's table), how it read its input: what it could not read or refused,
+// what it substituted or left out, what it inferred. A sample without an
+// ion a cell needs is left out of that cell, and the cells that read it,
+// by name (no Cl: the atmosphere cell; no Ca for gypsum sulfate: the
+// apportionment) and kept everywhere else. The report lists the messages
+// under "problems", "warnings" and "messages".
+//
 // The computation of each kind is a ComputeFunc registered with Register;
 // the built-in ones call the engine packages sample, discharge, correct,
 // mix, flux, co2, carbonate and mineral. Their typed results (Site,
