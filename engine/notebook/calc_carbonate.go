@@ -8,6 +8,8 @@ import (
 
 	"lixiv/engine/carbonate"
 	"lixiv/engine/chem"
+	"lixiv/engine/problem"
+	"lixiv/engine/sample"
 )
 
 // CarbonateSettings choose the carbonate cell's activity model and when it
@@ -112,10 +114,16 @@ func computeCarbonate(e *Env) (*Output, error) {
 		r, err := carbonate.Analyse(w, model)
 		if err != nil {
 			reason := err.Error()
-			if errors.Is(err, carbonate.ErrNoAlkalinity) && sm.C.Has(chem.Alk) {
+			switch {
+			case errors.Is(err, carbonate.ErrNoAlkalinity) && sm.C.Has(chem.Alk):
 				reason = "alkalinity not above zero"
+			case !math.IsNaN(sm.PH) && (sm.PH < 0 || sm.PH > 14):
+				reason = fmt.Sprintf("pH %g, outside 0–14", sm.PH)
+			case !math.IsNaN(sm.Temp) && (sm.Temp < -5 || sm.Temp > 100):
+				reason = fmt.Sprintf("a temperature of %g °C, outside −5 to 100 °C", sm.Temp)
 			}
-			v.LeftOut = append(v.LeftOut, LeftOut{sm.ID, reason})
+			v.LeftOut = append(v.LeftOut, LeftOut{sampleName(sm), reason})
+			out.Messages = append(out.Messages, smp.notSpeciated(i, err, reason))
 			continue
 		}
 		// The engine's range warnings, grouped across samples.
@@ -143,9 +151,6 @@ func computeCarbonate(e *Env) (*Output, error) {
 		v.PH, v.Ca = append(v.PH, sm.PH), append(v.Ca, sm.C[chem.Ca])
 	}
 	n := len(v.Results)
-	if len(v.LeftOut) > 0 {
-		out.Warnings = append(out.Warnings, leftOutWarning(v.LeftOut))
-	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
 	if len(missing) > 0 {
 		var parts []string
@@ -218,21 +223,41 @@ func computeCarbonate(e *Env) (*Output, error) {
 	return out, nil
 }
 
-// leftOutWarning names the samples left out of the cell, grouped by reason.
-func leftOutWarning(lo []LeftOut) string {
-	by := map[string][]string{}
-	var reasons []string
-	for _, l := range lo {
-		if by[l.Reason] == nil {
-			reasons = append(reasons, l.Reason)
+// ErrNotSpeciated is the sentinel of messages that leave a sample out of
+// the carbonate cell (no pH, temperature or alkalinity, or a value no
+// water has).
+var ErrNotSpeciated = errors.New("not speciated")
+
+// notSpeciated is the message that sample i is left out of the carbonate
+// cell, and of it only, because carbonate.Analyse refused it with err:
+// its line, and the column and cell as written of the value missing or
+// out of range.
+func (s *Samples) notSpeciated(i int, err error, reason string) *Message {
+	sm := s.Table.Samples[i]
+	var kind sample.Kind = -1
+	switch {
+	case errors.Is(err, carbonate.ErrNoPH) || !math.IsNaN(sm.PH) && (sm.PH < 0 || sm.PH > 14):
+		kind = sample.PH
+	case errors.Is(err, carbonate.ErrNoTemperature) || !math.IsNaN(sm.Temp) && (sm.Temp < -5 || sm.Temp > 100):
+		kind = sample.Temperature
+	}
+	m := &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: s.File, Line: sm.Line, Sample: sampleName(sm),
+		Text: fmt.Sprintf("sample %s has %s: left out of this carbonate cell only; it stays in the rest of the budget", sampleName(sm), reason),
+		Row: -1, Err: ErrNotSpeciated}
+	if errors.Is(err, carbonate.ErrNoAlkalinity) {
+		m.Column, m.Col = s.column(chem.Alk)
+		m.Value = s.Cell(i, chem.Alk)
+	}
+	for _, c := range s.Table.Columns {
+		if c.Kind == kind {
+			m.Column, m.Col = c.Header, c.Index+1
+			if s.Input != nil && i < len(s.Rows) {
+				m.Value = strings.TrimSpace(s.Input.Cell(s.Rows[i], c.Index))
+			}
+			break
 		}
-		by[l.Reason] = append(by[l.Reason], l.Sample)
 	}
-	parts := make([]string, len(reasons))
-	for i, r := range reasons {
-		parts[i] = r + ": " + strings.Join(by[r], ", ")
-	}
-	return "left out of this cell only (the rest of the budget keeps them): " + strings.Join(parts, "; ")
+	return m
 }
 
 // loadShare returns the share of the sampled Ca load, Σ Q × Ca over the

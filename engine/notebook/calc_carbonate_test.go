@@ -2,6 +2,7 @@ package notebook
 
 import (
 	"context"
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -86,11 +87,21 @@ func TestCarbonateCell(t *testing.T) {
 	if !strings.Contains(flags[1], "pCO2 above 10 × the air's") {
 		t.Errorf("the soured sample (pH 6.2) is not flagged for pCO2: %q, %g µatm", flags[1], tab.Column("pCO2").Num[1])
 	}
-	w := strings.Join(o.Warnings, "\n")
-	for _, s := range []string{"left out of this cell only", "no pH: noPH", "no temperature: noT", "alkalinity not above zero: acid"} {
-		if !strings.Contains(w, s) {
-			t.Errorf("warnings lack %q:\n%s", s, w)
+	// Each sample left out is a message placed at its line and the column
+	// of what it lacks.
+	cols := map[string]string{"noPH": "pH", "noT": "temperature", "acid": "Alk"}
+	for _, m := range o.Messages {
+		col, ok := cols[m.Sample]
+		if !ok || m.Column != col || m.Line == 0 || !errors.Is(m, ErrNotSpeciated) || !strings.Contains(m.Text, "left out of this carbonate cell only") {
+			t.Errorf("message %v (sample %q, column %q)", m, m.Sample, m.Column)
 		}
+		delete(cols, m.Sample)
+	}
+	if len(cols) > 0 {
+		t.Errorf("no message for %v", cols)
+	}
+	if m := o.Messages[0]; m.Text != "sample noPH has no pH: left out of this carbonate cell only; it stays in the rest of the budget" || m.Line != 4 || m.Col != 3 {
+		t.Errorf("first message %q at line %d column %d", m.Text, m.Line, m.Col)
 	}
 	if f := o.Figure("samples left out of this cell"); f == nil || f.Median != 3 {
 		t.Errorf("samples left out: %v", f)

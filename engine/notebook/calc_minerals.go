@@ -179,8 +179,8 @@ func mineralWater(r *correct.Result) [mineral.NWater]float64 {
 	return w
 }
 
-// computeMinerals balances each sample's rain-corrected water against the
-// chosen minerals (methods brief §16) and, with a fluxes cell, fluxes each
+// computeMinerals balances the rain-corrected water of each sample the
+// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (methods brief §16) and, with a fluxes cell, fluxes each
 // mineral's amount over the period with that cell's estimator.
 func computeMinerals(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*MineralSettings)
@@ -207,7 +207,7 @@ func computeMinerals(e *Env) (*Output, error) {
 	opt := atm.Options
 	var days []dayOf
 	negative := map[string]int{}
-	for _, i := range atm.Samples.Used() {
+	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		r, err := correct.Apply(sm.C, &opt)
 		if err != nil {

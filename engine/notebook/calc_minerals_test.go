@@ -45,7 +45,7 @@ func TestMineralsCell(t *testing.T) {
 	}
 	b.Relative, b.Floor = 0.05, MineralFloor
 	amounts := o.Table("amounts")
-	for k, i := range atm.Samples.Used() {
+	for k, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		r, err := correct.Apply(sm.C, &atm.Options)
 		if err != nil {

@@ -47,7 +47,7 @@ func TestWaterCellsRender(t *testing.T) {
 	}{
 		{"carbonate", "Carbonate system", []string{"Carbonate system of each sample: davies activities (valid to I ≈ 0.5 mol/L)"},
 			[]string{"pCO2 (µatm)", "|SI of calcite|", "ionic strength (mol/L)"},
-			[]string{"Saturation indices against discharge", "pCO2 against discharge"}, "no pH: GB-009"},
+			[]string{"Saturation indices against discharge", "pCO2 against discharge"}, "sample GB-009 has no pH: left out of this carbonate cell only"},
 		{"minerals", "Mineral balance", []string{"Minerals of the balance", "Moles of each mineral", "Residuals", "Mean annual flux of each mineral", "Built-in minerals"},
 			[]string{"mineral", "balanced reaction with carbonic acid", "CO2 per mole (mol/mol)"},
 			[]string{"Minerals per sample", "CO2 consumed by each mineral"}, "biotite would have to form"},
