@@ -2,6 +2,7 @@ package notebook
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
@@ -284,7 +285,7 @@ func computeApportionment(e *Env) (*Output, error) {
 	workers := e.Workers()
 	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true)
 	if err != nil {
-		return nil, err
+		return out, err // out, when not nil, says which samples it could not take
 	}
 	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 		o := s
@@ -319,7 +320,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
 	out := &Output{}
 	warn := map[string]int{}
-	for _, i := range atm.Samples.Used() {
+	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		o := opt
 		if s.Sulfate == "isotope" {
@@ -328,6 +329,12 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			}
 		}
 		r, err := correct.Apply(sm.C, &o)
+		if errors.Is(err, correct.ErrMissing) && !sm.C.Has(chem.Ca) {
+			out.Messages = append(out.Messages, atm.Samples.leftOut(i, chem.Ca, fmt.Sprintf(
+				"sample %s has no Ca value: left out of the apportionment and of the cells that read it (fluxes, CO2); its sulfate above the rain's share goes partly to gypsum, which brings as much Ca; give its Ca, or set %s to sulfide",
+				sampleName(sm), quoteSetting("sulfate"))))
+			continue
+		}
 		if err != nil {
 			return nil, nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
@@ -341,6 +348,9 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		a.Corrected = append(a.Corrected, r)
 	}
 	n := len(a.Index)
+	if n == 0 {
+		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+	}
 	if n*s.Draws > MaxSampleDraws {
 		return nil, nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
 	}

@@ -216,6 +216,39 @@ func (v *Fluxes) finish(f fitted, r *flux.Result, reps int) (fitted, []string, e
 	return f, warns, nil
 }
 
+// fitAmounts fluxes per-sample amounts of a quantity (a mineral's moles,
+// say) on the samples days, with the budget's estimator and, with reps
+// above 0, its bootstrap, as apportioned quantities are fluxed
+// (docs/methods.md §8.7): through the samples' measured cation charge, to
+// which the estimator (a rating curve, say) is fitted, the quantity taking
+// its flow-weighted share in each year's samples. The amounts may be zero
+// or negative; no estimator is switched.
+func (v *Fluxes) fitAmounts(name string, days []dayOf, amount []float64, reps int) (fitted, []string, error) {
+	n := len(days)
+	q := flux.Apportioned{Name: name, Days: make([]discharge.Day, n), Q: make([]float64, n),
+		Parts: []flux.Share{{Of: "cation charge of the balanced samples", Measured: make([]float64, n), Amount: amount}}}
+	for i, d := range days {
+		q.Days[i], q.Q[i], q.Parts[0].Measured[i] = d.day, d.q, d.tz
+	}
+	return v.fitQuantity(q, reps, v.Options)
+}
+
+// cationCharges returns Na + K + 2Ca + 2Mg of c, µeq/L, over the cations
+// measured (NaN when none is).
+func cationCharges(c chem.Composition) float64 {
+	t, some := 0.0, false
+	for k, sp := range mix.Cations {
+		if x := c[sp]; finite(x) {
+			t += cationCharge[k] * x
+			some = true
+		}
+	}
+	if !some {
+		return math.NaN()
+	}
+	return t
+}
+
 // measuredSeries returns the measured species sp of every apportioned
 // sample as a flux series.
 func (v *Fluxes) measuredSeries(sp chem.Species) flux.Series {
@@ -274,12 +307,7 @@ func (v *Fluxes) unapportionedShare() float64 {
 		if math.IsNaN(q) {
 			q = v.Record.Q[k]
 		}
-		tz := 0.0
-		for k, sp := range mix.Cations {
-			if c := a.Corrected[i].Input[sp]; finite(c) {
-				tz += cationCharge[k] * c
-			}
-		}
+		tz := cationCharges(a.Corrected[i].Input)
 		if !finite(q) || !finite(tz) {
 			continue
 		}

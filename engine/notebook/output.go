@@ -11,6 +11,12 @@ type Output struct {
 	// on failed fits, or on flow the samples do not bracket, beyond what
 	// the cell accepts. A cell with reasons is in the Doubtful state.
 	Doubtful []string
+	// Messages say, positioned in the input, what the cell could not read,
+	// what it read in place of what was written, what it left out (a sample
+	// without an ion the cell needs) and what it inferred. They explain
+	// the results and are not part of the snapshot's checksum; the tables
+	// they change are.
+	Messages Messages
 	// Rough says the output lacks intervals that a full computation gives
 	// (see Document.Quick); a compute function that skips that work sets it.
 	Rough bool

@@ -153,6 +153,9 @@ func summary(w io.Writer, path string, d *notebook.Document) {
 				fmt.Fprintf(w, "      (%s)\n", f.Note)
 			}
 		}
+		for _, m := range o.Messages {
+			fmt.Fprintf(w, "    %s: %s\n", m.Severity, m)
+		}
 		for _, m := range o.Warnings {
 			fmt.Fprintf(w, "    warning: %s\n", m)
 		}
