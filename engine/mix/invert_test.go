@@ -9,7 +9,7 @@ import (
 	"lixiv/engine/chem"
 )
 
-// Science.md §13 item 15: end-members (Ca/Na, Mg/Na, HCO3/Na, 1000 Sr/Na,
+// docs/methods.md §13 item 15: end-members (Ca/Na, Mg/Na, HCO3/Na, 1000 Sr/Na,
 // 87Sr/86Sr) silicate (0.35, 0.24, 2, 3, 0.7200), carbonate (50, 10, 120, 50,
 // 0.7080), evaporite (0.17, 0.02, 0.3, 1.0, 0.7075) — illustrative test
 // values of docs/methods.md §13 item 15, not a recommendation.

@@ -155,7 +155,7 @@ func mineralPhases(s *MineralSettings) ([]mineral.Phase, []string, error) {
 }
 
 // mineralWater is the water a minerals cell balances: the measured sample
-// less the rain input and, when chosen, the human input (methods brief
+// less the rain input and, when chosen, the human input (docs/methods.md
 // §4), before the evaporite and sulfate corrections, so that halite,
 // gypsum and pyrite can be balanced as minerals. HCO3 is the alkalinity
 // (carbonate alkalinity is nearly all bicarbonate below pH 8.3; common
@@ -180,7 +180,7 @@ func mineralWater(r *correct.Result) [mineral.NWater]float64 {
 }
 
 // computeMinerals balances the rain-corrected water of each sample the
-// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (methods brief §16) and, with a fluxes cell, fluxes each
+// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (docs/methods.md §16) and, with a fluxes cell, fluxes each
 // mineral's amount over the period with that cell's estimator.
 func computeMinerals(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*MineralSettings)
