@@ -235,15 +235,15 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 		}
 	}
 	col := newCollector(u, years, rp.nrep, opt, a.MolarMass)
-	am := make([][]float64, len(a.Parts))
-	x := make([][]float64, len(a.Parts))
+	np := len(a.Parts)
+	x := make([][]float64, np) // measured values of each part, by matched sample
 	for p := range a.Parts {
-		am[p], x[p] = make([]float64, len(smp)), make([]float64, len(smp))
+		x[p] = make([]float64, len(smp))
 		for j, sm := range smp {
 			x[p][j] = a.Parts[p].Measured[sm.idx]
 		}
 	}
-	num, den := make([]float64, ny), make([]float64, ny)
+	num, den := make([]float64, np*ny), make([]float64, np*ny) // per part and year
 	out := make([]float64, ny)
 	// With neither the samples nor their draws varied, every replicate has
 	// the same loads before its discharge and area errors.
@@ -258,23 +258,47 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 			b.tick()
 			continue
 		}
+		for i := range num {
+			num[i], den[i] = 0, 0
+		}
+		var pr []int32
+		if picks != nil {
+			pr = picks[r]
+		}
+		// One pass over the samples: Σ w Q a and Σ w Q x of each part and
+		// year, a the sample's amount under its draw of this replicate.
+		for j, sm := range smp {
+			w := rp.w[j]
+			if w == 0 || sm.year < 0 {
+				continue
+			}
+			wq := w * sm.q
+			k := int32(-1)
+			if pr != nil {
+				k = pr[sm.idx]
+			}
+			for p := 0; p < np; p++ {
+				part := &a.Parts[p]
+				av := part.Amount[sm.idx]
+				if k >= 0 {
+					av = part.Draws[sm.idx][k]
+				}
+				xv := x[p][j]
+				if math.IsNaN(av) || math.IsNaN(xv) {
+					continue
+				}
+				num[p*ny+sm.year] += wq * av
+				den[p*ny+sm.year] += wq * xv
+			}
+		}
 		ok := true
 		for y := range out {
 			out[y] = 0
 		}
-		for p, part := range a.Parts {
-			for j, sm := range smp {
-				am[p][j] = part.Amount[sm.idx]
-				if picks != nil {
-					if k := picks[r][sm.idx]; k >= 0 {
-						am[p][j] = part.Draws[sm.idx][k]
-					}
-				}
-			}
-			shareSums(smp, rp.w, am[p], x[p], num, den)
+		for p := 0; p < np; p++ {
 			ok = ok && refs[p].ok[r]
 			for y := range out {
-				out[y] += refs[p].mol[r][y] * ratio(num[y], den[y])
+				out[y] += refs[p].mol[r][y] * ratio(num[p*ny+y], den[p*ny+y])
 			}
 		}
 		if held {
