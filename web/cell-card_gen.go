@@ -148,6 +148,13 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 		}
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
+		if c.V.Doubtful != "" {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "doubtful-why"}}}
+			vgparent.AppendChild(vgn)
+			vgn.SetInnerHTML(c.V.Doubtful)
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
 		if c.V.EditErr != "" {
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "problem"}}}
 			vgparent.AppendChild(vgn)
@@ -648,6 +655,13 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}}}
 										vgparent.AppendChild(vgn)
 										vgn.SetInnerHTML(f.Interval)
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+										vgparent.AppendChild(vgn)
+										if f.Note != "" {
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-note"}}}
+											vgparent.AppendChild(vgn)
+											vgn.SetInnerHTML(f.Note)
+										}
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 										vgparent.AppendChild(vgn)
 									}

@@ -104,6 +104,8 @@ var paramLabels = map[string]string{
 	"bootstrap":                     "bootstrap replicates",
 	"series_bootstrap":              "series bootstrap replicates",
 	"draws":                         "Monte Carlo draws",
+	"unapportioned_samples":         "samples without an apportionment",
+	"doubtful_above_percent":        "doubtful above (% of load or flow)",
 }
 
 // SettingLabel labels a setting: from the table above, else by ParamLabel.

@@ -825,7 +825,7 @@ func (c *Root) CountsLine() string {
 			}
 		}
 	}
-	warn, bad := 0, 0
+	warn, bad, doubt := 0, 0, 0
 	for _, v := range c.Cells {
 		warn += len(v.Warnings)
 		for _, p := range v.TableProblems {
@@ -833,11 +833,17 @@ func (c *Root) CountsLine() string {
 				warn++
 			}
 		}
-		if v.State == "problem" || v.State == "waiting" {
+		switch v.State {
+		case "problem", "waiting":
 			bad++
+		case "doubtful":
+			doubt++
 		}
 	}
 	parts = append(parts, fmt.Sprintf("%d warnings", warn), fmt.Sprintf("%d cells with problems", bad))
+	if doubt > 0 {
+		parts = append(parts, fmt.Sprintf("%d doubtful", doubt))
+	}
 	return strings.Join(parts, ", ")
 }
 

@@ -1,10 +1,12 @@
 package web
 
 import (
+	"context"
 	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/examples/synth"
 )
 
 func newTestSession(t *testing.T) *Session {
@@ -142,11 +144,11 @@ func TestParamLabel(t *testing.T) {
 }
 
 func TestHeadlineOrder(t *testing.T) {
-	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "runoff", Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
+	cells := []CellView{{Figures: []FigureView{{Name: notebook.RecordRunoffFigure, Unit: "mm/yr"}, {Name: notebook.RunoffFigure, Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
 		{Name: "carbonate CO2 consumption per km²", Unit: "mol/km²/yr"}, {Name: "silicate CO2 consumption per km²", Unit: "mol/km²/yr"}}}}
 	got := Headline(cells, 4)
-	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff", "median silicate CO2 consumption per litre"}
+	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", notebook.RunoffFigure, "median silicate CO2 consumption per litre"}
 	for i := range want {
 		if i >= len(got) || got[i].Name != want[i] {
 			t.Fatalf("headline: got %v, want %v", got, want)
@@ -205,5 +207,43 @@ func TestEdited(t *testing.T) {
 	s.Replace(notebook.New("Another"), "another.lixiv.json")
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
+	}
+}
+
+// TestDoubtfulCellView: a doubtful cell shows its state, its reasons under
+// its head, its figures marked (in the summary strip too) and each
+// figure's note (synth.DoubtfulDemo).
+func TestDoubtfulCellView(t *testing.T) {
+	d, err := synth.DoubtfulDemo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	s := NewSession(d, "corrie.lixiv.json")
+	cells := s.Cells("", 0, &ChartCache{})
+	found := false
+	for _, c := range cells {
+		if c.ID != "fluxes" {
+			continue
+		}
+		found = true
+		if c.State != "doubtful" || c.StateText != "doubtful" || !strings.Contains(c.Doubtful, "of the flow passed before the first or after the last apportioned sample (above 1 %)") || c.Problem != "" {
+			t.Errorf("fluxes view: state %q %q, doubtful %q, problem %q", c.State, c.StateText, c.Doubtful, c.Problem)
+		}
+		for _, fv := range c.Figures {
+			if fv.Name == "silicate cations flux" && (!fv.Doubtful || fv.Note == "" || !strings.Contains(fv.Class(), "doubtful")) {
+				t.Errorf("silicate cations flux: %+v, class %q", fv, fv.Class())
+			}
+		}
+	}
+	if !found {
+		t.Fatal("no fluxes cell")
+	}
+	for _, h := range Headline(cells, 6) {
+		if h.Cell == "co2" && !h.Doubtful {
+			t.Errorf("summary strip: %q from the doubtful CO2 cell is not marked", h.Name)
+		}
 	}
 }

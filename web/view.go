@@ -1,6 +1,7 @@
 package web
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -14,9 +15,10 @@ import (
 // CellView is what the page shows of one cell, gathered from the document.
 type CellView struct {
 	ID, Kind, KindLabel, Title string
-	State                      string // css class: ok, stale, running, waiting, problem
+	State                      string // css class: ok, stale, running, waiting, problem, doubtful
 	StateText                  string
 	Problem                    string // why the cell waits or failed
+	Doubtful                   string // why its results are doubtful ("" when they are not)
 	EditErr                    string // last rejected edit
 	Collapsed                  bool
 	Params                     []ParamView
@@ -52,15 +54,22 @@ type RoleView struct {
 // FigureView is a headline figure formatted for the page.
 type FigureView struct {
 	Cell, Name, Value, Interval, Unit string
-	Old                               bool // from before the last change
+	Note                              string // how it was computed, shown beside it
+	Old                               bool   // from before the last change
+	Doubtful                          bool   // from a cell whose results are doubtful
 }
 
-// Class is the figure's css class: dimmed when it is from before the last change.
+// Class is the figure's css class: dimmed when it is from before the last
+// change, marked when its cell is doubtful.
 func (f FigureView) Class() string {
+	c := "figure"
 	if f.Old {
-		return "figure old"
+		c += " old"
 	}
-	return "figure"
+	if f.Doubtful {
+		c += " doubtful"
+	}
+	return c
 }
 
 // ChartView is a drawn chart: its id on the page, title and SVG text, and
@@ -87,21 +96,22 @@ func KindLabel(k notebook.Kind) string {
 
 // choices lists the accepted values of settings that take one of a few words.
 var choices = map[string][]string{
-	"below_detection":      {"half-limit", "zero", "limit", "leave-out"},
-	"date_order":           {"auto", "day-first", "month-first"},
-	"unit":                 {"m3/s", "L/s", "m3/day", "mm/day"},
-	"method":               {"sea-salt", "rain"},
-	"excess_chloride":      {"halite", "human"},
-	"preset":               {"global", "granite", "basalt", "custom"},
-	"model":                {"inverse", "forward"},
-	"sulfate":              {"gypsum", "sulfide", "isotope"},
-	"negative_residuals":   {"zero-and-flag", "keep"},
-	"estimator":            {"rating-curve", "discharge-weighted", "interpolation", "beale"},
-	"bias_correction":      {"smearing", "ferguson", "none"},
-	"time_scale":           {"short", "long"},
-	"sulfur_split":         {"proportional", "carbonate"},
-	"long_term_convention": {"conventional", "alkalinity"},
-	"chart-style":          {"points", "line"},
+	"below_detection":       {"half-limit", "zero", "limit", "leave-out"},
+	"date_order":            {"auto", "day-first", "month-first"},
+	"unit":                  {"m3/s", "L/s", "m3/day", "mm/day"},
+	"method":                {"sea-salt", "rain"},
+	"excess_chloride":       {"halite", "human"},
+	"preset":                {"global", "granite", "basalt", "custom"},
+	"model":                 {"inverse", "forward"},
+	"unapportioned_samples": {"leave-out", "fill-shares"},
+	"sulfate":               {"gypsum", "sulfide", "isotope"},
+	"negative_residuals":    {"zero-and-flag", "keep"},
+	"estimator":             {"rating-curve", "discharge-weighted", "interpolation", "beale"},
+	"bias_correction":       {"smearing", "ferguson", "none"},
+	"time_scale":            {"short", "long"},
+	"sulfur_split":          {"proportional", "carbonate"},
+	"long_term_convention":  {"conventional", "alkalinity"},
+	"chart-style":           {"points", "line"},
 }
 
 // unitSuffixes turn a setting key's unit ending into a readable unit.
@@ -167,6 +177,8 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			v.State, v.StateText = "refining", "point values; intervals to follow"
 		case st == notebook.UpToDate:
 			v.State, v.StateText = "ok", "up to date"
+		case st == notebook.Doubtful:
+			v.State, v.StateText = "doubtful", "doubtful"
 		case st == notebook.Stale:
 			v.State, v.StateText = "stale", "waiting to recompute"
 		case st == notebook.Waiting:
@@ -174,7 +186,11 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		default:
 			v.State, v.StateText = "problem", "problem"
 		}
-		if err != nil {
+		var de *notebook.DoubtfulError
+		switch {
+		case errors.As(err, &de):
+			v.Doubtful = "Doubtful: " + strings.Join(de.Reasons, "; ") + "."
+		case err != nil:
 			v.Problem = err.Error()
 		}
 		if c.Broken() {
@@ -244,7 +260,8 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				case o.Rough && s.hadInterval[key]: // the quick pass: the interval follows
 					iv = "95 %: computing…"
 				}
-				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Old: v.OldOutputs})
+				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Note: f.Note,
+					Old: v.OldOutputs, Doubtful: st == notebook.Doubtful})
 			}
 			v.Results = o.Tables
 			v.YearStart = waterYearStart(d, c.ID)
@@ -273,7 +290,7 @@ func Headline(cells []CellView, max int) []FigureView {
 			return 1
 		case strings.Contains(n, "silicate") && strings.Contains(n, "weathering rate"):
 			return 2
-		case n == "runoff":
+		case strings.HasPrefix(n, "runoff over"):
 			return 3
 		case strings.Contains(n, "weathering rate"):
 			return 4

@@ -16,6 +16,12 @@ type Flow struct {
 
 func init() { Register(KindDischarge, computeDischarge) }
 
+// RecordRunoffFigure names the discharge cell's runoff: that of every day
+// of the record with discharge, scaled to a year of 365.25 days. The
+// fluxes cell's (RunoffFigure) covers the complete years of the budget
+// period only.
+const RecordRunoffFigure = "runoff of the whole record"
+
 var dischargeOrders = map[string]discharge.DateOrder{"auto": discharge.AutoOrder, "day-first": discharge.DayFirst, "month-first": discharge.MonthFirst}
 
 func computeDischarge(e *Env) (*Output, error) {
@@ -85,9 +91,9 @@ func computeDischarge(e *Env) (*Output, error) {
 		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
 		if n > 0 {
 			r := mm / float64(n) * 365.25
-			out.Figures = append(out.Figures, Point("runoff", "mm/yr", r))
-			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
-			// brief §1.3; common practice, no source).
+			out.Figures = append(out.Figures, Point(RecordRunoffFigure, "mm/yr", r))
+			// Water balance: |P − ET − R| / P above 20 % is flagged (docs/methods.md
+			// §1.3; common practice, no source).
 			if site.P > 0 && site.ET > 0 {
 				if gap := math.Abs(site.P-site.ET-r) / site.P; gap > 0.2 {
 					out.Warnings = append(out.Warnings, fmt.Sprintf("water balance: P − ET = %.0f mm/yr but the record gives %.0f mm/yr of runoff (%.0f %% of P apart); check the area, P and ET", site.P-site.ET, r, 100*gap))

@@ -155,7 +155,7 @@ func mineralPhases(s *MineralSettings) ([]mineral.Phase, []string, error) {
 }
 
 // mineralWater is the water a minerals cell balances: the measured sample
-// less the rain input and, when chosen, the human input (methods brief
+// less the rain input and, when chosen, the human input (docs/methods.md
 // §4), before the evaporite and sulfate corrections, so that halite,
 // gypsum and pyrite can be balanced as minerals. HCO3 is the alkalinity
 // (carbonate alkalinity is nearly all bicarbonate below pH 8.3; common
@@ -180,7 +180,7 @@ func mineralWater(r *correct.Result) [mineral.NWater]float64 {
 }
 
 // computeMinerals balances the rain-corrected water of each sample the
-// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (methods brief §16) and, with a fluxes cell, fluxes each
+// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (docs/methods.md §16) and, with a fluxes cell, fluxes each
 // mineral's amount over the period with that cell's estimator.
 func computeMinerals(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*MineralSettings)
@@ -221,7 +221,7 @@ func computeMinerals(e *Env) (*Output, error) {
 		}
 		v.Names, v.Days = append(v.Names, sm.ID), append(v.Days, atm.Samples.Days[i].String())
 		v.Water, v.Solution = append(v.Water, w), append(v.Solution, b.Solve(w))
-		days = append(days, dayOf{atm.Samples.Days[i], sm.Q})
+		days = append(days, dayOf{atm.Samples.Days[i], sm.Q, cationCharges(sm.C)})
 	}
 	if len(negative) > 0 {
 		var parts []string
@@ -313,10 +313,12 @@ func (v *MineralBalance) leansHigh() []string {
 type dayOf struct {
 	day discharge.Day
 	q   float64
+	tz  float64 // measured cation charge Na + K + 2Ca + 2Mg, µeq/L
 }
 
 // flux fluxes each mineral's amounts with the fluxes cell's estimator and
-// bootstrap (point values in the quick pass). A secondary mineral that
+// bootstrap (point values in the quick pass), through the samples'
+// measured cation charge (Fluxes.fitAmounts). A secondary mineral that
 // only forms is fluxed as the amount formed, then given its sign back.
 func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error) {
 	var warns []string
@@ -330,7 +332,7 @@ func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error
 			return nil, err
 		}
 		e.Report(j, len(v.Balance.Phases))
-		ser := flux.Series{Name: p.Key, Days: make([]discharge.Day, n), Q: make([]float64, n), C: make([]float64, n)}
+		amt := make([]float64, n)
 		sign := 1.0
 		if p.Secondary {
 			sign = -1
@@ -341,9 +343,9 @@ func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error
 			}
 		}
 		for i, sol := range v.Solution {
-			ser.Days[i], ser.Q[i], ser.C[i] = days[i].day, days[i].q, sign*sol.Amount[j]
+			amt[i] = sign * sol.Amount[j]
 		}
-		f, w, err := fv.fit(ser, reps)
+		f, w, err := fv.fitAmounts(p.Key, days, amt, reps)
 		warns = append(warns, w...)
 		if err != nil {
 			warns = append(warns, err.Error())

@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"strings"
 )
 
 // EngineVersion is stored in every file this engine writes; a snapshot
@@ -84,6 +85,14 @@ func (d *Document) outputOf(id string) (*Output, error) {
 	return s.out, nil
 }
 
+// DoubtfulError gives the reasons a cell's result is doubtful.
+type DoubtfulError struct {
+	Reasons []string
+}
+
+// Error joins the reasons.
+func (e *DoubtfulError) Error() string { return "doubtful: " + strings.Join(e.Reasons, "; ") }
+
 // InputError says that a cell waits on an input cell that has a problem.
 type InputError struct {
 	Cell string // id of the input cell with the problem
@@ -124,14 +133,16 @@ const (
 	Waiting               // an input cell has a problem
 	Problem               // failed; see Status.Err
 	Refining              // point values computed, intervals to follow (Document.Quick)
+	Doubtful              // computed, but rests on failed fits or unbracketed flow (Output.Doubtful says why)
 )
 
-var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem", "computing intervals"}
+var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem", "computing intervals", "doubtful"}
 
 // String returns the state as the page shows it.
 func (s State) String() string { return stateNames[s] }
 
-// Status returns the state of a cell and, for Waiting and Problem, why.
+// Status returns the state of a cell and, for Waiting, Problem and
+// Doubtful, why (for Doubtful, a DoubtfulError listing the reasons).
 func (d *Document) Status(id string) (State, error) {
 	c := d.Cell(id)
 	if c == nil {
@@ -144,6 +155,8 @@ func (d *Document) Status(id string) (State, error) {
 		return Stale, nil
 	case s.err == nil && s.rough:
 		return Refining, nil
+	case s.err == nil && s.out != nil && len(s.out.Doubtful) > 0:
+		return Doubtful, &DoubtfulError{Reasons: s.out.Doubtful}
 	case s.err == nil:
 		return UpToDate, nil
 	case errors.As(s.err, &ie):

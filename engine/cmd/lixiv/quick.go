@@ -146,10 +146,14 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			perSample(stdout, d)
 		}
 	}
+	var bad, doubt []string
 	if p := cellProblems(d); len(p) > 0 {
-		return problemsError([]string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")})
+		bad = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
 	}
-	return nil
+	if p := doubtfulCells(d); len(p) > 0 {
+		doubt = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
+	}
+	return problemsError(bad, doubt)
 }
 
 // columnList collects the repeated -use-column flag.
