@@ -19,9 +19,6 @@ func init() { Register(KindDischarge, computeDischarge) }
 func computeDischarge(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*DischargeSettings)
 	t := e.Cell.Table
-	if t == nil || len(t.Columns) == 0 {
-		return nil, fmt.Errorf("the discharge table is empty: paste or open a daily discharge record")
-	}
 	var site *Site
 	if o, err := e.Input("site"); err != nil {
 		return nil, err
@@ -45,7 +42,8 @@ func computeDischarge(e *Env) (*Output, error) {
 		opt.AreaKm2 = site.AreaKm2
 	}
 	im := discharge.ReadString(t.TSV(), opt)
-	out := &Output{}
+	out := &Output{Marks: dischargeMarks(t, im.Problems, 0)} // before the lines become the file's
+	out.Reading = dischargeReading(t, im, len(out.Marks))
 	for _, p := range im.Problems {
 		if l, ok := lines[p.Row]; ok && p.Row > 0 {
 			p.Row = l
@@ -54,7 +52,7 @@ func computeDischarge(e *Env) (*Output, error) {
 	}
 	rec := im.Record
 	if rec == nil || rec.Len() == 0 {
-		return nil, fmt.Errorf("no discharge could be read: %v", im.Problems.Err())
+		return out, fmt.Errorf("no discharge could be read: %v", im.Problems.Err())
 	}
 	if s.GapFillDays > 0 {
 		var rep discharge.FillReport
@@ -92,7 +90,9 @@ func computeDischarge(e *Env) (*Output, error) {
 		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
 		if n > 0 {
 			r := mm / float64(n) * 365.25
-			out.Figures = append(out.Figures, Point("runoff", "mm/yr", r))
+			f := Point("runoff", "mm/yr", r)
+			f.Note = "from the record: every day with a value, scaled to a year; without discharge or area errors"
+			out.Figures = append(out.Figures, f)
 			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
 			// brief §1.3; common practice, no source).
 			if site.P > 0 && site.ET > 0 {

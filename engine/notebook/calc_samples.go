@@ -44,9 +44,6 @@ var sampleOrders = map[string]sample.DateOrder{"auto": sample.DateAuto, "day-fir
 func computeSamples(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*SamplesSettings)
 	t := e.Cell.Table
-	if t == nil || len(t.Columns) == 0 {
-		return nil, fmt.Errorf("the sample table is empty: paste or open a table of water samples")
-	}
 	// Messages name the cell by its id, which (unlike the title) only an
 	// edit that recomputes the cell can change; a table read from a file
 	// this session (Table.Source) is named by the file, its lines counted
@@ -63,20 +60,26 @@ func computeSamples(e *Env) (*Output, error) {
 	if tab.Problems.Count(sample.ErrNotTable) == 0 {
 		tab.Problems = append(tab.Problems, tab.Require(sample.Date)...)
 	}
+	out := &Output{Marks: samplesMarks(t, tab.Problems, 0)} // before the lines become the file's
 	if src {
 		toFileLines(tab, t)
 	}
-	out := &Output{}
 	for _, p := range tab.Problems {
 		out.Warnings = append(out.Warnings, p.Error())
 	}
 	n := len(tab.Samples)
 	if n == 0 {
+		out.Reading = samplesReading(t, tab, s, nil, len(out.Marks))
 		return out, fmt.Errorf("no samples could be read: %v", tab.Problems.Err())
 	}
 	v := &Samples{Table: tab, Use: make([]bool, n), NICB: make([]float64, n), Days: make([]discharge.Day, n)}
 	ids, dates, flags := make([]string, n), make([]string, n), make([]string, n)
 	species := []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2, chem.Sr}
+	for _, sp := range tab.Species() {
+		if sp == chem.HCO3 { // a lab's HCO3 is shown as it was given, beside Alk
+			species = append(species[:8:8], append([]chem.Species{chem.HCO3}, species[8:]...)...)
+		}
+	}
 	conc := make([][]float64, len(species))
 	// The charge balance is engine/qc's, with the cell's thresholds, so the
 	// notebook and the quality-control report agree sample by sample.
@@ -126,6 +129,7 @@ func computeSamples(e *Env) (*Output, error) {
 	out.Tables = append(out.Tables, &ResultTable{Name: "samples", Title: "Samples in µmol/L with charge balance", Columns: cols})
 	out.Figures = append(out.Figures, Point("samples read", "", float64(n)), Point("samples flagged", "", float64(flagged)),
 		Point("samples left out", "", float64(left)))
+	out.Reading = samplesReading(t, tab, s, flags, len(out.Marks))
 	if left == n {
 		return out, noneUsed(tab, flags)
 	}

@@ -2,7 +2,6 @@ package notebook
 
 import (
 	"context"
-	"errors"
 	"fmt"
 )
 
@@ -79,18 +78,23 @@ func (d *Document) outputOf(id string) (*Output, error) {
 		return nil, fmt.Errorf("cell %q has not been computed", id)
 	}
 	if s.err != nil {
-		return nil, &InputError{Cell: id}
+		return nil, &InputError{Cell: id, Waits: needing(s.err)}
 	}
 	return s.out, nil
 }
 
-// InputError says that a cell waits on an input cell that has a problem.
+// InputError says that a cell waits on an input cell that has a problem,
+// or that waits itself for something it needs (Document.Needs says what).
 type InputError struct {
-	Cell string // id of the input cell with the problem
+	Cell  string // id of the input cell
+	Waits bool   // the input waits for what it needs, rather than having a problem
 }
 
 // Error implements error.
 func (e *InputError) Error() string {
+	if e.Waits {
+		return fmt.Sprintf("waiting for cell %q, which waits for what it needs", e.Cell)
+	}
 	return fmt.Sprintf("waiting for cell %q, which has a problem", e.Cell)
 }
 
@@ -138,7 +142,6 @@ func (d *Document) Status(id string) (State, error) {
 		return Problem, fmt.Errorf("no cell named %q", id)
 	}
 	s := d.st(id)
-	var ie *InputError
 	switch {
 	case s.stale:
 		return Stale, nil
@@ -146,7 +149,7 @@ func (d *Document) Status(id string) (State, error) {
 		return Refining, nil
 	case s.err == nil:
 		return UpToDate, nil
-	case errors.As(s.err, &ie):
+	case needing(s.err):
 		return Waiting, s.err
 	}
 	return Problem, s.err
@@ -257,11 +260,16 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 	f := d.funcs[c.Kind]
 	if f == nil {
 		f = computers[c.Kind]
+		// What the cell itself lacks first: the user supplies it there.
+		// (A document's own functions, set by tests, decide for themselves.)
+		if n := need(c); n != nil {
+			return nil, n
+		}
 	}
 	if f == nil {
 		return nil, fmt.Errorf("no computation for %s cells", c.Kind)
 	}
-	for _, r := range c.Kind.Roles() { // inputs first: a clear message if one is missing or failed
+	for _, r := range c.Kind.Roles() { // then its inputs: a clear message if one is missing or failed
 		id, err := d.resolve(c, r)
 		if err != nil {
 			return nil, err

@@ -29,6 +29,17 @@
 // below it wait. A panic inside a computation becomes a Problem, never a
 // crash.
 //
+// A cell that lacks what it cannot compute without — the site's area, the
+// samples or discharge table, the end-members — waits (a *NeedError, state
+// Waiting), and so do the cells that read it; Needs lists what a cell waits
+// for, through the cells it reads, without computing. NewBudget gives a
+// budget of the usual cells that waits for exactly those. Messages about a
+// setting name it by its label (SettingLabel, *SettingError), as the page
+// shows it; a budget file's problems name its key. The samples and
+// discharge cells say in Output.Reading how they read their table (each
+// column, and what the importer substituted, inferred or left out) and in
+// Output.Marks which warnings concern which row and column of it.
+//
 // The computation of each kind is a ComputeFunc registered with Register;
 // the built-in ones call the engine packages sample, discharge, correct,
 // mix, flux and co2. Their typed results (Site, Samples, Flow, Atmosphere,

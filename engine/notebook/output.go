@@ -13,6 +13,11 @@ type Output struct {
 	// Value is the typed result cells below read (for example the
 	// apportioned samples); it is not written to files.
 	Value any
+	// Reading says how the cell read its data table, and Marks which
+	// warnings are about which places of it (samples and discharge
+	// cells). Neither is part of the stored results.
+	Reading *Reading
+	Marks   []Mark
 }
 
 // Table returns the output table with the given name, or nil.
@@ -102,6 +107,10 @@ type Figure struct {
 	Median float64 // central value
 	Low    float64 // 2.5 % bound
 	High   float64 // 97.5 % bound
+	// Note says how the figure was formed where two figures of one name
+	// differ in that ("over the whole record", "over complete years");
+	// it is for the reader and not part of the stored results.
+	Note string
 }
 
 // Point returns a figure without an interval.
