@@ -16,7 +16,7 @@ func newTestSession(t *testing.T) *Session {
 	if _, err := d.Add(notebook.KindNote, -1); err != nil {
 		t.Fatal(err)
 	}
-	s := NewSession(d, "test.lixiv.json")
+	s := NewSession(d, "test.lixiv.json", Origin{})
 	return s
 }
 
@@ -124,23 +124,6 @@ func TestMoveAndRemove(t *testing.T) {
 	}
 }
 
-func TestParamLabel(t *testing.T) {
-	tests := []struct{ key, want string }{
-		{"area_km2", "area (km²)"},
-		{"na_per_cl", "Na/Cl (mol/mol)"},
-		{"so4_per_cl", "SO4/Cl (mol/mol)"},
-		{"discharge_uncertainty_percent", "discharge uncertainty (%)"},
-		{"critical_chloride_umol", "critical chloride (µmol/L)"},
-		{"draws", "draws"},
-		{"nicb_flag_percent", "NICB flag (%)"},
-	}
-	for _, tt := range tests {
-		if got := ParamLabel(tt.key); got != tt.want {
-			t.Errorf("ParamLabel(%q): got %q, want %q", tt.key, got, tt.want)
-		}
-	}
-}
-
 func TestHeadlineOrder(t *testing.T) {
 	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "runoff", Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
@@ -202,7 +185,7 @@ func TestEdited(t *testing.T) {
 	if err := s.Redo(); err != nil {
 		t.Fatal(err)
 	}
-	s.Replace(notebook.New("Another"), "another.lixiv.json")
+	s.Replace(notebook.New("Another"), "another.lixiv.json", Origin{Checked: true})
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
 	}

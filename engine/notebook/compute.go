@@ -3,6 +3,7 @@ package notebook
 import (
 	"context"
 	"fmt"
+	"slices"
 )
 
 // EngineVersion is stored in every file this engine writes; a snapshot
@@ -33,6 +34,7 @@ type Env struct {
 	doc      *Document
 	progress func(Progress)
 	rough    bool
+	without  []string // optional inputs left out: they lack what they need
 }
 
 // Rough reports that this is the quick first pass of Document.Quick: the
@@ -50,7 +52,7 @@ func (e *Env) Input(role string) (*Output, error) {
 		if err != nil {
 			return nil, err
 		}
-		if id == "" {
+		if id == "" || slices.Contains(e.without, id) {
 			return nil, nil
 		}
 		return e.doc.outputOf(id)
@@ -78,7 +80,7 @@ func (d *Document) outputOf(id string) (*Output, error) {
 		return nil, fmt.Errorf("cell %q has not been computed", id)
 	}
 	if s.err != nil {
-		return nil, &InputError{Cell: id, Waits: needing(s.err)}
+		return nil, &InputError{Cell: id, Waits: lacking(s.err)}
 	}
 	return s.out, nil
 }
@@ -149,7 +151,7 @@ func (d *Document) Status(id string) (State, error) {
 		return Refining, nil
 	case s.err == nil:
 		return UpToDate, nil
-	case needing(s.err):
+	case waiting(s.err):
 		return Waiting, s.err
 	}
 	return Problem, s.err
@@ -269,13 +271,20 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 	if f == nil {
 		return nil, fmt.Errorf("no computation for %s cells", c.Kind)
 	}
-	for _, r := range c.Kind.Roles() { // then its inputs: a clear message if one is missing or failed
+	// Then its inputs: a clear message if one is missing or failed. An
+	// optional input that lacks what it needs is left out, and said so.
+	var without []string
+	for _, r := range c.Kind.Roles() {
 		id, err := d.resolve(c, r)
 		if err != nil {
 			return nil, err
 		}
 		if id != "" {
 			if _, err := d.outputOf(id); err != nil {
+				if r.Optional && lacking(d.st(id).err) {
+					without = append(without, id)
+					continue
+				}
 				return nil, err
 			}
 		}
@@ -285,9 +294,14 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 			out, err = nil, fmt.Errorf("internal error in the %s computation: %v", c.Kind, r)
 		}
 	}()
-	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress, rough: rough})
+	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress, rough: rough, without: without})
 	if err == nil && out == nil {
 		out = &Output{}
+	}
+	if out != nil {
+		for _, id := range without {
+			out.Warnings = append(out.Warnings, fmt.Sprintf("computed without cell %q, which waits for %s", id, d.whatLacks(id)))
+		}
 	}
 	return out, err
 }

@@ -31,8 +31,9 @@
 //
 // A cell that lacks what it cannot compute without — the site's area, the
 // samples or discharge table, the end-members — waits (a *NeedError, state
-// Waiting), and so do the cells that read it; Needs lists what a cell waits
-// for, through the cells it reads, without computing. NewBudget gives a
+// Waiting), and so do the cells that must read it; a cell for which it is an
+// optional input computes without it and says so in a warning. Needs lists
+// what a cell waits for, through the cells it reads, without computing. NewBudget gives a
 // budget of the usual cells that waits for exactly those. Messages about a
 // setting name it by its label (SettingLabel, *SettingError), as the page
 // shows it; a budget file's problems name its key. The samples and

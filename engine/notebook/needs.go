@@ -1,6 +1,9 @@
 package notebook
 
-import "errors"
+import (
+	"errors"
+	"strings"
+)
 
 // NeedError says that a cell has not been given something it cannot
 // compute without: a setting (Key) or its data table (Key ""). It is not a
@@ -46,9 +49,11 @@ func need(c *Cell) *NeedError {
 }
 
 // Needs lists what cell id waits for before it can compute: what it lacks
-// itself and what the cells it reads lack, directly or through others, in
-// document order. It is empty when nothing is missing (the cell may still
-// have a problem of another kind). It does not need the document computed.
+// itself and what the cells it must read lack, directly or through others,
+// in document order. An optional input is not among them: a cell computes
+// without an optional input that lacks something, and says so in a
+// warning. Needs is empty when nothing is missing (the cell may still have
+// a problem of another kind). It does not need the document computed.
 func (d *Document) Needs(id string) []Need {
 	c := d.Cell(id)
 	if c == nil {
@@ -61,7 +66,7 @@ func (d *Document) Needs(id string) []Need {
 			return
 		}
 		up[c.ID] = true
-		for _, dep := range d.depIDs(c) {
+		for _, dep := range d.requiredIDs(c) {
 			if dc := d.Cell(dep); dc != nil {
 				walk(dc)
 			}
@@ -80,10 +85,43 @@ func (d *Document) Needs(id string) []Need {
 	return out
 }
 
-// needing reports whether err says a cell waits for something it lacks:
-// its own NeedError, or an input that waits.
-func needing(err error) bool {
+// lacking reports whether err says a cell waits for something it lacks:
+// its own NeedError, or an input that lacks something.
+func lacking(err error) bool {
+	var ne *NeedError
+	var ie *InputError
+	return errors.As(err, &ne) || errors.As(err, &ie) && ie.Waits
+}
+
+// waiting reports whether err makes a cell wait rather than fail: it lacks
+// something, or an input has a problem.
+func waiting(err error) bool {
 	var ne *NeedError
 	var ie *InputError
 	return errors.As(err, &ne) || errors.As(err, &ie)
+}
+
+// requiredIDs returns the ids of the cells c must read: the cells of its
+// required roles, and for a chart the cells it plots.
+func (d *Document) requiredIDs(c *Cell) []string {
+	var ids []string
+	for _, r := range c.Kind.Roles() {
+		if id, _ := d.resolve(c, r); id != "" && !r.Optional {
+			ids = append(ids, id)
+		}
+	}
+	return append(ids, chartRefs(c)...)
+}
+
+// whatLacks says what cell id waits for, for a warning of a cell that
+// computed without it.
+func (d *Document) whatLacks(id string) string {
+	var what []string
+	for _, n := range d.Needs(id) {
+		what = append(what, n.What)
+	}
+	if len(what) == 0 {
+		return "what it needs"
+	}
+	return strings.Join(what, "; ")
 }

@@ -34,12 +34,12 @@ func TestNewBudgetWaitsForWhatItNeeds(t *testing.T) {
 	}{
 		{"site", []string{"site/area_km2"}},
 		{"samples", []string{"samples/"}},
-		{"discharge", []string{"site/area_km2", "discharge/"}},
-		{"rain", []string{"site/area_km2", "samples/"}},
+		{"discharge", []string{"discharge/"}}, // the site is an optional input
+		{"rain", []string{"samples/"}},
 		{"sources", nil},
-		{"apportionment", []string{"site/area_km2", "samples/"}},
+		{"apportionment", []string{"samples/"}},
 		{"fluxes", []string{"site/area_km2", "samples/", "discharge/"}},
-		{"co2", []string{"site/area_km2", "samples/", "discharge/"}},
+		{"co2", []string{"samples/"}}, // the fluxes are an optional input
 	}
 	for _, tt := range tests {
 		if got := needs(tt.cell); !reflect.DeepEqual(got, tt.want) {
@@ -67,13 +67,43 @@ func TestNewBudgetWaitsForWhatItNeeds(t *testing.T) {
 	if _, err := d.Status("co2"); err == nil || !strings.Contains(err.Error(), "waits for what it needs") {
 		t.Errorf("co2: got %v, want it waiting on a cell that waits", err)
 	}
-	// Given what they need, the cells compute.
+	// With the samples and the discharge record but no area, the cells
+	// that can compute do, without the inputs that wait, and say so.
 	full := sallowmere(t)
+	if err := full.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range full.Cells {
+		st, err := full.Status(c.ID)
+		if want := c.ID == "site" || c.ID == "fluxes"; (st == Waiting) != want {
+			t.Errorf("%s without the area: got %v (%v)", c.ID, st, err)
+		}
+	}
+	for id, want := range map[string]string{
+		"discharge": `computed without cell "site", which waits for the catchment area (km²)`,
+		"co2":       `computed without cell "fluxes", which waits for the catchment area (km²)`,
+	} {
+		if w := strings.Join(full.Output(id).Warnings, "\n"); !strings.Contains(w, want) {
+			t.Errorf("%s warnings: got %q, want %q", id, w, want)
+		}
+	}
+	if full.Output("discharge").Figure("runoff") != nil {
+		t.Errorf("a runoff without the area")
+	}
+	// Given the area, nothing waits.
 	if err := full.SetParam("site", "area_km2", "250"); err != nil {
 		t.Fatal(err)
 	}
 	if n := full.Needs("co2"); len(n) != 0 {
 		t.Errorf("needs with area, samples and discharge: got %v, want none", n)
+	}
+	if err := full.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	for _, id := range []string{"discharge", "co2"} {
+		if w := strings.Join(full.Output(id).Warnings, "\n"); strings.Contains(w, "computed without") {
+			t.Errorf("%s with the area: %q", id, w)
+		}
 	}
 }
 
@@ -157,6 +187,8 @@ func TestTableKind(t *testing.T) {
 		{[]string{"Sample", "Date", "Na (mg/L)", "Q (L/s)"}, KindSamples},
 		{[]string{"Sample", "Date", "HCO3"}, KindSamples},
 		{[]string{"anything"}, KindSamples},
+		{[]string{"Date", "discharge_m3s"}, KindDischarge},
+		{[]string{"date", "Q", "Ca"}, KindSamples},
 	}
 	for _, tt := range tests {
 		if got := TableKind(&Table{Columns: tt.cols}); got != tt.want {

@@ -138,7 +138,7 @@ func samplesReading(t *Table, tab *sample.Table, s *SamplesSettings, flags []str
 			cr.As = "not used"
 		case c.Kind == sample.Concentration && c.Species == chem.HCO3 && !hasAlk:
 			// qc.Balance takes HCO3 as the alkalinity when a sample has none.
-			cr.Note = strings.TrimPrefix(cr.Note+"; taken as alkalinity in the charge balance (the table has no alkalinity column)", "; ")
+			cr.Note = strings.TrimPrefix(cr.Note+"; taken as alkalinity in the charge balance, as the table has no alkalinity column", "; ")
 		}
 		r.Columns = append(r.Columns, cr)
 	}
