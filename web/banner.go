@@ -10,16 +10,20 @@ import (
 // how the cell read each column, and what the importer substituted,
 // inferred or left out, in the engine's words (notebook.Reading).
 type BannerView struct {
-	Title   string // "The Samples cell took sallowmere-samples.csv (opened)"
+	Title   string // "The Samples cell took sallowmere-samples.csv"
 	Cell    string // the cell's id, for the link; "" for a budget file
 	Link    string // the link's text
 	Lines   []string
 	Columns []notebook.ColumnReading
 	Notes   []string
-	Reading bool // the cell has not read the table yet
+	Places  []string // the table's problems, as placed beside it (the first few)
+	Reading bool     // the cell has not read the table yet
 	Problem string
 	Unused  int // columns not used
 }
+
+// bannerPlaces is how many of a table's problems the banner lists.
+const bannerPlaces = 5
 
 // bannerView gathers the banner from the document; nil without a banner.
 func (c *Root) bannerView() *BannerView {
@@ -62,6 +66,18 @@ func (c *Root) bannerView() *BannerView {
 		return v
 	}
 	v.Columns, v.Notes = r.Columns, r.Notes
+	for _, cv := range c.Cells {
+		if cv.ID != b.Cell {
+			continue
+		}
+		for i, p := range cv.TableProblems {
+			if i == bannerPlaces {
+				v.Places = append(v.Places, fmt.Sprintf("and %d more, listed under the table", len(cv.TableProblems)-i))
+				break
+			}
+			v.Places = append(v.Places, p.Text)
+		}
+	}
 	for _, col := range r.Columns {
 		if !col.Used {
 			v.Unused++

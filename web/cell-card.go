@@ -573,3 +573,39 @@ func (c *CellCard) ResultName(ti int) string {
 	}
 	return t.Name
 }
+
+// NeedsOwnTable reports a cell that waits for its own table: the line
+// saying so stands in for the empty table's hint.
+func (c *CellCard) NeedsOwnTable() bool {
+	for _, n := range c.V.Needs {
+		if n.Cell == c.V.ID && n.Field == "" {
+			return true
+		}
+	}
+	return false
+}
+
+// ShowProblem brings the field a table problem names into view, with the
+// focus: its rows are shown first when they are folded away.
+func (c *CellCard) ShowProblem(p TableProblem) {
+	if p.Row >= c.R.shown(c.V.ID) {
+		c.R.rows[c.V.ID] = p.Row + 1
+	}
+	col := p.Col
+	if col < 0 {
+		col = 0
+	}
+	c.R.focusAfter = fmt.Sprintf(`#table-%s input[data-edit="%s"][data-row="%d"][data-col="%d"]`, c.V.ID, editOf(p.Row), max(p.Row, -1), col)
+}
+
+// editOf is the data-edit of the fields of a table row: the names, the
+// units or the values.
+func editOf(row int) string {
+	switch row {
+	case notebook.HeaderRow:
+		return "column"
+	case notebook.UnitsRow:
+		return "unit"
+	}
+	return "value"
+}

@@ -495,7 +495,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							}
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							if len(c.V.Table.Columns) == 0 {
+							if len(c.V.Table.Columns) == 0 && !c.NeedsOwnTable() {
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
 								vgparent.AppendChild(vgn)
 								vgn.SetInnerHTML(c.EmptyTableHint())
@@ -540,7 +540,19 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											_ = p
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(p.Text)
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
+												vgparent.AppendChild(vgn)
+												vgn.AddAttrInterface("aria-label", "Show in the table: "+p.Text)
+												vgn.SetInnerHTML(p.Text)
+												vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+													EventType: "click",
+													Func:      func(event vugu.DOMEvent) { c.ShowProblem(p) },
+													// TODO: implement capture, etc. mostly need to decide syntax
+												})
+											}
 										}
 									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}

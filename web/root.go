@@ -64,6 +64,7 @@ type Root struct {
 	docTitle    string  // the browser tab's title as last set
 	startMsg    string  // a problem met before the budget opened
 	gen         int     // completed recomputes
+	focusAfter  string  // a field to give the focus once the page has rendered
 	ready       bool
 	keys        js.Func
 	rows        map[string]int // rows shown per input table
@@ -261,6 +262,16 @@ func (c *Root) Rendered() {
 	ds := body.Get("dataset")
 	if c.buildStart > 0 { // for the timing harness: the cost of one full render
 		js.Global().Set("lixivLastRender", nowMillis()-c.buildStart)
+	}
+	if c.focusAfter != "" {
+		if el := js.Global().Get("document").Call("querySelector", c.focusAfter); el.Truthy() {
+			el.Call("focus")
+			opt := js.Global().Get("Object").New()
+			opt.Set("block", "center")
+			opt.Set("inline", "center")
+			el.Call("scrollIntoView", opt)
+		}
+		c.focusAfter = ""
 	}
 	if !c.ready && c.S != nil && c.Loading == "" {
 		c.ready = true

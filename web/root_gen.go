@@ -418,6 +418,17 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							vgparent.AppendChild(vgn)
 							vgn.SetInnerHTML(n)
 						}
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+						vgparent.AppendChild(vgn)
+						for vgiterkeyt, n := range c.BannerV.Places {
+							var vgiterkey interface{} = vgiterkeyt
+							_ = vgiterkey
+							n := n
+							_ = n
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "problem-line"}}}
+							vgparent.AppendChild(vgn)
+							vgn.SetInnerHTML(n)
+						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 						vgparent.AppendChild(vgn)
 					}

@@ -45,8 +45,8 @@ func TestUndoRedo(t *testing.T) {
 	}{
 		{"after edits", func() error { return nil }, "14"},
 		{"undo", s.Undo, "12.5"},
-		{"undo again", s.Undo, "0"},
-		{"undo with nothing left", s.Undo, "0"},
+		{"undo again", s.Undo, ""},
+		{"undo with nothing left", s.Undo, ""},
 		{"redo", s.Redo, "12.5"},
 		{"redo again", s.Redo, "14"},
 	}

@@ -297,11 +297,13 @@ func fromDemo(demo, c *notebook.Cell, p notebook.Param) bool {
 	return p.Value == dv && dv != def
 }
 
-// monthLabels names the choices of the first month of the reporting year.
+// monthLabels names the choices of the first month of the reporting year:
+// "January to December (calendar year)", then "February to January (water
+// year)" and so on.
 func monthLabels() []string {
-	out := []string{"calendar year (January to December)"}
+	out := []string{"January to December (calendar year)"}
 	for m := 2; m <= 12; m++ {
-		out = append(out, "water year from "+monthNames[m-1]+" ("+monthNames[m-1]+" to "+monthNames[m-2]+")")
+		out = append(out, monthNames[m-1]+" to "+monthNames[m-2]+" (water year)")
 	}
 	return out
 }

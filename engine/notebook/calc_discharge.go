@@ -91,7 +91,7 @@ func computeDischarge(e *Env) (*Output, error) {
 		if n > 0 {
 			r := mm / float64(n) * 365.25
 			f := Point("runoff", "mm/yr", r)
-			f.Note = "from the record: every day with a value, scaled to a year; without discharge or area errors"
+			f.Note = "from the record: every day with a value; no discharge or area errors"
 			out.Figures = append(out.Figures, f)
 			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
 			// brief §1.3; common practice, no source).

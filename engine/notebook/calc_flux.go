@@ -390,7 +390,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	e.Report(len(jobs), len(jobs))
 	if runoff.Name != "" {
-		runoff.Note = "from the flux estimate: mean of the complete reporting years it covers; the interval carries the discharge and area errors"
+		runoff.Note = "from the flux estimate: complete reporting years; interval with the discharge and area errors"
 		out.Figures = append(out.Figures, runoff)
 	}
 	out.Figures = append(out.Figures, figs...)

@@ -123,7 +123,11 @@ func TestBlankMeansUnknown(t *testing.T) {
 			if p.Value != "" || p.Blank != "unknown" {
 				t.Errorf("%s: got value %q, blank %q; want an empty field that means unknown", p.Key, p.Value, p.Blank)
 			}
-		case "area_km2", "area_uncertainty_percent":
+		case "area_km2":
+			if p.Value != "" || p.Blank != "needed" {
+				t.Errorf("area of a new budget: got value %q, blank %q; want an empty field the budget needs", p.Value, p.Blank)
+			}
+		case "area_uncertainty_percent":
 			if p.Blank != "" {
 				t.Errorf("%s may not be blank", p.Key)
 			}

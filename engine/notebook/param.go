@@ -14,8 +14,9 @@ type Param struct {
 	Value string // current value as text; lists are comma-separated
 	Type  string // "number", "integer", "text", "yes/no" or "list"
 	// Blank is what an empty field means for a setting that may be left
-	// empty ("unknown"), "" for the others. Such a setting holds 0 when
-	// empty, and its Value is then "".
+	// empty ("unknown", "not given", "needed" where the budget cannot do
+	// without it), "" for the others. Such a setting holds 0 when empty,
+	// and its Value is then "".
 	Blank string
 }
 

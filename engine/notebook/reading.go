@@ -198,6 +198,12 @@ func dischargeReading(t *Table, im *discharge.Import, marks int) *Reading {
 		}
 		r.Columns = append(r.Columns, cr)
 	}
-	r.Notes = append(r.Notes, im.Notes...)
+	for _, n := range im.Notes {
+		// The importer reads the table as the cell holds it (tab-separated
+		// text); how the file itself was split is not its to say.
+		if !strings.HasPrefix(n, "columns separated by") {
+			r.Notes = append(r.Notes, n)
+		}
+	}
 	return withMarks(r, marks)
 }

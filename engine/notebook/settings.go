@@ -18,15 +18,15 @@ type Settings interface {
 
 // SiteSettings describe the catchment above the gauge.
 type SiteSettings struct {
-	Name               string  `json:"name"`                                  // catchment name
-	AreaKm2            float64 `json:"area_km2"`                              // area above the gauge, km²
-	AreaUncertainty    float64 `json:"area_uncertainty_percent"`              // 1σ, % of the area
-	Precipitation      float64 `json:"precipitation_mm" blank:"unknown"`      // mean annual P, mm/yr (0 = unknown; blank in a field)
-	Evapotranspiration float64 `json:"evapotranspiration_mm" blank:"unknown"` // mean annual ET, mm/yr (0 = unknown; blank in a field)
-	PeriodStart        string  `json:"period_start"`                          // first day of the budget, YYYY-MM-DD ("" = record start)
-	PeriodEnd          string  `json:"period_end"`                            // last day, YYYY-MM-DD ("" = record end)
-	WaterYearStart     int     `json:"water_year_start_month"`                // 1 = calendar year, 10 = October
-	Latitude           float64 `json:"latitude_degrees,omitempty"`            // optional, for the reader only
+	Name               string  `json:"name"`                                         // catchment name
+	AreaKm2            float64 `json:"area_km2" blank:"needed"`                      // area above the gauge, km² (0 = not given; blank in a field)
+	AreaUncertainty    float64 `json:"area_uncertainty_percent"`                     // 1σ, % of the area
+	Precipitation      float64 `json:"precipitation_mm" blank:"unknown"`             // mean annual P, mm/yr (0 = unknown; blank in a field)
+	Evapotranspiration float64 `json:"evapotranspiration_mm" blank:"unknown"`        // mean annual ET, mm/yr (0 = unknown; blank in a field)
+	PeriodStart        string  `json:"period_start"`                                 // first day of the budget, YYYY-MM-DD ("" = record start)
+	PeriodEnd          string  `json:"period_end"`                                   // last day, YYYY-MM-DD ("" = record end)
+	WaterYearStart     int     `json:"water_year_start_month"`                       // 1 = calendar year, 10 = October
+	Latitude           float64 `json:"latitude_degrees,omitempty" blank:"not given"` // optional, for the reader only (0 = not given; blank in a field)
 }
 
 // SamplesSettings control how the sample table is read.

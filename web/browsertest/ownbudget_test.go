@@ -208,6 +208,14 @@ func TestNonNumberMarkedInItsCell(t *testing.T) {
 	if w := text(t, ctx, "#warnings-samples"); strings.Contains(w, "O.95") {
 		t.Errorf("the problem is also listed far from the table: %q", w)
 	}
+	if b := text(t, ctx, "#import-banner"); !strings.Contains(b, `row 7 (line 8 of sallowmere-samples.csv), column K (mg/L): "O.95": not a number`) {
+		t.Errorf("the banner does not list the problem: %q", b)
+	}
+	// The message takes the user to the field.
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#problems-samples button"))); err != nil {
+		t.Fatal(err)
+	}
+	waitFor(t, ctx, "the focus on the marked field", fmt.Sprintf(`document.activeElement === document.querySelector(%q)`, field))
 }
 
 // TestUndoInTableField edits a value in the samples table and presses the
