@@ -609,3 +609,17 @@ func editOf(row int) string {
 	}
 	return "value"
 }
+
+// DemoValues reports a cell that still holds values of the demo (settings
+// or its table) in a budget grown from it.
+func (c *CellCard) DemoValues() bool {
+	if c.V.TableOrigin == "the demo" {
+		return true
+	}
+	for _, p := range c.V.Params {
+		if p.FromDemo {
+			return true
+		}
+	}
+	return false
+}

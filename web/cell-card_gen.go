@@ -76,6 +76,18 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgn.SetInnerHTML(c.V.StateText)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 			vgparent.AppendChild(vgn)
+			if c.DemoValues() {
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "origin demo-tag"}}}
+				vgparent.AppendChild(vgn)
+				{
+					vgparent := vgn
+					_ = vgparent
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "holds values of the demo"}
+					vgparent.AppendChild(vgn)
+				}
+			}
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+			vgparent.AppendChild(vgn)
 			if c.V.State == "running" {
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "progress", Attr: []vugu.VGAttribute{{Namespace: "", Key: "max", Val: "1"}}}
 				vgparent.AppendChild(vgn)
@@ -441,19 +453,21 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 								vgparent.AppendChild(vgn)
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-								vgparent.AppendChild(vgn)
-								vgn.AddAttrInterface("aria-label", "Add a row to the "+c.V.Title+" table")
-								vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-									EventType: "click",
-									Func:      func(event vugu.DOMEvent) { c.R.S.AddRow(c.V.ID) },
-									// TODO: implement capture, etc. mostly need to decide syntax
-								})
-								{
-									vgparent := vgn
-									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add row"}
+								if len(c.V.Table.Columns) > 0 {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Add a row to the "+c.V.Title+" table")
+									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+										EventType: "click",
+										Func:      func(event vugu.DOMEvent) { c.R.S.AddRow(c.V.ID) },
+										// TODO: implement capture, etc. mostly need to decide syntax
+									})
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add row"}
+										vgparent.AppendChild(vgn)
+									}
 								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 								vgparent.AppendChild(vgn)

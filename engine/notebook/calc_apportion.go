@@ -173,7 +173,7 @@ func computeApportionment(e *Env) (*Output, error) {
 		opt.Sulfate = correct.Sulfide
 	case "isotope":
 		if s.D34SEvaporite == s.D34SSulfide {
-			return nil, fmt.Errorf("d34s_evaporite_permil and d34s_sulfide_permil must differ")
+			return nil, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
 		}
 		opt.Sulfate = correct.Isotope
 		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
@@ -207,7 +207,7 @@ func computeApportionment(e *Env) (*Output, error) {
 	}
 	n := len(a.Index)
 	if n*s.Draws > MaxSampleDraws {
-		return nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+		return nil, settingErr("draws", "%d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
@@ -249,7 +249,7 @@ func computeApportionment(e *Env) (*Output, error) {
 		for _, t := range s.Tracers {
 			tr, err := mix.ParseTracer(t)
 			if err != nil {
-				return nil, fmt.Errorf("tracers: %v", err)
+				return nil, settingErr("tracers", "%v", err)
 			}
 			tracers = append(tracers, tr)
 		}

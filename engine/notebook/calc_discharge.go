@@ -64,7 +64,7 @@ func computeDischarge(e *Env) (*Output, error) {
 			out.Warnings = append(out.Warnings, "gap left open: "+g.String())
 		}
 	} else if m := rec.Missing(); m > 0 {
-		out.Warnings = append(out.Warnings, fmt.Sprintf("%d days without discharge are left as gaps (set gap_fill_days to fill short ones)", m))
+		out.Warnings = append(out.Warnings, fmt.Sprintf("%d days without discharge are left as gaps (set %q to fill short ones)", m, SettingLabel("gap_fill_days")))
 	}
 	days := make([]string, rec.Len())
 	for i, d := range rec.Days {

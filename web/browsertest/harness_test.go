@@ -211,3 +211,15 @@ func reloadSaved(t testing.TB, ctx context.Context) {
 	waitReady(t, ctx)
 	waitIdle(t, ctx)
 }
+
+// intoDemo answers the question the page asks of a table opened over the
+// demo: into the demo's table.
+func intoDemo(t testing.TB, ctx context.Context) {
+	t.Helper()
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("choice-demo")`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		t.Fatalf("no question for a table opened over the demo: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#choice-demo"))); err != nil {
+		t.Fatal(err)
+	}
+}

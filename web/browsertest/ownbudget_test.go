@@ -370,6 +370,15 @@ func TestFileOverTheDemoAsks(t *testing.T) {
 	if o := text(t, ctx, "section.kind-samples .table-tools .origin"); o != "" {
 		t.Errorf("the user's samples are marked %q", o)
 	}
+	tagged := eval[[]string](t, ctx, `[...document.querySelectorAll("section.cell")].filter(s => s.querySelector(".cell-head .demo-tag")).map(s => s.id)`)
+	for _, id := range []string{"cell-site", "cell-discharge", "cell-sources"} {
+		if !strings.Contains(strings.Join(tagged, " "), id) {
+			t.Errorf("cells tagged as holding demo values: got %v, want %s among them", tagged, id)
+		}
+	}
+	if strings.Contains(strings.Join(tagged, " "), "cell-samples ") || strings.HasSuffix(strings.Join(tagged, " "), "cell-samples") {
+		t.Errorf("the samples cell, holding the user's file only, is tagged as the demo's")
+	}
 	// Undo returns to the demo, which asks again; Enter takes the default.
 	click(t, ctx, "#undo")
 	drop()

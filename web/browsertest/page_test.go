@@ -475,13 +475,7 @@ func TestDropSamplesFile(t *testing.T) {
 		dt.items.add(new File([%s], "new-samples.tsv", {type: "text/tab-separated-values"}));
 		document.querySelector(".page").dispatchEvent(new DragEvent("drop", {dataTransfer: dt, bubbles: true, cancelable: true}));
 		return true })()`, text))
-	// Over the demo the page asks first; here the file goes into the demo.
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("choice-demo")`, chromedp.WithPollingTimeout(30*time.Second))); err != nil {
-		t.Fatalf("no question for a file dropped over the demo: %v", err)
-	}
-	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#choice-demo"))); err != nil {
-		t.Fatal(err)
-	}
+	intoDemo(t, ctx)
 	waitGen(t, ctx, gen)
 	if got := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`); !strings.HasPrefix(got, "3 rows") {
 		t.Errorf("samples table after the drop: got %q, want 3 rows", got)

@@ -104,6 +104,21 @@ func TestOwnBudgetShots(t *testing.T) {
 		}
 		save(t, filepath.Join(dir, name+".png"), png)
 	}
+	// A file opened over the demo: the question, then the demo's values
+	// marked beside the file's.
+	openFile(t, ctx, sallowmere("sallowmere-samples.csv"))
+	waitFor(t, ctx, "the question", `!!document.getElementById("file-choice")`)
+	for _, w := range []int64{1400, 400} {
+		setWidth(t, ctx, w)
+		element(fmt.Sprintf("question-%d", w), "#file-choice")
+	}
+	setWidth(t, ctx, 1400)
+	click(t, ctx, "#choice-demo")
+	for _, w := range []int64{1400, 400} {
+		setWidth(t, ctx, w)
+		element(fmt.Sprintf("demo-site-%d", w), "section.kind-site")
+	}
+	setWidth(t, ctx, 1400)
 	newBudget(t, ctx)
 	for _, w := range []int64{1400, 400} {
 		setWidth(t, ctx, w)
