@@ -117,7 +117,7 @@ func (c *Root) loadDemo(how int) {
 	}
 	if how == demoReference {
 		if c.S != nil {
-			c.S.Demo = ref
+			c.S.SetDemo(ref)
 		}
 		return
 	}
@@ -131,7 +131,7 @@ func (c *Root) loadDemo(how int) {
 	}
 	c.Pending, c.Banner = nil, nil
 	c.open(doc, docFileName(doc), origin)
-	c.S.Demo = ref
+	c.S.SetDemo(ref)
 	c.Unsaved = false
 	if err != nil {
 		c.S.Message = "The demo budget could not be opened: " + err.Error()

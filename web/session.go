@@ -24,8 +24,9 @@ type Session struct {
 
 	// Demo is the demo budget as it opened, so that values a budget grown
 	// from it still holds can be marked as the demo's; nil until the demo
-	// has been fetched.
-	Demo *notebook.Document
+	// has been fetched. Set it with SetDemo.
+	Demo     *notebook.Document
+	demoText []byte // Demo's budget file
 
 	undo, redo []entry
 
@@ -186,6 +187,10 @@ func (s *Session) Replace(doc *notebook.Document, fileName string, o Origin) {
 	s.current = nil
 	s.announce()
 }
+
+// SetDemo keeps the demo budget as it opened, for the marks of values a
+// budget grown from it still holds.
+func (s *Session) SetDemo(d *notebook.Document) { s.Demo, s.demoText = d, nil }
 
 // Saved records that the budget was just written with its results: from
 // now on they are the user's, and the file as saved is the one edits are

@@ -1,6 +1,7 @@
 package web
 
 import (
+	"reflect"
 	"strings"
 	"testing"
 
@@ -188,5 +189,51 @@ func TestEdited(t *testing.T) {
 	s.Replace(notebook.New("Another"), "another.lixiv.json", Origin{Checked: true})
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
+	}
+}
+
+// TestDemoMarks follows the marks of values that are still the demo's: none
+// on the demo itself; once the budget grows from it, the settings and
+// tables it still shares with the demo, and not the ones the user changed.
+func TestDemoMarks(t *testing.T) {
+	demo := func() *notebook.Document {
+		d := notebook.NewBudget("demo")
+		d.Cell("site").Settings.(*notebook.SiteSettings).AreaKm2 = 12.1
+		d.Cell("site").Settings.(*notebook.SiteSettings).Precipitation = 1850
+		d.Cell("discharge").Table = &notebook.Table{Columns: []string{"date", "Q"}, Rows: [][]string{{"2021-01-01", "1.2"}}}
+		return d
+	}
+	s := NewSession(demo(), "demo.lixiv.json", Origin{Demo: true})
+	s.SetDemo(demo())
+	marks := func() (params []string, tables []string) {
+		var cc ChartCache
+		for _, v := range s.Cells("", 0, &cc) {
+			for _, p := range v.Params {
+				if p.FromDemo {
+					params = append(params, v.ID+"."+p.Key)
+				}
+			}
+			if v.TableOrigin != "" {
+				tables = append(tables, v.ID+": "+v.TableOrigin)
+			}
+		}
+		return params, tables
+	}
+	if p, tabs := marks(); len(p) != 0 || !reflect.DeepEqual(tabs, []string{"sources: the global preset"}) {
+		t.Errorf("the demo itself: got marks %v and %v, want only the preset named", p, tabs)
+	}
+	if err := s.SetParam("site", "precipitation_mm", "900"); err != nil {
+		t.Fatal(err)
+	}
+	p, tabs := marks()
+	if !reflect.DeepEqual(p, []string{"site.area_km2"}) {
+		t.Errorf("settings marked after an edit: got %v, want the area alone", p)
+	}
+	if !reflect.DeepEqual(tabs, []string{"discharge: the demo", "sources: the global preset"}) {
+		t.Errorf("tables marked after an edit: got %v", tabs)
+	}
+	s.Replace(notebook.NewBudget("mine"), "", Origin{})
+	if p, _ := marks(); len(p) != 0 {
+		t.Errorf("a new budget: got %v marked as the demo's", p)
 	}
 }

@@ -1,6 +1,7 @@
 package web
 
 import (
+	"bytes"
 	"fmt"
 	"math"
 	"sort"
@@ -206,10 +207,10 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		if c.Table != nil {
 			v.HasTable, v.Table = true, c.Table
 			switch {
-			case demo != nil && demo.Table != nil && len(c.Table.Rows) > 0 && demo.Table.CSV() == c.Table.CSV():
-				v.TableOrigin = "the demo"
 			case c.Kind == notebook.KindSources && notebook.PresetOf(c.Table) != "":
 				v.TableOrigin = "the " + notebook.PresetOf(c.Table) + " preset"
+			case demo != nil && demo.Table != nil && len(c.Table.Rows) > 0 && demo.Table.CSV() == c.Table.CSV():
+				v.TableOrigin = "the demo"
 			}
 		}
 		o := d.Output(c.ID)
@@ -268,10 +269,16 @@ func (s *Session) needs(id string) []NeedView {
 	return out
 }
 
-// demoCell returns the demo's cell of c's id and kind while the budget is
-// the demo or grew from it, else nil.
+// demoCell returns the demo's cell of c's id and kind while the budget
+// grew from the demo (the demo itself needs no marks), else nil.
 func (s *Session) demoCell(c *notebook.Cell) *notebook.Cell {
 	if !s.Origin.Demo || s.Demo == nil {
+		return nil
+	}
+	if s.demoText == nil {
+		s.demoText = s.Demo.Marshal()
+	}
+	if bytes.Equal(s.Current(), s.demoText) {
 		return nil
 	}
 	if d := s.Demo.Cell(c.ID); d != nil && d.Kind == c.Kind && d.Settings != nil {

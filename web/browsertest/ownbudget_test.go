@@ -333,6 +333,9 @@ func TestNoFalseDifference(t *testing.T) {
 // file into the demo marks what is still the demo's.
 func TestFileOverTheDemoAsks(t *testing.T) {
 	ctx := openDemo(t)
+	if n := eval[int](t, ctx, `document.querySelectorAll(".demo-tag, .field .origin").length`); n != 0 {
+		t.Errorf("the demo itself shows %d marks of values of the demo", n)
+	}
 	drop := func() {
 		t.Helper()
 		b, err := os.ReadFile(sallowmere("sallowmere-samples.csv"))

@@ -104,6 +104,11 @@ func TestOwnBudgetShots(t *testing.T) {
 		}
 		save(t, filepath.Join(dir, name+".png"), png)
 	}
+	// The demo on a narrow screen: the top, and a cell with a long title and a chart.
+	setWidth(t, ctx, 400)
+	shot("demo-top-400", false)
+	element("demo-co2-400", "section.kind-co2")
+	setWidth(t, ctx, 1400)
 	// A file opened over the demo: the question, then the demo's values
 	// marked beside the file's.
 	openFile(t, ctx, sallowmere("sallowmere-samples.csv"))
