@@ -7,23 +7,25 @@ import (
 )
 
 // BannerView is what the import banner shows: which cell took the file,
-// how the cell read each column, and what the importer substituted,
-// inferred or left out, in the engine's words (notebook.Reading).
+// what it took each column as (notebook.Reading), and what the import
+// could not read, substituted, inferred or left out, in the engine's
+// messages about the table (notebook.Output.Messages, placed as beside
+// the table).
 type BannerView struct {
 	Title   string // "The Samples cell took sallowmere-samples.csv"
 	Cell    string // the cell's id, for the link; "" for a budget file
 	Link    string // the link's text
 	Lines   []string
 	Columns []notebook.ColumnReading
-	Notes   []string
-	Places  []string // the table's problems, as placed beside it (the first few)
-	Reading bool     // the cell has not read the table yet
+	Notes   []TableProblem // what the import did, from the cell's messages about its table (the first few)
+	More    string         // how many more are listed beside the table
+	Reading bool           // the cell has not read the table yet
 	Problem string
 	Unused  int // columns not used
 }
 
-// bannerPlaces is how many of a table's problems the banner lists.
-const bannerPlaces = 5
+// bannerNotes is how many of the messages about a table the banner lists.
+const bannerNotes = 8
 
 // bannerView gathers the banner from the document; nil without a banner.
 func (c *Root) bannerView() *BannerView {
@@ -65,17 +67,14 @@ func (c *Root) bannerView() *BannerView {
 	if r == nil {
 		return v
 	}
-	v.Columns, v.Notes = r.Columns, r.Notes
+	v.Columns = r.Columns
 	for _, cv := range c.Cells {
 		if cv.ID != b.Cell {
 			continue
 		}
-		for i, p := range cv.TableProblems {
-			if i == bannerPlaces {
-				v.Places = append(v.Places, fmt.Sprintf("and %d more, listed under the table", len(cv.TableProblems)-i))
-				break
-			}
-			v.Places = append(v.Places, p.Text)
+		v.Notes = cv.TableProblems
+		if n := len(v.Notes) - bannerNotes; n > 0 {
+			v.Notes, v.More = v.Notes[:bannerNotes], fmt.Sprintf("and %d more, listed beside the table", n)
 		}
 	}
 	for _, col := range r.Columns {

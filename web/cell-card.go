@@ -484,20 +484,12 @@ func (c *CellCard) CellClass(row, col int) string {
 	return ""
 }
 
-// HeadClass marks a column whose header a problem names.
+// HeadClass marks a column whose header (or unit) a problem names.
 func (c *CellCard) HeadClass(col int) string {
-	if c.V.bad[[2]int{notebook.HeaderRow, col}] {
+	if c.V.bad[[2]int{-1, col}] {
 		return "colname bad"
 	}
 	return "colname"
-}
-
-// UnitClass marks a column whose unit (in the units row) a problem names.
-func (c *CellCard) UnitClass(col int) string {
-	if c.V.bad[[2]int{notebook.UnitsRow, col}] {
-		return "unit bad"
-	}
-	return "unit"
 }
 
 // OutputsClass dims outputs that are from before the last change.
@@ -586,29 +578,21 @@ func (c *CellCard) NeedsOwnTable() bool {
 }
 
 // ShowProblem brings the field a table problem names into view, with the
-// focus: its rows are shown first when they are folded away.
+// focus (the column's name for a problem of a whole column): its rows are
+// shown first when they are folded away.
 func (c *CellCard) ShowProblem(p TableProblem) {
 	if p.Row >= c.R.shown(c.V.ID) {
 		c.R.rows[c.V.ID] = p.Row + 1
 	}
-	col := p.Col
-	if col < 0 {
-		col = 0
+	edit, col := "value", max(p.Col, 0)
+	if p.Row < 0 {
+		edit = "column"
 	}
-	c.R.focusAfter = fmt.Sprintf(`#table-%s input[data-edit="%s"][data-row="%d"][data-col="%d"]`, c.V.ID, editOf(p.Row), max(p.Row, -1), col)
+	c.R.focusAfter = fmt.Sprintf(`#table-%s input[data-edit="%s"][data-row="%d"][data-col="%d"]`, c.V.ID, edit, max(p.Row, -1), col)
 }
 
-// editOf is the data-edit of the fields of a table row: the names, the
-// units or the values.
-func editOf(row int) string {
-	switch row {
-	case notebook.HeaderRow:
-		return "column"
-	case notebook.UnitsRow:
-		return "unit"
-	}
-	return "value"
-}
+// HasMarked reports a table with problems marked in its fields.
+func (c *CellCard) HasMarked() bool { return len(c.V.bad) > 0 }
 
 // DemoValues reports a cell that still holds values of the demo (settings
 // or its table) in a budget grown from it.

@@ -534,12 +534,19 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "b", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
-									vgn.SetInnerHTML(vugu.HTML("Problems reading this table"))
+									vgn.SetInnerHTML(vugu.HTML("How this table was read"))
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
 									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
-									vgparent.AppendChild(vgn)
-									vgn.SetInnerHTML(vugu.HTML("(each marked in the table)"))
+									if c.HasMarked() {
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
+										vgparent.AppendChild(vgn)
+										{
+											vgparent := vgn
+											_ = vgparent
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "(problems are marked in the table)"}
+											vgparent.AppendChild(vgn)
+										}
+									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute(nil)}
@@ -554,18 +561,31 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											_ = p
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
+											vgn.AddAttrInterface("class", p.Class())
 											{
 												vgparent := vgn
 												_ = vgparent
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "sev"}}}
 												vgparent.AppendChild(vgn)
-												vgn.AddAttrInterface("aria-label", "Show in the table: "+p.Text)
-												vgn.SetInnerHTML(p.Text)
-												vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-													EventType: "click",
-													Func:      func(event vugu.DOMEvent) { c.ShowProblem(p) },
-													// TODO: implement capture, etc. mostly need to decide syntax
-												})
+												vgn.SetInnerHTML(p.Class())
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+												vgparent.AppendChild(vgn)
+												if p.Placed() {
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
+													vgparent.AppendChild(vgn)
+													vgn.AddAttrInterface("aria-label", "Show in the table: "+p.Text)
+													vgn.SetInnerHTML(p.Text)
+													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+														EventType: "click",
+														Func:      func(event vugu.DOMEvent) { c.ShowProblem(p) },
+														// TODO: implement capture, etc. mostly need to decide syntax
+													})
+												}
+												if !p.Placed() {
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+													vgparent.AppendChild(vgn)
+													vgn.SetInnerHTML(p.Text)
+												}
 											}
 										}
 									}

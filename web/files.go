@@ -1,7 +1,6 @@
 package web
 
 import (
-	"fmt"
 	"path"
 	"strings"
 
@@ -101,25 +100,28 @@ func (c *Root) readAndOpen(f js.Value, verb string) {
 }
 
 // OpenWorkbook reads the first sheet of an .xlsx workbook into the samples
-// or discharge cell (by its header). Rows the workbook reader cannot read
-// stop the import, so that none is lost silently; a workbook of several
-// sheets is named in the message with the sheet read.
+// or discharge cell (by its header), through the sheet's cells: rows are
+// the spreadsheet's, a header over merged rows is one header, and the
+// other sheets are named in a note. Rows the workbook reader cannot read
+// stop the import, so that none is lost silently. Over the demo it asks
+// first.
 func (c *Root) OpenWorkbook(name string, b []byte, verb string) {
 	defer c.guard()
-	text, probs, err := sample.SheetText(b, name, "")
+	g, err := sample.SheetGrid(b, path.Base(name), "")
 	switch {
 	case err != nil:
 		c.S.Message = err.Error()
 		return
-	case len(probs) > 0:
-		c.S.Message = probs.Error()
+	case len(g.Problems) > 0:
+		c.S.Message = g.Problems.Error()
 		return
 	}
-	c.OpenText(name, text, verb)
-	if sheets, _ := sample.Sheets(b); len(sheets) > 1 && c.S.Message == "" {
-		c.S.Message = fmt.Sprintf("%s: read sheet %q, the first of %d; to read another, move it to the front or save it as CSV",
-			name, sheets[0], len(sheets))
+	t, err := notebook.TableFromGrid(g)
+	if err != nil {
+		c.S.Message = err.Error()
+		return
 	}
+	c.openTable(path.Base(name), t, verb)
 }
 
 // OpenText opens a budget file, or reads a CSV/TSV table into the samples
@@ -141,16 +143,25 @@ func (c *Root) OpenText(name, text, verb string) {
 		return
 	}
 	t, err := notebook.ReadTable(base, text)
-	if err != nil {
-		c.S.Message = err.Error()
+	if err != nil || len(t.Columns) == 0 {
+		c.S.Message = name + ": no table found (a CSV or TSV file needs a header row)"
+		if err != nil {
+			c.S.Message = err.Error()
+		}
 		return
 	}
+	c.openTable(base, t, verb)
+}
+
+// openTable puts a table read from a file into its cell (notebook.TableKind
+// says which), or over the demo asks first.
+func (c *Root) openTable(name string, t *notebook.Table, verb string) {
 	kind := notebook.TableKind(t)
 	if c.S.Origin.Demo && !c.S.Origin.Mixed {
-		c.Pending = &PendingFile{Name: base, Table: t, Kind: kind, Verb: verb}
+		c.Pending = &PendingFile{Name: name, Table: t, Kind: kind, Verb: verb}
 		return
 	}
-	c.loadTable(base, t, kind, verb)
+	c.loadTable(name, t, kind, verb)
 }
 
 // loadTable puts a table read from a file into the first cell of kind,

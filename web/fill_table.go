@@ -39,7 +39,7 @@ func (c *CellCard) DataTable() DataTable {
 		t.Fields = append(t.Fields, Field{h, withWidth(c.HeadClass(j), width, j)})
 	}
 	for j := range cols {
-		t.Fields = append(t.Fields, Field{c.Unit(j), withWidth(c.UnitClass(j), width, j)})
+		t.Fields = append(t.Fields, Field{c.Unit(j), withWidth("unit", width, j)})
 	}
 	for i, r := range rows {
 		cells := c.RowCells(r)

@@ -2,39 +2,41 @@ package web
 
 import (
 	"reflect"
+	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/problem"
 )
 
 func TestTableProblems(t *testing.T) {
 	tab := &notebook.Table{Columns: []string{"sample", "date", "Na"}, Units: []string{"", "", "mg/L"},
-		Rows:   [][]string{{"A", "2021-01-01", "3"}, {"B", "2021-01-02", "abc"}},
-		Source: &notebook.Source{File: "lab.csv", Header: 3, Units: 4, Lines: []int{5, 7}}}
-	o := &notebook.Output{
-		Warnings: []string{`lab.csv:7:3 (Na): "abc": not a number`, `lab.csv:4 (Na): unknown unit`, `no critical chloride set`},
-		Marks: []notebook.Mark{
-			{Warning: 0, Row: 1, Col: 2, Line: 7, Text: `"abc": not a number`},
-			{Warning: 1, Row: notebook.UnitsRow, Col: 2, Line: 4, Text: "unknown unit"},
-		},
+		Rows: [][]string{{"A", "2021-01-01", "3"}, {"B", "2021-01-02", "abc"}}}
+	msgs := notebook.Messages{
+		{Severity: problem.Error, File: "samples", Line: 4, Col: 3, Column: "Na", Value: "abc", Row: 1, Text: "not a number"},
+		{Severity: problem.Error, File: "samples", Line: 2, Col: 3, Column: "Na", Row: -1, Text: "unknown unit"},
+		{Severity: problem.Note, File: "samples", Line: 1, Row: -1, Text: "units read: Na in mg/L"},
+		{Severity: problem.Warning, File: "lab.csv", Line: 4, Row: -1, Text: "sample B has no Cl value"},
 	}
-	probs, rest := TableProblems(tab, o)
+	probs, rest := TableProblems("samples", tab, msgs)
 	want := []TableProblem{
-		{Row: 1, Col: 2, Text: `row 2 (line 7 of lab.csv), column Na: "abc": not a number`},
-		{Row: notebook.UnitsRow, Col: 2, Text: `units row (line 4 of lab.csv), column Na: unknown unit`},
+		{Row: 1, Col: 2, Severity: problem.Error, Text: `row 2, column Na: "abc": not a number`},
+		{Row: -1, Col: 2, Severity: problem.Error, Text: `units row, column Na: unknown unit`},
+		{Row: -1, Col: -1, Severity: problem.Note, Text: `header row: units read: Na in mg/L`},
 	}
 	if !reflect.DeepEqual(probs, want) {
 		t.Errorf("problems:\n got %+v\nwant %+v", probs, want)
 	}
-	if !reflect.DeepEqual(rest, []string{"no critical chloride set"}) {
-		t.Errorf("other warnings: got %q", rest)
+	if len(rest) != 1 || !strings.HasPrefix(rest[0], "lab.csv:4: sample B") {
+		t.Errorf("other messages: got %q, want the one about lab.csv", rest)
 	}
-	t.Run("typed table", func(t *testing.T) {
-		tab := &notebook.Table{Columns: []string{"date", "Q"}, Rows: [][]string{{"x", "1"}}}
-		o := &notebook.Output{Warnings: []string{"flow:2:1 (date): not a date"}, Marks: []notebook.Mark{{Row: 0, Col: 0, Text: "not a date"}}}
-		probs, rest := TableProblems(tab, o)
-		if len(probs) != 1 || probs[0].Text != "row 1, column date: not a date" || len(rest) != 0 {
-			t.Errorf("got %+v and %q, want row 1, column date", probs, rest)
+	t.Run("read from a file", func(t *testing.T) {
+		tab := &notebook.Table{Columns: []string{"date", "Q"}, Rows: [][]string{{"x", "1"}},
+			Source: &notebook.Source{File: "flow.csv", Header: 3, Lines: []int{5}}}
+		probs, _ := TableProblems("flow", tab, notebook.Messages{{File: "flow.csv", Line: 5, Col: 1, Row: 0, Text: "not a date"},
+			{File: "flow.csv", Line: 3, Col: 2, Row: -1, Text: "no unit"}})
+		if len(probs) != 2 || probs[0].Row != 0 || probs[0].Col != 0 || probs[0].Text != "row 1 (line 5), column date: not a date" || probs[1].Text != "header row, column Q: no unit" {
+			t.Errorf("got %+v, want row 0 column 0, then the header", probs)
 		}
 	})
 }

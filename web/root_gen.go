@@ -402,7 +402,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 				vgparent.AppendChild(vgn)
 				if len(c.BannerV.Notes) > 0 {
-					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "import-notes"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "What the import substituted, inferred or left out"}}}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "import-notes"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "What the import could not read, substituted, inferred or left out"}}}
 					vgparent.AppendChild(vgn)
 					{
 						vgparent := vgn
@@ -416,18 +416,26 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							_ = n
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
 							vgparent.AppendChild(vgn)
-							vgn.SetInnerHTML(n)
+							vgn.AddAttrInterface("class", n.Class())
+							{
+								vgparent := vgn
+								_ = vgparent
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "sev"}}}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(n.Class())
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+								vgparent.AppendChild(vgn)
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(n.Text)
+							}
 						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 						vgparent.AppendChild(vgn)
-						for vgiterkeyt, n := range c.BannerV.Places {
-							var vgiterkey interface{} = vgiterkeyt
-							_ = vgiterkey
-							n := n
-							_ = n
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "problem-line"}}}
+						if c.BannerV.More != "" {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
 							vgparent.AppendChild(vgn)
-							vgn.SetInnerHTML(n)
+							vgn.SetInnerHTML(c.BannerV.More)
 						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 						vgparent.AppendChild(vgn)

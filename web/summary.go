@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/problem"
 )
 
 // The summary strip's counts and state, the jump list of cells and the
@@ -44,7 +45,12 @@ func (c *Root) Counts() []Count {
 	}
 	warn, firstWarn := 0, ""
 	for _, v := range c.Cells {
-		n := len(v.Warnings) + len(v.TableProblems)
+		n := len(v.Warnings)
+		for _, p := range v.TableProblems {
+			if p.Severity != problem.Note { // notes say what was inferred: no warning
+				n++
+			}
+		}
 		if n > 0 && firstWarn == "" {
 			firstWarn = "#warnings-" + v.ID
 			if len(v.Warnings) == 0 {

@@ -31,15 +31,23 @@
 //
 // A cell that lacks what it cannot compute without — the site's area, the
 // samples or discharge table, the end-members — waits (a *NeedError, state
-// Waiting), and so do the cells that must read it; a cell for which it is an
-// optional input computes without it and says so in a warning. Needs lists
-// what a cell waits for, through the cells it reads, without computing. NewBudget gives a
-// budget of the usual cells that waits for exactly those. Messages about a
-// setting name it by its label (SettingLabel, *SettingError), as the page
-// shows it; a budget file's problems name its key. The samples and
-// discharge cells say in Output.Reading how they read their table (each
-// column, and what the importer substituted, inferred or left out) and in
-// Output.Marks which warnings concern which row and column of it.
+// Waiting), and so do the cells that must read it; a cell for which it is
+// an optional input computes without it and says so in a warning. Needs
+// lists what a cell waits for, through the cells it reads, without
+// computing. NewBudget gives a budget of the usual cells that waits for
+// exactly those. Messages about a setting name it by its label
+// (SettingLabel, *SettingError), as the page shows it; a budget file's
+// problems name its key. The samples and discharge cells say in
+// Output.Reading what they took each column of their table as.
+//
+// A cell's Output.Messages say, typed and positioned (severity, effect,
+// file, line as the file counts it, column, value, sample, row of the
+// cell's table), how it read its input: what it could not read or refused,
+// what it substituted or left out, what it inferred. A sample without an
+// ion a cell needs is left out of that cell, and the cells that read it,
+// by name (no Cl: the atmosphere cell; no Ca for gypsum sulfate: the
+// apportionment) and kept everywhere else. The report lists the messages
+// under "problems", "warnings" and "messages".
 //
 // The computation of each kind is a ComputeFunc registered with Register;
 // the built-in ones call the engine packages sample, discharge, correct,

@@ -4,12 +4,16 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+
+	"lixiv/engine/sample"
 )
 
 // Settings are named in files by their JSON key ("area_km2") and on the
 // page, and in the messages the engine gives about them, by a label with
 // its unit ("area (km²)"). The labels live here, keyed by the setting's
-// key; a key without an entry is labelled by the rules of SettingLabel.
+// key, with those of the settings the sample importer names in its own
+// messages (sample.SettingLabels, which cannot import this package); a
+// key without an entry is labelled by the rules of SettingLabel.
 
 // settingLabels labels settings whose key does not read well by rule.
 var settingLabels = map[string]string{
@@ -21,7 +25,6 @@ var settingLabels = map[string]string{
 	"precipitation_mm":              "precipitation, P (mm/yr)",
 	"gap_fill_days":                 "fill gaps up to (days)",
 	"water_year_start_month":        "reporting year starts",
-	"below_detection":               "below detection limit",
 	"ratio_source":                  "source of the ratios",
 	"long_term_convention":          "long-term convention",
 	"log_x":                         "log x axis",
@@ -45,6 +48,9 @@ var unitSuffixes = []struct{ suffix, unit string }{
 // "area (km²)", "na_per_cl" is "Na/Cl (mol/mol)".
 func SettingLabel(key string) string {
 	if l, ok := settingLabels[key]; ok {
+		return l
+	}
+	if l, ok := sample.SettingLabels[key]; ok {
 		return l
 	}
 	unit := ""

@@ -6,6 +6,8 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"lixiv/engine/sample"
 )
 
 func TestNewBudgetWaitsForWhatItNeeds(t *testing.T) {
@@ -177,6 +179,15 @@ func TestSettingLabel(t *testing.T) {
 	for _, tt := range tests {
 		if got := SettingLabel(tt.key); got != tt.want {
 			t.Errorf("SettingLabel(%q): got %q, want %q", tt.key, got, tt.want)
+		}
+	}
+	// The importer's messages name its settings as the page does.
+	for _, k := range MessageLabels() {
+		if l, ok := sample.SettingLabels[k]; ok && SettingLabel(k) != l {
+			t.Errorf("setting %s: the page shows %q, the importer's messages say %q", k, SettingLabel(k), l)
+		}
+		if SettingLabel(k) == k {
+			t.Errorf("setting %s has no label", k)
 		}
 	}
 }

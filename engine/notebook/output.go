@@ -7,17 +7,21 @@ type Output struct {
 	Tables   []*ResultTable // tables for the page, the CSV export and charts
 	Figures  []Figure       // headline figures with their intervals
 	Warnings []string       // problems that did not stop the computation
+	// Messages say, positioned in the input, what the cell could not read,
+	// what it read in place of what was written, what it left out (a sample
+	// without an ion the cell needs) and what it inferred. They explain
+	// the results and are not part of the snapshot's checksum; the tables
+	// they change are.
+	Messages Messages
 	// Rough says the output lacks intervals that a full computation gives
 	// (see Document.Quick); a compute function that skips that work sets it.
 	Rough bool
 	// Value is the typed result cells below read (for example the
 	// apportioned samples); it is not written to files.
 	Value any
-	// Reading says how the cell read its data table, and Marks which
-	// warnings are about which places of it (samples and discharge
-	// cells). Neither is part of the stored results.
+	// Reading says what the cell took each column of its data table as
+	// (samples and discharge cells); it is not part of the stored results.
 	Reading *Reading
-	Marks   []Mark
 }
 
 // Table returns the output table with the given name, or nil.

@@ -5,6 +5,8 @@ import (
 	"os"
 	"strings"
 	"testing"
+
+	"lixiv/engine/sample"
 )
 
 // sallowmere returns a new budget holding the invented Sallowmere Water
@@ -47,7 +49,7 @@ func TestSamplesReading(t *testing.T) {
 		used             bool
 	}{
 		{"Na (mg/L)", "Na, mg/L → µmol/L", "", true},
-		{"HCO3 (mg/L)", "HCO3, mg/L → µmol/L", "taken as alkalinity in the charge balance", true},
+		{"HCO3 (mg/L)", "HCO3, mg/L → µmol/L", "", true},
 		{"Lab", "not used", "not recognised", false},
 		{"Remarks", "not used", "", false},
 	}
@@ -57,27 +59,22 @@ func TestSamplesReading(t *testing.T) {
 			t.Errorf("%s: got %+v, want read as %q (used %v) with a note holding %q", tt.header, c, tt.as, tt.used, tt.note)
 		}
 	}
-	notes := strings.Join(r.Notes, "\n")
-	for _, want := range []string{"1 value below the detection limit set to half the limit", "1 place of the table with a message"} {
-		if !strings.Contains(notes, want) {
-			t.Errorf("notes: got %q, want %q", notes, want)
+	// SM-07's potassium "O.95" (line 8 of the file) is a message placed at
+	// its row and column; HCO3 is taken as alkalinity, and said so.
+	var k *Message
+	for _, m := range o.Messages {
+		if m.Value == "O.95" {
+			k = m
 		}
 	}
-	// SM-07's potassium "O.95" (line 8 of the file) is marked in its place.
-	if len(o.Marks) != 1 {
-		t.Fatalf("marks: got %+v, want one", o.Marks)
+	if k == nil || k.Row != 6 || k.Col != 5 || k.Line != 8 || k.File != "sallowmere-samples.csv" {
+		t.Errorf("the message about O.95: got %+v, want row 6, column 5 (K), line 8 of the file", k)
 	}
-	m := o.Marks[0]
-	if m.Row != 6 || m.Col != 4 || m.Line != 8 || !strings.Contains(m.Text, `"O.95": not a number`) {
-		t.Errorf("mark: got %+v, want row 6, column 4 (K), line 8, the value named", m)
+	if n := o.Messages.Count(sample.ErrCensored); n != 1 {
+		t.Errorf("values below detection: got %d messages, want 1", n)
 	}
-	if w := o.Warnings[m.Warning]; !strings.Contains(w, "sallowmere-samples.csv:8:5") {
-		t.Errorf("the mark's warning: got %q, want the file's line and column", w)
-	}
-	// The lab gave HCO3: the samples table shows it, not an empty Alk.
-	hco3 := o.Table("samples").Column("HCO3")
-	if hco3 == nil || countFinite(hco3.Num) != 36 {
-		t.Errorf("samples table: got HCO3 column %v, want 36 values", hco3)
+	if alk := o.Table("samples").Column("Alk"); alk == nil || countFinite(alk.Num) != 36 {
+		t.Errorf("samples table: got Alk column %v, want 36 values from HCO3", alk)
 	}
 }
 
@@ -108,28 +105,5 @@ func TestDischargeReading(t *testing.T) {
 	rec, est := o.Figure("runoff"), d.Output("fluxes").Figure("runoff")
 	if rec == nil || est == nil || !strings.Contains(rec.Note, "from the record") || !strings.Contains(est.Note, "discharge and area errors") {
 		t.Errorf("runoff notes: record %+v, flux estimate %+v", rec, est)
-	}
-}
-
-func TestMarkPlaces(t *testing.T) {
-	tab := &Table{Columns: []string{"date", "Q"}, Units: []string{"", "m3/s"},
-		Rows: [][]string{{"2021-01-01", "1.5"}, {"2021-01-02", "-2"}, {"2021-01-03", "x"}}}
-	tests := []struct {
-		line, col, row, wantCol int
-		ok                      bool
-	}{
-		{1, 2, HeaderRow, 1, true},
-		{2, 2, UnitsRow, 1, true},
-		{3, 0, 0, -1, true},
-		{4, 2, 1, 1, true},
-		{5, 2, 2, 1, true},
-		{6, 1, 0, 0, false},
-		{4, 9, 1, -1, true},
-	}
-	for _, tt := range tests {
-		m, ok := tab.mark(0, tt.line, tt.col, "x")
-		if ok != tt.ok || ok && (m.Row != tt.row || m.Col != tt.wantCol || m.Line != 0) {
-			t.Errorf("line %d, column %d: got %+v %v, want row %d, column %d", tt.line, tt.col, m, ok, tt.row, tt.wantCol)
-		}
 	}
 }

@@ -128,8 +128,8 @@ func TestOwnBudgetJourney(t *testing.T) {
 	// The samples, then the discharge record, from files.
 	openTable(t, ctx, sallowmere("sallowmere-samples.csv"), "Samples")
 	banner := text(t, ctx, "#import-banner")
-	for _, want := range []string{"HCO3 (mg/L)", "taken as alkalinity", "Na (mg/L) → Na, mg/L → µmol/L", "Lab → not used",
-		"1 value below the detection limit set to half the limit", "36 rows of 13 columns, 2 of them not used"} {
+	for _, want := range []string{"HCO3 (mg/L)", "HCO3 taken as alkalinity", "Na (mg/L) → Na, mg/L → µmol/L", "Lab → not used",
+		"half the limit stands in", `problem row 7 (line 8), column K (mg/L): "O.95": not a number`, "36 rows of 13 columns, 2 of them not used"} {
 		if !strings.Contains(banner, want) {
 			t.Errorf("banner after the samples: got %q, want %q", banner, want)
 		}
@@ -202,17 +202,17 @@ func TestNonNumberMarkedInItsCell(t *testing.T) {
 		t.Errorf("marked fields: got %d, want 1", n)
 	}
 	probs := text(t, ctx, "#problems-samples")
-	if !strings.Contains(probs, `row 7 (line 8 of sallowmere-samples.csv), column K (mg/L): "O.95": not a number`) {
+	if !strings.Contains(probs, `problem row 7 (line 8), column K (mg/L): "O.95": not a number`) {
 		t.Errorf("problems beside the table: got %q", probs)
 	}
 	if w := text(t, ctx, "#warnings-samples"); strings.Contains(w, "O.95") {
 		t.Errorf("the problem is also listed far from the table: %q", w)
 	}
-	if b := text(t, ctx, "#import-banner"); !strings.Contains(b, `row 7 (line 8 of sallowmere-samples.csv), column K (mg/L): "O.95": not a number`) {
+	if b := text(t, ctx, "#import-banner"); !strings.Contains(b, `row 7 (line 8), column K (mg/L): "O.95": not a number`) {
 		t.Errorf("the banner does not list the problem: %q", b)
 	}
 	// The message takes the user to the field.
-	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#problems-samples button"))); err != nil {
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#problems-samples li.problem button"))); err != nil {
 		t.Fatal(err)
 	}
 	waitFor(t, ctx, "the focus on the marked field", fmt.Sprintf(`document.activeElement === document.querySelector(%q)`, field))
