@@ -580,7 +580,8 @@ func (c *CellCard) NeedsOwnTable() bool {
 // ShowProblem brings the field a table problem names into view, with the
 // focus (the column's name for a problem of a whole column): its rows are
 // shown first when they are folded away.
-func (c *CellCard) ShowProblem(p TableProblem) {
+func (c *CellCard) ShowProblem(e vugu.DOMEvent, p TableProblem) {
+	e.PreventDefault()
 	if p.Row >= c.R.shown(c.V.ID) {
 		c.R.rows[c.V.ID] = p.Row + 1
 	}

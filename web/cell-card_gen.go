@@ -571,13 +571,14 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
 												vgparent.AppendChild(vgn)
 												if p.Placed() {
-													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
 													vgparent.AppendChild(vgn)
 													vgn.AddAttrInterface("aria-label", "Show in the table: "+p.Text)
+													vgn.AddAttrInterface("href", "#table-"+c.V.ID)
 													vgn.SetInnerHTML(p.Text)
 													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 														EventType: "click",
-														Func:      func(event vugu.DOMEvent) { c.ShowProblem(p) },
+														Func:      func(event vugu.DOMEvent) { c.ShowProblem(event, p) },
 														// TODO: implement capture, etc. mostly need to decide syntax
 													})
 												}

@@ -212,7 +212,7 @@ func TestNonNumberMarkedInItsCell(t *testing.T) {
 		t.Errorf("the banner does not list the problem: %q", b)
 	}
 	// The message takes the user to the field.
-	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#problems-samples li.problem button"))); err != nil {
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#problems-samples li.problem a"))); err != nil {
 		t.Fatal(err)
 	}
 	waitFor(t, ctx, "the focus on the marked field", fmt.Sprintf(`document.activeElement === document.querySelector(%q)`, field))
