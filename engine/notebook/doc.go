@@ -6,7 +6,8 @@
 // # Document
 //
 // A Document holds Cells in order. A cell has a Kind (site, samples,
-// discharge, atmosphere, sources, apportionment, fluxes, co2, note, chart),
+// discharge, carbonate, atmosphere, sources, apportionment, fluxes, co2,
+// minerals, note, chart),
 // an id that other cells name it by, a title the user chooses, Settings
 // (one struct per kind; every field has a JSON key), an optional data Table
 // kept as the text the user typed, and a "uses" map from input roles to cell
@@ -51,8 +52,9 @@
 //
 // The computation of each kind is a ComputeFunc registered with Register;
 // the built-in ones call the engine packages sample, discharge, correct,
-// mix, flux and co2. Their typed results (Site, Samples, Flow, Atmosphere,
-// []mix.EndMember, Apportioned, Fluxes) travel in Output.Value to the cells
+// mix, flux, co2, carbonate and mineral. Their typed results (Site,
+// Samples, Flow, Atmosphere, []mix.EndMember, Apportioned, Fluxes,
+// CarbonateSystem, MineralBalance) travel in Output.Value to the cells
 // below; the tables and figures in Output are what the page shows, the
 // command line writes and charts plot.
 //

@@ -111,6 +111,11 @@ type Report struct {
 	Messages   []CellProblem             `json:"messages"`
 	Snapshot   *SnapshotCheck            `json:"snapshot"`
 	Figures    map[string][]ReportFigure `json:"figures"`
+
+	// Carbonate and Minerals report the first carbonate and minerals
+	// cells; left out when the budget has none.
+	Carbonate *CarbonateReport `json:"carbonate_system,omitempty"`
+	Minerals  *MineralReport   `json:"mineral_balance,omitempty"`
 }
 
 // ReportFigure is a headline figure as the report writes it.
@@ -245,6 +250,7 @@ func (d *Document) Report() *Report {
 			r.Samples = append(r.Samples, s)
 		}
 	}
+	r.Carbonate, r.Minerals = d.carbonateReport(), d.mineralReport()
 	if d.Stored != nil {
 		if v, err := d.Verify(); err == nil {
 			r.Snapshot = &SnapshotCheck{Stored: v.Stored, Rerun: v.Rerun, Match: v.Match}

@@ -200,6 +200,10 @@ func DefaultSettings(k Kind) Settings {
 			DischargeUncertainty: 7, Seed: 1}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
+	case KindCarbonate:
+		return defaultCarbonateSettings()
+	case KindMinerals:
+		return defaultMineralSettings()
 	case KindNote:
 		return &NoteSettings{}
 	case KindChart:
