@@ -36,6 +36,15 @@ var settingLabels = map[string]string{
 	"bootstrap":                     "bootstrap replicates",
 	"series_bootstrap":              "series bootstrap replicates",
 	"draws":                         "Monte Carlo draws",
+	// carbonate system and mineral balance cells
+	"activity_model":                 "activity model",
+	"si_calcite_flag":                "flag SI of calcite above",
+	"atmospheric_pco2_uatm":          "pCO2 of the air (µatm)",
+	"pco2_flag_factor":               "flag pCO2 above (× the air's)",
+	"primary_minerals":               "primary minerals, which dissolve (names from the built-in table below, plagioclase AnNN, formulas, or name = formula)",
+	"secondary_minerals":             "secondary minerals, which may form",
+	"fit_components":                 "components fitted (cations: SiO2 and HCO3 as checks)",
+	"analytical_uncertainty_percent": "analytical uncertainty weighting the fit (%)",
 }
 
 // unitSuffixes turn a setting key's unit ending into a readable unit.
