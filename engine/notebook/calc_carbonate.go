@@ -243,7 +243,7 @@ func (s *Samples) notSpeciated(i int, err error, reason string) *Message {
 	}
 	m := &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: s.File, Line: sm.Line, Sample: sampleName(sm),
 		Text: fmt.Sprintf("sample %s has %s: left out of this carbonate cell only; it stays in the rest of the budget", sampleName(sm), reason),
-		Row: -1, Err: ErrNotSpeciated}
+		Row:  -1, Err: ErrNotSpeciated}
 	if errors.Is(err, carbonate.ErrNoAlkalinity) {
 		m.Column, m.Col = s.column(chem.Alk)
 		m.Value = s.Cell(i, chem.Alk)
