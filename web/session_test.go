@@ -2,6 +2,7 @@ package web
 
 import (
 	"context"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -18,7 +19,7 @@ func newTestSession(t *testing.T) *Session {
 	if _, err := d.Add(notebook.KindNote, -1); err != nil {
 		t.Fatal(err)
 	}
-	s := NewSession(d, "test.lixiv.json")
+	s := NewSession(d, "test.lixiv.json", Origin{})
 	return s
 }
 
@@ -47,8 +48,8 @@ func TestUndoRedo(t *testing.T) {
 	}{
 		{"after edits", func() error { return nil }, "14"},
 		{"undo", s.Undo, "12.5"},
-		{"undo again", s.Undo, "0"},
-		{"undo with nothing left", s.Undo, "0"},
+		{"undo again", s.Undo, ""},
+		{"undo with nothing left", s.Undo, ""},
 		{"redo", s.Redo, "12.5"},
 		{"redo again", s.Redo, "14"},
 	}
@@ -126,23 +127,6 @@ func TestMoveAndRemove(t *testing.T) {
 	}
 }
 
-func TestParamLabel(t *testing.T) {
-	tests := []struct{ key, want string }{
-		{"area_km2", "area (km²)"},
-		{"na_per_cl", "Na/Cl (mol/mol)"},
-		{"so4_per_cl", "SO4/Cl (mol/mol)"},
-		{"discharge_uncertainty_percent", "discharge uncertainty (%)"},
-		{"critical_chloride_umol", "critical chloride (µmol/L)"},
-		{"draws", "draws"},
-		{"nicb_flag_percent", "NICB flag (%)"},
-	}
-	for _, tt := range tests {
-		if got := ParamLabel(tt.key); got != tt.want {
-			t.Errorf("ParamLabel(%q): got %q, want %q", tt.key, got, tt.want)
-		}
-	}
-}
-
 func TestHeadlineOrder(t *testing.T) {
 	cells := []CellView{{Figures: []FigureView{{Name: notebook.RecordRunoffFigure, Unit: "mm/yr"}, {Name: notebook.RunoffFigure, Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
@@ -204,7 +188,7 @@ func TestEdited(t *testing.T) {
 	if err := s.Redo(); err != nil {
 		t.Fatal(err)
 	}
-	s.Replace(notebook.New("Another"), "another.lixiv.json")
+	s.Replace(notebook.New("Another"), "another.lixiv.json", Origin{Checked: true})
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
 	}
@@ -221,7 +205,7 @@ func TestDoubtfulCellView(t *testing.T) {
 	if err := d.Recompute(context.Background(), nil); err != nil {
 		t.Fatal(err)
 	}
-	s := NewSession(d, "corrie.lixiv.json")
+	s := NewSession(d, "corrie.lixiv.json", Origin{})
 	cells := s.Cells("", 0, &ChartCache{})
 	found := false
 	for _, c := range cells {
@@ -245,5 +229,51 @@ func TestDoubtfulCellView(t *testing.T) {
 		if h.Cell == "co2" && !h.Doubtful {
 			t.Errorf("summary strip: %q from the doubtful CO2 cell is not marked", h.Name)
 		}
+	}
+}
+
+// TestDemoMarks follows the marks of values that are still the demo's: none
+// on the demo itself; once the budget grows from it, the settings and
+// tables it still shares with the demo, and not the ones the user changed.
+func TestDemoMarks(t *testing.T) {
+	demo := func() *notebook.Document {
+		d := notebook.NewBudget("demo")
+		d.Cell("site").Settings.(*notebook.SiteSettings).AreaKm2 = 12.1
+		d.Cell("site").Settings.(*notebook.SiteSettings).Precipitation = 1850
+		d.Cell("discharge").Table = &notebook.Table{Columns: []string{"date", "Q"}, Rows: [][]string{{"2021-01-01", "1.2"}}}
+		return d
+	}
+	s := NewSession(demo(), "demo.lixiv.json", Origin{Demo: true})
+	s.SetDemo(demo())
+	marks := func() (params []string, tables []string) {
+		var cc ChartCache
+		for _, v := range s.Cells("", 0, &cc) {
+			for _, p := range v.Params {
+				if p.FromDemo {
+					params = append(params, v.ID+"."+p.Key)
+				}
+			}
+			if v.TableOrigin != "" {
+				tables = append(tables, v.ID+": "+v.TableOrigin)
+			}
+		}
+		return params, tables
+	}
+	if p, tabs := marks(); len(p) != 0 || !reflect.DeepEqual(tabs, []string{"sources: the global preset"}) {
+		t.Errorf("the demo itself: got marks %v and %v, want only the preset named", p, tabs)
+	}
+	if err := s.SetParam("site", "precipitation_mm", "900"); err != nil {
+		t.Fatal(err)
+	}
+	p, tabs := marks()
+	if !reflect.DeepEqual(p, []string{"site.area_km2"}) {
+		t.Errorf("settings marked after an edit: got %v, want the area alone", p)
+	}
+	if !reflect.DeepEqual(tabs, []string{"discharge: the demo", "sources: the global preset"}) {
+		t.Errorf("tables marked after an edit: got %v", tabs)
+	}
+	s.Replace(notebook.NewBudget("mine"), "", Origin{})
+	if p, _ := marks(); len(p) != 0 {
+		t.Errorf("a new budget: got %v marked as the demo's", p)
 	}
 }

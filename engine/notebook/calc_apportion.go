@@ -309,7 +309,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		opt.Sulfate = correct.Sulfide
 	case "isotope":
 		if s.D34SEvaporite == s.D34SSulfide {
-			return nil, nil, fmt.Errorf("d34s_evaporite_permil and d34s_sulfide_permil must differ")
+			return nil, nil, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
 		}
 		opt.Sulfate = correct.Isotope
 		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
@@ -352,7 +352,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
 	}
 	if n*s.Draws > MaxSampleDraws {
-		return nil, nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+		return nil, nil, settingErr("draws", "%d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
@@ -394,7 +394,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		for _, t := range s.Tracers {
 			tr, err := mix.ParseTracer(t)
 			if err != nil {
-				return nil, nil, fmt.Errorf("tracers: %v", err)
+				return nil, nil, settingErr("tracers", "%v", err)
 			}
 			tracers = append(tracers, tr)
 		}

@@ -86,7 +86,7 @@ func computeCarbonate(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*CarbonateSettings)
 	model, err := carbonate.ParseModel(s.ActivityModel)
 	if err != nil {
-		return nil, fmt.Errorf("activity_model: %v", err)
+		return nil, settingErr("activity_model", "%v", err)
 	}
 	si, err := e.Input("samples")
 	if err != nil {

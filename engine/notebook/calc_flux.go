@@ -252,7 +252,10 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	e.Report(len(jobs), len(jobs))
 	share := v.unapportionedShare()
-	out.Figures = append(out.Figures, runoff)
+	if runoff.Name != "" {
+		runoff.Note = "from the flux estimate: complete reporting years; interval with the discharge and area errors"
+		out.Figures = append(out.Figures, runoff)
+	}
 	out.Figures = append(out.Figures, figs...)
 	out.Figures = append(out.Figures,
 		Point("samples without a usable apportionment", "", float64(a.Unusable())),

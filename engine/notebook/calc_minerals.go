@@ -57,7 +57,7 @@ func (*MineralSettings) Kind() Kind { return KindMinerals }
 // the cell naming it, and the setting is kept as typed.
 func (s *MineralSettings) Validate() error {
 	if n := len(s.Primary) + len(s.Secondary); n > MaxMinerals {
-		return fmt.Errorf("primary_minerals, secondary_minerals: %d minerals; at most %d", n, MaxMinerals)
+		return settingErr("secondary_minerals", "%d primary and secondary minerals in all; at most %d", n, MaxMinerals)
 	}
 	return firstErr(oneOf("fit_components", s.Fit, "all", "cations"),
 		inRange("analytical_uncertainty_percent", s.Uncertainty, 0, 100))

@@ -23,6 +23,9 @@ type Output struct {
 	// Value is the typed result cells below read (for example the
 	// apportioned samples); it is not written to files.
 	Value any
+	// Reading says what the cell took each column of its data table as
+	// (samples and discharge cells); it is not part of the stored results.
+	Reading *Reading
 }
 
 // Table returns the output table with the given name, or nil.
@@ -112,9 +115,11 @@ type Figure struct {
 	Median float64 // central value
 	Low    float64 // 2.5 % bound
 	High   float64 // 97.5 % bound
-	// Note says how the figure was computed where that is not the cell's
+	// Note says how the figure was formed where that is not the cell's
 	// setting alone (an estimator applied through the measured species,
-	// samples left out or filled); "" for none.
+	// samples left out or filled), or where two figures of one name differ
+	// in that ("over the whole record", "over complete years"); "" for
+	// none. It is for the reader and not part of the stored results.
 	Note string
 }
 

@@ -1,7 +1,6 @@
 package notebook
 
 import (
-	"fmt"
 	"math"
 
 	"lixiv/engine/chem"
@@ -19,15 +18,15 @@ type Settings interface {
 
 // SiteSettings describe the catchment above the gauge.
 type SiteSettings struct {
-	Name               string  `json:"name"`                       // catchment name
-	AreaKm2            float64 `json:"area_km2"`                   // area above the gauge, km²
-	AreaUncertainty    float64 `json:"area_uncertainty_percent"`   // 1σ, % of the area
-	Precipitation      float64 `json:"precipitation_mm"`           // mean annual P, mm/yr (0 = unknown)
-	Evapotranspiration float64 `json:"evapotranspiration_mm"`      // mean annual ET, mm/yr (0 = unknown)
-	PeriodStart        string  `json:"period_start"`               // first day of the budget, YYYY-MM-DD ("" = record start)
-	PeriodEnd          string  `json:"period_end"`                 // last day, YYYY-MM-DD ("" = record end)
-	WaterYearStart     int     `json:"water_year_start_month"`     // 1 = calendar year, 10 = October
-	Latitude           float64 `json:"latitude_degrees,omitempty"` // optional, for the reader only
+	Name               string  `json:"name"`                                         // catchment name
+	AreaKm2            float64 `json:"area_km2" blank:"needed"`                      // area above the gauge, km² (0 = not given; blank in a field)
+	AreaUncertainty    float64 `json:"area_uncertainty_percent"`                     // 1σ, % of the area
+	Precipitation      float64 `json:"precipitation_mm" blank:"unknown"`             // mean annual P, mm/yr (0 = unknown; blank in a field)
+	Evapotranspiration float64 `json:"evapotranspiration_mm" blank:"unknown"`        // mean annual ET, mm/yr (0 = unknown; blank in a field)
+	PeriodStart        string  `json:"period_start"`                                 // first day of the budget, YYYY-MM-DD ("" = record start)
+	PeriodEnd          string  `json:"period_end"`                                   // last day, YYYY-MM-DD ("" = record end)
+	WaterYearStart     int     `json:"water_year_start_month"`                       // 1 = calendar year, 10 = October
+	Latitude           float64 `json:"latitude_degrees,omitempty" blank:"not given"` // optional, for the reader only (0 = not given; blank in a field)
 }
 
 // SamplesSettings control how the sample table is read.
@@ -243,12 +242,12 @@ func oneOf(key, v string, allowed ...string) error {
 			return nil
 		}
 	}
-	return fmt.Errorf("%s: %q is not one of %q", key, v, allowed)
+	return settingErr(key, "%q is not one of %q", v, allowed)
 }
 
 func inRange(key string, v, lo, hi float64) error {
 	if math.IsNaN(v) || v < lo || v > hi {
-		return fmt.Errorf("%s: %g is outside [%g, %g]", key, v, lo, hi)
+		return settingErr(key, "%g is outside [%g, %g]", v, lo, hi)
 	}
 	return nil
 }
@@ -290,7 +289,7 @@ func unitOK(key, u string) error {
 		return nil
 	}
 	if _, err := chem.ParseUnit(u); err != nil {
-		return fmt.Errorf("%s: %v", key, err)
+		return settingErr(key, "%v", err)
 	}
 	return nil
 }
@@ -342,7 +341,7 @@ func (s *ApportionmentSettings) Validate() error {
 		return err
 	}
 	if s.Model == "inverse" && len(s.Tracers) == 0 {
-		return fmt.Errorf("tracers: the inverse model needs at least one tracer")
+		return settingErr("tracers", "the inverse model needs at least one tracer")
 	}
 	return nil
 }
