@@ -89,14 +89,23 @@ func (c *Root) State() Count {
 	if n == 0 {
 		return Count{Text: "all computed"}
 	}
-	waiting := 0
+	waiting, doubtful := 0, 0
 	for _, v := range c.Cells {
-		if v.State == "waiting" {
+		switch v.State {
+		case "waiting":
 			waiting++
+		case "doubtful":
+			doubtful++
 		}
 	}
-	if waiting == n {
+	switch n {
+	case waiting:
 		return Count{Text: fmt.Sprintf("not all computed: %s waiting for inputs", plural(n, "cell")), Href: href}
+	case doubtful:
+		return Count{Text: fmt.Sprintf("computed, but %s doubtful", plural(n, "cell")), Href: href}
+	}
+	if doubtful > 0 {
+		return Count{Text: fmt.Sprintf("not all computed: %s with a problem or waiting, %d doubtful", plural(n-doubtful, "cell"), doubtful), Href: href}
 	}
 	return Count{Text: fmt.Sprintf("not all computed: %s with a problem or waiting", plural(n, "cell")), Href: href}
 }
