@@ -17,8 +17,6 @@ func TestLabels(t *testing.T) {
 		{"per km² bound", ColumnName("other", "per_km2_low"), "per km², 2.5 %"},
 		{"unknown column kept", ColumnName("t", "odd_name"), "odd_name"},
 		{"column with unit", ColumnLabel("rain", &notebook.Column{Name: "Cl_atm", Unit: "µmol/L"}), "atmospheric Cl (µmol/L)"},
-		{"setting from the table", SettingLabel("d34s_river_permil"), "δ34S river (‰)"},
-		{"setting by rule", SettingLabel("area_km2"), "area (km²)"},
 		{"water year", WaterYear("2021", 10), "2021 (water year Oct 2020–Sep 2021)"},
 		{"calendar year", WaterYear("2021", 1), "2021"},
 		{"not a year", WaterYear("mean", 10), "mean"},

@@ -13,7 +13,7 @@ import (
 func TestOverDraws(t *testing.T) {
 	// Sample of §13 item 8 with silicate ratios Ca/Na 0.35 in [0.30, 0.40]
 	// and Mg/Na 0.24 in [0.20, 0.28], each range read as the 95 % interval
-	// of a log-normal (methods brief §7.3, revised; narrow enough that the
+	// of a log-normal (docs/methods.md §7.3; narrow enough that the
 	// Ca cap does not matter): phi_sil = Na_sil + K_sil + 2 Na_sil (Ca/Na +
 	// Mg/Na) has quantiles 225.92, 238.18 and 251.85 (computed by a Monte
 	// Carlo of 10^6 draws with python3's random.gauss); phi_carb = Ca* +

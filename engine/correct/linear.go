@@ -11,7 +11,7 @@ import (
 // 1σ of species s measured at x is max(Rel[s] x, Floor[s]) (µmol/L, µeq/L
 // for alkalinity). Typical figures are 2-5 % relative for major ions by
 // ion chromatography or ICP, with a floor near the detection limit (common
-// practice, no source; methods brief §7.3).
+// practice, no source; docs/methods.md §7.2).
 type Precision struct {
 	Rel   [chem.NSpecies]float64 // relative 1σ, such as 0.03 for 3 %
 	Floor [chem.NSpecies]float64 // smallest 1σ, µmol/L (µeq/L for Alk)

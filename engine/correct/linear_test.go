@@ -8,7 +8,7 @@ import (
 	"lixiv/engine/chem"
 )
 
-// TestLinearSeaSaltNa checks the figure of the methods brief §7.3 (revised):
+// TestLinearSeaSaltNa checks the figure of docs/methods.md §7.2:
 // where 70 % of the Na is sea salt and Na and Cl are measured to 3 %, the
 // 1σ of Na* is about 12 % of Na*, not 3 %. Na 100, Cl 70/0.859120 (Millero
 // et al. 2008 Na/Cl): Na* = 30, σ = sqrt(3² + (0.03 × 70)²) = 3.661 µmol/L

@@ -64,7 +64,7 @@ func benchmarkInvert(b *testing.B, n int, o Options) {
 	b.ReportMetric(per/ess, "ns/effective-draw")
 }
 
-// BenchmarkInvert100 is the goal of the methods brief: 100 samples at an
+// BenchmarkInvert100 is the project's speed goal (docs/methods.md §7.5): 100 samples at an
 // ESS of 1,000 each, on one core.
 func BenchmarkInvert100(b *testing.B) { benchmarkInvert(b, 100, Options{Seed: 1}) }
 

@@ -47,10 +47,10 @@ func ExampleInvert() {
 	// Output:
 	// Corrie Vale spring: fits (ESS at least 1000: true)
 	//   Ca from atmosphere   2.2 µmol/L [  2.0,   2.3]
-	//   Ca from silicate    24.3 µmol/L [ 13.6,  42.5]
-	//   Ca from carbonate   44.5 µmol/L [ 27.0,  55.6]
+	//   Ca from silicate    24.4 µmol/L [ 13.6,  42.3]
+	//   Ca from carbonate   44.6 µmol/L [ 26.8,  55.5]
 	// Corrie Vale gauge: fits; the end-member ranges decide the split (ESS at least 1000: true)
 	//   Ca from atmosphere   2.3 µmol/L [  2.2,   2.4]
-	//   Ca from silicate    31.8 µmol/L [ 15.8,  58.0]
-	//   Ca from carbonate  207.4 µmol/L [180.1, 229.0]
+	//   Ca from silicate    31.7 µmol/L [ 15.9,  58.9]
+	//   Ca from carbonate  208.5 µmol/L [181.3, 224.4]
 }

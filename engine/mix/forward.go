@@ -10,8 +10,8 @@ import (
 )
 
 // SilicateRatio is a molar ratio X/Na of the silicate end-member: its
-// central value and its published range, read as everywhere (methods brief
-// §7.3, revised) as the 95 % interval of a log-normal with its median at the
+// central value and its published range, read as everywhere (docs/methods.md
+// §7.3) as the 95 % interval of a log-normal with its median at the
 // central value (Within). Lo = Hi = Value (or both 0) makes it exact.
 type SilicateRatio struct {
 	Value  float64 // central value, mol/mol
@@ -53,7 +53,7 @@ type SilicateRatios struct {
 // ForwardSilicate returns the default silicate end-member of the forward
 // model: the global silicate end-member of Gaillardet, Dupré, Louvat &
 // Allègre (1999), Chem. Geol. 159, 3-30: Ca/Na 0.35 ± 0.15, Mg/Na 0.24 ±
-// 0.12 (methods brief §6.2: central values confirmed through a secondary
+// 0.12 (docs/methods.md §6.2: central values confirmed through a secondary
 // reproduction; the ± values and their meaning are from memory), the ±
 // read as the 95 % range as everywhere, the same reading PresetSilicate
 // takes. No K/Na default is given, so KNa is NaN.
@@ -127,7 +127,7 @@ var (
 	ErrForwardInput = errors.New("mix: forward model input")
 	// ErrSilicateCapped warns that Na_sil times a silicate ratio exceeds
 	// the corrected Ca, Mg (or Sr), so silicate was capped at it and
-	// carbonate got none (science.md §13 item 7, corrected).
+	// carbonate got none (docs/methods.md §13 item 7, corrected).
 	ErrSilicateCapped = errors.New("silicate ratio too high for the measured amount (or Ca removed by calcite precipitation): silicate capped at the measured amount, carbonate set to 0")
 	// ErrNoSilicateNa warns that no Na is left for silicate weathering.
 	ErrNoSilicateNa = errors.New("no silicate Na after correction")
@@ -141,7 +141,7 @@ var (
 
 // Forward apportions the major cations of one corrected sample by
 // sequential subtraction in the style of Galy & France-Lanord (1999), Chem.
-// Geol. 159, 31-60 (methods brief §6.1):
+// Geol. 159, 31-60 (docs/methods.md §6.1):
 //
 //	Na_sil  = Na* − Na_evap                      (c.Residual[Na])
 //	K_sil   = K*  (or Na_sil × (K/Na)_sil with KFromRatio)
@@ -151,8 +151,8 @@ var (
 //	Mg_carb = Mg* − Mg_sil
 //
 // Silicate Ca and Mg never exceed the measured (corrected) amounts, so no
-// cation is invented and carbonate is never negative (science.md §7.3
-// "Edges", §13 item 7). The atmosphere and evaporite rows come from c.Atm
+// cation is invented and carbonate is never negative (docs/methods.md §7.8,
+// §13 item 7). The atmosphere and evaporite rows come from c.Atm
 // and c.Evap. Only the end-member ratio uncertainties are propagated: to
 // first order (σ(Ca_sil) = Na_sil σ(Ca/Na), the same for Ca_carb, 0 where
 // capped) or, with opt.Draws > 0, by Monte Carlo with each ratio drawn from

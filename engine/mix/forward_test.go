@@ -130,7 +130,7 @@ func TestForwardEndMemberWaters(t *testing.T) {
 func TestForwardFirstOrder(t *testing.T) {
 	// First-order propagation (JCGM 100:2008 GUM): σ(Ca_sil) = Na_sil
 	// σ(Ca/Na), with σ(Ca/Na) = 0.35 ln(0.50/0.20)/3.92 for the default
-	// 0.35 ± 0.15 read as a 95 % log-normal range (methods brief §7.3
+	// 0.35 ± 0.15 read as a 95 % log-normal range (docs/methods.md §7.3
 	// revised), and likewise Mg; the carbonate shares carry the same σ.
 	c := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 500, chem.Mg: 200, chem.Cl: 0, chem.SO4: 0})
 	res, err := Forward(fwdCorrect(t, c, nil), nil)

@@ -7,7 +7,7 @@ import (
 
 // Confusion is an end-member that the chosen tracers cannot tell from one
 // other end-member, or from a mix of two, given the widths of their priors
-// (science.md §7.4, revised): the fit can then trade one for the other and
+// (docs/methods.md §7.9): the fit can then trade one for the other and
 // the split between them follows the priors.
 type Confusion struct {
 	EndMember int       // the end-member mimicked

@@ -34,8 +34,8 @@ func invertOne(t testing.TB, ems []EndMember, tracers []Tracer, ws ...Water) *Re
 
 var defaultTracers = []Tracer{CaNa, MgNa, HCO3Na}
 
-// TestEdgeWaters answers the single-source waters of the methods brief
-// (§7.3 "Edges", §13 items 2, 6 and 7) within 1 % of the measured cation:
+// TestEdgeWaters answers the single-source waters of docs/methods.md
+// (§7.8, §13 items 2, 6 and 7) within 1 % of the measured cation:
 // diluted seawater (Millero et al. 2008 molalities × 1000 at two
 // dilutions) is all atmosphere, with no rock-derived cations; a pure
 // calcite water (Ca 1000, Alk 2000, no Na; Na* = 0) gives all its Ca to
@@ -97,7 +97,7 @@ func TestEdgeWaters(t *testing.T) {
 }
 
 // TestEvaporiteNeedsClNa checks that the evaporite end-member takes part
-// only with the Cl/Na tracer (science.md §7.4, revised): without it, it is
+// only with the Cl/Na tracer (docs/methods.md §7.9): without it, it is
 // left out with a warning and gets nothing; with it, a water whose Cl
 // above the rain input is halite gets that Na as evaporite.
 func TestEvaporiteNeedsClNa(t *testing.T) {
@@ -281,7 +281,7 @@ func TestStepMatchesInvert(t *testing.T) {
 
 // TestPublishedRangeReading checks the one reading of a published ±: the
 // range is the 95 % interval of a log-normal with its median at the
-// central value, σ of ln = ln(hi/lo)/3.92 (methods brief §7.3, revised).
+// central value, σ of ln = ln(hi/lo)/3.92 (docs/methods.md §7.3).
 func TestPublishedRangeReading(t *testing.T) {
 	s := newSampler(Within(0.2, 0.35, 0.5))
 	want := math.Log(0.5/0.2) / (2 * distuv.UnitNormal.Quantile(0.975)) // gonum's normal quantile

@@ -30,7 +30,7 @@ const z975 = 1.959963984540054
 
 // Prior is the prior distribution of one end-member ratio: a central value
 // and a range. Ratios are positive and span decades, so the random shapes
-// are logarithmic (science.md §7.2). The zero Prior is a fixed ratio of 0.
+// are logarithmic (docs/methods.md §7.3). The zero Prior is a fixed ratio of 0.
 //
 // A published "central value ± range" is read one way everywhere (methods
 // brief §7.3, revised): the range is the prior's 95 % interval, log-normal
@@ -55,7 +55,7 @@ func Range(lo, v, hi float64) Prior { return Prior{Dist: LogUniform, Value: v, L
 
 // Within returns the reading of a published central value v with a range
 // [lo, hi]: log-normal with median v and σ of ln = ln(hi/lo)/3.92, the
-// range taken as the 95 % interval (methods brief §7.3, revised).
+// range taken as the 95 % interval (docs/methods.md §7.3).
 func Within(lo, v, hi float64) Prior { return Prior{Dist: LogNormal, Value: v, Lo: lo, Hi: hi} }
 
 // OneSigma returns the reading of a published v ± sd where the source says

@@ -42,7 +42,7 @@ type Water struct {
 // the Cl/Na tracer, for a water that has a Cl value to fit. Without it, its
 // ratios to Na (low Ca/Na, Mg/Na and HCO3/Na) cannot be told from a
 // silicate end-member mixed with a little carbonate, and the split between
-// them would be the priors' (science.md §7.4, revised). When it takes part
+// them would be the priors' (docs/methods.md §7.9). When it takes part
 // for a corrected water, the halite the correction took from Cl above Cl*
 // is left in the data for it to fit.
 type Problem struct {
@@ -53,7 +53,7 @@ type Problem struct {
 
 // Defaults of the analytical precision (common practice, no source:
 // 2-5 % relative for major ions by ion chromatography or ICP, with a floor
-// near the detection limit; methods brief §7.3 revised).
+// near the detection limit; docs/methods.md §7.2).
 const (
 	DefaultRelPrecision = 0.03  // relative 1σ of every measured concentration
 	DefaultFloor        = 0.5   // µmol/L: smallest 1σ of Na, K, Ca, Mg, Cl, SO4
@@ -134,7 +134,7 @@ func (o *Options) withDefaults() Options {
 
 // seaSr87Sr86 is the 87Sr/86Sr of marine aerosol taken for the Sr the rain
 // correction removes: seawater 0.709175 (McArthur, Howarth & Bailey 2001,
-// J. Geol. 109; from memory, methods brief §4.2).
+// J. Geol. 109; from memory, docs/methods.md §4.2).
 const seaSr87Sr86 = 0.709175
 
 func (p *Problem) validate(o *Options) error {
@@ -221,17 +221,18 @@ type setup struct {
 	y      [maxRows]float64 // the data
 	sd     [maxRows]float64 // their marginal 1σ
 	linv   [maxRows][maxRows]float64
-	yt     [maxRows]float64 // whitened data L⁻¹ y
-	yy     float64          // |yt|²
-	q      int              // error sources
-	m      []float64        // whitened error gradients L⁻¹ G, r × q
-	x      [NCations]affine // corrected concentration of each cation, for the amounts
-	has    [NCations]bool   // the cation is measured
-	atm    [NCations]affine // removed by the correction, booked to the atmosphere
-	evap   [NCations]affine // removed by the correction, booked to evaporite
-	so4    affine           // sulfide-derived sulfate
-	dims   []int            // the run's latent dimensions that are this sample's (end-members taking part)
-	halite bool             // the correction's halite is left in the data
+	yt     [maxRows]float64  // whitened data L⁻¹ y
+	yy     float64           // |yt|²
+	q      int               // error sources
+	m      []float64         // whitened error gradients L⁻¹ G, r × q
+	x      [NCations]affine  // corrected concentration of each cation (the data)
+	in     [NCations]float64 // measured concentration of each cation, which the split adds up to
+	has    [NCations]bool    // the cation is measured
+	atm    [NCations]affine  // removed by the correction, booked to the atmosphere
+	evap   [NCations]affine  // removed by the correction, booked to evaporite
+	so4    affine            // sulfide-derived sulfate
+	dims   []int             // the run's latent dimensions that are this sample's (end-members taking part)
+	halite bool              // the correction's halite is left in the data
 
 	warnings []error
 }
@@ -368,6 +369,7 @@ func (r *Run) prepare(w *Water) setup {
 	for c, sp := range Cations {
 		x := data(sp)
 		st.x[c] = affine{x.Value, padded(x.Grad, q)}
+		st.in[c] = lin.Input[sp].Value
 		st.has[c] = !math.IsNaN(x.Value)
 		st.atm[c] = affine{lin.Atm[sp].Value, padded(lin.Atm[sp].Grad, q)}
 		ev := lin.Evap(sp)

@@ -2,9 +2,9 @@ package mix
 
 import "math"
 
-// Refinement (science.md §7.3, revised: "propose again from a distribution
-// fitted to the weighted draws ... weights = prior x likelihood /
-// proposal"). Every random end-member ratio is a function of a standard
+// Refinement (docs/methods.md §7.5: propose again from a distribution
+// fitted to the weighted draws, with weights prior × likelihood /
+// proposal). Every random end-member ratio is a function of a standard
 // normal latent eta (sampler.latent), so its prior is N(0, I) in eta. A
 // refinement stage proposes eta from the defensive mixture
 //

@@ -51,7 +51,7 @@ type SampleResult struct {
 	ESS    float64 // effective sample size (sum w)² / sum w² (NaN for a rule)
 	// PPP is the posterior predictive probability of the misfit: the
 	// weighted share of replicated data sets whose χ² exceeds that of the
-	// data. Below 0.01 the sample does not fit (science.md §7.3).
+	// data. Below 0.01 the sample does not fit (docs/methods.md §7.7).
 	PPP   float64
 	Alpha []Interval // fraction of the sample's Na from each end-member (0 for one that took no part)
 	// PriorWidth is, per end-member, the posterior 95 % width of its Na
@@ -61,7 +61,7 @@ type SampleResult struct {
 	// Corr is the posterior correlation of the Na the end-members bring
 	// (NaN for an end-member that took no part or does not vary); near −1
 	// the data fix the sum of two but not the split between them
-	// (science.md §7.4; the fractions of two end-members alone are always
+	// (docs/methods.md §7.9; the fractions of two end-members alone are always
 	// perfectly anticorrelated, their amounts are not).
 	Corr   [][]float64
 	Amount Quantiles // µmol/L of each cation from each source

@@ -349,10 +349,12 @@ func (r *Run) eval(w *sampleWork, k int) {
 }
 
 // splitOf fills sp with the draw's amount of each cation from each source:
-// the correction's atmospheric and evaporite amounts, and each end-member's
-// share of the model amounts (n_j times its ratio) times the corrected
-// concentration of the draw, so that the end-members never get more than
-// the corrected amount; a cation not measured keeps the model amounts.
+// the correction's atmospheric and evaporite amounts (drawn with the
+// errors of the correction's inputs), and each end-member's share of the
+// model amounts (n_j times its ratio) of what is left of the measured
+// cation, so that the sources add up to the measured amount, draw by draw,
+// and no end-member gets more than the corrected amount; a cation not
+// measured keeps the model amounts.
 func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 	st := w.st
 	var m Split
@@ -364,8 +366,9 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
+		atm, evap := max(0, st.atm[c].at(w.z)), max(0, st.evap[c].at(w.z))
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		x := max(0, st.x[c].at(w.z))
+		x := max(0, st.in[c]-atm-evap)
 		for src := range NSources {
 			v := m[src][c]
 			if st.has[c] {
@@ -376,8 +379,8 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 			}
 			sp[src][c] = v
 		}
-		sp[Atmosphere][c] += max(0, st.atm[c].at(w.z))
-		sp[Evaporite][c] += max(0, st.evap[c].at(w.z))
+		sp[Atmosphere][c] += atm
+		sp[Evaporite][c] += evap
 	}
 }
 

@@ -14,7 +14,7 @@ import (
 	"lixiv/engine/internal/validation"
 )
 
-// The simulation-based calibration of the inverse model (science.md §7.3;
+// The simulation-based calibration of the inverse model (docs/methods.md §7.10;
 // Talts, Betancourt, Simpson, Vehtari & Gelman 2018, "Validating Bayesian
 // inference algorithms with simulation-based calibration", from memory).
 // Synthetic waters are mixed from rain (sea salt with a spread of its
@@ -364,7 +364,7 @@ const sbcWaterCount = 360
 // sources, truths from the priors, at their centres and near their edges,
 // with and without the evaporite end-member). For every source the 95 %
 // intervals of its shares of Na, Ca and Mg must contain the truth in 92 to
-// 98 % of cases (the target of the methods brief), the ranks of the truth
+// 98 % of cases (the project's target, docs/methods.md §7.10), the ranks of the truth
 // must pass a chi-square test of uniformity (10 bins, p >= 0.001, at the
 // fixed seed), and a single rock source must get at least 99 % of the
 // cation it carries. With LIXIV_VALIDATION set it writes the table to

@@ -6,7 +6,7 @@ import (
 	"strings"
 )
 
-// Thresholds of the verdict (science.md §7.3, revised; the numbers are
+// Thresholds of the verdict (docs/methods.md §7.7; the numbers are
 // common practice or engineering choices, no source).
 const (
 	fitLevel      = 0.01 // posterior predictive probability below which a sample does not fit (the brief's)
@@ -375,7 +375,7 @@ func (r *Run) verdict(sr *SampleResult) string {
 // end-member carries some Na). The Na-normalised end-members are undefined
 // there, so no silicate or evaporite Na is assigned, Ca* and Mg* go to the
 // (first) carbonate end-member and K* to silicate, as the forward model
-// takes it (science.md §7.3 "Edges"). Its draws carry the errors of the
+// takes it (docs/methods.md §7.8). Its draws carry the errors of the
 // data: TargetESS draws of the corrected concentrations, equally weighted.
 func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	st := &sr.setup
@@ -409,13 +409,15 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 			w.z[i] = normQuantile(uniform(w.zrng))
 		}
 		var sp Split
-		x := func(c int) float64 { return math.Max(0, st.x[c].at(w.z)) }
+		for c := range NCations {
+			sp[Atmosphere][c] = math.Max(0, st.atm[c].at(w.z))
+			sp[Evaporite][c] = math.Max(0, st.evap[c].at(w.z))
+		}
+		// What is left of the measured cation after the draw's atmospheric
+		// and evaporite amounts, as in splitOf.
+		x := func(c int) float64 { return math.Max(0, st.in[c]-sp[Atmosphere][c]-sp[Evaporite][c]) }
 		sp[Carbonate][2], sp[Carbonate][3] = x(2), x(3)
 		sp[Silicate][1] = x(1)
-		for c := range NCations {
-			sp[Atmosphere][c] += math.Max(0, st.atm[c].at(w.z))
-			sp[Evaporite][c] += math.Max(0, st.evap[c].at(w.z))
-		}
 		sr.draws[k] = kept{split: sp, so4: math.Max(0, st.so4.at(w.z)), w: 1}
 	}
 	ones := make([]float64, nd)

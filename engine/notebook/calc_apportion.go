@@ -1,10 +1,13 @@
 package notebook
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
 	"strings"
+	"sync"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
@@ -23,11 +26,21 @@ type Apportioned struct {
 	Q         []float64 // discharge at sampling, m³/s (NaN: take the day's mean)
 	Corrected []correct.Result
 	Median    []mix.Split // µmol/L of each cation from each source, cell by cell
-	Lo, Hi    []mix.Split // 2.5 % and 97.5 % quantiles
-	Model     string      // "inverse" or "forward"
+	// Mean is the weighted mean of each sample's kept draws: unlike the
+	// cell-by-cell medians, its sources add up to what was measured, as
+	// every draw's do, so it is the point value of apportioned fluxes.
+	Mean    []mix.Split
+	Lo, Hi  []mix.Split // 2.5 % and 97.5 % quantiles
+	// Draws is the most draws a sample has; sample i has Kept(i) of them
+	// (the inverse model's posterior of each sample is a weighted sample
+	// of its own, draw numbers 0 … Kept(i)−1; draws of different samples
+	// are unrelated).
+	Draws   int
+	Model   string // "inverse" or "forward"
+	Sulfate string // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
 	// Status, Verdict and ESS are each sample's fit as the inverse model
-	// judged it (the forward model fits by construction: Rule, and an ESS
-	// of its draw count).
+	// judged it (the forward model has none to judge: Rule, and an ESS of
+	// its draw count).
 	Status  []mix.Status
 	Verdict []string
 	ESS     []float64
@@ -35,12 +48,28 @@ type Apportioned struct {
 	// fit cannot match and the end-member ratios the posterior piles
 	// against (empty for the forward model).
 	Diagram Marks
+	// doubtfulSample marks the samples whose result should not be trusted
+	// as it stands (mix.SampleResult.Doubtful).
+	doubtfulSample []bool
 
-	doubtful []bool
-	inverse  *mix.Result
-	forward  [][]mix.Split   // forward model: every draw of every sample
-	scales   []correct.Scale // forward model: each draw's rain-correction multipliers (nil: exact)
-	weights  [][]float64
+	// doubtful gives the reasons the apportionment is doubtful (Output.Doubtful).
+	doubtful []string
+	// kept lists, per sample, the draw numbers with a positive weight.
+	kept [][]int32
+	// kw holds the weights of the kept draws (keptWeights).
+	kw     [][]float64
+	kwOnce sync.Once
+	// redo apportions the samples again with another sulfate origin
+	// (Under).
+	redo func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error)
+
+	// scales holds each draw's multipliers of the rain correction's
+	// inputs; nil when the correction is exact (no rain uncertainty).
+	scales []correct.Scale
+
+	inverse *mix.Result
+	forward [][]mix.Split
+	weights [][]float64 // per sample and draw
 }
 
 // Marks says which samples a mixing diagram marks and which edges of the
@@ -60,25 +89,132 @@ type BoxEdge struct {
 	Samples   []string
 }
 
-// Kept returns the number of draws of sample i.
-func (a *Apportioned) Kept(i int) int {
-	if a.forward != nil {
-		return len(a.forward[i])
+// Draw returns the split of sample i under its draw d (atmospheric and
+// evaporite rows included), its weight and whether the sample has such a
+// draw with a positive weight.
+func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
+	if d < 0 || d >= len(a.weights[i]) {
+		return mix.Split{}, 0, false
 	}
-	return a.inverse.Kept(i)
+	w := a.weights[i][d]
+	if a.forward != nil {
+		return a.forward[i][d], w, w > 0
+	}
+	_, s, _ := a.inverse.Draw(i, d)
+	return s, w, w > 0
 }
 
-// Draw returns the k-th draw of sample i (k < Kept(i)): the amount of each
-// cation from each source in µmol/L (the atmospheric and evaporite rows of
-// the correction included) and the draw's weight. The draws of a sample,
-// with their weights, are its posterior; draws of different samples are
-// unrelated (a flux picks each sample's draw on its own).
-func (a *Apportioned) Draw(i, k int) (mix.Split, float64) {
+// Kept returns the number of draws of sample i with a positive weight.
+func (a *Apportioned) Kept(i int) int { return len(a.kept[i]) }
+
+// KeptDraw returns the k-th kept draw of sample i (k < Kept(i)): its draw
+// number, split and weight.
+func (a *Apportioned) KeptDraw(i, k int) (d int, split mix.Split, weight float64) {
+	d = int(a.kept[i][k])
+	split, weight, _ = a.Draw(i, d)
+	return d, split, weight
+}
+
+// keptSplit is KeptDraw without a copy where the splits are stored: the
+// forward model's own, or else copied into buf.
+func (a *Apportioned) keptSplit(i, k int, buf *mix.Split) (d int, split *mix.Split, weight float64) {
+	d = int(a.kept[i][k])
 	if a.forward != nil {
-		return a.forward[i][k], 1
+		return d, &a.forward[i][d], a.weights[i][d]
 	}
-	_, s, w := a.inverse.Draw(i, k)
-	return s, w
+	*buf, weight, _ = a.Draw(i, d)
+	return d, buf, weight
+}
+
+// keptWeights returns the weights of each sample's kept draws, one slice
+// for every caller (flux.Cache shares the draws taken among the quantities
+// built on it).
+func (a *Apportioned) keptWeights() [][]float64 {
+	a.kwOnce.Do(func() {
+		a.kw = make([][]float64, len(a.kept))
+		for i, ks := range a.kept {
+			if len(ks) == 0 {
+				continue
+			}
+			a.kw[i] = make([]float64, len(ks))
+			for k, d := range ks {
+				a.kw[i][k] = a.weights[i][d]
+			}
+		}
+	})
+	return a.kw
+}
+
+// Usable reports whether sample i has a usable apportionment: at least
+// one kept draw, and, for the inverse model, data that some mix of the
+// end-members fits (or that the Na-free rule answers): a sample that does
+// not fit rests on a failed fit (docs/methods.md §7.7, §8.8).
+func (a *Apportioned) Usable(i int) bool {
+	if len(a.kept[i]) == 0 {
+		return false
+	}
+	if a.inverse != nil {
+		st := a.Status[i]
+		return st == mix.Fits || st == mix.Rule
+	}
+	return true
+}
+
+// Doubtful reports whether sample i's apportionment should not be trusted
+// as it stands: the data do not fit the end-members, fit them only with
+// ratios beyond their prior ranges, or the posterior is poorly sampled
+// (mix.SampleResult.Doubtful).
+func (a *Apportioned) Doubtful(i int) bool { return a.doubtfulSample[i] }
+
+// Unusable counts the samples without a usable apportionment.
+func (a *Apportioned) Unusable() int {
+	n := 0
+	for i := range a.kept {
+		if !a.Usable(i) {
+			n++
+		}
+	}
+	return n
+}
+
+// Under returns the samples apportioned again with the sulfate above the
+// rain share from another origin ("gypsum" or "sulfide"), every other
+// setting unchanged, for the CO2 cell's sulfate bracket (docs/methods.md §5.2).
+func (a *Apportioned) Under(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
+	if a.redo == nil {
+		return nil, fmt.Errorf("this apportionment cannot be repeated with another sulfate origin")
+	}
+	return a.redo(ctx, sulfate, report)
+}
+
+// SulfateAboveRain reports whether any sample has sulfate above its rain
+// share (SO4* > 0), the only case in which the sulfate origin changes the
+// apportionment.
+func (a *Apportioned) SulfateAboveRain() bool {
+	for i := range a.Corrected {
+		if a.Corrected[i].SO4Star > 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// howMany says how many of the samples of an inversion neither fit nor
+// were answered by a rule: "all 12 samples", or "3 of 12 samples".
+func howMany(samples []mix.SampleResult) string {
+	bad := 0
+	for i := range samples {
+		if samples[i].Status != mix.Fits && samples[i].Status != mix.Rule {
+			bad++
+		}
+	}
+	if bad == len(samples) {
+		if bad == 1 {
+			return "the only sample"
+		}
+		return fmt.Sprintf("all %d samples", bad)
+	}
+	return fmt.Sprintf("%d of %d samples", bad, len(samples))
 }
 
 // Weights returns the weight of each draw of sample i. The slice is
@@ -86,22 +222,16 @@ func (a *Apportioned) Draw(i, k int) (mix.Split, float64) {
 func (a *Apportioned) Weights(i int) []float64 { return a.weights[i] }
 
 // SO4Sulf returns the sulfide-derived sulfate (µmol/L) of sample i under
-// its k-th draw, which follows the draw's atmospheric sulfate.
-func (a *Apportioned) SO4Sulf(i, k int) float64 {
+// its draw d, which follows the draw's atmospheric sulfate.
+func (a *Apportioned) SO4Sulf(i, d int) float64 {
 	switch {
 	case a.forward == nil:
-		return a.inverse.SO4Sulf(i, k)
+		return a.inverse.SO4Sulf(i, d)
 	case a.scales == nil:
 		return a.Corrected[i].SO4Sulf
 	}
-	return a.Corrected[i].VarySO4Sulf(&a.scales[k])
+	return a.Corrected[i].VarySO4Sulf(&a.scales[d])
 }
-
-// Doubtful reports whether sample i's apportionment should not be trusted
-// as it stands: the data do not fit the end-members, or the posterior is
-// poorly sampled (mix.SampleResult.Doubtful). A cell may be marked doubtful
-// from it.
-func (a *Apportioned) Doubtful(i int) bool { return a.doubtful[i] }
 
 func init() { Register(KindApportionment, computeApportionment) }
 
@@ -110,9 +240,10 @@ func init() { Register(KindApportionment, computeApportionment) }
 // or with Document.Workers = 1).
 var ChunkDraws = 4000
 
-// MaxSampleDraws caps samples × target effective sample size in one
-// apportionment: each sample keeps about its draws (144 bytes each) for the
-// cells below, so the cap bounds memory and work.
+// MaxSampleDraws caps samples × draws of the forward model, and samples ×
+// the target effective sample size of the inverse model, in one
+// apportionment: each sample keeps about its draws (about 150 bytes each)
+// for the cells below, so the cap bounds memory and work.
 const MaxSampleDraws = 4_000_000
 
 // Quick-pass limits: the first pass of Document.Quick runs the inverse
@@ -141,7 +272,8 @@ func delta34S(meta map[string]string) (float64, bool) {
 // forwardRatios takes the forward model's silicate ratios from the first
 // silicate end-member: its central value and range, which the forward
 // model reads as the inverse model does (a log-normal with the range as
-// its 95 % interval; a log-uniform range is read the same way).
+// its 95 % interval, docs/methods.md §7.3; a log-uniform range is read the
+// same way).
 func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 	for _, em := range ems {
 		if em.Source != mix.Silicate {
@@ -160,7 +292,7 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 }
 
 func computeApportionment(e *Env) (*Output, error) {
-	s := e.Cell.Settings.(*ApportionmentSettings)
+	s := *e.Cell.Settings.(*ApportionmentSettings)
 	ai, err := e.Input("atmosphere")
 	if err != nil {
 		return nil, err
@@ -171,13 +303,35 @@ func computeApportionment(e *Env) (*Output, error) {
 	}
 	atm := ai.Value.(*Atmosphere)
 	ems := si.Value.([]mix.EndMember)
+	workers := e.Workers()
+	rough := e.Rough()
+	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true, rough)
+	if err != nil {
+		return out, err // out, when not nil, says which samples it could not take
+	}
+	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
+		o := s
+		o.Sulfate = sulfate
+		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false, rough)
+		return b, err
+	}
+	return out, nil
+}
+
+// apportion corrects every sample and splits its cations among the
+// sources with the settings s, reporting progress; computeApportionment
+// runs it for the cell, and Apportioned.Under again with another sulfate
+// origin. Without summary it leaves out what only the cell shows (the
+// per-sample quantiles Median, Lo and Hi, and the tables): the draws,
+// their weights and each sample's mean split are all fluxes need.
+func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary, rough bool) (*Apportioned, *Output, error) {
 	opt := atm.Options
 	switch s.Sulfate {
 	case "sulfide":
 		opt.Sulfate = correct.Sulfide
 	case "isotope":
 		if s.D34SEvaporite == s.D34SSulfide {
-			return nil, fmt.Errorf("d34s_evaporite_permil and d34s_sulfide_permil must differ")
+			return nil, nil, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
 		}
 		opt.Sulfate = correct.Isotope
 		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
@@ -185,11 +339,11 @@ func computeApportionment(e *Env) (*Output, error) {
 	if s.Negative == "keep" {
 		opt.Negative = correct.Keep
 	}
-	a := &Apportioned{Samples: atm.Samples, Model: s.Model}
+	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
 	out := &Output{}
 	warn := map[string]int{}
 	var precs []*correct.Precision
-	for _, i := range atm.Samples.Used() {
+	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		o := opt
 		if s.Sulfate == "isotope" {
@@ -198,8 +352,14 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 		}
 		r, err := correct.Apply(sm.C, &o)
+		if errors.Is(err, correct.ErrMissing) && !sm.C.Has(chem.Ca) {
+			out.Messages = append(out.Messages, atm.Samples.leftOut(i, chem.Ca, fmt.Sprintf(
+				"sample %s has no Ca value: left out of the apportionment and of the cells that read it (fluxes, CO2); its sulfate above the rain's share goes partly to gypsum, which brings as much Ca; give its Ca, or set %s to sulfide",
+				sampleName(sm), quoteSetting("sulfate"))))
+			continue
+		}
 		if err != nil {
-			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
+			return nil, nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
 		for _, w := range r.Warnings {
 			warn[w.Error()]++
@@ -212,189 +372,219 @@ func computeApportionment(e *Env) (*Output, error) {
 		precs = append(precs, atm.Samples.SamplePrecision(i))
 	}
 	n := len(a.Index)
+	if n == 0 {
+		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+	}
 	if err := atm.Uncertainty.Check(); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	a.Status, a.Verdict, a.ESS = make([]mix.Status, n), make([]string, n), make([]float64, n)
-	a.doubtful = make([]bool, n)
+	a.doubtfulSample = make([]bool, n)
 	switch s.Model {
 	case "forward":
 		if n*s.Draws > MaxSampleDraws {
-			return nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+			return nil, nil, settingErr("draws", "%d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
 		}
-		if err := a.runForward(e, s, ems, atm, warn); err != nil {
-			return nil, err
+		if !atm.Uncertainty.Zero() {
+			// The rain ratios (and the ET factor) are drawn with the
+			// silicate ratios, draw by draw.
+			a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
+		}
+		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
+		a.forward = make([][]mix.Split, n)
+		for i := range a.Corrected {
+			if err := ctx.Err(); err != nil {
+				return nil, nil, err
+			}
+			if a.scales != nil {
+				fo.Vary = func(k int) (v correct.Result) {
+					a.Corrected[i].VaryInto(&v, &a.scales[k])
+					return v
+				}
+			}
+			fr, err := mix.Forward(&a.Corrected[i], fo)
+			if err != nil {
+				return nil, nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
+			}
+			for _, w := range fr.Warnings {
+				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
+			}
+			a.forward[i] = fr.Draws
+			a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
+			report(i+1, n)
 		}
 	case "inverse":
-		if err := a.runInverse(e, s, ems, atm, precs, warn, out); err != nil {
-			return nil, err
+		var tracers []mix.Tracer
+		for _, t := range s.Tracers {
+			tr, err := mix.ParseTracer(t)
+			if err != nil {
+				return nil, nil, settingErr("tracers", "%v", err)
+			}
+			tracers = append(tracers, tr)
+		}
+		p := mix.Problem{EndMembers: ems, Tracers: tracers}
+		for i := range a.Corrected {
+			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Correction: &a.Corrected[i],
+				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86, Precision: precs[i]})
+		}
+		prec := atm.Samples.Precision
+		mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
+			Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: workers}
+		if rough {
+			// The quick pass: a rough posterior now, refined in the full pass.
+			mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
+			out.Rough = true
+		}
+		if n*mo.TargetESS > MaxSampleDraws {
+			return nil, nil, settingErr("target_ess", "%d samples × %d is above the limit of %d; lower it", n, mo.TargetESS, MaxSampleDraws)
+		}
+		var res *mix.Result
+		if workers == 1 || runtime.GOOS == "js" {
+			// One goroutine, in chunks: the progress callback runs between
+			// chunks, so a page can yield to the browser there. The chunk
+			// size does not change the result.
+			run, err := mix.NewRun(p, mo)
+			if err != nil {
+				return nil, nil, err
+			}
+			for !run.Step(ctx, ChunkDraws) {
+				report(int(run.Progress()*1000), 1000)
+			}
+			report(1000, 1000)
+			res = run.Result()
+		} else {
+			mo.Progress = func(done, total int) { report(done, total) }
+			var err error
+			if res, err = mix.Invert(ctx, p, mo); err != nil {
+				return nil, nil, err
+			}
+		}
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
+		a.inverse = res
+		a.Draws = 0
+		for i := range res.Samples {
+			a.Draws = max(a.Draws, res.Kept(i))
+		}
+		a.diagram(res, ems)
+		for _, c := range res.Confusions {
+			out.Warnings = append(out.Warnings, "identifiability: "+c.Text)
+		}
+		for i := range res.Samples {
+			sr := &res.Samples[i]
+			a.Status[i], a.Verdict[i], a.ESS[i], a.doubtfulSample[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
+			for _, w := range sr.Warnings {
+				// Grouped by kind: "end-member left out, no tracer sees it: …".
+				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
+			}
+		}
+		if res.Status != mix.Fits && res.Status != mix.Rule {
+			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for "+howMany(res.Samples)+" (see the status column)")
 		}
 	}
 	// Medians and bounds, cell by cell, from each sample's weighted draws.
-	a.Median, a.Lo, a.Hi = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
-	a.weights = make([][]float64, n)
-	var vals []float64
+	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
+	var vals, ws []float64
+	var draws []mix.Split
 	var qb quantileBuf
+	a.weights = make([][]float64, n)
+	a.kept = make([][]int32, n)
 	for i := 0; i < n; i++ {
-		k := a.Kept(i)
-		draws := make([]mix.Split, k)
-		a.weights[i] = make([]float64, k)
-		for j := range k {
-			draws[j], a.weights[i][j] = a.Draw(i, j)
+		nd := a.Draws
+		if a.inverse != nil {
+			nd = a.inverse.Kept(i)
 		}
-		for src := mix.Source(0); src < mix.NSources; src++ {
-			for c := 0; c < mix.NCations; c++ {
+		draws, ws = draws[:0], ws[:0]
+		a.weights[i] = make([]float64, nd)
+		a.kept[i] = nil
+		for d := 0; d < nd; d++ {
+			var sp mix.Split
+			w := 1.0
+			if a.inverse != nil {
+				_, sp, w = a.inverse.Draw(i, d)
+			} else {
+				sp = a.forward[i][d]
+			}
+			draws = append(draws, sp)
+			ws = append(ws, w)
+			a.weights[i][d] = w
+			if w > 0 {
+				a.kept[i] = append(a.kept[i], int32(d))
+			}
+		}
+		a.Mean[i] = meanSplit(draws, ws)
+		for src := mix.Source(0); src < mix.NSources && summary; src++ {
+			for k := 0; k < mix.NCations; k++ {
 				vals = vals[:0]
-				for j := range draws {
-					vals = append(vals, draws[j][src][c])
+				for _, sp := range draws {
+					vals = append(vals, sp[src][k])
 				}
-				q := qb.quantiles(vals, a.weights[i], 0.025, 0.5, 0.975)
-				a.Lo[i][src][c], a.Median[i][src][c], a.Hi[i][src][c] = q[0], q[1], q[2]
+				q := qb.quantiles(vals, ws, 0.025, 0.5, 0.975)
+				a.Lo[i][src][k], a.Median[i][src][k], a.Hi[i][src][k] = q[0], q[1], q[2]
 			}
 		}
 	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
-	out.Tables = append(out.Tables, a.shareTable(), a.amountTable())
+	if summary {
+		out.Tables = append(out.Tables, a.shareTable(), a.amountTable())
+	}
 	fit, doubt := 0, 0
 	for i := range a.Status {
 		if a.Status[i] == mix.Fits || a.Status[i] == mix.Rule {
 			fit++
 		}
-		if a.doubtful[i] {
+		if a.doubtfulSample[i] {
 			doubt++
 		}
 	}
 	out.Figures = append(out.Figures, Point("samples apportioned", "", float64(fit)), Point("samples without a good fit", "", float64(n-fit)),
 		Point("samples doubtful", "", float64(doubt)))
-	if doubt > 0 {
-		out.Warnings = append(out.Warnings, fmt.Sprintf("%s doubtful (no fit, or a poorly sampled posterior): see the status column", plural(doubt, "sample")))
+	a.Sulfate = s.Sulfate
+	// Doubtful when no sample, or fewer than three in four, could be
+	// apportioned, or when more than a quarter of the samples do not fit,
+	// fit only with end-member ratios beyond their ranges or are poorly
+	// sampled (a quarter: an engineering choice, no source).
+	if bad := a.Unusable(); bad == n && n > 0 {
+		a.doubtful = []string{"no sample has a usable apportionment (" + countOf(bad, n, "samples") + " failed)"}
+	} else if 4*bad > n {
+		a.doubtful = []string{fmt.Sprintf("%s have no usable apportionment (more than a quarter)", countOf(bad, n, "samples"))}
 	}
+	if 4*doubt > n {
+		a.doubtful = append(a.doubtful, fmt.Sprintf("%s do not fit the end-members, fit them only with ratios beyond their ranges, or are poorly sampled (more than a quarter; see the status column)", countOf(doubt, n, "samples")))
+	}
+	out.Doubtful = a.doubtful
 	out.Value = a
-	return out, nil
+	return a, out, nil
 }
 
-// runForward apportions every sample by the forward model.
-func (a *Apportioned) runForward(e *Env, s *ApportionmentSettings, ems []mix.EndMember, atm *Atmosphere, warn map[string]int) error {
-	n := len(a.Corrected)
-	if !atm.Uncertainty.Zero() {
-		// The rain ratios (and the ET factor) are drawn with the silicate
-		// ratios, draw by draw.
-		a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
-	}
-	fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
-	a.forward = make([][]mix.Split, n)
-	for i := range a.Corrected {
-		if err := e.Ctx.Err(); err != nil {
-			return err
+// meanSplit returns the weighted mean of the splits with positive weight
+// (NaN throughout when there is none).
+func meanSplit(draws []mix.Split, ws []float64) mix.Split {
+	var m mix.Split
+	t := 0.0
+	for d := range draws {
+		w := ws[d]
+		if !(w > 0) {
+			continue
 		}
-		if a.scales != nil {
-			fo.Vary = func(k int) (v correct.Result) {
-				a.Corrected[i].VaryInto(&v, &a.scales[k])
-				return v
+		t += w
+		for src := range m {
+			for k := range m[src] {
+				m[src][k] += w * draws[d][src][k]
 			}
 		}
-		fr, err := mix.Forward(&a.Corrected[i], fo)
-		if err != nil {
-			return fmt.Errorf("sample %s: %v", a.Names[i], err)
-		}
-		for _, w := range fr.Warnings {
-			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
-		}
-		a.forward[i] = fr.Draws
-		a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
-		e.Report(i+1, n)
 	}
-	return nil
-}
-
-// runInverse apportions every sample by the inverse model.
-func (a *Apportioned) runInverse(e *Env, s *ApportionmentSettings, ems []mix.EndMember, atm *Atmosphere, precs []*correct.Precision, warn map[string]int, out *Output) error {
-	n := len(a.Corrected)
-	var tracers []mix.Tracer
-	for _, t := range s.Tracers {
-		tr, err := mix.ParseTracer(t)
-		if err != nil {
-			return fmt.Errorf("tracers: %v", err)
-		}
-		tracers = append(tracers, tr)
-	}
-	p := mix.Problem{EndMembers: ems, Tracers: tracers}
-	for i := range a.Corrected {
-		p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Correction: &a.Corrected[i],
-			Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86, Precision: precs[i]})
-	}
-	prec := atm.Samples.Precision
-	mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
-		Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: e.Workers()}
-	if e.Rough() {
-		// The quick pass: a rough posterior now, refined in the full pass.
-		mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
-		out.Rough = true
-	}
-	if n*mo.TargetESS > MaxSampleDraws {
-		return fmt.Errorf("target_ess: %d samples × %d is above the limit of %d; lower target_ess", n, mo.TargetESS, MaxSampleDraws)
-	}
-	var res *mix.Result
-	if e.Workers() == 1 || runtime.GOOS == "js" {
-		// One goroutine, in chunks: the progress callback runs between
-		// chunks, so a page can yield to the browser there. The chunk
-		// size does not change the result.
-		run, err := mix.NewRun(p, mo)
-		if err != nil {
-			return err
-		}
-		for !run.Step(e.Ctx, ChunkDraws) {
-			e.Report(int(run.Progress()*1000), 1000)
-		}
-		e.Report(1000, 1000)
-		res = run.Result()
-	} else {
-		mo.Progress = func(done, total int) { e.Report(done, total) }
-		var err error
-		if res, err = mix.Invert(e.Ctx, p, mo); err != nil {
-			return err
-		}
-	}
-	if err := e.Ctx.Err(); err != nil {
-		return err
-	}
-	a.inverse = res
-	for _, c := range res.Confusions {
-		out.Warnings = append(out.Warnings, "identifiability: "+c.Text)
-	}
-	edges := map[string]*BoxEdge{}
-	var order []string
-	a.Diagram.Misfit, a.Diagram.Names = make([]string, n), a.Names
-	for i := range res.Samples {
-		sr := &res.Samples[i]
-		a.Status[i], a.Verdict[i], a.ESS[i], a.doubtful[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
-		for _, w := range sr.Warnings {
-			// Grouped by kind: "end-member left out, no tracer sees it: …".
-			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
-		}
-		if sr.Status == mix.NoFit && sr.Misfit != nil {
-			a.Diagram.Misfit[i] = "Na"
-			if sr.Misfit.Tracer >= 0 {
-				a.Diagram.Misfit[i] = sr.Misfit.Tracer.String()
+	for src := range m {
+		for k := range m[src] {
+			if t > 0 {
+				m[src][k] /= t
+			} else {
+				m[src][k] = math.NaN()
 			}
 		}
-		for _, b := range sr.Bounds {
-			name := ems[b.EndMember].Name
-			key := fmt.Sprintf("%s|%s|%v", name, b.Tracer, b.Upper)
-			if edges[key] == nil {
-				edges[key] = &BoxEdge{EndMember: name, Ratio: b.Tracer.String(), Upper: b.Upper, Value: b.Limit}
-				order = append(order, key)
-			}
-			edges[key].Samples = append(edges[key].Samples, a.Names[i])
-		}
 	}
-	for _, k := range order {
-		a.Diagram.Edges = append(a.Diagram.Edges, *edges[k])
-	}
-	if res.Status != mix.Fits && res.Status != mix.Rule {
-		out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for some samples (see the status column)")
-	}
-	return nil
+	return m
 }
 
 func (a *Apportioned) dates() []string {
@@ -405,8 +595,8 @@ func (a *Apportioned) dates() []string {
 	return d
 }
 
-// shareTable lists, per sample, its status, effective sample size, and
-// the share of each cation from each source with its 95 % bounds.
+// shareTable lists, per sample, its status in words, its effective sample
+// size, and the share of each cation from each source with its 95 % bounds.
 func (a *Apportioned) shareTable() *ResultTable {
 	cols := []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()), TextColumn("status", a.Verdict),
 		NumColumn("ESS", "draws", a.ESS)}
@@ -447,6 +637,36 @@ func (a *Apportioned) amountTable() *ResultTable {
 // cationsOrder and sourceNames follow mix.Cations and mix.Source.
 var cationsOrder = mix.Cations
 var sourceNames = [mix.NSources]string{"atmosphere", "evaporite", "silicate", "carbonate"}
+
+// diagram sets the marks of the mixing diagrams from the inversion: the
+// samples that do not fit, with the tracer they miss, and the edges of the
+// prior boxes that posteriors press against.
+func (a *Apportioned) diagram(res *mix.Result, ems []mix.EndMember) {
+	edges := map[string]*BoxEdge{}
+	var order []string
+	a.Diagram.Misfit, a.Diagram.Names = make([]string, len(res.Samples)), a.Names
+	for i := range res.Samples {
+		sr := &res.Samples[i]
+		if sr.Status == mix.NoFit && sr.Misfit != nil {
+			a.Diagram.Misfit[i] = "Na"
+			if sr.Misfit.Tracer >= 0 {
+				a.Diagram.Misfit[i] = sr.Misfit.Tracer.String()
+			}
+		}
+		for _, b := range sr.Bounds {
+			name := ems[b.EndMember].Name
+			key := fmt.Sprintf("%s|%s|%v", name, b.Tracer, b.Upper)
+			if edges[key] == nil {
+				edges[key] = &BoxEdge{EndMember: name, Ratio: b.Tracer.String(), Upper: b.Upper, Value: b.Limit}
+				order = append(order, key)
+			}
+			edges[key].Samples = append(edges[key].Samples, a.Names[i])
+		}
+	}
+	for _, k := range order {
+		a.Diagram.Edges = append(a.Diagram.Edges, *edges[k])
+	}
+}
 
 // precisionSpecies are the species whose relative precision a samples
 // table column may set, by their symbols in lower case.

@@ -120,7 +120,7 @@ func TestApportionmentIsTheInversion(t *testing.T) {
 		}
 		for k := range a.Kept(i) {
 			_, want, ww := ref.Draw(i, k)
-			got, gw := a.Draw(i, k)
+			got, gw, _ := a.Draw(i, k)
 			if !sameSplit(got, want) || gw != ww {
 				t.Fatalf("sample %d draw %d differs", i, k)
 			}
@@ -160,7 +160,7 @@ func TestForwardRainDrawsFollowVary(t *testing.T) {
 					t.Fatal(err)
 				}
 				for dr, want := range fr.Draws {
-					if got, _ := a.Draw(i, dr); !sameSplit(got, want) {
+					if got, _, _ := a.Draw(i, dr); !sameSplit(got, want) {
 						t.Fatalf("sample %d draw %d: %v, Vary gives %v", i, dr, got, want)
 					}
 					if got, want := a.SO4Sulf(i, dr), vary(i, dr).SO4Sulf; math.Float64bits(got) != math.Float64bits(want) {

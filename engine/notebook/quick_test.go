@@ -35,7 +35,7 @@ func TestQuickPassRefinesToTheSameResults(t *testing.T) {
 				kind = notebook.KindAtmosphere // the forward model has no quick form
 			}
 			switch kind {
-			case notebook.KindApportionment, notebook.KindFluxes, notebook.KindCO2:
+			case notebook.KindApportionment, notebook.KindFluxes, notebook.KindCO2, notebook.KindMinerals:
 				if st != notebook.Refining || out == nil || !out.Rough {
 					t.Errorf("%s: %s after the quick pass: state %v, output %v; want refining with a rough output", path, c.ID, st, out != nil)
 					continue

@@ -87,7 +87,11 @@ func firstLiteral(s string) (string, bool) {
 func sameDefault(p Param, doc string) bool {
 	switch p.Type {
 	case "number", "integer":
-		a, err1 := strconv.ParseFloat(p.Value, 64)
+		v := p.Value
+		if v == "" {
+			v = "0" // a setting shown blank for 0 ("not given")
+		}
+		a, err1 := strconv.ParseFloat(v, 64)
 		b, err2 := strconv.ParseFloat(doc, 64)
 		return err1 == nil && err2 == nil && a == b
 	}

@@ -44,7 +44,7 @@ var Examples = []Example{
 		}
 		// The default tracers, Ca/Na, Mg/Na and HCO3/Na: with Na, four
 		// data for two end-members, so the misfit test has something to
-		// say (methods brief §7.4), and HCO3/Na tells the little calcite
+		// say (docs/methods.md §7.9), and HCO3/Na tells the little calcite
 		// of the granite from a granite richer in Ca.
 		c := notebook.NewCell(notebook.KindChart, "chart", "Silicate CO2 consumption per litre through the seasons")
 		s := c.Settings.(*notebook.ChartSettings)
@@ -54,8 +54,9 @@ var Examples = []Example{
 	{"examples/marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
 		return MarlowFen().Budget("global", "forward", 2000, 500,
 			"Marlow Fen is a fictional lowland river on limestone and shale with gypsum and pyrite. The data are invented (examples/synth), not measured.",
-			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; set the apportionment's sulfate to sulfide to see the other end of the bracket.")
+			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; the CO2 cell shows beside it the other end of the bracket, all from sulfide oxidation.")
 	}},
+	{"examples/greyhope-beck/greyhope-beck.lixiv.json", greyhopeBudget},
 }
 
 // Computed builds an example, computes it and keeps its results snapshot,
@@ -74,4 +75,16 @@ func Computed(ctx context.Context, ex Example) (*notebook.Document, error) {
 		}
 	}
 	return d, d.Keep()
+}
+
+// DoubtfulDemo returns the demo budget (the first example) with its fluxes
+// made doubtful, for tests of the doubtful state: a limit of 1 % on the
+// flow its samples do not bracket, which the 1.6 % of flow before its first
+// sample exceeds. It is not computed.
+func DoubtfulDemo() (*notebook.Document, error) {
+	d, err := Examples[0].Build()
+	if err != nil {
+		return nil, err
+	}
+	return d, d.SetParam("fluxes", "doubtful_above_percent", "1")
 }

@@ -41,10 +41,13 @@ type Truth struct {
 	SiPerNa          float64 // SiO2 per silicate Na
 	Slope            float64 // log C − log Q slope of the rock-derived solutes (dilution < 0)
 	Noise            float64 // relative analytical noise (1σ)
+	// Water, when set, gives each sample a temperature and a pH (from its
+	// alkalinity and an invented pCO2); nil leaves both unmeasured.
+	Water *WaterTruth
 }
 
 // Seawater X/Cl molar ratios (Millero et al. 2008 reference composition,
-// as in the methods brief §4.2).
+// as in the docs/methods.md §4.2).
 var seaPerCl = map[chem.Species]float64{chem.Na: 0.859120, chem.K: 0.0186998, chem.Ca: 0.0188361,
 	chem.Mg: 0.0967577, chem.SO4: 0.0517252}
 
@@ -77,10 +80,12 @@ func (t *Truth) Discharge() []float64 {
 
 // Sample is one invented water sample in µmol/L (Alk µeq/L).
 type Sample struct {
-	ID  string
-	Day discharge.Day
-	Q   float64
-	C   chem.Composition
+	ID       string
+	Day      discharge.Day
+	Q        float64
+	C        chem.Composition
+	PH, Temp float64 // NaN when not measured
+	PCO2     float64 // the invented pCO2 behind the pH, µatm (NaN without one)
 }
 
 // Samples mixes the samples on every SampleEvery-th day of q.
@@ -118,7 +123,7 @@ func (t *Truth) Samples(q []float64) []Sample {
 		no3 := t.NO3 * (0.5 + r.Float64())
 		// Sulfuric acid from pyrite and nitric acid from nitrification are
 		// buffered by calcite: 2 CaCO3 + H2SO4 -> 2 Ca + 2 HCO3 + SO4 and
-		// CaCO3 + HNO3 -> Ca + HCO3 + NO3 (methods brief §9.1).
+		// CaCO3 + HNO3 -> Ca + HCO3 + NO3 (docs/methods.md §9.1).
 		c[chem.Ca] = cl*seaPerCl[chem.Ca] + naSil*t.CaNaSil + ca + t.Gypsum*dil + 2*t.Pyrite*dil + no3
 		c[chem.Mg] = cl*seaPerCl[chem.Mg] + naSil*t.MgNaSil + mg
 		c[chem.SO4] = cl*seaPerCl[chem.SO4] + t.Gypsum*dil + t.Pyrite*dil
@@ -130,7 +135,11 @@ func (t *Truth) Samples(q []float64) []Sample {
 		for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2} {
 			c[sp] *= math.Exp(t.Noise*r.NormFloat64() - t.Noise*t.Noise/2)
 		}
-		out = append(out, Sample{ID: fmt.Sprintf("%s-%03d", t.Code, len(out)+1), Day: t.Start + discharge.Day(i), Q: q[i], C: c})
+		out = append(out, Sample{ID: fmt.Sprintf("%s-%03d", t.Code, len(out)+1), Day: t.Start + discharge.Day(i), Q: q[i], C: c,
+			PH: math.NaN(), Temp: math.NaN(), PCO2: math.NaN()})
+	}
+	if t.Water != nil {
+		t.Water.measure(t, out, mean)
 	}
 	return out
 }
@@ -147,6 +156,11 @@ func SampleTable(ss []Sample) *notebook.Table {
 		Columns: []string{"sample", "date", "Na", "K", "Ca", "Mg", "Cl", "SO4", "NO3", "Alk", "SiO2"},
 		Units:   []string{"", "", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "µeq/L", "mg/L"},
 	}
+	water := len(ss) > 0 && !math.IsNaN(ss[0].Temp)
+	if water {
+		t.Columns = append(t.Columns, "pH", "temperature")
+		t.Units = append(t.Units, "", "°C")
+	}
 	for _, s := range ss {
 		row := []string{s.ID, s.Day.String()}
 		for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4} {
@@ -158,6 +172,9 @@ func SampleTable(ss []Sample) *notebook.Table {
 			row = append(row, g(no3, 3))
 		}
 		row = append(row, g(s.C[chem.Alk], 1), g(mgL(chem.SiO2, s.C[chem.SiO2]), 3))
+		if water {
+			row = append(row, blankNaN(s.PH, 2), blankNaN(s.Temp, 1))
+		}
 		t.Rows = append(t.Rows, row)
 	}
 	return t
@@ -212,7 +229,7 @@ func (t *Truth) Budget(preset, model string, draws, bootstrap int, notes ...stri
 // TrueSilicateCO2 returns the mean annual short-term CO2 consumption by
 // silicate weathering (mol/km²/yr) that the truth implies over the record
 // q: every day's noise-free silicate alkalinity Na_sil (1 + K/Na + 2 Ca/Na
-// + 2 Mg/Na) at that day's discharge, times the discharge (methods brief
+// + 2 Mg/Na) at that day's discharge, times the discharge (docs/methods.md
 // §8.5 and §9.2).
 func (t *Truth) TrueSilicateCO2(q []float64) float64 {
 	mean := 0.0

@@ -17,14 +17,18 @@ Usage:
   lixiv quick -samples S.csv [-discharge Q.csv -area KM2] [-save B.lixiv.json] [-json]
                                        a budget with default settings from a samples file
                                        (CSV, TSV or .xlsx; -sheet NAME picks a workbook's sheet);
-                                       without discharge: per-sample apportionment and CO2 per litre
+                                       without discharge: per-sample apportionment and CO2 per litre;
+                                       -date-order, -below-detection, -default-unit and -use-column
+                                       set what the page calls "date order", "below detection limit",
+                                       "default unit" and "columns to use"
   lixiv batch [-j N] [-out DIR] [-check] FILE|DIR...
                                        run many budget files at once on all cores
   lixiv serve [-addr A] [-dir D]       serve the notebook page
   lixiv help                           this text
 
 Budget files end in .lixiv.json. Exit status: 0 ok; 1 error, or a budget with cells that did not
-compute (rerun, quick and batch still print it); 2 usage; 3 results differ.
+compute (rerun, quick and batch still print it); 2 usage; 3 results differ; 4 doubtful results
+(every cell computed, but some rest on failed fits or unbracketed flow; the summary says why).
 A figure without a value is printed as "no value" with the reason.
 CO2 consumption is a geochemical budget, not a carbon-removal credit.
 `

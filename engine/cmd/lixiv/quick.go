@@ -20,16 +20,9 @@ import (
 // (text, or an .xlsx workbook whose sheet is named by sheet, "" for the
 // first) and, when given, a discharge file and the area. Without discharge
 // it stops at the per-sample apportionment and CO2 per litre.
-func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*notebook.Document, error) {
+func quickBudget(samplesPath, sheet, dischargePath string, area float64, set ...func(*notebook.SamplesSettings, *notebook.DischargeSettings)) (*notebook.Document, error) {
 	name := strings.TrimSuffix(filepath.Base(samplesPath), filepath.Ext(samplesPath))
-	d := notebook.New("Quick budget from " + filepath.Base(samplesPath))
-	add := func(k notebook.Kind, id, title string) *notebook.Cell {
-		c := notebook.NewCell(k, id, title)
-		if err := d.Insert(c, -1); err != nil {
-			panic(err) // fixed ids; a clash is a programming error
-		}
-		return c
-	}
+	d := notebook.NewBudget("Quick budget from " + filepath.Base(samplesPath))
 	readTable := func(path, sheet string) (*notebook.Table, error) {
 		b, err := os.ReadFile(path)
 		if err != nil {
@@ -44,35 +37,49 @@ func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*noteb
 		}
 		return notebook.ReadTable(filepath.Base(path), string(b))
 	}
-	if dischargePath != "" {
-		if area <= 0 {
-			return nil, usageError("quick: a discharge file needs -area (km², above zero)")
-		}
-		s := add(notebook.KindSite, "site", name).Settings.(*notebook.SiteSettings)
-		s.Name, s.AreaKm2 = name, area
+	if dischargePath != "" && area <= 0 {
+		return nil, usageError("quick: a discharge file needs -area (km², above zero)")
 	}
+	titles := map[string]string{"site": name, "samples": filepath.Base(samplesPath), "discharge": filepath.Base(dischargePath),
+		"rain": "Sea-salt correction", "sources": "End-members (global preset)", "apportionment": "Sources of the cations",
+		"fluxes": "Annual fluxes", "co2": "CO2 consumption"}
+	for _, c := range d.Cells {
+		c.Title = titles[c.ID]
+	}
+	d.Cell("site").Settings.(*notebook.SiteSettings).Name = name
+	d.Cell("site").Settings.(*notebook.SiteSettings).AreaKm2 = area
 	st, err := readTable(samplesPath, sheet)
 	if err != nil {
 		return nil, err
 	}
-	add(notebook.KindSamples, "samples", filepath.Base(samplesPath)).Table = st
-	if dischargePath != "" {
+	d.Cell("samples").Table = st
+	if dischargePath == "" { // per-sample apportionment and CO2 per litre only
+		for _, id := range []string{"site", "discharge", "fluxes"} {
+			if err := d.Remove(id); err != nil {
+				return nil, err
+			}
+		}
+	} else {
 		qt, err := readTable(dischargePath, "")
 		if err != nil {
 			return nil, err
 		}
-		add(notebook.KindDischarge, "discharge", filepath.Base(dischargePath)).Table = qt
+		d.Cell("discharge").Table = qt
 	}
-	add(notebook.KindAtmosphere, "rain", "Sea-salt correction")
-	src := add(notebook.KindSources, "sources", "End-members (global preset)")
-	if src.Table, err = notebook.SourcesTable("global"); err != nil {
-		return nil, err
+	ds := &notebook.DischargeSettings{}
+	if c := d.Cell("discharge"); c != nil {
+		ds = c.Settings.(*notebook.DischargeSettings)
 	}
-	add(notebook.KindApportionment, "apportionment", "Sources of the cations")
-	if dischargePath != "" {
-		add(notebook.KindFluxes, "fluxes", "Annual fluxes")
+	for _, f := range set {
+		f(d.Cell("samples").Settings.(*notebook.SamplesSettings), ds)
 	}
-	add(notebook.KindCO2, "co2", "CO2 consumption")
+	for _, id := range []string{"samples", "discharge"} {
+		if c := d.Cell(id); c != nil {
+			if err := c.Settings.Validate(); err != nil {
+				return nil, usageError("quick: " + err.Error())
+			}
+		}
+	}
 	return d, nil
 }
 
@@ -85,6 +92,11 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 	areaText := fs.String("area", "", "catchment area in km² (needed with -discharge)")
 	save := fs.String("save", "", "write the budget, with its results, to this .lixiv.json file")
 	asJSON := fs.Bool("json", false, "print the JSON report instead of the summary")
+	order := fs.String("date-order", "auto", `how dates such as 03/04/2024 are read: auto, day-first or month-first (the "date order" setting)`)
+	below := fs.String("below-detection", "half-limit", `what stands in for a value below detection: half-limit, zero, limit or leave-out (the "below detection limit" setting)`)
+	unit := fs.String("default-unit", "", `unit of species columns that give none, such as mg/L (the "default unit" setting)`)
+	var use columnList
+	fs.Var(&use, "use-column", `header of the column to read where a species has two; repeat for several (the "columns to use" setting)`)
 	if err := fs.Parse(args); err != nil {
 		return usageError(err.Error())
 	}
@@ -98,7 +110,10 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			return usageError(fmt.Sprintf("quick: -area %q is not a positive number of km²", *areaText))
 		}
 	}
-	d, err := quickBudget(*samples, *sheet, *dis, area)
+	d, err := quickBudget(*samples, *sheet, *dis, area, func(s *notebook.SamplesSettings, q *notebook.DischargeSettings) {
+		s.DateOrder, s.BelowDetection, s.DefaultUnit, s.UseColumns = *order, *below, *unit, use
+		q.DateOrder = *order
+	})
 	if err != nil {
 		return err
 	}
@@ -125,9 +140,23 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			perSample(stdout, d)
 		}
 	}
+	var bad, doubt []string
 	if p := cellProblems(d); len(p) > 0 {
-		return problemsError([]string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")})
+		bad = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
 	}
+	if p := doubtfulCells(d); len(p) > 0 {
+		doubt = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
+	}
+	return problemsError(bad, doubt)
+}
+
+// columnList collects the repeated -use-column flag.
+type columnList []string
+
+func (c *columnList) String() string { return strings.Join(*c, ", ") }
+
+func (c *columnList) Set(v string) error {
+	*c = append(*c, v)
 	return nil
 }
 
