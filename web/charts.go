@@ -389,7 +389,6 @@ func markMisfits(ch *plot.Chart, m *notebook.Marks, x, y []float64, names []stri
 	}
 }
 
-
 type priorBox struct {
 	name           string
 	x0, x1, y0, y1 float64

@@ -29,8 +29,8 @@ type Apportioned struct {
 	// Mean is the weighted mean of each sample's kept draws: unlike the
 	// cell-by-cell medians, its sources add up to what was measured, as
 	// every draw's do, so it is the point value of apportioned fluxes.
-	Mean    []mix.Split
-	Lo, Hi  []mix.Split // 2.5 % and 97.5 % quantiles
+	Mean   []mix.Split
+	Lo, Hi []mix.Split // 2.5 % and 97.5 % quantiles
 	// Draws is the most draws a sample has; sample i has Kept(i) of them
 	// (the inverse model's posterior of each sample is a weighted sample
 	// of its own, draw numbers 0 … Kept(i)−1; draws of different samples
