@@ -192,7 +192,7 @@ func shrink(d int, g gaussian, ess float64, to *gaussian) {
 func (p *proposal) add(pi float64, g gaussian) {
 	d := p.d
 	c := component{pi: pi, mu: g.mu, l: make([]float64, d*d)}
-	for jit := 0.0; jit < 1e3; jit = math.Max(1e-9, 10*jit) {
+	for jit := 0.0; jit < 1e3; jit = max(1e-9, 10*jit) {
 		if c.cholesky(d, g.cov, jit) {
 			p.comp = append(p.comp, c)
 			return
@@ -279,7 +279,7 @@ func (p *proposal) ell(eta, u []float64) float64 {
 			q += u[i] * u[i]
 		}
 		lc[ci] = p.lpi[ci] - 0.5*q - c.halfDet
-		top = math.Max(top, lc[ci])
+		top = max(top, lc[ci])
 	}
 	for ci := range p.comp {
 		sum += pexp(lc[ci] - top)

@@ -50,6 +50,7 @@ type sampleWork struct {
 
 	z, eta, u []float64
 	theta     [NTracers][MaxEndMembers]float64
+	fits      [1 << MaxEndMembers]faceFit // slabDraw's working space
 }
 
 // Offsets in a draw record (after the d latents).
@@ -225,7 +226,7 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	r.eval(w, k)
 	if s > 0 {
 		e := w.ell[s-1][k]
-		big := math.Max(plog(defensive), plog(1-defensive)+e)
+		big := max(plog(defensive), plog(1-defensive)+e)
 		lw := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
 		if o := &w.own; !math.IsInf(lw, -1) {
 			if o[1] == 0 {
@@ -431,7 +432,7 @@ func (w *sampleWork) mixture() {
 	for k := 0; k < w.n; k++ {
 		big := lc0
 		for s := range w.props {
-			big = math.Max(big, lc[s]+w.ell[s][k])
+			big = max(big, lc[s]+w.ell[s][k])
 		}
 		sum := pexp(lc0 - big)
 		for s := range w.props {
@@ -448,7 +449,7 @@ func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
 	top := math.Inf(-1)
 	for k := 0; k < w.n; k++ {
 		wt[k] = beta*w.at(k, oLogL) - w.lq[k]
-		top = math.Max(top, wt[k])
+		top = max(top, wt[k])
 	}
 	if math.IsInf(top, -1) || top != top {
 		clear(wt[:w.n]) // no draw has a finite weight
@@ -485,10 +486,10 @@ func (w *sampleWork) endStage(r *Run) {
 				continue
 			}
 			e := w.ell[last-1][k]
-			big := math.Max(plog(defensive), plog(1-defensive)+e)
+			big := max(plog(defensive), plog(1-defensive)+e)
 			v := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
 			lw = append(lw, v)
-			top = math.Max(top, v)
+			top = max(top, v)
 		}
 		for _, v := range lw {
 			x := pexp(v - top)
@@ -496,7 +497,7 @@ func (w *sampleWork) endStage(r *Run) {
 			sw2 += x * x
 		}
 		if sw2 > 0 {
-			w.eff = math.Max(0.02, sw*sw/sw2/float64(len(lw)))
+			w.eff = max(0.02, sw*sw/sw2/float64(len(lw)))
 		}
 	}
 	if debugStages {
@@ -519,7 +520,7 @@ func (w *sampleWork) endStage(r *Run) {
 	// which the next fit narrows (annealing, as in sequential Monte Carlo;
 	// an engineering choice).
 	fitESS, beta := ess, 1.0
-	if goal := math.Min(fitDraws, 0.3*float64(w.n)); ess < goal {
+	if goal := min(fitDraws, 0.3*float64(w.n)); ess < goal {
 		lo, hi := 0.0, 1.0
 		for range 14 {
 			mid := 0.5 * (lo + hi)

@@ -54,6 +54,8 @@ type faceFit struct {
 	l    [MaxEndMembers][MaxEndMembers]float64 // H_F + λI = L Lᵀ
 	mu   vec6                                  // on the face's members, in order
 	logZ float64
+	hd   float64 // ln det L, the sum of ln L_ii in order
+	p    float64 // exp(logZ − largest logZ): the face's unnormalised chance
 }
 
 // slabDraw samples the face and the amounts for the draw whose whitened
@@ -66,16 +68,21 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	// The regularisation λ I, a Gaussian of sd 10 T_ref on each amount,
 	// keeps faces with more members than data solvable; it shapes the
 	// proposal only (the weight is exact).
-	tref := math.Max(st.y[0], 1)
+	tref := max(st.y[0], 1)
 	lambda := 1 / (100 * tref * tref)
 	logPrior := -float64(K) * math.Ln2
-	var fits [1 << MaxEndMembers]faceFit
+	fits := &w.fits // working space: each entry is written before it is read (m is reset below)
 	nf := 1 << K
+	var logc [MaxEndMembers]float64
+	for j := 0; j < K; j++ {
+		logc[j] = plog(c[j])
+	}
 	top := logPrior - 0.5*yy // the empty face: n = 0
 	fits[0].logZ = top
 	for mask := 1; mask < nf; mask++ {
 		f := &fits[mask]
 		f.logZ = math.Inf(-1)
+		f.m = 0
 		for j := 0; j < K; j++ {
 			if mask&(1<<j) != 0 {
 				f.idx[f.m] = j
@@ -108,6 +115,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		if !ok {
 			continue
 		}
+		f.hd = halfDet
 		// μ = (H_F + λI)⁻¹ b_F, and the diagonal of the inverse.
 		var y [MaxEndMembers]float64
 		for i := 0; i < m; i++ {
@@ -131,8 +139,8 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		t, chi2, jac, vt := 0.0, yy, 0.0, 0.0
 		for i := 0; i < m; i++ {
 			ci := c[f.idx[i]]
-			t += ci * math.Max(f.mu[i], 0)
-			jac += plog(ci)
+			t += ci * max(f.mu[i], 0)
+			jac += logc[f.idx[i]]
 			chi2 -= 2 * b[f.idx[i]] * f.mu[i]
 			for p := 0; p < m; p++ {
 				chi2 += f.mu[i] * H[f.idx[i]][f.idx[p]] * f.mu[p]
@@ -161,25 +169,26 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		// (the log-uniform density is steep near zero; a point value
 		// there would overstate the face).
 		te := sqrt(t*t + vt)
-		lz := logPrior + logSlab(m, math.Max(te, slabLo)) + jac - 0.5*math.Max(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
+		lz := logPrior + logSlab(m, max(te, slabLo)) + jac - 0.5*max(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
 		for i := 0; i < m; i++ {
-			lz += plog(math.Max(normCDF(f.mu[i]/sd[i]), 1e-300))
+			lz += plog(max(normCDF(f.mu[i]/sd[i]), 1e-300))
 		}
 		if lz != lz {
 			continue
 		}
 		f.logZ = lz
-		top = math.Max(top, lz)
+		top = max(top, lz)
 	}
 	// Choose a face in proportion to the estimates.
 	sum := 0.0
 	for mask := 0; mask < nf; mask++ {
-		sum += pexp(fits[mask].logZ - top)
+		fits[mask].p = pexp(fits[mask].logZ - top)
+		sum += fits[mask].p
 	}
 	u := uniform(w.rng) * sum
 	pick, acc := -1, 0.0
 	for mask := 0; mask < nf; mask++ {
-		p := pexp(fits[mask].logZ - top)
+		p := fits[mask].p
 		if p == 0 {
 			continue
 		}
@@ -211,7 +220,6 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		x[i] = s / f.l[i][i]
 	}
 	t, jac := 0.0, 0.0
-	halfDet := 0.0
 	for i := 0; i < m; i++ {
 		v := f.mu[i] + x[i]
 		if v < 0 {
@@ -220,14 +228,13 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		}
 		n[f.idx[i]] = v
 		t += c[f.idx[i]] * v
-		jac += plog(c[f.idx[i]])
-		halfDet += plog(f.l[i][i])
+		jac += logc[f.idx[i]]
 	}
 	lp := logSlab(m, t) + jac
 	if math.IsInf(lp, -1) {
 		return math.Inf(-1)
 	}
 	chi2 := max(0, yy-2*dot(K, b, n)+quad(K, H, n))
-	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + halfDet
+	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }

@@ -181,7 +181,7 @@ func (r *Run) finish(w *sampleWork) {
 	if sr.PPP < fitLevel {
 		sr.Status = NoFit
 	}
-	sr.WellSampled = ess >= math.Min(wellSampled, float64(r.opt.TargetESS))
+	sr.WellSampled = ess >= min(wellSampled, float64(r.opt.TargetESS))
 	sr.Verdict = r.verdict(sr)
 	if st.naFree && sr.Status == NoFit {
 		// No mix of the Na-normalised end-members fits a water without
@@ -270,7 +270,7 @@ func (r *Run) misfit(w *sampleWork, keep []int, kw, col []float64, idx *[]wpair)
 	m.Lo, m.Hi = math.Inf(1), math.Inf(-1)
 	for i := range w.n {
 		if v := ratio(w.pred(i)); !math.IsNaN(v) {
-			m.Lo, m.Hi = math.Min(m.Lo, v), math.Max(m.Hi, v)
+			m.Lo, m.Hi = min(m.Lo, v), max(m.Hi, v)
 		}
 	}
 	for a, i := range keep {
@@ -410,15 +410,15 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 		}
 		var sp Split
 		for c := range NCations {
-			sp[Atmosphere][c] = math.Max(0, st.atm[c].at(w.z))
-			sp[Evaporite][c] = math.Max(0, st.evap[c].at(w.z))
+			sp[Atmosphere][c] = max(0, st.atm[c].at(w.z))
+			sp[Evaporite][c] = max(0, st.evap[c].at(w.z))
 		}
 		// What is left of the measured cation after the draw's atmospheric
 		// and evaporite amounts, as in splitOf.
-		x := func(c int) float64 { return math.Max(0, st.in[c]-sp[Atmosphere][c]-sp[Evaporite][c]) }
+		x := func(c int) float64 { return max(0, st.in[c]-sp[Atmosphere][c]-sp[Evaporite][c]) }
 		sp[Carbonate][2], sp[Carbonate][3] = x(2), x(3)
 		sp[Silicate][1] = x(1)
-		sr.draws[k] = kept{split: sp, so4: math.Max(0, st.so4.at(w.z)), w: 1}
+		sr.draws[k] = kept{split: sp, so4: max(0, st.so4.at(w.z)), w: 1}
 	}
 	ones := make([]float64, nd)
 	col, shr := make([]float64, nd), make([]float64, nd)
@@ -444,7 +444,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	}
 	sr.Status, sr.WellSampled = Rule, true
 	sr.ESS, sr.Draws = float64(nd), w.n+nd
-	x := func(c int) float64 { return math.Max(0, st.x[c].v) }
+	x := func(c int) float64 { return max(0, st.x[c].v) }
 	switch {
 	case x(1) == 0 && x(2) == 0 && x(3) == 0:
 		sr.Verdict = "rain only: no rock-derived cations (Na*, K*, Ca* and Mg* ≤ 0 after the corrections)"
