@@ -19,6 +19,11 @@ type engine struct {
 	cs    []float64 // cos(2π t) per day
 	year  []int     // reporting year index per day
 	sumQ  []float64 // per year: Σ Q_d over days with a value (m³/s × days)
+	// flow lists, in order, the days with a discharge other than 0: the
+	// only days whose concentration enters a load. The daily loops of every
+	// replicate walk these, so a long record that is mostly gaps (a date
+	// typed a century out) costs what its days with data cost.
+	flow []int
 
 	smp []sample
 	lnQ []float64 // per sample: plog(q)
@@ -55,6 +60,9 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 		}
 		if !math.IsNaN(q) {
 			e.sumQ[y] += q
+			if q != 0 {
+				e.flow = append(e.flow, k)
+			}
 		}
 		if opt.Seasonal {
 			e.sn[k], e.cs[k] = seasonal(d.YearFraction())
@@ -228,29 +236,29 @@ func (e *engine) periodWeighted(w, c []float64, cref float64) bool {
 	if len(nodes) == 0 {
 		return false
 	}
-	n := len(e.cd)
-	for k := 0; k <= nodes[0].k && k < n; k++ {
-		e.cd[k] = nodes[0].c
-	}
-	for j := 1; j < len(nodes); j++ {
-		a, b := nodes[j-1], nodes[j]
-		span := float64(b.k - a.k)
-		for k := a.k + 1; k <= b.k; k++ {
-			e.cd[k] = a.c + (b.c-a.c)*(float64(k-a.k)/span)
+	// e.cd is needed on the days with flow only (sumDaily reads no other).
+	j := 0 // nodes[j-1].k < k <= nodes[j].k while interpolating
+	first, last := nodes[0], nodes[len(nodes)-1]
+	for _, k := range e.flow {
+		switch {
+		case k <= first.k:
+			e.cd[k] = first.c
+		case k >= last.k:
+			e.cd[k] = last.c
+		default:
+			for nodes[j].k < k {
+				j++
+			}
+			a, b := nodes[j-1], nodes[j]
+			e.cd[k] = a.c + (b.c-a.c)*(float64(k-a.k)/float64(b.k-a.k))
 		}
-	}
-	for k := nodes[len(nodes)-1].k; k < n; k++ {
-		e.cd[k] = nodes[len(nodes)-1].c
 	}
 	return true
 }
 
 // sumDaily adds Σ (C_d − Cref) Q_d per year into out.
 func (e *engine) sumDaily(cref float64, out []float64) {
-	for k, q := range e.q {
-		if math.IsNaN(q) || q == 0 {
-			continue
-		}
-		out[e.year[k]] += (e.cd[k] - cref) * q
+	for _, k := range e.flow {
+		out[e.year[k]] += (e.cd[k] - cref) * e.q[k]
 	}
 }

@@ -6,6 +6,8 @@ import (
 	"math"
 	"os"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzRead feeds arbitrary bytes to the importer: it must never panic,
@@ -27,6 +29,7 @@ func FuzzRead(f *testing.F) {
 	sentinels := []error{ErrNotTable, ErrNoColumn, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany}
 	f.Fuzz(func(t *testing.T, in []byte) {
+		defer watchdog.Start(in)()
 		tb, err := Read(bytes.NewReader(in), "fuzz.csv", Options{})
 		if err != nil {
 			t.Fatalf("read error from memory: %v", err)

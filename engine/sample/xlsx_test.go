@@ -13,6 +13,7 @@ import (
 	"testing"
 
 	"lixiv/engine/internal/golden"
+	"lixiv/engine/internal/watchdog"
 )
 
 // xc is one cell of a test worksheet: ref such as "B3", t the cell type
@@ -457,6 +458,7 @@ func FuzzReadXLSX(f *testing.F) {
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany,
 		ErrNotWorkbook, ErrNoSheet, ErrBadRow}
 	f.Fuzz(func(t *testing.T, in []byte, sheet string) {
+		defer watchdog.Start([]any{in, sheet})()
 		tb, err := ReadXLSX(in, "fuzz.xlsx", sheet, Options{})
 		if tb == nil {
 			t.Fatal("nil table")
@@ -561,6 +563,7 @@ func FuzzXLSXParts(f *testing.F) {
 	f.Add([]byte(`<worksheet><sheetData><row><c t="s"><v>0</v></c><c><v>1e400</v></c></row></sheetData></worksheet>`),
 		[]byte(`<sst count="-1"><si><t>x</t></si></sst>`), []byte(`<styleSheet><cellXfs><xf numFmtId="14"/></cellXfs></styleSheet>`))
 	f.Fuzz(func(t *testing.T, sheet, shared, styles []byte) {
+		defer watchdog.Start([]any{sheet, shared, styles})()
 		in := replaceParts(t, book, map[string][]byte{"xl/worksheets/sheet1.xml": sheet, "xl/sharedStrings.xml": shared, "xl/styles.xml": styles})
 		tb, err := ReadXLSX(in, "fuzz.xlsx", "", Options{})
 		if tb == nil {
