@@ -95,12 +95,13 @@ func (t *Table) Cell(r, c int) string {
 }
 
 // CSV renders the table as comma-separated text: the header row, then the
-// units row when any unit is set, then the data rows. Cells holding a comma,
-// quote or line break are quoted.
+// units row when any unit is set, then the data rows. Cells holding a
+// comma, semicolon, tab, quote or line break are quoted, so that the text
+// reads back (TableFromText) with the same delimiter and cells.
 func (t *Table) CSV() string { return t.delimited(',') }
 
-// TSV renders the table as tab-separated text, as a spreadsheet copies it;
-// decimal commas then stay readable.
+// TSV renders the table as tab-separated text, as a spreadsheet copies it,
+// quoted as CSV is.
 func (t *Table) TSV() string { return t.delimited('\t') }
 
 func (t *Table) delimited(sep byte) string {
@@ -131,7 +132,10 @@ func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
 		if i > 0 {
 			b.WriteByte(sep)
 		}
-		if strings.ContainsAny(c, string(sep)+"\"\r\n") {
+		// Quoted: a cell holding a quote or a line break, and one holding
+		// any delimiter the readers detect (not only sep), so that the text
+		// reads back with the same delimiter and the same cells.
+		if strings.ContainsAny(c, "\t;,\"\r\n") {
 			b.WriteByte('"')
 			b.WriteString(strings.ReplaceAll(c, `"`, `""`))
 			b.WriteByte('"')
