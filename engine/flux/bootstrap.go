@@ -1,6 +1,7 @@
 package flux
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -103,6 +104,9 @@ type BootstrapOptions struct {
 	// its host. It must not change anything the bootstrap reads; results
 	// do not depend on it.
 	Tick func()
+	// Context, when set, cancels a long bootstrap: it is looked at before
+	// every replicate, and Bootstrap then returns its error.
+	Context context.Context
 }
 
 func (b *BootstrapOptions) tick() {
@@ -219,6 +223,9 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	var fixed []float64
 	fixedOK := false
 	for r := 0; r < nrep; r++ {
+		if b.Context != nil && b.Context.Err() != nil {
+			return nil, b.Context.Err()
+		}
 		for i := range w {
 			w[i] = 0
 		}
@@ -299,15 +306,22 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	return u, nil
 }
 
-// factor returns 1 + sd·ε, redrawn while not positive; it always consumes
-// at least one normal draw so that streams stay aligned when sd is 0.
+// maxRedraws bounds factor's redrawing: for σ up to 10 (1000 %) a draw is
+// positive with probability above 0.46, so 1000 redraws all failing has a
+// probability below 1e-300; a σ that is NaN or infinite stops there.
+const maxRedraws = 1000
+
+// factor returns 1 + sd·ε, redrawn while not positive (at most maxRedraws
+// times, NaN then, which leaves the replicate out of the intervals); it
+// always consumes at least one normal draw so that streams stay aligned
+// when sd is 0.
 func factor(rng *rand.Rand, sd float64) float64 {
-	for {
-		f := 1 + sd*normal(rng)
-		if f > 0 {
+	for range maxRedraws {
+		if f := 1 + sd*normal(rng); f > 0 {
 			return f
 		}
 	}
+	return math.NaN()
 }
 
 // Summary returns the median and 95 % interval of the non-NaN values of v

@@ -116,11 +116,6 @@ var expandSplits = true
 // (about 64 MB).
 const expandLimit = 500_000
 
-// MaxSampleDraws caps samples × draws in one apportionment: above
-// expandLimit only a weight (8 bytes) is kept per draw, plus the model's
-// own per-draw record, so the cap bounds memory and work.
-const MaxSampleDraws = 4_000_000
-
 // delta34S finds a sample's δ34S of sulfate (‰) among its unrecognised
 // columns ("d34S", "δ34S-SO4", "delta34S", …).
 func delta34S(meta map[string]string) (float64, bool) {
@@ -206,8 +201,8 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.Corrected = append(a.Corrected, r)
 	}
 	n := len(a.Index)
-	if n*s.Draws > MaxSampleDraws {
-		return nil, fmt.Errorf("draws: %d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
+		return nil, err
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
@@ -311,6 +306,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.splits = make([][]mix.Split, n)
 	}
 	for i := 0; i < n; i++ {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
 		if a.inverse != nil { // the draws are done; keep reporting while they are summarised
 			e.Report(a.inverse.Draws*n, a.inverse.Draws*n)
 		}

@@ -187,9 +187,12 @@ func computeCO2(e *Env) (*Output, error) {
 	if fv.App != a {
 		out.Warnings = append(out.Warnings, "the fluxes cell reads another apportionment; its discharge record and options are used here")
 		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, SeriesReplicates: fv.SeriesReplicates, App: a}
+		if err := checkBootstrapWork("bootstrap", fv.Bootstrap.Replicates, n, fv.Record.Len()); err != nil {
+			return nil, err
+		}
 	}
 	done := n // progress units: per litre, then each bootstrap
-	fv = fv.ticking(func() { e.Report(done, total) })
+	fv = fv.ticking(e.Ctx, func() { e.Report(done, total) })
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64
 	bySource := &sourceTable{unit: "mol/km²/yr", n: fv.breakdownReplicates()}

@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"strings"
@@ -27,10 +28,13 @@ type Fluxes struct {
 	tick func()
 }
 
-// ticking returns a copy of v whose long loops call tick.
-func (v *Fluxes) ticking(tick func()) *Fluxes {
+// ticking returns a copy of v whose long loops call tick and whose
+// bootstraps stop when ctx is cancelled: the context and progress of the
+// cell computing with it (a cell below reuses the value of a fluxes cell
+// computed in an earlier run).
+func (v *Fluxes) ticking(ctx context.Context, tick func()) *Fluxes {
 	w := *v
-	w.tick, w.Bootstrap.Tick = tick, tick
+	w.tick, w.Bootstrap.Tick, w.Bootstrap.Context = tick, tick, ctx
 	return &w
 }
 
@@ -200,7 +204,12 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Fluxes{Record: rec, Site: site, App: ai.Value.(*Apportioned),
+	app := ai.Value.(*Apportioned)
+	if err := firstErr(checkBootstrapWork("bootstrap", s.Bootstrap, len(app.Names), rec.Len()),
+		checkBootstrapWork("series_bootstrap", s.SeriesBootstrap, len(app.Names), rec.Len())); err != nil {
+		return nil, err
+	}
+	return &Fluxes{Record: rec, Site: site, App: app,
 		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
@@ -306,7 +315,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	// tv is v reporting progress from inside a long series, so that a page
 	// on one goroutine can yield to the browser there too.
 	cur := 0
-	tv := v.ticking(func() { e.Report(cur, len(jobs)) })
+	tv := v.ticking(e.Ctx, func() { e.Report(cur, len(jobs)) })
 	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
 		c := make([]float64, len(a.Names))
 		for i := range c {

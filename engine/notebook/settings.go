@@ -205,30 +205,29 @@ func DefaultSettings(k Kind) Settings {
 	return &BrokenSettings{}
 }
 
-// Limits on values a file may ask for, so that a hostile file cannot make the
-// engine run for days or allocate without bound.
-const (
-	MaxDraws     = 1_000_000 // Monte Carlo draws per sample
-	MaxBootstrap = 100_000   // bootstrap resamples
-	MaxRows      = 2_000_000 // rows in one data table
-	MaxColumns   = 1000      // columns in one data table
-	MaxCells     = 10_000    // cells in one budget
-)
-
 func oneOf(key, v string, allowed ...string) error {
 	for _, a := range allowed {
 		if v == a {
 			return nil
 		}
 	}
-	return fmt.Errorf("%s: %q is not one of %q", key, v, allowed)
+	return fmt.Errorf("%s: %q is not one of %q", SettingName(key), v, allowed)
 }
 
 func inRange(key string, v, lo, hi float64) error {
 	if math.IsNaN(v) || v < lo || v > hi {
-		return fmt.Errorf("%s: %g is outside [%g, %g]", key, v, lo, hi)
+		return fmt.Errorf("%s: %s is outside %s to %s", SettingName(key), rangeNum(v), rangeNum(lo), rangeNum(hi))
 	}
 	return nil
+}
+
+// rangeNum writes a number of a range message: whole numbers in full with
+// grouped digits (1,000,000), others as %g.
+func rangeNum(v float64) string {
+	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
+		return grouped(int(v))
+	}
+	return fmt.Sprintf("%g", v)
 }
 
 func firstErr(errs ...error) error {

@@ -151,6 +151,10 @@ func (t *Table) check() error {
 	if t == nil {
 		return nil
 	}
+	if len(t.Columns) > MaxColumns || len(t.Rows) > MaxRows {
+		return fmt.Errorf("the table has %s columns and %s rows, above the limit of %s columns or %s rows",
+			grouped(len(t.Columns)), grouped(len(t.Rows)), grouped(MaxColumns), grouped(MaxRows))
+	}
 	if len(t.Units) != 0 && len(t.Units) != len(t.Columns) {
 		return fmt.Errorf("units row has %d cells for %d columns", len(t.Units), len(t.Columns))
 	}
