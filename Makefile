@@ -53,7 +53,7 @@ chromium:
 browser: chromium build
 	$(GO) vet -tags browser ./web/browsertest/
 	GOOS=js GOARCH=wasm $(GO) vet ./web/... ./wasm/...
-	$(GO) test -count=1 -tags browser -timeout 10m ./web/browsertest/
+	$(GO) test -count=1 -tags browser -timeout 20m ./web/browsertest/
 
 # browser-timing: first render of the demo and edit-to-repaint times, printed (no assertion).
 browser-timing: chromium build

@@ -23,6 +23,17 @@ import (
 // command built once for every test.
 var repo, dist, lixivBin string
 
+// patience is how long a test waits for the page (a render, a recompute,
+// a download, the service worker) before it fails: far beyond the seconds
+// any of them takes, so that a machine busy with other work never fails a
+// test, while a page that hangs still ends it. Tests wait for events (the
+// page's data-ready, data-busy and data-gen marks, a file appearing),
+// never for a fixed time.
+const patience = 3 * time.Minute
+
+// sessionLimit ends a browser that a test left running.
+const sessionLimit = 15 * time.Minute
+
 func TestMain(m *testing.M) {
 	os.Exit(setup(m))
 }
@@ -74,7 +85,7 @@ func startServer(t testing.TB) *server {
 	}
 	s := &server{URL: "http://" + addr + "/", cmd: cmd}
 	t.Cleanup(s.Stop)
-	for i := 0; i < 100; i++ {
+	for deadline := time.Now().Add(patience); time.Now().Before(deadline); {
 		resp, err := http.Get(s.URL + "index.html")
 		if err == nil {
 			resp.Body.Close()
@@ -123,7 +134,7 @@ func newBrowser(t testing.TB, profile string) context.Context {
 		chromedp.WindowSize(1280, 1000),
 		chromedp.UserDataDir(profile),
 	}
-	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
+	ctx, cancel := context.WithTimeout(context.Background(), sessionLimit)
 	t.Cleanup(cancel)
 	actx, acancel := chromedp.NewExecAllocator(ctx, opts...)
 	t.Cleanup(acancel)
@@ -174,7 +185,7 @@ func open(t testing.TB, ctx context.Context, url string) {
 // waitReady waits until the page's first render has marked the body.
 func waitReady(t testing.TB, ctx context.Context) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.ready === "1"`, chromedp.WithPollingTimeout(30*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.ready === "1"`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("page did not render: %v", err)
 	}
 }
@@ -192,7 +203,7 @@ func eval[T any](t testing.TB, ctx context.Context, script string) T {
 // waitIdle waits until no recompute is running.
 func waitIdle(t testing.TB, ctx context.Context) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.busy === "0"`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.busy === "0"`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("page did not finish computing: %v", err)
 	}
 }
