@@ -483,7 +483,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "b", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
-									vgn.SetInnerHTML(vugu.HTML("Problems reading this table"))
+									vgn.SetInnerHTML(vugu.HTML("How this table was read"))
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute(nil)}
@@ -498,7 +498,19 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											_ = p
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
-											vgn.SetInnerHTML(p.Text)
+											vgn.AddAttrInterface("class", p.Class())
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "sev"}}}
+												vgparent.AppendChild(vgn)
+												vgn.SetInnerHTML(p.Class())
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+												vgparent.AppendChild(vgn)
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+												vgparent.AppendChild(vgn)
+												vgn.SetInnerHTML(p.Text)
+											}
 										}
 									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}

@@ -91,6 +91,12 @@ func Charts(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []*plot.
 		add(figureBars(id+"-bars", "Mean annual cation yield by source", o, "mol/km²/yr", "cations yield"))
 	case notebook.KindCO2:
 		add(figureBars(id+"-bars", "CO2 consumption by source", o, "mol/km²/yr", "CO2 consumption per km²"))
+	case notebook.KindCarbonate:
+		add(saturationChart(id+"-si", c, o))
+		add(pco2Chart(id+"-pco2", c, o))
+	case notebook.KindMinerals:
+		add(mineralBars(id+"-bars", o))
+		add(mineralCO2Chart(id+"-co2", o))
 	case notebook.KindChart:
 		add(userChart(id, d, c))
 	}

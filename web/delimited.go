@@ -30,7 +30,9 @@ func pad(row []string, n int) []string {
 	return out
 }
 
-// AppendRows adds the rows of a pasted block to t. When the block's first
+// AppendRows adds the rows of a pasted block to t. An empty table takes
+// the block's header, units row and rows as a file's are read. When the
+// block's first
 // row repeats t's column names it is taken as a header: its columns are
 // matched to t's by name (unknown names, unnamed columns and names the
 // header repeats become new columns) and a units row under it is used for
@@ -38,6 +40,14 @@ func pad(row []string, n int) []string {
 // columns in order, and a block wider than t gets unnamed extra columns.
 // It returns how many rows were added.
 func AppendRows(t *notebook.Table, text string) int {
+	if len(t.Columns) == 0 && len(t.Rows) == 0 {
+		// An empty table takes the block as a file is read: lines above
+		// the header (a lab's comments) are set aside.
+		if p := ParseDelimited(text, true); len(p.Columns) > 0 {
+			t.Columns, t.Units, t.Rows = p.Columns, p.Units, p.Rows
+			return len(p.Rows)
+		}
+	}
 	p := ParseDelimited(text, false)
 	if len(p.Rows) == 0 {
 		return 0

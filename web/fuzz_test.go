@@ -1,6 +1,8 @@
 package web
 
 import (
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -21,6 +23,15 @@ func FuzzParseDelimited(f *testing.F) {
 	} {
 		f.Add(s)
 	}
+	// The awkward laboratory and discharge files of the engine's tests.
+	for _, dir := range []string{"../engine/sample/testdata/awkward", "../engine/discharge/testdata/awkward"} {
+		names, _ := filepath.Glob(filepath.Join(dir, "*.*"))
+		for _, n := range names {
+			if b, err := os.ReadFile(n); err == nil && !strings.HasSuffix(n, ".md") {
+				f.Add(string(b))
+			}
+		}
+	}
 	f.Fuzz(func(t *testing.T, text string) {
 		tab := ParseDelimited(text, true)
 		if len(tab.Units) != 0 && len(tab.Units) != len(tab.Columns) {
@@ -39,7 +50,9 @@ func FuzzParseDelimited(f *testing.F) {
 		if len(base.Units) != len(base.Columns) {
 			t.Fatalf("units %d for %d columns after a paste", len(base.Units), len(base.Columns))
 		}
-		TableProblems("samples", base, strings.Split(text, "\n"))
+		// Messages at odd places (past the table, on no row) must not panic.
+		k := len(text)
+		TableProblems("samples", base, notebook.Messages{{File: "samples", Line: k % 7, Col: k % 5, Row: k%4 - 2, Text: text}})
 	})
 }
 

@@ -92,6 +92,7 @@ var paramLabels = map[string]string{
 	"gap_fill_days":                 "fill gaps up to (days)",
 	"water_year_start_month":        "water year starts (month)",
 	"below_detection":               "below detection limit",
+	"use_columns":                   "columns to use",
 	"ratio_source":                  "source of the ratios",
 	"long_term_convention":          "long-term convention",
 	"log_x":                         "log x axis",

@@ -53,3 +53,13 @@ func TestIdleSettings(t *testing.T) {
 		}
 	}
 }
+
+// TestMessagesNameSettingsAsThePage checks that the engine's messages name
+// each setting by the label the page shows beside it.
+func TestMessagesNameSettingsAsThePage(t *testing.T) {
+	for _, k := range notebook.MessageLabels() {
+		if got, want := SettingLabel(k), notebook.SettingLabel(k); got != want {
+			t.Errorf("setting %s: the page shows %q, messages say %q", k, got, want)
+		}
+	}
+}

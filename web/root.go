@@ -11,6 +11,7 @@ import (
 	"github.com/vugu/vugu/js"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/problem"
 	"lixiv/engine/sample"
 )
 
@@ -641,20 +642,21 @@ func (c *Root) readWorkbook(f js.Value, name string) {
 // sheets is named in the message with the sheet read.
 func (c *Root) OpenWorkbook(name string, b []byte) {
 	defer c.guard()
-	text, probs, err := sample.SheetText(b, name, "")
+	g, err := sample.SheetGrid(b, path.Base(name), "")
 	switch {
 	case err != nil:
 		c.S.Message = err.Error()
 		return
-	case len(probs) > 0:
-		c.S.Message = probs.Error()
+	case len(g.Problems) > 0:
+		c.S.Message = g.Problems.Error()
 		return
 	}
-	c.OpenText(name, text)
-	if sheets, _ := sample.Sheets(b); len(sheets) > 1 && c.S.Message == "" {
-		c.S.Message = fmt.Sprintf("%s: read sheet %q, the first of %d; to read another, move it to the front or save it as CSV",
-			name, sheets[0], len(sheets))
+	t, err := notebook.TableFromGrid(g)
+	if err != nil {
+		c.S.Message = err.Error()
+		return
 	}
+	c.loadTable(name, t)
 }
 
 // OpenText opens a budget file, or reads a CSV/TSV table into the samples
@@ -672,11 +674,19 @@ func (c *Root) OpenText(name, text string) {
 		c.Unsaved = false
 		return
 	}
-	t := ParseDelimited(text, true)
-	if len(t.Columns) == 0 {
+	t, err := notebook.ReadTable(path.Base(name), text)
+	if err != nil || len(t.Columns) == 0 {
 		c.S.Message = name + ": no table found (a CSV or TSV file needs a header row)"
 		return
 	}
+	c.loadTable(name, t)
+}
+
+// loadTable puts a table read from the file called name into the samples
+// or discharge cell (by its header), adding that cell when there is none.
+// The table remembers the file, so that messages about it name the file
+// and count lines as the file does.
+func (c *Root) loadTable(name string, t *notebook.Table) {
 	kind := TableKind(t)
 	target := ""
 	for _, cell := range c.S.Doc.Cells {
@@ -817,7 +827,12 @@ func (c *Root) CountsLine() string {
 	}
 	warn, bad := 0, 0
 	for _, v := range c.Cells {
-		warn += len(v.Warnings) + len(v.TableProblems)
+		warn += len(v.Warnings)
+		for _, p := range v.TableProblems {
+			if p.Severity != problem.Note {
+				warn++
+			}
+		}
 		if v.State == "problem" || v.State == "waiting" {
 			bad++
 		}

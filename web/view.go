@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/problem"
 	"lixiv/web/plot"
 )
 
@@ -223,10 +224,14 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			o, v.OldOutputs = s.lastOut[c.ID], s.lastOut[c.ID] != nil
 		}
 		if o != nil {
-			v.TableProblems, v.Warnings = TableProblems(c.ID, c.Table, o.Warnings)
-			if len(v.TableProblems) > 0 {
-				v.bad = map[[2]int]bool{}
-				for _, p := range v.TableProblems {
+			var rest []string
+			v.TableProblems, rest = TableProblems(c.ID, c.Table, o.Messages)
+			v.Warnings = append(rest, o.Warnings...)
+			for _, p := range v.TableProblems {
+				if p.Severity == problem.Error {
+					if v.bad == nil {
+						v.bad = map[[2]int]bool{}
+					}
 					v.bad[[2]int{p.Row, p.Col}] = true
 				}
 			}

@@ -24,6 +24,9 @@
 //  3. Days are sorted. Unsorted rows, duplicated days, negative or non-numeric
 //     discharge, mixed units and dates that do not parse each give a
 //     Problem naming file, row and column; the rest of the table loads.
+//     Import.Notices name each day whose cell is empty or a no-data code
+//     (-999, n.a.) by date and line, the count of days left out for any
+//     reason, and the date order with the line that decided it.
 //  4. Days between the first and last that have no value are gaps (NaN).
 //     Record.Gaps lists them; Record.Fill fills them only by a method the
 //     caller chooses (linear interpolation over gaps of at most N days).

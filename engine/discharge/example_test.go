@@ -30,11 +30,11 @@ func ExampleRead() {
 	// Output:
 	// note: columns separated by semicolons
 	// note: numbers read with a decimal comma
-	// note: dates read day-first (row 2 has a day above 12)
+	// note: dates read day-first (line 2 has a day above 12)
 	// note: discharge unit m3/s
 	// note: 1 gap day in 1 gap, not filled
 	// problem: corrie.csv:6 (Date): dates not in order: row 6 comes before a row above it; the table was loaded in date order
-	// problem: corrie.csv:6:2 (Q (m3/s)): negative discharge: -1; the value was left out
+	// problem: corrie.csv:6:2 (Q (m3/s)): negative discharge: 2021-10-02: -1 is below zero; the day is left out (a gap)
 	// filled: [2021-10-02 (1 day)]
 	// 2021-09-29 0.40 m3/s
 	// 2021-09-30 0.42 m3/s

@@ -2,6 +2,8 @@ package discharge
 
 import (
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -25,6 +27,17 @@ func FuzzRead(f *testing.F) {
 	for _, s := range seeds {
 		f.Add(s, uint8(0))
 	}
+	awk, err := filepath.Glob("testdata/awkward/*.csv")
+	if err != nil {
+		f.Fatal(err)
+	}
+	for _, n := range awk {
+		b, err := os.ReadFile(n)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(string(b), uint8(0))
+	}
 	f.Fuzz(func(t *testing.T, in string, mode uint8) {
 		defer watchdog.Start([]any{in, mode})()
 		opt := Options{DateOrder: DateOrder(mode % 3), Decimal: DecimalMark(mode / 3 % 3), AreaKm2: float64(mode % 2)}
@@ -35,6 +48,11 @@ func FuzzRead(f *testing.F) {
 		r := imp.Record
 		if r == nil {
 			t.Fatal("nil record")
+		}
+		for _, p := range append(append(Problems{}, imp.Problems...), imp.Notices...) {
+			if p.Row < 0 || p.Err == nil || p.Error() == "" {
+				t.Fatalf("malformed problem %#v", p)
+			}
 		}
 		if len(r.Days) != len(r.Q) {
 			t.Fatalf("%d days, %d values", len(r.Days), len(r.Q))

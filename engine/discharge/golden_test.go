@@ -21,6 +21,10 @@ func formatImport(imp *Import) string {
 	for _, p := range imp.Problems {
 		fmt.Fprintf(&b, "  %s\n", p)
 	}
+	fmt.Fprintf(&b, "notices:\n")
+	for _, p := range imp.Notices {
+		fmt.Fprintf(&b, "  %s (%s): %s\n", p.Severity, p.Effect, p)
+	}
 	fmt.Fprintf(&b, "gaps:\n")
 	for _, g := range imp.Gaps {
 		fmt.Fprintf(&b, "  %s\n", g)

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+
+	"lixiv/engine/problem"
 )
 
 // The kinds of problem the importer reports. Each Problem wraps one of them.
@@ -22,7 +24,35 @@ var (
 	ErrUnsorted      = errors.New("dates not in order")
 	ErrShortRow      = errors.New("row too short")
 	ErrSyntax        = errors.New("malformed line")
+	ErrMissingDay    = errors.New("no value")
+	ErrBadDays       = errors.New("days left out")
+	ErrDateOrder     = errors.New("date order inferred")
 )
+
+// effects gives the severity and effect of each kind of problem; kinds
+// not listed are errors whose value was left out.
+var effects = map[error]struct {
+	sev problem.Severity
+	eff problem.Effect
+}{
+	ErrNotTable: {problem.Error, problem.Unread}, ErrNoDateColumn: {problem.Error, problem.Unread},
+	ErrNoQColumn: {problem.Error, problem.Unread}, ErrNoUnit: {problem.Error, problem.Unread},
+	ErrAmbiguousDate: {problem.Error, problem.Refused}, ErrMixedUnits: {problem.Warning, problem.Inferred},
+	ErrUnsorted: {problem.Warning, problem.Inferred}, ErrMissingDay: {problem.Warning, problem.LeftOut},
+	ErrBadDays: {problem.Warning, problem.LeftOut}, ErrDateOrder: {problem.Note, problem.Inferred},
+	ErrDuplicateDay: {problem.Warning, problem.LeftOut},
+}
+
+// classify sets p's severity and effect from its kind.
+func (p *Problem) classify() {
+	p.Severity, p.Effect = problem.Error, problem.LeftOut
+	for err, e := range effects {
+		if errors.Is(p.Err, err) {
+			p.Severity, p.Effect = e.sev, e.eff
+			return
+		}
+	}
+}
 
 // Problem is one thing wrong with an imported table, positioned at a row
 // and column of the file. Row and Col count from 1 (the header is row 1 when
@@ -33,10 +63,17 @@ type Problem struct {
 	Col    int    // column number, from 1
 	Column string // column name from the header, if any
 	Err    error  // one of the Err* kinds above
+	Value  string // the cell as written, if any
 	Detail string // what was found and what was done about it
+
+	// Severity and Effect say how much the problem matters and what was
+	// done; Read sets them from Err.
+	Severity problem.Severity
+	Effect   problem.Effect
 }
 
-// Error formats the problem as "file:row:col (column): kind: detail".
+// Error formats the problem as "file:row:col (column): kind: detail",
+// without the kind for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
 	if p.File != "" {
@@ -52,6 +89,10 @@ func (p *Problem) Error() string {
 	}
 	if p.Column != "" {
 		fmt.Fprintf(&b, " (%s)", p.Column)
+	}
+	if p.Detail != "" && (errors.Is(p.Err, ErrMissingDay) || errors.Is(p.Err, ErrBadDays) || errors.Is(p.Err, ErrDateOrder)) {
+		b.WriteString(": " + p.Detail) // a notice says it all in its detail
+		return b.String()
 	}
 	fmt.Fprintf(&b, ": %v", p.Err)
 	if p.Detail != "" {

@@ -10,6 +10,8 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+
+	"lixiv/engine/problem"
 )
 
 // DecimalMark says how numbers write their decimal separator. The zero value
@@ -33,14 +35,22 @@ type Options struct {
 	DateOrder DateOrder   // order of year-last dates; AutoOrder decides from the column
 	Delimiter rune        // field delimiter; 0 detects tab, semicolon, comma or spaces
 	Decimal   DecimalMark // decimal separator; AutoDecimal detects
+	// Line, when set, maps the lines of the text read to the lines
+	// problems should name (those of the file the text was taken from).
+	Line func(int) int
 }
 
 // Import is what Read made of a table.
 type Import struct {
-	Record       *Record   // the daily record; empty (Len 0) when nothing could load
-	Readings     []int     // readings averaged into each day of Record (sub-daily input); nil for daily input
-	Problems     Problems  // everything wrong, positioned; Problems.Err() is nil when all is well
-	Notes        []string  // what was detected and done (delimiter, date order, unit, averaging, sorting)
+	Record   *Record  // the daily record; empty (Len 0) when nothing could load
+	Readings []int    // readings averaged into each day of Record (sub-daily input); nil for daily input
+	Problems Problems // everything wrong, positioned; Problems.Err() is nil when all is well
+	Notes    []string // what was detected and done (delimiter, date order, unit, averaging, sorting)
+	// Notices are positioned like Problems but name no wrong cell: the
+	// date order and the line that decided it, each day whose cell is
+	// empty or a no-data code (left out as a gap), and the count of days
+	// left out for any reason (the last entry, with no line).
+	Notices      Problems
 	Delimiter    rune      // delimiter used
 	DecimalComma bool      // whether numbers were read with a decimal comma
 	DateOrder    DateOrder // order used for year-last dates (AutoOrder if none occurred)
@@ -89,12 +99,22 @@ func Read(r io.Reader, opt Options) *Import {
 		if perKind[kind] == 1 {
 			kinds = append(kinds, kind)
 		}
-		imp.Problems = append(imp.Problems, &Problem{File: opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)})
+		p := &Problem{File: opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)}
+		p.classify()
+		imp.Problems = append(imp.Problems, p)
+	}
+	// value sets the cell text of the problem just added.
+	value := func(v string) {
+		if n := len(imp.Problems); n > 0 {
+			imp.Problems[n-1].Value = strings.TrimSpace(v)
+		}
 	}
 	defer func() {
 		for _, k := range kinds {
 			if n := perKind[k] - MaxProblems; n > 0 {
-				imp.Problems = append(imp.Problems, &Problem{File: opt.File, Err: k, Detail: fmt.Sprintf("%d more rows like the above are not listed", n)})
+				p := &Problem{File: opt.File, Err: k, Detail: fmt.Sprintf("%d more rows like the above are not listed", n)}
+				p.classify()
+				imp.Problems = append(imp.Problems, p)
 			}
 		}
 	}()
@@ -105,6 +125,16 @@ func Read(r io.Reader, opt Options) *Import {
 	}
 	data = bytes.TrimPrefix(data, []byte("\ufeff"))
 	rows, lines := splitRows(data, opt, imp, add)
+	if opt.Line != nil {
+		for i, l := range lines {
+			lines[i] = opt.Line(l)
+		}
+		for _, p := range imp.Problems { // syntax errors, met while splitting
+			if p.Row > 0 {
+				p.Row = opt.Line(p.Row)
+			}
+		}
+	}
 	if len(rows) == 0 {
 		add(0, 0, "", ErrNotTable, "no rows")
 		return imp
@@ -174,6 +204,7 @@ func Read(r io.Reader, opt Options) *Import {
 	okStamp := make([]bool, len(rows))
 	reported := make([]bool, len(rows))
 	dayFirstRow, monthFirstRow, ambiguous := 0, 0, 0
+	dateAt := map[int]string{} // the date cells that decide the order, by line
 	for i := start; i < len(rows); i++ {
 		st, ok := parseStamp(cell(rows[i], cols.date))
 		if ok && cols.time >= 0 {
@@ -190,9 +221,11 @@ func Read(r io.Reader, opt Options) *Import {
 			ambiguous++
 			if st.a > 12 && dayFirstRow == 0 {
 				dayFirstRow = lines[i]
+				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
 			}
 			if st.b > 12 && monthFirstRow == 0 {
 				monthFirstRow = lines[i]
+				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
 			}
 		}
 	}
@@ -201,21 +234,33 @@ func Read(r io.Reader, opt Options) *Import {
 	if order == AutoOrder && ambiguous > 0 {
 		switch {
 		case dayFirstRow > 0 && monthFirstRow > 0:
-			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "row %d reads only day-first and row %d only month-first; choose the order in the options; year-last dates were not loaded", dayFirstRow, monthFirstRow)
+			add(max(dayFirstRow, monthFirstRow), cols.date+1, dName, ErrAmbiguousDate, "line %d %q reads only day-first but line %d %q only month-first; set \"date order\" to day-first or month-first; the %d dates written with the year last were not loaded",
+				dayFirstRow, dateAt[dayFirstRow], monthFirstRow, dateAt[monthFirstRow], ambiguous)
+			value(dateAt[max(dayFirstRow, monthFirstRow)])
 		case dayFirstRow > 0:
 			order = DayFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (row %d has a day above 12)", dayFirstRow))
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (line %d has a day above 12)", dayFirstRow))
+			add(dayFirstRow, cols.date+1, dName, ErrDateOrder, "dates read day-first, as this one shows (its first number cannot be a month)")
+			value(dateAt[dayFirstRow])
 		case monthFirstRow > 0:
 			order = MonthFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (row %d has a day above 12)", monthFirstRow))
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (line %d has a day above 12)", monthFirstRow))
+			add(monthFirstRow, cols.date+1, dName, ErrDateOrder, "dates read month-first, as this one shows (its second number cannot be a month)")
+			value(dateAt[monthFirstRow])
 		default:
-			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date such as %q reads both day-first and month-first; choose the order in the options; %d rows were not loaded", cell(rows[start], cols.date), ambiguous)
+			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; %d rows were not loaded", ambiguous)
+			value(cell(rows[start], cols.date))
 		}
 	}
 	imp.DateOrder = order
 
 	// Rows.
 	rd := make([]reading, 0, len(rows))
+	var bad struct{ neg, code, empty, text int } // days (readings) left out, by reason
+	leftOut, what, whats := "the day is left out (a gap)", "day", "days"
+	if cols.time >= 0 {
+		leftOut, what, whats = "the reading is left out", "reading", "readings"
+	}
 	firstUnit := Unit(-1)
 	unitName := ""
 	if cols.unitCol >= 0 {
@@ -276,29 +321,71 @@ func Read(r io.Reader, opt Options) *Import {
 		switch {
 		case perr == errMissing:
 			v = math.NaN()
+			bad.empty++
+			what := "is empty"
+			if t := strings.TrimSpace(raw); t != "" {
+				what = fmt.Sprintf("holds %q, a no-data code read as missing", t)
+				bad.code++
+				bad.empty--
+			}
+			add(line, cols.q+1, qName, ErrMissingDay, "%s: the discharge %s; %s", d, what, leftOut)
+			value(raw)
 		case perr != nil:
-			add(line, cols.q+1, qName, ErrNotNumber, "%q; the value was left out", raw)
+			add(line, cols.q+1, qName, ErrNotNumber, "%s: %q is not a number; %s", d, strings.TrimSpace(raw), leftOut)
+			value(raw)
 			v = math.NaN()
+			bad.text++
 		case v < 0:
-			add(line, cols.q+1, qName, ErrNegative, "%s; the value was left out", strings.TrimSpace(raw))
+			add(line, cols.q+1, qName, ErrNegative, "%s: %s is below zero; %s", d, strings.TrimSpace(raw), leftOut)
+			value(raw)
 			v = math.NaN()
+			bad.neg++
 		default:
 			q, err := ToM3s(v, u, opt.AreaKm2)
 			if err != nil {
-				add(line, cols.q+1, qName, err, "the value was left out")
+				add(line, cols.q+1, qName, err, "%s: the value was left out", d)
+				value(raw)
 				v = math.NaN()
+				bad.text++
 			} else {
 				v = q
 			}
 		}
 		rd = append(rd, reading{d, st.sec, v, line})
 	}
+	if n := bad.neg + bad.code + bad.empty + bad.text; n > 0 {
+		var parts []string
+		for _, k := range []struct {
+			n    int
+			what string
+		}{{bad.neg, "below zero"}, {bad.code, "with a no-data code"}, {bad.empty, "empty"}, {bad.text, "not a number"}} {
+			if k.n > 0 {
+				parts = append(parts, fmt.Sprintf("%d %s", k.n, k.what))
+			}
+		}
+		add(0, cols.q+1, qName, ErrBadDays, "%d %s left out (%s), each named at its line", n, plural(n, what, whats), strings.Join(parts, ", "))
+	}
 	if firstUnit >= 0 {
 		imp.Unit = firstUnit
 		imp.Notes = append(imp.Notes, "discharge unit "+firstUnit.String())
 	}
 	build(imp, rd, opt, add, dName)
+	// Inferences, days without a value and their count go to their own
+	// list: Problems.Err() stays nil for a table without a wrong cell.
+	kept := imp.Problems[:0]
+	for _, p := range imp.Problems {
+		if p.Severity == problem.Note || errors.Is(p, ErrMissingDay) || errors.Is(p, ErrBadDays) {
+			imp.Notices = append(imp.Notices, p)
+			continue
+		}
+		kept = append(kept, p)
+	}
+	imp.Problems = kept
 	imp.Problems.Sort()
+	imp.Notices.Sort()
+	if n := len(imp.Notices); n > 0 && errors.Is(imp.Notices[0], ErrBadDays) {
+		imp.Notices = append(imp.Notices[1:], imp.Notices[0]) // the count closes the list
+	}
 	return imp
 }
 

@@ -84,12 +84,12 @@ func TestReadBadInput(t *testing.T) {
 		},
 		{
 			name: "negative discharge", in: "Date,Q (m3/s)\n2021-01-01,1\n2021-01-02,-2\n2021-01-03,3\n",
-			kind: ErrNegative, msg: "flow.csv:3:2 (Q (m3/s)): negative discharge: -2; the value was left out",
+			kind: ErrNegative, msg: "flow.csv:3:2 (Q (m3/s)): negative discharge: 2021-01-02: -2 is below zero; the day is left out (a gap)",
 			q: []float64{1, math.NaN(), 3}, first: Date(2021, 1, 1), nProbls: 1,
 		},
 		{
 			name: "text in number column", in: "Date,Q (m3/s)\n2021-01-01,1\n2021-01-02,high\n2021-01-03,3\n",
-			kind: ErrNotNumber, msg: "flow.csv:3:2 (Q (m3/s)): not a number: \"high\"; the value was left out",
+			kind: ErrNotNumber, msg: "flow.csv:3:2 (Q (m3/s)): not a number: 2021-01-02: \"high\" is not a number; the day is left out (a gap)",
 			q: []float64{1, math.NaN(), 3}, first: Date(2021, 1, 1), nProbls: 1,
 		},
 		{
@@ -104,7 +104,7 @@ func TestReadBadInput(t *testing.T) {
 		},
 		{
 			name: "ambiguous dates", in: "Date,Q (m3/s)\n01/02/2021,1\n02/02/2021,2\n",
-			kind: ErrAmbiguousDate, msg: "flow.csv:2:1 (Date): ambiguous date order: every date such as \"01/02/2021\" reads both day-first and month-first; choose the order in the options; 2 rows were not loaded",
+			kind: ErrAmbiguousDate, msg: "flow.csv:2:1 (Date): ambiguous date order: every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; 2 rows were not loaded",
 			nProbls: 1,
 		},
 		{
@@ -119,7 +119,7 @@ func TestReadBadInput(t *testing.T) {
 		},
 		{
 			name: "mm/day without area", in: "Date,Runoff (mm/day)\n2021-01-01,1\n",
-			kind: ErrNeedArea, msg: "flow.csv:2:2 (Runoff (mm/day)): runoff in mm/day needs the catchment area in km2: the value was left out",
+			kind: ErrNeedArea, msg: "flow.csv:2:2 (Runoff (mm/day)): runoff in mm/day needs the catchment area in km2: 2021-01-01: the value was left out",
 			q: []float64{math.NaN()}, first: Date(2021, 1, 1), nProbls: 1,
 		},
 		{
@@ -183,7 +183,7 @@ func TestReadMixedOrderColumn(t *testing.T) {
 	if !imp.Problems.Is(ErrAmbiguousDate) {
 		t.Fatalf("got %v, want an ambiguous date problem", imp.Problems)
 	}
-	want := "f:2:1 (Date): ambiguous date order: row 2 reads only day-first and row 3 only month-first; choose the order in the options; year-last dates were not loaded"
+	want := "f:3:1 (Date): ambiguous date order: line 2 \"13/01/2021\" reads only day-first but line 3 \"01/13/2021\" only month-first; set \"date order\" to day-first or month-first; the 2 dates written with the year last were not loaded"
 	if got := imp.Problems[0].Error(); got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
 	}
@@ -199,7 +199,7 @@ func TestProblemsEmpty(t *testing.T) {
 		t.Errorf("empty list Err() = %v, want nil", ps.Err())
 	}
 	imp := ReadString("Date,Q (m3/s)\n2021-01-01,1\n2021-01-02,x\n2021-01-03,-1\n", Options{})
-	if got, want := imp.Problems.Error(), "input:3:2 (Q (m3/s)): not a number: \"x\"; the value was left out (and 1 more problems)"; got != want {
+	if got, want := imp.Problems.Error(), "input:3:2 (Q (m3/s)): not a number: 2021-01-02: \"x\" is not a number; the day is left out (a gap) (and 1 more problems)"; got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
 	}
 }

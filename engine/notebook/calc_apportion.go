@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
@@ -179,7 +180,7 @@ func computeApportionment(e *Env) (*Output, error) {
 	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
 	out := &Output{}
 	warn := map[string]int{}
-	for _, i := range atm.Samples.Used() {
+	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		o := opt
 		if s.Sulfate == "isotope" {
@@ -188,6 +189,12 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 		}
 		r, err := correct.Apply(sm.C, &o)
+		if errors.Is(err, correct.ErrMissing) && !sm.C.Has(chem.Ca) {
+			out.Messages = append(out.Messages, atm.Samples.leftOut(i, chem.Ca, fmt.Sprintf(
+				"sample %s has no Ca value: left out of the apportionment and of the cells that read it (fluxes, CO2); its sulfate above the rain's share goes partly to gypsum, which brings as much Ca; give its Ca, or set %s to sulfide",
+				sampleName(sm), quoteSetting("sulfate"))))
+			continue
+		}
 		if err != nil {
 			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
@@ -201,6 +208,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.Corrected = append(a.Corrected, r)
 	}
 	n := len(a.Index)
+	if n == 0 {
+		return out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+	}
 	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
 		return nil, err
 	}

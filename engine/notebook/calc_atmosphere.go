@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -14,6 +15,9 @@ import (
 // correction options the apportionment applies to each of them.
 type Atmosphere struct {
 	Samples *Samples
+	// Use holds the positions in Samples.Table.Samples of the samples the
+	// correction applies to: those the samples cell uses that have Cl.
+	Use     []int
 	Options correct.Options // Sulfate is left at its default; the apportionment sets it
 	// Uncertainty is the relative 1σ of the rain ratios and of the ET
 	// factor, which the apportionment draws with its Monte Carlo.
@@ -110,7 +114,19 @@ func computeAtmosphere(e *Env) (*Output, error) {
 			return nil, fmt.Errorf("site: %v", err)
 		}
 	}
-	used := smp.Used()
+	var used []int
+	for _, i := range smp.Used() {
+		if smp.Table.Samples[i].C.Has(chem.Cl) {
+			used = append(used, i)
+			continue
+		}
+		out.Messages = append(out.Messages, smp.leftOut(i, chem.Cl, fmt.Sprintf(
+			"sample %s has no Cl value: left out of the atmospheric correction, which is scaled by Cl, and of the cells that read it (apportionment, fluxes, CO2); it stays in the samples table; give its Cl to bring it back",
+			sampleName(smp.Table.Samples[i]))))
+	}
+	if len(used) == 0 {
+		return out, fmt.Errorf("no sample the budget uses has a Cl value, and the atmospheric correction is scaled by Cl: add Cl to the samples table (a column such as \"Cl (mg/L)\")")
+	}
 	ids := make([]string, len(used))
 	cols := map[string][]float64{}
 	names := []string{"Cl_atm", "Na_atm", "K_atm", "Ca_atm", "Mg_atm", "SO4_atm", "Cl_excess", "Na_evaporite", "Na_atm_share"}
@@ -120,6 +136,15 @@ func computeAtmosphere(e *Env) (*Output, error) {
 		sm := smp.Table.Samples[i]
 		ids[k] = sm.ID
 		r, err := correct.Apply(sm.C, &opt)
+		if errors.Is(err, correct.ErrMissing) && !sm.C.Has(chem.Ca) {
+			// Without Ca the sulfate above the rain's share cannot go to
+			// gypsum. Nothing this cell shows depends on that split (its
+			// ratio of Ca is blank anyway); the apportionment, which knows
+			// the sulfate source, leaves the sample out by name.
+			o := opt
+			o.Sulfate = correct.Sulfide
+			r, err = correct.Apply(sm.C, &o)
+		}
 		if err != nil {
 			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
@@ -162,12 +187,15 @@ func computeAtmosphere(e *Env) (*Output, error) {
 	if w := rainExcessWarning(cols["Na_atm_share"]); w != "" {
 		out.Warnings = append(out.Warnings, w)
 	}
+	if w := allAtmosphericNote(cols["Na_atm_share"]); w != "" {
+		out.Warnings = append(out.Warnings, w)
+	}
 	out.Figures = append(out.Figures, Point("median atmospheric share of Na", "fraction", median(cols["Na_atm_share"])))
 	unc := correct.Uncertainty{Ratios: s.RatioUncertainty / 100}
 	if opt.Rain != nil && s.CriticalChloride == 0 {
 		unc.Factor = s.FactorUncertainty / 100
 	}
-	out.Value = &Atmosphere{Samples: smp, Options: opt, Uncertainty: unc, ScaleCl: unc.Factor > 0}
+	out.Value = &Atmosphere{Samples: smp, Use: used, Options: opt, Uncertainty: unc, ScaleCl: unc.Factor > 0}
 	return out, nil
 }
 
@@ -178,10 +206,14 @@ func computeAtmosphere(e *Env) (*Output, error) {
 // methods brief §5.1 (cation exchange, or Cl that is not from rain, such as
 // road salt or sewage; common practice), and Na* is set to 0 with its own
 // warning.
+//
+// A share within shareTolerance of 1 is not warned about: diluted seawater
+// gives a share of 1 up to the rounding of the ratios and the analyses
+// (allAtmosphericNote says so instead).
 func rainExcessWarning(share []float64) string {
 	n, max := 0, 0.0
 	for _, x := range share {
-		if x > 1+1e-9 {
+		if x > 1+shareTolerance {
 			n++
 			max = math.Max(max, x)
 		}
@@ -191,6 +223,29 @@ func rainExcessWarning(share []float64) string {
 	}
 	return fmt.Sprintf("atmospheric share of Na above 1 in %d of %d samples (largest %.3g): rain supplies more Na than the river carries; "+
 		"Na was lost (cation exchange) or Cl is not from rain (road salt, sewage, evaporite); see the Cl* setting", n, len(share), max)
+}
+
+// shareTolerance is how far above 1 an atmospheric share of Na is still
+// read as "all the Na is atmospheric": major-ion analyses and rain ratios
+// carry errors of a few percent (common practice, no source).
+const shareTolerance = 0.02
+
+// allAtmosphericNote says in how many samples the atmosphere accounts for
+// all the Na within shareTolerance (a share from 1 to 1.02, as diluted
+// seawater gives), or "".
+func allAtmosphericNote(share []float64) string {
+	n, max := 0, 0.0
+	for _, x := range share {
+		if x > 1+1e-9 && x <= 1+shareTolerance {
+			n++
+			max = math.Max(max, x)
+		}
+	}
+	if n == 0 {
+		return ""
+	}
+	return fmt.Sprintf("the atmosphere accounts for all the Na in %d of %d samples (atmospheric share up to %.4g, within %g %% of 1, as in rain or diluted seawater): their Na is taken as all atmospheric",
+		n, len(share), max, 100*shareTolerance)
 }
 
 // ratioSpecies are the numerators of the ratios table, with their column names.

@@ -16,6 +16,8 @@ type Flow struct {
 
 func init() { Register(KindDischarge, computeDischarge) }
 
+var dischargeOrders = map[string]discharge.DateOrder{"auto": discharge.AutoOrder, "day-first": discharge.DayFirst, "month-first": discharge.MonthFirst}
+
 func computeDischarge(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*DischargeSettings)
 	t := e.Cell.Table
@@ -34,27 +36,18 @@ func computeDischarge(e *Env) (*Output, error) {
 	}
 	// Messages name the file the table was read from in this session, and
 	// its lines, when there is one; else the cell and the table's lines.
-	opt := discharge.Options{File: e.Cell.ID, Unit: unit, Delimiter: '\t'}
-	lines := t.fileLines()
-	if lines != nil && t.Source.File != "" {
-		opt.File = t.Source.File
-	} else {
-		lines = nil
-	}
+	pl := newPlacer(e.Cell.ID, t)
+	opt := discharge.Options{File: pl.name, Unit: unit, Delimiter: '\t', DateOrder: dischargeOrders[s.DateOrder], Line: pl.line()}
 	if site != nil {
 		opt.AreaKm2 = site.AreaKm2
 	}
 	im := discharge.ReadString(t.TSV(), opt)
-	out := &Output{}
-	for _, p := range im.Problems {
-		if l, ok := lines[p.Row]; ok && p.Row > 0 {
-			p.Row = l
-		}
-		out.Warnings = append(out.Warnings, p.Error())
-	}
+	out := &Output{Messages: append(pl.fromDischarge(im.Problems), pl.fromDischarge(im.Notices)...)}
+	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
+	sortMessages(out.Messages)
 	rec := im.Record
 	if rec == nil || rec.Len() == 0 {
-		return nil, fmt.Errorf("no discharge could be read: %v", im.Problems.Err())
+		return out, fmt.Errorf("no discharge could be read: %v", out.Messages.Err())
 	}
 	if s.GapFillDays > 0 {
 		var rep discharge.FillReport

@@ -45,11 +45,11 @@ func TestDischargeMessagesNameTheFile(t *testing.T) {
 				t.Fatalf("no output: %v %v", st, err)
 			}
 			found := false
-			for _, w := range out.Warnings {
-				found = found || strings.HasPrefix(w, tt.want)
+			for _, m := range out.Messages {
+				found = found || strings.HasPrefix(m.Error(), tt.want)
 			}
 			if !found {
-				t.Errorf("warnings %q; want one starting %q", out.Warnings, tt.want)
+				t.Errorf("messages %v; want one starting %q", out.Messages, tt.want)
 			}
 		})
 	}

@@ -447,6 +447,13 @@ func computeFluxes(e *Env) (*Output, error) {
 	if t := bySource.table(); t != nil {
 		out.Tables = append(out.Tables, t)
 	}
+	if co, err := e.Input("carbonate"); err != nil {
+		return nil, err
+	} else if co != nil {
+		if w := supersaturationCaution(v, co); w != "" {
+			out.Warnings = append(out.Warnings, w)
+		}
+	}
 	series := map[string]bool{}
 	for _, r := range rows {
 		series[r.name] = true

@@ -8,6 +8,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
+	"lixiv/engine/problem"
 	"lixiv/engine/qc"
 	"lixiv/engine/sample"
 )
@@ -19,7 +20,73 @@ type Samples struct {
 	Use   []bool    // false for samples left out (charge balance beyond the reject limit, no date)
 	NICB  []float64 // normalised inorganic charge balance, %
 	Days  []discharge.Day
+
+	// File names the samples' source in messages: the file the table was
+	// read from, else the id of the samples cell; lines in sample.Sample
+	// count as it does.
+	File string
+	// Input is the samples cell's table as written and Rows the row of it
+	// each sample comes from, so that messages of later cells can quote a
+	// cell ("n.d.") as the user wrote it.
+	Input *Table
+	Rows  []int
 }
+
+// Cell returns the text the user wrote for species sp of sample i, or "".
+func (s *Samples) Cell(i int, sp chem.Species) string {
+	if s.Input == nil || i >= len(s.Rows) {
+		return ""
+	}
+	for _, c := range s.Table.Columns {
+		if c.Kind == sample.Concentration && c.Species == sp {
+			return strings.TrimSpace(s.Input.Cell(s.Rows[i], c.Index))
+		}
+	}
+	return ""
+}
+
+// column returns the header and number (from 1) of the column of species
+// sp, or "" and 0.
+func (s *Samples) column(sp chem.Species) (string, int) {
+	for _, c := range s.Table.Columns {
+		if c.Kind == sample.Concentration && c.Species == sp {
+			return c.Header, c.Index + 1
+		}
+	}
+	return "", 0
+}
+
+// leftOut is the message that sample i is left out of a cell for want of
+// species sp: its line, the column and the cell as written.
+func (s *Samples) leftOut(i int, sp chem.Species, text string) *Message {
+	sm := s.Table.Samples[i]
+	h, col := s.column(sp)
+	if col == 0 {
+		h = sp.Symbol()
+	}
+	return &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: s.File, Line: sm.Line, Col: col, Column: h,
+		Value: s.Cell(i, sp), Sample: sampleName(sm), Text: text, Row: -1, Err: ErrMissingIon}
+}
+
+// sampleName names a sample in messages: its id, else its line.
+func sampleName(sm *sample.Sample) string {
+	if sm.ID != "" {
+		return sm.ID
+	}
+	return "on line " + strconv.Itoa(sm.Line)
+}
+
+// ErrMissingIon is the sentinel of messages that leave a sample out of a
+// cell for want of an ion the cell needs.
+var ErrMissingIon = errors.New("ion missing")
+
+// ErrChargeBalance is the sentinel of messages about a sample's charge
+// balance (flagged or left out).
+var ErrChargeBalance = errors.New("charge balance")
+
+// ErrTakenAs is the sentinel of messages that say a quantity was read as
+// another (HCO3 taken as alkalinity).
+var ErrTakenAs = errors.New("taken as")
 
 // Used returns the indices of the samples that enter the budget.
 func (s *Samples) Used() []int {
@@ -51,30 +118,35 @@ func computeSamples(e *Env) (*Output, error) {
 	// edit that recomputes the cell can change; a table read from a file
 	// this session (Table.Source) is named by the file, its lines counted
 	// as in the file.
-	name, src := e.Cell.ID, t.Source != nil && t.Source.File != "" && len(t.Source.Lines) == len(t.Rows)
-	if src {
-		name = t.Source.File
-	}
-	opt := sample.Options{Comma: '\t', Policy: policies[s.BelowDetection], DateOrder: sampleOrders[s.DateOrder]}
+	pl := newPlacer(e.Cell.ID, t)
+	opt := sample.Options{Comma: '\t', Policy: policies[s.BelowDetection], DateOrder: sampleOrders[s.DateOrder], Use: s.UseColumns,
+		Line: pl.line()}
 	if s.DefaultUnit != "" {
 		opt.Units = map[string]string{"": s.DefaultUnit}
 	}
-	tab := sample.ParseText(t.TSV(), name, opt)
+	tab := sample.ParseText(t.TSV(), pl.name, opt)
 	if tab.Problems.Count(sample.ErrNotTable) == 0 {
 		tab.Problems = append(tab.Problems, tab.Require(sample.Date)...)
 	}
-	if src {
-		toFileLines(tab, t)
-	}
-	out := &Output{}
-	for _, p := range tab.Problems {
-		out.Warnings = append(out.Warnings, p.Error())
-	}
+	out := &Output{Messages: append(pl.fromSample(tab.Problems), pl.fromSample(tab.Notes)...)}
+	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
 	n := len(tab.Samples)
+	rows := make([]int, n)
+	for i, smp := range tab.Samples {
+		rows[i] = pl.row(smp.Line)
+	}
+	if pl.file != nil {
+		tab.Preamble = t.Source.Preamble
+	}
 	if n == 0 {
+		sortMessages(out.Messages)
 		return out, fmt.Errorf("no samples could be read: %v", tab.Problems.Err())
 	}
-	v := &Samples{Table: tab, Use: make([]bool, n), NICB: make([]float64, n), Days: make([]discharge.Day, n)}
+	v := &Samples{Table: tab, Use: make([]bool, n), NICB: make([]float64, n), Days: make([]discharge.Day, n),
+		File: pl.name, Input: t, Rows: rows}
+	if m := alkFromHCO3(tab, pl); m != nil {
+		out.Messages = append(out.Messages, m)
+	}
 	ids, dates, flags := make([]string, n), make([]string, n), make([]string, n)
 	species := []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2, chem.Sr}
 	conc := make([][]float64, len(species))
@@ -94,21 +166,40 @@ func computeSamples(e *Env) (*Output, error) {
 		}
 		v.NICB[i] = reports[i].Balance.NICB
 		v.Use[i] = true
+		msg := &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: pl.name, Line: smp.Line,
+			Sample: sampleName(smp), Row: rows[i], Err: ErrChargeBalance}
+		nicb := strconv.FormatFloat(v.NICB[i], 'f', 2, 64) + " %"
 		switch st := reports[i].Status; {
 		case !smp.HasTime:
 			v.Use[i], flags[i] = false, "left out: no date"
+			msg.Err, msg.Text = ErrMissingIon, fmt.Sprintf("sample %s has no date: left out of the budget, which takes each sample's day from the discharge record; give its date", msg.Sample)
 		case !smp.C.Has(chem.Na) || smp.C[chem.Na] <= 0:
 			v.Use[i], flags[i] = false, "left out: no Na"
+			msg = v.leftOut(i, chem.Na, fmt.Sprintf("sample %s has no Na value: left out of the budget, whose apportionment rests on Na; it stays in this table", sampleName(smp)))
+			msg.Row = rows[i]
 		case st == qc.Unknown:
 			v.Use[i], flags[i] = false, "left out: no charge balance (no anion measured)"
+			msg.Text = fmt.Sprintf("sample %s has no anion (Cl, SO4, NO3, alkalinity): no charge balance, so it is left out of the budget", msg.Sample)
 		case st == qc.Rejected:
 			v.Use[i], flags[i] = false, fmt.Sprintf("left out: |NICB| above %g %%", s.NICBReject)
+			msg.Value, msg.Column = nicb, "NICB"
+			msg.Text = fmt.Sprintf("sample %s: charge balance (NICB) %s, beyond the reject limit of %g %% (setting %s): left out of the budget; check its analyses, or raise the limit",
+				msg.Sample, nicb, s.NICBReject, quoteSetting("nicb_reject_percent"))
 		case st == qc.Flagged:
 			flags[i] = fmt.Sprintf("|NICB| above %g %%", s.NICBFlag)
 			flagged++
+			msg.Effect, msg.Value, msg.Column = problem.Flagged, nicb, "NICB"
+			msg.Text = fmt.Sprintf("sample %s: charge balance (NICB) %s, beyond the flag limit of %g %% (setting %s): kept and flagged; check its analyses",
+				msg.Sample, nicb, s.NICBFlag, quoteSetting("nicb_flag_percent"))
 		case st == qc.Incomplete: // kept, without a charge balance
 			flags[i] = reports[i].Flag()
 			flagged++
+			msg.Effect, msg.Text = problem.Flagged, fmt.Sprintf("sample %s: %s; kept and flagged", msg.Sample, flags[i])
+		default:
+			msg = nil
+		}
+		if msg != nil {
+			out.Messages = append(out.Messages, msg)
 		}
 		if !v.Use[i] {
 			left++
@@ -126,6 +217,7 @@ func computeSamples(e *Env) (*Output, error) {
 	out.Tables = append(out.Tables, &ResultTable{Name: "samples", Title: "Samples in µmol/L with charge balance", Columns: cols})
 	out.Figures = append(out.Figures, Point("samples read", "", float64(n)), Point("samples flagged", "", float64(flagged)),
 		Point("samples left out", "", float64(left)))
+	sortMessages(out.Messages)
 	if left == n {
 		return out, noneUsed(tab, flags)
 	}
@@ -133,27 +225,36 @@ func computeSamples(e *Env) (*Output, error) {
 	return out, nil
 }
 
-// toFileLines moves the line numbers of tab, read from t's TSV text, to the
-// lines of the file t was read from.
-func toFileLines(tab *sample.Table, t *Table) {
-	m := t.fileLines()
-	if m == nil {
-		return
-	}
-	for _, p := range tab.Problems {
-		if l, ok := m[p.Line]; ok {
-			p.Line = l
+// alkFromHCO3 takes HCO3 as alkalinity (µmol/L of HCO3 are µeq/L) in
+// every sample of a table that gives HCO3 and no alkalinity column, and
+// returns the note that says so; nil when there is nothing to do. Values
+// below detection keep their limit.
+func alkFromHCO3(tab *sample.Table, pl *placer) *Message {
+	col := -1
+	for _, c := range tab.Columns {
+		if c.Kind == sample.Concentration && c.Species == chem.Alk {
+			return nil
+		}
+		if c.Kind == sample.Concentration && c.Species == chem.HCO3 {
+			col = c.Index
 		}
 	}
-	for _, s := range tab.Samples {
-		if l, ok := m[s.Line]; ok {
-			s.Line = l
+	if col < 0 {
+		return nil
+	}
+	n := 0
+	for _, smp := range tab.Samples {
+		if smp.C.Has(chem.HCO3) || smp.IsCensored(chem.HCO3) {
+			smp.C[chem.Alk] = smp.C[chem.HCO3]
+			if l, ok := smp.Limit(chem.HCO3); ok {
+				smp.Censored[chem.Alk] = l
+			}
+			n++
 		}
 	}
-	if l, ok := m[tab.Header]; ok {
-		tab.Header = l
-	}
-	tab.Preamble = t.Source.Preamble
+	c := tab.Columns[col]
+	return &Message{Severity: problem.Note, Effect: problem.Inferred, File: pl.name, Line: tab.Header, Col: col + 1, Column: c.Header, Row: -1, Err: ErrTakenAs,
+		Text: fmt.Sprintf("HCO3 taken as alkalinity in %s (1 µmol/L of HCO3 is 1 µeq/L): the file gives HCO3 and no alkalinity column; the Alk column shows it, and the charge balance and CO2 use it", plural(n, "sample"))}
 }
 
 // noneUsed says why no sample enters the budget: how many samples were left

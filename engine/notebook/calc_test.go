@@ -269,13 +269,13 @@ func TestSamplesCellReportsPositions(t *testing.T) {
 		t.Fatalf("samples cell: %v %v", st, err)
 	}
 	found := false
-	for _, w := range o.Warnings {
-		if strings.Contains(w, "lab:") && strings.Contains(w, "abc") {
+	for _, m := range o.Messages {
+		if m.File == "lab" && m.Value == "abc" && m.Row == 1 && m.Column == "Na" {
 			found = true
 		}
 	}
 	if !found {
-		t.Errorf("warnings %q do not name the bad cell", o.Warnings)
+		t.Errorf("messages %v do not name the bad cell", o.Messages)
 	}
 	flags := o.Table("samples").Column("flag").Text
 	want := []string{"", "left out: no Na", "left out: |NICB| above 10 %"}

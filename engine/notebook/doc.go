@@ -6,7 +6,8 @@
 // # Document
 //
 // A Document holds Cells in order. A cell has a Kind (site, samples,
-// discharge, atmosphere, sources, apportionment, fluxes, co2, note, chart),
+// discharge, carbonate, atmosphere, sources, apportionment, fluxes, co2,
+// minerals, note, chart),
 // an id that other cells name it by, a title the user chooses, Settings
 // (one struct per kind; every field has a JSON key), an optional data Table
 // kept as the text the user typed, and a "uses" map from input roles to cell
@@ -29,10 +30,20 @@
 // below it wait. A panic inside a computation becomes a Problem, never a
 // crash.
 //
+// A cell's Output.Messages say, typed and positioned (severity, effect,
+// file, line as the file counts it, column, value, sample, row of the
+// cell's table), how it read its input: what it could not read or refused,
+// what it substituted or left out, what it inferred. A sample without an
+// ion a cell needs is left out of that cell, and the cells that read it,
+// by name (no Cl: the atmosphere cell; no Ca for gypsum sulfate: the
+// apportionment) and kept everywhere else. The report lists the messages
+// under "problems", "warnings" and "messages".
+//
 // The computation of each kind is a ComputeFunc registered with Register;
 // the built-in ones call the engine packages sample, discharge, correct,
-// mix, flux and co2. Their typed results (Site, Samples, Flow, Atmosphere,
-// []mix.EndMember, Apportioned, Fluxes) travel in Output.Value to the cells
+// mix, flux, co2, carbonate and mineral. Their typed results (Site,
+// Samples, Flow, Atmosphere, []mix.EndMember, Apportioned, Fluxes,
+// CarbonateSystem, MineralBalance) travel in Output.Value to the cells
 // below; the tables and figures in Output are what the page shows, the
 // command line writes and charts plot.
 //

@@ -117,7 +117,7 @@ func TableFromGrid(g *sample.Grid) (*Table, error) {
 		t.Units = widen(g.Units, n)
 	}
 	if name != "" {
-		t.Source = &Source{File: name, Preamble: g.Preamble, Header: g.HeaderLine, Units: g.UnitsLine, Lines: g.Lines}
+		t.Source = &Source{File: name, Preamble: g.Preamble, Header: g.HeaderLine, Units: g.UnitsLine, Lines: g.Lines, Notes: g.Notes}
 	}
 	return t, nil
 }

@@ -14,14 +14,16 @@ const (
 	KindApportionment Kind = "apportionment" // forward or inverse source apportionment
 	KindFluxes        Kind = "fluxes"        // annual fluxes and yields
 	KindCO2           Kind = "co2"           // CO2 consumption budget
+	KindCarbonate     Kind = "carbonate"     // carbonate system: pCO2 and saturation indices
+	KindMinerals      Kind = "minerals"      // mineral mass balance
 	KindNote          Kind = "note"          // free text
 	KindChart         Kind = "chart"         // any output column against any other
 	KindBroken        Kind = "broken"        // a cell that failed to load; never written as such
 )
 
 // Kinds lists every kind a user can add, in the usual document order.
-var Kinds = []Kind{KindSite, KindSamples, KindDischarge, KindAtmosphere, KindSources,
-	KindApportionment, KindFluxes, KindCO2, KindNote, KindChart}
+var Kinds = []Kind{KindSite, KindSamples, KindDischarge, KindCarbonate, KindAtmosphere, KindSources,
+	KindApportionment, KindFluxes, KindCO2, KindMinerals, KindNote, KindChart}
 
 // Role is a named input of a cell: the cell it reads from is chosen in the
 // cell's "uses" map, or, when absent there, is the nearest cell above of
@@ -42,9 +44,14 @@ func (k Kind) Roles() []Role {
 	case KindApportionment:
 		return []Role{{"atmosphere", KindAtmosphere, false}, {"sources", KindSources, false}}
 	case KindFluxes:
-		return []Role{{"apportionment", KindApportionment, false}, {"discharge", KindDischarge, false}, {"site", KindSite, false}}
+		return []Role{{"apportionment", KindApportionment, false}, {"discharge", KindDischarge, false}, {"site", KindSite, false},
+			{"carbonate", KindCarbonate, true}}
 	case KindCO2:
 		return []Role{{"fluxes", KindFluxes, true}, {"apportionment", KindApportionment, false}}
+	case KindCarbonate:
+		return carbonateRoles
+	case KindMinerals:
+		return mineralRoles
 	}
 	return nil
 }

@@ -51,19 +51,11 @@ const (
 	MaxBootstrapWork = 50_000_000
 )
 
-// settingLabels are the page's labels of the settings the limits bound
-// (web/labels.go; a page test checks that they agree).
-var settingLabels = map[string]string{
-	"draws":            "Monte Carlo draws",
-	"bootstrap":        "bootstrap replicates",
-	"series_bootstrap": "series bootstrap replicates",
-}
-
-// SettingName names a setting in a message as the page labels it, with
-// its key: "Monte Carlo draws (draws)". A setting without a label here is
-// named by its key.
+// SettingName names a setting in a message as the page labels it
+// (SettingLabel), with its key: "Monte Carlo draws (draws)". A setting
+// without such a label is named by its key.
 func SettingName(key string) string {
-	if l, ok := settingLabels[key]; ok {
+	if l := SettingLabel(key); l != "" {
 		return fmt.Sprintf("%s (%s)", l, key)
 	}
 	return key

@@ -7,6 +7,12 @@ type Output struct {
 	Tables   []*ResultTable // tables for the page, the CSV export and charts
 	Figures  []Figure       // headline figures with their intervals
 	Warnings []string       // problems that did not stop the computation
+	// Messages say, positioned in the input, what the cell could not read,
+	// what it read in place of what was written, what it left out (a sample
+	// without an ion the cell needs) and what it inferred. They explain
+	// the results and are not part of the snapshot's checksum; the tables
+	// they change are.
+	Messages Messages
 	// Rough says the output lacks intervals that a full computation gives
 	// (see Document.Quick); a compute function that skips that work sets it.
 	Rough bool

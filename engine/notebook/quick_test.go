@@ -30,7 +30,7 @@ func TestQuickPassRefinesToTheSameResults(t *testing.T) {
 			st, _ := d.Status(c.ID)
 			out := d.Output(c.ID)
 			switch c.Kind {
-			case notebook.KindFluxes, notebook.KindCO2:
+			case notebook.KindFluxes, notebook.KindCO2, notebook.KindMinerals:
 				if st != notebook.Refining || out == nil || !out.Rough {
 					t.Errorf("%s: %s after the quick pass: state %v, output %v; want refining with a rough output", path, c.ID, st, out != nil)
 					continue

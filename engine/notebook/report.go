@@ -3,6 +3,8 @@ package notebook
 import (
 	"encoding/json"
 	"math"
+
+	"lixiv/engine/problem"
 )
 
 // Number is a float64 written to JSON as a number, or null when it is NaN
@@ -63,11 +65,28 @@ type SampleReport struct {
 	Warnings []string                    `json:"warnings,omitempty"`
 }
 
-// CellProblem is a cell that did not compute.
+// CellProblem is a cell that did not compute, or a message of a cell:
+// a problem (under "problems") or any message, positioned in the input
+// (under "messages"). State is set for a cell that did not compute;
+// the other fields for a message.
 type CellProblem struct {
-	Cell    string `json:"cell"`
-	State   string `json:"state"`
-	Message string `json:"message"`
+	Cell     string `json:"cell"`
+	State    string `json:"state,omitempty"`
+	Severity string `json:"severity"`         // "problem", "warning" or "note"
+	Effect   string `json:"effect,omitempty"` // "unread", "substituted", "left out", "inferred", "refused", "flagged"
+	File     string `json:"file,omitempty"`
+	Line     int    `json:"line,omitempty"` // as the file counts it (spreadsheet row for a workbook)
+	Col      int    `json:"column_number,omitempty"`
+	Column   string `json:"column,omitempty"` // header of the column
+	Value    string `json:"value,omitempty"`  // the cell as written
+	Sample   string `json:"sample,omitempty"`
+	Message  string `json:"message"`
+}
+
+// messageEntry is a message as the report writes it.
+func messageEntry(cell string, m *Message) CellProblem {
+	return CellProblem{Cell: cell, Severity: m.Severity.String(), Effect: m.Effect.String(), File: m.File, Line: m.Line,
+		Col: m.Col, Column: m.Column, Value: m.Value, Sample: m.Sample, Message: m.Text}
 }
 
 // Report is the summary of a computed budget that the command line prints
@@ -89,8 +108,14 @@ type Report struct {
 	Samples    []SampleReport            `json:"samples"`
 	Problems   []CellProblem             `json:"problems"`
 	Warnings   map[string][]string       `json:"warnings"`
+	Messages   []CellProblem             `json:"messages"`
 	Snapshot   *SnapshotCheck            `json:"snapshot"`
 	Figures    map[string][]ReportFigure `json:"figures"`
+
+	// Carbonate and Minerals report the first carbonate and minerals
+	// cells; left out when the budget has none.
+	Carbonate *CarbonateReport `json:"carbonate_system,omitempty"`
+	Minerals  *MineralReport   `json:"mineral_balance,omitempty"`
 }
 
 // ReportFigure is a headline figure as the report writes it.
@@ -122,7 +147,8 @@ func (d *Document) firstOf(k Kind) (string, *Output) {
 // Report summarises the computed budget.
 func (d *Document) Report() *Report {
 	r := &Report{Format: "lixiv-report", Version: 1, Engine: EngineVersion, Budget: d.Title, AreaKm2: Number(math.NaN()),
-		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Figures: map[string][]ReportFigure{}}
+		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Messages: []CellProblem{},
+		Figures: map[string][]ReportFigure{}}
 	for _, c := range d.Cells {
 		st, err := d.Status(c.ID)
 		if st != UpToDate {
@@ -130,12 +156,29 @@ func (d *Document) Report() *Report {
 			if err != nil {
 				msg = err.Error()
 			}
-			r.Problems = append(r.Problems, CellProblem{Cell: c.ID, State: st.String(), Message: msg})
+			r.Problems = append(r.Problems, CellProblem{Cell: c.ID, State: st.String(), Severity: problem.Error.String(), Message: msg})
 		}
 		if o := d.Output(c.ID); o != nil {
-			if len(o.Warnings) > 0 {
-				r.Warnings[c.ID] = o.Warnings
+			// Positioned messages: problems under "problems", the rest
+			// as text under "warnings"; all of them under "messages".
+			var warn []string
+			for _, m := range o.Messages {
+				e := messageEntry(c.ID, m)
+				r.Messages = append(r.Messages, e)
+				switch m.Severity {
+				case problem.Error:
+					r.Problems = append(r.Problems, e)
+				case problem.Note:
+					warn = append(warn, "note: "+m.Error())
+				default:
+					warn = append(warn, m.Error())
+				}
 			}
+			if w := append(warn, o.Warnings...); len(w) > 0 {
+				r.Warnings[c.ID] = w
+			}
+		}
+		if o := d.Output(c.ID); o != nil {
 			for i := range o.Figures {
 				r.Figures[c.ID] = append(r.Figures[c.ID], ReportFigure{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i])})
 			}
@@ -207,6 +250,7 @@ func (d *Document) Report() *Report {
 			r.Samples = append(r.Samples, s)
 		}
 	}
+	r.Carbonate, r.Minerals = d.carbonateReport(), d.mineralReport()
 	if d.Stored != nil {
 		if v, err := d.Verify(); err == nil {
 			r.Snapshot = &SnapshotCheck{Stored: v.Stored, Rerun: v.Rerun, Match: v.Match}

@@ -37,12 +37,16 @@ type SamplesSettings struct {
 	NICBFlag       float64 `json:"nicb_flag_percent"`   // |NICB| above this is flagged
 	NICBReject     float64 `json:"nicb_reject_percent"` // |NICB| above this leaves the sample out
 	DefaultUnit    string  `json:"default_unit"`        // unit of species columns that state none ("" = ask: such columns are kept as text)
+	// UseColumns names, by header, the column to read where a species has
+	// two or more (two Ca columns); without it such columns are refused.
+	UseColumns []string `json:"use_columns,omitempty"`
 }
 
 // DischargeSettings control how the daily record is read.
 type DischargeSettings struct {
 	Unit        string `json:"unit"`          // "m3/s", "L/s", "m3/day" or "mm/day"
 	GapFillDays int    `json:"gap_fill_days"` // fill gaps up to this many days linearly (0 = none)
+	DateOrder   string `json:"date_order"`    // "auto", "day-first" or "month-first", for dates such as 03/04/2021
 }
 
 // AtmosphereSettings choose the rain correction.
@@ -163,7 +167,7 @@ func DefaultSettings(k Kind) Settings {
 	case KindSamples:
 		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10} // common practice
 	case KindDischarge:
-		return &DischargeSettings{Unit: "m3/s", GapFillDays: 0}
+		return &DischargeSettings{Unit: "m3/s", GapFillDays: 0, DateOrder: "auto"}
 	case KindAtmosphere:
 		// Sea-salt ratios to Cl: Millero et al. (2008), Deep-Sea Res. I 55, reference composition.
 		return &AtmosphereSettings{Method: "sea-salt", NaPerCl: 0.859120, KPerCl: 0.0186998, CaPerCl: 0.0188361,
@@ -197,6 +201,10 @@ func DefaultSettings(k Kind) Settings {
 			DischargeUncertainty: 7, Seed: 1}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
+	case KindCarbonate:
+		return defaultCarbonateSettings()
+	case KindMinerals:
+		return defaultMineralSettings()
 	case KindNote:
 		return &NoteSettings{}
 	case KindChart:
@@ -277,6 +285,7 @@ func (s *DischargeSettings) Validate() error {
 	return firstErr(
 		oneOf("unit", s.Unit, "m3/s", "L/s", "m3/day", "mm/day"),
 		inRange("gap_fill_days", float64(s.GapFillDays), 0, 366),
+		oneOf("date_order", s.DateOrder, "auto", "day-first", "month-first"),
 	)
 }
 

@@ -3,6 +3,8 @@ package notebook
 import (
 	"fmt"
 	"strings"
+
+	"lixiv/engine/sample"
 )
 
 // Table is a data table typed or pasted by the user, kept as text so that
@@ -26,28 +28,10 @@ type Source struct {
 	Header   int      // line of the header row
 	Units    int      // line of the units row, 0 when none
 	Lines    []int    // line on which each row starts
-}
-
-// fileLines maps the lines of the text TSV writes to the lines of the
-// source file they come from (header, units row and the first line of each
-// row); it is nil when the table has no usable Source.
-func (t *Table) fileLines() map[int]int {
-	s := t.Source
-	if s == nil || len(s.Lines) != len(t.Rows) {
-		return nil
-	}
-	m := make(map[int]int, len(t.Rows)+2)
-	m[1] = s.Header
-	at := 2 + lineBreaks(t.Columns)
-	if t.hasUnits() {
-		m[at] = s.Units
-		at += 1 + lineBreaks(t.Units)
-	}
-	for i, r := range t.Rows {
-		m[at] = s.Lines[i]
-		at += 1 + lineBreaks(r)
-	}
-	return m
+	// Notes says how the file was read before its cells reached the
+	// table (a workbook's header joined from merged cells, the sheet
+	// read); the cells reading the table list them with their own.
+	Notes sample.ProblemList
 }
 
 // lineBreaks counts the line breaks inside the cells of a row.

@@ -51,6 +51,9 @@ type Column struct {
 	// Label is the unit the values were read in, as shown to the user
 	// ("mg/L as CaCO3", "L/s", "mS/m"); empty for columns without a unit.
 	Label string
+	// UnitFrom says where the unit came from: "header", "units row" or
+	// "setting" (Options.Units); empty for columns without a unit.
+	UnitFrom string
 	// Note says why a recognised column was kept as metadata, or how it was
 	// read when that needs saying ("field pH preferred").
 	Note string

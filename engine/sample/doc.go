@@ -65,11 +65,24 @@
 //     Table.Problems in file order; Table.Problems.Err() is nil when there
 //     are none. The rest of the table always loads, and nothing the file
 //     held is dropped: unusable cells stay as text in Sample.Meta or in the
-//     problem's Value.
+//     problem's Value. A species in two or more columns is refused, naming
+//     them all, unless Options.Use names the one to read.
+//  9. Notes: Table.Notes names, with file, line, column and an example
+//     value, everything read in place of what the file wrote or inferred
+//     from it: per column the values below detection (count, lines, the
+//     substitute and its setting) and the cells read as missing ("n.d.",
+//     -999), the date order and the line that decided it, the decimal
+//     comma, the unit of each column and where it came from (header, units
+//     row, Options.Units), a cell that gives its own unit, comment lines.
+//     Every Problem carries a Severity and an Effect (engine/problem), and
+//     messages name settings by the page's labels (SettingLabels).
 //
 // ReadXLSX reads one sheet of an .xlsx workbook (Sheets lists them)
 // through the same steps from step 3, row by row: Line is then the
-// spreadsheet row and Col the column (A = 1). Number cells keep their
+// spreadsheet row and Col the column (A = 1). A header written over rows
+// of merged cells is joined into one row (a column takes the unit of a
+// merged heading above it), and reading the first of several sheets is a
+// note naming the others. Number cells keep their
 // value; cells formatted as dates or times arrive as ISO 8601 text, read
 // from the serial day the workbook stores (to the millisecond). A file
 // that is not a workbook, or a sheet it lacks, is an error (ErrNotWorkbook,

@@ -90,7 +90,7 @@ func ExampleReadXLSX() {
 	// row 3 CV-01 2024-03-05 10:30 Ca 112.28 µmol/L
 	// row 4 CV-02 2024-03-19 11:31 Ca 127.25 µmol/L
 	// row 6 CV-03 2024-04-02 00:00 Ca NaN µmol/L
-	// corrie-vale.xlsx:6:4 (Ca (mg/L)): "high": not a number; left missing
+	// corrie-vale.xlsx:6:4 (Ca (mg/L)): "high": not a number; left missing; write a number, a value below detection such as "<0.05", or leave the cell blank
 	// corrie-vale.xlsx:6:5 (Na (mg/L)): "-1": negative value; a concentration cannot be negative; left missing
 	// corrie-vale.xlsx: no such sheet; sheet "Chemistry" is not in the workbook, which holds "Samples", "Field notes"
 }

@@ -5,6 +5,8 @@ import (
 	"errors"
 	"math"
 	"os"
+	"path/filepath"
+	"strings"
 	"testing"
 
 	"lixiv/engine/internal/watchdog"
@@ -26,8 +28,13 @@ func FuzzRead(f *testing.F) {
 	if b, err := os.ReadFile("../../testdata/samples-messy.csv"); err == nil {
 		f.Add(b)
 	}
+	for _, b := range awkwardFiles(f) {
+		f.Add(b)
+	}
 	sentinels := []error{ErrNotTable, ErrNoColumn, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany}
+	noteSentinels := []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit,
+		ErrComment, ErrChosenColumn}
 	f.Fuzz(func(t *testing.T, in []byte) {
 		defer watchdog.Start(in)()
 		tb, err := Read(bytes.NewReader(in), "fuzz.csv", Options{})
@@ -41,6 +48,15 @@ func FuzzRead(f *testing.F) {
 			}
 			if !known || p.File != "fuzz.csv" {
 				t.Fatalf("problem without a sentinel or file: %v", p)
+			}
+		}
+		for _, p := range tb.Notes {
+			known := false
+			for _, s := range noteSentinels {
+				known = known || errors.Is(p, s)
+			}
+			if !known || p.File != "fuzz.csv" || p.Line < 0 || p.Detail == "" {
+				t.Fatalf("note without a sentinel, file, line or detail: %#v", p)
 			}
 		}
 		for _, s := range tb.Samples {
@@ -74,4 +90,25 @@ func nonEmpty(t *Table) int {
 		}
 	}
 	return n
+}
+
+// awkwardFiles returns the awkward laboratory files of testdata/awkward,
+// the seeds of the importer's fuzz targets.
+func awkwardFiles(f *testing.F) [][]byte {
+	names, err := filepath.Glob("testdata/awkward/*")
+	if err != nil {
+		f.Fatal(err)
+	}
+	var out [][]byte
+	for _, n := range names {
+		if strings.HasSuffix(n, ".md") {
+			continue
+		}
+		b, err := os.ReadFile(n)
+		if err != nil {
+			f.Fatal(err)
+		}
+		out = append(out, b)
+	}
+	return out
 }

@@ -75,7 +75,11 @@ func dump(t *Table) string {
 	w.Flush()
 	fmt.Fprintln(&b, "\nproblems")
 	for _, p := range t.Problems {
-		fmt.Fprintln(&b, p)
+		fmt.Fprintf(&b, "%s: %s\n", p.Severity, p)
+	}
+	fmt.Fprintln(&b, "\nnotes")
+	for _, p := range t.Notes {
+		fmt.Fprintf(&b, "%s (%s): %s\n", p.Severity, p.Effect, p)
 	}
 	return b.String()
 }

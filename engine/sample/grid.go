@@ -22,7 +22,10 @@ type Grid struct {
 	Lines      []int      // line in the file on which each data row starts
 	Comma      rune       // field delimiter read (detected or given)
 	Problems   ProblemList
-	raw        bool // no header: every record is a row (SplitCells)
+	// Notes says how a workbook's sheet was read: a header over several
+	// rows of merged cells joined into one, other sheets left unread.
+	Notes ProblemList
+	raw   bool // no header: every record is a row (SplitCells)
 }
 
 // ReadGrid splits r into a header, a units row and data rows as Read would

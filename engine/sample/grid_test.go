@@ -111,6 +111,9 @@ func FuzzSplitText(f *testing.F) {
 	for _, s := range []string{"# note\nSample,Na (mg/L)\n,mg/L\nA,1\n", "a;b\n1;2;3\n\"open\n", "", "\ufeffx\ty\n1\t2\n"} {
 		f.Add(s)
 	}
+	for _, b := range awkwardFiles(f) {
+		f.Add(string(b))
+	}
 	f.Fuzz(func(t *testing.T, text string) {
 		defer watchdog.Start(text)()
 		for _, g := range []*Grid{SplitText(text, "f.csv", Options{}), SplitCells(text)} {

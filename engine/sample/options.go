@@ -97,6 +97,16 @@ type Options struct {
 	// would be ("Ca (mg/L)", "Alkalinity as CaCO3 mg/L", "date", "site",
 	// "Q (L/s)"). An empty value keeps the column as metadata.
 	Map map[string]string
+	// Use names, by header text, the column to read when a species has
+	// more than one column (two Ca columns); the others are kept as text.
+	// Without it every column of a repeated species is refused (kept as
+	// text) and reported as ErrDuplicateColumn naming them all.
+	Use []string
+	// Line, when set, maps the lines of the text given to Read to the
+	// lines messages should name: those of the file the text was taken
+	// from. Every line the importer writes (Problem.Line, the lines quoted
+	// in details, Sample.Line, Table.Header) goes through it.
+	Line func(int) int
 	// MaxProblems caps the problems kept in Table.Problems; the rest are
 	// counted in a final entry. 0 means 10000.
 	MaxProblems int

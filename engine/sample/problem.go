@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+
+	"lixiv/engine/problem"
 )
 
 // Sentinel errors a Problem unwraps to. Test for them with errors.Is.
@@ -24,7 +26,77 @@ var (
 	ErrFieldCount      = errors.New("wrong number of fields")
 	ErrQuote           = errors.New("unterminated quote")
 	ErrTooMany         = errors.New("too many problems")
+
+	// The importer's notes (Table.Notes) unwrap to these: what it read in
+	// place of what the file wrote, and what it inferred.
+	ErrCensored     = errors.New("below detection")
+	ErrMissingValue = errors.New("read as missing")
+	ErrDateOrder    = errors.New("date order inferred")
+	ErrDecimalComma = errors.New("decimal comma")
+	ErrUnits        = errors.New("units")
+	ErrDefaultUnit  = errors.New("unit from the settings")
+	ErrCellUnit     = errors.New("unit in the cell")
+	ErrComment      = errors.New("comment line")
+	ErrChosenColumn = errors.New("column chosen")
+	ErrMergedHeader = errors.New("header over several rows")
+	ErrOtherSheets  = errors.New("other sheets")
 )
+
+// effects gives the severity and effect of each problem sentinel.
+var effects = map[error]struct {
+	sev problem.Severity
+	eff problem.Effect
+}{
+	ErrNotTable: {problem.Error, problem.Unread}, ErrNoColumn: {problem.Error, problem.Unread},
+	ErrNotNumber: {problem.Error, problem.LeftOut}, ErrNegative: {problem.Error, problem.LeftOut},
+	ErrOutOfRange: {problem.Error, problem.LeftOut}, ErrDuplicateColumn: {problem.Error, problem.Refused},
+	ErrUnitConflict: {problem.Error, problem.Unread}, ErrUnknownUnit: {problem.Error, problem.Unread},
+	ErrNoUnit: {problem.Error, problem.Unread}, ErrUnitMismatch: {problem.Error, problem.Unread},
+	ErrBadDate: {problem.Error, problem.Unread}, ErrAmbiguousDate: {problem.Error, problem.Refused},
+	ErrFieldCount: {problem.Error, problem.Unread}, ErrQuote: {problem.Error, problem.Unread},
+	ErrTooMany:  {problem.Warning, problem.Unread},
+	ErrCensored: {problem.Warning, problem.Substituted}, ErrMissingValue: {problem.Warning, problem.LeftOut},
+	ErrDateOrder: {problem.Note, problem.Inferred}, ErrDecimalComma: {problem.Note, problem.Inferred},
+	ErrUnits: {problem.Note, problem.Inferred}, ErrDefaultUnit: {problem.Warning, problem.Substituted}, ErrCellUnit: {problem.Note, problem.Inferred},
+	ErrComment: {problem.Note, problem.LeftOut}, ErrChosenColumn: {problem.Note, problem.LeftOut},
+	ErrMergedHeader: {problem.Note, problem.Inferred}, ErrOtherSheets: {problem.Note, problem.LeftOut},
+	ErrNotWorkbook: {problem.Error, problem.Unread}, ErrNoSheet: {problem.Error, problem.Unread},
+	ErrBadRow: {problem.Error, problem.Unread},
+}
+
+// sentinelSeverity is the severity of p's sentinel (Error when unknown).
+// The notes' sentinels are all warnings or notes.
+func (p *Problem) sentinelSeverity() problem.Severity {
+	for _, err := range []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit, ErrComment, ErrChosenColumn, ErrMergedHeader, ErrOtherSheets} {
+		if errors.Is(p.Err, err) {
+			return effects[err].sev
+		}
+	}
+	return problem.Error
+}
+
+// classify sets p's severity and effect from its sentinel.
+func (p *Problem) classify() {
+	for err, e := range effects {
+		if errors.Is(p.Err, err) {
+			p.Severity, p.Effect = e.sev, e.eff
+			return
+		}
+	}
+}
+
+// SettingLabels are the labels under which the page shows the budget
+// settings that steer the importer (keyed by their names in budget files);
+// messages name the settings by these labels.
+var SettingLabels = map[string]string{
+	"date_order":      "date order",
+	"below_detection": "below detection limit",
+	"use_columns":     "columns to use",
+	"default_unit":    "default unit",
+}
+
+// setting quotes the label of a setting for a message.
+func setting(key string) string { return strconv.Quote(SettingLabels[key]) }
 
 // Problem is something wrong with the input, positioned in the file. The
 // affected cell is left missing (NaN) or kept as metadata; the rest of the
@@ -37,9 +109,15 @@ type Problem struct {
 	Value  string // the cell text, if any
 	Err    error  // one of the Err* sentinels, possibly wrapped
 	Detail string // what was done about it, for the reader
+
+	// Severity and Effect say how much the problem matters and what was
+	// done; Read sets them from Err.
+	Severity problem.Severity
+	Effect   problem.Effect
 }
 
-// Error returns "file:line:col (header): value: err; detail".
+// Error returns "file:line:col (header): value: err; detail", without err
+// for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
 	b.WriteString(p.File)
@@ -56,11 +134,15 @@ func (p *Problem) Error() string {
 	if p.Value != "" {
 		fmt.Fprintf(&b, "%q: ", p.Value)
 	}
-	if p.Err != nil {
+	switch {
+	case p.Detail != "" && p.sentinelSeverity() != problem.Error:
+		b.WriteString(p.Detail) // a note or warning says it all in its detail
+	case p.Err != nil && p.Detail != "":
+		b.WriteString(p.Err.Error() + "; " + p.Detail)
+	case p.Err != nil:
 		b.WriteString(p.Err.Error())
-	}
-	if p.Detail != "" {
-		b.WriteString("; " + p.Detail)
+	default:
+		b.WriteString(p.Detail)
 	}
 	return b.String()
 }

@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"sort"
 	"strconv"
@@ -152,6 +153,51 @@ type importer struct {
 	sizeHint int // expected number of rows, from the file size
 	header   int // header line
 	unitLine int
+
+	dayFirst, monthFirst *pendingDate // the first date that can only be read one way
+	censored, missing    []tally      // per column: cells below detection, cells read as missing
+	decAt                int          // line of the first number read with a decimal comma (detected)
+	decRaw               string
+}
+
+// tally counts cells of one kind in a column, with the first few as
+// examples for the message.
+type tally struct {
+	n       int
+	noLimit int // censored cells that give no limit ("<DL", "bdl")
+	nd      bool
+	ex      []example
+}
+
+type example struct {
+	line int
+	raw  string
+}
+
+// maxExamples is how many cells a message about a column quotes.
+const maxExamples = 5
+
+func (t *tally) add(line int, raw []byte) {
+	t.n++
+	if len(t.ex) < maxExamples {
+		t.ex = append(t.ex, example{line, string(raw)})
+	}
+}
+
+// list writes the examples as `line 4 "<0.05", line 9 "bdl"` and how many
+// more there are.
+func (t *tally) list() string {
+	var b strings.Builder
+	for i, e := range t.ex {
+		if i > 0 {
+			b.WriteString(", ")
+		}
+		fmt.Fprintf(&b, "line %d %q", e.line, e.raw)
+	}
+	if t.n > len(t.ex) {
+		fmt.Fprintf(&b, " and %d more", t.n-len(t.ex))
+	}
+	return b.String()
 }
 
 // plan is how to read one column.
@@ -176,11 +222,20 @@ type pendingClock struct {
 
 func (im *importer) add(p *Problem) {
 	p.File = im.t.Name
+	p.classify()
 	if len(im.t.Problems) >= im.max {
 		im.extra++
 		return
 	}
 	im.t.Problems = append(im.t.Problems, p)
+}
+
+// note adds to Table.Notes: what the importer read in place of what the
+// file wrote, or inferred.
+func (im *importer) note(p *Problem) {
+	p.File = im.t.Name
+	p.classify()
+	im.t.Notes = append(im.t.Notes, p)
 }
 
 func (im *importer) fileProblem(err error, detail string) {
@@ -195,6 +250,20 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
 }
 
+// mappedLines renames the lines of a record source (Options.Line).
+type mappedLines struct {
+	records
+	line func(int) int
+}
+
+func (m mappedLines) next() ([][]byte, int, bool) {
+	fs, l, ok := m.records.next()
+	if ok {
+		l = m.line(l)
+	}
+	return fs, l, ok
+}
+
 // commentLine reports a line above the header that starts with "#", which
 // labs and loggers use for notes (common practice): it stays in the
 // preamble however many fields its commas make.
@@ -206,6 +275,9 @@ func commentLine(fs [][]byte) bool {
 // joins preamble fields and is recorded in the table; sample holds the
 // first rows, split into fields, for the decimal mark.
 func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
+	if im.opt.Line != nil {
+		lr = mappedLines{lr, im.opt.Line}
+	}
 	if g := im.grid; g != nil {
 		g.Comma = rune(comma)
 		if g.raw {
@@ -287,6 +359,11 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 		}
 		if lr.unclosedQuote() {
 			im.add(&Problem{Line: line, Err: ErrQuote, Detail: "a quoted field is not closed before the end of the file"})
+		}
+		if commentLine(fs) {
+			im.note(&Problem{Line: line, Col: 1, Header: im.cols[0].Header, Value: string(trimSpace(fs[0])), Err: ErrComment,
+				Detail: "the line starts with # and is read as a comment, not as a sample; remove the # if it is data"})
+			continue
 		}
 		im.row(fs, line)
 	}
@@ -385,11 +462,9 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 	im.dateCol = -1
 	im.order = im.opt.DateOrder
 	seen := map[string]int{}
-	var species [chem.NSpecies]int
+	var species [chem.NSpecies][]int // the columns of each species
 	var kinds [len(kindNames)]int
-	for i := range species {
-		species[i] = -1
-	}
+	im.censored, im.missing = make([]tally, len(header)), make([]tally, len(header))
 	for i := range kinds {
 		kinds[i] = -1
 	}
@@ -417,8 +492,9 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 			im.add(&Problem{Line: at, Col: i + 1, Header: h, Value: c.UnitText, Err: err, Detail: detail})
 			c.Kind = Meta
 		}
-		unitText := hd.unit
+		unitText, from := hd.unit, "header"
 		if c.UnitText != "" && !isNoUnit(c.UnitText) {
+			from = "units row"
 			if unitText != "" && !sameUnit(hd.kind, unitText, c.UnitText) {
 				bad(ErrUnitConflict, fmt.Sprintf("the header says %q but the units row says %q; values kept as text", unitText, c.UnitText))
 			} else if !isUnitText(hd.kind, c.UnitText) && hd.kind != Meta {
@@ -436,15 +512,15 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 		}
 		if c.Kind != Meta && (unitText == "" || isNoUnit(unitText)) {
 			if u, ok := im.opt.Units[h]; ok {
-				unitText = u
+				unitText, from = u, "setting"
 			} else if u, ok := im.opt.Units[""]; ok && (c.Kind == Concentration || c.Kind == Discharge) {
-				unitText = u
+				unitText, from = u, "setting"
 			}
 		}
 		switch c.Kind {
 		case Concentration:
 			if unitText == "" {
-				bad(ErrNoUnit, fmt.Sprintf("no unit for %s in the header or a units row; values kept as text (give the unit in the header, as in %q, or choose a default unit)", hd.species, h+" (mg/L)"))
+				bad(ErrNoUnit, fmt.Sprintf("no unit for %s in the header or a units row; values kept as text: give the unit in the header, as in %q, or set %s", hd.species, h+" (mg/L)", setting("default_unit")))
 				break
 			}
 			u, err := chem.ParseUnit(unitText)
@@ -460,12 +536,8 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 				bad(ErrUnitMismatch, fmt.Sprintf("%s cannot be in %s; values kept as text", hd.species, u))
 				break
 			}
-			if j := species[hd.species]; j >= 0 {
-				bad(ErrDuplicateColumn, fmt.Sprintf("%s is also in column %d, which is used; values kept as text", hd.species, j+1))
-				break
-			}
-			species[hd.species] = i
-			c.Species, c.Unit, c.Scale, c.Label = hd.species, u, f, u.String()
+			species[hd.species] = append(species[hd.species], i)
+			c.Species, c.Unit, c.Scale, c.Label, c.UnitFrom = hd.species, u, f, u.String(), from
 		case Discharge:
 			if unitText == "" {
 				bad(ErrNoUnit, "no unit for discharge (m3/s, L/s or cfs); values kept as text (give one in the header, such as \"Q (L/s)\")")
@@ -504,6 +576,8 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 				im.order = o
 				c.Label = unitText
 				c.Note = "date order " + o.String() + ", as the column's format " + strconv.Quote(unitText) + " says"
+				im.note(&Problem{Line: at, Col: i + 1, Header: h, Value: unitText, Err: ErrDateOrder,
+					Detail: fmt.Sprintf("dates read %s, as the column's format %q says; set %s if they are not", orderWord(o), unitText, setting("date_order"))})
 			}
 		}
 		if c.Kind != Meta && c.Kind != Concentration {
@@ -534,9 +608,15 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 		seen[h]++
 		c.metaKey = key
 	}
+	for sp, idx := range species {
+		if len(idx) > 1 {
+			im.repeated(chem.Species(sp), idx)
+		}
+	}
 	for _, c := range im.cols {
 		im.t.Columns = append(im.t.Columns, c.Column)
 	}
+	im.unitsNote()
 	switch {
 	case im.nMapped == 0:
 		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "no column names a species, date, site or sample; every column is kept as text" +
@@ -546,6 +626,124 @@ func (im *importer) mapColumns(header []string, heads []heading, units []string)
 			im.add(p[0])
 		}
 	}
+}
+
+// repeated settles a species found in several columns (idx): the column
+// named in Options.Use is read and the others kept as text; without a
+// choice every one is kept as text and the repetition reported, naming
+// them all. Nothing is read from the first silently.
+func (im *importer) repeated(sp chem.Species, idx []int) {
+	chosen := -1
+	for _, k := range idx {
+		for _, u := range im.opt.Use {
+			if chosen < 0 && strings.EqualFold(strings.TrimSpace(u), im.cols[k].Header) {
+				chosen = k
+			}
+		}
+	}
+	var names []string
+	for _, k := range idx {
+		names = append(names, fmt.Sprintf("column %d %q", k+1, im.cols[k].Header))
+	}
+	for _, k := range idx {
+		if k == chosen {
+			continue
+		}
+		c := &im.cols[k]
+		c.Kind, c.Label, c.UnitFrom = Meta, "", ""
+		im.nMapped--
+		if chosen >= 0 {
+			c.Note = fmt.Sprintf("%s is read from column %d %q, as chosen", sp, chosen+1, im.cols[chosen].Header)
+			im.note(&Problem{Line: im.header, Col: k + 1, Header: c.Header, Err: ErrChosenColumn,
+				Detail: fmt.Sprintf("%s is read from column %d %q, as chosen in %s; this column is kept as text", sp, chosen+1, im.cols[chosen].Header, setting("use_columns"))})
+			continue
+		}
+		c.Note = fmt.Sprintf("%s is in %s; none is read", sp, joinAnd(names))
+	}
+	if chosen < 0 {
+		first := &im.cols[idx[0]]
+		im.add(&Problem{Line: im.header, Col: idx[0] + 1, Header: first.Header, Err: ErrDuplicateColumn,
+			Detail: fmt.Sprintf("%s is in %s; none is read: remove all but one of the %s columns, or name the one to read in %s",
+				sp, joinAnd(names), sp, setting("use_columns"))})
+	}
+}
+
+// joinAnd joins "a", "b" and "c" as "a, b and c".
+func joinAnd(s []string) string {
+	if len(s) < 2 {
+		return strings.Join(s, "")
+	}
+	return strings.Join(s[:len(s)-1], ", ") + " and " + s[len(s)-1]
+}
+
+// unitsNote says in which unit each concentration column was read and
+// where the unit came from; units taken from Options.Units are a separate
+// warning, since the file did not give them.
+func (im *importer) unitsNote() {
+	type group struct {
+		unit, from string
+		species    []string
+		first      int
+	}
+	var groups []*group
+	ppm, line := false, im.header
+	if im.unitLine > 0 {
+		line = im.unitLine
+	}
+	var fromSetting []string
+	setUnit, setCol := "", 0
+	for _, c := range im.cols {
+		if c.Kind != Concentration {
+			continue
+		}
+		if c.UnitFrom == "setting" {
+			if setCol == 0 {
+				setCol = c.Index + 1
+			}
+			fromSetting, setUnit = append(fromSetting, c.Species.Symbol()), c.Label
+			continue
+		}
+		k := strings.ToLower(c.UnitText + " " + c.Header)
+		ppm = ppm || strings.Contains(k, "ppm") || strings.Contains(k, "ppb")
+		var g *group
+		for _, x := range groups {
+			if x.unit == c.Label && x.from == c.UnitFrom {
+				g = x
+			}
+		}
+		if g == nil {
+			g = &group{unit: c.Label, from: c.UnitFrom, first: c.Index + 1}
+			groups = append(groups, g)
+		}
+		g.species = append(g.species, c.Species.Symbol())
+	}
+	if len(groups) > 0 {
+		parts := make([]string, len(groups))
+		for i, g := range groups {
+			parts[i] = fmt.Sprintf("%s in %s (from the %s)", joinAnd(g.species), g.unit, g.from)
+		}
+		d := "units read: " + strings.Join(parts, "; ")
+		if ppm {
+			d += "; ppm is read as mg/L and ppb as µg/L, which holds for fresh water (density within 0.5 % of 1 kg/L)"
+		}
+		im.note(&Problem{Line: line, Err: ErrUnits, Detail: d})
+	}
+	if len(fromSetting) > 0 {
+		im.note(&Problem{Line: im.header, Col: setCol, Err: ErrDefaultUnit,
+			Detail: fmt.Sprintf("the file gives no unit for %s: read in %s, the %s setting; give the unit in the header, as %q, if that is not the lab's unit",
+				joinAnd(fromSetting), setUnit, setting("default_unit"), fromSetting[0]+" (mg/L)")})
+	}
+}
+
+// orderWord names a date order as the date order setting's choices do.
+func orderWord(o DateOrder) string {
+	switch o {
+	case DayFirst:
+		return "day-first"
+	case MonthFirst:
+		return "month-first"
+	}
+	return "auto"
 }
 
 // sameUnit reports whether two unit texts mean the same unit for kind k.
@@ -602,6 +800,7 @@ func (im *importer) row(fs [][]byte, line int) {
 			v, cls := classifyCell(f, im.dec)
 			switch cls {
 			case cellNumber:
+				im.sawDecimal(f, line)
 				if v < 0 {
 					im.cellProblem(line, c, f, ErrNegative, "a concentration cannot be negative; left missing")
 					continue
@@ -614,13 +813,26 @@ func (im *importer) row(fs [][]byte, line int) {
 				}
 				s.Censored[c.Species] = lim
 				s.C[c.Species] = pol.Value(lim)
+				im.censored[i].add(line, trimSpace(f))
+				if math.IsNaN(lim) {
+					im.censored[i].noLimit++
+				}
+			case cellMissing:
+				im.missed(i, f, line)
 			case cellText:
-				im.cellProblem(line, c, f, ErrNotNumber, "left missing")
+				if x, ok := im.cellUnit(c, f, line); ok {
+					s.C[c.Species] = x
+					continue
+				}
+				im.cellProblem(line, c, f, ErrNotNumber, "left missing; write a number, a value below detection such as \"<0.05\", or leave the cell blank")
 			}
 		case Discharge, PH, Temperature, Conductivity, SrRatio:
 			v, cls := classifyCell(f, im.dec)
 			switch cls {
+			case cellMissing:
+				im.missed(i, f, line)
 			case cellNumber:
+				im.sawDecimal(f, line)
 				v = v*c.Scale + c.Offset
 				if msg := rangeCheck(c.Kind, v); msg != "" {
 					err := ErrOutOfRange
@@ -683,6 +895,63 @@ func (im *importer) row(fs [][]byte, line int) {
 		}
 	}
 	im.t.Samples = append(im.t.Samples, s)
+}
+
+// missed counts a cell read as missing that was not blank ("n.d.",
+// "-999"), for the column's note.
+func (im *importer) missed(i int, f []byte, line int) {
+	f = trimSpace(f)
+	if len(f) == 0 {
+		return
+	}
+	im.missing[i].add(line, f)
+	if l := strings.ToLower(string(f)); l == "nd" || l == "n.d." || l == "n.d" {
+		im.missing[i].nd = true
+	}
+}
+
+// sawDecimal remembers the first number read with a detected decimal
+// comma, for the note that says so.
+func (im *importer) sawDecimal(f []byte, line int) {
+	if im.dec == ',' && im.opt.Decimal == 0 && im.decAt == 0 && bytes.IndexByte(f, ',') >= 0 {
+		im.decAt, im.decRaw = line, string(trimSpace(f))
+	}
+}
+
+// cellUnit reads a concentration cell that carries its own unit ("25
+// µmol/L", "1.2mg/l") in the internal unit, noting it when the unit is not
+// the column's.
+func (im *importer) cellUnit(c *plan, f []byte, line int) (float64, bool) {
+	f = trimSpace(f)
+	i := 0
+	for i < len(f) && (f[i] >= '0' && f[i] <= '9' || f[i] == '.' || f[i] == im.dec || i == 0 && (f[i] == '-' || f[i] == '+')) {
+		i++
+	}
+	v, ok := parseNumber(f[:i], im.dec)
+	rest := strings.TrimSpace(string(f[i:]))
+	if !ok || rest == "" {
+		return 0, false
+	}
+	u, err := chem.ParseUnit(rest)
+	if err != nil {
+		return 0, false
+	}
+	if u.Basis == "" {
+		u.Basis = c.Unit.Basis
+	}
+	k, err := chem.Factor(c.Species, u)
+	if err != nil {
+		return 0, false
+	}
+	if v < 0 {
+		im.cellProblem(line, c, f, ErrNegative, "a concentration cannot be negative; left missing")
+		return nan, true
+	}
+	if k != c.Scale {
+		im.note(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(f), Err: ErrCellUnit,
+			Detail: fmt.Sprintf("read in %s, the unit the cell gives, although the column is in %s", u, c.Label)})
+	}
+	return v * k, true
 }
 
 func rangeCheck(k Kind, v float64) string {
@@ -748,7 +1017,14 @@ func (im *importer) date(s *Sample, c *plan, f []byte, line int) {
 	if d.dmy && im.order == DateAuto {
 		im.anyA13 = im.anyA13 || d.a > 12
 		im.anyB13 = im.anyB13 || d.b > 12
-		im.pending = append(im.pending, pendingDate{s, d, string(f), line})
+		p := pendingDate{s, d, string(f), line}
+		im.pending = append(im.pending, p)
+		if d.a > 12 && im.dayFirst == nil {
+			im.dayFirst = &p
+		}
+		if d.b > 12 && im.monthFirst == nil {
+			im.monthFirst = &p
+		}
 		return
 	}
 	im.setTime(s, c, d, f, line)
@@ -769,17 +1045,30 @@ func (im *importer) setTime(s *Sample, c *plan, d dateVal, f []byte, line int) {
 func (im *importer) finish() {
 	if len(im.pending) > 0 {
 		c := &im.cols[im.dateCol]
+		choose := fmt.Sprintf("set %s to day-first or month-first", setting("date_order"))
+		df, mf := im.dayFirst, im.monthFirst
 		switch {
-		case im.anyA13 && im.anyB13:
-			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Err: ErrAmbiguousDate,
-				Detail: "the column mixes day-first and month-first dates; choose the date order (day-first or month-first); dates kept as text"})
-		case im.anyA13:
+		case df != nil && mf != nil:
+			last := max(df.line, mf.line)
+			raw := df.raw
+			if last == mf.line {
+				raw = mf.raw
+			}
+			im.add(&Problem{Line: last, Col: c.Index + 1, Header: c.Header, Value: raw, Err: ErrAmbiguousDate,
+				Detail: fmt.Sprintf("line %d %q reads only day-first but line %d %q only month-first; %s (the dates that disagree with it are then reported); the %d dates written as three numbers are kept as text until then",
+					df.line, df.raw, mf.line, mf.raw, choose, len(im.pending))})
+		case df != nil:
 			im.order = DayFirst
-		case im.anyB13:
+			im.note(&Problem{Line: df.line, Col: c.Index + 1, Header: c.Header, Value: df.raw, Err: ErrDateOrder,
+				Detail: fmt.Sprintf("dates read day-first, as this one shows (%d cannot be a month); %d dates read so", df.d.a, len(im.pending))})
+		case mf != nil:
 			im.order = MonthFirst
+			im.note(&Problem{Line: mf.line, Col: c.Index + 1, Header: c.Header, Value: mf.raw, Err: ErrDateOrder,
+				Detail: fmt.Sprintf("dates read month-first, as this one shows (%d cannot be a month); %d dates read so", mf.d.b, len(im.pending))})
 		default:
-			im.add(&Problem{Line: im.header, Col: c.Index + 1, Header: c.Header, Value: im.pending[0].raw, Err: ErrAmbiguousDate,
-				Detail: fmt.Sprintf("all %d dates could be day-first or month-first; choose the date order (day-first or month-first); dates kept as text", len(im.pending))})
+			p := im.pending[0]
+			im.add(&Problem{Line: p.line, Col: c.Index + 1, Header: c.Header, Value: p.raw, Err: ErrAmbiguousDate,
+				Detail: fmt.Sprintf("all %d dates, such as this one, read both day-first and month-first; %s; the dates are kept as text until then", len(im.pending), choose)})
 		}
 		if im.order != DateAuto {
 			c.Note = "date order " + im.order.String() + " (read from the column)"
@@ -802,18 +1091,76 @@ func (im *importer) finish() {
 		}
 		im.meta(k.s, k.c, []byte(k.raw)) // no date to join it to: keep the text
 	}
+	im.columnNotes()
 	if len(im.t.Samples) == 0 && im.nMapped > 0 {
 		im.add(&Problem{Line: im.header, Err: ErrNotTable, Detail: "the header has no data rows below it"})
 	}
-	sort.SliceStable(im.t.Problems, func(i, j int) bool {
-		a, b := im.t.Problems[i], im.t.Problems[j]
+	sortProblems(im.t.Problems)
+	sortProblems(im.t.Notes)
+	if im.extra > 0 {
+		im.t.Problems = append(im.t.Problems, &Problem{File: im.t.Name, Err: ErrTooMany,
+			Detail: fmt.Sprintf("%d more problems not listed", im.extra)})
+	}
+}
+
+// sortProblems orders a list by line, then column, keeping the order of
+// problems at one place.
+func sortProblems(l ProblemList) {
+	sort.SliceStable(l, func(i, j int) bool {
+		a, b := l[i], l[j]
 		if a.Line != b.Line {
 			return a.Line < b.Line
 		}
 		return a.Col < b.Col
 	})
-	if im.extra > 0 {
-		im.t.Problems = append(im.t.Problems, &Problem{File: im.t.Name, Err: ErrTooMany,
-			Detail: fmt.Sprintf("%d more problems not listed", im.extra)})
+}
+
+// columnNotes adds the notes the rows gave: the decimal comma, and per
+// column the values below detection and the cells read as missing.
+func (im *importer) columnNotes() {
+	if im.decAt > 0 {
+		im.note(&Problem{Line: im.decAt, Value: im.decRaw, Err: ErrDecimalComma,
+			Detail: "numbers read with a decimal comma, as the numeric cells use it"})
 	}
+	pol := im.t.Policy
+	for i := range im.cols {
+		c := &im.cols[i]
+		if t := &im.censored[i]; t.n > 0 {
+			var d string
+			switch pol {
+			case LeaveOut:
+				d = "each is left missing"
+			case Zero:
+				d = "zero stands in for each"
+			case AtLimit:
+				d = "the limit stands in for each"
+			default:
+				d = "half the limit stands in for each"
+			}
+			d = fmt.Sprintf("%s below detection (%s): %s (setting %s); the limits are kept", plural(t.n, "value"), t.list(), d, setting("below_detection"))
+			if t.noLimit > 0 && pol != Zero && pol != LeaveOut {
+				if t.noLimit == 1 {
+					d += "; 1 gives no limit and is left missing: write its limit, as \"<0.05\", to use it"
+				} else {
+					d += fmt.Sprintf("; %d give no limit and are left missing: write their limits, as \"<0.05\", to use them", t.noLimit)
+				}
+			}
+			im.note(&Problem{Line: t.ex[0].line, Col: i + 1, Header: c.Header, Value: t.ex[0].raw, Err: ErrCensored, Detail: d})
+		}
+		if t := &im.missing[i]; t.n > 0 {
+			d := fmt.Sprintf("%s read as missing, not as zero (%s)", plural(t.n, "cell"), t.list())
+			if t.nd {
+				d += "; \"n.d.\" is read as not determined: if the laboratory means not detected, write its detection limit, as \"<0.05\""
+			}
+			im.note(&Problem{Line: t.ex[0].line, Col: i + 1, Header: c.Header, Value: t.ex[0].raw, Err: ErrMissingValue, Detail: d})
+		}
+	}
+}
+
+// plural returns "1 value" or "n values".
+func plural(n int, one string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return strconv.Itoa(n) + " " + one + "s"
 }

@@ -207,15 +207,15 @@ func TestReadBadInput(t *testing.T) {
 		{"negative concentration", "Sample,Ca (mg/L),Na (mg/L)\nA,-1.5,2\nB,3,4\n", ErrNegative,
 			`bad.csv:2:2 (Ca (mg/L)): "-1.5": negative value; a concentration cannot be negative; left missing`, 2},
 		{"text in a numeric column", "Sample,Ca (mg/L),Na (mg/L)\nA,high,2\nB,3,4\n", ErrNotNumber,
-			`bad.csv:2:2 (Ca (mg/L)): "high": not a number; left missing`, 2},
+			`bad.csv:2:2 (Ca (mg/L)): "high": not a number; left missing; write a number, a value below detection such as "<0.05", or leave the cell blank`, 2},
 		{"duplicated species column", "Sample,Ca (mg/L),Calcium (µmol/L)\nA,1,25\n", ErrDuplicateColumn,
-			`bad.csv:1:3 (Calcium (µmol/L)): duplicated column; Ca is also in column 2, which is used; values kept as text`, 1},
+			`bad.csv:1:2 (Ca (mg/L)): duplicated column; Ca is in column 2 "Ca (mg/L)" and column 3 "Calcium (µmol/L)"; none is read: remove all but one of the Ca columns, or name the one to read in "columns to use"`, 1},
 		{"conflicting units", "Sample,Ca (mg/L),Na\n,µmol/L,mg/L\nA,1,2\n", ErrUnitConflict,
 			`bad.csv:2:2 (Ca (mg/L)): "µmol/L": conflicting units; the header says "mg/L" but the units row says "µmol/L"; values kept as text`, 1},
 		{"unknown unit", "Sample,Ca (mg/L),Na\n,mg/L,furlongs\nA,1,2\n", ErrUnknownUnit,
 			`bad.csv:2:3 (Na): "furlongs": unknown unit; "furlongs" is not a unit for concentration; values kept as text`, 1},
 		{"no unit", "Sample,Ca,Na (mg/L)\nA,1,2\n", ErrNoUnit,
-			`bad.csv:1:2 (Ca): no unit given; no unit for Ca in the header or a units row; values kept as text (give the unit in the header, as in "Ca (mg/L)", or choose a default unit)`, 1},
+			`bad.csv:1:2 (Ca): no unit given; no unit for Ca in the header or a units row; values kept as text: give the unit in the header, as in "Ca (mg/L)", or set "default unit"`, 1},
 		{"unit that does not apply", "Sample,Ca (mg/L as N),Na (mg/L)\nA,1,2\n", ErrUnitMismatch,
 			`bad.csv:1:2 (Ca (mg/L as N)): unit does not apply; Ca cannot be in mg/L as N; values kept as text`, 1},
 		{"pH out of range", "Sample,pH,Na (mg/L)\nA,17,2\n", ErrOutOfRange,
@@ -308,7 +308,7 @@ func TestReadDates(t *testing.T) {
 		if n := tb.Problems.Count(ErrAmbiguousDate); n != 1 {
 			t.Fatalf("%d ambiguous-date problems, want 1: %v", n, tb.Problems)
 		}
-		want := `d.csv:1:2 (Date): "03/04/2024": ambiguous date order; all 2 dates could be day-first or month-first; choose the date order (day-first or month-first); dates kept as text`
+		want := `d.csv:2:2 (Date): "03/04/2024": ambiguous date order; all 2 dates, such as this one, read both day-first and month-first; set "date order" to day-first or month-first; the dates are kept as text until then`
 		if got := tb.Problems[0].Error(); got != want {
 			t.Errorf("message\n got %s\nwant %s", got, want)
 		}

@@ -82,6 +82,11 @@ type Table struct {
 	Samples  []*Sample // one per data row, in file order
 	Columns  []Column  // one per column of the file, in file order
 	Problems ProblemList
+	// Notes says what the importer read in place of what the file wrote
+	// (values below detection, no-data codes, a unit from the settings)
+	// and what it inferred (date order, decimal mark, units), each with
+	// file, line, column and an example value, in file order.
+	Notes    ProblemList
 	Preamble []string // lines above the header row, kept as written
 	Header   int      // line of the header row in the file (0 when none was found)
 	Policy   Policy   // substitution applied to censored values in C

@@ -68,13 +68,14 @@ func SheetGrid(b []byte, name, sheet string) (*Grid, error) {
 	err := readSheet(im, b, name, sheet)
 	g.Preamble, g.Comma = t.Preamble, 0
 	g.Problems = append(g.Problems, t.Problems...)
+	g.Notes = append(g.Notes, t.Notes...)
 	return g, err
 }
 
 // readSheet runs the importer on one sheet.
 func readSheet(im *importer, b []byte, name, sheet string) error {
 	t := im.t
-	sheet, rows, probs, err := sheetRows(b, name, sheet)
+	sheet, rows, probs, notes, err := sheetRowsNotes(b, name, sheet)
 	if err != nil {
 		p := err.(*Problem)
 		t.Problems = append(t.Problems, p)
@@ -82,6 +83,9 @@ func readSheet(im *importer, b []byte, name, sheet string) error {
 	}
 	for _, p := range probs {
 		im.add(p)
+	}
+	for _, p := range notes {
+		im.note(p)
 	}
 	var sample [][][]byte
 	counts := map[int]int{}
@@ -249,9 +253,19 @@ func checkSharedStrings(files []*zip.File) error {
 // importer reads them. A file-level failure is a *Problem; rows that cannot
 // be read are left out and listed in the problems.
 func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, probs []*Problem, err error) {
-	fail := func(e error, detail string) (string, []sheetRow, []*Problem, error) {
-		return sheet, nil, nil, &Problem{File: name, Err: e, Detail: detail}
+	used, rows, probs, _, err = sheetRowsNotes(b, name, sheet)
+	return used, rows, probs, err
+}
+
+// sheetRowsNotes is sheetRows with the notes on how the sheet was read: a
+// header over several rows joined, other sheets left unread.
+func sheetRowsNotes(b []byte, name, sheet string) (used string, rows []sheetRow, probs, notes []*Problem, err error) {
+	fail := func(e error, detail string) (string, []sheetRow, []*Problem, []*Problem, error) {
+		p := &Problem{File: name, Err: e, Detail: detail}
+		p.classify()
+		return sheet, nil, nil, nil, p
 	}
+	asked := sheet
 	raw, _, err := openWorkbook(b, false)
 	if err != nil {
 		return fail(ErrNotWorkbook, strings.TrimPrefix(err.Error(), ErrNotWorkbook.Error()+": "))
@@ -333,16 +347,30 @@ func sheetRows(b []byte, name, sheet string) (used string, rows []sheetRow, prob
 		rows = append(rows, sheetRow{line: line, cells: cells})
 	}
 	if err != nil {
-		return sheet, nil, nil, err
+		return sheet, nil, nil, nil, err
 	}
 	// The reader stops quietly where a sheet's XML breaks off; say so.
-	if f := (&xlsxreader.XlsxFileCloser{XlsxFile: *raw}).GetSheetFileForSheetName(sheet); f != nil {
+	f := (&xlsxreader.XlsxFileCloser{XlsxFile: *raw}).GetSheetFileForSheetName(sheet)
+	if f != nil {
 		if err := checkXML(f); err != nil {
 			probs = append(probs, &Problem{File: name, Err: ErrBadRow,
 				Detail: fmt.Sprintf("sheet %q: %v; rows after that point are not read", sheet, err)})
 		}
 	}
-	return sheet, rows, probs, nil
+	for _, p := range probs {
+		p.classify()
+	}
+	var joined *Problem
+	if rows, joined = mergeHeader(rows, mergedSpans(f), name, sheet); joined != nil {
+		notes = append(notes, joined)
+	}
+	if asked == "" && len(raw.Sheets) > 1 {
+		p := &Problem{File: name, Err: ErrOtherSheets, Detail: fmt.Sprintf("read sheet %q, the first of the workbook's %d; not read: %s; to read another, name it (-sheet on the command line) or move it to the front",
+			sheet, len(raw.Sheets), quoteList(raw.Sheets[1:]))}
+		p.classify()
+		notes = append(notes, p)
+	}
+	return sheet, rows, probs, notes, nil
 }
 
 // xlsxCell is a cell as the text importer reads it: numbers in plain

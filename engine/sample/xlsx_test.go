@@ -454,6 +454,8 @@ func FuzzReadXLSX(f *testing.F) {
 	f.Add(corrieValeBook(f), "Field notes")
 	f.Add(buildXLSX(f, []string{"S"}, [][][]xc{{{{"XFD1", "", 0, "1"}, {"A", "s", 0, "x"}}, {{"B0", "", 1, "-5"}}}}), "S")
 	f.Add([]byte("PK\x03\x04"), "")
+	f.Add(mergedWorkbook(f), "")
+	f.Add(mergedWorkbook(f), "Notes")
 	sentinels := []error{ErrNotTable, ErrNotNumber, ErrNegative, ErrOutOfRange, ErrDuplicateColumn, ErrUnitConflict,
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany,
 		ErrNotWorkbook, ErrNoSheet, ErrBadRow}
@@ -562,6 +564,13 @@ func FuzzXLSXParts(f *testing.F) {
 	f.Add(part("xl/worksheets/sheet1.xml"), part("xl/sharedStrings.xml"), part("xl/styles.xml"))
 	f.Add([]byte(`<worksheet><sheetData><row><c t="s"><v>0</v></c><c><v>1e400</v></c></row></sheetData></worksheet>`),
 		[]byte(`<sst count="-1"><si><t>x</t></si></sst>`), []byte(`<styleSheet><cellXfs><xf numFmtId="14"/></cellXfs></styleSheet>`))
+	// A header over two rows of merged cells, with ranges out of order and
+	// beyond the sheet.
+	f.Add([]byte(`<worksheet><sheetData><row r="1"><c r="A1" t="inlineStr"><is><t>Sample</t></is></c>`+
+		`<c r="B1" t="inlineStr"><is><t>Major ions (mg/L)</t></is></c></row><row r="2"><c r="B2" t="inlineStr"><is><t>Na</t></is></c>`+
+		`<c r="C2" t="inlineStr"><is><t>Ca</t></is></c></row><row r="3"><c r="A3" t="inlineStr"><is><t>S1</t></is></c><c r="B3"><v>2.3</v></c>`+
+		`<c r="C3"><v>40</v></c></row></sheetData><mergeCells><mergeCell ref="A1:A2"/><mergeCell ref="B1:C1"/><mergeCell ref="D9:C1"/>`+
+		`<mergeCell ref="A1:XFD1"/></mergeCells></worksheet>`), part("xl/sharedStrings.xml"), part("xl/styles.xml"))
 	f.Fuzz(func(t *testing.T, sheet, shared, styles []byte) {
 		defer watchdog.Start([]any{sheet, shared, styles})()
 		in := replaceParts(t, book, map[string][]byte{"xl/worksheets/sheet1.xml": sheet, "xl/sharedStrings.xml": shared, "xl/styles.xml": styles})

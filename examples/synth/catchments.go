@@ -57,6 +57,7 @@ var Examples = []Example{
 			"Marlow Fen is a fictional lowland river on limestone and shale with gypsum and pyrite. The data are invented (examples/synth), not measured.",
 			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; set the apportionment's sulfate to sulfide to see the other end of the bracket.")
 	}},
+	{"examples/greyhope-beck/greyhope-beck.lixiv.json", greyhopeBudget},
 }
 
 // Computed builds an example, computes it and keeps its results snapshot,

@@ -40,6 +40,9 @@ type Truth struct {
 	SiPerNa          float64 // SiO2 per silicate Na
 	Slope            float64 // log C − log Q slope of the rock-derived solutes (dilution < 0)
 	Noise            float64 // relative analytical noise (1σ)
+	// Water, when set, gives each sample a temperature and a pH (from its
+	// alkalinity and an invented pCO2); nil leaves both unmeasured.
+	Water *WaterTruth
 }
 
 // Seawater X/Cl molar ratios (Millero et al. 2008 reference composition,
@@ -76,10 +79,12 @@ func (t *Truth) Discharge() []float64 {
 
 // Sample is one invented water sample in µmol/L (Alk µeq/L).
 type Sample struct {
-	ID  string
-	Day discharge.Day
-	Q   float64
-	C   chem.Composition
+	ID       string
+	Day      discharge.Day
+	Q        float64
+	C        chem.Composition
+	PH, Temp float64 // NaN when not measured
+	PCO2     float64 // the invented pCO2 behind the pH, µatm (NaN without one)
 }
 
 // Samples mixes the samples on every SampleEvery-th day of q.
@@ -126,7 +131,11 @@ func (t *Truth) Samples(q []float64) []Sample {
 		for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.NO3, chem.Alk, chem.SiO2} {
 			c[sp] *= math.Exp(t.Noise*r.NormFloat64() - t.Noise*t.Noise/2)
 		}
-		out = append(out, Sample{ID: fmt.Sprintf("%s-%03d", t.Code, len(out)+1), Day: t.Start + discharge.Day(i), Q: q[i], C: c})
+		out = append(out, Sample{ID: fmt.Sprintf("%s-%03d", t.Code, len(out)+1), Day: t.Start + discharge.Day(i), Q: q[i], C: c,
+			PH: math.NaN(), Temp: math.NaN(), PCO2: math.NaN()})
+	}
+	if t.Water != nil {
+		t.Water.measure(t, out, mean)
 	}
 	return out
 }
@@ -143,6 +152,11 @@ func SampleTable(ss []Sample) *notebook.Table {
 		Columns: []string{"sample", "date", "Na", "K", "Ca", "Mg", "Cl", "SO4", "NO3", "Alk", "SiO2"},
 		Units:   []string{"", "", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "mg/L", "µeq/L", "mg/L"},
 	}
+	water := len(ss) > 0 && !math.IsNaN(ss[0].Temp)
+	if water {
+		t.Columns = append(t.Columns, "pH", "temperature")
+		t.Units = append(t.Units, "", "°C")
+	}
 	for _, s := range ss {
 		row := []string{s.ID, s.Day.String()}
 		for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4} {
@@ -154,6 +168,9 @@ func SampleTable(ss []Sample) *notebook.Table {
 			row = append(row, g(no3, 3))
 		}
 		row = append(row, g(s.C[chem.Alk], 1), g(mgL(chem.SiO2, s.C[chem.SiO2]), 3))
+		if water {
+			row = append(row, blankNaN(s.PH, 2), blankNaN(s.Temp, 1))
+		}
 		t.Rows = append(t.Rows, row)
 	}
 	return t

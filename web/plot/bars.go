@@ -31,6 +31,30 @@ func (c *Chart) Bars(categories []string, segs []Segment) {
 type bars struct {
 	cats []string
 	segs []Segment
+	// below stacks the values under zero downwards from zero (Diverging);
+	// otherwise they are left out.
+	below bool
+}
+
+// DivergingBars is Bars for segments that may fall below zero, such as
+// amounts dissolved (above) and formed (below): each category's values
+// above zero stack upwards from zero and those below zero downwards.
+func (c *Chart) DivergingBars(categories []string, segs []Segment) {
+	c.Bars(categories, segs)
+	c.items[len(c.items)-1].(*bars).below = true
+}
+
+// base returns where segment value v of a category starts, given the
+// running tops of its stacks above and below zero, and moves them.
+func (br *bars) base(v float64, up, down *float64) float64 {
+	if v < 0 && br.below {
+		b := *down
+		*down += v
+		return b
+	}
+	b := *up
+	*up += v
+	return b
 }
 
 func at(v []float64, i int) float64 {
@@ -49,30 +73,35 @@ const wideInterval = 3.0
 
 func (br *bars) extend(c *Chart) {
 	c.Y.include(0)
-	top := 0.0
+	top, bottom := 0.0, 0.0
 	for i := range br.cats {
-		base := 0.0
+		up, down := 0.0, 0.0
 		for _, s := range br.segs {
 			v := at(s.Value, i)
-			if !finite(v) {
+			if !finite(v) || v < 0 && !br.below {
 				continue
 			}
-			base += v
-			top = max(top, base)
+			br.base(v, &up, &down)
+			top, bottom = max(top, up), min(bottom, down)
 		}
 	}
 	c.Y.include(top)
+	c.Y.include(bottom)
+	span := top - bottom
 	for i := range br.cats {
-		base := 0.0
+		up, down := 0.0, 0.0
 		for _, s := range br.segs {
 			v := at(s.Value, i)
-			if !finite(v) {
+			if !finite(v) || v < 0 && !br.below {
 				continue
 			}
-			if hi := at(s.Hi, i); finite(hi) && (top <= 0 || base+hi <= wideInterval*top) {
-				c.Y.include(base + hi)
+			b := br.base(v, &up, &down)
+			if hi := at(s.Hi, i); finite(hi) && (span <= 0 || b+hi <= bottom+wideInterval*span) {
+				c.Y.include(b + hi)
 			}
-			base += v
+			if lo := at(s.Lo, i); br.below && finite(lo) && (span <= 0 || b+lo >= top-wideInterval*span) {
+				c.Y.include(b + lo)
+			}
 		}
 	}
 }
@@ -89,31 +118,35 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 	}
 	for i := range br.cats {
 		x := c.X.Map(float64(i))
-		base := 0.0
+		up, down := 0.0, 0.0
 		for _, s := range br.segs {
 			v := at(s.Value, i)
-			if !finite(v) || v <= 0 {
+			if !finite(v) || v == 0 || v < 0 && !br.below {
 				continue
 			}
+			base := br.base(v, &up, &down)
 			y0, y1 := c.Y.Map(base), c.Y.Map(base+v)
 			if finite(y0, y1) {
 				fmt.Fprintf(b, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1"><title>%s: %s</title></rect>`,
-					x-bw/2, y1, bw, y0-y1, c.hatchURL(s.Style), s.Style.Colour, esc(br.cats[i]+" "+s.Name), Number(v))
+					x-bw/2, math.Min(y0, y1), bw, math.Abs(y0-y1), c.hatchURL(s.Style), s.Style.Colour, esc(br.cats[i]+" "+s.Name), Number(v))
 			}
-			base += v
 		}
-		base = 0
+		up, down = 0, 0
 		for _, s := range br.segs {
 			v := at(s.Value, i)
-			if !finite(v) || v <= 0 {
+			if !finite(v) || v == 0 || v < 0 && !br.below {
 				continue
 			}
+			base := br.base(v, &up, &down)
 			lo, hi := at(s.Lo, i), at(s.Hi, i)
 			if finite(lo, hi) {
 				ylo, yhi := c.Y.Map(base+lo), c.Y.Map(base+hi)
+				if yhi > ylo { // a bar below zero: its whisker runs downwards
+					ylo, yhi = yhi, ylo
+				}
 				xw := x + bw/2 - 6
 				if bw < 10 { // narrow bars: a plain line, clipped at the plot's edge
-					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1f" stroke="#111" stroke-width="0.8" fill="none"/>`, x, ylo, math.Max(yhi, c.Y.hi))
+					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1f" stroke="#111" stroke-width="0.8" fill="none"/>`, x, math.Min(ylo, c.Y.lo), math.Max(yhi, c.Y.hi))
 				} else if yhi < c.Y.hi { // cut at the top: an open arrow says the bound is off the plot
 					yhi = c.Y.hi
 					fmt.Fprintf(b, `<path d="M%.1f,%.1fV%.1fM%.1f,%.1fh8M%.1f,%.1fl4,-7l4,7" stroke="#111" stroke-width="1.2" fill="none"><title>upper bound %s, off the plot</title></path>`,
@@ -123,7 +156,6 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 						xw, ylo, yhi, xw-4, ylo, xw-4, yhi)
 				}
 			}
-			base += v
 		}
 	}
 }

@@ -15,6 +15,11 @@ type Chart struct {
 	Height float64 // pixels; 0 means 380
 	X, Y   Axis
 	Note   string // a line under the chart, such as a fit equation
+	// StaggerLabels lets the labels of a category axis alternate between
+	// two rows, when that gives each its room, rather than showing only
+	// every other one. The second row takes the place of the axis title:
+	// leave X.Label empty.
+	StaggerLabels bool
 	// MinStep is the least room, in pixels, for each category of a
 	// category axis: with many categories the chart grows wider than
 	// Width (and is marked "wide", for the page to scroll it sideways)
@@ -155,10 +160,18 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 	x0, x1, y0, y1 := c.X.lo, c.X.hi, c.Y.hi, c.Y.lo
 	fmt.Fprintf(b, `<rect x="%g" y="%g" width="%g" height="%g" fill="none" stroke="#444" stroke-width="1"/>`, x0, y0, x1-x0, y1-y0)
 	xt := c.X.Ticks()
+	stagger := false
 	if c.X.Names != nil {
-		xt = thinLabels(xt, (x1-x0)/float64(len(xt)+1))
+		room := (x1 - x0) / float64(len(xt)+1)
+		switch {
+		case !thinned(xt, room):
+		case c.StaggerLabels && !thinned(xt, 2*room):
+			stagger = true // two rows give every label room
+		default:
+			xt = thinLabels(xt, room)
+		}
 	}
-	for _, t := range xt {
+	for i, t := range xt {
 		px := c.X.Map(t.Value)
 		if math.IsNaN(px) || px < x0-0.5 || px > x1+0.5 {
 			continue
@@ -171,7 +184,11 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 		}
 		fmt.Fprintf(b, `<line x1="%.1f" y1="%g" x2="%.1f" y2="%g" stroke="#444"/>`, px, y1, px, y1+l)
 		if t.Label != "" {
-			fmt.Fprintf(b, `<text x="%.1f" y="%g" text-anchor="middle" fill="#222">%s</text>`, px, y1+18, esc(t.Label))
+			y := y1 + 18
+			if stagger && i%2 == 1 {
+				y += 15
+			}
+			fmt.Fprintf(b, `<text x="%.1f" y="%g" text-anchor="middle" fill="#222">%s</text>`, px, y, esc(t.Label))
 		}
 	}
 	for _, t := range c.Y.Ticks() {
@@ -271,6 +288,16 @@ func finite(vs ...float64) bool {
 
 // thinLabels keeps every k-th label of a category axis so that labels
 // about 7 px a character do not overlap when each has room px.
+// thinned reports whether thinLabels would drop a label of t at room.
+func thinned(t []Tick, room float64) bool {
+	for i, tk := range thinLabels(t, room) {
+		if tk.Label != t[i].Label {
+			return true
+		}
+	}
+	return false
+}
+
 func thinLabels(t []Tick, room float64) []Tick {
 	longest := 1
 	for _, tk := range t {

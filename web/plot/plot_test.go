@@ -1,6 +1,7 @@
 package plot
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -173,5 +174,51 @@ func TestThinLabels(t *testing.T) {
 	}
 	if n == 0 || n >= 40 {
 		t.Errorf("labels kept: got %d of 40, want some but not all", n)
+	}
+}
+
+// TestDivergingBars: values below zero stack downwards from zero and widen
+// the axis; plain Bars leaves them out as before.
+func TestDivergingBars(t *testing.T) {
+	segs := []Segment{{Name: "dissolved", Style: StyleN(0), Value: []float64{10, 5}}, {Name: "formed", Style: StyleN(1), Value: []float64{-4, -8}}}
+	c := New("d", "t", "x", "y")
+	c.DivergingBars([]string{"a", "b"}, segs)
+	svg := c.SVG()
+	if c.Y.Min > -8 || c.Y.Max < 10 {
+		t.Errorf("axis %g..%g does not hold -8..10", c.Y.Min, c.Y.Max)
+	}
+	if !strings.Contains(svg, "b formed: -8") || !strings.Contains(svg, "a dissolved: 10") {
+		t.Error("bars missing")
+	}
+	// The bar below zero starts at zero: its top edge is the zero line.
+	zero := c.Y.Map(0)
+	if !strings.Contains(svg, fmt.Sprintf(`y="%.1f" width`, zero)) {
+		t.Errorf("no bar hangs from zero (y %.1f)", zero)
+	}
+	p := New("p", "t", "x", "y")
+	p.Bars([]string{"a", "b"}, segs)
+	if svg := p.SVG(); strings.Contains(svg, "formed: -") || p.Y.Min < 0 {
+		t.Error("plain bars drew values below zero")
+	}
+}
+
+// TestStaggerLabels: long category labels that one row would thin take two
+// rows, every one shown, when the chart asks for it.
+func TestStaggerLabels(t *testing.T) {
+	cats := []string{"plagioclase An30", "K-feldspar", "biotite", "magnesian calcite", "kaolinite"}
+	draw := func(stagger bool) string {
+		c := New("s", "t", "", "y")
+		c.StaggerLabels = stagger
+		c.Bars(cats, []Segment{{Name: "v", Style: StyleN(0), Value: []float64{1, 2, 3, 4, 5}}})
+		return c.SVG()
+	}
+	plain, two := draw(false), draw(true)
+	if strings.Contains(plain, ">K-feldspar<") {
+		t.Error("one row kept every long label (the test needs thinning to happen)")
+	}
+	for _, l := range cats {
+		if !strings.Contains(two, ">"+l+"<") {
+			t.Errorf("staggered labels lack %q", l)
+		}
 	}
 }

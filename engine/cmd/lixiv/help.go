@@ -17,7 +17,10 @@ Usage:
   lixiv quick -samples S.csv [-discharge Q.csv -area KM2] [-save B.lixiv.json] [-json]
                                        a budget with default settings from a samples file
                                        (CSV, TSV or .xlsx; -sheet NAME picks a workbook's sheet);
-                                       without discharge: per-sample apportionment and CO2 per litre
+                                       without discharge: per-sample apportionment and CO2 per litre;
+                                       -date-order, -below-detection, -default-unit and -use-column
+                                       set what the page calls "date order", "below detection limit",
+                                       "default unit" and "columns to use"
   lixiv batch [-j N] [-out DIR] [-check] FILE|DIR...
                                        run many budget files at once on all cores
   lixiv serve [-addr A] [-dir D]       serve the notebook page

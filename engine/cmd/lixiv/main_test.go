@@ -60,6 +60,7 @@ const (
 	marlow = "../../../examples/marlow-fen/marlow-fen.lixiv.json"
 	small  = "../../../testdata/budgets/small-forward.lixiv.json"
 	rain   = "../../../testdata/budgets/small-rain.lixiv.json"
+	grey   = "../../../examples/greyhope-beck/greyhope-beck.lixiv.json"
 )
 
 func TestCommands(t *testing.T) {
@@ -74,6 +75,7 @@ func TestCommands(t *testing.T) {
 		{"unknown", []string{"frobnicate"}, 2, `unknown sub-command "frobnicate"`},
 		{"rerun-small", []string{"rerun", small}, 0, ""},
 		{"rerun-json", []string{"rerun", "-json", rain}, 0, ""},
+		{"rerun-water", []string{"rerun", grey}, 0, ""},
 		{"check-examples", []string{"check", corrie, marlow, small, rain}, 0, ""},
 		{"check-missing", []string{"check", "testdata/no-such.lixiv.json"}, 1, "no such file"},
 		{"check-none", []string{"check"}, 2, "name at least one"},
@@ -147,5 +149,21 @@ func TestTables(t *testing.T) {
 	lines := strings.Split(strings.TrimSpace(string(b)), "\n")
 	if len(lines) != 2+13 || !strings.HasPrefix(lines[0], "sample,date,silicate") || !strings.Contains(lines[1], "µmol/L") {
 		t.Errorf("co2-per-litre.csv: %d lines, header %q, units %q; want 15 lines (13 samples)", len(lines), lines[0], lines[1])
+	}
+}
+
+// TestRerunReportsWaterCells: the JSON report of a budget with carbonate
+// and minerals cells carries their sections (notebook.CarbonateReport,
+// notebook.MineralReport; SCHEMA.md).
+func TestRerunReportsWaterCells(t *testing.T) {
+	out, code, err := runStatus([]string{"rerun", "-json", grey})
+	if code != 0 {
+		t.Fatalf("exit %d: %v", code, err)
+	}
+	for _, s := range []string{`"carbonate_system": {`, `"activity_model": "davies"`, `"si_calcite":`, `"left_out": [`,
+		`"mineral_balance": {`, `"reaction": "`, `"co2_mol_per_km2_per_yr": {`, `"residuals_umol_per_litre": {`} {
+		if !bytes.Contains(out, []byte(s)) {
+			t.Errorf("report lacks %s", s)
+		}
 	}
 }

@@ -20,7 +20,7 @@ import (
 // (text, or an .xlsx workbook whose sheet is named by sheet, "" for the
 // first) and, when given, a discharge file and the area. Without discharge
 // it stops at the per-sample apportionment and CO2 per litre.
-func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*notebook.Document, error) {
+func quickBudget(samplesPath, sheet, dischargePath string, area float64, set ...func(*notebook.SamplesSettings, *notebook.DischargeSettings)) (*notebook.Document, error) {
 	name := strings.TrimSuffix(filepath.Base(samplesPath), filepath.Ext(samplesPath))
 	d := notebook.New("Quick budget from " + filepath.Base(samplesPath))
 	add := func(k notebook.Kind, id, title string) *notebook.Cell {
@@ -55,13 +55,26 @@ func quickBudget(samplesPath, sheet, dischargePath string, area float64) (*noteb
 	if err != nil {
 		return nil, err
 	}
-	add(notebook.KindSamples, "samples", filepath.Base(samplesPath)).Table = st
+	sc := add(notebook.KindSamples, "samples", filepath.Base(samplesPath))
+	sc.Table = st
+	ds := &notebook.DischargeSettings{}
 	if dischargePath != "" {
 		qt, err := readTable(dischargePath, "")
 		if err != nil {
 			return nil, err
 		}
-		add(notebook.KindDischarge, "discharge", filepath.Base(dischargePath)).Table = qt
+		dc := add(notebook.KindDischarge, "discharge", filepath.Base(dischargePath))
+		dc.Table, ds = qt, dc.Settings.(*notebook.DischargeSettings)
+	}
+	for _, f := range set {
+		f(sc.Settings.(*notebook.SamplesSettings), ds)
+	}
+	for _, c := range []*notebook.Cell{sc, d.Cell("discharge")} {
+		if c != nil {
+			if err := c.Settings.Validate(); err != nil {
+				return nil, usageError("quick: " + err.Error())
+			}
+		}
 	}
 	add(notebook.KindAtmosphere, "rain", "Sea-salt correction")
 	src := add(notebook.KindSources, "sources", "End-members (global preset)")
@@ -85,6 +98,11 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 	areaText := fs.String("area", "", "catchment area in km² (needed with -discharge)")
 	save := fs.String("save", "", "write the budget, with its results, to this .lixiv.json file")
 	asJSON := fs.Bool("json", false, "print the JSON report instead of the summary")
+	order := fs.String("date-order", "auto", `how dates such as 03/04/2024 are read: auto, day-first or month-first (the "date order" setting)`)
+	below := fs.String("below-detection", "half-limit", `what stands in for a value below detection: half-limit, zero, limit or leave-out (the "below detection limit" setting)`)
+	unit := fs.String("default-unit", "", `unit of species columns that give none, such as mg/L (the "default unit" setting)`)
+	var use columnList
+	fs.Var(&use, "use-column", `header of the column to read where a species has two; repeat for several (the "columns to use" setting)`)
 	if err := fs.Parse(args); err != nil {
 		return usageError(err.Error())
 	}
@@ -98,7 +116,10 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			return usageError(fmt.Sprintf("quick: -area %q is not a positive number of km²", *areaText))
 		}
 	}
-	d, err := quickBudget(*samples, *sheet, *dis, area)
+	d, err := quickBudget(*samples, *sheet, *dis, area, func(s *notebook.SamplesSettings, q *notebook.DischargeSettings) {
+		s.DateOrder, s.BelowDetection, s.DefaultUnit, s.UseColumns = *order, *below, *unit, use
+		q.DateOrder = *order
+	})
 	if err != nil {
 		return err
 	}
@@ -128,6 +149,16 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 	if p := cellProblems(d); len(p) > 0 {
 		return problemsError([]string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")})
 	}
+	return nil
+}
+
+// columnList collects the repeated -use-column flag.
+type columnList []string
+
+func (c *columnList) String() string { return strings.Join(*c, ", ") }
+
+func (c *columnList) Set(v string) error {
+	*c = append(*c, v)
 	return nil
 }
 

@@ -127,6 +127,9 @@ func summary(w io.Writer, path string, d *notebook.Document) {
 		for _, f := range o.Figures {
 			fmt.Fprintf(w, "    %s: %s\n", f.Name, fmtRange(f, noValueReason(d, c)))
 		}
+		for _, m := range o.Messages {
+			fmt.Fprintf(w, "    %s: %s\n", m.Severity, m)
+		}
 		for _, m := range o.Warnings {
 			fmt.Fprintf(w, "    warning: %s\n", m)
 		}

@@ -1,0 +1,187 @@
+package web
+
+import (
+	"math"
+	"strconv"
+
+	"lixiv/engine/notebook"
+	"lixiv/web/plot"
+)
+
+// The carbonate and minerals cells on the page: their labels, the choices
+// of their settings and their charts, which draw what the cells' output
+// tables hold (the engine computes every number).
+
+func init() {
+	kindLabels[notebook.KindCarbonate] = "Carbonate system"
+	kindLabels[notebook.KindMinerals] = "Mineral balance"
+	choices["activity_model"] = []string{"davies", "extended-debye-huckel"}
+	choices["fit_components"] = []string{"all", "cations"}
+	for k, v := range map[string]string{
+		"activity_model":                 "activity model",
+		"si_calcite_flag":                "flag SI of calcite above",
+		"atmospheric_pco2_uatm":          "pCO2 of the air (µatm)",
+		"pco2_flag_factor":               "flag pCO2 above (× the air's)",
+		"primary_minerals":               "primary minerals, which dissolve (names from the built-in table below, plagioclase AnNN, formulas, or name = formula)",
+		"secondary_minerals":             "secondary minerals, which may form",
+		"fit_components":                 "components fitted (cations: SiO2 and HCO3 as checks)",
+		"analytical_uncertainty_percent": "analytical uncertainty weighting the fit (%)",
+	} {
+		paramLabels[k] = v
+	}
+	for k, v := range map[string]string{
+		"carbonate.ionic_strength":  "ionic strength",
+		"carbonate.H2CO3":           "H2CO3*",
+		"carbonate.pCO2_excess":     "pCO2 over the air's",
+		"carbonate.SI_calcite":      "SI of calcite",
+		"carbonate.SI_aragonite":    "SI of aragonite",
+		"carbonate.SI_dolomite":     "SI of dolomite",
+		"CO2_per_mol":               "CO2 per mole",
+		"CO2_consumed":              "CO2 consumed",
+		"period.flux_weighted_mean": "flux-weighted mean",
+		"period.yield":              "yield",
+		"catalogue.usual_role":      "usual role",
+		"minerals.role":             "role",
+		"minerals.reaction":         "balanced reaction with carbonic acid",
+		"amounts.fit":               "fit",
+		"residuals.HCO3":            "HCO3 left",
+		"residuals.SiO2":            "SiO2 left",
+		"residuals.Na":              "Na left",
+		"residuals.K":               "K left",
+		"residuals.Ca":              "Ca left",
+		"residuals.Mg":              "Mg left",
+		"residuals.Cl":              "Cl left",
+		"residuals.SO4":             "SO4 left",
+	} {
+		columnLabels[k] = v
+	}
+}
+
+// carbonateSetting reads a numeric setting of a carbonate cell (NaN when
+// it has none).
+func carbonateSetting(c *notebook.Cell, key string) float64 {
+	if c == nil || c.Settings == nil {
+		return math.NaN()
+	}
+	for _, p := range notebook.Params(c.Settings) {
+		if p.Key == key {
+			if v, err := strconv.ParseFloat(p.Value, 64); err == nil {
+				return v
+			}
+		}
+	}
+	return math.NaN()
+}
+
+// carbonateX returns the horizontal axis of the carbonate charts: the
+// discharge at sampling on a log axis, or, when no sample has one, the
+// sampling date.
+func carbonateX(t *notebook.ResultTable) (xs []float64, label string, time bool) {
+	q := exact(t, "discharge")
+	for _, v := range nums(q) {
+		if v > 0 {
+			return q.Num, labelWithUnit("discharge at sampling", q), false
+		}
+	}
+	return days(exact(t, "date")), "date (no discharge at sampling)", true
+}
+
+// hline is a horizontal line at y across the x range of xs.
+func hline(ch *plot.Chart, name string, s plot.Style, xs []float64, y float64, time bool) {
+	lo, hi := minMax(xs)
+	if time {
+		lo, hi = math.Inf(1), math.Inf(-1)
+		for _, x := range xs {
+			if !math.IsNaN(x) {
+				lo, hi = math.Min(lo, x), math.Max(hi, x)
+			}
+		}
+		if lo > hi {
+			return
+		}
+	}
+	ch.Line(name, s, []float64{lo, hi}, []float64{y, y})
+}
+
+// saturationChart draws each sample's saturation indices against discharge,
+// with saturation (SI 0) and the cell's flag.
+func saturationChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
+	t := o.Table("carbonate")
+	if t == nil || t.Len() == 0 {
+		return nil
+	}
+	xs, xl, time := carbonateX(t)
+	ch := plot.New(id, "Saturation indices against discharge", xl, "saturation index (log10 IAP/K)")
+	ch.X.Log, ch.X.Time = !time, time
+	names := texts(exact(t, "sample"))
+	hline(ch, "saturation (SI 0)", plot.Style{Colour: "#6b6b6b"}, xs, 0, time)
+	if f := carbonateSetting(c, "si_calcite_flag"); !math.IsNaN(f) {
+		hline(ch, "flag: SI of calcite "+plot.Number(f), plot.Style{Colour: "#a4262c", Dash: "6 3"}, xs, f, time)
+	}
+	for i, m := range []struct{ col, name string }{{"SI_calcite", "calcite"}, {"SI_aragonite", "aragonite"}, {"SI_dolomite", "dolomite"}} {
+		if col := exact(t, m.col); col != nil {
+			ch.Points(m.name, plot.StyleN(i), xs, col.Num, names)
+		}
+	}
+	return ch
+}
+
+// pco2Chart draws each sample's pCO2 against discharge on log axes, with
+// the air's pCO2 and the cell's flag.
+func pco2Chart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
+	t := o.Table("carbonate")
+	p := exact(t, "pCO2")
+	if p == nil || t.Len() == 0 {
+		return nil
+	}
+	xs, xl, time := carbonateX(t)
+	ch := plot.New(id, "pCO2 against discharge", xl, labelWithUnit("pCO2", p))
+	ch.X.Log, ch.X.Time, ch.Y.Log = !time, time, true
+	air, f := carbonateSetting(c, "atmospheric_pco2_uatm"), carbonateSetting(c, "pco2_flag_factor")
+	if !math.IsNaN(air) {
+		hline(ch, "the air ("+plot.Number(air)+" µatm)", plot.Style{Colour: "#6b6b6b"}, xs, air, time)
+		if !math.IsNaN(f) {
+			hline(ch, "flag: "+plot.Number(f)+" × the air's", plot.Style{Colour: "#a4262c", Dash: "6 3"}, xs, air*f, time)
+		}
+	}
+	ch.Points("samples", plot.StyleN(0), xs, p.Num, texts(exact(t, "sample")))
+	return ch
+}
+
+// mineralBars stacks each sample's minerals: dissolved above zero, formed
+// below.
+func mineralBars(id string, o *notebook.Output) *plot.Chart {
+	mt, at := o.Table("minerals"), o.Table("amounts")
+	keys := texts(exact(mt, "mineral"))
+	names := texts(exact(at, "sample"))
+	if len(keys) == 0 || len(names) == 0 {
+		return nil
+	}
+	var segs []plot.Segment
+	for i, k := range keys {
+		if col := exact(at, k); col != nil && col.Num != nil {
+			segs = append(segs, plot.Segment{Name: k, Style: plot.StyleN(i), Value: col.Num})
+		}
+	}
+	ch := plot.New(id, "Minerals per sample: dissolved above zero, formed below", "sample", "amount (µmol/L)")
+	ch.Height = 360
+	ch.MinStep = 18
+	ch.DivergingBars(names, segs)
+	return ch
+}
+
+// mineralCO2Chart draws the CO2 each mineral consumed over the period,
+// with its 95 % interval.
+func mineralCO2Chart(id string, o *notebook.Output) *plot.Chart {
+	t := o.Table("period")
+	keys, v := texts(exact(t, "mineral")), exact(t, "CO2_consumed")
+	if len(keys) == 0 || v == nil {
+		return nil
+	}
+	ch := plot.New(id, "CO2 consumed by each mineral (mean annual)", "", labelWithUnit("CO2 consumed", v))
+	ch.Height = 320
+	ch.StaggerLabels = true // mineral names are long
+	ch.DivergingBars(keys, []plot.Segment{{Name: "median with 95 % interval (below zero: released)", Style: plot.StyleN(1),
+		Value: v.Num, Lo: nums(exact(t, "CO2_consumed_low")), Hi: nums(exact(t, "CO2_consumed_high"))}})
+	return ch
+}
