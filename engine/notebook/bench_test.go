@@ -146,8 +146,9 @@ func demoBudget(b *testing.B) *notebook.Document {
 
 // BenchmarkWorstAllowed computes, on one goroutine as the page does, the
 // costliest budget the limits allow (package atlimits): 4,000 samples ×
-// 1,000 draws with rain-ratio spread, 200 years of daily discharge, and
-// every series bootstrapped 647 times with a seasonal rating curve. It
+// 1,000 draws with rain-ratio spread, 200 years of daily discharge, every
+// series (each mineral's too) bootstrapped 647 times with a seasonal
+// rating curve. It
 // shows that the worst input computes in bounded time; it asserts no
 // time.
 func BenchmarkWorstAllowed(b *testing.B) {

@@ -104,6 +104,9 @@ func computeCarbonate(e *Env) (*Output, error) {
 	missing := map[chem.Species]int{}
 	warn := map[string]int{}
 	for _, i := range smp.Used() {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
 		sm := smp.Table.Samples[i]
 		bg, miss := carbonate.Background(sm.C)
 		for _, sp := range miss {
@@ -243,7 +246,7 @@ func (s *Samples) notSpeciated(i int, err error, reason string) *Message {
 	}
 	m := &Message{Severity: problem.Warning, Effect: problem.LeftOut, File: s.File, Line: sm.Line, Sample: sampleName(sm),
 		Text: fmt.Sprintf("sample %s has %s: left out of this carbonate cell only; it stays in the rest of the budget", sampleName(sm), reason),
-		Row: -1, Err: ErrNotSpeciated}
+		Row:  -1, Err: ErrNotSpeciated}
 	if errors.Is(err, carbonate.ErrNoAlkalinity) {
 		m.Column, m.Col = s.column(chem.Alk)
 		m.Value = s.Cell(i, chem.Alk)

@@ -13,7 +13,7 @@ import "fmt"
 //
 // The costs they bound, measured natively on one goroutine (the page's
 // WebAssembly is two to three times slower): the worst budget they allow
-// computes in tens of seconds (BenchmarkWorstAllowed), reporting progress
+// computes in under a minute (BenchmarkWorstAllowed), reporting progress
 // and honouring cancellation throughout.
 const (
 	// MaxFileSize is the largest budget file loaded, in bytes.

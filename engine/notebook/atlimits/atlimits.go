@@ -3,7 +3,8 @@
 // (BenchmarkWorstAllowed) and for the page's timing harness, which loads
 // it in the browser. It is made from the demo budget (a fictional
 // catchment): its samples repeated under new names and dates, its daily
-// discharge repeated over the longest record allowed.
+// discharge repeated over the longest record allowed, with a carbonate and
+// a minerals cell added, so that every kind of cell that computes is there.
 package atlimits
 
 import (
@@ -21,7 +22,9 @@ import (
 //   - the rating curve takes seasonal terms, whose bootstrap replicates
 //     evaluate the curve on every day (the costliest estimator), and the
 //     rain ratios vary, so every draw of every sample redoes its rain
-//     correction.
+//     correction;
+//   - the minerals cell balances every sample and fluxes each of its five
+//     minerals with the same bootstrap.
 const (
 	Samples    = 4000
 	Draws      = notebook.MaxSampleDraws / Samples
@@ -53,6 +56,11 @@ func Budget(demo []byte) (*notebook.Document, error) {
 		dt.Rows = append(dt.Rows, []string{(first + discharge.Day(k)).String(), dc.Table.Rows[k%len(dc.Table.Rows)][1]})
 	}
 	d.Title = "At the limits (from Corrie Vale)"
+	for _, k := range []notebook.Kind{notebook.KindCarbonate, notebook.KindMinerals} {
+		if _, err := d.Add(k, -1); err != nil {
+			return nil, err
+		}
+	}
 	for _, err := range []error{
 		d.SetTable("samples", st), d.SetTable("discharge", dt),
 		d.SetParam("apportionment", "model", "inverse"),
