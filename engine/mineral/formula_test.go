@@ -5,6 +5,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 func TestParse(t *testing.T) {
@@ -102,6 +104,7 @@ func FuzzParse(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
+		defer watchdog.Start(s)()
 		g, err := Parse(s)
 		if err != nil {
 			var pe *ParseError
