@@ -149,7 +149,8 @@ func TestTimingAtLimits(t *testing.T) {
 	}
 	took := eval[float64](t, ctx, `(() => { clearInterval(lixivBeat); return performance.now() - lixivT0 })()`)
 	gap := eval[float64](t, ctx, `lixivGap`)
+	slice := eval[string](t, ctx, `window.lixivLongestSlice || ""`)
 	bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`)
-	t.Logf("timing: budget at the limits (%d samples × %d draws, %d days, %d replicates per series) opened and computed in %.0f s; longest main-thread stall %.0f ms; cells with problems: %q",
-		atlimits.Samples, atlimits.Draws, atlimits.Days, atlimits.Replicates, took/1000, gap, bad)
+	t.Logf("timing: budget at the limits (%d samples × %d draws, %d days, %d replicates per series) opened and computed in %.0f s; longest main-thread stall %.0f ms (longest engine slice without a yield: %s); cells with problems: %q",
+		atlimits.Samples, atlimits.Draws, atlimits.Days, atlimits.Replicates, took/1000, gap, slice, bad)
 }
