@@ -116,10 +116,12 @@ func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
 		if i > 0 {
 			b.WriteByte(sep)
 		}
-		// Quoted: a cell holding a quote or a line break, and one holding
-		// any delimiter the readers detect (not only sep), so that the text
-		// reads back with the same delimiter and the same cells.
-		if strings.ContainsAny(c, "\t;,\"\r\n") {
+		// Quoted: a cell holding a quote or a line break, one holding any
+		// delimiter the readers detect (not only sep), so that the text
+		// reads back with the same delimiter and the same cells, and one
+		// holding a byte-order mark, which a reader drops at the start of a
+		// file.
+		if strings.ContainsAny(c, "\t;,\"\r\n\ufeff") {
 			b.WriteByte('"')
 			b.WriteString(strings.ReplaceAll(c, `"`, `""`))
 			b.WriteByte('"')
