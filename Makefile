@@ -53,7 +53,7 @@ chromium:
 browser: chromium build
 	$(GO) vet -tags browser ./web/browsertest/
 	GOOS=js GOARCH=wasm $(GO) vet ./web/... ./wasm/...
-	$(GO) test -count=1 -tags browser -timeout 20m ./web/browsertest/
+	$(GO) test -count=1 -tags browser -timeout 60m ./web/browsertest/
 
 # browser-timing: first render of the demo, edit-to-repaint times and the time to
 # compute the costliest budget the limits allow, printed (no assertion).
