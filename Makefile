@@ -32,13 +32,16 @@ deps-check:
 	@bad=$$($(GO) list -deps ./engine/... | grep -E '^(syscall/js|github.com/vugu/|lixiv/web|lixiv/wasm)' || true); \
 	if [ -n "$$bad" ]; then echo "engine/ must stay pure Go, but imports: $$bad"; exit 1; fi; echo "deps-check: engine is pure Go"
 
+# The -timeout of unit, wasmtest and browser is a hang guard only, far above
+# their usual minutes, so that a machine busy with other work never ends a
+# run that would pass.
 unit:
-	$(GO) test -count=1 ./...
+	$(GO) test -count=1 -timeout 60m ./...
 
 # wasmtest: the engine tests again (and the page's DOM-free tests), compiled to
 # WebAssembly and run in Node.
 wasmtest:
-	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec="$(WASMEXEC)" $(ENGINE_PKGS) ./web ./web/plot
+	GOOS=js GOARCH=wasm $(GO) test -count=1 -timeout 60m -exec="$(WASMEXEC)" $(ENGINE_PKGS) ./web ./web/plot
 
 # fuzz: random exploration of every fuzz target, FUZZ_TOTAL (default 10m)
 # shared among them; new failing inputs land in testdata/fuzz/ and are
