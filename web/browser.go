@@ -61,8 +61,12 @@ func await(p js.Value) (js.Value, error) {
 	return r.v, r.err
 }
 
-// storageKey is where the page autosaves the open budget.
-const storageKey = "lixiv.budget"
+// storageKey is where the page autosaves the open budget, and originKey
+// where it came from (Origin, as JSON).
+const (
+	storageKey = "lixiv.budget"
+	originKey  = "lixiv.budget.origin"
+)
 
 // storageGet returns the value stored under key, or "" and false.
 func storageGet(key string) (string, bool) {

@@ -238,7 +238,9 @@ func (c *CellCard) OnPaste(e vugu.DOMEvent) {
 		return
 	}
 	e.PreventDefault()
-	c.R.S.Paste(c.V.ID, text)
+	if _, err := c.R.S.Paste(c.V.ID, text); err == nil {
+		c.R.Banner = &Banner{Cell: c.V.ID, Verb: "pasted"}
+	}
 }
 
 // OnPasteBox adds rows typed into the paste box when the button is pressed.
@@ -251,6 +253,7 @@ func (c *CellCard) OnPasteBox(e vugu.DOMEvent) {
 	text := box.Get("value").String()
 	if _, err := c.R.S.Paste(c.V.ID, text); err == nil {
 		box.Set("value", "")
+		c.R.Banner = &Banner{Cell: c.V.ID, Verb: "pasted"}
 	}
 }
 
@@ -481,7 +484,7 @@ func (c *CellCard) CellClass(row, col int) string {
 	return ""
 }
 
-// HeadClass marks a column whose header or unit a problem names.
+// HeadClass marks a column whose header (or unit) a problem names.
 func (c *CellCard) HeadClass(col int) string {
 	if c.V.bad[[2]int{-1, col}] {
 		return "colname bad"
@@ -495,4 +498,113 @@ func (c *CellCard) OutputsClass() string {
 		return "outputs old"
 	}
 	return "outputs"
+}
+
+// Expanded is the fold button's aria-expanded value.
+func (c *CellCard) Expanded() string {
+	if c.V.Collapsed {
+		return "false"
+	}
+	return "true"
+}
+
+// NeedHref links what the cell waits for: the field to fill, the paste
+// box of a table, or the cell that lacks it.
+func (c *CellCard) NeedHref(n NeedView) string {
+	switch {
+	case n.Field != "":
+		return "#" + n.Field
+	case n.Cell == c.V.ID:
+		return "#paste-" + n.Cell
+	}
+	return "#cell-" + n.Cell
+}
+
+// NeedLink is the text of that link.
+func (c *CellCard) NeedLink(n NeedView) string {
+	switch {
+	case n.Cell == c.V.ID && n.Field != "":
+		return "(the field below)"
+	case n.Cell == c.V.ID:
+		return "(the paste box below)"
+	}
+	return "in the " + n.CellTitle + " cell"
+}
+
+// FieldClass marks a setting whose value is still the demo's.
+func (c *CellCard) FieldClass(p ParamView) string {
+	if p.FromDemo {
+		return "from-demo"
+	}
+	return ""
+}
+
+// ChartName names a chart in its buttons' accessible names: its title, in
+// quotes, numbered when another chart of the cell has the same title.
+func (c *CellCard) ChartName(ch ChartView) string {
+	n, at := 0, 0
+	for _, o := range c.V.Charts {
+		if o.Title == ch.Title {
+			n++
+			if o.ID == ch.ID {
+				at = n
+			}
+		}
+	}
+	if n > 1 {
+		return fmt.Sprintf("“%s” (%d of %d)", ch.Title, at, n)
+	}
+	return "“" + ch.Title + "”"
+}
+
+// ResultName names output table ti in its buttons' accessible names.
+func (c *CellCard) ResultName(ti int) string {
+	t := c.V.Results[ti]
+	if t.Title != "" {
+		return t.Title
+	}
+	return t.Name
+}
+
+// NeedsOwnTable reports a cell that waits for its own table: the line
+// saying so stands in for the empty table's hint.
+func (c *CellCard) NeedsOwnTable() bool {
+	for _, n := range c.V.Needs {
+		if n.Cell == c.V.ID && n.Field == "" {
+			return true
+		}
+	}
+	return false
+}
+
+// ShowProblem brings the field a table problem names into view, with the
+// focus (the column's name for a problem of a whole column): its rows are
+// shown first when they are folded away.
+func (c *CellCard) ShowProblem(e vugu.DOMEvent, p TableProblem) {
+	e.PreventDefault()
+	if p.Row >= c.R.shown(c.V.ID) {
+		c.R.rows[c.V.ID] = p.Row + 1
+	}
+	edit, col := "value", max(p.Col, 0)
+	if p.Row < 0 {
+		edit = "column"
+	}
+	c.R.focusAfter = fmt.Sprintf(`#table-%s input[data-edit="%s"][data-row="%d"][data-col="%d"]`, c.V.ID, edit, max(p.Row, -1), col)
+}
+
+// HasMarked reports a table with problems marked in its fields.
+func (c *CellCard) HasMarked() bool { return len(c.V.bad) > 0 }
+
+// DemoValues reports a cell that still holds values of the demo (settings
+// or its table) in a budget grown from it.
+func (c *CellCard) DemoValues() bool {
+	if c.V.TableOrigin == "the demo" {
+		return true
+	}
+	for _, p := range c.V.Params {
+		if p.FromDemo {
+			return true
+		}
+	}
+	return false
 }

@@ -19,6 +19,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 	var vgn *vugu.VGNode
 	vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "section", Attr: []vugu.VGAttribute(nil)}
 	vgout.Out = append(vgout.Out, vgn) // root for output
+	vgn.AddAttrInterface("aria-labelledby", "head-"+c.V.ID)
 	vgn.AddAttrInterface("class", "cell kind-"+c.V.Kind+" state-"+c.V.State)
 	vgn.AddAttrInterface("id", "cell-"+c.V.ID)
 	{
@@ -35,6 +36,8 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgparent.AppendChild(vgn)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fold"}}}
 			vgparent.AppendChild(vgn)
+			vgn.AddAttrInterface("aria-expanded", c.Expanded())
+			vgn.AddAttrInterface("aria-label", c.FoldTitle())
 			vgn.AddAttrInterface("title", c.FoldTitle())
 			vgn.SetInnerHTML(c.FoldMark())
 			vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
@@ -46,11 +49,14 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgparent.AppendChild(vgn)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "kind"}}}
 			vgparent.AppendChild(vgn)
+			vgn.AddAttrInterface("id", "head-"+c.V.ID)
 			vgn.SetInnerHTML(c.V.KindLabel)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 			vgparent.AppendChild(vgn)
-			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "cell-title"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Cell title"}}}
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "cell-title"}}}
 			vgparent.AppendChild(vgn)
+			vgn.AddAttrInterface("aria-label", "Title of the "+c.V.KindLabel+" cell")
+			vgn.AddAttrInterface("data-committed", c.V.Title)
 			{
 				b, err := vjson.Marshal(c.V.Title)
 				if err != nil {
@@ -70,9 +76,22 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgn.SetInnerHTML(c.V.StateText)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 			vgparent.AppendChild(vgn)
+			if c.DemoValues() {
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "origin demo-tag"}}}
+				vgparent.AppendChild(vgn)
+				{
+					vgparent := vgn
+					_ = vgparent
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "holds values of the demo"}
+					vgparent.AppendChild(vgn)
+				}
+			}
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+			vgparent.AppendChild(vgn)
 			if c.V.State == "running" {
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "progress", Attr: []vugu.VGAttribute{{Namespace: "", Key: "max", Val: "1"}}}
 				vgparent.AppendChild(vgn)
+				vgn.AddAttrInterface("aria-label", "Progress of the "+c.V.Title+" cell")
 				{
 					b, err := vjson.Marshal(c.V.Progress)
 					if err != nil {
@@ -92,6 +111,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 				vgparent.AppendChild(vgn)
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "title", Val: "Move up"}}}
 				vgparent.AppendChild(vgn)
+				vgn.AddAttrInterface("aria-label", "Move the "+c.V.Title+" cell up")
 				vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 					EventType: "click",
 					Func:      func(event vugu.DOMEvent) { c.R.S.Move(c.V.ID, -1) },
@@ -107,6 +127,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 				vgparent.AppendChild(vgn)
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "title", Val: "Move down"}}}
 				vgparent.AppendChild(vgn)
+				vgn.AddAttrInterface("aria-label", "Move the "+c.V.Title+" cell down")
 				vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 					EventType: "click",
 					Func:      func(event vugu.DOMEvent) { c.R.S.Move(c.V.ID, 1) },
@@ -122,6 +143,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 				vgparent.AppendChild(vgn)
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "title", Val: "Remove this cell (undo brings it back)"}}}
 				vgparent.AppendChild(vgn)
+				vgn.AddAttrInterface("aria-label", "Remove the "+c.V.Title+" cell (undo brings it back)")
 				vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 					EventType: "click",
 					Func:      func(event vugu.DOMEvent) { c.R.S.Remove(c.V.ID) },
@@ -141,10 +163,63 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 		}
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
+		if len(c.V.Needs) > 0 {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "needs"}}}
+			vgparent.AppendChild(vgn)
+			{
+				vgparent := vgn
+				_ = vgparent
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "needs-title"}}}
+				vgparent.AppendChild(vgn)
+				vgn.SetInnerHTML(vugu.HTML("Waiting for"))
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute(nil)}
+				vgparent.AppendChild(vgn)
+				{
+					vgparent := vgn
+					_ = vgparent
+					for vgiterkeyt, n := range c.V.Needs {
+						var vgiterkey interface{} = vgiterkeyt
+						_ = vgiterkey
+						n := n
+						_ = n
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
+						vgparent.AppendChild(vgn)
+						{
+							vgparent := vgn
+							_ = vgparent
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.SetInnerHTML(n.What)
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+							vgparent.AppendChild(vgn)
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("href", c.NeedHref(n))
+							vgn.SetInnerHTML(c.NeedLink(n))
+						}
+					}
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+				vgparent.AppendChild(vgn)
+			}
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
 		if c.V.Problem != "" {
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "problem"}}}
 			vgparent.AppendChild(vgn)
 			vgn.SetInnerHTML(c.V.Problem)
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
+		if c.V.Doubtful != "" {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "doubtful-why"}}}
+			vgparent.AppendChild(vgn)
+			vgn.SetInnerHTML(c.V.Doubtful)
 		}
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
@@ -235,7 +310,23 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
-									vgn.SetInnerHTML(p.Label)
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+										vgparent.AppendChild(vgn)
+										vgn.SetInnerHTML(p.Label)
+										if p.FromDemo {
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "origin"}}}
+											vgparent.AppendChild(vgn)
+											{
+												vgparent := vgn
+												_ = vgparent
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " · from the demo"}
+												vgparent.AppendChild(vgn)
+											}
+										}
+									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
 									if len(p.Options) > 0 {
@@ -273,7 +364,10 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									if len(p.Options) == 0 && p.Type != "yes/no" {
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "type", Val: "text"}}}
 										vgparent.AppendChild(vgn)
+										vgn.AddAttrInterface("class", c.FieldClass(p))
+										vgn.AddAttrInterface("data-committed", p.Value)
 										vgn.AddAttrInterface("id", "p-"+c.V.ID+"-"+p.Key)
+										vgn.AddAttrInterface("placeholder", p.Blank)
 										{
 											b, err := vjson.Marshal(p.Value)
 											if err != nil {
@@ -307,11 +401,12 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							vgparent.AppendChild(vgn)
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
 							vgparent.AppendChild(vgn)
-							vgn.SetInnerHTML(vugu.HTML("Text"))
+							vgn.SetInnerHTML(vugu.HTML("Text of the note"))
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "textarea", Attr: []vugu.VGAttribute{{Namespace: "", Key: "rows", Val: "2"}}}
 							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("data-committed", c.V.NoteText)
 							vgn.AddAttrInterface("id", "note-"+c.V.ID)
 							{
 								b, err := vjson.Marshal(c.V.NoteText)
@@ -358,23 +453,34 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								vgn.SetInnerHTML(c.TableLine())
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 								vgparent.AppendChild(vgn)
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-								vgparent.AppendChild(vgn)
-								vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-									EventType: "click",
-									Func:      func(event vugu.DOMEvent) { c.R.S.AddRow(c.V.ID) },
-									// TODO: implement capture, etc. mostly need to decide syntax
-								})
-								{
-									vgparent := vgn
-									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add row"}
+								if c.V.TableOrigin != "" {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "origin"}}}
 									vgparent.AppendChild(vgn)
+									vgn.SetInnerHTML("values from " + c.V.TableOrigin)
+								}
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+								vgparent.AppendChild(vgn)
+								if len(c.V.Table.Columns) > 0 {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Add a row to the "+c.V.Title+" table")
+									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+										EventType: "click",
+										Func:      func(event vugu.DOMEvent) { c.R.S.AddRow(c.V.ID) },
+										// TODO: implement capture, etc. mostly need to decide syntax
+									})
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add row"}
+										vgparent.AppendChild(vgn)
+									}
 								}
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 								vgparent.AppendChild(vgn)
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 								vgparent.AppendChild(vgn)
+								vgn.AddAttrInterface("aria-label", "Export the "+c.V.Title+" input table as CSV")
 								vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 									EventType: "click",
 									Func:      func(event vugu.DOMEvent) { c.ExportInput() },
@@ -391,6 +497,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								if c.IsSources() {
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "title", Val: "Replace the table with the chosen preset's end-members"}}}
 									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Fill the "+c.V.Title+" table from the chosen preset")
 									vgn.AddAttrInterface("id", "preset-"+c.V.ID)
 									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 										EventType: "click",
@@ -409,7 +516,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							}
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							if len(c.V.Table.Columns) == 0 {
+							if len(c.V.Table.Columns) == 0 && !c.NeedsOwnTable() {
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
 								vgparent.AppendChild(vgn)
 								vgn.SetInnerHTML(c.EmptyTableHint())
@@ -423,59 +530,10 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 							}
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 							vgparent.AppendChild(vgn)
-							if c.MoreRows() > 0 {
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-								vgparent.AppendChild(vgn)
-								vgn.SetInnerHTML(c.MoreLine())
-								vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-									EventType: "click",
-									Func:      func(event vugu.DOMEvent) { c.ShowMore() },
-									// TODO: implement capture, etc. mostly need to decide syntax
-								})
-							}
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-							vgparent.AppendChild(vgn)
-							if c.CanPaste() {
-								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "paste"}}}
-								vgparent.AppendChild(vgn)
-								{
-									vgparent := vgn
-									_ = vgparent
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "textarea", Attr: []vugu.VGAttribute{{Namespace: "", Key: "rows", Val: "2"}, vugu.VGAttribute{Namespace: "", Key: "placeholder", Val: "Paste rows copied from a spreadsheet here (tab-separated; a header row is matched by column name)"}}}
-									vgparent.AppendChild(vgn)
-									vgn.AddAttrInterface("id", "paste-"+c.V.ID)
-									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-										EventType: "paste",
-										Func:      func(event vugu.DOMEvent) { c.OnPaste(event) },
-										// TODO: implement capture, etc. mostly need to decide syntax
-									})
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
-									vgparent.AppendChild(vgn)
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
-									vgparent.AppendChild(vgn)
-									vgn.AddAttrInterface("id", "paste-add-"+c.V.ID)
-									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
-										EventType: "click",
-										Func:      func(event vugu.DOMEvent) { c.OnPasteBox(event) },
-										// TODO: implement capture, etc. mostly need to decide syntax
-									})
-									{
-										vgparent := vgn
-										_ = vgparent
-										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add rows"}
-										vgparent.AppendChild(vgn)
-									}
-									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-									vgparent.AppendChild(vgn)
-								}
-							}
-							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
-							vgparent.AppendChild(vgn)
 							if len(c.V.TableProblems) > 0 {
 								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "table-problems"}}}
 								vgparent.AppendChild(vgn)
+								vgn.AddAttrInterface("id", "problems-"+c.V.ID)
 								{
 									vgparent := vgn
 									_ = vgparent
@@ -484,6 +542,18 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "b", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
 									vgn.SetInnerHTML(vugu.HTML("How this table was read"))
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+									vgparent.AppendChild(vgn)
+									if c.HasMarked() {
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint"}}}
+										vgparent.AppendChild(vgn)
+										{
+											vgparent := vgn
+											_ = vgparent
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "(problems are marked in the table)"}
+											vgparent.AppendChild(vgn)
+										}
+									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute(nil)}
@@ -507,11 +577,78 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 												vgn.SetInnerHTML(p.Class())
 												vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
 												vgparent.AppendChild(vgn)
-												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
-												vgparent.AppendChild(vgn)
-												vgn.SetInnerHTML(p.Text)
+												if p.Placed() {
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "linklike"}}}
+													vgparent.AppendChild(vgn)
+													vgn.AddAttrInterface("aria-label", "Show in the table: "+p.Text)
+													vgn.AddAttrInterface("href", "#table-"+c.V.ID)
+													vgn.SetInnerHTML(p.Text)
+													vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+														EventType: "click",
+														Func:      func(event vugu.DOMEvent) { c.ShowProblem(event, p) },
+														// TODO: implement capture, etc. mostly need to decide syntax
+													})
+												}
+												if !p.Placed() {
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+													vgparent.AppendChild(vgn)
+													vgn.SetInnerHTML(p.Text)
+												}
 											}
 										}
+									}
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+									vgparent.AppendChild(vgn)
+								}
+							}
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+							vgparent.AppendChild(vgn)
+							if c.MoreRows() > 0 {
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
+								vgparent.AppendChild(vgn)
+								vgn.AddAttrInterface("aria-label", c.MoreLine()+" of the "+c.V.Title+" table")
+								vgn.SetInnerHTML(c.MoreLine())
+								vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+									EventType: "click",
+									Func:      func(event vugu.DOMEvent) { c.ShowMore() },
+									// TODO: implement capture, etc. mostly need to decide syntax
+								})
+							}
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
+							vgparent.AppendChild(vgn)
+							if c.CanPaste() {
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "paste"}}}
+								vgparent.AppendChild(vgn)
+								{
+									vgparent := vgn
+									_ = vgparent
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+									vgparent.AppendChild(vgn)
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "textarea", Attr: []vugu.VGAttribute{{Namespace: "", Key: "rows", Val: "2"}, vugu.VGAttribute{Namespace: "", Key: "placeholder", Val: "Paste rows copied from a spreadsheet here (tab-separated; a header row is matched by column name)"}}}
+									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Rows to add to the "+c.V.Title+" table")
+									vgn.AddAttrInterface("id", "paste-"+c.V.ID)
+									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+										EventType: "paste",
+										Func:      func(event vugu.DOMEvent) { c.OnPaste(event) },
+										// TODO: implement capture, etc. mostly need to decide syntax
+									})
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+									vgparent.AppendChild(vgn)
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Add the rows in the box to the "+c.V.Title+" table")
+									vgn.AddAttrInterface("id", "paste-add-"+c.V.ID)
+									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+										EventType: "click",
+										Func:      func(event vugu.DOMEvent) { c.OnPasteBox(event) },
+										// TODO: implement capture, etc. mostly need to decide syntax
+									})
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Add rows"}
+										vgparent.AppendChild(vgn)
 									}
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 									vgparent.AppendChild(vgn)
@@ -588,6 +725,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 						if len(c.V.Warnings) > 0 {
 							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "warnings"}}}
 							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("id", "warnings-"+c.V.ID)
 							{
 								vgparent := vgn
 								_ = vgparent
@@ -648,6 +786,13 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}}}
 										vgparent.AppendChild(vgn)
 										vgn.SetInnerHTML(f.Interval)
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+										vgparent.AppendChild(vgn)
+										if f.Note != "" {
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-note"}}}
+											vgparent.AppendChild(vgn)
+											vgn.SetInnerHTML(f.Note)
+										}
 										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n        "}
 										vgparent.AppendChild(vgn)
 									}
@@ -694,6 +839,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											vgparent.AppendChild(vgn)
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
+											vgn.AddAttrInterface("aria-label", "Export the chart "+c.ChartName(ch)+" as SVG")
 											vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 												EventType: "click",
 												Func:      func(event vugu.DOMEvent) { c.ExportSVG(ch) },
@@ -709,6 +855,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 											vgparent.AppendChild(vgn)
 											vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 											vgparent.AppendChild(vgn)
+											vgn.AddAttrInterface("aria-label", "Export the chart "+c.ChartName(ch)+" as PNG")
 											vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 												EventType: "click",
 												Func:      func(event vugu.DOMEvent) { c.ExportPNG(ch) },
@@ -729,6 +876,18 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 													vgparent := vgn
 													_ = vgparent
 													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Scroll the chart sideways for every sample →"}
+													vgparent.AppendChild(vgn)
+												}
+											}
+											vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n          "}
+											vgparent.AppendChild(vgn)
+											if !ch.Wide {
+												vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "hint narrow-hint"}}}
+												vgparent.AppendChild(vgn)
+												{
+													vgparent := vgn
+													_ = vgparent
+													vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "On a narrow screen, scroll the chart sideways →"}
 													vgparent.AppendChild(vgn)
 												}
 											}
@@ -771,6 +930,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 									vgparent.AppendChild(vgn)
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", "Export the "+c.ResultName(ti)+" table of the "+c.V.Title+" cell as CSV")
 									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 										EventType: "click",
 										Func:      func(event vugu.DOMEvent) { c.ExportResult(ti) },
@@ -795,6 +955,7 @@ func (c *CellCard) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 								if c.ResultHidden(ti) || c.ResultExpanded(ti) {
 									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute(nil)}
 									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("aria-label", c.ResultToggleLine(ti)+": "+c.ResultName(ti)+", "+c.V.Title)
 									vgn.SetInnerHTML(c.ResultToggleLine(ti))
 									vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 										EventType: "click",

@@ -93,24 +93,6 @@ func TestAppendRows(t *testing.T) {
 	}
 }
 
-func TestTableKind(t *testing.T) {
-	tests := []struct {
-		cols []string
-		want notebook.Kind
-	}{
-		{[]string{"date", "Q (m3/s)"}, notebook.KindDischarge},
-		{[]string{"Date", "discharge_m3s"}, notebook.KindDischarge},
-		{[]string{"sample", "date", "Na (mg/L)", "Ca"}, notebook.KindSamples},
-		{[]string{"date", "Q", "Ca"}, notebook.KindSamples},
-		{[]string{"x", "y"}, notebook.KindSamples},
-	}
-	for _, tt := range tests {
-		if got := TableKind(&notebook.Table{Columns: tt.cols}); got != tt.want {
-			t.Errorf("TableKind(%q): got %s, want %s", tt.cols, got, tt.want)
-		}
-	}
-}
-
 // The project's messy lab file opened on the page gives the samples
 // engine/sample reads from the file itself (its golden test).
 func TestParseDelimitedMessyFile(t *testing.T) {
@@ -120,8 +102,8 @@ func TestParseDelimitedMessyFile(t *testing.T) {
 	}
 	want, _ := sample.Read(bytes.NewReader(b), "samples-messy.csv", sample.Options{})
 	tab := ParseDelimited(string(b), true)
-	if TableKind(tab) != notebook.KindSamples {
-		t.Fatalf("read as a %s table", TableKind(tab))
+	if notebook.TableKind(tab) != notebook.KindSamples {
+		t.Fatalf("read as a %s table", notebook.TableKind(tab))
 	}
 	d := notebook.New("messy")
 	c := notebook.NewCell(notebook.KindSamples, "samples", "")

@@ -87,22 +87,36 @@ func withWidth(class string, width []string, j int) string {
 	return class + " " + width[j]
 }
 
-// Labels names each field for screen readers, in the order of Fields:
-// "Column name", "Unit", then "row 3, Na".
+// Labels names each field for screen readers, in the order of Fields, so
+// that no two fields of a table share a name: "Name of column 3", "Unit
+// of column Na", then "Row 3, Na". A column without a name of its own
+// (empty, or the name of another) is called by its number.
 func (t DataTable) Labels() []string {
+	cols := make([]string, t.Columns)
+	seen := map[string]int{}
+	for j := range cols {
+		seen[strings.TrimSpace(t.Fields[j].Value)]++
+	}
+	for j := range cols {
+		name := strings.TrimSpace(t.Fields[j].Value)
+		cols[j] = name
+		if name == "" || seen[name] > 1 {
+			cols[j] = "column " + strconv.Itoa(j+1)
+		}
+	}
 	labels := make([]string, 0, len(t.Fields))
 	for j := 0; j < t.Columns; j++ {
-		labels = append(labels, "Column name")
+		labels = append(labels, "Name of column "+strconv.Itoa(j+1))
 	}
 	for j := 0; j < t.Columns; j++ {
-		labels = append(labels, "Unit")
+		labels = append(labels, "Unit of "+cols[j])
 	}
 	for i, w := range t.Widths {
-		row := "row " + strconv.Itoa(i+1) + ", "
+		row := "Row " + strconv.Itoa(i+1) + ", "
 		for j := 0; j < w; j++ {
-			name := ""
+			name := "column " + strconv.Itoa(j+1)
 			if j < t.Columns {
-				name = t.Fields[j].Value
+				name = cols[j]
 			}
 			labels = append(labels, row+name)
 		}
@@ -141,7 +155,12 @@ func (t DataTable) HTML() string {
 	labels := t.Labels()
 	k := 0
 	field := func(f Field, edit string, row, col int) {
-		b.WriteString(`<input class="`)
+		b.WriteString(`<input tabindex="`)
+		if k == 0 { // one tab stop for the table: arrow keys move inside it
+			b.WriteString(`0" class="`)
+		} else {
+			b.WriteString(`-1" class="`)
+		}
 		b.WriteString(esc(f.Class))
 		b.WriteString(`" aria-label="`)
 		b.WriteString(esc(labels[k]))
@@ -178,7 +197,8 @@ func (t DataTable) HTML() string {
 			b.WriteString("</td>")
 			k++
 		}
-		b.WriteString(`<td><button class="row-remove" title="Remove row" data-edit="remove" data-row="` + strconv.Itoa(i) + `">×</button></td></tr>`)
+		b.WriteString(`<td><button class="row-remove" tabindex="-1" title="Remove row" aria-label="Remove row ` + strconv.Itoa(i+1) +
+			`" data-edit="remove" data-row="` + strconv.Itoa(i) + `">×</button></td></tr>`)
 	}
 	b.WriteString("</tbody></table>")
 	return b.String()
@@ -224,6 +244,9 @@ func updateFields(table js.Value, t DataTable) bool {
 	labels := t.Labels()
 	for i, f := range t.Fields {
 		in := inputs.Index(i)
+		if in.Get("defaultValue").String() != f.Value { // the applied value: undo in a field returns to it
+			in.Set("defaultValue", f.Value)
+		}
 		if in.Get("value").String() != f.Value {
 			in.Set("value", f.Value)
 		}
@@ -261,14 +284,98 @@ func listenTable(el js.Value, root *Root) {
 	if el.Get("__lixivListener").Truthy() {
 		return
 	}
-	el.Call("addEventListener", "change", tableListener.fn.Value)
-	el.Call("addEventListener", "click", tableListener.fn.Value)
+	for _, ev := range []string{"change", "click", "keydown", "focusin"} {
+		el.Call("addEventListener", ev, tableListener.fn.Value)
+	}
 	el.Set("__lixivListener", true)
+}
+
+// The fields of an input table are one tab stop: the field last in focus
+// (at first the first column's name) takes the Tab key, and the arrow keys
+// move between fields (left and right once the caret is at the end of the
+// text), so that Tab leaves a long table at once.
+
+// onTableKey moves the focus by an arrow key.
+func onTableKey(ev js.Value) {
+	key := ev.Get("key").String()
+	if ev.Get("ctrlKey").Bool() || ev.Get("altKey").Bool() || ev.Get("metaKey").Bool() || ev.Get("shiftKey").Bool() {
+		return
+	}
+	target := ev.Get("target")
+	td := target.Call("closest", "td, th")
+	if !td.Truthy() {
+		return
+	}
+	tr := td.Get("parentElement")
+	col, row := td.Get("cellIndex").Int(), tr.Get("rowIndex").Int()
+	isInput := strings.EqualFold(target.Get("tagName").String(), "input")
+	var next js.Value
+	switch key {
+	case "ArrowUp", "ArrowDown":
+		step := 1
+		if key == "ArrowUp" {
+			step = -1
+		}
+		rows := target.Call("closest", "table").Get("rows")
+		for r := row + step; r >= 0 && r < rows.Length() && !next.Truthy(); r += step {
+			if cells := rows.Index(r).Get("cells"); col < cells.Length() {
+				next = focusable(cells.Index(col))
+			}
+		}
+	case "ArrowLeft", "ArrowRight":
+		if isInput {
+			at, end, n := target.Get("selectionStart").Int(), target.Get("selectionEnd").Int(), len([]rune(target.Get("value").String()))
+			if at != end || key == "ArrowLeft" && at > 0 || key == "ArrowRight" && end < n {
+				return // the caret moves within the text
+			}
+		}
+		step := 1
+		if key == "ArrowLeft" {
+			step = -1
+		}
+		cells := tr.Get("cells")
+		for c := col + step; c >= 0 && c < cells.Length() && !next.Truthy(); c += step {
+			next = focusable(cells.Index(c))
+		}
+	default:
+		return
+	}
+	if next.Truthy() {
+		ev.Call("preventDefault")
+		next.Call("focus")
+	}
+}
+
+// focusable returns the field or button of a table cell, or a falsy value.
+func focusable(td js.Value) js.Value {
+	return td.Call("querySelector", "input, button")
+}
+
+// onTableFocus makes the field in focus the table's one tab stop.
+func onTableFocus(ev js.Value) {
+	target := ev.Get("target")
+	table := target.Call("closest", "table.data")
+	if !table.Truthy() {
+		return
+	}
+	old := table.Call("querySelectorAll", `[tabindex="0"]`)
+	for i := 0; i < old.Length(); i++ {
+		old.Index(i).Call("setAttribute", "tabindex", "-1")
+	}
+	target.Call("setAttribute", "tabindex", "0")
 }
 
 // onTableEvent applies a change of a field, or a click on a row's remove
 // button, of a mounted input table.
 func onTableEvent(root *Root, ev js.Value) {
+	switch ev.Get("type").String() {
+	case "keydown":
+		onTableKey(ev)
+		return
+	case "focusin":
+		onTableFocus(ev)
+		return
+	}
 	target := ev.Get("target")
 	ds := target.Get("dataset")
 	if !ds.Truthy() || ds.Get("edit").Type() != js.TypeString {

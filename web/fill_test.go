@@ -2,6 +2,7 @@ package web
 
 import (
 	"math"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -113,7 +114,8 @@ func TestHTMLKey(t *testing.T) {
 
 // TestDataTableHTML checks the HTML of an input table: the id and classes
 // the page's style and tests rely on, one field per column name, unit and
-// value, each saying what it edits, and every text escaped.
+// value, each saying what it edits under a name of its own, one tab stop,
+// and every text escaped.
 func TestDataTableHTML(t *testing.T) {
 	tab := DataTable{Cell: "samples", Columns: 2, Widths: []int{2, 3}, Fields: []Field{
 		{"sample", "colname"}, {"Na", "colname bad"},
@@ -123,14 +125,14 @@ func TestDataTableHTML(t *testing.T) {
 	}}
 	got := tab.HTML()
 	tests := []struct{ name, want string }{
-		{"table", `<table class="data" id="table-samples"><thead><tr><th class="rownum">row</th><th><input class="colname"`},
-		{"column name", `<input class="colname bad" aria-label="Column name" value="Na" data-edit="column" data-row="-1" data-col="1">`},
-		{"units row", `<tr class="units"><th class="rownum">unit</th><th><input class="unit" aria-label="Unit" value="" data-edit="unit" data-row="-1" data-col="0">`},
+		{"table", `<table class="data" id="table-samples"><thead><tr><th class="rownum">row</th><th><input tabindex="0" class="colname"`},
+		{"column name", `<input tabindex="-1" class="colname bad" aria-label="Name of column 2" value="Na" data-edit="column" data-row="-1" data-col="1">`},
+		{"units row", `<tr class="units"><th class="rownum">unit</th><th><input tabindex="-1" class="unit" aria-label="Unit of sample" value="" data-edit="unit" data-row="-1" data-col="0">`},
 		{"markup as text", `value="&lt;b&gt;CV-1&lt;/b&gt;" data-edit="value" data-row="0" data-col="0">`},
-		{"bad value", `<input class="bad" aria-label="row 1, Na" value="210" data-edit="value" data-row="0" data-col="1">`},
+		{"bad value", `<input tabindex="-1" class="bad" aria-label="Row 1, Na" value="210" data-edit="value" data-row="0" data-col="1">`},
 		{"row number", `<tr><td class="rownum">2</td>`},
-		{"extra value kept", `<input class="" aria-label="row 2, " value="extra" data-edit="value" data-row="1" data-col="2">`},
-		{"remove button", `<td><button class="row-remove" title="Remove row" data-edit="remove" data-row="1">×</button></td></tr></tbody></table>`},
+		{"extra value kept", `<input tabindex="-1" class="" aria-label="Row 2, column 3" value="extra" data-edit="value" data-row="1" data-col="2">`},
+		{"remove button", `<td><button class="row-remove" tabindex="-1" title="Remove row" aria-label="Remove row 2" data-edit="remove" data-row="1">×</button></td></tr></tbody></table>`},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -177,5 +179,17 @@ func TestDataTableKeys(t *testing.T) {
 				t.Errorf("same key: got %v, want %v", got, tt.sameKey)
 			}
 		})
+	}
+}
+
+// TestDataTableLabels checks that no two fields of a table share a name,
+// with columns that have no name or the same name.
+func TestDataTableLabels(t *testing.T) {
+	tab := DataTable{Cell: "t", Columns: 3, Widths: []int{3}, Fields: []Field{
+		{"Na", ""}, {"Na", ""}, {"", ""}, {"", ""}, {"", ""}, {"", ""}, {"1", ""}, {"2", ""}, {"3", ""}}}
+	want := []string{"Name of column 1", "Name of column 2", "Name of column 3",
+		"Unit of column 1", "Unit of column 2", "Unit of column 3", "Row 1, column 1", "Row 1, column 2", "Row 1, column 3"}
+	if got := tab.Labels(); !reflect.DeepEqual(got, want) {
+		t.Errorf("labels:\n got %q\nwant %q", got, want)
 	}
 }

@@ -7,11 +7,12 @@ import (
 	"lixiv/engine/notebook"
 )
 
-// The page labels what the engine names: output columns ("Na_atm_share"),
-// settings ("d34s_river_permil") and chart references
-// ("co2.per-litre.silicate"). The labels live here, keyed by the engine's
-// name; a name without a label is shown as it is. Files written by the
-// page (CSV, SVG) keep the engine's names.
+// The page labels what the engine names: output columns ("Na_atm_share")
+// and chart references ("co2.per-litre.silicate"). The labels live here,
+// keyed by the engine's name; a name without a label is shown as it is.
+// Settings are labelled by the engine (notebook.SettingLabel), which names
+// them so in its messages too. Files written by the page (CSV, SVG) keep
+// the engine's names.
 
 // columnLabels labels output columns, by "table.column" first, then by
 // the column name alone.
@@ -80,38 +81,6 @@ func ColumnLabel(table string, col *notebook.Column) string {
 		l += " (" + col.Unit + ")"
 	}
 	return l
-}
-
-// paramLabels labels settings whose key does not read well by the rules
-// of ParamLabel.
-var paramLabels = map[string]string{
-	"d34s_river_permil":             "δ34S river (‰)",
-	"d34s_evaporite_permil":         "δ34S evaporite (‰)",
-	"d34s_sulfide_permil":           "δ34S sulfide (‰)",
-	"et_factor_uncertainty_percent": "ET factor uncertainty (%)",
-	"gap_fill_days":                 "fill gaps up to (days)",
-	"water_year_start_month":        "water year starts (month)",
-	"below_detection":               "below detection limit",
-	"use_columns":                   "columns to use",
-	"ratio_source":                  "source of the ratios",
-	"long_term_convention":          "long-term convention",
-	"log_x":                         "log x axis",
-	"log_y":                         "log y axis",
-	"x":                             "x axis",
-	"y":                             "y axis",
-	"sulfate":                       "sulfate source",
-	"negative_residuals":            "negative residuals",
-	"bootstrap":                     "bootstrap replicates",
-	"series_bootstrap":              "series bootstrap replicates",
-	"draws":                         "Monte Carlo draws",
-}
-
-// SettingLabel labels a setting: from the table above, else by ParamLabel.
-func SettingLabel(key string) string {
-	if l, ok := paramLabels[key]; ok {
-		return l
-	}
-	return ParamLabel(key)
 }
 
 // idle reports a setting that does nothing in the cell's current mode:

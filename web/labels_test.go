@@ -17,8 +17,6 @@ func TestLabels(t *testing.T) {
 		{"per km² bound", ColumnName("other", "per_km2_low"), "per km², 2.5 %"},
 		{"unknown column kept", ColumnName("t", "odd_name"), "odd_name"},
 		{"column with unit", ColumnLabel("rain", &notebook.Column{Name: "Cl_atm", Unit: "µmol/L"}), "atmospheric Cl (µmol/L)"},
-		{"setting from the table", SettingLabel("d34s_river_permil"), "δ34S river (‰)"},
-		{"setting by rule", SettingLabel("area_km2"), "area (km²)"},
 		{"water year", WaterYear("2021", 10), "2021 (water year Oct 2020–Sep 2021)"},
 		{"calendar year", WaterYear("2021", 1), "2021"},
 		{"not a year", WaterYear("mean", 10), "mean"},
@@ -50,16 +48,6 @@ func TestIdleSettings(t *testing.T) {
 	for _, tt := range tests {
 		if got := idle(tt.kind, tt.key, params(tt.sulfate)); got != tt.want {
 			t.Errorf("idle(%s, %s, sulfate %s): got %v, want %v", tt.kind, tt.key, tt.sulfate, got, tt.want)
-		}
-	}
-}
-
-// TestMessagesNameSettingsAsThePage checks that the engine's messages name
-// each setting by the label the page shows beside it.
-func TestMessagesNameSettingsAsThePage(t *testing.T) {
-	for _, k := range notebook.MessageLabels() {
-		if got, want := SettingLabel(k), notebook.SettingLabel(k); got != want {
-			t.Errorf("setting %s: the page shows %q, messages say %q", k, got, want)
 		}
 	}
 }

@@ -22,6 +22,10 @@ type TableProblem struct {
 // "note").
 func (p TableProblem) Class() string { return p.Severity.String() }
 
+// Placed reports a problem the page can show in the table: one of a data
+// row, or of a column.
+func (p TableProblem) Placed() bool { return p.Row >= 0 || p.Col >= 0 }
+
 // TableProblems splits a cell's messages into those about its own table
 // (named by the file the table was read from, or by the cell's id), placed
 // at rows and columns of the table the user sees ("row 2 (line 5)" for a

@@ -2,8 +2,8 @@ package web
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
-	"path"
 	"strings"
 	"time"
 
@@ -11,8 +11,6 @@ import (
 	"github.com/vugu/vugu/js"
 
 	"lixiv/engine/notebook"
-	"lixiv/engine/problem"
-	"lixiv/engine/sample"
 )
 
 // demoFile is the demo budget the build copies next to the page.
@@ -30,6 +28,10 @@ type Root struct {
 	Loading  string // what the page is loading, "" when idle
 	AddKind  string // kind chosen in the "add a cell" list
 	Dragging bool
+
+	Pending *PendingFile // a table opened over the demo, waiting for the user's choice
+	Banner  *Banner      // the import report of the last open, drop or paste
+	BannerV *BannerView  // what it shows
 
 	SavedText string // the visible saved state
 	SavedOK   bool
@@ -62,6 +64,7 @@ type Root struct {
 	docTitle    string  // the browser tab's title as last set
 	startMsg    string  // a problem met before the budget opened
 	gen         int     // completed recomputes
+	focusAfter  string  // a field to give the focus once the page has rendered
 	ready       bool
 	keys        js.Func
 	rows        map[string]int // rows shown per input table
@@ -75,9 +78,13 @@ func (c *Root) Init(ctx vugu.InitCtx) {
 	if text, ok := storageGet(storageKey); ok && text != "" {
 		doc, err := notebook.Parse([]byte(text), "autosave")
 		if err == nil {
-			c.open(doc, docFileName(doc))
+			o := storedOrigin()
+			c.open(doc, docFileName(doc), o)
 			c.savePending = false // it is what storage holds
 			c.SavedText, c.SavedOK = "Reopened from this browser's storage", true
+			if o.Demo { // for the marks of values that are still the demo's
+				go c.loadDemo(demoReference)
+			}
 			return
 		}
 		// Keep the unreadable text under another key before anything is saved.
@@ -87,31 +94,44 @@ func (c *Root) Init(ctx vugu.InitCtx) {
 		}
 	}
 	c.Loading = "Opening the demo budget…"
-	go c.loadDemo(true)
+	go c.loadDemo(demoFirst)
 }
 
-// loadDemo opens the demo budget. On the first visit (initial) it gives way
-// to a file the user opened while the demo was still loading.
-func (c *Root) loadDemo(initial bool) {
+// How loadDemo is asked for the demo.
+const (
+	demoFirst     = iota // the first visit: open it, unless a file was opened meanwhile
+	demoOpen             // the Demo button: open it
+	demoReference        // a budget grown from the demo reopened: only keep it for reference
+)
+
+// loadDemo fetches the demo budget and, as how says, opens it.
+func (c *Root) loadDemo(how int) {
 	text, err := fetchText(demoFile)
 	c.env.Lock()
 	defer c.env.UnlockRender()
-	c.Loading = ""
-	if initial && c.S != nil {
+	var doc, ref *notebook.Document
+	if err == nil && strings.TrimSpace(text) != "" {
+		if doc, err = notebook.Parse([]byte(text), demoFile); err == nil {
+			ref, _ = notebook.Parse([]byte(text), demoFile)
+		}
+	}
+	if how == demoReference {
+		if c.S != nil {
+			c.S.SetDemo(ref)
+		}
 		return
 	}
-	var doc *notebook.Document
-	if err == nil && strings.TrimSpace(text) != "" {
-		doc, err = notebook.Parse([]byte(text), demoFile)
+	c.Loading = ""
+	if how == demoFirst && c.S != nil {
+		return
 	}
+	origin := Origin{Demo: true}
 	if doc == nil {
-		doc = notebook.New("Untitled budget")
+		doc, origin = notebook.NewBudget("Untitled budget"), Origin{}
 	}
-	if c.S == nil {
-		c.open(doc, docFileName(doc))
-	} else {
-		c.S.Replace(doc, docFileName(doc))
-	}
+	c.Pending, c.Banner = nil, nil
+	c.open(doc, docFileName(doc), origin)
+	c.S.SetDemo(ref)
 	c.Unsaved = false
 	if err != nil {
 		c.S.Message = "The demo budget could not be opened: " + err.Error()
@@ -121,15 +141,15 @@ func (c *Root) loadDemo(initial bool) {
 	}
 }
 
-// open starts a session on doc and computes it.
-func (c *Root) open(doc *notebook.Document, name string) {
-	if c.S == nil {
-		c.S = NewSession(doc, name)
-		c.S.OnChange(c.changed)
-	} else {
-		c.S.Replace(doc, name)
+// open starts a session on doc (or replaces the session's document) and
+// computes it.
+func (c *Root) open(doc *notebook.Document, name string, o Origin) {
+	if c.S != nil {
+		c.S.Replace(doc, name, o)
 		return
 	}
+	c.S = NewSession(doc, name, o)
+	c.S.OnChange(c.changed)
 	c.changed()
 }
 
@@ -141,13 +161,32 @@ func (c *Root) changed() {
 	c.recompute()
 }
 
+// autosave writes the budget, and where it came from, to browser storage.
 func (c *Root) autosave() {
 	c.savePending = false
-	if err := storageSet(storageKey, string(c.S.Current())); err != nil {
+	err := storageSet(storageKey, string(c.S.Current()))
+	if err == nil {
+		o, _ := json.Marshal(c.S.Origin)
+		err = storageSet(originKey, string(o))
+	}
+	if err != nil {
 		c.SavedText, c.SavedOK = "Not saved: "+err.Error(), false
 		return
 	}
 	c.SavedText, c.SavedOK = "Saved in this browser at "+time.Now().Format("15:04:05"), true
+}
+
+// storedOrigin reads where the autosaved budget came from; a budget saved
+// before the page kept it counts as the user's own, its stored results
+// not compared.
+func storedOrigin() Origin {
+	var o Origin
+	if text, ok := storageGet(originKey); ok {
+		if json.Unmarshal([]byte(text), &o) != nil {
+			o = Origin{}
+		}
+	}
+	return o
 }
 
 func docFileName(d *notebook.Document) string {
@@ -175,46 +214,7 @@ func (c *Root) Compute(ctx vugu.ComputeCtx) {
 	c.Cells = c.S.Cells(c.running, c.progress, &c.charts)
 	c.Headline = Headline(c.Cells, 6)
 	c.Verify, c.Seeds = c.footer()
-}
-
-func (c *Root) footer() (verify, seeds string) {
-	d := c.S.Doc
-	var ss []string
-	for _, cell := range d.Cells {
-		for _, p := range notebook.Params(cell.Settings) {
-			if p.Key == "seed" {
-				ss = append(ss, cell.ID+" "+p.Value)
-			}
-		}
-	}
-	seeds = strings.Join(ss, ", ")
-	if seeds == "" {
-		seeds = "none"
-	}
-	switch {
-	case c.busy || len(d.Pending()) > 0:
-		verify = "checking once the rerun is done"
-	case d.Stored == nil:
-		verify = "this budget holds no stored results"
-	case c.verifyGen == c.gen && c.verifyDoc == d:
-		verify = c.verifyText // the checksum covers every output: compute it once per recompute
-	default:
-		v, err := d.Verify()
-		switch {
-		case err != nil:
-			verify = "cannot compare: " + err.Error()
-		case v.Match:
-			verify = "stored results match the rerun"
-		case c.S.Edited():
-			verify = "the budget was edited after its results were stored; downloading it stores the new results"
-		case len(v.Differ) == 0:
-			verify = "stored results DIFFER from the rerun in the tables (the headline figures agree)"
-		default:
-			verify = fmt.Sprintf("stored results DIFFER from the rerun (%d headline figures differ)", len(v.Differ))
-		}
-		c.verifyGen, c.verifyDoc, c.verifyText = c.gen, d, verify
-	}
-	return verify, seeds
+	c.BannerV = c.bannerView()
 }
 
 // EngineVersion is shown in the footer.
@@ -262,6 +262,16 @@ func (c *Root) Rendered() {
 	ds := body.Get("dataset")
 	if c.buildStart > 0 { // for the timing harness: the cost of one full render
 		js.Global().Set("lixivLastRender", nowMillis()-c.buildStart)
+	}
+	if c.focusAfter != "" {
+		if el := js.Global().Get("document").Call("querySelector", c.focusAfter); el.Truthy() {
+			el.Call("focus")
+			opt := js.Global().Get("Object").New()
+			opt.Set("block", "center")
+			opt.Set("inline", "center")
+			el.Call("scrollIntoView", opt)
+		}
+		c.focusAfter = ""
 	}
 	if !c.ready && c.S != nil && c.Loading == "" {
 		c.ready = true
@@ -507,252 +517,15 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 	}
 }
 
-// listenKeys binds Ctrl+Z (undo) and Ctrl+Shift+Z or Ctrl+Y (redo) outside
-// text fields, where the browser's own undo applies.
-func (c *Root) listenKeys() {
-	c.keys = js.FuncOf(func(_ js.Value, args []js.Value) any {
-		e := args[0]
-		if !(e.Get("ctrlKey").Bool() || e.Get("metaKey").Bool()) {
-			return nil
-		}
-		key := strings.ToLower(e.Get("key").String())
-		if key != "z" && key != "y" {
-			return nil
-		}
-		tag := strings.ToLower(e.Get("target").Get("tagName").String())
-		if tag == "input" || tag == "textarea" || tag == "select" {
-			return nil
-		}
-		e.Call("preventDefault")
-		redo := key == "y" || e.Get("shiftKey").Bool()
-		go func() {
-			c.env.Lock()
-			defer c.env.UnlockRender()
-			if redo {
-				c.Redo()
-			} else {
-				c.Undo()
-			}
-		}()
-		return nil
-	})
-	js.Global().Get("document").Call("addEventListener", "keydown", c.keys)
-}
-
-// Undo goes back one edit.
-func (c *Root) Undo() {
-	defer c.guard()
-	if err := c.S.Undo(); err != nil {
-		c.S.Message = err.Error()
-	}
-}
-
-// Redo applies the last undone edit again.
-func (c *Root) Redo() {
-	defer c.guard()
-	if err := c.S.Redo(); err != nil {
-		c.S.Message = err.Error()
-	}
-}
-
-// CanUndo reports whether undo has something to do.
-func (c *Root) CanUndo() bool { return c.S != nil && c.S.CanUndo() }
-
-// CanRedo reports whether redo has something to do.
-func (c *Root) CanRedo() bool { return c.S != nil && c.S.CanRedo() }
-
 // OnBudgetTitle renames the budget.
 func (c *Root) OnBudgetTitle(e vugu.DOMEvent) {
 	c.S.SetBudgetTitle(e.PropString("target", "value"))
 }
 
-// OnOpenFile reads the file chosen in the picker.
-func (c *Root) OnOpenFile(e vugu.DOMEvent) {
-	defer c.guard()
-	files := e.JSEventTarget().Get("files")
-	if files.Length() == 0 {
-		return
-	}
-	f := files.Index(0)
-	e.JSEventTarget().Set("value", "")
-	go c.readAndOpen(f)
-}
-
-// OnDragOver lets a file be dropped anywhere on the page.
-func (c *Root) OnDragOver(e vugu.DOMEvent) {
-	e.PreventDefault()
-	c.Dragging = true
-}
-
-// OnDragLeave clears the drop hint.
-func (c *Root) OnDragLeave(e vugu.DOMEvent) { c.Dragging = false }
-
-// OnDrop opens a file dropped on the page.
-func (c *Root) OnDrop(e vugu.DOMEvent) {
-	defer c.guard()
-	e.PreventDefault()
-	c.Dragging = false
-	files := e.JSEvent().Get("dataTransfer").Get("files")
-	if files.Length() == 0 {
-		return
-	}
-	go c.readAndOpen(files.Index(0))
-}
-
-func (c *Root) readAndOpen(f js.Value) {
-	name := f.Get("name").String()
-	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
-		c.readWorkbook(f, name)
-		return
-	}
-	text, err := readFile(f)
-	c.env.Lock()
-	defer c.env.UnlockRender()
-	defer c.guard()
-	if c.S == nil { // still opening the demo: start from an empty budget
-		c.open(notebook.New("Untitled budget"), "")
-	}
-	if err != nil {
-		c.S.Message = name + ": " + err.Error()
-		return
-	}
-	c.OpenText(name, text)
-}
-
-// readWorkbook reads the first sheet of an .xlsx workbook into the samples
-// or discharge cell, as OpenText does with its cells as tab-separated text.
-func (c *Root) readWorkbook(f js.Value, name string) {
-	b, err := readFileBytes(f)
-	c.env.Lock()
-	defer c.env.UnlockRender()
-	defer c.guard()
-	if c.S == nil { // still opening the demo: start from an empty budget
-		c.open(notebook.New("Untitled budget"), "")
-	}
-	if err != nil {
-		c.S.Message = name + ": " + err.Error()
-		return
-	}
-	c.OpenWorkbook(name, b)
-}
-
-// OpenWorkbook reads the first sheet of an .xlsx workbook into the samples
-// or discharge cell (by its header). Rows the workbook reader cannot read
-// stop the import, so that none is lost silently; a workbook of several
-// sheets is named in the message with the sheet read.
-func (c *Root) OpenWorkbook(name string, b []byte) {
-	defer c.guard()
-	g, err := sample.SheetGrid(b, path.Base(name), "")
-	switch {
-	case err != nil:
-		c.S.Message = err.Error()
-		return
-	case len(g.Problems) > 0:
-		c.S.Message = g.Problems.Error()
-		return
-	}
-	t, err := notebook.TableFromGrid(g)
-	if err != nil {
-		c.S.Message = err.Error()
-		return
-	}
-	c.loadTable(name, t)
-}
-
-// OpenText opens a budget file, or reads a CSV/TSV table into the samples
-// or discharge cell (by its header), adding that cell when there is none.
-func (c *Root) OpenText(name, text string) {
-	defer c.guard()
-	trim := strings.TrimSpace(strings.TrimPrefix(text, "\ufeff"))
-	if strings.HasSuffix(strings.ToLower(name), ".json") || strings.HasPrefix(trim, "{") {
-		doc, err := notebook.Parse([]byte(text), name)
-		if err != nil {
-			c.S.Message = err.Error()
-			return
-		}
-		c.S.Replace(doc, path.Base(name))
-		c.Unsaved = false
-		return
-	}
-	t, err := notebook.ReadTable(path.Base(name), text)
-	if err != nil || len(t.Columns) == 0 {
-		c.S.Message = name + ": no table found (a CSV or TSV file needs a header row)"
-		return
-	}
-	c.loadTable(name, t)
-}
-
-// loadTable puts a table read from the file called name into the samples
-// or discharge cell (by its header), adding that cell when there is none.
-// The table remembers the file, so that messages about it name the file
-// and count lines as the file does.
-func (c *Root) loadTable(name string, t *notebook.Table) {
-	kind := TableKind(t)
-	target := ""
-	for _, cell := range c.S.Doc.Cells {
-		if cell.Kind == kind {
-			target = cell.ID
-			break
-		}
-	}
-	if target == "" {
-		id, err := c.S.Add(kind, "")
-		if err != nil {
-			return
-		}
-		target = id
-	}
-	if err := c.S.LoadTable(target, t, path.Base(name)); err == nil {
-		c.S.Collapsed[target] = false
-		js.Global().Get("location").Set("hash", "#cell-"+target)
-	}
-}
-
-// TableKind guesses whether a table read from a file is a discharge record
-// (a date column and a discharge column, and no major ions) or samples.
-func TableKind(t *notebook.Table) notebook.Kind {
-	hasQ, hasIon := false, false
-	for _, col := range t.Columns {
-		l := strings.ToLower(strings.TrimSpace(col))
-		f := strings.FieldsFunc(l, func(r rune) bool { return r == ' ' || r == '(' || r == '[' || r == '_' })
-		first := ""
-		if len(f) > 0 {
-			first = f[0]
-		}
-		switch first {
-		case "q", "discharge", "flow", "runoff":
-			hasQ = true
-		case "ca", "na", "mg", "k", "cl", "so4", "hco3", "alkalinity", "calcium", "sodium":
-			hasIon = true
-		}
-	}
-	if hasQ && !hasIon {
-		return notebook.KindDischarge
-	}
-	return notebook.KindSamples
-}
-
-// DownloadBudget offers the budget file, with its results snapshot when
-// every cell is computed.
-func (c *Root) DownloadBudget() {
-	defer c.guard()
-	d := c.S.Doc
-	if len(d.Pending()) == 0 && !c.busy {
-		_ = d.Keep()
-		c.verifyDoc = nil
-	}
-	name := c.S.FileName
-	if name == "" || !strings.HasSuffix(name, notebook.Extension) {
-		name = docFileName(d)
-	}
-	download(name, "application/json", d.Marshal())
-	c.Unsaved = false
-}
-
 // OpenDemo reopens the demo budget (the current one stays reachable by undo).
 func (c *Root) OpenDemo() {
 	c.Loading = "Opening the demo budget…"
-	go c.loadDemo(false)
+	go c.loadDemo(demoOpen)
 }
 
 // OnAddKind remembers the kind chosen for a new cell.
@@ -812,43 +585,6 @@ func (c *Root) Message() string {
 	return c.S.Message
 }
 
-// CountsLine counts the samples, flags, warnings and cells in trouble.
-func (c *Root) CountsLine() string {
-	var parts []string
-	for _, v := range c.Cells {
-		for _, f := range v.Figures {
-			switch f.Name {
-			case "samples read":
-				parts = append(parts, f.Value+" samples")
-			case "samples flagged":
-				parts = append(parts, f.Value+" flagged")
-			}
-		}
-	}
-	warn, bad := 0, 0
-	for _, v := range c.Cells {
-		warn += len(v.Warnings)
-		for _, p := range v.TableProblems {
-			if p.Severity != problem.Note {
-				warn++
-			}
-		}
-		if v.State == "problem" || v.State == "waiting" {
-			bad++
-		}
-	}
-	parts = append(parts, fmt.Sprintf("%d warnings", warn), fmt.Sprintf("%d cells with problems", bad))
-	return strings.Join(parts, ", ")
-}
-
-// BusyLine says whether a recompute is running.
-func (c *Root) BusyLine() string {
-	if c.busy {
-		return "recomputing…"
-	}
-	return "all computed"
-}
-
 // Slug turns a figure name into an id fragment.
 func Slug(s string) string {
 	return strings.Map(func(r rune) rune {
@@ -868,12 +604,4 @@ func (c *Root) guard() {
 	if r := recover(); r != nil && c.S != nil {
 		c.S.Message = fmt.Sprintf("internal error: %v (the budget is unchanged; please report this)", r)
 	}
-}
-
-// VerifyClass marks a rerun that does not reproduce the stored results.
-func (c *Root) VerifyClass() string {
-	if strings.Contains(c.Verify, "DIFFER") {
-		return "verify bad"
-	}
-	return "verify"
 }

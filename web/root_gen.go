@@ -40,6 +40,11 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 		_ = vgparent
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "skip"}, vugu.VGAttribute{Namespace: "", Key: "href", Val: "#cells"}}}
+		vgparent.AppendChild(vgn)
+		vgn.SetInnerHTML(vugu.HTML("Skip to the cells"))
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "header", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "top"}}}
 		vgparent.AppendChild(vgn)
 		{
@@ -54,6 +59,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgparent.AppendChild(vgn)
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "budget-title"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "budget-title"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Budget name"}}}
 			vgparent.AppendChild(vgn)
+			vgn.AddAttrInterface("data-committed", c.Title())
 			{
 				b, err := vjson.Marshal(c.Title())
 				if err != nil {
@@ -74,16 +80,26 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 			vgn.SetInnerHTML(c.SavedLine())
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 			vgparent.AppendChild(vgn)
-			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "nav", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "actions"}}}
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "nav", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "actions"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Budget"}}}
 			vgparent.AppendChild(vgn)
 			{
 				vgparent := vgn
 				_ = vgparent
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 				vgparent.AppendChild(vgn)
-				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "label", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "button"}, vugu.VGAttribute{Namespace: "", Key: "for", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Open a budget file, or a CSV/TSV table or .xlsx workbook of samples or discharge"}}}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "new-budget"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Start an empty budget of the usual cells; the open one stays reachable by undo"}}}
 				vgparent.AppendChild(vgn)
-				vgn.SetInnerHTML(vugu.HTML("Open…"))
+				vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+					EventType: "click",
+					Func:      func(event vugu.DOMEvent) { c.NewBudget() },
+					// TODO: implement capture, etc. mostly need to decide syntax
+				})
+				{
+					vgparent := vgn
+					_ = vgparent
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "New budget"}
+					vgparent.AppendChild(vgn)
+				}
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 				vgparent.AppendChild(vgn)
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "input", Attr: []vugu.VGAttribute{{Namespace: "", Key: "type", Val: "file"}, vugu.VGAttribute{Namespace: "", Key: "id", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "hidden-file"}, vugu.VGAttribute{Namespace: "", Key: "accept", Val: ".json,.csv,.tsv,.txt,.xlsx"}}}
@@ -93,6 +109,11 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					Func:      func(event vugu.DOMEvent) { c.OnOpenFile(event) },
 					// TODO: implement capture, etc. mostly need to decide syntax
 				})
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "label", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "button"}, vugu.VGAttribute{Namespace: "", Key: "for", Val: "file-open"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Open a budget file, or a CSV/TSV table or .xlsx workbook of samples or discharge"}}}
+				vgparent.AppendChild(vgn)
+				vgn.SetInnerHTML(vugu.HTML("Open…"))
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 				vgparent.AppendChild(vgn)
 				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "download"}, vugu.VGAttribute{Namespace: "", Key: "title", Val: "Save the budget file, with its results"}}}
@@ -201,6 +222,231 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 		}
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
+		if c.Pending != nil {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "section", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "file-choice"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "choice"}, vugu.VGAttribute{Namespace: "", Key: "role", Val: "dialog"}, vugu.VGAttribute{Namespace: "", Key: "aria-labelledby", Val: "file-choice-title"}}}
+			vgparent.AppendChild(vgn)
+			{
+				vgparent := vgn
+				_ = vgparent
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "h2", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "file-choice-title"}}}
+				vgparent.AppendChild(vgn)
+				vgn.SetInnerHTML(c.Pending.Name + " is a " + c.ChoiceKind() + " table, and the open budget is the demo")
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute(nil)}
+				vgparent.AppendChild(vgn)
+				vgn.SetInnerHTML(vugu.HTML("A new budget starts from your file alone: its other cells wait for your own site, discharge and settings. Put into the demo, your file meets the demo\x26#39;s site, discharge and end-members, and the results mix the two."))
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "choice-buttons"}}}
+				vgparent.AppendChild(vgn)
+				{
+					vgparent := vgn
+					_ = vgparent
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "choice-new"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "primary"}}}
+					vgparent.AppendChild(vgn)
+					vgn.JSPopulateHandler = vugu.JSValueFunc(func(value js.Value) { c.FocusChoice(value) })
+					vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+						EventType: "click",
+						Func:      func(event vugu.DOMEvent) { c.ChooseNew() },
+						// TODO: implement capture, etc. mostly need to decide syntax
+					})
+					{
+						vgparent := vgn
+						_ = vgparent
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Start a new budget from this file"}
+						vgparent.AppendChild(vgn)
+					}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "choice-demo"}}}
+					vgparent.AppendChild(vgn)
+					vgn.SetInnerHTML("Replace the demo's " + c.ChoiceKind() + " table")
+					vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+						EventType: "click",
+						Func:      func(event vugu.DOMEvent) { c.ChooseDemo() },
+						// TODO: implement capture, etc. mostly need to decide syntax
+					})
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "choice-cancel"}}}
+					vgparent.AppendChild(vgn)
+					vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+						EventType: "click",
+						Func:      func(event vugu.DOMEvent) { c.ChooseCancel() },
+						// TODO: implement capture, etc. mostly need to decide syntax
+					})
+					{
+						vgparent := vgn
+						_ = vgparent
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "Cancel"}
+						vgparent.AppendChild(vgn)
+					}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+					vgparent.AppendChild(vgn)
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+				vgparent.AppendChild(vgn)
+			}
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
+		if c.BannerV != nil {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "section", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "import-banner"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "banner"}, vugu.VGAttribute{Namespace: "", Key: "aria-labelledby", Val: "import-banner-title"}}}
+			vgparent.AppendChild(vgn)
+			{
+				vgparent := vgn
+				_ = vgparent
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "div", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "banner-head"}}}
+				vgparent.AppendChild(vgn)
+				{
+					vgparent := vgn
+					_ = vgparent
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "h2", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "import-banner-title"}}}
+					vgparent.AppendChild(vgn)
+					vgn.SetInnerHTML(c.BannerV.Title)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					if c.BannerV.Cell != "" {
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
+						vgparent.AppendChild(vgn)
+						vgn.AddAttrInterface("href", "#cell-"+c.BannerV.Cell)
+						vgn.SetInnerHTML(c.BannerV.Link)
+					}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+					vgparent.AppendChild(vgn)
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "banner-close"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Close the import report"}}}
+					vgparent.AppendChild(vgn)
+					vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
+						EventType: "click",
+						Func:      func(event vugu.DOMEvent) { c.CloseBanner() },
+						// TODO: implement capture, etc. mostly need to decide syntax
+					})
+					{
+						vgparent := vgn
+						_ = vgparent
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "×"}
+						vgparent.AppendChild(vgn)
+					}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+					vgparent.AppendChild(vgn)
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				for vgiterkeyt, l := range c.BannerV.Lines {
+					var vgiterkey interface{} = vgiterkeyt
+					_ = vgiterkey
+					l := l
+					_ = l
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute(nil)}
+					vgparent.AppendChild(vgn)
+					vgn.SetInnerHTML(l)
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				if c.BannerV.Problem != "" {
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "p", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "problem-line"}}}
+					vgparent.AppendChild(vgn)
+					vgn.SetInnerHTML(c.BannerV.Problem)
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				if len(c.BannerV.Columns) > 0 {
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "columns-read"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "How each column was read"}}}
+					vgparent.AppendChild(vgn)
+					{
+						vgparent := vgn
+						_ = vgparent
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+						vgparent.AppendChild(vgn)
+						for vgiterkeyt, col := range c.BannerV.Columns {
+							var vgiterkey interface{} = vgiterkeyt
+							_ = vgiterkey
+							col := col
+							_ = col
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("class", ColumnClass(col))
+							{
+								vgparent := vgn
+								_ = vgparent
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "b", Attr: []vugu.VGAttribute(nil)}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(col.Header)
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+								vgparent.AppendChild(vgn)
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML("→ " + col.As)
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+								vgparent.AppendChild(vgn)
+								if col.Note != "" {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "i", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.SetInnerHTML("(" + col.Note + ")")
+								}
+							}
+						}
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+						vgparent.AppendChild(vgn)
+					}
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				if len(c.BannerV.Notes) > 0 {
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "ul", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "import-notes"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "What the import could not read, substituted, inferred or left out"}}}
+					vgparent.AppendChild(vgn)
+					{
+						vgparent := vgn
+						_ = vgparent
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+						vgparent.AppendChild(vgn)
+						for vgiterkeyt, n := range c.BannerV.Notes {
+							var vgiterkey interface{} = vgiterkeyt
+							_ = vgiterkey
+							n := n
+							_ = n
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("class", n.Class())
+							{
+								vgparent := vgn
+								_ = vgparent
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "sev"}}}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(n.Class())
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: " "}
+								vgparent.AppendChild(vgn)
+								vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+								vgparent.AppendChild(vgn)
+								vgn.SetInnerHTML(n.Text)
+							}
+						}
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+						vgparent.AppendChild(vgn)
+						if c.BannerV.More != "" {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "li", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.SetInnerHTML(c.BannerV.More)
+						}
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+						vgparent.AppendChild(vgn)
+					}
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+				vgparent.AppendChild(vgn)
+			}
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
 		if c.S != nil {
 			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "section", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "summary"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "summary"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Headline figures"}}}
 			vgparent.AppendChild(vgn)
@@ -221,6 +467,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					vgn.AddAttrInterface("class", f.Class())
 					vgn.AddAttrInterface("href", "#cell-"+f.Cell)
 					vgn.AddAttrInterface("id", "fig-"+Slug(f.Name))
+					vgn.AddAttrInterface("title", f.Note)
 					{
 						vgparent := vgn
 						_ = vgparent
@@ -250,6 +497,13 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}}}
 						vgparent.AppendChild(vgn)
 						vgn.SetInnerHTML(f.Interval)
+						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
+						vgparent.AppendChild(vgn)
+						if f.Note != "" {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-note"}}}
+							vgparent.AppendChild(vgn)
+							vgn.SetInnerHTML(f.Note)
+						}
 						vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
 						vgparent.AppendChild(vgn)
 					}
@@ -268,14 +522,66 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					vgn.SetInnerHTML(vugu.HTML("samples and checks"))
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 					vgparent.AppendChild(vgn)
-					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-value"}}}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-value"}, vugu.VGAttribute{Namespace: "", Key: "id", Val: "counts"}}}
 					vgparent.AppendChild(vgn)
-					vgn.SetInnerHTML(c.CountsLine())
+					{
+						vgparent := vgn
+						_ = vgparent
+						for i, n := range c.Counts() {
+							var vgiterkey interface{} = i
+							_ = vgiterkey
+							i := i
+							_ = i
+							n := n
+							_ = n
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							{
+								vgparent := vgn
+								_ = vgparent
+								if i > 0 {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									{
+										vgparent := vgn
+										_ = vgparent
+										vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: ", "}
+										vgparent.AppendChild(vgn)
+									}
+								}
+								if n.Href != "" {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.AddAttrInterface("href", n.Href)
+									vgn.SetInnerHTML(n.Text)
+								}
+								if n.Href == "" {
+									vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+									vgparent.AppendChild(vgn)
+									vgn.SetInnerHTML(n.Text)
+								}
+							}
+						}
+					}
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 					vgparent.AppendChild(vgn)
-					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}}}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "fig-interval"}, vugu.VGAttribute{Namespace: "", Key: "id", Val: "budget-state"}}}
 					vgparent.AppendChild(vgn)
-					vgn.SetInnerHTML(c.BusyLine())
+					{
+						vgparent := vgn
+						_ = vgparent
+						if c.State().Href != "" {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.AddAttrInterface("href", c.State().Href)
+							vgn.SetInnerHTML(c.State().Text)
+						}
+						if c.State().Href == "" {
+							vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute(nil)}
+							vgparent.AppendChild(vgn)
+							vgn.SetInnerHTML(c.State().Text)
+						}
+					}
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 					vgparent.AppendChild(vgn)
 					if c.VerifyClass() == "verify bad" {
@@ -293,7 +599,37 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
 		vgparent.AppendChild(vgn)
 		if c.S != nil {
-			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "main", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "cells"}}}
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "nav", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "jump"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Cells of this budget"}}}
+			vgparent.AppendChild(vgn)
+			{
+				vgparent := vgn
+				_ = vgparent
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "span", Attr: []vugu.VGAttribute{{Namespace: "", Key: "class", Val: "jump-title"}}}
+				vgparent.AppendChild(vgn)
+				vgn.SetInnerHTML(vugu.HTML("Cells:"))
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n    "}
+				vgparent.AppendChild(vgn)
+				for vgiterkeyt, j := range c.Jumps() {
+					var vgiterkey interface{} = vgiterkeyt
+					_ = vgiterkey
+					j := j
+					_ = j
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "a", Attr: []vugu.VGAttribute(nil)}
+					vgparent.AppendChild(vgn)
+					vgn.AddAttrInterface("class", "jump-"+j.State)
+					vgn.AddAttrInterface("href", j.Href)
+					vgn.SetInnerHTML(j.Text)
+				}
+				vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+				vgparent.AppendChild(vgn)
+			}
+		}
+		vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n  "}
+		vgparent.AppendChild(vgn)
+		if c.S != nil {
+			vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "main", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "cells"}, vugu.VGAttribute{Namespace: "", Key: "class", Val: "cells"}, vugu.VGAttribute{Namespace: "", Key: "tabindex", Val: "-1"}}}
 			vgparent.AppendChild(vgn)
 			{
 				vgparent := vgn
@@ -373,7 +709,7 @@ func (c *Root) Build(vgin *vugu.BuildIn) (vgout *vugu.BuildOut) {
 					}
 					vgn = &vugu.VGNode{Type: vugu.VGNodeType(1), Data: "\n      "}
 					vgparent.AppendChild(vgn)
-					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "add-cell"}}}
+					vgn = &vugu.VGNode{Type: vugu.VGNodeType(3), Namespace: "", Data: "button", Attr: []vugu.VGAttribute{{Namespace: "", Key: "id", Val: "add-cell"}, vugu.VGAttribute{Namespace: "", Key: "aria-label", Val: "Add a cell of the chosen kind at the end"}}}
 					vgparent.AppendChild(vgn)
 					vgn.DOMEventHandlerSpecList = append(vgn.DOMEventHandlerSpecList, vugu.DOMEventHandlerSpec{
 						EventType: "click",

@@ -2,6 +2,7 @@ package web
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"strings"
 
@@ -12,15 +13,22 @@ import (
 const maxUndo = 60
 
 // Session is the open budget and what the page knows about it beyond the
-// document: undo history, the last message for each cell, the import notes
-// of tables read from files, and which cells are folded. The document is
-// the single source of truth for every number; the session only routes
-// edits to it.
+// document: undo history, where the budget came from, the last message for
+// each cell, the import notes of tables read from files, and which cells
+// are folded. The document is the single source of truth for every number;
+// the session only routes edits to it.
 type Session struct {
 	Doc      *notebook.Document
 	FileName string // name the budget was opened from or will be saved as
+	Origin   Origin // where the budget came from
 
-	undo, redo [][]byte
+	// Demo is the demo budget as it opened, so that values a budget grown
+	// from it still holds can be marked as the demo's; nil until the demo
+	// has been fetched. Set it with SetDemo.
+	Demo     *notebook.Document
+	demoText []byte // Demo's budget file
+
+	undo, redo []entry
 
 	CellErr   map[string]string   // last rejected edit, per cell id
 	Notes     map[string][]string // what a file import did, per cell id
@@ -33,6 +41,28 @@ type Session struct {
 	changed func() // called after every change of the document
 	current []byte // the budget file of the document as it is, or nil
 	opened  []byte // the budget file as it was opened (without results)
+}
+
+// Origin says where the open budget came from, as far as the page must
+// know. Undo and redo restore it with the budget.
+type Origin struct {
+	// Demo marks the demo budget, or one grown from it by edits: a file
+	// opened over it asks whether to start a budget of one's own.
+	Demo bool `json:"demo,omitempty"`
+	// Checked says the budget's stored results are the user's: it was
+	// opened from a budget file or downloaded with its results. Only then
+	// does the footer compare them with the rerun.
+	Checked bool `json:"checked,omitempty"`
+	// Mixed says the user chose to put a file of their own into the demo,
+	// so the page does not ask again.
+	Mixed bool `json:"mixed,omitempty"`
+}
+
+// entry is one state of the undo history.
+type entry struct {
+	doc    []byte
+	origin Origin
+	name   string
 }
 
 // Edited reports whether the document differs from the file as it was
@@ -48,15 +78,15 @@ func (s *Session) Current() []byte {
 	return s.current
 }
 
-// NewSession opens doc.
-func NewSession(doc *notebook.Document, fileName string) *Session {
+// NewSession opens doc, which came from o.
+func NewSession(doc *notebook.Document, fileName string, o Origin) *Session {
 	s := &Session{}
-	s.reset(doc, fileName)
+	s.reset(doc, fileName, o)
 	return s
 }
 
-func (s *Session) reset(doc *notebook.Document, fileName string) {
-	s.Doc, s.FileName = doc, fileName
+func (s *Session) reset(doc *notebook.Document, fileName string, o Origin) {
+	s.Doc, s.FileName, s.Origin = doc, fileName, o
 	s.opened = doc.Marshal()
 	s.CellErr = map[string]string{}
 	s.Notes = map[string][]string{}
@@ -75,12 +105,12 @@ func (s *Session) OnChange(f func()) { s.changed = f }
 // the redo stack is cleared and the change is announced; on failure the
 // document is unchanged and the message is kept for the cell.
 func (s *Session) Do(cell string, edit func(d *notebook.Document) error) error {
-	before := s.Current()
+	before := s.state()
 	if err := edit(s.Doc); err != nil {
 		if cell != "" {
-			s.CellErr[cell] = err.Error()
+			s.CellErr[cell] = userText(err)
 		} else {
-			s.Message = err.Error()
+			s.Message = userText(err)
 		}
 		return err
 	}
@@ -93,7 +123,20 @@ func (s *Session) Do(cell string, edit func(d *notebook.Document) error) error {
 	return nil
 }
 
-func (s *Session) push(stack *[][]byte, b []byte) {
+// userText is the message of a refused edit as the page shows it beside
+// the cell: a setting named by its label, without the cell's id.
+func userText(err error) string {
+	var se *notebook.SettingError
+	if errors.As(err, &se) {
+		return se.Error()
+	}
+	return err.Error()
+}
+
+// state is the session's present state for the undo history.
+func (s *Session) state() entry { return entry{doc: s.Current(), origin: s.Origin, name: s.FileName} }
+
+func (s *Session) push(stack *[]entry, b entry) {
 	*stack = append(*stack, b)
 	if len(*stack) > maxUndo {
 		*stack = (*stack)[len(*stack)-maxUndo:]
@@ -118,35 +161,57 @@ func (s *Session) Undo() error { return s.step(&s.undo, &s.redo) }
 // Redo applies the last undone edit again.
 func (s *Session) Redo() error { return s.step(&s.redo, &s.undo) }
 
-func (s *Session) step(from, to *[][]byte) error {
+func (s *Session) step(from, to *[]entry) error {
 	if len(*from) == 0 {
 		return nil
 	}
-	b := (*from)[len(*from)-1]
-	doc, err := notebook.Parse(b, s.FileName)
+	e := (*from)[len(*from)-1]
+	doc, err := notebook.Parse(e.doc, e.name)
 	if err != nil {
 		return fmt.Errorf("undo: %w", err)
 	}
 	*from = (*from)[:len(*from)-1]
-	s.push(to, s.Current())
-	s.Doc, s.current = doc, b
+	s.push(to, s.state())
+	s.Doc, s.current, s.Origin, s.FileName = doc, e.doc, e.origin, e.name
 	s.CellErr = map[string]string{}
 	s.announce()
 	return nil
 }
 
-// Replace opens another document (a file the user opened); the current one
-// stays reachable by undo.
-func (s *Session) Replace(doc *notebook.Document, fileName string) {
-	s.push(&s.undo, s.Current())
+// Replace opens another document (a file the user opened, a new budget,
+// the demo), which came from o; the current one stays reachable by undo.
+func (s *Session) Replace(doc *notebook.Document, fileName string, o Origin) {
+	s.push(&s.undo, s.state())
 	s.redo = nil
-	s.reset(doc, fileName)
+	s.reset(doc, fileName, o)
 	s.current = nil
 	s.announce()
 }
 
-// SetParam sets one setting of a cell from text.
+// SetDemo keeps the demo budget as it opened, for the marks of values a
+// budget grown from it still holds.
+func (s *Session) SetDemo(d *notebook.Document) { s.Demo, s.demoText = d, nil }
+
+// Saved records that the budget was just written with its results: from
+// now on they are the user's, and the file as saved is the one edits are
+// told against.
+func (s *Session) Saved() {
+	s.Origin.Checked = true
+	s.current = nil
+	s.opened = s.Current()
+}
+
+// SetParam sets one setting of a cell from text. Text that is the
+// setting's value already changes nothing.
 func (s *Session) SetParam(cell, key, text string) error {
+	if c := s.Doc.Cell(cell); c != nil && c.Settings != nil && !c.Broken() {
+		for _, p := range notebook.Params(c.Settings) {
+			if p.Key == key && p.Value == strings.TrimSpace(text) {
+				delete(s.CellErr, cell)
+				return nil
+			}
+		}
+	}
 	return s.Do(cell, func(d *notebook.Document) error { return d.SetParam(cell, key, text) })
 }
 
@@ -163,8 +228,12 @@ func (s *Session) SetBudgetTitle(title string) error {
 	})
 }
 
-// SetValue changes one cell of a cell's data table.
+// SetValue changes one cell of a cell's data table. Text that is there
+// already changes nothing.
 func (s *Session) SetValue(cell string, row, col int, text string) error {
+	if c := s.Doc.Cell(cell); c != nil && c.Table != nil && row < len(c.Table.Rows) && col < len(c.Table.Columns) && c.Table.Cell(row, col) == text {
+		return nil
+	}
 	return s.Do(cell, func(d *notebook.Document) error { return d.SetValue(cell, row, col, text) })
 }
 
@@ -236,9 +305,14 @@ func (s *Session) AddRow(cell string) error {
 func (s *Session) LoadTable(cell string, t *notebook.Table, fileName string) error {
 	err := s.Do(cell, func(d *notebook.Document) error { return d.SetTable(cell, t) })
 	if err == nil {
-		s.Notes[cell] = []string{fmt.Sprintf("Read %d rows of %d columns from %s.", len(t.Rows), len(t.Columns), fileName)}
+		s.Notes[cell] = []string{readNote(t, fileName)}
 	}
 	return err
+}
+
+// readNote says what was read into a table from a file.
+func readNote(t *notebook.Table, fileName string) string {
+	return fmt.Sprintf("Read %d rows of %d columns from %s.", len(t.Rows), len(t.Columns), fileName)
 }
 
 func (s *Session) editTable(cell string, f func(t *notebook.Table) error) error {

@@ -1,10 +1,13 @@
 package web
 
 import (
+	"context"
+	"reflect"
 	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/examples/synth"
 )
 
 func newTestSession(t *testing.T) *Session {
@@ -16,7 +19,7 @@ func newTestSession(t *testing.T) *Session {
 	if _, err := d.Add(notebook.KindNote, -1); err != nil {
 		t.Fatal(err)
 	}
-	s := NewSession(d, "test.lixiv.json")
+	s := NewSession(d, "test.lixiv.json", Origin{})
 	return s
 }
 
@@ -45,8 +48,8 @@ func TestUndoRedo(t *testing.T) {
 	}{
 		{"after edits", func() error { return nil }, "14"},
 		{"undo", s.Undo, "12.5"},
-		{"undo again", s.Undo, "0"},
-		{"undo with nothing left", s.Undo, "0"},
+		{"undo again", s.Undo, ""},
+		{"undo with nothing left", s.Undo, ""},
 		{"redo", s.Redo, "12.5"},
 		{"redo again", s.Redo, "14"},
 	}
@@ -124,29 +127,12 @@ func TestMoveAndRemove(t *testing.T) {
 	}
 }
 
-func TestParamLabel(t *testing.T) {
-	tests := []struct{ key, want string }{
-		{"area_km2", "area (km²)"},
-		{"na_per_cl", "Na/Cl (mol/mol)"},
-		{"so4_per_cl", "SO4/Cl (mol/mol)"},
-		{"discharge_uncertainty_percent", "discharge uncertainty (%)"},
-		{"critical_chloride_umol", "critical chloride (µmol/L)"},
-		{"draws", "draws"},
-		{"nicb_flag_percent", "NICB flag (%)"},
-	}
-	for _, tt := range tests {
-		if got := ParamLabel(tt.key); got != tt.want {
-			t.Errorf("ParamLabel(%q): got %q, want %q", tt.key, got, tt.want)
-		}
-	}
-}
-
 func TestHeadlineOrder(t *testing.T) {
-	cells := []CellView{{Figures: []FigureView{{Name: "runoff", Unit: "mm/yr"}, {Name: "runoff", Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
+	cells := []CellView{{Figures: []FigureView{{Name: notebook.RecordRunoffFigure, Unit: "mm/yr"}, {Name: notebook.RunoffFigure, Unit: "mm/yr", Interval: "95 %: 1 to 2"}, {Name: "samples read"},
 		{Name: "median silicate CO2 consumption per litre", Unit: "µmol/L"},
 		{Name: "carbonate CO2 consumption per km²", Unit: "mol/km²/yr"}, {Name: "silicate CO2 consumption per km²", Unit: "mol/km²/yr"}}}}
 	got := Headline(cells, 4)
-	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", "runoff", "median silicate CO2 consumption per litre"}
+	want := []string{"silicate CO2 consumption per km²", "carbonate CO2 consumption per km²", notebook.RunoffFigure, "median silicate CO2 consumption per litre"}
 	for i := range want {
 		if i >= len(got) || got[i].Name != want[i] {
 			t.Fatalf("headline: got %v, want %v", got, want)
@@ -202,8 +188,92 @@ func TestEdited(t *testing.T) {
 	if err := s.Redo(); err != nil {
 		t.Fatal(err)
 	}
-	s.Replace(notebook.New("Another"), "another.lixiv.json")
+	s.Replace(notebook.New("Another"), "another.lixiv.json", Origin{Checked: true})
 	if s.Edited() {
 		t.Fatal("a file opened after an edit counts as edited")
+	}
+}
+
+// TestDoubtfulCellView: a doubtful cell shows its state, its reasons under
+// its head, its figures marked (in the summary strip too) and each
+// figure's note (synth.DoubtfulDemo).
+func TestDoubtfulCellView(t *testing.T) {
+	d, err := synth.DoubtfulDemo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	s := NewSession(d, "corrie.lixiv.json", Origin{})
+	cells := s.Cells("", 0, &ChartCache{})
+	found := false
+	for _, c := range cells {
+		if c.ID != "fluxes" {
+			continue
+		}
+		found = true
+		if c.State != "doubtful" || c.StateText != "doubtful" || !strings.Contains(c.Doubtful, "of the flow passed before the first or after the last apportioned sample (above 1 %)") || c.Problem != "" {
+			t.Errorf("fluxes view: state %q %q, doubtful %q, problem %q", c.State, c.StateText, c.Doubtful, c.Problem)
+		}
+		for _, fv := range c.Figures {
+			if fv.Name == "silicate cations flux" && (!fv.Doubtful || fv.Note == "" || !strings.Contains(fv.Class(), "doubtful")) {
+				t.Errorf("silicate cations flux: %+v, class %q", fv, fv.Class())
+			}
+		}
+	}
+	if !found {
+		t.Fatal("no fluxes cell")
+	}
+	for _, h := range Headline(cells, 6) {
+		if h.Cell == "co2" && !h.Doubtful {
+			t.Errorf("summary strip: %q from the doubtful CO2 cell is not marked", h.Name)
+		}
+	}
+}
+
+// TestDemoMarks follows the marks of values that are still the demo's: none
+// on the demo itself; once the budget grows from it, the settings and
+// tables it still shares with the demo, and not the ones the user changed.
+func TestDemoMarks(t *testing.T) {
+	demo := func() *notebook.Document {
+		d := notebook.NewBudget("demo")
+		d.Cell("site").Settings.(*notebook.SiteSettings).AreaKm2 = 12.1
+		d.Cell("site").Settings.(*notebook.SiteSettings).Precipitation = 1850
+		d.Cell("discharge").Table = &notebook.Table{Columns: []string{"date", "Q"}, Rows: [][]string{{"2021-01-01", "1.2"}}}
+		return d
+	}
+	s := NewSession(demo(), "demo.lixiv.json", Origin{Demo: true})
+	s.SetDemo(demo())
+	marks := func() (params []string, tables []string) {
+		var cc ChartCache
+		for _, v := range s.Cells("", 0, &cc) {
+			for _, p := range v.Params {
+				if p.FromDemo {
+					params = append(params, v.ID+"."+p.Key)
+				}
+			}
+			if v.TableOrigin != "" {
+				tables = append(tables, v.ID+": "+v.TableOrigin)
+			}
+		}
+		return params, tables
+	}
+	if p, tabs := marks(); len(p) != 0 || !reflect.DeepEqual(tabs, []string{"sources: the global preset"}) {
+		t.Errorf("the demo itself: got marks %v and %v, want only the preset named", p, tabs)
+	}
+	if err := s.SetParam("site", "precipitation_mm", "900"); err != nil {
+		t.Fatal(err)
+	}
+	p, tabs := marks()
+	if !reflect.DeepEqual(p, []string{"site.area_km2"}) {
+		t.Errorf("settings marked after an edit: got %v, want the area alone", p)
+	}
+	if !reflect.DeepEqual(tabs, []string{"discharge: the demo", "sources: the global preset"}) {
+		t.Errorf("tables marked after an edit: got %v", tabs)
+	}
+	s.Replace(notebook.NewBudget("mine"), "", Origin{})
+	if p, _ := marks(); len(p) != 0 {
+		t.Errorf("a new budget: got %v marked as the demo's", p)
 	}
 }

@@ -1,6 +1,8 @@
 package web
 
 import (
+	"bytes"
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -14,10 +16,13 @@ import (
 // CellView is what the page shows of one cell, gathered from the document.
 type CellView struct {
 	ID, Kind, KindLabel, Title string
-	State                      string // css class: ok, stale, running, waiting, problem
+	State                      string // css class: ok, stale, running, waiting, problem, doubtful
 	StateText                  string
-	Problem                    string // why the cell waits or failed
-	EditErr                    string // last rejected edit
+	Problem                    string     // why the cell waits or failed
+	Doubtful                   string     // why its results are doubtful ("" when they are not)
+	Needs                      []NeedView // what the cell waits for, when it lacks inputs
+	TableOrigin                string     // where the input table's values come from when not the user ("the demo", "the global preset")
+	EditErr                    string     // last rejected edit
 	Collapsed                  bool
 	Params                     []ParamView
 	Roles                      []RoleView
@@ -41,6 +46,14 @@ type ParamView struct {
 	Key, Label, Value, Type string
 	Options                 []string // choices, for a select
 	OptionLabels            []string // what the select shows of each choice, when not the choice itself
+	Blank                   string   // what an empty field means ("unknown"); "" when it may not be empty
+	FromDemo                bool     // the value is still the demo's
+}
+
+// NeedView is one thing a cell waits for (notebook.Need), with the cell
+// that lacks it and the field to fill when it is a setting.
+type NeedView struct {
+	Cell, CellTitle, What, Field string
 }
 
 // RoleView is one input of a cell and the cells that can fill it.
@@ -52,15 +65,22 @@ type RoleView struct {
 // FigureView is a headline figure formatted for the page.
 type FigureView struct {
 	Cell, Name, Value, Interval, Unit string
-	Old                               bool // from before the last change
+	Note                              string // how the figure was formed, shown beside it
+	Old                               bool   // from before the last change
+	Doubtful                          bool   // from a cell whose results are doubtful
 }
 
-// Class is the figure's css class: dimmed when it is from before the last change.
+// Class is the figure's css class: dimmed when it is from before the last
+// change, marked when its cell is doubtful.
 func (f FigureView) Class() string {
+	c := "figure"
 	if f.Old {
-		return "figure old"
+		c += " old"
 	}
-	return "figure"
+	if f.Doubtful {
+		c += " doubtful"
+	}
+	return c
 }
 
 // ChartView is a drawn chart: its id on the page, title and SVG text, and
@@ -87,53 +107,24 @@ func KindLabel(k notebook.Kind) string {
 
 // choices lists the accepted values of settings that take one of a few words.
 var choices = map[string][]string{
-	"below_detection":      {"half-limit", "zero", "limit", "leave-out"},
-	"date_order":           {"auto", "day-first", "month-first"},
-	"unit":                 {"m3/s", "L/s", "m3/day", "mm/day"},
-	"method":               {"sea-salt", "rain"},
-	"excess_chloride":      {"halite", "human"},
-	"preset":               {"global", "granite", "basalt", "custom"},
-	"model":                {"inverse", "forward"},
-	"sulfate":              {"gypsum", "sulfide", "isotope"},
-	"negative_residuals":   {"zero-and-flag", "keep"},
-	"estimator":            {"rating-curve", "discharge-weighted", "interpolation", "beale"},
-	"bias_correction":      {"smearing", "ferguson", "none"},
-	"time_scale":           {"short", "long"},
-	"sulfur_split":         {"proportional", "carbonate"},
-	"long_term_convention": {"conventional", "alkalinity"},
-	"chart-style":          {"points", "line"},
-}
-
-// unitSuffixes turn a setting key's unit ending into a readable unit.
-var unitSuffixes = []struct{ suffix, unit string }{
-	{"_km2", "km²"}, {"_percent", "%"}, {"_umol", "µmol/L"}, {"_mm", "mm/yr"},
-	{"_degrees", "°"}, {"_month", "month"},
-}
-
-// ParamLabel turns a setting key such as "area_km2" into "area (km²)".
-func ParamLabel(key string) string {
-	unit := ""
-	for _, s := range unitSuffixes {
-		if strings.HasSuffix(key, s.suffix) {
-			key, unit = strings.TrimSuffix(key, s.suffix), s.unit
-			break
-		}
-	}
-	l := strings.ReplaceAll(key, "_", " ")
-	l = strings.ReplaceAll(l, " per ", "/")
-	for _, a := range []string{"nicb", "co2", "so4"} {
-		if strings.HasPrefix(l, a+" ") || l == a {
-			l = strings.ToUpper(a) + l[len(a):]
-		}
-	}
-	if strings.HasSuffix(l, "/cl") {
-		l = strings.ToUpper(l[:1]) + l[1:len(l)-3] + "/Cl (mol/mol)"
-		l = strings.Replace(l, "So4", "SO4", 1)
-	}
-	if unit != "" {
-		l += " (" + unit + ")"
-	}
-	return l
+	"below_detection":       {"half-limit", "zero", "limit", "leave-out"},
+	"date_order":            {"auto", "day-first", "month-first"},
+	"unit":                  {"m3/s", "L/s", "m3/day", "mm/day"},
+	"method":                {"sea-salt", "rain"},
+	"excess_chloride":       {"halite", "human"},
+	"preset":                {"global", "granite", "basalt", "custom"},
+	"model":                 {"inverse", "forward"},
+	"sulfate":               {"gypsum", "sulfide", "isotope"},
+	"negative_residuals":    {"zero-and-flag", "keep"},
+	"estimator":             {"rating-curve", "discharge-weighted", "interpolation", "beale"},
+	"bias_correction":       {"smearing", "ferguson", "none"},
+	"time_scale":            {"short", "long"},
+	"sulfur_split":          {"proportional", "carbonate"},
+	"long_term_convention":  {"conventional", "alkalinity"},
+	"chart-style":           {"points", "line"},
+	"unapportioned_samples": {"leave-out", "fill-shares"},
+	// Calendar years first, then the water years that start in another month.
+	"water_year_start_month": {"1", "2", "3", "4", "5", "6", "7", "8", "9", "10", "11", "12"},
 }
 
 // FormatFigure formats a figure's median and its 95 % interval, the three
@@ -167,19 +158,32 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			v.State, v.StateText = "refining", "point values; intervals to follow"
 		case st == notebook.UpToDate:
 			v.State, v.StateText = "ok", "up to date"
+		case st == notebook.Doubtful:
+			v.State, v.StateText = "doubtful", "doubtful"
 		case st == notebook.Stale:
 			v.State, v.StateText = "stale", "waiting to recompute"
 		case st == notebook.Waiting:
 			v.State, v.StateText = "waiting", "waiting for inputs"
-		default:
-			v.State, v.StateText = "problem", "problem"
+		default: // a problem, or a state the engine has added: shown by its name
+			v.State, v.StateText = strings.ReplaceAll(st.String(), " ", "-"), st.String()
 		}
-		if err != nil {
-			v.Problem = err.Error()
+		var de *notebook.DoubtfulError
+		switch {
+		case errors.As(err, &de):
+			v.Doubtful = "Doubtful: " + strings.Join(de.Reasons, "; ") + "."
+		case err != nil:
+			v.Problem = userText(err)
 		}
 		if c.Broken() {
 			v.Problem = c.Problem
 		}
+		if st == notebook.Waiting || st == notebook.Stale {
+			v.Needs = s.needs(c.ID)
+			if len(v.Needs) > 0 {
+				v.Problem = ""
+			}
+		}
+		demo := s.demoCell(c)
 		if c.Settings != nil && !c.Broken() {
 			params := notebook.Params(c.Settings)
 			for _, p := range params {
@@ -190,7 +194,11 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				if idle(c.Kind, p.Key, params) {
 					continue
 				}
-				pv := ParamView{Key: p.Key, Label: SettingLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key]}
+				pv := ParamView{Key: p.Key, Label: notebook.SettingLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key],
+					Blank: p.Blank, FromDemo: demo != nil && fromDemo(demo, c, p)}
+				if p.Key == "water_year_start_month" {
+					pv.OptionLabels = monthLabels()
+				}
 				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
 					pv.Options = columnRefs(d, c.ID, p.Value)
 					pv.OptionLabels = make([]string, len(pv.Options))
@@ -214,6 +222,12 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		if c.Table != nil {
 			v.HasTable, v.Table = true, c.Table
+			switch {
+			case c.Kind == notebook.KindSources && notebook.PresetOf(c.Table) != "":
+				v.TableOrigin = "the " + notebook.PresetOf(c.Table) + " preset"
+			case demo != nil && demo.Table != nil && len(c.Table.Rows) > 0 && demo.Table.CSV() == c.Table.CSV():
+				v.TableOrigin = "the demo"
+			}
 		}
 		o := d.Output(c.ID)
 		if o != nil {
@@ -244,7 +258,8 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				case o.Rough && s.hadInterval[key]: // the quick pass: the interval follows
 					iv = "95 %: computing…"
 				}
-				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Old: v.OldOutputs})
+				v.Figures = append(v.Figures, FigureView{Cell: c.ID, Name: f.Name, Value: val, Interval: iv, Unit: f.Unit, Note: f.Note,
+					Old: v.OldOutputs, Doubtful: st == notebook.Doubtful})
 			}
 			v.Results = o.Tables
 			v.YearStart = waterYearStart(d, c.ID)
@@ -254,6 +269,76 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 	}
 	return out
 }
+
+// needs gathers what cell id waits for, with the titles of the cells that
+// lack it.
+func (s *Session) needs(id string) []NeedView {
+	var out []NeedView
+	for _, n := range s.Doc.Needs(id) {
+		nv := NeedView{Cell: n.Cell, What: n.What, CellTitle: n.Cell}
+		if c := s.Doc.Cell(n.Cell); c != nil {
+			nv.CellTitle = c.Title
+			if nv.CellTitle == "" {
+				nv.CellTitle = KindLabel(c.Kind)
+			}
+		}
+		if n.Key != "" {
+			nv.Field = "p-" + n.Cell + "-" + n.Key
+		}
+		out = append(out, nv)
+	}
+	return out
+}
+
+// demoCell returns the demo's cell of c's id and kind while the budget
+// grew from the demo (the demo itself needs no marks), else nil.
+func (s *Session) demoCell(c *notebook.Cell) *notebook.Cell {
+	if !s.Origin.Demo || s.Demo == nil {
+		return nil
+	}
+	if s.demoText == nil {
+		s.demoText = s.Demo.Marshal()
+	}
+	if bytes.Equal(s.Current(), s.demoText) {
+		return nil
+	}
+	if d := s.Demo.Cell(c.ID); d != nil && d.Kind == c.Kind && d.Settings != nil {
+		return d
+	}
+	return nil
+}
+
+// fromDemo reports a setting of c that still holds the demo's value, where
+// that value is the demo's own choice (not the kind's default).
+func fromDemo(demo, c *notebook.Cell, p notebook.Param) bool {
+	var dv, def string
+	for _, q := range notebook.Params(demo.Settings) {
+		if q.Key == p.Key {
+			dv = q.Value
+		}
+	}
+	for _, q := range notebook.Params(notebook.DefaultSettings(c.Kind)) {
+		if q.Key == p.Key {
+			def = q.Value
+		}
+	}
+	return p.Value == dv && dv != def
+}
+
+// monthLabels names the choices of the first month of the reporting year:
+// "January to December (calendar year)", then "February to January (water
+// year)" and so on.
+func monthLabels() []string {
+	out := []string{"January to December (calendar year)"}
+	for m := 2; m <= 12; m++ {
+		out = append(out, monthNames[m-1]+" to "+monthNames[m-2]+" (water year)")
+	}
+	return out
+}
+
+// monthNames are the months' names, January first.
+var monthNames = [...]string{"January", "February", "March", "April", "May", "June", "July", "August",
+	"September", "October", "November", "December"}
 
 // Headline picks the budget's headline figures for the summary strip: CO2
 // consumption, weathering rates and runoff first, then any others, at most max.
@@ -273,7 +358,7 @@ func Headline(cells []CellView, max int) []FigureView {
 			return 1
 		case strings.Contains(n, "silicate") && strings.Contains(n, "weathering rate"):
 			return 2
-		case n == "runoff":
+		case strings.HasPrefix(n, "runoff over"):
 			return 3
 		case strings.Contains(n, "weathering rate"):
 			return 4

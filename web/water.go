@@ -10,25 +10,14 @@ import (
 
 // The carbonate and minerals cells on the page: their labels, the choices
 // of their settings and their charts, which draw what the cells' output
-// tables hold (the engine computes every number).
+// tables hold (the engine computes every number and labels the settings,
+// notebook.SettingLabel).
 
 func init() {
 	kindLabels[notebook.KindCarbonate] = "Carbonate system"
 	kindLabels[notebook.KindMinerals] = "Mineral balance"
 	choices["activity_model"] = []string{"davies", "extended-debye-huckel"}
 	choices["fit_components"] = []string{"all", "cations"}
-	for k, v := range map[string]string{
-		"activity_model":                 "activity model",
-		"si_calcite_flag":                "flag SI of calcite above",
-		"atmospheric_pco2_uatm":          "pCO2 of the air (µatm)",
-		"pco2_flag_factor":               "flag pCO2 above (× the air's)",
-		"primary_minerals":               "primary minerals, which dissolve (names from the built-in table below, plagioclase AnNN, formulas, or name = formula)",
-		"secondary_minerals":             "secondary minerals, which may form",
-		"fit_components":                 "components fitted (cations: SiO2 and HCO3 as checks)",
-		"analytical_uncertainty_percent": "analytical uncertainty weighting the fit (%)",
-	} {
-		paramLabels[k] = v
-	}
 	for k, v := range map[string]string{
 		"carbonate.ionic_strength":  "ionic strength",
 		"carbonate.H2CO3":           "H2CO3*",

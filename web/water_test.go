@@ -74,7 +74,7 @@ func TestWaterLabels(t *testing.T) {
 		t.Error("kind labels")
 	}
 	for key, want := range map[string]string{"atmospheric_pco2_uatm": "pCO2 of the air (µatm)", "fit_components": "components fitted"} {
-		if got := SettingLabel(key); !strings.HasPrefix(got, want) {
+		if got := notebook.SettingLabel(key); !strings.HasPrefix(got, want) {
 			t.Errorf("%s: %q", key, got)
 		}
 	}

@@ -46,7 +46,7 @@ func ParseModel(s string) (Model, error) {
 }
 
 // Validity returns the highest ionic strength (mol/L) at which the model
-// holds: 0.5 for Davies and 0.1 for extended Debye–Hückel (methods brief
+// holds: 0.5 for Davies and 0.1 for extended Debye–Hückel (docs/methods.md
 // §10.2, from memory); 0 for Ideal, which any salt exceeds.
 func (m Model) Validity() float64 {
 	switch m {
@@ -62,7 +62,7 @@ func (m Model) Validity() float64 {
 // (Å⁻¹ kg^½ mol^-½) at tC °C from the linear fits A = 0.4883 + 8.074e-4 t
 // and B = 0.3241 + 1.600e-4 t, which give 0.5085 and 0.3281 at 25 °C
 // (Truesdell & Jones 1974, J. Res. U.S. Geol. Surv. 2, tabulated in
-// Langmuir 1997; the fits from memory, methods brief §10.2).
+// Langmuir 1997; the fits from memory, docs/methods.md §10.2).
 func DebyeHuckel(tC float64) (A, B float64) {
 	return 0.4883 + 8.074e-4*tC, 0.3241 + 1.600e-4*tC
 }
@@ -82,7 +82,7 @@ func LogGammaDH(z int, a, I, A, B float64) float64 {
 }
 
 // Ion sizes a (Å) of the extended Debye–Hückel equation (Kielland 1937,
-// J. Am. Chem. Soc. 59, 1675–1678; from memory, methods brief §10.2).
+// J. Am. Chem. Soc. 59, 1675–1678; from memory, docs/methods.md §10.2).
 // Kielland gives 4–4.5 Å for HCO3⁻; 4 is used.
 const (
 	SizeH    = 9.0

@@ -6,7 +6,7 @@ import (
 )
 
 // TestActivityCoefficients checks the Davies and extended Debye–Hückel
-// coefficients against the values of the methods brief §10.2, computed
+// coefficients against the values of the docs/methods.md §10.2, computed
 // there with A = 0.5085 and B = 0.3281 (Truesdell & Jones 1974, from
 // memory) and Kielland's (1937) sizes Ca 6 Å, HCO3 4 Å. Tolerance 5e-6.
 func TestActivityCoefficients(t *testing.T) {
@@ -24,7 +24,7 @@ func TestActivityCoefficients(t *testing.T) {
 		{"ext. DH HCO3 a=4 I=0.01", LogGammaDH(1, SizeHCO3, 0.01, A, B), 0.90167},
 	} {
 		if got := math.Pow(10, c.logG); math.Abs(got-c.want) > 5e-6 {
-			t.Errorf("%s: γ = %.6f, want %.5f (methods brief §10.2)", c.name, got, c.want)
+			t.Errorf("%s: γ = %.6f, want %.5f (docs/methods.md §10.2)", c.name, got, c.want)
 		}
 	}
 }

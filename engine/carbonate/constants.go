@@ -27,7 +27,7 @@ const (
 )
 
 // LogK1 returns log10 K1 of carbonic acid at tC °C (Plummer & Busenberg
-// 1982, Geochim. Cosmochim. Acta 46, 1011–1040; methods brief §10.1).
+// 1982, Geochim. Cosmochim. Acta 46, 1011–1040; docs/methods.md §10.1).
 func LogK1(tC float64) float64 {
 	T := tC + KelvinOffset
 	return -356.3094 - 0.06091964*T + 21834.37/T + 126.8339*math.Log10(T) - 1684915/(T*T)
@@ -54,7 +54,7 @@ func LogKcal(tC float64) float64 {
 }
 
 // LogKarg returns log10 of the solubility product of aragonite at tC °C
-// (Plummer & Busenberg 1982; the equation is from memory, methods brief
+// (Plummer & Busenberg 1982; the equation is from memory, docs/methods.md
 // §10.1 and §14).
 func LogKarg(tC float64) float64 {
 	T := tC + KelvinOffset
@@ -63,7 +63,7 @@ func LogKarg(tC float64) float64 {
 
 // LogKw returns log10 of the ion product of water at tC °C: −4470.99/T +
 // 6.0875 − 0.01706 T (Stumm & Morgan 1996, Aquatic Chemistry; from memory,
-// methods brief §10.1).
+// docs/methods.md §10.1).
 func LogKw(tC float64) float64 {
 	T := tC + KelvinOffset
 	return -4470.99/T + 6.0875 - 0.01706*T

@@ -3,7 +3,7 @@
 // speciation of dissolved inorganic carbon from alkalinity, pH and
 // temperature, the partial pressure of CO2 the water would be in
 // equilibrium with, and the saturation indices of calcite, aragonite and
-// dolomite (methods brief §10).
+// dolomite (docs/methods.md §10).
 //
 // Everything here is a pure function of its arguments. Concentrations are
 // in mol/L (taken equal to mol/kg in fresh water), temperatures in °C,

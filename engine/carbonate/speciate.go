@@ -15,7 +15,7 @@ type Species struct {
 }
 
 // Speciate splits alkalinity alk (eq/L) at pH (activity scale) with the
-// constants k and activity coefficients g (methods brief §10.3):
+// constants k and activity coefficients g (docs/methods.md §10.3):
 //
 //	aH = 10^-pH, [OH⁻] = Kw/(aH γOH), [H⁺] = aH/γH
 //	[HCO3⁻] = (Alk − [OH⁻] + [H⁺]) / (1 + 2 K2 γHCO3/(aH γCO3))
@@ -99,7 +99,7 @@ func SaturationIndexDolomite(ca, mg, co3 float64, g Gammas, logKdol float64) flo
 //
 //	[Ca²⁺] = (K pCO2 / (4 γCa γHCO3²))^(1/3)
 //
-// iterated with the ionic strength I = 3 [Ca²⁺] it implies (methods brief
+// iterated with the ionic strength I = 3 [Ca²⁺] it implies (docs/methods.md
 // §10.3).
 func CalciteSolubility(tC, pCO2 float64, m Model) float64 {
 	k := At(tC)

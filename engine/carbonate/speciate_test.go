@@ -9,10 +9,10 @@ import (
 func relErr(got, want float64) float64 { return math.Abs(got-want) / math.Abs(want) }
 
 // TestSpeciationCheckValues reproduces the speciation check values of the
-// methods brief §13 item 13 (computed there from the §10.1 constants):
+// docs/methods.md §13 item 13 (computed there from the §10.1 constants):
 // Alk 2.000 meq/L, pH 8.00, 25 °C, Ca 1.000 mmol/L, ideal and with Davies
-// coefficients at I = 0.003 (A = 0.5085). Tolerance 1e-4 relative, the
-// brief's; SI to 5e-4.
+// coefficients at I = 0.003 (A = 0.5085). Tolerance 1e-4 relative, as
+// docs/methods.md gives it; SI to 5e-4.
 func TestSpeciationCheckValues(t *testing.T) {
 	k := At(25)
 	g1 := math.Pow(10, LogGammaDavies(1, 0.003, 0.5085))
@@ -34,20 +34,20 @@ func TestSpeciationCheckValues(t *testing.T) {
 		}{{"HCO3", s.HCO3, c.hco3}, {"CO3", s.CO3, c.co3}, {"H2CO3*", s.H2CO3, c.h2co3},
 			{"pCO2 µatm", s.PCO2 * 1e6, c.pco2uatm}, {"DIC", s.DIC, c.dic}} {
 			if !math.IsNaN(v.want) && relErr(v.got, v.want) > 1e-4 {
-				t.Errorf("%s: %s = %.6g, want %.6g (methods brief §13 item 13)", c.name, v.name, v.got, v.want)
+				t.Errorf("%s: %s = %.6g, want %.6g (docs/methods.md §13 item 13)", c.name, v.name, v.got, v.want)
 			}
 		}
 		if si := SaturationIndex(1e-3, s.CO3, c.g, k.LogKcal); math.Abs(si-c.siCal) > 5e-4 {
-			t.Errorf("%s: SI calcite = %.4f, want %+.4f (methods brief §13 item 13)", c.name, si, c.siCal)
+			t.Errorf("%s: SI calcite = %.4f, want %+.4f (docs/methods.md §13 item 13)", c.name, si, c.siCal)
 		}
 		if c.name == "ideal" && math.Abs(math.Log10(s.PCO2)-(-2.8834)) > 5e-4 {
-			t.Errorf("log pCO2 = %.4f, want −2.8834 (methods brief §13 item 13)", math.Log10(s.PCO2))
+			t.Errorf("log pCO2 = %.4f, want −2.8834 (docs/methods.md §13 item 13)", math.Log10(s.PCO2))
 		}
 	}
 }
 
-// TestCalciteSolubility reproduces the calcite solubility of the methods
-// brief §10.3 (computed there): 25 °C, pCO2 = 10^-3.4 atm, 0.4739 mmol/L
+// TestCalciteSolubility reproduces the calcite solubility of docs/methods.md
+// §10.3 (computed there): 25 °C, pCO2 = 10^-3.4 atm, 0.4739 mmol/L
 // for an ideal solution and 0.5174 mmol/L with Davies activities, iterated.
 func TestCalciteSolubility(t *testing.T) {
 	pco2 := math.Pow(10, -3.4)
@@ -56,7 +56,7 @@ func TestCalciteSolubility(t *testing.T) {
 		want float64
 	}{{Ideal, 0.4739e-3}, {Davies, 0.5174e-3}} {
 		if got := CalciteSolubility(25, pco2, c.m); math.Abs(got-c.want) > 0.00005e-3 {
-			t.Errorf("%s: calcite solubility %.5f mmol/L, want %.4f (methods brief §10.3)", c.m, got*1e3, c.want*1e3)
+			t.Errorf("%s: calcite solubility %.5f mmol/L, want %.4f (docs/methods.md §10.3)", c.m, got*1e3, c.want*1e3)
 		}
 	}
 }

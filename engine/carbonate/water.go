@@ -65,7 +65,7 @@ var (
 )
 
 // Analyse computes the carbonate system of w with activity model m
-// (methods brief §10): constants at the water's temperature, ionic
+// (docs/methods.md §10): constants at the water's temperature, ionic
 // strength from the background ions and the carbonate species (iterated
 // until it changes by less than 1e-12 of itself), activity coefficients,
 // species, pCO2 and saturation indices. It returns an error, wrapping

@@ -8,7 +8,7 @@ import (
 func TestAtomicWeight(t *testing.T) {
 	// Prohaska et al. (2022), "Standard atomic weights of the elements 2021",
 	// Pure Appl. Chem. 94, 573-600, Table 1; conventional values for elements
-	// with an interval (science.md §2.1).
+	// with an interval (docs/methods.md §2.1).
 	tests := []struct {
 		el   string
 		want float64
@@ -32,7 +32,7 @@ func TestAtomicWeight(t *testing.T) {
 }
 
 func TestMolarMass(t *testing.T) {
-	// science.md §2.2: molar masses computed from the IUPAC/CIAAW 2021 weights
+	// docs/methods.md §2.2: molar masses computed from the IUPAC/CIAAW 2021 weights
 	// (Prohaska et al. 2022), given there to three decimals; tolerance 5e-4 g/mol.
 	tests := []struct {
 		s      Species
@@ -54,7 +54,7 @@ func TestMolarMass(t *testing.T) {
 			}
 		})
 	}
-	// Neutral compounds, science.md §2.2.
+	// Neutral compounds, docs/methods.md §2.2.
 	for _, tc := range []struct {
 		name      string
 		got, want float64

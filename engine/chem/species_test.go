@@ -3,7 +3,7 @@ package chem
 import "testing"
 
 func TestParseSpecies(t *testing.T) {
-	// Header spellings from science.md §1.1 (common practice).
+	// Header spellings from docs/methods.md §1.1 (common practice).
 	tests := []struct {
 		in    string
 		want  Species

@@ -7,7 +7,7 @@ import (
 )
 
 func TestToMicromolarWorked(t *testing.T) {
-	// Worked values from ../shared/science.md §2.3 and §13 item 1, computed
+	// Worked values from docs/methods.md §2.3 and §13 item 1, computed
 	// from the IUPAC/CIAAW 2021 standard atomic weights (Prohaska et al. 2022).
 	tests := []struct {
 		name string
@@ -27,22 +27,22 @@ func TestToMicromolarWorked(t *testing.T) {
 		{"alkalinity 100 mg/L as CaCO3", 100, Alk, "mg/L as CaCO3", 1998.28},
 		{"alkalinity 100 mg/L CaCO3", 100, Alk, "mg/L CaCO3", 1998.28},
 		{"alkalinity 100 ppm as CaCO3", 100, Alk, "ppm as CaCO3", 1998.28},
-		// 1 meq/L HCO3 = 61.016 mg/L HCO3 (science.md §2.3).
+		// 1 meq/L HCO3 = 61.016 mg/L HCO3 (docs/methods.md §2.3).
 		{"alkalinity 61.016 mg/L HCO3", 61.016, Alk, "mg/L HCO3", 1000},
 		{"alkalinity 61.016 mg/L, no basis, is as HCO3", 61.016, Alk, "mg/L", 1000},
 		{"HCO3 61.016 mg/L", 61.016, HCO3, "mg/L", 1000},
 		{"SiO2 10 mg/L", 10, SiO2, "mg/L", 166.436},
 		{"SiO2 10 mg/L SiO2", 10, SiO2, "mg/L SiO2", 166.436},
-		// Si to SiO2 x 2.13933 (science.md §1.1): 10 mg/L Si = 21.3933 mg/L SiO2 = 356.060 µmol/L.
+		// Si to SiO2 x 2.13933 (docs/methods.md §1.1): 10 mg/L Si = 21.3933 mg/L SiO2 = 356.060 µmol/L.
 		{"silica 10 mg/L as Si", 10, SiO2, "mg/L as Si", 356.0605},
 		{"silica 10 mg Si/L", 10, SiO2, "mg Si/L", 356.0605},
 		{"nitrate 1 mg/L as N", 1, NO3, "mg/L as N", 71.3929},
 		{"nitrate 1 mg/L NO3-N", 1, NO3, "mg/L NO3-N", 71.3929},
 		{"nitrate 1 mg N/L", 1, NO3, "mg N/L", 71.3929},
 		{"nitrate 1 mg/L-N", 1, NO3, "mg/L-N", 71.3929},
-		// 1 mg/L NO3-N = 4.42664 mg/L NO3 (science.md §1.1): 4.42664 / 62.004 * 1000.
+		// 1 mg/L NO3-N = 4.42664 mg/L NO3 (docs/methods.md §1.1): 4.42664 / 62.004 * 1000.
 		{"nitrate 4.42664 mg/L as NO3", 4.42664, NO3, "mg/L", 71.3929},
-		// SO4-S to SO4 x 2.99613 (science.md §1.1): 1 mg/L as S = 1000/32.06 µmol/L.
+		// SO4-S to SO4 x 2.99613 (docs/methods.md §1.1): 1 mg/L as S = 1000/32.06 µmol/L.
 		{"sulfate 1 mg/L as S", 1, SO4, "mg/L as S", 31.19152},
 		{"sulfate 1 mg/L SO4-S", 1, SO4, "mg/L SO4-S", 31.19152},
 		{"sulfate 2.99613 mg/L", 2.99613, SO4, "mg/L", 31.19152},
@@ -89,7 +89,7 @@ func TestToMicromolarWorked(t *testing.T) {
 }
 
 func TestFromMicromolarWorked(t *testing.T) {
-	// science.md §2.3 (IUPAC 2021 weights): 2 mg/L Mg = 0.164575 meq/L;
+	// docs/methods.md §2.3 (IUPAC 2021 weights): 2 mg/L Mg = 0.164575 meq/L;
 	// 20 mg/L SO4 = 416.424 µeq/L; 1 meq/L HCO3 = 61.016 mg/L HCO3;
 	// 40.078 mg/L Ca = 2000 µeq/L.
 	tests := []struct {
@@ -104,7 +104,7 @@ func TestFromMicromolarWorked(t *testing.T) {
 		{"Ca 40.078 mg/L in µeq/L", 40.078, Ca, "mg/L", "µeq/L", 2000},
 		{"HCO3 1 meq/L in mg/L", 1, HCO3, "meq/L", "mg/L", 61.016},
 		{"Alk 1 meq/L in mg/L HCO3", 1, Alk, "meq/L", "mg/L as HCO3", 61.016},
-		// mg/L as HCO3 = mg/L as CaCO3 x 1.21927 (science.md §1.1).
+		// mg/L as HCO3 = mg/L as CaCO3 x 1.21927 (docs/methods.md §1.1).
 		{"Alk 100 mg/L CaCO3 in mg/L HCO3", 100, Alk, "mg/L as CaCO3", "mg/L as HCO3", 121.927},
 		{"NO3-N 1 mg/L in mg/L NO3", 1, NO3, "mg/L as N", "mg/L", 4.42664},
 		{"SO4-S 1 mg/L in mg/L SO4", 1, SO4, "mg/L as S", "mg/L", 2.99613},

@@ -9,7 +9,7 @@ import (
 )
 
 // benchmarkChain times the per-sample chain correct.Apply → mix.Forward →
-// Consumption on the mixed sample of the methods brief §13 item 8.
+// Consumption on the mixed sample of the docs/methods.md §13 item 8.
 func benchmarkChain(b *testing.B, copt *correct.Options, fopt *mix.ForwardOptions) {
 	c := chem.NewComposition()
 	c[chem.Na], c[chem.K], c[chem.Ca], c[chem.Mg] = 125.7736, 20.56099, 435.56508, 106.90273

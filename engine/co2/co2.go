@@ -9,7 +9,7 @@ import (
 )
 
 // SulfurSplit says how sulfide-derived sulfate is shared between silicate
-// and carbonate weathering (methods brief §9.3; common practice, no source).
+// and carbonate weathering (docs/methods.md §9.3; common practice, no source).
 type SulfurSplit int
 
 const (
@@ -51,9 +51,9 @@ type Result struct {
 	// PhiTotal − (AlkSil + AlkCarb)/2 (negative: a CO2 source). It is the
 	// sum of a silicate part NetLongSil = PhiSil − AlkSil/2 = AlkSil/2 =
 	// ½(Na+K)_sil + (Ca+Mg)_sil − S_sil and a carbonate part NetLongCarb =
-	// PhiCarb − AlkCarb/2 = −S_carb (methods brief §9.3).
+	// PhiCarb − AlkCarb/2 = −S_carb (docs/methods.md §9.3).
 	NetLong, NetLongSil, NetLongCarb float64
-	// SinkSil is the conventional long-term silicate sink (methods brief
+	// SinkSil is the conventional long-term silicate sink (docs/methods.md
 	// §9.2; Berner, Lasaga & Garrels 1983, from memory): (Ca+Mg)_sil under
 	// carbonic acid, the Ca+Mg part of NetLongSil without its Na, K half.
 	// Silicate weathering by sulfuric acid consumes no CO2 (§9.3), so with
@@ -78,7 +78,7 @@ var ErrRelease = errors.New("carbonate weathering by sulfuric acid releases CO2"
 
 // Consumption returns the CO2 consumed by the weathering apportioned in s,
 // with so4Sulf µmol/L of sulfate from sulfide oxidation (0 for carbonic acid
-// only), following the methods brief §9.2 and §9.3. opt may be nil.
+// only), following the docs/methods.md §9.2 and §9.3. opt may be nil.
 func Consumption(s *mix.Split, so4Sulf float64, opt *Options) (Result, error) {
 	var r Result
 	if opt == nil {

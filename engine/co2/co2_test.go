@@ -76,7 +76,7 @@ func fromReaction(t *testing.T, eq string, xi float64) (chem.Composition, float6
 }
 
 func TestReactionWaters(t *testing.T) {
-	// Water made by each weathering reaction of the methods brief §9.1,
+	// Water made by each weathering reaction of the docs/methods.md §9.1,
 	// apportioned by the forward model: the short-term consumption
 	// phi_total equals the CO2 the reaction consumed, and the geological
 	// figure net_long follows §9.3 (0 for calcite and carbonic acid, ½ Alk
@@ -134,8 +134,8 @@ func TestReactionWaters(t *testing.T) {
 }
 
 func TestCheckValues(t *testing.T) {
-	// Methods brief §13 items 6, 7, 8 and 14 (computed with python3 in the
-	// brief), through the whole per-sample chain.
+	// docs/methods.md §13 items 6, 7, 8 and 14 (computed with python3 from the
+	// constants of §2), through the whole per-sample chain.
 	mixed := chem.NewComposition()
 	mixed[chem.Na], mixed[chem.K], mixed[chem.Ca], mixed[chem.Mg] = 125.7736, 20.56099, 435.56508, 106.90273
 	mixed[chem.Cl], mixed[chem.SO4] = 30, 1.551756
@@ -156,7 +156,7 @@ func TestCheckValues(t *testing.T) {
 		{"7 albite, zero ratios", water(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200}), correct.Gypsum, zeroSil, 100, 0, 50, 0, 1e-9, false, false},
 		// Item 7, second part: default (Ca/Na)_sil 0.35 clamps Ca_carb to 0.
 		{"7 albite, default ratios", water(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200}), correct.Gypsum, nil, 218, 0, 218 - 109, 59, 1e-9, true, false},
-		// Item 8: phi_sil 238, phi_carb 480 (tolerance 1e-4 as in the brief).
+		// Item 8: phi_sil 238, phi_carb 480 (tolerance 1e-4 as docs/methods.md §13 gives it).
 		{"8 mixed sample", mixed, correct.Gypsum, nil, 238, 480, 238 + 480 - (238+960)/2.0, 59, 1e-4, false, false},
 		// Item 14: Ca 1000, SO4 500 (sulfide), Alk 1000 -> phi 0, net_long −500.
 		{"14 sulfuric acid", water(map[chem.Species]float64{chem.Ca: 1000, chem.SO4: 500, chem.Alk: 1000}), correct.Sulfide, nil, 0, 0, -500, 0, 1e-9, false, false},
@@ -184,7 +184,7 @@ func TestCheckValues(t *testing.T) {
 }
 
 func TestDilutedSeawaterNoCO2(t *testing.T) {
-	// Methods brief §13 item 2: diluted Millero et al. (2008) seawater is
+	// docs/methods.md §13 item 2: diluted Millero et al. (2008) seawater is
 	// all atmospheric, so no CO2 is consumed, at any dilution.
 	sea := chem.NewComposition()
 	sea[chem.Na], sea[chem.Mg], sea[chem.Ca], sea[chem.K] = 486.0597, 54.7421, 10.6568, 10.5797
@@ -208,7 +208,7 @@ func TestDilutedSeawaterNoCO2(t *testing.T) {
 }
 
 func TestSulfurSplit(t *testing.T) {
-	// Methods brief §9.3: S shared in proportion to cation equivalents, or
+	// docs/methods.md §9.3: S shared in proportion to cation equivalents, or
 	// all to carbonate; phi_total does not depend on the split. Silicate
 	// equivalents 100 + 0 + 2(20 + 10) = 160, carbonate 2(300 + 100) = 800,
 	// SO4_sulf 96 -> S_carb = 96 × 800/960 = 80, S_sil = 16.
@@ -252,7 +252,7 @@ func TestSulfurSplit(t *testing.T) {
 }
 
 func TestLongTermSilicateSink(t *testing.T) {
-	// Silicate waters made by the reactions of the methods brief §9.1, their
+	// Silicate waters made by the reactions of the docs/methods.md §9.1, their
 	// cations booked to silicate and their sulfate to sulfide oxidation.
 	// Short term phi_sil is the CO2 the reaction consumed. Long term
 	// (§9.2-9.3): carbonic-acid weathering of a Ca or Mg silicate is a sink
@@ -343,7 +343,7 @@ func TestConsumptionErrors(t *testing.T) {
 }
 
 func TestTonnes(t *testing.T) {
-	// Methods brief §13 item 9: 6.00445e4 mol/km²/yr of CO2 = 2.64250 t
+	// docs/methods.md §13 item 9: 6.00445e4 mol/km²/yr of CO2 = 2.64250 t
 	// CO2/km²/yr = 0.721195 t C/km²/yr (12.011 and 44.009 g/mol, CIAAW 2021);
 	// tolerance 1e-5 relative.
 	tests := []struct {

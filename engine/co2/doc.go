@@ -7,7 +7,7 @@
 //
 //  1. splits SO4_sulf between silicate and carbonate weathering, in
 //     proportion to the cation equivalents each delivered (default) or all
-//     to carbonate (methods brief §9.3);
+//     to carbonate (docs/methods.md §9.3);
 //  2. forms the alkalinity each produced, Alk_sil = (Na+K+2Ca+2Mg)_sil −
 //     2 S_sil and Alk_carb = 2(Ca+Mg)_carb − 2 S_carb;
 //  3. gives the short-term consumption phi_sil = Alk_sil and phi_carb =
@@ -24,5 +24,5 @@
 // TonnesC and TonnesCO2 convert mol (or mol/km²/yr) to tonnes.
 //
 // CO2 consumption is a geochemical budget, not a carbon-removal credit
-// (methods brief §12).
+// (docs/methods.md §12).
 package co2

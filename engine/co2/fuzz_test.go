@@ -15,7 +15,7 @@ import (
 // sample that passes: no share is negative, the sources never exceed the
 // measured value (Misfit <= 0, common practice: zeroing a negative residual
 // can only lose mass), and phi_total is independent of the sulfur split
-// (methods brief §9.3).
+// (docs/methods.md §9.3).
 func FuzzChain(f *testing.F) {
 	f.Add(125.7736, 20.56099, 435.56508, 106.90273, 30.0, 1.551756, 0.0, uint8(0))
 	f.Add(100.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, uint8(1))

@@ -9,7 +9,7 @@ import (
 	"unicode"
 )
 
-// The weathering reactions of the methods brief §9.1. Charges are written
+// The weathering reactions of the docs/methods.md §9.1. Charges are written
 // after the formula as "+", "-", "+2" or "-2"; coefficients may be
 // fractions.
 var reactions = []struct {
@@ -223,9 +223,9 @@ func TestFormulaCounter(t *testing.T) {
 }
 
 func TestReactionsBalanced(t *testing.T) {
-	// Every reaction of the methods brief §9.1 conserves each element and
-	// charge exactly (the brief says the counts were checked; this checks
-	// them again).
+	// Every reaction of the docs/methods.md §9.1 conserves each element and
+	// charge exactly (docs/methods.md says the counts were checked; this
+	// checks them again).
 	for _, r := range reactions {
 		t.Run(r.name, func(t *testing.T) {
 			diff, charge, err := balance(r.equation)

@@ -207,8 +207,8 @@ func (r *Result) negatives(policy Negative) error {
 }
 
 // Bracket runs Apply under the two end scenarios of sulfate origin, all
-// gypsum and all sulfide oxidation, which bracket the CO2 result (methods
-// brief §5.2). opt.Sulfate is ignored.
+// gypsum and all sulfide oxidation, which bracket the CO2 result (docs/methods.md
+// §5.2). opt.Sulfate is ignored.
 func Bracket(c chem.Composition, opt *Options) (gypsum, sulfide Result, err error) {
 	var o Options
 	if opt != nil {

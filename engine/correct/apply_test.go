@@ -36,8 +36,8 @@ func hasWarning(ws []error, target error) bool {
 
 func TestSeaSaltRatios(t *testing.T) {
 	// X/Cl column of the Reference Composition table, Millero, Feistel,
-	// Wright & McDougall (2008), Deep-Sea Res. I 55, as given in the methods
-	// brief §4.2.
+	// Wright & McDougall (2008), Deep-Sea Res. I 55, as given in docs/methods.md
+	// §4.2.
 	want := []struct {
 		s chem.Species
 		r float64
@@ -61,7 +61,7 @@ func TestSeaSaltRatios(t *testing.T) {
 }
 
 func TestDilutedSeawater(t *testing.T) {
-	// Methods brief §13 item 2: Millero et al. (2008) molalities × 1000 as a
+	// docs/methods.md §13 item 2: Millero et al. (2008) molalities × 1000 as a
 	// sample leave zero residual Na, Mg, Ca, K, Sr and SO4 (|x| < 1e-6) for
 	// any dilution.
 	sea := sample(map[chem.Species]float64{
@@ -103,7 +103,7 @@ func TestDilutedSeawater(t *testing.T) {
 }
 
 func TestMeasuredRain(t *testing.T) {
-	// Methods brief §13 item 5 (worked example): Cl_rain 20, Na_rain 17,
+	// docs/methods.md §13 item 5 (worked example): Cl_rain 20, Na_rain 17,
 	// P 1000 mm, ET 600 mm -> F 2.5, Cl* 50, Na_atm 42.5; river Cl 80 ->
 	// Cl_atm 50, Cl_excess 30 (halite), Na_evap 30. River Na 200 is
 	// invented for the test (Corrie Vale), so Na* − Na_evap = 127.5.
@@ -148,7 +148,7 @@ func TestMeasuredRain(t *testing.T) {
 }
 
 func TestRainBelowCritical(t *testing.T) {
-	// Methods brief §4.3: river Cl below Cl* is all atmospheric, and
+	// docs/methods.md §4.3: river Cl below Cl* is all atmospheric, and
 	// X_atm = Cl_riv × (X/Cl)_rain. Cl* = 20 × 2.5 × f_dry 1.2 = 60.
 	rain := &Rain{Composition: sample(map[chem.Species]float64{chem.Cl: 20, chem.Na: 17}), P: 1000, ET: 600, DryFactor: 1.2}
 	river := sample(map[chem.Species]float64{chem.Cl: 40, chem.Na: 100})
@@ -169,7 +169,7 @@ func TestRainBelowCritical(t *testing.T) {
 }
 
 func TestRainFactor(t *testing.T) {
-	// F = P/(P−ET) = P/R (methods brief §4.3); worked values computed by hand.
+	// F = P/(P−ET) = P/R (docs/methods.md §4.3); worked values computed by hand.
 	tests := []struct {
 		name string
 		rain Rain
@@ -205,7 +205,7 @@ func TestRainFactor(t *testing.T) {
 }
 
 func TestExcessChloride(t *testing.T) {
-	// Methods brief §4.3 and §5.1: Cl above Cl* goes to halite (Na_evap =
+	// docs/methods.md §4.3 and §5.1: Cl above Cl* goes to halite (Na_evap =
 	// Cl_excess) or, on request, to human input, removed with its Na and
 	// flagged. Sea-salt Na/Cl 0.859120 (Millero et al. 2008).
 	river := sample(map[chem.Species]float64{chem.Cl: 300, chem.Na: 400})
@@ -242,7 +242,7 @@ func TestExcessChloride(t *testing.T) {
 }
 
 func TestSulfateScenarios(t *testing.T) {
-	// Methods brief §5.2 scenarios (a), (b), (c); ratios invented so that
+	// docs/methods.md §5.2 scenarios (a), (b), (c); ratios invented so that
 	// SO4_atm = 5 and SO4* = 100. δ34S: (5 − 20)/(−10 − 20) = 0.5.
 	ratios := &Ratios{chem.Na: 0.86, chem.SO4: 0.05}
 	river := sample(map[chem.Species]float64{chem.Cl: 100, chem.Na: 200, chem.Ca: 500, chem.SO4: 105})
@@ -290,7 +290,7 @@ func TestSulfateScenarios(t *testing.T) {
 }
 
 func TestBracket(t *testing.T) {
-	// Methods brief §5.2: the all-gypsum and all-sulfide scenarios bracket
+	// docs/methods.md §5.2: the all-gypsum and all-sulfide scenarios bracket
 	// the result; both are run whatever opt.Sulfate says.
 	river := sample(map[chem.Species]float64{chem.Cl: 0, chem.Na: 50, chem.Ca: 800, chem.SO4: 300})
 	g, s, err := Bracket(river, &Options{Sulfate: Isotope, ClCritical: math.Inf(1)})
@@ -308,7 +308,7 @@ func TestBracket(t *testing.T) {
 
 func TestNegativePolicy(t *testing.T) {
 	// A residual below zero is reported with its amount and handled by the
-	// policy, never clipped silently (issue 3; methods brief §5.1).
+	// policy, never clipped silently (issue 3; docs/methods.md §5.1).
 	// K 0.5 with sea-salt K/Cl 0.0186998 × Cl 100 gives K* = −1.36998;
 	// Cl 200 with Cl* 100 makes Na_evap 100, so Na* = 100 − 85.912 − 100.
 	river := sample(map[chem.Species]float64{chem.Cl: 200, chem.Na: 100, chem.K: 0.5, chem.Ca: 50, chem.Mg: 30})

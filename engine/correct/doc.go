@@ -3,7 +3,7 @@
 // what each step removed.
 //
 // All concentrations are µmol/L (alkalinity µeq/L), as in chem.Composition.
-// For one sample, Apply runs these steps (methods brief §4 and §5):
+// For one sample, Apply runs these steps (docs/methods.md §4 and §5):
 //
 //  1. Critical chloride Cl*: Options.ClCritical if set; otherwise, with
 //     measured rain, Cl* = Cl_rain × F × f_dry with F = P/(P−ET) = P/R;

@@ -31,7 +31,7 @@ func ExampleApply() {
 	// SO4 atm   5.173  evap  14.827  residual   0.000
 }
 
-// The measured-rain worked example of the methods brief (§13 item 5): rain
+// The measured-rain worked example of docs/methods.md (§13 item 5): rain
 // Cl 20 and Na 17 µmol/L, P 1000 mm/yr, ET 600 mm/yr.
 func ExampleApply_measuredRain() {
 	rain := chem.NewComposition()

@@ -10,7 +10,7 @@ type Excess int
 
 const (
 	// Halite assigns excess Cl to halite dissolution: Na_evap = Cl_excess
-	// (the default; methods brief §5.1).
+	// (the default; docs/methods.md §5.1).
 	Halite Excess = iota
 	// HumanInput removes excess Cl and an equal amount of Na from the
 	// budget as human input (road salt, sewage) and flags the sample.
@@ -28,7 +28,7 @@ func (e Excess) String() string {
 	return "unknown"
 }
 
-// Sulfate says where non-atmospheric sulfate SO4* comes from (methods brief
+// Sulfate says where non-atmospheric sulfate SO4* comes from (docs/methods.md
 // §5.2; the scenarios are common practice, no source).
 type Sulfate int
 
@@ -64,7 +64,7 @@ type Delta34S struct {
 }
 
 // Fraction returns f_sulf = (δ_riv − δ_evap)/(δ_sulf − δ_evap), the share of
-// SO4* from sulfide oxidation (methods brief §5.2; linear in SO4-weighted δ,
+// SO4* from sulfide oxidation (docs/methods.md §5.2; linear in SO4-weighted δ,
 // common practice). The value is not limited to [0, 1]; Apply limits it and
 // warns. Equal end-members or non-finite values are an error.
 func (d Delta34S) Fraction() (float64, error) {
@@ -81,7 +81,7 @@ type Negative int
 
 const (
 	// Zero sets the residual to 0 and flags it with the deficit (the
-	// default; methods brief §5.1, common practice, no source).
+	// default; docs/methods.md §5.1, common practice, no source).
 	Zero Negative = iota
 	// Keep keeps the negative residual and flags it.
 	Keep

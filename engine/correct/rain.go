@@ -8,7 +8,7 @@ import (
 )
 
 // Rain is measured rain chemistry for the measured-rain correction
-// (methods brief §4.3).
+// (docs/methods.md §4.3).
 type Rain struct {
 	// Composition holds volume-weighted mean rain concentrations, µmol/L.
 	// Cl must be present and positive.
@@ -26,7 +26,7 @@ type Rain struct {
 }
 
 // Factor returns the evapotranspiration concentration factor
-// F = P/(P−ET), or P/R when ET is 0 and R is positive (methods brief §4.3).
+// F = P/(P−ET), or P/R when ET is 0 and R is positive (docs/methods.md §4.3).
 func (r *Rain) Factor() (float64, error) {
 	switch {
 	case !(r.P > 0) || math.IsInf(r.P, 0):
@@ -53,7 +53,7 @@ func (r *Rain) dry() (float64, error) {
 }
 
 // ClCritical returns Cl* = Cl_rain × F × f_dry, the largest river Cl that
-// can be atmospheric (methods brief §4.3).
+// can be atmospheric (docs/methods.md §4.3).
 func (r *Rain) ClCritical() (float64, error) {
 	f, err := r.Factor()
 	if err != nil {

@@ -7,7 +7,7 @@ import "lixiv/engine/chem"
 // Cl entry is ignored.
 type Ratios [chem.NSpecies]float64
 
-// Species corrected for atmospheric input (methods brief §4.1).
+// Species corrected for atmospheric input (docs/methods.md §4.1).
 var corrected = [...]chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.SO4, chem.Sr, chem.Br}
 
 // Corrected returns the species that receive an atmospheric correction:
@@ -21,7 +21,7 @@ func Corrected() []chem.Species {
 // SeawaterMolality is the Reference Composition of seawater at practical
 // salinity 35 in mol per kg of H2O (Millero, Feistel, Wright & McDougall
 // 2008, Deep-Sea Research I 55, 50-72, table of the reference composition;
-// as reproduced in the methods brief §4.2). Species not in the table are 0.
+// as reproduced in the docs/methods.md §4.2). Species not in the table are 0.
 // SeaSalt derives the default ratios from it. Treat it as read-only: a
 // budget changes its ratios through Options.Ratios (starting from SeaSalt()),
 // so that the change is saved with the budget and reruns alike.

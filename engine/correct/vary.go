@@ -8,7 +8,7 @@ import (
 )
 
 // Uncertainty is the relative 1σ uncertainty of the atmospheric
-// correction's inputs (methods brief §8.6: "rain ratios ± user value; ET
+// correction's inputs (docs/methods.md §8.6: "rain ratios ± user value; ET
 // factor ± user value"). Zero means exact inputs.
 type Uncertainty struct {
 	// Ratios is the relative 1σ of each X/Cl ratio of the atmospheric

@@ -63,7 +63,7 @@ func TestVaryUnitIsApply(t *testing.T) {
 }
 
 // TestVaryScales checks the draw of a correction against hand-worked
-// values built on the measured-rain example of the methods brief §13 item
+// values built on the measured-rain example of the docs/methods.md §13 item
 // 5 (Cl_rain 20, Na_rain 17, P 1000 mm, ET 600 mm: F 2.5, Cl* 50, Na_atm
 // 42.5; river Cl 80: Cl_excess 30 to halite).
 func TestVaryScales(t *testing.T) {

@@ -47,7 +47,7 @@ func TestAwkwardFiles(t *testing.T) {
 			{problem.Note, 4, 1, "dates read day-first"},
 		}},
 		{"bom-units-row.csv", Options{}, Date(2021, 10, 1), []float64{1.5, 2.5}, nil},
-		// 1 ft³/s = 0.028316846592 m³/s exactly (methods brief §1.1).
+		// 1 ft³/s = 0.028316846592 m³/s exactly (docs/methods.md §1.1).
 		{"cfs.csv", Options{}, Date(2021, 10, 1), []float64{2.8316846592, 5.6633693184}, nil},
 		{"sub-daily.csv", Options{}, Date(2021, 10, 1), []float64{2, 4}, []said{
 			{problem.Warning, 5, 3, `2021-10-02: the discharge holds "n.a.", a no-data code read as missing; the reading is left out`},

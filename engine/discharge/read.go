@@ -72,7 +72,7 @@ const MaxProblems = 50
 const MaxDays = 200 * 366
 
 // missingCodes are cells read as "no value" rather than as numbers
-// (science brief §1.1, common practice).
+// (docs/methods.md §1.1, common practice).
 var missingCodes = map[string]bool{
 	"": true, "na": true, "n/a": true, "n.a.": true, "nd": true, "n.d.": true, "-": true, "--": true,
 	"nan": true, "null": true, "-999": true, "-9999": true, "missing": true,

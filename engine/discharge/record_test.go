@@ -135,8 +135,8 @@ func TestRunoff(t *testing.T) {
 		area float64
 		want float64
 	}{
-		{"science brief §13 item 10", 1, 365, 100, 315.36}, // R = Q × 31536 / A (science brief §8.5)
-		{"science brief §13 item 9", 2, 365, 250, 252.288}, // science brief §13 item 9
+		{"docs/methods.md §13 item 10", 1, 365, 100, 315.36}, // R = Q × 31536 / A (docs/methods.md §8.5)
+		{"docs/methods.md §13 item 9", 2, 365, 250, 252.288}, // docs/methods.md §13 item 9
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

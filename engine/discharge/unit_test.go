@@ -17,7 +17,7 @@ func TestToM3s(t *testing.T) {
 		{"m3/s unchanged", 2.5, M3PerS, 0, 2.5},
 		{"L/s", 1250, LPerS, 0, 1.25},            // 1000 L = 1 m3 (common practice)
 		{"m3/day", 86400, M3PerDay, 0, 1},        // 86400 s per day (common practice)
-		{"ft3/s", 100, FT3PerS, 0, 2.8316846592}, // 1 ft = 0.3048 m exactly (science brief §1.1)
+		{"ft3/s", 100, FT3PerS, 0, 2.8316846592}, // 1 ft = 0.3048 m exactly (docs/methods.md §1.1)
 		{"mm/day over 86.4 km2", 1, MMPerDay, 86.4, 1},
 		{"mm/day over 250 km2", 2, MMPerDay, 250, 2 * 250 / 86.4}, // 1e-3 m × 250e6 m² / 86400 s (common practice)
 	}

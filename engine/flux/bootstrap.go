@@ -15,18 +15,24 @@ import (
 // DrawMode says how Bootstrap uses the Monte Carlo draws of a series.
 type DrawMode int
 
-// Draw modes. The zero value is SharedDraw.
+// Draw modes. The zero value is PerSampleDraw.
 const (
-	// SharedDraw picks one draw index d per replicate and takes draw d of
-	// every sample, keeping the pairing of the inverse mixing model, which
-	// uses the same end-member draw d for every sample. With Weights, d is
-	// chosen with probability proportional to the mean over samples of each
-	// sample's normalised weight of d. Every sample must have the same
-	// number of draws.
-	SharedDraw DrawMode = iota
-	// PerSampleDraw picks a draw for each sample on its own, in proportion
-	// to that sample's Weights (equal without them).
-	PerSampleDraw
+	// PerSampleDraw takes, in each replicate, one draw of each sample from
+	// that sample's own weighted posterior: draw k with probability
+	// Weights[i][k] / Σ_k Weights[i][k] (equal without weights). A draw of
+	// weight 0 (rejected by the model) is never taken, whatever value it
+	// holds. Samples may have different numbers of draws.
+	PerSampleDraw DrawMode = iota
+	// JointDraw takes one draw number d per replicate for every sample,
+	// for models whose draw d stands for the same shared end-member values
+	// in every sample (Draws[i][d] for every i; every sample with draws has
+	// the same number). Draw d is taken with probability proportional to
+	// its joint weight Π_i Weights[i][d], the posterior of the shared
+	// values given every sample (independent data errors; common practice
+	// for importance weights). A draw any sample rejected has joint weight
+	// 0 and is never taken; Bootstrap returns ErrDraws when no draw is kept
+	// by every sample.
+	JointDraw
 )
 
 // Sources is a set of the inputs whose uncertainty Bootstrap propagates.
@@ -80,7 +86,7 @@ type BootstrapOptions struct {
 	// DischargeError is the relative standard deviation σ_Q of a systematic
 	// error of the whole discharge record (a rating error): each replicate
 	// multiplies every daily and sampled discharge by f = 1 + σ_Q ε, ε
-	// standard normal, redrawn while f ≤ 0 (science brief §8.6). Since every
+	// standard normal, redrawn while f ≤ 0 (docs/methods.md §8.6). Since every
 	// estimator's concentrations are unchanged by a common scale of Q (the
 	// rating curve's intercept absorbs it), the replicate's loads and runoff
 	// are multiplied by f.
@@ -89,11 +95,20 @@ type BootstrapOptions struct {
 	// area: each replicate divides yields and runoff by A(1 + σ_A ε′),
 	// redrawn while that is not positive.
 	AreaError float64
-	Draws     DrawMode
+	// Draws says how the samples' Monte Carlo draws are taken; the zero
+	// value is PerSampleDraw.
+	Draws DrawMode
+	// Cache, when set, keeps each measured series' replicate loads, so
+	// that the bootstraps of one budget that rest on the same measured
+	// species (Series without draws, and the parts of Apportioned
+	// quantities) fit it once per replicate, and the replicates'
+	// resampling counts, error factors and draws. Results are the same
+	// with or without it.
+	Cache *Cache
 	// Hold lists the sources held at their central values: every sample
 	// once (Sampling), each sample's point concentration, Series.C or the
-	// median of its draws (Apportionment), the recorded discharge (Discharge) and the given area
-	// (Area). The zero value holds none. A held source's stream is still
+	// median of its draws, or Share.Amount (Apportionment), the recorded
+	// discharge (Discharge) and the given area (Area). The zero value holds none. A held source's stream is still
 	// drawn from, so the others take the same values as with none held.
 	// With every source held, every replicate gives the point estimate
 	// (to rounding, for the rating curve's summed moments).
@@ -105,7 +120,7 @@ type BootstrapOptions struct {
 	// do not depend on it.
 	Tick func()
 	// Context, when set, cancels a long bootstrap: it is looked at before
-	// every replicate, and Bootstrap then returns its error.
+	// every replicate, and the bootstrap then returns its error.
 	Context context.Context
 }
 
@@ -113,6 +128,15 @@ func (b *BootstrapOptions) tick() {
 	if b.Tick != nil {
 		b.Tick()
 	}
+}
+
+// err is the error of a cancelled Context, nil while the bootstrap may go
+// on.
+func (b *BootstrapOptions) err() error {
+	if b.Context != nil {
+		return b.Context.Err()
+	}
+	return nil
 }
 
 // Interval is a bootstrap summary: the median and the 2.5 % and 97.5 %
@@ -171,139 +195,270 @@ const (
 // (1) resamples the samples with replacement within each reporting year
 // (a stratified bootstrap; Efron & Tibshirani 1993), (2) takes each
 // sample's concentration from one of its Monte Carlo draws when the series
-// has them, (3) scales discharge by a systematic error and (4) perturbs the
-// area, then recomputes every year's load. It reports the median and 95 %
-// interval of every figure. Results depend only on the inputs and the seed.
+// has them (BootstrapOptions.Draws), (3) scales discharge by a systematic
+// error and (4) perturbs the area, then recomputes every year's load. It
+// reports the median and 95 % interval of every figure. Results depend only
+// on the inputs and the seed.
 func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions) (*Uncertainty, error) {
 	if rec == nil || rec.Len() == 0 {
 		return nil, fmt.Errorf("%s: %w: the discharge record is empty", s.Name, ErrNoSamples)
 	}
-	nrep := b.Replicates
-	if nrep <= 0 {
-		nrep = 1000
-	}
 	years := rec.Years(opt.FirstMonth)
 	smp, warns := match(rec, s, years)
 	u := &Uncertainty{Series: s.Name, Method: opt.Method, Seed: b.Seed, Warnings: warns}
-	if len(smp) == 0 {
+	if valued(smp) == 0 {
 		return u, fmt.Errorf("%s: %w", s.Name, ErrNoSamples)
+	}
+	if len(s.Draws) == 0 && b.Cache != nil {
+		// A measured series: its replicate loads are the cache's.
+		rl, err := b.Cache.loads(rec, s, opt, b, smp, years)
+		if err != nil {
+			return u, err
+		}
+		rp := newReplicates(smp, len(s.Days), years, b)
+		col := newCollector(u, years, rp.nrep, opt, s.MolarMass)
+		out := make([]float64, len(years))
+		for r := 0; r < rp.nrep; r++ {
+			if err := b.err(); err != nil {
+				return nil, err
+			}
+			fq, fa := rp.next(nil, nil)
+			copy(out, rl.mol[r])
+			col.add(r, out, rl.e.sumQ, fq, fa, rl.ok[r])
+			b.tick()
+		}
+		col.finish()
+		return u, nil
 	}
 	ps := s
 	if b.Hold&Apportionment != 0 {
 		ps.Draws = nil // every sample keeps its point value; the draws are not read
 	}
-	pick, err := newPicker(ps, smp, b.Draws, b.tick)
+	pk, err := newPicker(ps.Name, len(ps.Days), ps.Draws, ps.Weights, b.Draws, b.tick)
 	if err != nil {
 		return u, err
 	}
 	e := newEngine(rec, smp, years, opt)
 	e.replicate = true
-	groups := make([][]int, len(years))
-	for i, sm := range smp {
-		groups[sm.year] = append(groups[sm.year], i)
-	}
-	rs := rand.New(rand.NewPCG(b.Seed, streamResample))
-	rd := rand.New(rand.NewPCG(b.Seed, streamDraw))
-	re := rand.New(rand.NewPCG(b.Seed, streamError))
-
-	ny := len(years)
-	const nf = 5 // figures per load
-	vals := make([][]float64, (ny+1)*nf)
-	for i := range vals {
-		vals[i] = make([]float64, nrep)
-	}
-	u.MeanMol = make([]float64, nrep)
-	u.Area = make([]float64, nrep)
-	w := make([]float64, len(smp))
+	rp := newReplicates(smp, len(s.Days), years, b)
+	col := newCollector(u, years, rp.nrep, opt, s.MolarMass)
 	c := make([]float64, len(smp))
-	out := make([]float64, ny)
+	idx := make([]int, len(s.Days))
+	out := make([]float64, len(years))
 	// With neither the samples nor their concentrations varied, every
 	// replicate has the same loads before its discharge and area errors:
 	// they are computed once, into fixed.
 	var fixed []float64
 	fixedOK := false
-	for r := 0; r < nrep; r++ {
-		if b.Context != nil && b.Context.Err() != nil {
-			return nil, b.Context.Err()
+	for r := 0; r < rp.nrep; r++ {
+		if err := b.err(); err != nil {
+			return nil, err
 		}
-		for i := range w {
-			w[i] = 0
-		}
-		for _, g := range groups {
-			for range g {
-				w[g[rs.IntN(len(g))]]++
+		fq, fa := rp.next(pk, idx)
+		for j, sm := range smp {
+			c[j] = sm.c
+			if k := idx[sm.idx]; k >= 0 {
+				c[j] = ps.Draws[sm.idx][k]
 			}
-		}
-		if b.Hold&Sampling != 0 {
-			for i := range w {
-				w[i] = 1
-			}
-		}
-		pick(rd, c)
-		fq := factor(re, b.DischargeError)
-		fa := factor(re, b.AreaError)
-		if b.Hold&Discharge != 0 {
-			fq = 1
-		}
-		if b.Hold&Area != 0 {
-			fa = 1
 		}
 		var ok bool
 		switch {
 		case b.Hold&(Sampling|Apportionment) != Sampling|Apportionment:
-			ok = e.loads(opt.Method, w, c, out, nil)
+			ok = e.loads(opt.Method, rp.w, c, out, nil)
 		case fixed == nil:
-			ok = e.loads(opt.Method, w, c, out, nil)
+			ok = e.loads(opt.Method, rp.w, c, out, nil)
 			fixed, fixedOK = append([]float64(nil), out...), ok
 		default:
 			ok = fixedOK
 			copy(out, fixed)
 		}
-		ropt := opt
-		ropt.AreaKm2 = opt.AreaKm2 * fa
-		sumQ := make([]float64, ny)
-		for y := range out {
-			out[y] *= fq
-			sumQ[y] = e.sumQ[y] * fq
-		}
-		if !ok {
-			u.Failed++
-			for y := range out {
-				out[y] = math.NaN()
-			}
-		}
-		yl, mean, _ := summarise(years, out, sumQ, make([]int, ny), ropt, s.MolarMass, nil, s.Name)
-		for y := 0; y <= ny; y++ {
-			l := mean
-			if y < ny {
-				l = yl[y].Load
-			}
-			vals[y*nf+0][r] = l.Mol
-			vals[y*nf+1][r] = l.Tonnes
-			vals[y*nf+2][r] = l.MolPerKm2
-			vals[y*nf+3][r] = l.TonnesPerKm2
-			vals[y*nf+4][r] = l.RunoffMM
-		}
-		u.MeanMol[r] = mean.Mol
-		u.Area[r] = ropt.AreaKm2
+		col.add(r, out, e.sumQ, fq, fa, ok)
 		b.tick()
 	}
-	u.Replicates = nrep - u.Failed
-	if u.Failed > 0 {
-		u.Warnings = append(u.Warnings, fmt.Errorf("%s: %d of %d replicates could not be fitted and are left out of the intervals", s.Name, u.Failed, nrep))
-	}
-	li := func(y int) LoadInterval {
-		return LoadInterval{
-			Mol: summary(vals[y*nf+0]), Tonnes: summary(vals[y*nf+1]), MolPerKm2: summary(vals[y*nf+2]),
-			TonnesPerKm2: summary(vals[y*nf+3]), RunoffMM: summary(vals[y*nf+4]),
+	col.finish()
+	return u, nil
+}
+
+// valued counts the matched samples with a concentration.
+func valued(smp []sample) int {
+	n := 0
+	for _, sm := range smp {
+		if !math.IsNaN(sm.c) {
+			n++
 		}
 	}
+	return n
+}
+
+// replicates hands out what varies from one bootstrap replicate to the
+// next: the resampling counts of the samples, each sample's draw and the
+// discharge and area factors, each from its own PCG stream. The counts and
+// factors of a seed are the same for every series with the same samples,
+// so they are drawn once (repSet) and shared through BootstrapOptions.Cache.
+type replicates struct {
+	b    BootstrapOptions
+	nrep int
+	set  *repSet
+	r    int       // the next replicate
+	w    []float64 // this replicate's count of each matched sample
+	ones []float64
+	rd   *rand.Rand
+}
+
+// repSet holds every replicate's resampling counts and its discharge and
+// area factors, before any source is held.
+type repSet struct {
+	w      [][]float64
+	fq, fa []float64
+}
+
+// newReplicates prepares the replicates for the matched samples smp of a
+// series of n samples.
+func newReplicates(smp []sample, n int, years []discharge.Year, b BootstrapOptions) *replicates {
+	rp := &replicates{b: b, nrep: b.Replicates, rd: rand.New(rand.NewPCG(b.Seed, streamDraw))}
+	if rp.nrep <= 0 {
+		rp.nrep = 1000
+	}
+	rp.ones = make([]float64, len(smp))
+	for i := range rp.ones {
+		rp.ones[i] = 1
+	}
+	if b.Cache != nil {
+		rp.set = b.Cache.replicateSet(smp, years, b, rp.nrep)
+	} else {
+		rp.set = drawReplicates(smp, years, b, rp.nrep)
+	}
+	return rp
+}
+
+// drawReplicates draws nrep replicates' resampling counts (stratified by
+// year) and discharge and area factors from the seed's streams.
+func drawReplicates(smp []sample, years []discharge.Year, b BootstrapOptions, nrep int) *repSet {
+	groups := make([][]int, len(years))
+	for i, sm := range smp {
+		if sm.year >= 0 {
+			groups[sm.year] = append(groups[sm.year], i)
+		}
+	}
+	rs := rand.New(rand.NewPCG(b.Seed, streamResample))
+	re := rand.New(rand.NewPCG(b.Seed, streamError))
+	set := &repSet{w: make([][]float64, nrep), fq: make([]float64, nrep), fa: make([]float64, nrep)}
+	for r := range set.w {
+		w := make([]float64, len(smp))
+		for _, g := range groups {
+			for range g {
+				w[g[rs.IntN(len(g))]]++
+			}
+		}
+		set.w[r] = w
+		set.fq[r] = factor(re, b.DischargeError)
+		set.fa[r] = factor(re, b.AreaError)
+	}
+	return set
+}
+
+// next moves to the next replicate: rp.w, the draw of each sample into
+// idx (by the series' sample index; -1 for the point value) when pk is
+// set, and the discharge and area factors. Held sources take their central
+// values, but their streams are drawn from all the same.
+func (rp *replicates) next(pk *picker, idx []int) (fq, fa float64) {
+	r := rp.r
+	rp.r++
+	rp.w = rp.set.w[r]
+	if rp.b.Hold&Sampling != 0 {
+		rp.w = rp.ones
+	}
+	if pk != nil {
+		pk.pick(rp.rd, idx)
+	}
+	fq, fa = rp.set.fq[r], rp.set.fa[r]
+	if rp.b.Hold&Discharge != 0 {
+		fq = 1
+	}
+	if rp.b.Hold&Area != 0 {
+		fa = 1
+	}
+	return fq, fa
+}
+
+// collector gathers each replicate's figures and turns them into the
+// intervals of an Uncertainty.
+type collector struct {
+	u     *Uncertainty
+	years []discharge.Year
+	opt   Options
+	mass  float64
+	vals  [][]float64 // (year or mean) × figure, over replicates
+	sumQ  []float64
+	nrep  int
+}
+
+const figuresPerLoad = 5 // Mol, Tonnes, MolPerKm2, TonnesPerKm2, RunoffMM
+
+func newCollector(u *Uncertainty, years []discharge.Year, nrep int, opt Options, mass float64) *collector {
+	c := &collector{u: u, years: years, opt: opt, mass: mass, nrep: nrep, sumQ: make([]float64, len(years)),
+		vals: make([][]float64, (len(years)+1)*figuresPerLoad)}
+	for i := range c.vals {
+		c.vals[i] = make([]float64, nrep)
+	}
+	u.MeanMol = make([]float64, nrep)
+	u.Area = make([]float64, nrep)
+	return c
+}
+
+// add records replicate r: out holds each year's load in mol before the
+// discharge factor fq (it is scaled in place), sumQ each year's summed
+// discharge; fa is the area factor; ok is false for a replicate the
+// estimator could not fit. A replicate without a mean annual load counts
+// as failed.
+func (c *collector) add(r int, out, sumQ []float64, fq, fa float64, ok bool) {
+	ropt := c.opt
+	ropt.AreaKm2 = c.opt.AreaKm2 * fa
+	for y := range out {
+		out[y] *= fq
+		c.sumQ[y] = sumQ[y] * fq
+		if !ok {
+			out[y] = math.NaN()
+		}
+	}
+	ny := len(c.years)
+	yl, mean, _ := summarise(c.years, out, c.sumQ, make([]int, ny), ropt, c.mass, nil, c.u.Series)
+	if !ok || math.IsNaN(mean.Mol) || math.IsInf(mean.Mol, 0) {
+		c.u.Failed++
+	}
+	for y := 0; y <= ny; y++ {
+		l := mean
+		if y < ny {
+			l = yl[y].Load
+		}
+		c.vals[y*figuresPerLoad+0][r] = l.Mol
+		c.vals[y*figuresPerLoad+1][r] = l.Tonnes
+		c.vals[y*figuresPerLoad+2][r] = l.MolPerKm2
+		c.vals[y*figuresPerLoad+3][r] = l.TonnesPerKm2
+		c.vals[y*figuresPerLoad+4][r] = l.RunoffMM
+	}
+	c.u.MeanMol[r] = mean.Mol
+	c.u.Area[r] = ropt.AreaKm2
+}
+
+// finish summarises the replicates into the Uncertainty.
+func (c *collector) finish() {
+	u := c.u
+	u.Replicates = c.nrep - u.Failed
+	if u.Failed > 0 {
+		u.Warnings = append(u.Warnings, fmt.Errorf("%s: %d of %d replicates could not be fitted and are left out of the intervals", u.Series, u.Failed, c.nrep))
+	}
+	li := func(y int) LoadInterval {
+		v := c.vals[y*figuresPerLoad:]
+		return LoadInterval{Mol: summary(v[0]), Tonnes: summary(v[1]), MolPerKm2: summary(v[2]),
+			TonnesPerKm2: summary(v[3]), RunoffMM: summary(v[4])}
+	}
+	ny := len(c.years)
 	u.Years = make([]YearInterval, ny)
-	for y := range years {
-		u.Years[y] = YearInterval{Year: years[y], LoadInterval: li(y)}
+	for y := range c.years {
+		u.Years[y] = YearInterval{Year: c.years[y], LoadInterval: li(y)}
 	}
 	u.Mean = li(ny)
-	return u, nil
 }
 
 // maxRedraws bounds factor's redrawing: for σ up to 10 (1000 %) a draw is
@@ -358,107 +513,4 @@ func Quantile(sorted []float64, p float64) float64 {
 		return sorted[n-1]
 	}
 	return sorted[lo] + (h-float64(lo))*(sorted[lo+1]-sorted[lo])
-}
-
-// newPicker returns a function that fills c with one replicate's
-// concentrations: the samples' values, or draws from s.Draws.
-func newPicker(s Series, smp []sample, mode DrawMode, tick func()) (func(*rand.Rand, []float64), error) {
-	base := make([]float64, len(smp))
-	for i, sm := range smp {
-		base[i] = sm.c
-	}
-	if len(s.Draws) == 0 {
-		return func(_ *rand.Rand, c []float64) { copy(c, base) }, nil
-	}
-	draws := make([][]float64, len(smp))
-	nd := -1
-	for i, sm := range smp {
-		tick()
-		if sm.idx < len(s.Draws) && len(s.Draws[sm.idx]) > 0 {
-			draws[i] = s.Draws[sm.idx]
-			for d, v := range draws[i] {
-				if math.IsNaN(v) || math.IsInf(v, 0) {
-					return nil, fmt.Errorf("%s: %w: sample %d draw %d is %g", s.Name, ErrDraws, sm.idx+1, d, v)
-				}
-			}
-			if mode == SharedDraw {
-				if nd >= 0 && len(draws[i]) != nd {
-					return nil, fmt.Errorf("%s: %w: shared draws need the same number of draws for every sample (sample %d has %d, others %d)", s.Name, ErrDraws, sm.idx+1, len(draws[i]), nd)
-				}
-				nd = len(draws[i])
-			}
-		}
-	}
-	// Cumulative weights, per sample or shared.
-	cum := make([][]float64, len(smp))
-	if s.Weights != nil {
-		for i, sm := range smp {
-			if draws[i] == nil {
-				continue
-			}
-			tick()
-			if sm.idx >= len(s.Weights) || len(s.Weights[sm.idx]) != len(draws[i]) {
-				return nil, fmt.Errorf("%s: %w: sample %d needs one weight per draw", s.Name, ErrDraws, sm.idx+1)
-			}
-			cw := make([]float64, len(draws[i]))
-			t := 0.0
-			for d, v := range s.Weights[sm.idx] {
-				if !(v >= 0) || math.IsInf(v, 0) {
-					return nil, fmt.Errorf("%s: %w: sample %d weight %d is %g", s.Name, ErrDraws, sm.idx+1, d, v)
-				}
-				t += v
-				cw[d] = t
-			}
-			if !(t > 0) {
-				return nil, fmt.Errorf("%s: %w: sample %d has no positive weight", s.Name, ErrDraws, sm.idx+1)
-			}
-			cum[i] = cw
-		}
-	}
-	pickOne := func(rng *rand.Rand, cw []float64, n int) int {
-		if cw == nil {
-			return rng.IntN(n)
-		}
-		x := rng.Float64() * cw[len(cw)-1]
-		return min(sort.Search(n, func(i int) bool { return cw[i] > x }), n-1)
-	}
-	if mode == PerSampleDraw {
-		return func(rng *rand.Rand, c []float64) {
-			for i := range c {
-				if draws[i] == nil {
-					c[i] = base[i]
-					continue
-				}
-				c[i] = draws[i][pickOne(rng, cum[i], len(draws[i]))]
-			}
-		}, nil
-	}
-	var shared []float64
-	if s.Weights != nil {
-		shared = make([]float64, nd)
-		for i := range smp {
-			if cum[i] == nil {
-				continue
-			}
-			tot := cum[i][nd-1]
-			prev := 0.0
-			for d := range nd {
-				shared[d] += (cum[i][d] - prev) / tot
-				prev = cum[i][d]
-			}
-		}
-		for d := 1; d < nd; d++ {
-			shared[d] += shared[d-1]
-		}
-	}
-	return func(rng *rand.Rand, c []float64) {
-		d := pickOne(rng, shared, nd)
-		for i := range c {
-			if draws[i] == nil {
-				c[i] = base[i]
-				continue
-			}
-			c[i] = draws[i][d]
-		}
-	}, nil
 }

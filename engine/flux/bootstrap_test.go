@@ -27,13 +27,13 @@ func withDraws(s Series, nd int) Series {
 }
 
 // TestBootstrapChecksum pins the exact bits of a full bootstrap (seasonal
-// rating curve, shared draws, discharge and area errors). The constant was
+// rating curve, per-sample draws, discharge and area errors). The constant was
 // computed natively on amd64; under WebAssembly in Node the same test must
 // give the same value (make wasmtest runs it).
 func TestBootstrapChecksum(t *testing.T) {
 	cv := newCorrieVale()
 	s := withDraws(cv.series, 50)
-	want := map[Method]uint64{FlowWeighted: 0x9a5f307ebc65ea29, PeriodWeighted: 0x9717c51d021ff38, Rating: 0x986e6856fcd2adc4, Beale: 0x857047890b035474}
+	want := map[Method]uint64{FlowWeighted: 0xbff384a061acd45f, PeriodWeighted: 0xabceb6e53409f639, Rating: 0xe0025675a28b5f84, Beale: 0x91704a5f8da6eafe}
 	for m := Method(0); m < NMethods; m++ {
 		opt := Options{Method: m, AreaKm2: cv.area, Seasonal: true}
 		u, err := Bootstrap(cv.gauge, s, opt, BootstrapOptions{Replicates: 300, Seed: 7, DischargeError: 0.1, AreaError: 0.03})
@@ -131,7 +131,7 @@ func TestBootstrapDeterministic(t *testing.T) {
 }
 
 // TestBootstrapDraws checks how draws enter: with a constant concentration
-// and no discharge error, only the draws vary the load. Shared draws carry
+// and no discharge error, only the draws vary the load. Joint draws carry
 // the full spread of the shared multiplier; per-sample draws average out.
 func TestBootstrapDraws(t *testing.T) {
 	rec := constantRecord(1, 365)
@@ -147,8 +147,8 @@ func TestBootstrapDraws(t *testing.T) {
 	}
 	base := 86.4 * 100 * 365.0
 	opt := Options{AreaKm2: 100}
-	t.Run("shared", func(t *testing.T) {
-		u, err := Bootstrap(rec, s, opt, BootstrapOptions{Replicates: 2000, Seed: 3})
+	t.Run("joint", func(t *testing.T) {
+		u, err := Bootstrap(rec, s, opt, BootstrapOptions{Replicates: 2000, Seed: 3, Draws: JointDraw})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -178,7 +178,7 @@ func TestBootstrapDraws(t *testing.T) {
 			s.Weights[i] = make([]float64, nd)
 			s.Weights[i][70] = 3
 		}
-		for _, mode := range []DrawMode{SharedDraw, PerSampleDraw} {
+		for _, mode := range []DrawMode{JointDraw, PerSampleDraw} {
 			u, err := Bootstrap(rec, s, opt, BootstrapOptions{Replicates: 50, Seed: 3, Draws: mode})
 			if err != nil {
 				t.Fatal(err)
@@ -192,8 +192,8 @@ func TestBootstrapDraws(t *testing.T) {
 	t.Run("errors", func(t *testing.T) {
 		bad := s
 		bad.Draws = append([][]float64{{1, 2}}, s.Draws[1:]...)
-		_, err := Bootstrap(rec, bad, opt, BootstrapOptions{Replicates: 10})
-		if !errors.Is(err, ErrDraws) || err.Error() != "Ca: unusable Monte Carlo draws: shared draws need the same number of draws for every sample (sample 2 has 101, others 2)" {
+		_, err := Bootstrap(rec, bad, opt, BootstrapOptions{Replicates: 10, Draws: JointDraw})
+		if !errors.Is(err, ErrDraws) || err.Error() != "Ca: unusable Monte Carlo draws: joint draws need the same number of draws for every sample (sample 2 has 101, others 2)" {
 			t.Errorf("unequal draws: got %v", err)
 		}
 		bad.Draws = append([][]float64{append([]float64{math.NaN()}, s.Draws[0][1:]...)}, s.Draws[1:]...)
@@ -282,7 +282,7 @@ func TestWaterYearFlux(t *testing.T) {
 	if y := res.Years[0]; y.String() != "2020-10/2021-09" || y.Samples != 26 || y.Mol != 86.4*(100*365) {
 		t.Errorf("water year 2021: %s, %d samples, %g mol", y, y.Samples, y.Mol)
 	}
-	if relErr(res.Mean.Mol, 3.1536e6) > 1e-12 { // science brief §13 item 10
+	if relErr(res.Mean.Mol, 3.1536e6) > 1e-12 { // docs/methods.md §13 item 10
 		t.Errorf("mean %g mol/yr, want 3.1536e6", res.Mean.Mol)
 	}
 	cal, _ := Estimate(rec, s, Options{AreaKm2: 100})
@@ -292,7 +292,7 @@ func TestWaterYearFlux(t *testing.T) {
 }
 
 func TestWeatheringRate(t *testing.T) {
-	// Science brief §13 items 8-9: Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24
+	// docs/methods.md §13 items 8-9: Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24
 	// µmol/L at 2 m³/s for 365 days (63072 m³/s·day × 86.4/86.4 → × 63072
 	// mol per µmol/L) over 250 km².
 	const perUM = 2 * 365 * 86.4

@@ -11,7 +11,7 @@ import (
 
 // corrieOptions are the settings of the synthetic catchment runs: the
 // seasonal rating curve with Duan's smearing, 7 % discharge and 2 % area
-// uncertainty (science brief §8.6 defaults).
+// uncertainty (docs/methods.md §8.6 defaults).
 func corrieOptions(cv *corrieVale, m Method) (Options, BootstrapOptions) {
 	return Options{Method: m, AreaKm2: cv.area, Seasonal: true},
 		BootstrapOptions{Replicates: 1000, Seed: 20210101, DischargeError: 0.07, AreaError: 0.02}

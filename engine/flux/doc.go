@@ -12,14 +12,17 @@
 // t CO2, and WeatheringRate sums mass yields of several species (silicate
 // cations, with or without SiO2). Further CO2 accounting belongs to co2.
 //
-// # Estimators (science brief §8)
+// # Estimators (docs/methods.md §8)
 //
 //   - FlowWeighted: each year's discharge-weighted mean concentration
 //     C_fw = Σ C_i Q_i / Σ Q_i over that year's samples, times the year's
 //     discharge: L = 86.4 C_fw Σ Q_d.
-//   - PeriodWeighted: concentration interpolated linearly in time between
-//     sample days (same-day samples averaged), held at the ends of the
-//     record, times daily discharge: L = 86.4 Σ C_d Q_d.
+//   - PeriodWeighted: concentration interpolated in time between sample
+//     days (same-day samples averaged), held at the ends of the record,
+//     times daily discharge: L = 86.4 Σ C_d Q_d. The interpolation is
+//     flow-adjusted: C_d = Q_d^b × interp(C_i Q_i^−b), with b the
+//     least-squares slope of ln C on ln Q of the samples, which is plain
+//     linear interpolation when b = 0.
 //   - Beale: the bias-corrected ratio estimator on each year's samples (§8.4).
 //   - Rating: ln C = b0 + b1 ln Q (+ b2 sin 2πt + b3 cos 2πt) fitted by least
 //     squares over all samples, applied to every day and multiplied by a
@@ -42,12 +45,27 @@
 //     load (fill gaps first with discharge.Record.Fill if they should count).
 //  3. Bootstrap repeats step 2 for each replicate: a stratified resampling of
 //     samples within years, a Monte Carlo draw of each sample's
-//     concentration (Series.Draws, shared draw index or per sample), a
-//     systematic discharge error and an area error; it reports the median
-//     and 95 % interval of every figure (science brief §8.6).
-//     BootstrapOptions.Hold holds chosen sources at their central values
-//     (Alone varies one source only), for a breakdown of an interval by
-//     source; its zero value varies them all.
+//     concentration (Series.Draws: per sample from its own weighted
+//     posterior, a rejected draw never taken; or one joint draw number for
+//     every sample, JointDraw), a systematic discharge error and an area
+//     error; it reports the median and 95 % interval of every figure
+//     (docs/methods.md §8.6). BootstrapOptions.Hold holds chosen sources at
+//     their central values (Alone varies one source only), for a breakdown
+//     of an interval by source; its zero value varies them all.
+//
+// # Apportioned quantities
+//
+// A quantity a source apportionment attributes to measured species (a
+// cation from a source, a sum of them, CO2 consumption) is an Apportioned:
+// each measured species is fluxed by the estimator, and the quantity takes
+// the flow-weighted share of it that its amounts are in each year's samples
+// (EstimateApportioned, BootstrapApportioned; docs/methods.md §8.7). The
+// sources of a species then add up to its load with every estimator, and
+// the rating curve never meets the zeros and negative values of
+// apportioned amounts. A Cache shared by the bootstraps of one budget keeps
+// each measured species' replicate loads, the resampling counts and error
+// factors of the seed, and each sample's draws, which are the same in every
+// bootstrap with the same seed and samples.
 //
 // # Reproducibility
 //

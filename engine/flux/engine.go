@@ -37,7 +37,8 @@ type engine struct {
 	// days through mom (moments.go), prepared at the first replicate.
 	replicate bool
 	mom       *moments
-	summed    bool // the last rating call already added its sums to out
+	slope     float64 // the slope of the last flow-adjusted interpolation
+	summed    bool    // the last rating call already added its sums to out
 }
 
 func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt Options) *engine {
@@ -55,7 +56,7 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 		}
 		e.year[k] = y
 		q := rec.Q[k]
-		if opt.Method == Rating {
+		if opt.Method == Rating || opt.Method == PeriodWeighted {
 			e.lnq[k] = plog(q)
 		}
 		if !math.IsNaN(q) {
@@ -71,7 +72,7 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 	e.lnQ = make([]float64, len(smp))
 	e.sS, e.cS = make([]float64, len(smp)), make([]float64, len(smp))
 	for i, s := range smp {
-		if opt.Method == Rating {
+		if opt.Method == Rating || opt.Method == PeriodWeighted {
 			e.lnQ[i] = plog(s.q)
 		}
 		if opt.Seasonal {
@@ -210,13 +211,25 @@ func (e *engine) beale(w, c []float64, cref float64, out []float64) {
 	}
 }
 
-// periodWeighted fills e.cd with concentrations interpolated linearly in time
-// between sample days and held at the ends. Same-day samples are averaged.
+// periodWeighted fills e.cd with the flow-adjusted interpolation of the
+// samples: with b the slope of ln C on ln Q fitted to the samples (0 when
+// it cannot be fitted), the flow-normalised concentrations C_i Q_i^−b are
+// interpolated linearly in time between sample days and held at the ends,
+// and multiplied by Q_d^b on each day. Same-day samples are averaged. With
+// b = 0 this is linear interpolation of the concentrations; otherwise the
+// days between samples follow discharge as the samples do (the composite
+// method of Aulenbach & Hooper 2006, with the slope as its regression;
+// from memory).
 func (e *engine) periodWeighted(w, c []float64, cref float64) bool {
 	type node struct {
 		k int
 		c float64
 	}
+	b := 0.0
+	if flowAdjust {
+		b = e.flowSlope(w, c)
+	}
+	e.slope = b
 	var nodes []node
 	for i := 0; i < len(e.smp); {
 		k := e.smp[i].k
@@ -225,18 +238,27 @@ func (e *engine) periodWeighted(w, c []float64, cref float64) bool {
 		for ; j < len(e.smp) && e.smp[j].k == k; j++ {
 			if w[j] > 0 && !math.IsNaN(c[j]) {
 				sw += w[j]
-				sc += w[j] * (c[j] - cref)
+				if b == 0 {
+					sc += w[j] * (c[j] - cref)
+				} else {
+					sc += w[j] * c[j] * pexp(-b*e.lnQ[j])
+				}
 			}
 		}
 		if sw > 0 {
-			nodes = append(nodes, node{k, cref + sc/sw})
+			if b == 0 {
+				nodes = append(nodes, node{k, cref + sc/sw})
+			} else {
+				nodes = append(nodes, node{k, sc / sw})
+			}
 		}
 		i = j
 	}
 	if len(nodes) == 0 {
 		return false
 	}
-	// e.cd is needed on the days with flow only (sumDaily reads no other).
+	// e.cd is needed on the days with flow only (sumDaily reads no other),
+	// so a record that is mostly gap costs what its days with data cost.
 	j := 0 // nodes[j-1].k < k <= nodes[j].k while interpolating
 	first, last := nodes[0], nodes[len(nodes)-1]
 	for _, k := range e.flow {
@@ -249,11 +271,59 @@ func (e *engine) periodWeighted(w, c []float64, cref float64) bool {
 			for nodes[j].k < k {
 				j++
 			}
-			a, b := nodes[j-1], nodes[j]
-			e.cd[k] = a.c + (b.c-a.c)*(float64(k-a.k)/float64(b.k-a.k))
+			a, bn := nodes[j-1], nodes[j]
+			e.cd[k] = a.c + (bn.c-a.c)*(float64(k-a.k)/float64(bn.k-a.k))
+		}
+		if b != 0 && e.q[k] > 0 {
+			e.cd[k] *= pexp(b * e.lnq[k])
 		}
 	}
 	return true
+}
+
+// flowAdjust switches the flow adjustment of the interpolation estimator
+// on; the validation suite turns it off to show plain interpolation.
+var flowAdjust = true
+
+// flowSlope returns the slope b of ln C on ln Q fitted by weighted least
+// squares to the samples with positive concentration and discharge, or 0
+// when fewer than three such samples, or fewer than two discharges, take
+// part.
+func (e *engine) flowSlope(w, c []float64) float64 {
+	var sw, sx, sy float64
+	n := 0
+	x0, varies := math.NaN(), false
+	for i, s := range e.smp {
+		if !(w[i] > 0 && c[i] > 0 && s.q > 0) {
+			continue
+		}
+		n++
+		sw += w[i]
+		sx += w[i] * e.lnQ[i]
+		sy += w[i] * plog(c[i])
+		if math.IsNaN(x0) {
+			x0 = e.lnQ[i]
+		} else if e.lnQ[i] != x0 {
+			varies = true
+		}
+	}
+	if n < 3 || !varies {
+		return 0
+	}
+	xb, yb := sx/sw, sy/sw
+	var sxy, sxx float64
+	for i, s := range e.smp {
+		if !(w[i] > 0 && c[i] > 0 && s.q > 0) {
+			continue
+		}
+		dx := e.lnQ[i] - xb
+		sxy += w[i] * dx * (plog(c[i]) - yb)
+		sxx += w[i] * dx * dx
+	}
+	if !(sxx > 0) {
+		return 0
+	}
+	return sxy / sxx
 }
 
 // sumDaily adds Σ (C_d − Cref) Q_d per year into out.

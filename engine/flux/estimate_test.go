@@ -37,7 +37,7 @@ func fill(n int, v float64) []float64 {
 
 func relErr(got, want float64) float64 { return math.Abs(got-want) / math.Abs(want) }
 
-// TestConstantConcentration: science brief §13 item 10. A constant
+// TestConstantConcentration: docs/methods.md §13 item 10. A constant
 // concentration gives L = C × Σ Q_d × 86.4 exactly for every estimator, for a
 // constant and for a varying discharge record.
 func TestConstantConcentration(t *testing.T) {
@@ -69,7 +69,7 @@ func TestConstantConcentration(t *testing.T) {
 						t.Errorf("load %.17g mol, want exactly %.17g", got, want)
 					}
 					if rname == "Q = 1 m3/s" {
-						// Worked values, science brief §13 item 10 (tolerance 1e-12 relative).
+						// Worked values, docs/methods.md §13 item 10 (tolerance 1e-12 relative).
 						checks := []struct {
 							name      string
 							got, want float64
@@ -77,12 +77,12 @@ func TestConstantConcentration(t *testing.T) {
 							{"L mol/yr", res.Mean.Mol, 3.1536e6},
 							{"R mm/yr", res.Mean.RunoffMM, 315.36},
 							{"Y mol/km2/yr", res.Mean.MolPerKm2, 31536},
-							{"Ca t/km2/yr", res.Mean.TonnesPerKm2, 1.26390}, // 31536 × 40.078e-6 = 1.2639 (science brief §13 item 10)
+							{"Ca t/km2/yr", res.Mean.TonnesPerKm2, 1.26390}, // 31536 × 40.078e-6 = 1.2639 (docs/methods.md §13 item 10)
 						}
 						for _, c := range checks {
 							tol := 1e-12
 							if c.name == "Ca t/km2/yr" {
-								tol = 1e-5 // the brief gives 6 figures
+								tol = 1e-5 // docs/methods.md §13 gives 6 figures
 							}
 							if relErr(c.got, c.want) > tol {
 								t.Errorf("%s = %.10g, want %.10g (tolerance %g relative)", c.name, c.got, c.want, tol)
@@ -95,7 +95,7 @@ func TestConstantConcentration(t *testing.T) {
 	}
 }
 
-// TestCO2Yields: science brief §13 item 9, silicate CO2 consumption phi_sil
+// TestCO2Yields: docs/methods.md §13 item 9, silicate CO2 consumption phi_sil
 // 238 and carbonate phi_carb 480 µmol/L at Q = 2 m³/s for 365 days over
 // 250 km².
 func TestCO2Yields(t *testing.T) {
@@ -107,8 +107,8 @@ func TestCO2Yields(t *testing.T) {
 		mol, molKm2, tC float64
 		tCO2            float64
 	}{
-		{"silicate", 238, 1.50111e7, 6.00445e4, 0.721195, 2.64250},         // science brief §13 item 9
-		{"carbonate", 480, 3.027456e7, 1.210982e5, math.NaN(), math.NaN()}, // science brief §13 item 9 (carbonate yield)
+		{"silicate", 238, 1.50111e7, 6.00445e4, 0.721195, 2.64250},         // docs/methods.md §13 item 9
+		{"carbonate", 480, 3.027456e7, 1.210982e5, math.NaN(), math.NaN()}, // docs/methods.md §13 item 9 (carbonate yield)
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -117,7 +117,7 @@ func TestCO2Yields(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if relErr(res.Mean.RunoffMM, 252.288) > 1e-9 { // science brief §13 item 9
+			if relErr(res.Mean.RunoffMM, 252.288) > 1e-9 { // docs/methods.md §13 item 9
 				t.Errorf("runoff %.8g mm/yr, want 252.288", res.Mean.RunoffMM)
 			}
 			if relErr(res.Mean.Mol, tt.mol) > 1e-5 || relErr(res.Mean.MolPerKm2, tt.molKm2) > 1e-5 {
@@ -138,15 +138,15 @@ func TestCO2Yields(t *testing.T) {
 	}
 }
 
-// TestBiasFactors: science brief §13 item 11.
+// TestBiasFactors: docs/methods.md §13 item 11.
 func TestBiasFactors(t *testing.T) {
 	tests := []struct {
 		name      string
 		got, want float64
 	}{
-		{"Duan {-0.1, 0, 0.1}", DuanFactor([]float64{-0.1, 0, 0.1}), 1.0033361}, // science brief §13 item 11
-		{"Ferguson s = 0.1 ln", FergusonFactor(0.1), 1.0050125},                 // exp(0.005), science brief §13 item 11
-		{"Ferguson s = 0.1 log10", FergusonFactor(0.1 * math.Ln10), 1.0268640},  // exp(2.65095 × 0.01), science brief §13 item 11
+		{"Duan {-0.1, 0, 0.1}", DuanFactor([]float64{-0.1, 0, 0.1}), 1.0033361}, // docs/methods.md §13 item 11
+		{"Ferguson s = 0.1 ln", FergusonFactor(0.1), 1.0050125},                 // exp(0.005), docs/methods.md §13 item 11
+		{"Ferguson s = 0.1 log10", FergusonFactor(0.1 * math.Ln10), 1.0268640},  // exp(2.65095 × 0.01), docs/methods.md §13 item 11
 	}
 	for _, tt := range tests {
 		if math.Abs(tt.got-tt.want) > 1e-7 {

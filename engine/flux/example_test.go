@@ -36,17 +36,17 @@ func ExampleEstimate() {
 			return
 		}
 		y := res.Years[0]
-		fmt.Printf("%-15s %d: %.4g mol/yr  %.3f t/km2/yr  runoff %.0f mm\n", m, y.Label, y.Mol, y.TonnesPerKm2, y.RunoffMM)
+		fmt.Printf("%-27s %d: %.4g mol/yr  %.3f t/km2/yr  runoff %.0f mm\n", m, y.Label, y.Mol, y.TonnesPerKm2, y.RunoffMM)
 		if f := res.Rating; f != nil {
 			fmt.Printf("fit: C = %.1f Q^%.3f, R2 %.3f, s %.3f, %v factor %.4f\n", f.A, f.B, f.R2, f.S, f.Bias, f.Factor)
 		}
 	}
 	// Output:
-	// flow-weighted   2021: 4.941e+06 mol/yr  4.715 t/km2/yr  runoff 1126 mm
-	// period-weighted 2021: 4.946e+06 mol/yr  4.720 t/km2/yr  runoff 1126 mm
-	// rating curve    2021: 4.923e+06 mol/yr  4.697 t/km2/yr  runoff 1126 mm
+	// discharge-weighted          2021: 4.941e+06 mol/yr  4.715 t/km2/yr  runoff 1126 mm
+	// flow-adjusted interpolation 2021: 4.935e+06 mol/yr  4.709 t/km2/yr  runoff 1126 mm
+	// rating curve                2021: 4.923e+06 mol/yr  4.697 t/km2/yr  runoff 1126 mm
 	// fit: C = 120.2 Q^-0.295, R2 0.956, s 0.038, Duan smearing factor 1.0006
-	// Beale ratio     2021: 4.917e+06 mol/yr  4.692 t/km2/yr  runoff 1126 mm
+	// Beale ratio                 2021: 4.917e+06 mol/yr  4.692 t/km2/yr  runoff 1126 mm
 }
 
 func ExampleBootstrap() {

@@ -8,7 +8,7 @@ import (
 	"lixiv/engine/discharge"
 )
 
-// slowLoads is a literal transcription of the science brief's §8.1, §8.2
+// slowLoads is a literal transcription of the docs/methods.md §8.1, §8.2
 // and §8.4 formulas for one year of samples, written for clarity, not
 // speed, as an oracle for the fast estimators.
 func slowLoads(rec *discharge.Record, days []discharge.Day, c []float64) (fw, pw, beale float64) {
@@ -28,23 +28,40 @@ func slowLoads(rec *discharge.Record, days []discharge.Day, c []float64) (fw, pw
 		sq += q[i]
 	}
 	fw = cq / sq * sumQd * 86.4
-	// §8.2: C_d interpolated between samples, held at the ends.
+	// §8.2: flow-normalised concentrations C_i Q_i^-b interpolated between
+	// samples, held at the ends, times Q_d^b; b the least-squares slope of
+	// ln C on ln Q.
+	var mx, my float64
+	for i := range c {
+		mx += math.Log(q[i]) / float64(n)
+		my += math.Log(c[i]) / float64(n)
+	}
+	var sxy, sxx float64
+	for i := range c {
+		sxy += (math.Log(q[i]) - mx) * (math.Log(c[i]) - my)
+		sxx += (math.Log(q[i]) - mx) * (math.Log(q[i]) - mx)
+	}
+	b := sxy / sxx
+	cn := make([]float64, n)
+	for i := range c {
+		cn[i] = c[i] * math.Pow(q[i], -b)
+	}
 	for k, d := range rec.Days {
 		var cd float64
 		switch {
 		case d <= days[0]:
-			cd = c[0]
+			cd = cn[0]
 		case d >= days[n-1]:
-			cd = c[n-1]
+			cd = cn[n-1]
 		default:
 			j := 1
 			for days[j] < d {
 				j++
 			}
 			f := float64(d-days[j-1]) / float64(days[j]-days[j-1])
-			cd = c[j-1] + f*(c[j]-c[j-1])
+			cd = cn[j-1] + f*(cn[j]-cn[j-1])
 		}
-		pw += cd * rec.Q[k] * 86.4
+		pw += cd * math.Pow(rec.Q[k], b) * rec.Q[k] * 86.4
 	}
 	// §8.4: Beale.
 	l := make([]float64, n)

@@ -27,7 +27,7 @@ func TestDischargeAtSampling(t *testing.T) {
 	}
 	s.Q = []float64{3, math.NaN()} // storm sample at 3 m³/s; the other takes the daily 1 m³/s
 	res, _ = Estimate(rec, s, Options{})
-	// C_fw = (100×3 + 200×1)/(3+1) = 125 (science brief §8.1).
+	// C_fw = (100×3 + 200×1)/(3+1) = 125 (docs/methods.md §8.1).
 	if want := 86.4 * (125 * 365.0); relErr(res.Years[0].Mol, want) > 1e-12 {
 		t.Errorf("Q at sampling: load %g, want %g", res.Years[0].Mol, want)
 	}

@@ -23,10 +23,12 @@ type Series struct {
 
 	// Draws optionally holds Monte Carlo draws of the concentration for each
 	// sample, as from the inverse mixing model: Draws[i][d] is draw d of
-	// sample i. The inverse model uses draw index d for the same end-member
-	// draw in every sample, so Bootstrap can keep that pairing (SharedDraw).
+	// sample i. Bootstrap takes each sample's draw from its own weighted
+	// posterior (PerSampleDraw); for JointDraw, draw d of every sample must
+	// stand for the same shared end-member values.
 	Draws [][]float64
-	// Weights optionally weight the draws: Weights[i][d] >= 0. Nil means equal.
+	// Weights optionally weight the draws: Weights[i][d] >= 0, 0 for a draw
+	// the model rejected (never taken, whatever it holds). Nil means equal.
 	Weights [][]float64
 }
 
@@ -71,6 +73,9 @@ type sample struct {
 }
 
 // match pairs every sample with its day's discharge and reporting year.
+// A sample without a concentration is kept with c NaN (and a warning), so
+// that series with the same samples resample them alike in Bootstrap;
+// the estimators skip it.
 func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, []error) {
 	var out []sample
 	var warns []error
@@ -80,13 +85,10 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 		if i < len(s.C) {
 			c = s.C[i]
 		}
-		if math.IsNaN(c) {
-			if i >= len(s.Draws) || len(s.Draws[i]) == 0 {
-				bad(ErrNoConc)
-				continue
-			}
+		if math.IsNaN(c) && i < len(s.Draws) && len(s.Draws[i]) > 0 {
 			c = median(s.Draws[i])
 		}
+		missing := math.IsNaN(c)
 		k := rec.Index(d)
 		if k < 0 {
 			if rec.Len() == 0 {
@@ -113,10 +115,24 @@ func match(rec *discharge.Record, s Series, years []discharge.Year) ([]sample, [
 				break
 			}
 		}
+		if missing {
+			bad(ErrNoConc)
+		}
 		out = append(out, sample{idx: i, k: k, year: y, c: c, q: q, t: d.YearFraction()})
 	}
 	sort.SliceStable(out, func(a, b int) bool { return out[a].k < out[b].k })
 	return out, warns
+}
+
+// withValues returns the matched samples that have a concentration.
+func withValues(smp []sample) []sample {
+	out := smp[:0:0]
+	for _, sm := range smp {
+		if !math.IsNaN(sm.c) {
+			out = append(out, sm)
+		}
+	}
+	return out
 }
 
 // median returns the median of the non-NaN values of v (NaN if none).

@@ -72,7 +72,7 @@ func TestHoldAll(t *testing.T) {
 // TestOneSourceAlone: the interval with one source varied alone is no
 // wider than with all of them. In this synthetic catchment the yield is,
 // replicate by replicate, the sampling estimate times a shared end-member
-// multiplier (0.8 to 1.2), times the discharge factor, over the area
+// multiplier (0.8 to 1.2, joint draws), times the discharge factor, over the area
 // factor: independent factors, so in log terms a sum of independent
 // spreads, each of which widens the central interval of the others
 // (Anderson 1955, Proc. Am. Math. Soc. 6, for symmetric unimodal terms; from
@@ -81,7 +81,7 @@ func TestHoldAll(t *testing.T) {
 func TestOneSourceAlone(t *testing.T) {
 	cv := newCorrieVale()
 	s := withDraws(cv.series, 50)
-	b := BootstrapOptions{Replicates: 2000, Seed: 5, DischargeError: 0.07, AreaError: 0.05}
+	b := BootstrapOptions{Replicates: 2000, Seed: 5, DischargeError: 0.07, AreaError: 0.05, Draws: JointDraw}
 	for m := Method(0); m < NMethods; m++ {
 		opt := Options{Method: m, AreaKm2: cv.area}
 		all, err := Bootstrap(cv.gauge, s, opt, b)

@@ -22,9 +22,9 @@ func WeatheringRate(areaKm2 float64, parts ...Part) float64 {
 }
 
 // CarbonMass converts CO2 consumption in mol (per km² and year) to tonnes of
-// carbon: × 12.011e-6 (science brief §8.5).
+// carbon: × 12.011e-6 (docs/methods.md §8.5).
 func CarbonMass(mol float64) float64 { return mol * chem.MassC * 1e-6 }
 
 // CO2Mass converts CO2 consumption in mol to tonnes of CO2: × 44.009e-6
-// (science brief §8.5).
+// (docs/methods.md §8.5).
 func CO2Mass(mol float64) float64 { return mol * chem.MassCO2 * 1e-6 }

@@ -15,7 +15,7 @@ type Phase struct {
 	Secondary bool
 }
 
-// Balance is the inverse mass balance of a set of phases (methods brief
+// Balance is the inverse mass balance of a set of phases (docs/methods.md
 // §16; Garrels & Mackenzie 1967): for a water, the moles of each phase per
 // litre that best give its composition. Build it with NewBalance and call
 // Solve for each water.

@@ -142,7 +142,7 @@ func TestBalanceSaysWhy(t *testing.T) {
 // TestGarrelsMackenzie reproduces the spring-water mass balance of Garrels
 // & Mackenzie (1967, Adv. Chem. Ser. 67, 222–242, the table of source
 // minerals of the Sierra Nevada ephemeral springs; values from memory, not
-// at hand, as the methods brief §16 gives the compositions). Water: mean
+// at hand, as the docs/methods.md §16 gives the compositions). Water: mean
 // ephemeral spring less snow, in 1e-4 mol/L: Na 1.10, K 0.20, Ca 0.68,
 // Mg 0.22, HCO3 3.10, SiO2 2.70. The paper assigns Na and the matching Ca
 // to plagioclase of the water's own composition (An38), Mg to biotite, the

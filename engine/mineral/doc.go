@@ -1,6 +1,6 @@
 // Package mineral is the inverse mass balance of weathering: which minerals
 // dissolved, and which formed, to give a stream water its composition, and
-// the CO2 each consumed (methods brief §9.1 and §16; Garrels & Mackenzie
+// the CO2 each consumed (docs/methods.md §9.1 and §16; Garrels & Mackenzie
 // 1967, "Origin of the chemical compositions of some springs and lakes",
 // Adv. Chem. Ser. 67).
 //

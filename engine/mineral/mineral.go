@@ -28,13 +28,13 @@ type Mineral struct {
 
 // Formula sources. The ideal end-member formulas are the common textbook
 // forms (Deer, Howie & Zussman 1992, An Introduction to the Rock-Forming
-// Minerals, 2nd ed., Longman; from memory), as the methods brief §16 lists
+// Minerals, 2nd ed., Longman; from memory), as the docs/methods.md §16 lists
 // them.
 const (
-	srcDHZ       = "ideal end-member; Deer, Howie & Zussman 1992 (from memory); methods brief §16"
-	srcSmectite  = "Ca-montmorillonite of Helgeson 1969 (Am. J. Sci. 267, from memory) with Ca 0.165 so that charge balances exactly (the methods brief's Ca0.17 is that value rounded)"
-	srcPhlogo    = "Mg end-member of biotite (phlogopite); Fe-bearing biotite releases its Fe to Fe(III) oxide; Deer, Howie & Zussman 1992 (from memory); methods brief §16"
-	srcPlag      = "plagioclase of n % anorthite: Na(1−x)Ca(x)Al(1+x)Si(3−x)O8, x = n/100; methods brief §16"
+	srcDHZ       = "ideal end-member; Deer, Howie & Zussman 1992 (from memory); docs/methods.md §16"
+	srcSmectite  = "Ca-montmorillonite of Helgeson 1969 (Am. J. Sci. 267, from memory) with Ca 0.165 so that charge balances exactly (docs/methods.md §16 gives Ca0.17, that value rounded)"
+	srcPhlogo    = "Mg end-member of biotite (phlogopite); Fe-bearing biotite releases its Fe to Fe(III) oxide; Deer, Howie & Zussman 1992 (from memory); docs/methods.md §16"
+	srcPlag      = "plagioclase of n % anorthite: Na(1−x)Ca(x)Al(1+x)Si(3−x)O8, x = n/100; docs/methods.md §16"
 	srcEvaporite = "ideal formula; common practice"
 )
 
@@ -79,7 +79,7 @@ func init() {
 }
 
 // Plagioclase returns plagioclase of an % anorthite (0–100): Na(1−x)
-// Ca(x) Al(1+x) Si(3−x) O8 with x = an/100 (methods brief §16).
+// Ca(x) Al(1+x) Si(3−x) O8 with x = an/100 (docs/methods.md §16).
 func Plagioclase(an float64) (Mineral, error) {
 	if !(an >= 0 && an <= 100) {
 		return Mineral{}, fmt.Errorf("plagioclase An%s: the anorthite content must be 0 to 100 %%", Number(an))

@@ -7,7 +7,7 @@ import (
 )
 
 // TestCatalogueBalancesCharge: every built-in formula balances charge with
-// the oxidation states of its atoms (methods brief §16 asks that each
+// the oxidation states of its atoms (docs/methods.md §16 asks that each
 // built-in formula pass an atom and charge balance test), holds only
 // elements the balance follows, and is written as its formula reads.
 func TestCatalogueBalancesCharge(t *testing.T) {
@@ -81,7 +81,7 @@ func TestReactionsBalance(t *testing.T) {
 }
 
 // TestCO2PerMole checks the CO2 consumed per mole against the balanced
-// reactions of the methods brief §9.1: albite and K-feldspar 1 (2 per 2
+// reactions of the docs/methods.md §9.1: albite and K-feldspar 1 (2 per 2
 // mol), anorthite 2, forsterite 4, wollastonite 2, calcite 1, dolomite 2;
 // gypsum and halite 0; pyrite −4, whose acid is buffered by 4 calcite
 // (which consume 4) so that pyrite with calcite consumes none (§9.1, §9.3).
@@ -102,12 +102,12 @@ func TestCO2PerMole(t *testing.T) {
 	}
 }
 
-// TestReactionsAsPublished: the reactions of the methods brief §9.1, per
+// TestReactionsAsPublished: the reactions of the docs/methods.md §9.1, per
 // mole of mineral. Albite: 2 NaAlSi3O8 + 2 CO2 + 11 H2O → Al2Si2O5(OH)4 +
 // 2 Na⁺ + 2 HCO3⁻ + 4 H4SiO4; anorthite: CaAl2Si2O8 + 2 CO2 + 3 H2O →
 // Al2Si2O5(OH)4 + Ca²⁺ + 2 HCO3⁻; forsterite: Mg2SiO4 + 4 CO2 + 4 H2O →
 // 2 Mg²⁺ + 4 HCO3⁻ + H4SiO4; calcite: CaCO3 + CO2 + H2O → Ca²⁺ + 2 HCO3⁻;
-// pyrite with FeOOH in place of the brief's Fe(OH)3 (one H2O less).
+// pyrite with FeOOH in place of the Fe(OH)3 of docs/methods.md §9.1 (one H2O less).
 func TestReactionsAsPublished(t *testing.T) {
 	for _, c := range []struct{ key, want string }{
 		{"albite", "NaAlSi3O8 + CO2 + 5.5 H2O → Na⁺ + HCO3⁻ + 2 H4SiO4 + 0.5 Al2Si2O5(OH)4"},

@@ -57,7 +57,7 @@ func (m Mineral) Column() [NComponents]float64 {
 
 // CO2PerMole returns the CO2 one mole of the mineral consumes when it
 // weathers with carbonic acid: the bicarbonate it gives less its own
-// carbon (methods brief §9.1): 1 for albite, 2 for anorthite, 4 for
+// carbon (docs/methods.md §9.1): 1 for albite, 2 for anorthite, 4 for
 // forsterite, 1 for calcite, 2 for dolomite, 0 for gypsum and halite, and
 // −4 (released) for pyrite, whose acid turns bicarbonate back into CO2.
 func (m Mineral) CO2PerMole() float64 {

@@ -8,7 +8,7 @@
 //
 // # Inverse model
 //
-// The inverse model (Invert, or NewRun and Run.Step) follows science.md §7:
+// The inverse model (Invert, or NewRun and Run.Step) follows docs/methods.md §7:
 //
 //  1. End-members are user-defined (EndMember): a name, the Source their
 //     cations are booked to, and a Prior per ratio to Na and for 87Sr/86Sr

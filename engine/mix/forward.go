@@ -28,7 +28,7 @@ type SilicateRatios struct {
 // ForwardSilicate returns the default silicate end-member of the forward
 // model: the global silicate end-member of Gaillardet, Dupré, Louvat &
 // Allègre (1999), Chem. Geol. 159, 3-30: Ca/Na 0.35 ± 0.15, Mg/Na 0.24 ±
-// 0.12 (methods brief §6.2: central values confirmed through a secondary
+// 0.12 (docs/methods.md §6.2: central values confirmed through a secondary
 // reproduction; the ± values and their meaning are from memory and are used
 // here as 1σ). No K/Na default is given, so KNa is NaN.
 func ForwardSilicate() SilicateRatios {
@@ -113,7 +113,7 @@ var (
 
 // Forward apportions the major cations of one corrected sample by
 // sequential subtraction in the style of Galy & France-Lanord (1999), Chem.
-// Geol. 159, 31-60 (methods brief §6.1):
+// Geol. 159, 31-60 (docs/methods.md §6.1):
 //
 //	Na_sil  = Na* − Na_evap                      (c.Residual[Na])
 //	K_sil   = K*  (or Na_sil × (K/Na)_sil with KFromRatio)

@@ -8,7 +8,7 @@ import (
 	"lixiv/engine/mix"
 )
 
-// The mixed sample of the methods brief (§13 item 8): sea salt with Cl 30,
+// The mixed sample of docs/methods.md (§13 item 8): sea salt with Cl 30,
 // silicate weathering with Na 100, carbonate weathering with Ca 400 and
 // Mg 80, apportioned with the default silicate end-member.
 func ExampleForward() {

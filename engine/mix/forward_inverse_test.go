@@ -14,7 +14,7 @@ func TestForwardInverseAgree(t *testing.T) {
 	// forward model takes all Na* as silicate, so the carbonate end-member
 	// is given a Na content that tends to zero: Ca/Na 1e5, Mg/Na 2e4
 	// (Ca/Mg 5, as the carbonate part of the sample). The water is the
-	// corrected mixture of methods brief §13 item 8 (Na_sil 100, K_sil 20,
+	// corrected mixture of docs/methods.md §13 item 8 (Na_sil 100, K_sil 20,
 	// Ca_sil 35, Mg_sil 24, Ca_carb 400, Mg_carb 80) plus the 0.004 µmol/L
 	// of Na the carbonate end-member then carries; the two models must agree
 	// to 1e-4 of each measured cation (the size of that Na relative to Na).

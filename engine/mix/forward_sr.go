@@ -10,11 +10,11 @@ import (
 
 // ForwardSrNa returns the default silicate (Sr/Na)_sil: 1000 Sr/Na = 3 ± 1
 // for the global silicate end-member of Gaillardet et al. (1999), Chem.
-// Geol. 159, 3-30 (methods brief §6.2; ± from memory, used as 1σ).
+// Geol. 159, 3-30 (docs/methods.md §6.2; ± from memory, used as 1σ).
 func ForwardSrNa() SilicateRatio { return SilicateRatio{Value: 0.003, Sigma: 0.001} }
 
 // SrSplit is the strontium of one sample by source, µmol/L, from the
-// optional Sr step of the forward model (methods brief §6.1):
+// optional Sr step of the forward model (docs/methods.md §6.1):
 //
 //	Sr_sil  = Na_sil × (Sr/Na)_sil
 //	Sr_carb = Sr − Sr_atm − Sr_sil      (set to 0 with a warning if negative)
@@ -59,7 +59,7 @@ func ForwardSr(c *correct.Result, f *ForwardResult, srNa SilicateRatio) (SrSplit
 }
 
 // SrRatio returns the 87Sr/86Sr of a mixture, each source weighted by its
-// Sr: sum_j Sr_j R_j / sum_j Sr_j (methods brief §6.4; exact mixing weights
+// Sr: sum_j Sr_j R_j / sum_j Sr_j (docs/methods.md §6.4; exact mixing weights
 // by 86Sr, which differs by under 1e-5 for ratios between 0.708 and 0.720).
 // Sources with no Sr are ignored, so their ratio may be NaN. It returns NaN
 // when there is no Sr at all.

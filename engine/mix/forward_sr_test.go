@@ -9,7 +9,7 @@ import (
 )
 
 func TestSrRatio(t *testing.T) {
-	// Methods brief §13 item 13: 1 µmol/L Sr at 0.7200 + 3 µmol/L at 0.7080
+	// docs/methods.md §13 item 13: 1 µmol/L Sr at 0.7200 + 3 µmol/L at 0.7080
 	// -> 0.711000 (Sr-weighted), tolerance 1e-6.
 	tests := []struct {
 		name      string

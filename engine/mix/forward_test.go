@@ -44,7 +44,7 @@ func exact(ca, mg float64) *SilicateRatios {
 }
 
 func TestForwardMixedSample(t *testing.T) {
-	// Methods brief §13 item 8: Cl 30 of sea salt (Millero et al. 2008) +
+	// docs/methods.md §13 item 8: Cl 30 of sea salt (Millero et al. 2008) +
 	// Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24 + Ca_carb 400, Mg_carb 80;
 	// with (Ca/Na)_sil 0.35 and (Mg/Na)_sil 0.24 the parts are recovered to
 	// 1e-4.
@@ -91,7 +91,7 @@ func TestForwardMixedSample(t *testing.T) {
 }
 
 func TestForwardEndMemberWaters(t *testing.T) {
-	// Methods brief §13 items 6 and 7: water from calcite dissolution is all
+	// docs/methods.md §13 items 6 and 7: water from calcite dissolution is all
 	// carbonate; water from albite weathering to kaolinite is all silicate,
 	// and with the default (Ca/Na)_sil 0.35 (Gaillardet et al. 1999) its
 	// Ca_carb is clamped to 0 with a warning.

@@ -239,7 +239,7 @@ func TestKernelsMatchGeneralSolver(t *testing.T) {
 func TestFixedPriorsMatchForwardMixing(t *testing.T) {
 	// When the priors collapse to fixed ratios, the inverse model must give
 	// back the split of a water mixed forward from those end-members:
-	// X from end-member j = alpha_j Na (X/Na)_j (science.md §7.1).
+	// X from end-member j = alpha_j Na (X/Na)_j (docs/methods.md §7.1).
 	truth, _ := catchment()
 	for _, n := range []int{2, 3, 4} {
 		em := truth[4-n:]

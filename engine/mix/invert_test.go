@@ -9,10 +9,10 @@ import (
 	"lixiv/engine/chem"
 )
 
-// Science.md §13 item 15: end-members (Ca/Na, Mg/Na, HCO3/Na, 1000 Sr/Na,
+// docs/methods.md §13 item 15: end-members (Ca/Na, Mg/Na, HCO3/Na, 1000 Sr/Na,
 // 87Sr/86Sr) silicate (0.35, 0.24, 2, 3, 0.7200), carbonate (50, 10, 120, 50,
 // 0.7080), evaporite (0.17, 0.02, 0.3, 1.0, 0.7075) — illustrative test
-// values of the methods brief, not a recommendation.
+// values of docs/methods.md §13 item 15, not a recommendation.
 func item15EndMembers(spread float64) []EndMember {
 	mk := func(name string, src Source, ca, mg, hco3, sr1000, r float64) EndMember {
 		p := func(v float64) Prior {
@@ -61,7 +61,7 @@ func mixWater(name string, em []EndMember, alpha []float64, na float64) Water {
 
 func TestItem15MixtureValues(t *testing.T) {
 	w := mixWater("item 15", item15EndMembers(0), []float64{0.6, 0.1, 0.3}, 100)
-	// science.md §13 item 15: mixture ratios (5.261, 1.15, 13.29, 7.1) and
+	// docs/methods.md §13 item 15: mixture ratios (5.261, 1.15, 13.29, 7.1) and
 	// 87Sr/86Sr 0.7110211 (1000 Sr/Na for the fourth).
 	tests := []struct {
 		name      string
@@ -82,7 +82,7 @@ func TestItem15MixtureValues(t *testing.T) {
 }
 
 func TestInvertFixedEndMembersRecoverAlpha(t *testing.T) {
-	// science.md §13 item 15: noise-free data and fixed end-members return
+	// docs/methods.md §13 item 15: noise-free data and fixed end-members return
 	// alpha to 1e-6 with chi2 ≈ 0.
 	em := item15EndMembers(0)
 	want := []float64{0.6, 0.1, 0.3}
@@ -110,7 +110,7 @@ func TestInvertFixedEndMembersRecoverAlpha(t *testing.T) {
 }
 
 func TestInvertNarrowPriorsContainTruth(t *testing.T) {
-	// science.md §13 item 15: Monte Carlo with 1 % priors contains the true
+	// docs/methods.md §13 item 15: Monte Carlo with 1 % priors contains the true
 	// alphas inside its 95 % interval.
 	want := []float64{0.6, 0.1, 0.3}
 	w := mixWater("item 15", item15EndMembers(0), want, 100)

@@ -1,14 +1,14 @@
 package mix
 
 // Presets. Every value names its source; the flags "from memory" are those of
-// the methods brief (science.md §4.2, §6.2, §6.3) and must be verified
+// docs/methods.md (§4.2, §6.2, §6.3) and must be verified
 // against the cited tables before release. Prior widths not given by a source
 // are marked "assumption". Sr/Na is the plain molar ratio (the literature
 // often quotes 1000 Sr/Na).
 
 // PresetRain is rain taken as sea salt: ratios from the Reference
 // Composition of seawater, Millero, Feistel, Wright & McDougall (2008),
-// Deep-Sea Res. I 55, table of molalities (science.md §4.2, confirmed);
+// Deep-Sea Res. I 55, table of molalities (docs/methods.md §4.2, confirmed);
 // 87Sr/86Sr of seawater 0.709175 from McArthur, Howarth & Bailey (2001),
 // J. Geol. 109 (from memory). Widths of 5 % for the ratios are an
 // assumption that allows for non-marine dust; they are not from a source.
@@ -36,7 +36,7 @@ func PresetRain() EndMember {
 // are 1σ or a range are from memory; here they are read as a log-uniform
 // range). 87Sr/86Sr is "variable, fitted per river" in that source; the range
 // 0.705-0.750 spans young basalts to old granites (Faure 1986, from memory).
-// K/Na 0.05-0.5 is an assumption (no source in the methods brief).
+// K/Na 0.05-0.5 is an assumption (no source; docs/methods.md §6.2 gives none).
 func PresetSilicate() EndMember {
 	return EndMember{
 		Name:   "silicate (global)",
@@ -55,7 +55,7 @@ func PresetSilicate() EndMember {
 
 // PresetGranitic is a silicate end-member for granitic and gneissic
 // catchments: Ca/Na and Mg/Na of order 0.2-0.5 and 87Sr/86Sr from 0.710 to
-// above 0.75 (science.md §6.2, from memory; Faure 1986 for Sr). HCO3/Na,
+// above 0.75 (docs/methods.md §6.2, from memory; Faure 1986 for Sr). HCO3/Na,
 // Sr/Na and K/Na follow PresetSilicate (K/Na an assumption).
 func PresetGranitic() EndMember {
 	e := PresetSilicate()
@@ -68,11 +68,11 @@ func PresetGranitic() EndMember {
 }
 
 // PresetBasaltic is a silicate end-member for basaltic catchments: Ca/Na
-// and Mg/Na of order 1 or more and 87Sr/86Sr about 0.703-0.706 (science.md
+// and Mg/Na of order 1 or more and 87Sr/86Sr about 0.703-0.706 (docs/methods.md
 // §6.2, from memory; Faure 1986 for Sr). The upper bounds (3) and K/Na
 // 0.02-0.3 are assumptions. HCO3/Na follows from the cation charge of the
 // central ratios with Na and K counting once and Ca and Mg twice
-// (carbonic-acid weathering, science.md §9.2): about 1 + 0.1 + 2(1 + 1) = 5.
+// (carbonic-acid weathering, docs/methods.md §9.2): about 1 + 0.1 + 2(1 + 1) = 5.
 func PresetBasaltic() EndMember {
 	e := PresetSilicate()
 	e.Name = "silicate (basaltic)"
@@ -87,7 +87,7 @@ func PresetBasaltic() EndMember {
 
 // PresetCarbonate is the carbonate end-member of Gaillardet et al. (1999): Ca/Na
 // ≈ 50, Mg/Na ≈ 10-20, HCO3/Na ≈ 120, 1000 Sr/Na ≈ 30-60, 87Sr/86Sr ≈
-// 0.707-0.709 (all from memory, science.md §6.3). The Ca/Na and HCO3/Na
+// 0.707-0.709 (all from memory, docs/methods.md §6.3). The Ca/Na and HCO3/Na
 // ranges (a factor 2 either way) and K/Na 0.1-1 are assumptions.
 func PresetCarbonate() EndMember {
 	return EndMember{
@@ -107,9 +107,9 @@ func PresetCarbonate() EndMember {
 
 // PresetEvaporite is the evaporite end-member of Gaillardet et al. (1999): Ca/Na
 // ≈ 0.1-0.2, Mg/Na ≈ 0.02, HCO3/Na ≈ 0.3, 1000 Sr/Na ≈ 1, 87Sr/86Sr ≈
-// 0.707-0.709 (all from memory, science.md §6.3). Cl/Na = 1 is halite
-// stoichiometry (science.md §5.1); K/Na = 0 because evaporitic K is
-// neglected by default (science.md §5.2, common practice). Widths around
+// 0.707-0.709 (all from memory, docs/methods.md §6.3). Cl/Na = 1 is halite
+// stoichiometry (docs/methods.md §5.1); K/Na = 0 because evaporitic K is
+// neglected by default (docs/methods.md §5.2, common practice). Widths around
 // the single values are assumptions.
 func PresetEvaporite() EndMember {
 	return EndMember{

@@ -30,7 +30,7 @@ const z975 = 1.959963984540054
 
 // Prior is the prior distribution of one end-member ratio: a central value
 // and a range. Ratios are positive and span decades, so the random shapes
-// are logarithmic (science.md §7.2). The zero Prior is a fixed ratio of 0.
+// are logarithmic (docs/methods.md §7.2). The zero Prior is a fixed ratio of 0.
 type Prior struct {
 	Dist  Dist
 	Value float64 // central value: the fixed ratio, the log-normal median, the value the forward model uses

@@ -91,7 +91,7 @@ func TestPresetsValid(t *testing.T) {
 			}
 		})
 	}
-	// Sea-salt ratios: Millero et al. (2008) molalities, science.md §4.2
+	// Sea-salt ratios: Millero et al. (2008) molalities, docs/methods.md §4.2
 	// (Ca/Na 0.0219249, Mg/Na 0.112624, K/Na 0.0217663, Cl/Na 1.16398).
 	r := PresetRain()
 	for tr, want := range map[Tracer]float64{CaNa: 0.0219249, MgNa: 0.112624, KNa: 0.0217663, ClNa: 1.16398} {
@@ -99,7 +99,7 @@ func TestPresetsValid(t *testing.T) {
 			t.Errorf("rain %s got %g want %g", tr, got, want)
 		}
 	}
-	// Gaillardet et al. (1999) global silicate central values, science.md §6.2.
+	// Gaillardet et al. (1999) global silicate central values, docs/methods.md §6.2.
 	s := PresetSilicate()
 	for tr, want := range map[Tracer]float64{CaNa: 0.35, MgNa: 0.24, HCO3Na: 2, SrNa: 0.003} {
 		if got := s.Ratio[tr].Value; got != want {

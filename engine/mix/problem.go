@@ -29,7 +29,7 @@ type Problem struct {
 // Scoring chooses how draws are judged against the data.
 type Scoring int
 
-// The scorings (science.md §7.3 step 4).
+// The scorings (docs/methods.md §7.3 step 4).
 const (
 	// Accept keeps a draw when its chi-square misfit is within the 95 %
 	// quantile of the chi-square distribution with nu = tracers + 1 -
@@ -44,14 +44,14 @@ const (
 
 // Options tune an inversion. The zero value means the documented defaults.
 type Options struct {
-	Draws       int                    // number of Monte Carlo draws; 0 means 10,000 (science.md §7.3)
+	Draws       int                    // number of Monte Carlo draws; 0 means 10,000 (docs/methods.md §7.3)
 	Seed        uint64                 // seed of the PCG generator; stored with the budget
 	Scoring     Scoring                // Accept (default) or Weight
-	RelErr      [chem.NSpecies]float64 // analytical 1σ relative error by species; 0 means 0.03 (science.md §8.6, common practice)
+	RelErr      [chem.NSpecies]float64 // analytical 1σ relative error by species; 0 means 0.03 (docs/methods.md §8.6, common practice)
 	FloorErr    float64                // smallest 1σ of a concentration, µmol/L; 0 means 0.01 (assumption)
-	IsoErr      float64                // analytical 1σ of 87Sr/86Sr; 0 means 2e-5 (science.md §8.6, common practice)
+	IsoErr      float64                // analytical 1σ of 87Sr/86Sr; 0 means 2e-5 (docs/methods.md §8.6, common practice)
 	MinAccepted int                    // fewer kept draws than this give FewAccepted; 0 means min(100, Draws/10)
-	Perturb     bool                   // also draw the measured ratios from their analytical errors, per sample and draw (science.md §7.3 step 1)
+	Perturb     bool                   // also draw the measured ratios from their analytical errors, per sample and draw (docs/methods.md §7.3 step 1)
 	Workers     int                    // goroutines for Invert; 0 means GOMAXPROCS
 	Progress    func(done, total int)  // called with sample-draws done so far; never concurrently
 	// Vary, when set, gives the concentrations of water s under draw d
@@ -253,14 +253,14 @@ func (p *Problem) prepare(w *Water, o *Options) prep {
 		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has %d independent of %d equations for %d end-members; results follow the priors",
 			ErrUnderdetermined, w.Name, rank, pr.m+1, n))
 	} else if cond > 1e3 {
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q, condition number %.3g > 1e3 (science.md §7.4)", ErrIllConditioned, w.Name, cond))
+		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q, condition number %.3g > 1e3 (docs/methods.md §7.4)", ErrIllConditioned, w.Name, cond))
 	}
 	return pr
 }
 
 // identifiable returns the rank and condition number of the mixing matrix
 // [E; 1] at the central end-member values, each row scaled to unit maximum
-// (science.md §7.4).
+// (docs/methods.md §7.4).
 func (p *Problem) identifiable(pr *prep) (rank int, cond float64) {
 	n := len(p.EndMembers)
 	a := mat.NewDense(pr.m+1, n, nil)

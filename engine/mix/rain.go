@@ -11,7 +11,7 @@ import (
 const rainStream = 0x7261696e2d756e63 // "rain-unc"
 
 // RainScales draws the multipliers of the atmospheric correction's inputs
-// for draws Monte Carlo draws (methods brief §8.6: rain ratios and the ET
+// for draws Monte Carlo draws (docs/methods.md §8.6: rain ratios and the ET
 // factor ± a user value). Each X/Cl ratio of correct.Corrected() gets its
 // own multiplier exp(u.Ratios z), and Cl* the multiplier exp(u.Factor z)
 // when scaleCl is set (Cl* from measured rain), else 1: log-normal with

@@ -272,7 +272,7 @@ func (r *Run) span(sr *SampleResult, pr *prep, from, to int, bound float64) {
 // perDraw works draws [from, to) of sample s, each against data of its
 // own: the concentrations Options.Vary gives for the draw (a draw it drops,
 // or whose data lose Na or a tracer the sample has, is not kept), and with
-// Options.Perturb the measured ratios drawn from N(d, σ²) (science.md §7.3
+// Options.Perturb the measured ratios drawn from N(d, σ²) (docs/methods.md §7.3
 // step 1). The normal deviates come from a PCG stream of the sample's own,
 // m per draw in row order, so chunking does not change them.
 func (r *Run) perDraw(s, from, to int, bound float64) {

@@ -22,7 +22,7 @@ const MaxEndMembers = 6
 // minima, chosen by the fixed enumeration order. Each face is solved in
 // closed form after eliminating the closure: with r the last index of the
 // face, a = e_r + P y, and the reduced system (Pᵀ G P) y = Pᵀ(g - G e_r)
-// is factorised by Cholesky (science.md §7.3 step 2).
+// is factorised by Cholesky (docs/methods.md §7.3 step 2).
 //
 // The result is written to a (entries beyond n are zeroed); ok is false
 // only if no face could be solved (G not finite).

@@ -83,7 +83,7 @@ func TestAwkwardFilesThroughTheCell(t *testing.T) {
 func TestMissingIonsLeaveSamplesOut(t *testing.T) {
 	// Na 100, K 10, Ca 200, Mg 50, Cl 50, SO4 40, NO3 10 µmol/L and 450
 	// µeq/L of alkalinity give TZ+ 610, TZ− 590 µeq/L and NICB +3.2787 %
-	// (methods brief §13.4: NICB = (TZ+ − TZ−)/TZ+); 520 µeq/L gives
+	// (docs/methods.md §13 item 4: NICB = (TZ+ − TZ−)/TZ+); 520 µeq/L gives
 	// −8.20 % (flagged at 5 %) and 900 gives −70.49 % (left out at 10 %).
 	text := "Sample,Date,Na (umol/L),K (umol/L),Ca (umol/L),Mg (umol/L),Cl (umol/L),SO4 (umol/L),NO3 (umol/L),HCO3 (umol/L)\n" +
 		"S1,2024-03-05,100,10,200,50,50,40,10,450\n" +

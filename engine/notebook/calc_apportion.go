@@ -1,11 +1,13 @@
 package notebook
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
 	"runtime"
 	"strings"
+	"sync"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
@@ -24,9 +26,25 @@ type Apportioned struct {
 	Q         []float64 // discharge at sampling, m³/s (NaN: take the day's mean)
 	Corrected []correct.Result
 	Median    []mix.Split // µmol/L of each cation from each source, cell by cell
-	Lo, Hi    []mix.Split // 2.5 % and 97.5 % quantiles
-	Draws     int         // draw numbers run; Draw(i, d) for d < Draws
-	Model     string      // "inverse" or "forward"
+	// Mean is the weighted mean of each sample's kept draws: unlike the
+	// cell-by-cell medians, its sources add up to what was measured, as
+	// every draw's do, so it is the point value of apportioned fluxes.
+	Mean    []mix.Split
+	Lo, Hi  []mix.Split // 2.5 % and 97.5 % quantiles
+	Draws   int         // draw numbers run; Draw(i, d) for d < Draws
+	Model   string      // "inverse" or "forward"
+	Sulfate string      // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
+
+	// doubtful gives the reasons the apportionment is doubtful (Output.Doubtful).
+	doubtful []string
+	// kept lists, per sample, the draw numbers with a positive weight.
+	kept [][]int32
+	// kw holds the weights of the kept draws (keptWeights).
+	kw     [][]float64
+	kwOnce sync.Once
+	// redo apportions the samples again with another sulfate origin
+	// (Under).
+	redo func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error)
 
 	// scales holds each draw's multipliers of the rain correction's
 	// inputs; nil when the correction is exact (no rain uncertainty).
@@ -53,6 +71,102 @@ func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
 	s, _, ok := a.drawAt(i, d)
 	w := a.weights[i][d]
 	return s, w, ok && w > 0
+}
+
+// Kept returns the number of draws of sample i with a positive weight.
+func (a *Apportioned) Kept(i int) int { return len(a.kept[i]) }
+
+// KeptDraw returns the k-th kept draw of sample i (k < Kept(i)): its draw
+// number, split and weight.
+func (a *Apportioned) KeptDraw(i, k int) (d int, split mix.Split, weight float64) {
+	d = int(a.kept[i][k])
+	split, weight, _ = a.Draw(i, d)
+	return d, split, weight
+}
+
+// keptSplit is KeptDraw without a copy where the splits are stored: the
+// split is a.splits' own, or else worked out into buf.
+func (a *Apportioned) keptSplit(i, k int, buf *mix.Split) (d int, split *mix.Split, weight float64) {
+	d = int(a.kept[i][k])
+	if a.splits != nil {
+		return d, &a.splits[i][d], a.weights[i][d]
+	}
+	*buf, weight, _ = a.Draw(i, d)
+	return d, buf, weight
+}
+
+// keptWeights returns the weights of each sample's kept draws, one slice
+// for every caller (flux.Cache shares the draws taken among the quantities
+// built on it).
+func (a *Apportioned) keptWeights() [][]float64 {
+	a.kwOnce.Do(func() {
+		a.kw = make([][]float64, len(a.kept))
+		for i, ks := range a.kept {
+			if len(ks) == 0 {
+				continue
+			}
+			a.kw[i] = make([]float64, len(ks))
+			for k, d := range ks {
+				a.kw[i][k] = a.weights[i][d]
+			}
+		}
+	})
+	return a.kw
+}
+
+// Usable reports whether sample i has a usable apportionment: at least
+// one kept draw.
+func (a *Apportioned) Usable(i int) bool { return len(a.kept[i]) > 0 }
+
+// Unusable counts the samples without a usable apportionment.
+func (a *Apportioned) Unusable() int {
+	n := 0
+	for i := range a.kept {
+		if !a.Usable(i) {
+			n++
+		}
+	}
+	return n
+}
+
+// Under returns the samples apportioned again with the sulfate above the
+// rain share from another origin ("gypsum" or "sulfide"), every other
+// setting unchanged, for the CO2 cell's sulfate bracket (docs/methods.md §5.2).
+func (a *Apportioned) Under(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
+	if a.redo == nil {
+		return nil, fmt.Errorf("this apportionment cannot be repeated with another sulfate origin")
+	}
+	return a.redo(ctx, sulfate, report)
+}
+
+// SulfateAboveRain reports whether any sample has sulfate above its rain
+// share (SO4* > 0), the only case in which the sulfate origin changes the
+// apportionment.
+func (a *Apportioned) SulfateAboveRain() bool {
+	for i := range a.Corrected {
+		if a.Corrected[i].SO4Star > 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// howMany says how many of the samples of an inversion did not succeed:
+// "all 12 samples", or "3 of 12 samples".
+func howMany(samples []mix.SampleResult) string {
+	bad := 0
+	for i := range samples {
+		if samples[i].Status != mix.Success {
+			bad++
+		}
+	}
+	if bad == len(samples) {
+		if bad == 1 {
+			return "the only sample"
+		}
+		return fmt.Sprintf("all %d samples", bad)
+	}
+	return fmt.Sprintf("%d of %d samples", bad, len(samples))
 }
 
 // Weights returns the weight of each draw of sample i (0 for a draw not
@@ -152,7 +266,7 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 }
 
 func computeApportionment(e *Env) (*Output, error) {
-	s := e.Cell.Settings.(*ApportionmentSettings)
+	s := *e.Cell.Settings.(*ApportionmentSettings)
 	ai, err := e.Input("atmosphere")
 	if err != nil {
 		return nil, err
@@ -163,13 +277,34 @@ func computeApportionment(e *Env) (*Output, error) {
 	}
 	atm := ai.Value.(*Atmosphere)
 	ems := si.Value.([]mix.EndMember)
+	workers := e.Workers()
+	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true)
+	if err != nil {
+		return out, err // out, when not nil, says which samples it could not take
+	}
+	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
+		o := s
+		o.Sulfate = sulfate
+		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false)
+		return b, err
+	}
+	return out, nil
+}
+
+// apportion corrects every sample and splits its cations among the
+// sources with the settings s, reporting progress; computeApportionment
+// runs it for the cell, and Apportioned.Under again with another sulfate
+// origin. Without summary it leaves out what only the cell shows (the
+// per-sample quantiles Median, Lo and Hi, and the tables): the draws,
+// their weights and each sample's mean split are all fluxes need.
+func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary bool) (*Apportioned, *Output, error) {
 	opt := atm.Options
 	switch s.Sulfate {
 	case "sulfide":
 		opt.Sulfate = correct.Sulfide
 	case "isotope":
 		if s.D34SEvaporite == s.D34SSulfide {
-			return nil, fmt.Errorf("d34s_evaporite_permil and d34s_sulfide_permil must differ")
+			return nil, nil, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
 		}
 		opt.Sulfate = correct.Isotope
 		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
@@ -196,7 +331,7 @@ func computeApportionment(e *Env) (*Output, error) {
 			continue
 		}
 		if err != nil {
-			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
+			return nil, nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
 		for _, w := range r.Warnings {
 			warn[w.Error()]++
@@ -209,15 +344,15 @@ func computeApportionment(e *Env) (*Output, error) {
 	}
 	n := len(a.Index)
 	if n == 0 {
-		return out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
 	}
 	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
 	if err := atm.Uncertainty.Check(); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	if !atm.Uncertainty.Zero() {
 		// The rain ratios (and the ET factor) are drawn once per draw and
@@ -229,8 +364,8 @@ func computeApportionment(e *Env) (*Output, error) {
 		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
 		a.forward = make([][]mix.Split, n)
 		for i := range a.Corrected {
-			if err := e.Ctx.Err(); err != nil {
-				return nil, err
+			if err := ctx.Err(); err != nil {
+				return nil, nil, err
 			}
 			if a.scales != nil {
 				fo.Vary = func(k int) (v correct.Result) {
@@ -240,21 +375,21 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 			fr, err := mix.Forward(&a.Corrected[i], fo)
 			if err != nil {
-				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
+				return nil, nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			for _, w := range fr.Warnings {
 				warn[w.Error()]++
 			}
 			a.forward[i] = fr.Draws
 			status[i], kept[i] = "success", 1
-			e.Report(i+1, n)
+			report(i+1, n)
 		}
 	case "inverse":
 		var tracers []mix.Tracer
 		for _, t := range s.Tracers {
 			tr, err := mix.ParseTracer(t)
 			if err != nil {
-				return nil, fmt.Errorf("tracers: %v", err)
+				return nil, nil, settingErr("tracers", "%v", err)
 			}
 			tracers = append(tracers, tr)
 		}
@@ -263,7 +398,7 @@ func computeApportionment(e *Env) (*Output, error) {
 			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
 				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
 		}
-		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: e.Workers()}
+		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: workers}
 		if a.scales != nil {
 			mo.Vary = func(i, d int) (c chem.Composition, ok bool) {
 				rejected := a.Corrected[i].VaryResidual(&a.scales[d], &c)
@@ -271,27 +406,28 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 		}
 		var res *mix.Result
-		if e.Workers() == 1 || runtime.GOOS == "js" {
+		if workers == 1 || runtime.GOOS == "js" {
 			// One goroutine, in chunks: the progress callback runs between
 			// chunks, so a page can yield to the browser there. The chunk
 			// size does not change the result.
 			run, err := mix.NewRun(p, mo)
 			if err != nil {
-				return nil, err
+				return nil, nil, err
 			}
-			for !run.Step(e.Ctx, ChunkDraws) {
-				e.Report(int(run.Progress()*float64(run.Total())), run.Total())
+			for !run.Step(ctx, ChunkDraws) {
+				report(int(run.Progress()*float64(run.Total())), run.Total())
 			}
-			e.Report(run.Total(), run.Total())
+			report(run.Total(), run.Total())
 			res = run.Result()
 		} else {
-			mo.Progress = func(done, total int) { e.Report(done, total) }
-			if res, err = mix.Invert(e.Ctx, p, mo); err != nil {
-				return nil, err
+			mo.Progress = func(done, total int) { report(done, total) }
+			var err error
+			if res, err = mix.Invert(ctx, p, mo); err != nil {
+				return nil, nil, err
 			}
 		}
-		if err := e.Ctx.Err(); err != nil {
-			return nil, err
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
 		}
 		a.inverse = res
 		for i := range res.Samples {
@@ -302,28 +438,30 @@ func computeApportionment(e *Env) (*Output, error) {
 			}
 		}
 		if res.Status != mix.Success {
-			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for some samples (see the status column)")
+			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for "+howMany(res.Samples)+" (see the status column)")
 		}
 	}
 	// Medians and bounds, cell by cell, from the draws, one sample at a
 	// time: only that sample's draws are expanded.
-	a.Median, a.Lo, a.Hi = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
+	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	vals, ws := make([]float64, 0, s.Draws), make([]float64, 0, s.Draws)
 	var draws []mix.Split
 	var qb quantileBuf
 	a.weights = make([][]float64, n)
+	a.kept = make([][]int32, n)
 	if expandSplits && n*a.Draws <= expandLimit {
 		a.splits = make([][]mix.Split, n)
 	}
 	for i := 0; i < n; i++ {
-		if err := e.Ctx.Err(); err != nil {
-			return nil, err
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
 		}
 		if a.inverse != nil { // the draws are done; keep reporting while they are summarised
-			e.Report(a.inverse.Draws*n, a.inverse.Draws*n)
+			report(a.inverse.Draws*n, a.inverse.Draws*n)
 		}
 		draws, ws = draws[:0], ws[:0]
 		a.weights[i] = make([]float64, a.Draws)
+		a.kept[i] = nil
 		if a.splits != nil {
 			a.splits[i] = make([]mix.Split, a.Draws)
 		}
@@ -334,6 +472,9 @@ func computeApportionment(e *Env) (*Output, error) {
 				draws = append(draws, sp)
 				ws = append(ws, w)
 				a.weights[i][d] = w
+				if w > 0 {
+					a.kept[i] = append(a.kept[i], int32(d))
+				}
 				if a.splits != nil {
 					a.splits[i][d] = sp
 				}
@@ -344,12 +485,16 @@ func computeApportionment(e *Env) (*Output, error) {
 				draws = append(draws, sp)
 				ws = append(ws, w)
 				a.weights[i][d] = w
+				if w > 0 {
+					a.kept[i] = append(a.kept[i], int32(d))
+				}
 				if a.splits != nil {
 					a.splits[i][d] = sp
 				}
 			}
 		}
-		for src := mix.Source(0); src < mix.NSources; src++ {
+		a.Mean[i] = meanSplit(draws, ws)
+		for src := mix.Source(0); src < mix.NSources && summary; src++ {
 			for k := 0; k < mix.NCations; k++ {
 				vals = vals[:0]
 				for _, sp := range draws {
@@ -364,7 +509,9 @@ func computeApportionment(e *Env) (*Output, error) {
 		a.inverse, a.forward = nil, nil // everything is in splits now
 	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
-	out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+	if summary {
+		out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+	}
 	fit := 0
 	for _, st := range status {
 		if st == "success" {
@@ -372,8 +519,46 @@ func computeApportionment(e *Env) (*Output, error) {
 		}
 	}
 	out.Figures = append(out.Figures, Point("samples apportioned", "", float64(fit)), Point("samples without a good fit", "", float64(n-fit)))
+	a.Sulfate = s.Sulfate
+	// Doubtful when no sample, or fewer than three in four, could be
+	// apportioned (a quarter: an engineering choice, no source).
+	if bad := a.Unusable(); bad == n && n > 0 {
+		a.doubtful = []string{"no sample has a usable apportionment (" + countOf(bad, n, "samples") + " failed)"}
+	} else if 4*bad > n {
+		a.doubtful = []string{fmt.Sprintf("%s have no usable apportionment (more than a quarter)", countOf(bad, n, "samples"))}
+	}
+	out.Doubtful = a.doubtful
 	out.Value = a
-	return out, nil
+	return a, out, nil
+}
+
+// meanSplit returns the weighted mean of the splits with positive weight
+// (NaN throughout when there is none).
+func meanSplit(draws []mix.Split, ws []float64) mix.Split {
+	var m mix.Split
+	t := 0.0
+	for d := range draws {
+		w := ws[d]
+		if !(w > 0) {
+			continue
+		}
+		t += w
+		for src := range m {
+			for k := range m[src] {
+				m[src][k] += w * draws[d][src][k]
+			}
+		}
+	}
+	for src := range m {
+		for k := range m[src] {
+			if t > 0 {
+				m[src][k] /= t
+			} else {
+				m[src][k] = math.NaN()
+			}
+		}
+	}
+	return m
 }
 
 func (a *Apportioned) dates() []string {

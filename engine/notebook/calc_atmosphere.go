@@ -34,7 +34,7 @@ var rainSpecies = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, che
 
 // rainVWM reads a rain table: one row per event or period with an optional
 // "precipitation" column (mm) and concentrations in µmol/L; the result is the
-// volume-weighted mean (methods brief §1.3).
+// volume-weighted mean (docs/methods.md §1.3).
 func rainVWM(t *Table) (chem.Composition, error) {
 	c := chem.NewComposition()
 	if t == nil || len(t.Rows) == 0 {
@@ -203,7 +203,7 @@ func computeAtmosphere(e *Env) (*Output, error) {
 // Na_atm/Na_riv, is above 1 in some samples, or "". The share is kept as
 // computed, not capped: a share above 1 means the rain correction (Cl_atm ×
 // (Na/Cl)_rain) takes more Na than the river carries, the Na deficit of the
-// methods brief §5.1 (cation exchange, or Cl that is not from rain, such as
+// docs/methods.md §5.1 (cation exchange, or Cl that is not from rain, such as
 // road salt or sewage; common practice), and Na* is set to 0 with its own
 // warning.
 //

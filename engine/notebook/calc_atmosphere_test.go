@@ -101,7 +101,7 @@ func TestRatioTableBlank(t *testing.T) {
 // kept and warned about, never capped.
 func TestRainExcessWarning(t *testing.T) {
 	// A water with Cl above Na/0.85912 (sea-salt Na/Cl, Millero et al. 2008,
-	// Table 4 as in science.md §4.2): Na 80, Cl 100 µmol/L gives Na_atm
+	// Table 4 as in docs/methods.md §4.2): Na 80, Cl 100 µmol/L gives Na_atm
 	// 85.912, a share of 1.0739.
 	c := chem.NewComposition()
 	c[chem.Na], c[chem.Cl] = 80, 100

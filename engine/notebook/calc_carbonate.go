@@ -24,8 +24,8 @@ type CarbonateSettings struct {
 // defaultCarbonateSettings: Davies activities (valid to I ≈ 0.5 mol/L,
 // which covers fresh water); SI of calcite flagged above 0.5, the lower
 // end of the 0.5–1 at which streams are held to precipitate calcite
-// (methods brief §12, common practice); the air at 420 µatm (NOAA global
-// mean for 2024, from memory; methods brief §10.3), which the user sets
+// (docs/methods.md §12, common practice); the air at 420 µatm (NOAA global
+// mean for 2024, from memory; docs/methods.md §10.3), which the user sets
 // for the sampling years; pCO2 flagged above ten times the air's (common
 // practice, no source).
 func defaultCarbonateSettings() *CarbonateSettings {
@@ -76,7 +76,7 @@ func (c *CarbonateSystem) supersaturated(i int) bool {
 func init() { Register(KindCarbonate, computeCarbonate) }
 
 // computeCarbonate speciates the carbonate system of every sample the
-// budget uses that has pH, temperature and alkalinity (methods brief §10),
+// budget uses that has pH, temperature and alkalinity (docs/methods.md §10),
 // and flags calcite supersaturation and CO2 far above the air's. A sample
 // lacking pH, temperature or alkalinity is named and left out of this cell
 // only. A cell with no sample to compute says so in a warning rather than
@@ -86,7 +86,7 @@ func computeCarbonate(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*CarbonateSettings)
 	model, err := carbonate.ParseModel(s.ActivityModel)
 	if err != nil {
-		return nil, fmt.Errorf("activity_model: %v", err)
+		return nil, settingErr("activity_model", "%v", err)
 	}
 	si, err := e.Input("samples")
 	if err != nil {
@@ -217,7 +217,7 @@ func computeCarbonate(e *Env) (*Output, error) {
 	}
 	if above > 0 {
 		out.Warnings = append(out.Warnings, fmt.Sprintf("%s of %d with SI of calcite above %g: calcite may precipitate in the channel, removing Ca and alkalinity, "+
-			"which biases carbonate weathering and its CO2 consumption low (methods brief §12)", plural(above, "sample"), n, s.SIFlag))
+			"which biases carbonate weathering and its CO2 consumption low (docs/methods.md §12)", plural(above, "sample"), n, s.SIFlag))
 	}
 	if high > 0 {
 		out.Warnings = append(out.Warnings, fmt.Sprintf("%s of %d with pCO2 above %g × the air's (%g µatm): the water is degassing CO2",
@@ -330,7 +330,7 @@ func supersaturationCaution(v *Fluxes, co *Output) string {
 		return ""
 	}
 	return fmt.Sprintf("samples carrying %.0f %% of the sampled Ca load (discharge × Ca) have SI of calcite above %g (carbonate cell): "+
-		"calcite may precipitate in the channel, so the carbonate fluxes and the CO2 consumption of carbonate weathering may be biased low (methods brief §12)",
+		"calcite may precipitate in the channel, so the carbonate fluxes and the CO2 consumption of carbonate weathering may be biased low (docs/methods.md §12)",
 		100*share, c.Settings.SIFlag)
 }
 

@@ -39,7 +39,7 @@ func carbonateDoc(t *testing.T, rows [][]string) *Document {
 // supersaturation and high pCO2 are flagged.
 func TestCarbonateCell(t *testing.T) {
 	d := carbonateDoc(t, [][]string{
-		// The water of methods brief §13 item 13 (Ca 1 mmol/L, Alk 2 meq/L,
+		// The water of docs/methods.md §13 item 13 (Ca 1 mmol/L, Alk 2 meq/L,
 		// pH 8.00, 25 °C) with its charge balanced by Na and Cl.
 		{"A", "2021-05-01", "8.00", "25", "100", "10", "1000", "50", "200", "10", "2000"},
 		{"noPH", "2021-05-02", "", "12", "100", "10", "200", "50", "50", "40", "450"},

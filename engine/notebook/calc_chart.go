@@ -36,14 +36,14 @@ func computeChart(e *Env) (*Output, error) {
 	}
 	x, err := e.doc.ColumnRef(s.X)
 	if err != nil {
-		return nil, fmt.Errorf("x: %v", err)
+		return nil, settingErr("x", "%v", err)
 	}
 	y, err := e.doc.ColumnRef(s.Y)
 	if err != nil {
-		return nil, fmt.Errorf("y: %v", err)
+		return nil, settingErr("y", "%v", err)
 	}
 	if y.Num == nil {
-		return nil, fmt.Errorf("y: column %s holds text, not numbers", s.Y)
+		return nil, settingErr("y", "column %s holds text, not numbers", s.Y)
 	}
 	if x.Len() != y.Len() {
 		return nil, fmt.Errorf("x has %d values and y %d; choose columns of the same table or of tables with one row per sample", x.Len(), y.Len())

@@ -11,7 +11,7 @@ import (
 )
 
 func TestCO2PairLongTerm(t *testing.T) {
-	// Silicate Na 100, K 0, Ca 35, Mg 24 (the methods brief §13 item 8
+	// Silicate Na 100, K 0, Ca 35, Mg 24 (the docs/methods.md §13 item 8
 	// silicate part) and carbonate Ca 400, Mg 80. Long term the silicate
 	// figure is the conventional sink (Ca+Mg)_sil = 59 under carbonic acid
 	// (§9.2); with sulfide-derived sulfate the Ca+Mg share of S_sil comes
@@ -58,7 +58,7 @@ func TestCO2PairLongTerm(t *testing.T) {
 	if got := otherLongSil(&s, 117.8, &co2.Options{}, "alkalinity"); math.Abs(got-47.2) > 1e-9 {
 		t.Errorf("conventional long-term silicate beside the alkalinity-based one %g, want 47.2", got)
 	}
-	// Methods brief §13 item 7, pure albite-to-kaolinite water (Na_sil 100,
+	// docs/methods.md §13 item 7, pure albite-to-kaolinite water (Na_sil 100,
 	// no Ca, Mg): conventional long-term sink 0, alkalinity-based 50.
 	var ab mix.Split
 	ab[mix.Silicate] = [mix.NCations]float64{100, 0, 0, 0}
@@ -111,7 +111,7 @@ func TestLongTermConventionSetting(t *testing.T) {
 }
 
 func TestImplausibleSilicate(t *testing.T) {
-	// Methods brief §9.4: silicate CO2 consumption in single catchments spans
+	// docs/methods.md §9.4: silicate CO2 consumption in single catchments spans
 	// about 1e3 to 1e6 mol/km²/yr (from memory); above about 5e6 it is
 	// flagged for review (common practice, no source).
 	tests := []struct {

@@ -16,14 +16,17 @@ type Flow struct {
 
 func init() { Register(KindDischarge, computeDischarge) }
 
+// RecordRunoffFigure names the discharge cell's runoff: that of every day
+// of the record with discharge, scaled to a year of 365.25 days. The
+// fluxes cell's (RunoffFigure) covers the complete years of the budget
+// period only.
+const RecordRunoffFigure = "runoff of the whole record"
+
 var dischargeOrders = map[string]discharge.DateOrder{"auto": discharge.AutoOrder, "day-first": discharge.DayFirst, "month-first": discharge.MonthFirst}
 
 func computeDischarge(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*DischargeSettings)
 	t := e.Cell.Table
-	if t == nil || len(t.Columns) == 0 {
-		return nil, fmt.Errorf("the discharge table is empty: paste or open a daily discharge record")
-	}
 	var site *Site
 	if o, err := e.Input("site"); err != nil {
 		return nil, err
@@ -32,7 +35,7 @@ func computeDischarge(e *Env) (*Output, error) {
 	}
 	unit, err := discharge.ParseUnit(s.Unit)
 	if err != nil {
-		return nil, fmt.Errorf("unit: %v", err)
+		return nil, settingErr("unit", "%v", err)
 	}
 	// Messages name the file the table was read from in this session, and
 	// its lines, when there is one; else the cell and the table's lines.
@@ -45,6 +48,7 @@ func computeDischarge(e *Env) (*Output, error) {
 	out := &Output{Messages: append(pl.fromDischarge(im.Problems), pl.fromDischarge(im.Notices)...)}
 	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
 	sortMessages(out.Messages)
+	out.Reading = dischargeReading(t, im)
 	rec := im.Record
 	if rec == nil || rec.Len() == 0 {
 		return out, fmt.Errorf("no discharge could be read: %v", out.Messages.Err())
@@ -59,7 +63,7 @@ func computeDischarge(e *Env) (*Output, error) {
 			out.Warnings = append(out.Warnings, "gap left open: "+g.String())
 		}
 	} else if m := rec.Missing(); m > 0 {
-		out.Warnings = append(out.Warnings, fmt.Sprintf("%d days without discharge are left as gaps (set gap_fill_days to fill short ones)", m))
+		out.Warnings = append(out.Warnings, fmt.Sprintf("%d days without discharge are left as gaps (set %q to fill short ones)", m, SettingLabel("gap_fill_days")))
 	}
 	days := make([]string, rec.Len())
 	for i, d := range rec.Days {
@@ -85,9 +89,11 @@ func computeDischarge(e *Env) (*Output, error) {
 		mm, n := rec.Runoff(rec.First(), rec.Last(), site.AreaKm2)
 		if n > 0 {
 			r := mm / float64(n) * 365.25
-			out.Figures = append(out.Figures, Point("runoff", "mm/yr", r))
-			// Water balance: |P − ET − R| / P above 20 % is flagged (methods
-			// brief §1.3; common practice, no source).
+			f := Point(RecordRunoffFigure, "mm/yr", r)
+			f.Note = "from the record: every day with a value; no discharge or area errors"
+			out.Figures = append(out.Figures, f)
+			// Water balance: |P − ET − R| / P above 20 % is flagged (docs/methods.md
+			// §1.3; common practice, no source).
 			if site.P > 0 && site.ET > 0 {
 				if gap := math.Abs(site.P-site.ET-r) / site.P; gap > 0.2 {
 					out.Warnings = append(out.Warnings, fmt.Sprintf("water balance: P − ET = %.0f mm/yr but the record gives %.0f mm/yr of runoff (%.0f %% of P apart); check the area, P and ET", site.P-site.ET, r, 100*gap))

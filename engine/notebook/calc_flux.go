@@ -1,7 +1,6 @@
 package notebook
 
 import (
-	"context"
 	"fmt"
 	"math"
 	"strings"
@@ -11,32 +10,6 @@ import (
 	"lixiv/engine/flux"
 	"lixiv/engine/mix"
 )
-
-// Fluxes is the value a fluxes cell hands on: what another cell needs to
-// flux a series of its own the same way (the CO2 cell does).
-type Fluxes struct {
-	Record    *discharge.Record // the record over the budget period
-	Site      *Site
-	Options   flux.Options
-	Bootstrap flux.BootstrapOptions
-	// SeriesReplicates is the number of bootstrap replicates for the
-	// series other than the cation sums (0: point values only).
-	SeriesReplicates int
-	App              *Apportioned
-	// tick reports progress while a long series is built (Bootstrap.Tick
-	// while it is bootstrapped); set only while a cell computes with it.
-	tick func()
-}
-
-// ticking returns a copy of v whose long loops call tick and whose
-// bootstraps stop when ctx is cancelled: the context and progress of the
-// cell computing with it (a cell below reuses the value of a fluxes cell
-// computed in an earlier run).
-func (v *Fluxes) ticking(ctx context.Context, tick func()) *Fluxes {
-	w := *v
-	w.tick, w.Bootstrap.Tick, w.Bootstrap.Context = tick, tick, ctx
-	return &w
-}
 
 func init() { Register(KindFluxes, computeFluxes) }
 
@@ -52,6 +25,9 @@ func estimatorName(m flux.Method) string {
 	}
 	return m.String()
 }
+
+// allMethods lists the estimators in the order of the side-by-side tables.
+var allMethods = []flux.Method{flux.Rating, flux.FlowWeighted, flux.PeriodWeighted, flux.Beale}
 
 var biases = map[string]flux.Bias{"smearing": flux.Duan, "ferguson": flux.Ferguson, "none": flux.NoBias}
 
@@ -72,118 +48,6 @@ func period(rec *discharge.Record, site *Site) (*discharge.Record, error) {
 		return rec, nil
 	}
 	return discharge.NewRecord(rec.Name, rec.Days[a], rec.Q[a:b+1]), nil
-}
-
-// series builds a flux series from a per-sample quantity f of each draw's
-// split; the point value is f of the cell-by-cell median.
-func (v *Fluxes) series(name string, mass float64, withDraws bool, f func(i int, s *mix.Split) float64) flux.Series {
-	a := v.App
-	n := len(a.Names)
-	s := flux.Series{Name: name, MolarMass: mass, Days: a.Days, Q: a.Q, C: make([]float64, n)}
-	if withDraws && a.Draws > 1 {
-		s.Draws, s.Weights = make([][]float64, n), make([][]float64, n)
-	}
-	for i := 0; i < n; i++ {
-		s.C[i] = f(i, &a.Median[i])
-		if s.Draws == nil {
-			continue
-		}
-		if v.tick != nil {
-			v.tick()
-		}
-		d := make([]float64, a.Draws)
-		total := 0.0
-		var sp mix.Split // outside the loop: f takes its address
-		for k := 0; k < a.Draws; k++ {
-			if w := a.weights[i][k]; w > 0 {
-				if a.splits != nil {
-					d[k] = f(i, &a.splits[i][k])
-				} else {
-					sp, _, _ = a.Draw(i, k)
-					d[k] = f(i, &sp)
-				}
-				total += w
-			}
-		}
-		if total > 0 {
-			s.Draws[i], s.Weights[i] = d, a.weights[i]
-		}
-	}
-	return s
-}
-
-// estimate fluxes one series, falling back to the interpolation estimator
-// when the rating curve cannot take it (zero or negative values), and
-// bootstraps it when boot is set.
-func (v *Fluxes) estimate(s flux.Series, boot bool) (*flux.Result, *flux.Uncertainty, []string, error) {
-	reps := 0
-	if boot {
-		reps = max(v.Bootstrap.Replicates, 1)
-	}
-	return v.estimateN(s, reps)
-}
-
-// estimateN is estimate with reps bootstrap replicates (0: none).
-func (v *Fluxes) estimateN(s flux.Series, reps int) (*flux.Result, *flux.Uncertainty, []string, error) {
-	f, warns, err := v.fit(s, reps)
-	return f.r, f.u, warns, err
-}
-
-// fitted is one series fluxed by fit: the point result, its bootstrap (nil
-// without one), and the series and options used (the estimator after any
-// fallback), so that it can be bootstrapped again one source at a time.
-type fitted struct {
-	s   flux.Series
-	opt flux.Options
-	r   *flux.Result
-	u   *flux.Uncertainty
-}
-
-// fit does estimateN's work and keeps what it used.
-func (v *Fluxes) fit(s flux.Series, reps int) (fitted, []string, error) {
-	var warns []string
-	opt := v.Options
-	if opt.Method == flux.Rating {
-		// ln C needs C > 0: a series with zero or negative values (clamped
-		// carbonate, CO2 released by sulfuric acid) would lose those samples
-		// from the fit, so it takes the interpolation estimator instead.
-		// A few non-positive Monte Carlo draws (under 1 %) only cost the
-		// bootstrap replicates that pick them, which Bootstrap reports.
-		point, draws, total := nonPositive(s)
-		if point > 0 || float64(draws) > 0.01*float64(total) {
-			warns = append(warns, fmt.Sprintf("%s: %d sample values and %d of %d draws are zero or negative, which a rating curve cannot fit; used interpolation",
-				s.Name, point, draws, total))
-			opt.Method = flux.PeriodWeighted
-		}
-	}
-	r, err := flux.Estimate(v.Record, s, opt)
-	if err != nil && opt.Method == flux.Rating {
-		warns = append(warns, fmt.Sprintf("%s: the rating curve failed (%v); used interpolation", s.Name, err))
-		opt.Method = flux.PeriodWeighted
-		r, err = flux.Estimate(v.Record, s, opt)
-	}
-	f := fitted{s: s, opt: opt}
-	if err != nil {
-		return f, warns, fmt.Errorf("%s: %v", s.Name, err)
-	}
-	f.r = r
-	for _, w := range r.Warnings {
-		warns = append(warns, w.Error())
-	}
-	if reps <= 0 {
-		return f, warns, nil
-	}
-	bo := v.Bootstrap
-	bo.Replicates = reps
-	u, err := flux.Bootstrap(v.Record, s, opt, bo)
-	if err != nil {
-		return f, warns, fmt.Errorf("%s: bootstrap: %v", s.Name, err)
-	}
-	if u.Failed > 0 {
-		warns = append(warns, fmt.Sprintf("%s: %d of %d bootstrap replicates could not be fitted", s.Name, u.Failed, u.Failed+u.Replicates))
-	}
-	f.u = u
-	return f, warns, nil
 }
 
 func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
@@ -213,27 +77,16 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
-			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma},
-		SeriesReplicates: s.SeriesBootstrap,
+			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma, Cache: &flux.Cache{}},
+		SeriesReplicates: s.SeriesBootstrap, Policy: s.Unapportioned, DoubtfulAbove: s.DoubtfulPercent / 100,
 	}, nil
-}
-
-// sumOf returns f summing the given source's cations (in mol, each counted once).
-func sumOf(src mix.Source, cations ...int) func(int, *mix.Split) float64 {
-	return func(_ int, s *mix.Split) float64 {
-		t := 0.0
-		for _, k := range cations {
-			t += s[src][k]
-		}
-		return t
-	}
 }
 
 // meanRow is one line of the mean-annual table: the flux and yield in mol
 // and in tonnes (NaN tonnes for a series without a molar mass, such as a sum
 // of cations).
 type meanRow struct {
-	name, unit                 string
+	name                       string
 	point                      float64 // point estimate of the mean annual flux, mol/yr
 	mol, yield, tonnes, tYield flux.Interval
 }
@@ -246,6 +99,17 @@ var cationSums = []struct {
 	ks   []int
 }{{"silicate cations", mix.Silicate, []int{0, 1, 2, 3}}, {"carbonate cations", mix.Carbonate, []int{2, 3}}}
 
+// ClosureTolerance is the largest relative difference between a cation's
+// measured flux and the sum of its fluxes from the four sources that the
+// fluxes cell accepts without a warning: they agree to rounding whenever
+// each sample's sources add up to what was measured (flux.Apportioned).
+const ClosureTolerance = 1e-6
+
+// sideBySideReplicates returns the replicates of the estimators table.
+func (v *Fluxes) sideBySideReplicates() int {
+	return min(v.SeriesReplicates, max(v.Bootstrap.Replicates, 1))
+}
+
 func computeFluxes(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*FluxSettings)
 	v, err := fluxSetup(e, s)
@@ -253,6 +117,9 @@ func computeFluxes(e *Env) (*Output, error) {
 		return nil, err
 	}
 	a := v.App
+	if n := a.Unusable(); n == len(a.Names) {
+		return nil, fmt.Errorf("no sample has a usable apportionment (%s failed; see the apportionment cell), so there is no source flux to compute", countOf(n, len(a.Names), "samples"))
+	}
 	// The quick pass (Document.Quick) gives point values now; the full pass
 	// adds the bootstrap intervals.
 	rough := e.Rough()
@@ -278,76 +145,51 @@ func computeFluxes(e *Env) (*Output, error) {
 			yMol, yYield, yRunoff = append(yMol, y.Mol), append(yYield, y.MolPerKm2), append(yRunoff, y.RunoffMM)
 		}
 	}
-	// The estimators side by side, for the cation sums (point values).
-	var eName, eMethod []string
-	var eMol, eYield []float64
-	for _, c := range cationSums {
-		ser := v.series(c.name, 0, false, sumOf(c.src, c.ks...))
-		for _, m := range []flux.Method{flux.FlowWeighted, flux.PeriodWeighted, flux.Rating, flux.Beale} {
-			o := v.Options
-			o.Method = m
-			mol, yield := math.NaN(), math.NaN()
-			if r, err := flux.Estimate(v.Record, ser, o); err == nil {
-				mol, yield = r.Mean.Mol, r.Mean.MolPerKm2
-			}
-			eName, eMethod = append(eName, c.name), append(eMethod, estimatorName(m))
-			eMol, eYield = append(eMol, mol), append(eYield, yield)
-		}
-	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "estimators", Title: "Mean annual flux by estimator (point values)", Columns: []*Column{
-		TextColumn("series", eName), TextColumn("estimator", eMethod), NumColumn("flux", "mol/yr", eMol), NumColumn("yield", "mol/km²/yr", eYield)}})
 
-	// Every series is bootstrapped with the same seed, so all of them
-	// resample the same samples in each replicate and share its discharge and
-	// area errors (flux.Bootstrap's PCG streams): measured species, each
-	// cation from each rock source, then the cation sums. The cation sums,
-	// the headline figures, take the bootstrap setting; the other series
-	// take series_bootstrap replicates (the first replicates of the same
-	// sequence), which keeps a recompute after an edit cheap.
-	// A job builds its series only when its turn comes: with many draws a
-	// series holds every draw of every sample, so building them all first
-	// would hold them all in memory and run long without a progress report.
+	// Every series and quantity is bootstrapped with the same seed, so all
+	// of them resample the same samples in each replicate, take the same
+	// draw of each sample and share the replicate's discharge and area
+	// errors (flux.Bootstrap's PCG streams): measured species, each cation
+	// from each rock source, then the cation sums. The cation sums, the
+	// headline figures, take the bootstrap setting; the others take
+	// series_bootstrap replicates (the first replicates of the same
+	// sequence), which keeps a recompute after an edit cheap. A job builds
+	// its quantity only when its turn comes: with many draws a quantity
+	// holds every draw of every sample.
 	type job struct {
-		build func() flux.Series
-		sum   bool
+		series func() flux.Series      // a measured species, or
+		qty    func() flux.Apportioned // an apportioned quantity
+		sum    bool
 	}
 	var jobs []job
-	// tv is v reporting progress from inside a long series, so that a page
-	// on one goroutine can yield to the browser there too.
 	cur := 0
 	tv := v.ticking(e.Ctx, func() { e.Report(cur, len(jobs)) })
 	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
-		c := make([]float64, len(a.Names))
-		for i := range c {
-			c[i] = a.Corrected[i].Input[sp]
-		}
-		if countFinite(c) == 0 {
+		if countFinite(v.measuredSeries(sp).C) == 0 {
 			continue
 		}
-		jobs = append(jobs, job{build: func() flux.Series {
-			ser := flux.ForSpecies(sp, a.Days, c)
-			ser.Q = a.Q
-			return ser
-		}})
+		jobs = append(jobs, job{series: func() flux.Series { return v.measuredSeries(sp) }})
 	}
 	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
 		for k, sp := range mix.Cations {
 			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
 				continue
 			}
-			jobs = append(jobs, job{build: func() flux.Series {
-				return tv.series(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, sumOf(src, k))
+			jobs = append(jobs, job{qty: func() flux.Apportioned {
+				return tv.quantity(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, []int{k}, cationsOf(src, k))
 			}})
 		}
 	}
 	for _, c := range cationSums {
-		jobs = append(jobs, job{build: func() flux.Series { return tv.series(c.name, 0, !rough, sumOf(c.src, c.ks...)) }, sum: true})
+		jobs = append(jobs, job{qty: func() flux.Apportioned { return tv.quantity(c.name, 0, !rough, c.ks, cationsOf(c.src, c.ks...)) }, sum: true})
 	}
-	var rName []string
-	var rA, rB, rR2, rS, rFactor, rN []float64
+	var rName, sName []string
+	var rA, rB, rR2, rS, rFactor, rN, sB []float64
 	bySource := &sourceTable{unit: "mol/km²/yr", n: v.breakdownReplicates()}
 	var figs, cover []Figure
 	var runoff Figure
+	var first *flux.Result // the first cation sum: the samples every apportioned quantity uses
+	headline := map[string]fitted{}
 	for j, jb := range jobs {
 		if err := e.Ctx.Err(); err != nil {
 			return nil, err
@@ -356,15 +198,20 @@ func computeFluxes(e *Env) (*Output, error) {
 		// goroutine can yield to the browser between bootstraps.
 		cur = j
 		e.Report(j, len(jobs))
-		reps := v.SeriesReplicates
+		n := v.SeriesReplicates
 		if jb.sum {
-			reps = max(v.Bootstrap.Replicates, 1)
+			n = max(v.Bootstrap.Replicates, 1)
 		}
 		if rough {
-			reps = 0
+			n = 0
 		}
-		ser := jb.build()
-		fr, w, err := tv.fit(ser, reps)
+		var fr fitted
+		var w []string
+		if jb.series != nil {
+			fr, w, err = tv.fitSeries(jb.series(), n, v.Options)
+		} else {
+			fr, w, err = tv.fitQuantity(jb.qty(), n, v.Options)
+		}
 		r, u := fr.r, fr.u
 		out.Warnings = append(out.Warnings, w...)
 		if err != nil && (jb.sum || r == nil) {
@@ -383,27 +230,45 @@ func computeFluxes(e *Env) (*Output, error) {
 			rA, rB, rR2, rS = append(rA, f.A), append(rB, f.B), append(rR2, f.R2), append(rS, f.S)
 			rFactor, rN = append(rFactor, f.Factor), append(rN, f.N)
 		}
+		if jb.series != nil && r.Method == flux.PeriodWeighted {
+			sName, sB = append(sName, r.Series), append(sB, r.Slope)
+		}
 		if !jb.sum {
 			continue
 		}
-		if runoff.Name == "" { // the first cation sum: the samples every apportioned series uses
+		headline[r.Series] = fr
+		note := v.howFluxed()
+		if first == nil {
+			first = r
 			f, w := flowCoverage(r)
 			cover, out.Warnings = f, append(out.Warnings, w...)
+			// Runoff is the record's own over the complete years; its
+			// interval comes from the discharge and area errors alone.
+			runoff = withInterval(RunoffFigure, "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
+			runoff.Median = r.Mean.RunoffMM
 		}
 		if !rough {
-			out.Warnings = append(out.Warnings, bySource.add(tv, ser.Name+" yield", fr, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })...)
+			out.Warnings = append(out.Warnings, bySource.add(tv, r.Series+" yield", fr, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })...)
 		}
-		runoff = withInterval("runoff", "mm/yr", r.Mean.RunoffMM, u, func(l *flux.LoadInterval) flux.Interval { return l.RunoffMM })
-		figs = append(figs, withInterval(ser.Name+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol }),
-			withInterval(ser.Name+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 }))
+		fl := withInterval(r.Series+" flux", "mol/yr", r.Mean.Mol, u, func(l *flux.LoadInterval) flux.Interval { return l.Mol })
+		yl := withInterval(r.Series+" yield", "mol/km²/yr", r.Mean.MolPerKm2, u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
+		fl.Note, yl.Note = note, note
+		figs = append(figs, fl, yl)
 	}
 	e.Report(len(jobs), len(jobs))
+	share := v.unapportionedShare()
 	if runoff.Name != "" {
+		runoff.Note = "from the flux estimate: complete reporting years; interval with the discharge and area errors"
 		out.Figures = append(out.Figures, runoff)
 	}
 	out.Figures = append(out.Figures, figs...)
+	out.Figures = append(out.Figures,
+		Point("samples without a usable apportionment", "", float64(a.Unusable())),
+		Point("share of the flow-weighted cation load in samples without a usable apportionment", "fraction", share))
 	out.Figures = append(out.Figures, cover...)
-	// Weathering rates in t/km²/yr (methods brief §6.1), from the point
+	v.Doubtful = v.doubtfulReasons(share, first)
+	out.Doubtful = v.Doubtful
+	// Weathering rates in t/km²/yr (docs/methods.md §6.1), from the point
 	// fluxes, and their intervals from the series' replicates.
 	points := map[string]float64{}
 	for _, r := range rows {
@@ -439,10 +304,20 @@ func computeFluxes(e *Env) (*Output, error) {
 	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval); tonnes of each species, none for cation sums", Columns: meanCols},
 		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
 			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
+	et, w := v.estimatorsTable(headline, rough)
+	out.Tables = append(out.Tables, et)
+	out.Warnings = append(out.Warnings, w...)
+	ct, w := v.closureTable()
+	out.Tables = append(out.Tables, ct)
+	out.Warnings = append(out.Warnings, w...)
 	if len(rName) > 0 {
-		out.Tables = append(out.Tables, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q (point fits)", Columns: []*Column{
+		out.Tables = append(out.Tables, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q of the measured species (point fits)", Columns: []*Column{
 			TextColumn("series", rName), NumColumn("a", "µmol/L", rA), NumColumn("b", "", rB), NumColumn("R2", "", rR2),
 			NumColumn("s", "ln units", rS), NumColumn("bias_factor", "", rFactor), NumColumn("n", "samples", rN)}})
+	}
+	if len(sName) > 0 {
+		out.Tables = append(out.Tables, &ResultTable{Name: "interpolation", Title: "Flow adjustment of the interpolation: slope b of ln C on ln Q of each measured species (0: plain interpolation)", Columns: []*Column{
+			TextColumn("series", sName), NumColumn("b", "", sB)}})
 	}
 	if t := bySource.table(); t != nil {
 		out.Tables = append(out.Tables, t)
@@ -462,6 +337,149 @@ func computeFluxes(e *Env) (*Output, error) {
 	return out, nil
 }
 
+// RunoffFigure names the fluxes cell's runoff: the discharge record's own
+// over the complete years of the budget period, with the interval of the
+// discharge and area errors.
+const RunoffFigure = "runoff over the complete years of the budget period"
+
+// sideBySide fluxes a quantity with each estimator of allMethods: the
+// headline's own fit (when ok) for the estimator chosen, else the quantity
+// build makes, bootstrapped with series_bootstrap replicates of the same
+// seed (point values only in the quick pass). label names it in warnings.
+func (v *Fluxes) sideBySide(label string, headline fitted, ok bool, build func(draws bool) flux.Apportioned, rough bool) ([]fitted, []string) {
+	n := v.sideBySideReplicates()
+	if rough {
+		n = 0
+	}
+	var q *flux.Apportioned
+	var out []fitted
+	var warns []string
+	if ok && headline.a != nil && (n == 0 || headline.a.Weights != nil) {
+		q = headline.a // the headline's own quantity, with draws when they are needed
+	}
+	for _, m := range allMethods {
+		f := headline
+		if !ok || m != v.Options.Method {
+			if q == nil {
+				x := build(n > 0)
+				q = &x
+			}
+			o := v.Options
+			o.Method = m
+			var err error
+			if f, _, err = v.fitQuantity(*q, n, o); err != nil {
+				warns = append(warns, fmt.Sprintf("%s, %s estimator: %v", label, estimatorLabel(m), err))
+			}
+		}
+		out = append(out, f)
+	}
+	return out, warns
+}
+
+// estimatorsTable gives the cation sums with each of the four estimators,
+// with their bootstrap intervals, side by side (sideBySide).
+func (v *Fluxes) estimatorsTable(headline map[string]fitted, rough bool) (*ResultTable, []string) {
+	var name, method []string
+	var point, med, lo, hi, ymed, ylo, yhi, nrep []float64
+	var warns []string
+	for _, c := range cationSums {
+		h, ok := headline[c.name]
+		fs, w := v.sideBySide(c.name, h, ok, func(draws bool) flux.Apportioned {
+			return v.quantity(c.name, 0, draws, c.ks, cationsOf(c.src, c.ks...))
+		}, rough)
+		warns = append(warns, w...)
+		for k, f := range fs {
+			name, method = append(name, c.name), append(method, estimatorName(allMethods[k]))
+			row := sideRow(f)
+			pt := math.NaN()
+			if f.r != nil {
+				pt = f.r.Mean.Mol
+			}
+			point = append(point, pt)
+			med, lo, hi = append(med, row[0]), append(lo, row[1]), append(hi, row[2])
+			ymed, ylo, yhi = append(ymed, row[3]), append(ylo, row[4]), append(yhi, row[5])
+			nrep = append(nrep, row[6])
+		}
+	}
+	return &ResultTable{Name: "estimators", Title: "Mean annual flux by estimator, side by side (bootstrap median and 95 % interval; point values when replicates is 0)", Columns: []*Column{
+		TextColumn("series", name), TextColumn("estimator", method), NumColumn("point", "mol/yr", point),
+		NumColumn("flux", "mol/yr", med), NumColumn("flux_low", "mol/yr", lo), NumColumn("flux_high", "mol/yr", hi),
+		NumColumn("yield", "mol/km²/yr", ymed), NumColumn("yield_low", "mol/km²/yr", ylo), NumColumn("yield_high", "mol/km²/yr", yhi),
+		NumColumn("replicates", "", nrep)}}, warns
+}
+
+// sideRow gives a fitted quantity's flux and yield (median, low, high)
+// and its replicates: the bootstrap's, or the point values alone.
+func sideRow(f fitted) [7]float64 {
+	nan := math.NaN()
+	switch {
+	case f.r == nil:
+		return [7]float64{nan, nan, nan, nan, nan, nan, 0}
+	case f.u == nil:
+		return [7]float64{f.r.Mean.Mol, nan, nan, f.r.Mean.MolPerKm2, nan, nan, 0}
+	}
+	m, y := f.u.Mean.Mol, f.u.Mean.MolPerKm2
+	return [7]float64{m.Median, m.Lo, m.Hi, y.Median, y.Lo, y.Hi, float64(f.u.Replicates)}
+}
+
+// closureTable checks that each cation's fluxes from the four sources add
+// up to its measured flux over the same samples (point estimates), and
+// warns beyond ClosureTolerance.
+func (v *Fluxes) closureTable() (*ResultTable, []string) {
+	var name []string
+	var src [mix.NSources + 1][]float64 // the four sources, then the human input removed
+	var sum, meas, diff []float64
+	var warns []string
+	a := v.App
+	for k, sp := range mix.Cations {
+		total := 0.0
+		row := [mix.NSources + 1]float64{}
+		var part flux.Share
+		for s := range row {
+			f := func(i, _ int, _ *mix.Split, _ float64, out *[mix.NCations]float64) {
+				*out = [mix.NCations]float64{}
+				out[k] = a.Corrected[i].Human[sp]
+			}
+			if s < int(mix.NSources) {
+				f = cationsOf(mix.Source(s), k)
+			}
+			q := v.quantity(sp.Symbol(), sp.MolarMass(), false, []int{k}, f)
+			part = q.Parts[0]
+			r, err := flux.EstimateApportioned(v.Record, q, v.Options)
+			row[s] = math.NaN()
+			if err == nil {
+				row[s] = r.Mean.Mol
+			}
+			total += row[s]
+		}
+		m := math.NaN()
+		if r, err := flux.Estimate(v.Record, flux.Series{Name: part.Of, Days: v.App.Days, C: part.Measured, Q: v.App.Q}, v.Options); err == nil {
+			m = r.Mean.Mol
+		}
+		d := (total - m) / m
+		if !finite(total) || !finite(m) {
+			continue
+		}
+		name = append(name, sp.Symbol())
+		for s := range src {
+			src[s] = append(src[s], row[s])
+		}
+		sum, meas, diff = append(sum, total), append(meas, m), append(diff, d)
+		if math.Abs(d) > ClosureTolerance {
+			warns = append(warns, fmt.Sprintf("the fluxes of %s from the four sources and the human input add up to %.6g mol/yr, the measured %s to %.6g mol/yr (%.2g apart): some samples' sources do not add up to what was measured (a residual below zero set to zero, say)",
+				sp.Symbol(), total, sp.Symbol(), m, d))
+		}
+	}
+	cols := []*Column{TextColumn("cation", name)}
+	for s := mix.Source(0); s < mix.NSources; s++ {
+		cols = append(cols, NumColumn(sourceNames[s], "mol/yr", src[s]))
+	}
+	cols = append(cols, NumColumn("human_input", "mol/yr", src[mix.NSources]), NumColumn("sum_of_sources", "mol/yr", sum),
+		NumColumn("measured", "mol/yr", meas), NumColumn("difference", "fraction of measured", diff))
+	return &ResultTable{Name: "closure", Title: fmt.Sprintf("Each cation's fluxes from the four sources, and the human input the rain correction removed, against its measured flux over the same samples (point estimates; they agree to %.0g when each sample's sources add up)", ClosureTolerance),
+		Columns: cols}, warns
+}
+
 // Flow-coverage limits above which the fluxes cell warns (common practice,
 // no source): a tenth of the flow on days the samples do not bracket in time
 // or in discharge, or a highest sample exceeded on more than one day in
@@ -474,7 +492,7 @@ const (
 // flowCoverage gives the sample coverage of the discharge record for the
 // series of r as headline figures, and cautions when it is poor: the share
 // of flow before the first or after the last sample, where interpolation
-// holds the end values (methods brief §8.2); the share of flow outside the
+// holds the end values (docs/methods.md §8.2); the share of flow outside the
 // sampled discharge range, where a rating curve extrapolates (§8.3); and
 // the share of days with at least the highest sampled discharge, the
 // sample coverage of the flow-duration curve (§12: sparse sampling that
@@ -492,12 +510,12 @@ func flowCoverage(r *flux.Result) ([]Figure, []string) {
 	if r.OutsideFlow > coverageFlowLimit {
 		where := "where no sample shows how concentration follows discharge"
 		if r.Method == flux.Rating {
-			where = "where the rating curve extrapolates (methods brief §8.3)"
+			where = "where the rating curve extrapolates (docs/methods.md §8.3)"
 		}
 		warns = append(warns, fmt.Sprintf("%.2g %% of the flow passed on days with discharge outside the sampled range, %s; annual loads may be biased", 100*r.OutsideFlow, where))
 	}
 	if r.TopSampled > coverageTopLimit {
-		warns = append(warns, fmt.Sprintf("the highest sampled discharge is reached on %.2g %% of days: the floods went unsampled, which biases annual loads (methods brief §12)", 100*r.TopSampled))
+		warns = append(warns, fmt.Sprintf("the highest sampled discharge is reached on %.2g %% of days: the floods went unsampled, which biases annual loads (docs/methods.md §12)", 100*r.TopSampled))
 	}
 	return figs, warns
 }
@@ -511,27 +529,6 @@ func withInterval(name, unit string, v float64, u *flux.Uncertainty, pick func(*
 	}
 	in := pick(&u.Mean)
 	return Figure{Name: name, Unit: unit, Median: in.Median, Low: in.Lo, High: in.Hi}
-}
-
-// nonPositive counts the sample values of a series that are zero or
-// negative, and the kept draws that are, out of all kept draws.
-func nonPositive(s flux.Series) (point, draws, total int) {
-	for i, c := range s.C {
-		if c <= 0 {
-			point++
-		}
-		if s.Draws != nil && s.Draws[i] != nil {
-			for d, x := range s.Draws[i] {
-				if s.Weights[i][d] > 0 {
-					total++
-					if x <= 0 {
-						draws++
-					}
-				}
-			}
-		}
-	}
-	return point, draws, total
 }
 
 func countFinite(x []float64) int {
@@ -594,7 +591,7 @@ type ratePart struct {
 	k      float64
 }
 
-// weatheringRates are the fluxes cell's weathering rates (methods brief
+// weatheringRates are the fluxes cell's weathering rates (docs/methods.md
 // §6.1, Gaillardet et al. 1999 style, from memory): SWR from the silicate
 // cations, and with SiO2; CWR from the carbonate cations, and with the
 // carbonate carbon ½ HCO3_carb M_HCO3, where HCO3_carb = 2(Ca+Mg)_carb, so
@@ -655,7 +652,7 @@ func weatheringRate(name string, parts []ratePart, points map[string]float64, re
 }
 
 // uncertaintySources are the inputs the "uncertainty by source" table varies
-// one at a time (methods brief §8.6), in table order.
+// one at a time (docs/methods.md §8.6), in table order.
 var uncertaintySources = []struct {
 	name string
 	src  flux.Sources
@@ -704,9 +701,9 @@ func (t *sourceTable) add(v *Fluxes, figure string, f fitted, pick func(*flux.Lo
 	for _, us := range uncertaintySources {
 		bo := v.Bootstrap.Alone(us.src)
 		bo.Replicates = t.n
-		u, err := flux.Bootstrap(v.Record, f.s, f.opt, bo)
+		u, err := f.boot(v.Record, bo)
 		if err != nil {
-			warns = append(warns, fmt.Sprintf("%s: %s alone: %v", f.s.Name, us.name, err))
+			warns = append(warns, fmt.Sprintf("%s: %s alone: %v", f.name(), us.name, err))
 			continue
 		}
 		t.row(figure, us.name, pick(&u.Mean), u.Replicates)

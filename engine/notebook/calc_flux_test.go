@@ -12,8 +12,8 @@ import (
 
 // TestMeanTableTonnes checks the mass columns of the fluxes cell's mean
 // table: t/yr and t/km²/yr are mol/yr and mol/km²/yr times the molar mass
-// (science.md §8.5: mass yield = Y × M × 1e-6; IUPAC 2021 molar masses,
-// science.md §2.2), for the median and both bounds, and cation sums, which
+// (docs/methods.md §8.5: mass yield = Y × M × 1e-6; IUPAC 2021 molar masses,
+// docs/methods.md §2.2), for the median and both bounds, and cation sums, which
 // have no single molar mass, have none.
 func TestMeanTableTonnes(t *testing.T) {
 	d, err := loadFile("../../testdata/budgets/small-rain.lixiv.json")
@@ -96,7 +96,7 @@ func TestFlowCoverage(t *testing.T) {
 // its own area, and the interval is taken over replicates; without
 // replicates (the quick pass) the rate is a point value.
 func TestWeatheringRateReplicates(t *testing.T) {
-	// Molar masses, methods brief §2.2 (IUPAC 2021): Ca 40.078, Mg 24.305,
+	// Molar masses, docs/methods.md §2.2 (IUPAC 2021): Ca 40.078, Mg 24.305,
 	// HCO3 61.016 g/mol. CWR with carbon, §6.1: Ca M_Ca + Mg M_Mg + (Ca +
 	// Mg) M_HCO3.
 	mass := func(ca, mg, area float64) float64 { return (ca*40.078 + mg*24.305 + (ca+mg)*61.016) * 1e-6 / area }

@@ -57,7 +57,7 @@ func (*MineralSettings) Kind() Kind { return KindMinerals }
 // the cell naming it, and the setting is kept as typed.
 func (s *MineralSettings) Validate() error {
 	if n := len(s.Primary) + len(s.Secondary); n > MaxMinerals {
-		return fmt.Errorf("primary_minerals, secondary_minerals: %d minerals; at most %d", n, MaxMinerals)
+		return settingErr("secondary_minerals", "%d primary and secondary minerals in all; at most %d", n, MaxMinerals)
 	}
 	return firstErr(oneOf("fit_components", s.Fit, "all", "cations"),
 		inRange("analytical_uncertainty_percent", s.Uncertainty, 0, 100))
@@ -155,7 +155,7 @@ func mineralPhases(s *MineralSettings) ([]mineral.Phase, []string, error) {
 }
 
 // mineralWater is the water a minerals cell balances: the measured sample
-// less the rain input and, when chosen, the human input (methods brief
+// less the rain input and, when chosen, the human input (docs/methods.md
 // §4), before the evaporite and sulfate corrections, so that halite,
 // gypsum and pyrite can be balanced as minerals. HCO3 is the alkalinity
 // (carbonate alkalinity is nearly all bicarbonate below pH 8.3; common
@@ -180,7 +180,7 @@ func mineralWater(r *correct.Result) [mineral.NWater]float64 {
 }
 
 // computeMinerals balances the rain-corrected water of each sample the
-// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (methods brief §16) and, with a fluxes cell, fluxes each
+// atmosphere cell corrects (Atmosphere.Use) against the chosen minerals (docs/methods.md §16) and, with a fluxes cell, fluxes each
 // mineral's amount over the period with that cell's estimator.
 func computeMinerals(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*MineralSettings)
@@ -224,7 +224,7 @@ func computeMinerals(e *Env) (*Output, error) {
 		}
 		v.Names, v.Days = append(v.Names, sm.ID), append(v.Days, atm.Samples.Days[i].String())
 		v.Water, v.Solution = append(v.Water, w), append(v.Solution, b.Solve(w))
-		days = append(days, dayOf{atm.Samples.Days[i], sm.Q})
+		days = append(days, dayOf{atm.Samples.Days[i], sm.Q, cationCharges(sm.C)})
 	}
 	if len(negative) > 0 {
 		var parts []string
@@ -316,10 +316,12 @@ func (v *MineralBalance) leansHigh() []string {
 type dayOf struct {
 	day discharge.Day
 	q   float64
+	tz  float64 // measured cation charge Na + K + 2Ca + 2Mg, µeq/L
 }
 
 // flux fluxes each mineral's amounts with the fluxes cell's estimator and
-// bootstrap (point values in the quick pass). A secondary mineral that
+// bootstrap (point values in the quick pass), through the samples'
+// measured cation charge (Fluxes.fitAmounts). A secondary mineral that
 // only forms is fluxed as the amount formed, then given its sign back.
 func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error) {
 	var warns []string
@@ -339,7 +341,7 @@ func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error
 			return nil, err
 		}
 		e.Report(j, len(v.Balance.Phases))
-		ser := flux.Series{Name: p.Key, Days: make([]discharge.Day, n), Q: make([]float64, n), C: make([]float64, n)}
+		amt := make([]float64, n)
 		sign := 1.0
 		if p.Secondary {
 			sign = -1
@@ -350,9 +352,9 @@ func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error
 			}
 		}
 		for i, sol := range v.Solution {
-			ser.Days[i], ser.Q[i], ser.C[i] = days[i].day, days[i].q, sign*sol.Amount[j]
+			amt[i] = sign * sol.Amount[j]
 		}
-		f, w, err := fv.fit(ser, reps)
+		f, w, err := fv.fitAmounts(p.Key, days, amt, reps)
 		warns = append(warns, w...)
 		if err != nil {
 			warns = append(warns, err.Error())

@@ -111,9 +111,6 @@ var sampleOrders = map[string]sample.DateOrder{"auto": sample.DateAuto, "day-fir
 func computeSamples(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*SamplesSettings)
 	t := e.Cell.Table
-	if t == nil || len(t.Columns) == 0 {
-		return nil, fmt.Errorf("the sample table is empty: paste or open a table of water samples")
-	}
 	// Messages name the cell by its id, which (unlike the title) only an
 	// edit that recomputes the cell can change; a table read from a file
 	// this session (Table.Source) is named by the file, its lines counted
@@ -130,6 +127,7 @@ func computeSamples(e *Env) (*Output, error) {
 	}
 	out := &Output{Messages: append(pl.fromSample(tab.Problems), pl.fromSample(tab.Notes)...)}
 	out.Messages = append(out.Messages, pl.sourceNotes(t)...)
+	out.Reading = samplesReading(t, tab)
 	n := len(tab.Samples)
 	rows := make([]int, n)
 	for i, smp := range tab.Samples {

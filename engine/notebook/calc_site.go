@@ -38,30 +38,27 @@ func computeSite(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*SiteSettings)
 	v := &Site{Name: s.Name, AreaKm2: s.AreaKm2, AreaSigma: s.AreaUncertainty / 100, P: s.Precipitation,
 		ET: s.Evapotranspiration, WaterYearStart: s.WaterYearStart}
-	if s.AreaKm2 <= 0 {
-		return nil, fmt.Errorf("area_km2: the catchment area must be above zero")
-	}
 	var err error
 	if s.PeriodStart != "" {
 		if v.Start, err = parseDay(s.PeriodStart); err != nil {
-			return nil, fmt.Errorf("period_start: %v", err)
+			return nil, settingErr("period_start", "%v", err)
 		}
 		v.HasStart = true
 	}
 	if s.PeriodEnd != "" {
 		if v.End, err = parseDay(s.PeriodEnd); err != nil {
-			return nil, fmt.Errorf("period_end: %v", err)
+			return nil, settingErr("period_end", "%v", err)
 		}
 		v.HasEnd = true
 	}
 	if v.HasStart && v.HasEnd && v.End < v.Start {
-		return nil, fmt.Errorf("period_end %s is before period_start %s", s.PeriodEnd, s.PeriodStart)
+		return nil, settingErr("period_end", "%s is before the %s, %s", s.PeriodEnd, SettingLabel("period_start"), s.PeriodStart)
 	}
 	out := &Output{Value: v}
 	out.Figures = append(out.Figures, Point("catchment area", "km²", s.AreaKm2))
 	if s.Precipitation > 0 && s.Evapotranspiration > 0 {
 		if s.Evapotranspiration >= s.Precipitation {
-			return nil, fmt.Errorf("evapotranspiration_mm (%g) must be below precipitation_mm (%g)", s.Evapotranspiration, s.Precipitation)
+			return nil, settingErr("evapotranspiration_mm", "%g must be below the %s, %g", s.Evapotranspiration, SettingLabel("precipitation_mm"), s.Precipitation)
 		}
 		out.Figures = append(out.Figures, Point("runoff from P − ET", "mm/yr", s.Precipitation-s.Evapotranspiration))
 	}

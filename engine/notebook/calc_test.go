@@ -52,7 +52,7 @@ func TestSamplesCellNICB(t *testing.T) {
 		want float64
 		flag string
 	}{
-		// Methods brief §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
+		// docs/methods.md §13 item 4 (computed): TZ+ 610, TZ− 590 µeq/L, NICB +3.2787 %.
 		{"brief example", []string{"A", "2021-05-01", "", "100", "10", "200", "50", "50", "40", "10", "450"}, 3.2787, ""},
 		// With alkalinity given, H+ from pH is not added to TZ+ (alkalinity
 		// already holds it; common practice): the same +3.2787 % at pH 4.
@@ -190,7 +190,7 @@ func TestRainVWM(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// VWM = Σ c P / Σ P (methods brief §1.3): Na (3000 + 3000)/400 = 15, Cl (6000 + 4000)/400 = 25.
+	// VWM = Σ c P / Σ P (docs/methods.md §1.3): Na (3000 + 3000)/400 = 15, Cl (6000 + 4000)/400 = 25.
 	if c[chem.Na] != 15 || c[chem.Cl] != 25 {
 		t.Errorf("VWM Na %g Cl %g, want 15 and 25", c[chem.Na], c[chem.Cl])
 	}
@@ -217,33 +217,36 @@ func TestPeriod(t *testing.T) {
 	}
 }
 
-func TestRatingCurveNeedsPositiveValues(t *testing.T) {
+// TestRatingCurveKeepsItsEstimator: an apportioned series with zero or
+// negative values (clamped carbonate, CO2 released by sulfuric acid) stays
+// on the rating curve: the curve is fitted to the measured species, which
+// are positive, and the quantity takes its flow-weighted share, so there
+// is no switch to another estimator and no warning of one.
+func TestRatingCurveKeepsItsEstimator(t *testing.T) {
 	q := make([]float64, 365)
 	for i := range q {
 		q[i] = 1 + float64(i%30)/10
 	}
 	first := discharge.Date(2021, 1, 1)
-	v := &Fluxes{Record: discharge.NewRecord("q", first, q), Options: flux.Options{Method: flux.Rating, AreaKm2: 10, FirstMonth: 1}}
+	rec := discharge.NewRecord("q", first, q)
+	opt := flux.Options{Method: flux.Rating, AreaKm2: 10, FirstMonth: 1}
 	days := []discharge.Day{first + 10, first + 100, first + 200, first + 300}
 	for _, tt := range []struct {
-		name     string
-		c        []float64
-		fallback bool
+		name string
+		c    []float64
 	}{
-		{"positive", []float64{10, 12, 9, 11}, false},
-		{"one negative", []float64{10, -2, 9, 11}, true},
+		{"positive", []float64{10, 12, 9, 11}},
+		{"one negative", []float64{10, -2, 9, 11}},
+		{"one zero", []float64{10, 0, 9, 11}},
 	} {
 		t.Run(tt.name, func(t *testing.T) {
-			r, _, warns, err := v.estimate(flux.Series{Name: "x", Days: days, C: tt.c}, false)
+			a := flux.Apportioned{Name: "x", Days: days, Parts: []flux.Share{{Of: "Ca", Measured: []float64{50, 60, 45, 55}, Amount: tt.c}}}
+			r, err := flux.EstimateApportioned(rec, a, opt)
 			if err != nil {
 				t.Fatal(err)
 			}
-			got := r.Method != flux.Rating
-			if got != tt.fallback {
-				t.Errorf("method %v with warnings %q; want fallback %v", r.Method, warns, tt.fallback)
-			}
-			if tt.fallback && (len(warns) == 0 || !strings.Contains(warns[0], "used interpolation")) {
-				t.Errorf("fallback without saying so: %q", warns)
+			if r.Method != flux.Rating || len(r.Warnings) != 0 {
+				t.Errorf("method %v, warnings %v; want the rating curve, no warning", r.Method, r.Warnings)
 			}
 		})
 	}
@@ -323,7 +326,7 @@ func TestChecksumIgnoresLastBits(t *testing.T) {
 
 func TestSulfateIsotopeSplit(t *testing.T) {
 	// Marlow Fen, one year: the isotope split lies between the gypsum and
-	// sulfide scenarios, which bracket it (methods brief §5.2).
+	// sulfide scenarios, which bracket it (docs/methods.md §5.2).
 	carb := map[string]float64{}
 	for _, sc := range []struct{ name, sulfate, river string }{
 		{"gypsum", "gypsum", ""}, {"sulfide", "sulfide", ""}, {"isotope", "isotope", "2.5"}} {
@@ -497,15 +500,18 @@ func TestFluxesBealeSetting(t *testing.T) {
 	if v.Options.Method != flux.Beale {
 		t.Fatalf("method %v, want %v", v.Options.Method, flux.Beale)
 	}
-	r, err := flux.Estimate(v.Record, v.series("silicate cations", 0, false, sumOf(mix.Silicate, 0, 1, 2, 3)), v.Options)
+	r, err := flux.EstimateApportioned(v.Record, v.quantity("silicate cations", 0, false, []int{0, 1, 2, 3}, cationsOf(mix.Silicate, 0, 1, 2, 3)), v.Options)
 	if err != nil {
 		t.Fatal(err)
 	}
 	e := o.Table("estimators")
 	for i, name := range e.Column("series").Text {
 		if name == "silicate cations" && e.Column("estimator").Text[i] == "beale" {
-			if got := e.Column("flux").Num[i]; got != r.Mean.Mol {
-				t.Errorf("beale row %g mol/yr, flux.Estimate gives %g (exact)", got, r.Mean.Mol)
+			if got := e.Column("point").Num[i]; got != r.Mean.Mol {
+				t.Errorf("beale row %g mol/yr, flux.EstimateApportioned gives %g (exact)", got, r.Mean.Mol)
+			}
+			if lo, med, hi := e.Column("flux_low").Num[i], e.Column("flux").Num[i], e.Column("flux_high").Num[i]; !(lo < med && med < hi) {
+				t.Errorf("beale row interval %g [%g, %g]", med, lo, hi)
 			}
 			return
 		}

@@ -2,8 +2,9 @@ package notebook
 
 import (
 	"context"
-	"errors"
 	"fmt"
+	"slices"
+	"strings"
 )
 
 // EngineVersion is stored in every file this engine writes; a snapshot
@@ -34,6 +35,7 @@ type Env struct {
 	doc      *Document
 	progress func(Progress)
 	rough    bool
+	without  []string // optional inputs left out: they lack what they need
 }
 
 // Rough reports that this is the quick first pass of Document.Quick: the
@@ -51,7 +53,7 @@ func (e *Env) Input(role string) (*Output, error) {
 		if err != nil {
 			return nil, err
 		}
-		if id == "" {
+		if id == "" || slices.Contains(e.without, id) {
 			return nil, nil
 		}
 		return e.doc.outputOf(id)
@@ -79,18 +81,31 @@ func (d *Document) outputOf(id string) (*Output, error) {
 		return nil, fmt.Errorf("cell %q has not been computed", id)
 	}
 	if s.err != nil {
-		return nil, &InputError{Cell: id}
+		return nil, &InputError{Cell: id, Waits: lacking(s.err)}
 	}
 	return s.out, nil
 }
 
-// InputError says that a cell waits on an input cell that has a problem.
+// DoubtfulError gives the reasons a cell's result is doubtful.
+type DoubtfulError struct {
+	Reasons []string
+}
+
+// Error joins the reasons.
+func (e *DoubtfulError) Error() string { return "doubtful: " + strings.Join(e.Reasons, "; ") }
+
+// InputError says that a cell waits on an input cell that has a problem,
+// or that waits itself for something it needs (Document.Needs says what).
 type InputError struct {
-	Cell string // id of the input cell with the problem
+	Cell  string // id of the input cell
+	Waits bool   // the input waits for what it needs, rather than having a problem
 }
 
 // Error implements error.
 func (e *InputError) Error() string {
+	if e.Waits {
+		return fmt.Sprintf("waiting for cell %q, which waits for what it needs", e.Cell)
+	}
 	return fmt.Sprintf("waiting for cell %q, which has a problem", e.Cell)
 }
 
@@ -124,29 +139,32 @@ const (
 	Waiting               // an input cell has a problem
 	Problem               // failed; see Status.Err
 	Refining              // point values computed, intervals to follow (Document.Quick)
+	Doubtful              // computed, but rests on failed fits or unbracketed flow (Output.Doubtful says why)
 )
 
-var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem", "computing intervals"}
+var stateNames = [...]string{"stale", "up to date", "waiting for inputs", "problem", "computing intervals", "doubtful"}
 
 // String returns the state as the page shows it.
 func (s State) String() string { return stateNames[s] }
 
-// Status returns the state of a cell and, for Waiting and Problem, why.
+// Status returns the state of a cell and, for Waiting, Problem and
+// Doubtful, why (for Doubtful, a DoubtfulError listing the reasons).
 func (d *Document) Status(id string) (State, error) {
 	c := d.Cell(id)
 	if c == nil {
 		return Problem, fmt.Errorf("no cell named %q", id)
 	}
 	s := d.st(id)
-	var ie *InputError
 	switch {
 	case s.stale:
 		return Stale, nil
 	case s.err == nil && s.rough:
 		return Refining, nil
+	case s.err == nil && s.out != nil && len(s.out.Doubtful) > 0:
+		return Doubtful, &DoubtfulError{Reasons: s.out.Doubtful}
 	case s.err == nil:
 		return UpToDate, nil
-	case errors.As(s.err, &ie):
+	case waiting(s.err):
 		return Waiting, s.err
 	}
 	return Problem, s.err
@@ -257,17 +275,29 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 	f := d.funcs[c.Kind]
 	if f == nil {
 		f = computers[c.Kind]
+		// What the cell itself lacks first: the user supplies it there.
+		// (A document's own functions, set by tests, decide for themselves.)
+		if n := need(c); n != nil {
+			return nil, n
+		}
 	}
 	if f == nil {
 		return nil, fmt.Errorf("no computation for %s cells", c.Kind)
 	}
-	for _, r := range c.Kind.Roles() { // inputs first: a clear message if one is missing or failed
+	// Then its inputs: a clear message if one is missing or failed. An
+	// optional input that lacks what it needs is left out, and said so.
+	var without []string
+	for _, r := range c.Kind.Roles() {
 		id, err := d.resolve(c, r)
 		if err != nil {
 			return nil, err
 		}
 		if id != "" {
 			if _, err := d.outputOf(id); err != nil {
+				if r.Optional && lacking(d.st(id).err) {
+					without = append(without, id)
+					continue
+				}
 				return nil, err
 			}
 		}
@@ -277,9 +307,14 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 			out, err = nil, fmt.Errorf("internal error in the %s computation: %v", c.Kind, r)
 		}
 	}()
-	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress, rough: rough})
+	out, err = f(&Env{Ctx: ctx, Cell: c, doc: d, progress: progress, rough: rough, without: without})
 	if err == nil && out == nil {
 		out = &Output{}
+	}
+	if out != nil {
+		for _, id := range without {
+			out.Warnings = append(out.Warnings, fmt.Sprintf("computed without cell %q, which waits for %s", id, d.whatLacks(id)))
+		}
 	}
 	return out, err
 }

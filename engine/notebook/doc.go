@@ -30,6 +30,17 @@
 // below it wait. A panic inside a computation becomes a Problem, never a
 // crash.
 //
+// A cell that lacks what it cannot compute without — the site's area, the
+// samples or discharge table, the end-members — waits (a *NeedError, state
+// Waiting), and so do the cells that must read it; a cell for which it is
+// an optional input computes without it and says so in a warning. Needs
+// lists what a cell waits for, through the cells it reads, without
+// computing. NewBudget gives a budget of the usual cells that waits for
+// exactly those. Messages about a setting name it by its label
+// (SettingLabel, *SettingError), as the page shows it; a budget file's
+// problems name its key. The samples and discharge cells say in
+// Output.Reading what they took each column of their table as.
+//
 // A cell's Output.Messages say, typed and positioned (severity, effect,
 // file, line as the file counts it, column, value, sample, row of the
 // cell's table), how it read its input: what it could not read or refused,

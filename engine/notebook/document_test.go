@@ -273,7 +273,7 @@ func TestInsertChecksCells(t *testing.T) {
 		{"bad id", &Cell{ID: "a.b", Kind: KindNote}, "may hold only"},
 		{"bad kind", &Cell{ID: "a", Kind: "wizard"}, "unknown cell kind"},
 		{"wrong settings", &Cell{ID: "a", Kind: KindNote, Settings: &SiteSettings{}}, "site settings on a note cell"},
-		{"bad value", &Cell{ID: "a", Kind: KindSite, Settings: &SiteSettings{AreaKm2: -1, WaterYearStart: 1}}, "area_km2"},
+		{"bad value", &Cell{ID: "a", Kind: KindSite, Settings: &SiteSettings{AreaKm2: -1, WaterYearStart: 1}}, "area (km²): -1 is outside"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

@@ -23,16 +23,16 @@ func Example_budget() {
 	d.SetParam("site", "name", "Glen Example")
 	d.SetParam("site", "area_km2", "25")
 
-	// Eight monthly samples in µmol/L (alkalinity µeq/L): sea salt plus
+	// Twelve monthly samples in µmol/L (alkalinity µeq/L): sea salt plus
 	// silicate and a little carbonate weathering; invented numbers.
 	samples := &notebook.Table{
 		Columns: []string{"sample", "date", "Na", "K", "Ca", "Mg", "Cl", "SO4", "Alk"},
 		Units:   []string{"", "", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µmol/L", "µeq/L"},
 	}
-	for m := 0; m < 8; m++ {
+	for m := 0; m < 12; m++ {
 		f := 1 + 0.1*float64(m%3) // a little dilution
 		samples.Rows = append(samples.Rows, []string{
-			fmt.Sprintf("GE-%d", m+1), time.Date(2021, time.Month(11+m), 15, 0, 0, 0, 0, time.UTC).Format("2006-01-02"),
+			fmt.Sprintf("GE-%d", m+1), time.Date(2021, time.Month(10+m), 15, 0, 0, 0, 0, time.UTC).Format("2006-01-02"),
 			fmt.Sprint(146 / f), fmt.Sprint(10 / f), fmt.Sprint(62 / f), fmt.Sprint(28 / f),
 			fmt.Sprint(100 / f), fmt.Sprint(5.2 / f), fmt.Sprint(226 / f)})
 	}
@@ -102,8 +102,8 @@ func Example_budget() {
 	v, _ := again.Verify()
 	fmt.Println("rerun matches the saved results:", v.Match)
 	// Output:
-	// silicate CO2 consumption per km²: 1.48e+05 [1.14e+05, 1.96e+05] mol/km²/yr
-	// carbonate CO2 consumption per km²: 5.76e+04 [3.93e+04, 7.77e+04] mol/km²/yr
+	// silicate CO2 consumption per km²: 1.49e+05 [1.27e+05, 1.78e+05] mol/km²/yr
+	// carbonate CO2 consumption per km²: 5.55e+04 [4.59e+04, 6.73e+04] mol/km²/yr
 	// site ran 1 time(s); co2 ran 2 times
 	// after the edit: 1.27e+05 mol/km²/yr
 	// rerun matches the saved results: true

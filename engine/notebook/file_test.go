@@ -111,7 +111,7 @@ func TestBrokenCellsKeepTheirText(t *testing.T) {
 	want := []struct{ id, problem string }{
 		{"lab", `"below_detection" must be text`},
 		{"x", `unknown kind "flux-capacitor"`},
-		{"app", "Monte Carlo draws (draws): 2,000,000 is outside 1 to 1,000,000"},
+		{"app", "draws: 2e+06 is outside"},
 		{"broken-5", `id "site" is taken`},
 		{"broken-6", "not a JSON object"},
 		{"t", "row 1, column 1"},

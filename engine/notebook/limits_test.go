@@ -93,12 +93,13 @@ func TestCheckSampleDraws(t *testing.T) {
 	}
 }
 
-// A setting out of its range is refused with the page's label.
+// A setting out of its range is refused with the page's label (a budget
+// file's reader names its key instead: TestBrokenCellsKeepTheirText).
 func TestSettingRangeNamesLabel(t *testing.T) {
 	d := demoDocument(t)
 	for key, want := range map[string]string{
-		"draws":     "Monte Carlo draws (draws): 2,000,000 is outside 1 to 1,000,000",
-		"bootstrap": "bootstrap replicates (bootstrap): 2,000,000 is outside 1 to 100,000",
+		"draws":     "Monte Carlo draws: 2e+06 is outside [1, 1e+06]",
+		"bootstrap": "bootstrap replicates: 2e+06 is outside [1, 100000]",
 	} {
 		cell := "fluxes"
 		if key == "draws" {

@@ -210,7 +210,7 @@ func parseCell(raw json.RawMessage) (*Cell, error) {
 		c.SettingsExtra = extra
 	}
 	if err := c.Settings.Validate(); err != nil {
-		return nil, fmt.Errorf("settings: %w", err)
+		return nil, fmt.Errorf("settings: %s", fileText(err))
 	}
 	if v, ok := m["table"]; ok {
 		if !c.Kind.hasTable() {

@@ -222,34 +222,14 @@ func (p *placer) fromDischarge(l discharge.Problems) Messages {
 	return out
 }
 
-// settingLabels are the labels under which the page shows settings that
-// messages name (keyed by their names in budget files), with those the
-// importer names itself (sample.SettingLabels).
-var settingLabels = map[string]string{
-	"nicb_flag_percent":   "NICB flag (%)",
-	"nicb_reject_percent": "NICB reject (%)",
-	"sulfate":             "sulfate source",
-	// The settings the limits bound (limits.go).
-	"draws":            "Monte Carlo draws",
-	"bootstrap":        "bootstrap replicates",
-	"series_bootstrap": "series bootstrap replicates",
-}
-
-// SettingLabel returns the label a message gives the setting key.
-func SettingLabel(key string) string {
-	if l, ok := settingLabels[key]; ok {
-		return l
-	}
-	return sample.SettingLabels[key]
-}
+// messageSettings are the settings this package's messages name (besides
+// those the importer names, sample.SettingLabels).
+var messageSettings = []string{"nicb_flag_percent", "nicb_reject_percent", "sulfate"}
 
 // MessageLabels lists every setting key that messages name, for a check
-// that the page labels them alike.
+// that they name them as the page does (SettingLabel).
 func MessageLabels() []string {
-	var keys []string
-	for k := range settingLabels {
-		keys = append(keys, k)
-	}
+	keys := append([]string(nil), messageSettings...)
 	for k := range sample.SettingLabels {
 		keys = append(keys, k)
 	}

@@ -7,6 +7,10 @@ type Output struct {
 	Tables   []*ResultTable // tables for the page, the CSV export and charts
 	Figures  []Figure       // headline figures with their intervals
 	Warnings []string       // problems that did not stop the computation
+	// Doubtful gives the reasons a computed result is doubtful: it rests
+	// on failed fits, or on flow the samples do not bracket, beyond what
+	// the cell accepts. A cell with reasons is in the Doubtful state.
+	Doubtful []string
 	// Messages say, positioned in the input, what the cell could not read,
 	// what it read in place of what was written, what it left out (a sample
 	// without an ion the cell needs) and what it inferred. They explain
@@ -19,6 +23,9 @@ type Output struct {
 	// Value is the typed result cells below read (for example the
 	// apportioned samples); it is not written to files.
 	Value any
+	// Reading says what the cell took each column of its data table as
+	// (samples and discharge cells); it is not part of the stored results.
+	Reading *Reading
 }
 
 // Table returns the output table with the given name, or nil.
@@ -108,6 +115,12 @@ type Figure struct {
 	Median float64 // central value
 	Low    float64 // 2.5 % bound
 	High   float64 // 97.5 % bound
+	// Note says how the figure was formed where that is not the cell's
+	// setting alone (an estimator applied through the measured species,
+	// samples left out or filled), or where two figures of one name differ
+	// in that ("over the whole record", "over complete years"); "" for
+	// none. It is for the reader and not part of the stored results.
+	Note string
 }
 
 // Point returns a figure without an interval.

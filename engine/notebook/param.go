@@ -13,11 +13,17 @@ type Param struct {
 	Key   string // JSON key, such as "area_km2"
 	Value string // current value as text; lists are comma-separated
 	Type  string // "number", "integer", "text", "yes/no" or "list"
+	// Blank is what an empty field means for a setting that may be left
+	// empty ("unknown", "not given", "needed" where the budget cannot do
+	// without it), "" for the others. Such a setting holds 0 when empty,
+	// and its Value is then "".
+	Blank string
 }
 
 type field struct {
 	key       string
 	omitEmpty bool
+	blank     string // the struct tag blank:"…": what an empty field means
 	v         reflect.Value
 }
 
@@ -32,7 +38,7 @@ func fields(s Settings) []field {
 			continue
 		}
 		name, opts, _ := strings.Cut(tag, ",")
-		out = append(out, field{key: name, omitEmpty: opts == "omitempty", v: v.Field(i)})
+		out = append(out, field{key: name, omitEmpty: opts == "omitempty", blank: t.Field(i).Tag.Get("blank"), v: v.Field(i)})
 	}
 	return out
 }
@@ -50,10 +56,13 @@ func fieldByKey(s Settings, key string) (field, bool) {
 func Params(s Settings) []Param {
 	var out []Param
 	for _, f := range fields(s) {
-		p := Param{Key: f.key}
+		p := Param{Key: f.key, Blank: f.blank}
 		switch f.v.Kind() {
 		case reflect.Float64:
 			p.Type, p.Value = "number", strconv.FormatFloat(f.v.Float(), 'g', -1, 64)
+			if f.blank != "" && f.v.Float() == 0 {
+				p.Value = ""
+			}
 		case reflect.Int, reflect.Int64:
 			p.Type, p.Value = "integer", strconv.FormatInt(f.v.Int(), 10)
 		case reflect.Bool:
@@ -75,20 +84,24 @@ func setField(s Settings, key, text string) error {
 		return fmt.Errorf("%s cell has no setting %q", s.Kind(), key)
 	}
 	text = strings.TrimSpace(text)
+	if text == "" && f.blank != "" && f.v.Kind() == reflect.Float64 {
+		f.v.SetFloat(0)
+		return nil
+	}
 	switch f.v.Kind() {
 	case reflect.Float64:
 		x, err := strconv.ParseFloat(strings.ReplaceAll(text, ",", "."), 64)
 		if err != nil {
-			return fmt.Errorf("%s: %q is not a number", key, text)
+			return settingErr(key, "%q is not a number", text)
 		}
 		f.v.SetFloat(x)
 	case reflect.Int, reflect.Int64:
 		x, err := strconv.ParseInt(text, 10, 64)
 		if err != nil {
-			return fmt.Errorf("%s: %q is not a whole number", key, text)
+			return settingErr(key, "%q is not a whole number", text)
 		}
 		if f.v.OverflowInt(x) {
-			return fmt.Errorf("%s: %q is too large", key, text)
+			return settingErr(key, "%q is too large", text)
 		}
 		f.v.SetInt(x)
 	case reflect.Bool:
@@ -98,7 +111,7 @@ func setField(s Settings, key, text string) error {
 		case "false", "no", "off", "0", "":
 			f.v.SetBool(false)
 		default:
-			return fmt.Errorf("%s: %q is not yes or no", key, text)
+			return settingErr(key, "%q is not yes or no", text)
 		}
 	case reflect.String:
 		f.v.SetString(text)

@@ -3,6 +3,7 @@ package notebook
 import (
 	"encoding/json"
 	"math"
+	"strings"
 
 	"lixiv/engine/problem"
 )
@@ -89,28 +90,63 @@ func messageEntry(cell string, m *Message) CellProblem {
 		Col: m.Col, Column: m.Column, Value: m.Value, Sample: m.Sample, Message: m.Text}
 }
 
+// Unapportioned is what the report says of the samples without a usable
+// apportionment: how many, the share of the flow-weighted cation load they
+// carried, and what the fluxes did with them.
+type Unapportioned struct {
+	Samples int    `json:"samples"`
+	Share   Number `json:"share_of_load"`
+	Policy  string `json:"policy"` // "leave-out" or "fill-shares"
+}
+
+// SulfateBracket is the CO2 consumption per km² under each origin of the
+// sulfate above the rain share (the chosen one and the others that bracket
+// it), and the span of their medians.
+type SulfateBracket struct {
+	Chosen  string                      `json:"chosen"`
+	Origins map[string]map[string]Range `json:"origins"` // origin → "silicate"/"carbonate" → mol/km²/yr
+	Span    map[string]Range            `json:"span"`    // "silicate"/"carbonate" → lowest and highest median (median null)
+}
+
 // Report is the summary of a computed budget that the command line prints
 // as JSON (documented in SCHEMA.md). Figures the budget lacks (no fluxes
 // cell, say) are null or left out.
 type Report struct {
-	Format       string            `json:"format"`  // "lixiv-report"
-	Version      int               `json:"version"` // 1
-	Engine       string            `json:"engine"`
-	Budget       string            `json:"budget"`
-	AreaKm2      Number            `json:"area_km2"`
-	RunoffMM     Range             `json:"runoff_mm_per_yr"`
-	CationFluxes map[string]Amount `json:"cation_fluxes,omitempty"`  // "silicate", "carbonate"
-	TimeScale    string            `json:"co2_time_scale,omitempty"` // "short" or "long"
+	Format  string `json:"format"`  // "lixiv-report"
+	Version int    `json:"version"` // 1
+	Engine  string `json:"engine"`
+	Budget  string `json:"budget"`
+	AreaKm2 Number `json:"area_km2"`
+	// RunoffMM is the runoff over the complete years of the budget period
+	// (the discharge record's own, with the interval of the discharge and
+	// area errors); RecordRunoffMM that of the whole record.
+	RunoffMM       Range             `json:"runoff_mm_per_yr"`
+	RecordRunoffMM Number            `json:"runoff_whole_record_mm_per_yr"`
+	CationFluxes   map[string]Amount `json:"cation_fluxes,omitempty"` // "silicate", "carbonate"
+	// FluxMethod says how the apportioned fluxes were computed.
+	FluxMethod string `json:"flux_method,omitempty"`
+	// Estimators holds the cation fluxes with each estimator: "silicate
+	// cations"/"carbonate cations" → estimator → amount.
+	Estimators    map[string]map[string]Amount `json:"estimators,omitempty"`
+	Unapportioned *Unapportioned               `json:"unapportioned,omitempty"`
+	TimeScale     string                       `json:"co2_time_scale,omitempty"` // "short" or "long"
 	// Convention names the long-term accounting when TimeScale is "long"
 	// (LongTermConventionOf).
-	Convention string                    `json:"co2_long_term_convention,omitempty"`
-	CO2        map[string]CO2Part        `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
-	Samples    []SampleReport            `json:"samples"`
-	Problems   []CellProblem             `json:"problems"`
-	Warnings   map[string][]string       `json:"warnings"`
-	Messages   []CellProblem             `json:"messages"`
-	Snapshot   *SnapshotCheck            `json:"snapshot"`
-	Figures    map[string][]ReportFigure `json:"figures"`
+	Convention string             `json:"co2_long_term_convention,omitempty"`
+	CO2        map[string]CO2Part `json:"co2_consumption,omitempty"` // "silicate", "carbonate"
+	// CO2Estimators holds the CO2 consumption per km² with each estimator:
+	// "silicate"/"carbonate" → estimator → mol/km²/yr.
+	CO2Estimators map[string]map[string]Range `json:"co2_estimators,omitempty"`
+	Sulfate       *SulfateBracket             `json:"sulfate_bracket,omitempty"`
+	Samples       []SampleReport              `json:"samples"`
+	Problems      []CellProblem               `json:"problems"`
+	// Doubtful lists the cells that computed but whose results are
+	// doubtful, with the reasons.
+	Doubtful map[string][]string       `json:"doubtful"`
+	Warnings map[string][]string       `json:"warnings"`
+	Messages []CellProblem             `json:"messages"`
+	Snapshot *SnapshotCheck            `json:"snapshot"`
+	Figures  map[string][]ReportFigure `json:"figures"`
 
 	// Carbonate and Minerals report the first carbonate and minerals
 	// cells; left out when the budget has none.
@@ -123,6 +159,7 @@ type ReportFigure struct {
 	Name string `json:"name"`
 	Unit string `json:"unit"`
 	Range
+	Note string `json:"note,omitempty"`
 }
 
 // SnapshotCheck compares the rerun with the results stored in the file.
@@ -148,10 +185,12 @@ func (d *Document) firstOf(k Kind) (string, *Output) {
 func (d *Document) Report() *Report {
 	r := &Report{Format: "lixiv-report", Version: 1, Engine: EngineVersion, Budget: d.Title, AreaKm2: Number(math.NaN()),
 		Samples: []SampleReport{}, Problems: []CellProblem{}, Warnings: map[string][]string{}, Messages: []CellProblem{},
-		Figures: map[string][]ReportFigure{}}
+		Figures: map[string][]ReportFigure{}, Doubtful: map[string][]string{}, RecordRunoffMM: Number(math.NaN())}
 	for _, c := range d.Cells {
 		st, err := d.Status(c.ID)
-		if st != UpToDate {
+		if st == Doubtful {
+			r.Doubtful[c.ID] = d.Output(c.ID).Doubtful
+		} else if st != UpToDate {
 			msg := ""
 			if err != nil {
 				msg = err.Error()
@@ -180,7 +219,7 @@ func (d *Document) Report() *Report {
 		}
 		if o := d.Output(c.ID); o != nil {
 			for i := range o.Figures {
-				r.Figures[c.ID] = append(r.Figures[c.ID], ReportFigure{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i])})
+				r.Figures[c.ID] = append(r.Figures[c.ID], ReportFigure{Name: o.Figures[i].Name, Unit: o.Figures[i].Unit, Range: rangeOf(&o.Figures[i]), Note: o.Figures[i].Note})
 			}
 		}
 	}
@@ -189,13 +228,29 @@ func (d *Document) Report() *Report {
 	}
 	r.RunoffMM = rangeOf(nil)
 	if _, o := d.firstOf(KindDischarge); o != nil {
-		r.RunoffMM = rangeOf(o.Figure("runoff"))
+		if f := o.Figure(RecordRunoffFigure); f != nil {
+			r.RecordRunoffMM = Number(f.Median)
+		}
 	}
 	if _, o := d.firstOf(KindFluxes); o != nil {
-		r.RunoffMM = rangeOf(o.Figure("runoff"))
+		r.RunoffMM = rangeOf(o.Figure(RunoffFigure))
 		r.CationFluxes = map[string]Amount{}
 		for _, src := range []string{"silicate", "carbonate"} {
-			r.CationFluxes[src] = Amount{rangeOf(o.Figure(src + " cations flux")), rangeOf(o.Figure(src + " cations yield"))}
+			f := o.Figure(src + " cations flux")
+			r.CationFluxes[src] = Amount{rangeOf(f), rangeOf(o.Figure(src + " cations yield"))}
+			if f != nil && r.FluxMethod == "" {
+				r.FluxMethod = f.Note
+			}
+		}
+		r.Estimators = estimatorAmounts(o.Table("estimators"), "series", "flux", "yield")
+		if f := o.Figure("samples without a usable apportionment"); f != nil {
+			r.Unapportioned = &Unapportioned{Samples: int(f.Median), Share: Number(math.NaN())}
+			if sh := o.Figure("share of the flow-weighted cation load in samples without a usable apportionment"); sh != nil {
+				r.Unapportioned.Share = Number(sh.Median)
+			}
+			if v, ok := o.Value.(*Fluxes); ok {
+				r.Unapportioned.Policy = v.Policy
+			}
 		}
 	}
 	id, co := d.firstOf(KindCO2)
@@ -223,6 +278,16 @@ func (d *Document) Report() *Report {
 				r.CO2[src] = p
 			}
 		}
+		if t := co.Table("estimators"); t != nil {
+			r.CO2Estimators = map[string]map[string]Range{}
+			for src, m := range estimatorAmounts(t, "source", "", "per_km2") {
+				r.CO2Estimators[src] = map[string]Range{}
+				for est, a := range m {
+					r.CO2Estimators[src][est] = a.MolPerKm2PerY
+				}
+			}
+		}
+		r.Sulfate = sulfateReport(co.Table("sulfate"))
 	}
 	if _, ao := d.firstOf(KindApportionment); ao != nil {
 		a := ao.Value.(*Apportioned)
@@ -266,4 +331,58 @@ func (r *Report) JSON() []byte {
 		panic("notebook: report: " + err.Error()) // every field marshals
 	}
 	return append(b, '\n')
+}
+
+// estimatorAmounts reads an estimators table: rows named by the column
+// key, one per estimator, with mol/yr columns flux (and _low, _high) when
+// flux is not "", and mol/km²/yr columns yield.
+func estimatorAmounts(t *ResultTable, key, flux, yield string) map[string]map[string]Amount {
+	if t == nil {
+		return nil
+	}
+	out := map[string]map[string]Amount{}
+	num := func(c string, i int) Number {
+		if col := t.Column(c); col != nil {
+			return Number(col.Num[i])
+		}
+		return Number(math.NaN())
+	}
+	for i := 0; i < t.Len(); i++ {
+		k, est := t.Column(key).Text[i], t.Column("estimator").Text[i]
+		if out[k] == nil {
+			out[k] = map[string]Amount{}
+		}
+		a := Amount{MolPerYr: Range{Number(math.NaN()), Number(math.NaN()), Number(math.NaN())}}
+		if flux != "" {
+			a.MolPerYr = Range{num(flux, i), num(flux+"_low", i), num(flux+"_high", i)}
+		}
+		a.MolPerKm2PerY = Range{num(yield, i), num(yield+"_low", i), num(yield+"_high", i)}
+		out[k][est] = a
+	}
+	return out
+}
+
+// sulfateReport reads the CO2 cell's sulfate table.
+func sulfateReport(t *ResultTable) *SulfateBracket {
+	if t == nil {
+		return nil
+	}
+	b := &SulfateBracket{Origins: map[string]map[string]Range{}, Span: map[string]Range{}}
+	for i := 0; i < t.Len(); i++ {
+		o, src := t.Column("origin").Text[i], t.Column("source").Text[i]
+		rg := Range{Number(t.Column("per_km2").Num[i]), Number(t.Column("per_km2_low").Num[i]), Number(t.Column("per_km2_high").Num[i])}
+		switch {
+		case o == "span of the origins":
+			b.Span[src] = rg
+			continue
+		case strings.HasSuffix(o, " (chosen)"):
+			o = strings.TrimSuffix(o, " (chosen)")
+			b.Chosen = o
+		}
+		if b.Origins[o] == nil {
+			b.Origins[o] = map[string]Range{}
+		}
+		b.Origins[o][src] = rg
+	}
+	return b
 }

@@ -1,7 +1,6 @@
 package notebook
 
 import (
-	"fmt"
 	"math"
 
 	"lixiv/engine/chem"
@@ -19,15 +18,15 @@ type Settings interface {
 
 // SiteSettings describe the catchment above the gauge.
 type SiteSettings struct {
-	Name               string  `json:"name"`                       // catchment name
-	AreaKm2            float64 `json:"area_km2"`                   // area above the gauge, km²
-	AreaUncertainty    float64 `json:"area_uncertainty_percent"`   // 1σ, % of the area
-	Precipitation      float64 `json:"precipitation_mm"`           // mean annual P, mm/yr (0 = unknown)
-	Evapotranspiration float64 `json:"evapotranspiration_mm"`      // mean annual ET, mm/yr (0 = unknown)
-	PeriodStart        string  `json:"period_start"`               // first day of the budget, YYYY-MM-DD ("" = record start)
-	PeriodEnd          string  `json:"period_end"`                 // last day, YYYY-MM-DD ("" = record end)
-	WaterYearStart     int     `json:"water_year_start_month"`     // 1 = calendar year, 10 = October
-	Latitude           float64 `json:"latitude_degrees,omitempty"` // optional, for the reader only
+	Name               string  `json:"name"`                                         // catchment name
+	AreaKm2            float64 `json:"area_km2" blank:"needed"`                      // area above the gauge, km² (0 = not given; blank in a field)
+	AreaUncertainty    float64 `json:"area_uncertainty_percent"`                     // 1σ, % of the area
+	Precipitation      float64 `json:"precipitation_mm" blank:"unknown"`             // mean annual P, mm/yr (0 = unknown; blank in a field)
+	Evapotranspiration float64 `json:"evapotranspiration_mm" blank:"unknown"`        // mean annual ET, mm/yr (0 = unknown; blank in a field)
+	PeriodStart        string  `json:"period_start"`                                 // first day of the budget, YYYY-MM-DD ("" = record start)
+	PeriodEnd          string  `json:"period_end"`                                   // last day, YYYY-MM-DD ("" = record end)
+	WaterYearStart     int     `json:"water_year_start_month"`                       // 1 = calendar year, 10 = October
+	Latitude           float64 `json:"latitude_degrees,omitempty" blank:"not given"` // optional, for the reader only (0 = not given; blank in a field)
 }
 
 // SamplesSettings control how the sample table is read.
@@ -63,7 +62,7 @@ type AtmosphereSettings struct {
 	ExcessChloride   string  `json:"excess_chloride"`        // "halite" or "human"
 	RatioSource      string  `json:"ratio_source,omitempty"` // where the ratios come from, shown to readers
 	// RatioUncertainty and FactorUncertainty are propagated through the
-	// apportionment's Monte Carlo draws (methods brief §8.6); 0 makes the
+	// apportionment's Monte Carlo draws (docs/methods.md §8.6); 0 makes the
 	// correction exact.
 	RatioUncertainty  float64 `json:"rain_ratio_uncertainty_percent"` // 1σ of each X/Cl ratio, %
 	FactorUncertainty float64 `json:"et_factor_uncertainty_percent"`  // 1σ of P/(P−ET), % (rain method, when Cl* comes from rain)
@@ -96,13 +95,24 @@ type FluxSettings struct {
 	SeriesBootstrap      int     `json:"series_bootstrap"`              // resamples for the intervals of the other series (0 = point values only)
 	DischargeUncertainty float64 `json:"discharge_uncertainty_percent"` // 1σ systematic error of Q, %
 	Seed                 int64   `json:"seed"`                          // random seed of the bootstrap
+	// Unapportioned says what becomes of samples without a usable
+	// apportionment: "leave-out" (their measured values are left out of
+	// the source fluxes too, which the estimator then makes from the other
+	// samples) or "fill-shares" (the measured species are fluxed from every
+	// sample, and the missing samples take the flow-weighted source shares
+	// of the apportioned samples of their year).
+	Unapportioned string `json:"unapportioned_samples"`
+	// DoubtfulPercent is the share of the flow-weighted cation load in
+	// samples without a usable apportionment, or of the flow the samples
+	// do not bracket, above which the fluxes and CO2 cells are doubtful, %.
+	DoubtfulPercent float64 `json:"doubtful_above_percent"`
 }
 
 // CO2Settings choose the CO2 accounting.
 type CO2Settings struct {
 	TimeScale   string `json:"time_scale"`   // "short" (years) or "long" (geological)
 	SulfurSplit string `json:"sulfur_split"` // "proportional" or "carbonate"
-	// LongTerm is the long-term silicate convention (methods brief §9.2):
+	// LongTerm is the long-term silicate convention (docs/methods.md §9.2):
 	// "conventional", (Ca+Mg)_sil, or "alkalinity", ½ Alk_sil, which also
 	// counts ½(Na+K)_sil; both less the share of sulfuric acid.
 	LongTerm string `json:"long_term_convention"`
@@ -163,7 +173,7 @@ func (*BrokenSettings) Kind() Kind { return KindBroken }
 func DefaultSettings(k Kind) Settings {
 	switch k {
 	case KindSite:
-		return &SiteSettings{AreaUncertainty: 2, WaterYearStart: 10} // 2 %: science brief 8.6, common practice
+		return &SiteSettings{AreaUncertainty: 2, WaterYearStart: 10} // 2 %: docs/methods.md §8.6, common practice
 	case KindSamples:
 		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10} // common practice
 	case KindDischarge:
@@ -173,7 +183,7 @@ func DefaultSettings(k Kind) Settings {
 		return &AtmosphereSettings{Method: "sea-salt", NaPerCl: 0.859120, KPerCl: 0.0186998, CaPerCl: 0.0188361,
 			MgPerCl: 0.0967577, SO4PerCl: 0.0517252, SrPerCl: 0.000166147, DryDeposition: 1,
 			ExcessChloride: "halite", RatioSource: "seawater, Millero et al. 2008",
-			// The methods brief §8.6 asks for user values and gives none.
+			// The docs/methods.md §8.6 asks for user values and gives none.
 			// The default method takes the reference-seawater ratios, whose
 			// major-ion proportions are constant in the open ocean (common
 			// practice, from memory), so they start exact (0); a user who
@@ -189,16 +199,19 @@ func DefaultSettings(k Kind) Settings {
 			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag",
 			// δ34S end-members: evaporite sulfate about +10 to +35 ‰ (Claypool
 			// et al. 1980), sedimentary sulfide usually negative; both from
-			// memory (methods brief §5.2). Users should set their own.
+			// memory (docs/methods.md §5.2). Users should set their own.
 			D34SRiver: 5, D34SEvaporite: 15, D34SSulfide: -10}
 	case KindFluxes:
-		// B = 1000 and σ_Q = 7 %: methods brief §8.6 (Efron & Tibshirani 1993
+		// B = 1000 and σ_Q = 7 %: docs/methods.md §8.6 (Efron & Tibshirani 1993
 		// for B; σ_Q common practice).
 		// SeriesBootstrap = 200 keeps the intervals of the other series
 		// cheap enough for the page to recompute after an edit (an
 		// engineering choice, no source).
+		// A quarter of the load resting on unapportioned samples or
+		// unbracketed flow makes the fluxes doubtful (an engineering
+		// choice, no source).
 		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000, SeriesBootstrap: 200,
-			DischargeUncertainty: 7, Seed: 1}
+			DischargeUncertainty: 7, Seed: 1, Unapportioned: "leave-out", DoubtfulPercent: 25}
 	case KindCO2:
 		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
 	case KindCarbonate:
@@ -219,23 +232,14 @@ func oneOf(key, v string, allowed ...string) error {
 			return nil
 		}
 	}
-	return fmt.Errorf("%s: %q is not one of %q", SettingName(key), v, allowed)
+	return settingErr(key, "%q is not one of %q", v, allowed)
 }
 
 func inRange(key string, v, lo, hi float64) error {
 	if math.IsNaN(v) || v < lo || v > hi {
-		return fmt.Errorf("%s: %s is outside %s to %s", SettingName(key), rangeNum(v), rangeNum(lo), rangeNum(hi))
+		return settingErr(key, "%g is outside [%g, %g]", v, lo, hi)
 	}
 	return nil
-}
-
-// rangeNum writes a number of a range message: whole numbers in full with
-// grouped digits (1,000,000), others as %g.
-func rangeNum(v float64) string {
-	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
-		return grouped(int(v))
-	}
-	return fmt.Sprintf("%g", v)
 }
 
 func firstErr(errs ...error) error {
@@ -275,7 +279,7 @@ func unitOK(key, u string) error {
 		return nil
 	}
 	if _, err := chem.ParseUnit(u); err != nil {
-		return fmt.Errorf("%s: %v", key, err)
+		return settingErr(key, "%v", err)
 	}
 	return nil
 }
@@ -327,7 +331,7 @@ func (s *ApportionmentSettings) Validate() error {
 		return err
 	}
 	if s.Model == "inverse" && len(s.Tracers) == 0 {
-		return fmt.Errorf("tracers: the inverse model needs at least one tracer")
+		return settingErr("tracers", "the inverse model needs at least one tracer")
 	}
 	return nil
 }
@@ -340,6 +344,8 @@ func (s *FluxSettings) Validate() error {
 		inRange("bootstrap", float64(s.Bootstrap), 1, MaxBootstrap),
 		inRange("series_bootstrap", float64(s.SeriesBootstrap), 0, MaxBootstrap),
 		inRange("discharge_uncertainty_percent", s.DischargeUncertainty, 0, 100),
+		oneOf("unapportioned_samples", s.Unapportioned, "leave-out", "fill-shares"),
+		inRange("doubtful_above_percent", s.DoubtfulPercent, 0, 100),
 	)
 }
 

@@ -100,7 +100,7 @@ func TestValidationWaterChemistry(t *testing.T) {
 		}
 	}
 	var b strings.Builder
-	b.WriteString("Mineral balance (minerals cell, methods brief §16): 100 invented catchments of the Greyhope Beck kind ")
+	b.WriteString("Mineral balance (minerals cell, docs/methods.md §16): 100 invented catchments of the Greyhope Beck kind ")
 	b.WriteString("(examples/synth; seeds 100–199), three water years of three-weekly samples with 3 % analytical noise, ")
 	b.WriteString("exact discharge and area (the budgets' discharge and area errors set to 0 %, so the intervals are the sampling ")
 	b.WriteString("bootstrap's, 200 replicates). Truth: the minerals the invented water was made from, fluxed day by day.\n\n")
@@ -131,7 +131,7 @@ func TestValidationWaterChemistry(t *testing.T) {
 	if pco2.n < 4000 || pco2.worst > 0.015 {
 		t.Errorf("carbonate cell: %d samples, worst pCO2 error %.2f %% (allowed 1.5 %%)", pco2.n, 100*pco2.worst)
 	}
-	validation.Section(t, "carbonate-system", fmt.Sprintf("Carbonate system (carbonate cell, methods brief §10): in the same 100 catchments each "+
+	validation.Section(t, "carbonate-system", fmt.Sprintf("Carbonate system (carbonate cell, docs/methods.md §10): in the same 100 catchments each "+
 		"sample's pH was made from its alkalinity and an invented pCO2 (Davies activities, the constants of Plummer & Busenberg 1982) "+
 		"and written to 0.01 pH, its temperature to 0.1 °C. Over %d samples the cell gives back the invented pCO2 to %.2f %% on average "+
 		"and %.2f %% at worst; the rounding of the pH alone allows 1.2 %%. (This checks that the cell inverts its own speciation; "+

@@ -29,7 +29,7 @@ type Balance struct {
 }
 
 // balanceCations and balanceAnions are the ions of the charge balance
-// (science.md §3.1): TZ+ = Na + K + 2Ca + 2Mg (+ 2Sr + NH4 + H),
+// (docs/methods.md §3.1): TZ+ = Na + K + 2Ca + 2Mg (+ 2Sr + NH4 + H),
 // TZ− = Cl + 2SO4 + NO3 + Alk (+ F + Br).
 var (
 	balanceCations = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Sr, chem.NH4}
@@ -118,7 +118,7 @@ func ChargeBalance(c chem.Composition, pH, tempC float64) Balance {
 
 // K2 returns the second dissociation constant of carbonic acid at tempC
 // (°C), from Plummer & Busenberg (1982), Geochim. Cosmochim. Acta 46,
-// 1011-1040 (science.md §10.1): log K2 = −107.8871 − 0.03252849 T +
+// 1011-1040 (docs/methods.md §10.1): log K2 = −107.8871 − 0.03252849 T +
 // 5151.79/T + 38.92561 log T − 563713.9/T², T in kelvin.
 func K2(tempC float64) float64 {
 	T := tempC + 273.15
@@ -126,14 +126,14 @@ func K2(tempC float64) float64 {
 }
 
 // Kw returns the ion product of water at tempC (°C): log Kw = −4470.99/T +
-// 6.0875 − 0.01706 T (Stumm & Morgan 1996, from memory; science.md §10.1).
+// 6.0875 − 0.01706 T (Stumm & Morgan 1996, from memory; docs/methods.md §10.1).
 func Kw(tempC float64) float64 {
 	T := tempC + 273.15
 	return math.Pow(10, -4470.99/T+6.0875-0.01706*T)
 }
 
 // SplitAlkalinity splits alkalinity (µeq/L) at the given pH and temperature
-// into HCO3− and CO3²− (µmol/L), with activity coefficients 1 (science.md
+// into HCO3− and CO3²− (µmol/L), with activity coefficients 1 (docs/methods.md
 // §10.3): carbonate alkalinity = Alk − OH− + H+; HCO3− = carbonate
 // alkalinity / (1 + 2 K2/aH); CO3²− = K2 HCO3− / aH. A negative carbonate
 // alkalinity (acid water) gives zero for both.

@@ -17,7 +17,7 @@ func comp(kv map[chem.Species]float64) chem.Composition {
 
 // Reference Composition of seawater, Millero, Feistel, Wright & McDougall
 // (2008), Deep-Sea Research I 55, 50-72, molalities x 1e6 (µmol/kg taken as
-// µmol/L); science.md §4.2.
+// µmol/L); docs/methods.md §4.2.
 var seawater = map[chem.Species]float64{
 	chem.Na: 486059.7, chem.Mg: 54742.1, chem.Ca: 10656.8, chem.K: 10579.7, chem.Sr: 94.0,
 	chem.Cl: 565764.7, chem.SO4: 29264.3, chem.Br: 872.8, chem.F: 70.8,
@@ -33,7 +33,7 @@ const (
 func TestChargeBalanceSeawater(t *testing.T) {
 	t.Run("full composition", func(t *testing.T) {
 		// All 13 ions: the carbonate, borate and hydroxide charge enters as
-		// total alkalinity = HCO3 + 2CO3 + B(OH)4 + OH. science.md §13 item 3:
+		// total alkalinity = HCO3 + 2CO3 + B(OH)4 + OH. docs/methods.md §13 item 3:
 		// NICB = -1.6e-5 % (≈ 0, tolerance ±0.01 %).
 		kv := map[chem.Species]float64{chem.Alk: swHCO3 + 2*swCO3 + swBOH4 + swOH}
 		for k, v := range seawater {
@@ -44,12 +44,12 @@ func TestChargeBalanceSeawater(t *testing.T) {
 			t.Errorf("NICB = %.6f %%, want 0 ± 0.01 %%", b.NICB)
 		}
 		if math.Abs(b.NICB-(-1.6e-5)) > 1e-6 {
-			t.Errorf("NICB = %.4g %%, want -1.6e-5 %% (science.md §13 item 3)", b.NICB)
+			t.Errorf("NICB = %.4g %%, want -1.6e-5 %% (docs/methods.md §13 item 3)", b.NICB)
 		}
 	})
 	t.Run("major seven", func(t *testing.T) {
 		// Only Na, K, Ca, Mg, Cl, SO4, HCO3: NICB +0.2173 %, CBE +0.1088 %
-		// (science.md §13 item 3; tolerance 1e-3 %).
+		// (docs/methods.md §13 item 3; tolerance 1e-3 %).
 		kv := map[chem.Species]float64{chem.HCO3: swHCO3}
 		for _, k := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4} {
 			kv[k] = seawater[k]
@@ -62,7 +62,7 @@ func TestChargeBalanceSeawater(t *testing.T) {
 }
 
 func TestChargeBalanceWorked(t *testing.T) {
-	// science.md §13 item 4: TZ+ 610, TZ- 590 µeq/L, NICB +3.2787 %, CBE +1.6667 %.
+	// docs/methods.md §13 item 4: TZ+ 610, TZ- 590 µeq/L, NICB +3.2787 %, CBE +1.6667 %.
 	c := comp(map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 200, chem.Mg: 50,
 		chem.Cl: 50, chem.SO4: 40, chem.NO3: 10, chem.Alk: 450})
 	tests := []struct {
@@ -99,7 +99,7 @@ func TestChargeBalanceAcidWater(t *testing.T) {
 }
 
 func TestCarbonateConstants(t *testing.T) {
-	// Plummer & Busenberg (1982); science.md §13 item 12, tolerance 5e-4:
+	// Plummer & Busenberg (1982); docs/methods.md §13 item 12, tolerance 5e-4:
 	// pK2 10.3289 at 25 °C and 10.6286 at 0 °C; log Kw -13.9947 at 25 °C.
 	tests := []struct {
 		name      string
@@ -117,7 +117,7 @@ func TestCarbonateConstants(t *testing.T) {
 }
 
 func TestSplitAlkalinity(t *testing.T) {
-	// science.md §13 item 13: Alk 2.000 meq/L, pH 8.00, 25 °C, γ = 1 ->
+	// docs/methods.md §13 item 13: Alk 2.000 meq/L, pH 8.00, 25 °C, γ = 1 ->
 	// HCO3 1.98042 mmol/L, CO3 9.2876 µmol/L (tolerance 1e-4 relative).
 	hco3, co3 := SplitAlkalinity(2000, 8, 25)
 	if math.Abs(hco3-1980.42)/1980.42 > 1e-4 || math.Abs(co3-9.2876)/9.2876 > 1e-4 {

@@ -52,7 +52,7 @@ func (s Status) String() string {
 // Measure says which imbalance the thresholds apply to.
 type Measure int
 
-// Imbalance definitions (science.md §3.1). CBE is about half of NICB.
+// Imbalance definitions (docs/methods.md §3.1). CBE is about half of NICB.
 const (
 	NICB Measure = iota // (TZ+ − TZ−)/TZ+ × 100, the default
 	CBE                 // (TZ+ − TZ−)/(TZ+ + TZ−) × 100
@@ -73,7 +73,7 @@ type Thresholds struct {
 }
 
 // DefaultThresholds accept |NICB| ≤ 5 %, flag 5-10 % and reject above 10 %
-// (common practice, no source; science.md §3.1).
+// (common practice, no source; docs/methods.md §3.1).
 var DefaultThresholds = Thresholds{OK: 5, Reject: 10}
 
 // Classify returns the status of an imbalance x (percent). NaN is Unknown.
@@ -97,7 +97,7 @@ type Options struct {
 	Measure Measure
 	// DiluteBelow and Dilute give other thresholds for dilute waters, whose
 	// TZ+ (µeq/L) is below DiluteBelow: such waters often tolerate ±10 %
-	// (common practice, no source; science.md §3.1). Off when DiluteBelow
+	// (common practice, no source; docs/methods.md §3.1). Off when DiluteBelow
 	// is 0 or Dilute is the zero value.
 	DiluteBelow float64
 	Dilute      Thresholds
@@ -113,7 +113,7 @@ type Options struct {
 	Ratios []chem.Species
 }
 
-// Majors are the ions a charge balance needs (science.md §3.1: TZ+ = Na + K
+// Majors are the ions a charge balance needs (docs/methods.md §3.1: TZ+ = Na + K
 // + 2Ca + 2Mg, TZ− = Cl + 2SO4 + NO3 + Alk; NO3 is left out, as it is often
 // not measured and rarely carries much charge; common practice). With one
 // of them missing the sums would compare part of the water with the whole

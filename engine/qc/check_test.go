@@ -44,7 +44,7 @@ func table(t *testing.T, text string) []*sample.Sample {
 }
 
 func TestCheckFlags(t *testing.T) {
-	// Row 1 is science.md §13 item 4 (NICB +3.2787 %); row 2 has 40 µmol/L
+	// Row 1 is docs/methods.md §13 item 4 (NICB +3.2787 %); row 2 has 40 µmol/L
 	// less Cl; row 3 lacks K and SO4 and has NO3 below a 2 µmol/L limit (1
 	// substituted): TZ+ 600, TZ- 501 from the ions present, but no NICB,
 	// since two majors are missing; row 4 has no anions.
@@ -122,7 +122,7 @@ func TestCheckFlags(t *testing.T) {
 }
 
 func TestCheckMissingMajor(t *testing.T) {
-	// science.md §13 item 4 (TZ+ 610, TZ- 590 µeq/L, NICB +3.2787 %) with
+	// docs/methods.md §13 item 4 (TZ+ 610, TZ- 590 µeq/L, NICB +3.2787 %) with
 	// one major ion blanked at a time. From the ions present a blank Na
 	// would give (410 - 590)/410 = -43.9 %, a blank Ca -116 %: values that
 	// say nothing about the analysis. Every such sample must have no NICB

@@ -13,7 +13,7 @@
 //
 // Check runs, for each sample:
 //
-//  1. Charge sums from the ions present (science.md §3.1): TZ+ = Na + K +
+//  1. Charge sums from the ions present (docs/methods.md §3.1): TZ+ = Na + K +
 //     2Ca + 2Mg + 2Sr + NH4 (+ H+ from pH when no alkalinity is given);
 //     TZ− = Cl + 2SO4 + NO3 + F + Br + Alk, or HCO3 + 2CO3 without
 //     alkalinity. Alkalinity is taken as HCO3− in charge terms; at a known

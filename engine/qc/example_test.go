@@ -9,7 +9,7 @@ import (
 	"lixiv/engine/sample"
 )
 
-// The worked example of science.md §13 item 4.
+// The worked example of docs/methods.md §13 item 4.
 func ExampleChargeBalance() {
 	c := chem.NewComposition()
 	c[chem.Na], c[chem.K], c[chem.Ca], c[chem.Mg] = 100, 10, 200, 50

@@ -48,7 +48,7 @@ type awkwardCase struct {
 
 // Check values: 40.078 mg/L Ca is 1000 µmol/L and 100 mg/L alkalinity as
 // CaCO3 is 1998.28 µeq/L; 1 mg/L NO3-N is 71.3929 µmol/L and 1 µg/L Sr is
-// 0.0114129 µmol/L (methods brief §13.1, CIAAW 2021 weights). 2.298977 mg/L
+// 0.0114129 µmol/L (docs/methods.md §13 item 1, CIAAW 2021 weights). 2.298977 mg/L
 // Na is 100 µmol/L (M(Na) 22.98976928 g/mol, CIAAW 2021).
 var awkwardCases = []awkwardCase{
 	{file: "units-u-ascii.csv", samples: 1, values: []value{{0, chem.Ca, 1000, 0}, {0, chem.Na, 250, 0}},

@@ -95,7 +95,7 @@ func slowNumber(b []byte, dec byte) (float64, bool) {
 	return f, true
 }
 
-// missingWords are cells read as "not measured" (science.md §1.1).
+// missingWords are cells read as "not measured" (docs/methods.md §1.1).
 var missingWords = map[string]bool{
 	"na": true, "n/a": true, "n.a.": true, "n.a": true, "#n/a": true, "nd": true, "n.d.": true, "n.d": true,
 	"-": true, "--": true, "---": true, "–": true, "—": true, "nan": true, "null": true, "none": true,
@@ -103,7 +103,7 @@ var missingWords = map[string]bool{
 	".": true, "?": true,
 }
 
-// missingCodes are numbers used as "no value" in exports (science.md §1.1).
+// missingCodes are numbers used as "no value" in exports (docs/methods.md §1.1).
 func isMissingCode(v float64) bool { return v == -999 || v == -9999 || v == -99999 }
 
 // limitWords are what follows "<" when the limit is not a number, and the

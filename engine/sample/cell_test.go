@@ -45,7 +45,7 @@ func TestParseNumberMatchesStrconv(t *testing.T) {
 }
 
 func TestClassifyCell(t *testing.T) {
-	// Spellings from science.md §1.1 (common practice in laboratory exports).
+	// Spellings from docs/methods.md §1.1 (common practice in laboratory exports).
 	tests := []struct {
 		in    string
 		dec   byte

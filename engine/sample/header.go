@@ -18,7 +18,7 @@ type heading struct {
 }
 
 // nameKinds maps a squeezed header name (lower case, letters and digits
-// only) to its kind. Spellings follow ../shared/science.md §1.1.
+// only) to its kind. Spellings follow docs/methods.md §1.1.
 var nameKinds = map[string]Kind{
 	"id": ID, "sampleid": ID, "sample": ID, "samplename": ID, "sampleno": ID, "samplenumber": ID,
 	"samplecode": ID, "probe": ID, "probennummer": ID, "labid": ID, "labno": ID, "labcode": ID, "labnumber": ID, "code": ID, "sampleref": ID,
@@ -176,7 +176,7 @@ func dischargeUnit(s string) (float64, bool) {
 	case "l/s", "ls-1", "l.s-1", "ls", "litres/s", "liters/s":
 		return 1e-3, true
 	case "cfs", "ft3/s", "ft3s-1", "cuft/s":
-		return 0.028316846592, true // 1 ft = 0.3048 m exactly (science.md §1.1)
+		return 0.028316846592, true // 1 ft = 0.3048 m exactly (docs/methods.md §1.1)
 	case "m3/d", "m3/day", "m3d-1":
 		return 1.0 / 86400, true
 	case "m3/h", "m3/hr", "m3h-1":

@@ -7,7 +7,7 @@ import (
 )
 
 func TestClassify(t *testing.T) {
-	// Header spellings from the issue and science.md §1.1 (common practice).
+	// Header spellings from the issue and docs/methods.md §1.1 (common practice).
 	tests := []struct {
 		in      string
 		kind    Kind
@@ -63,8 +63,8 @@ func TestClassify(t *testing.T) {
 }
 
 func TestSideUnits(t *testing.T) {
-	// 1 ft3/s = 0.028316846592 m3/s exactly (1 ft = 0.3048 m; science.md §1.1);
-	// mS/m x 10 and mS/cm x 1000 to µS/cm (science.md §1.1).
+	// 1 ft3/s = 0.028316846592 m3/s exactly (1 ft = 0.3048 m; docs/methods.md §1.1);
+	// mS/m x 10 and mS/cm x 1000 to µS/cm (docs/methods.md §1.1).
 	for _, tc := range []struct {
 		in   string
 		want float64

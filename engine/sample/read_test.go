@@ -14,7 +14,7 @@ import (
 func near(a, b, tol float64) bool { return math.Abs(a-b) <= tol*math.Max(1, math.Abs(b)) }
 
 func TestReadDelimiters(t *testing.T) {
-	// 40.078 mg/L Ca = 1000 µmol/L (science.md §2.3, IUPAC 2021 weights).
+	// 40.078 mg/L Ca = 1000 µmol/L (docs/methods.md §2.3, IUPAC 2021 weights).
 	tests := []struct {
 		name       string
 		text       string
@@ -111,7 +111,7 @@ func TestReadQuotes(t *testing.T) {
 
 func TestReadUnitsRow(t *testing.T) {
 	// Units row under the names; 1 mg/L NO3-N = 71.3929 µmol/L, 100 mg/L as
-	// CaCO3 = 1998.28 µeq/L (science.md §2.3).
+	// CaCO3 = 1998.28 µeq/L (docs/methods.md §2.3).
 	text := "Site,NO3,Alkalinity,Ca,Q\n,mg/L as N,mg/L CaCO3,meq/L,m3/s\nA,1,100,2,0.5\n"
 	tb := ParseText(text, "u.csv", Options{})
 	if err := tb.Problems.Err(); err != nil {

@@ -43,7 +43,7 @@ var Examples = []Example{
 			return nil, err
 		}
 		// Two tracers for two end-members: over-determined by one, so the
-		// misfit test has something to say (methods brief §7.4).
+		// misfit test has something to say (docs/methods.md §7.4).
 		if err := d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na"); err != nil {
 			return nil, err
 		}
@@ -55,7 +55,7 @@ var Examples = []Example{
 	{"examples/marlow-fen/marlow-fen.lixiv.json", func() (*notebook.Document, error) {
 		return MarlowFen().Budget("global", "forward", 2000, 500,
 			"Marlow Fen is a fictional lowland river on limestone and shale with gypsum and pyrite. The data are invented (examples/synth), not measured.",
-			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; set the apportionment's sulfate to sulfide to see the other end of the bracket.")
+			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; the CO2 cell shows beside it the other end of the bracket, all from sulfide oxidation.")
 	}},
 	{"examples/greyhope-beck/greyhope-beck.lixiv.json", greyhopeBudget},
 }
@@ -76,4 +76,16 @@ func Computed(ctx context.Context, ex Example) (*notebook.Document, error) {
 		}
 	}
 	return d, d.Keep()
+}
+
+// DoubtfulDemo returns the demo budget (the first example) with its fluxes
+// made doubtful, for tests of the doubtful state: a limit of 1 % on the
+// flow its samples do not bracket, which the 1.6 % of flow before its first
+// sample exceeds. It is not computed.
+func DoubtfulDemo() (*notebook.Document, error) {
+	d, err := Examples[0].Build()
+	if err != nil {
+		return nil, err
+	}
+	return d, d.SetParam("fluxes", "doubtful_above_percent", "1")
 }

@@ -46,7 +46,7 @@ type Truth struct {
 }
 
 // Seawater X/Cl molar ratios (Millero et al. 2008 reference composition,
-// as in the methods brief §4.2).
+// as in the docs/methods.md §4.2).
 var seaPerCl = map[chem.Species]float64{chem.Na: 0.859120, chem.K: 0.0186998, chem.Ca: 0.0188361,
 	chem.Mg: 0.0967577, chem.SO4: 0.0517252}
 
@@ -119,7 +119,7 @@ func (t *Truth) Samples(q []float64) []Sample {
 		no3 := t.NO3 * (0.5 + r.Float64())
 		// Sulfuric acid from pyrite and nitric acid from nitrification are
 		// buffered by calcite: 2 CaCO3 + H2SO4 -> 2 Ca + 2 HCO3 + SO4 and
-		// CaCO3 + HNO3 -> Ca + HCO3 + NO3 (methods brief §9.1).
+		// CaCO3 + HNO3 -> Ca + HCO3 + NO3 (docs/methods.md §9.1).
 		c[chem.Ca] = cl*seaPerCl[chem.Ca] + naSil*t.CaNaSil + ca + t.Gypsum*dil + 2*t.Pyrite*dil + no3
 		c[chem.Mg] = cl*seaPerCl[chem.Mg] + naSil*t.MgNaSil + mg
 		c[chem.SO4] = cl*seaPerCl[chem.SO4] + t.Gypsum*dil + t.Pyrite*dil
@@ -225,7 +225,7 @@ func (t *Truth) Budget(preset, model string, draws, bootstrap int, notes ...stri
 // TrueSilicateCO2 returns the mean annual short-term CO2 consumption by
 // silicate weathering (mol/km²/yr) that the truth implies over the record
 // q: every day's noise-free silicate alkalinity Na_sil (1 + K/Na + 2 Ca/Na
-// + 2 Mg/Na) at that day's discharge, times the discharge (methods brief
+// + 2 Mg/Na) at that day's discharge, times the discharge (docs/methods.md
 // §8.5 and §9.2).
 func (t *Truth) TrueSilicateCO2(q []float64) float64 {
 	mean := 0.0

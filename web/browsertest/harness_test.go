@@ -209,3 +209,30 @@ func waitIdle(t testing.TB, ctx context.Context) {
 		t.Fatalf("page did not finish computing: %v", err)
 	}
 }
+
+// reloadSaved waits until the page has saved the last edit in browser
+// storage, reloads it and waits until it has computed again.
+func reloadSaved(t testing.TB, ctx context.Context) {
+	t.Helper()
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("saved-state").textContent.startsWith("Saved in this browser")`,
+		chromedp.WithPollingTimeout(patience))); err != nil {
+		t.Fatalf("no visible saved state: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	waitReady(t, ctx)
+	waitIdle(t, ctx)
+}
+
+// intoDemo answers the question the page asks of a table opened over the
+// demo: into the demo's table.
+func intoDemo(t testing.TB, ctx context.Context) {
+	t.Helper()
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("choice-demo")`, chromedp.WithPollingTimeout(patience))); err != nil {
+		t.Fatalf("no question for a table opened over the demo: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#choice-demo"))); err != nil {
+		t.Fatal(err)
+	}
+}

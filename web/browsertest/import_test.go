@@ -78,11 +78,13 @@ func TestAwkwardFilesOpenAndPaste(t *testing.T) {
 			ctx := newBrowser(t, "")
 			open(t, ctx, srv.URL)
 			waitIdle(t, ctx)
-			// Open: the file replaces the table of the first cell of its kind.
+			// Open: the file replaces the table of the first cell of its kind
+			// (asked, the user puts it into the demo).
 			gen := eval[string](t, ctx, `document.body.dataset.gen`)
 			if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{path})); err != nil {
 				t.Fatal(err)
 			}
+			intoDemo(t, ctx)
 			waitGen(t, ctx, gen)
 			shown := eval[string](t, ctx, fmt.Sprintf(`(document.querySelector("section.kind-%s .table-problems") || {textContent: ""}).textContent`, tc.kind))
 			for _, w := range tc.open {

@@ -113,8 +113,14 @@ func TestDemoShowsCO2(t *testing.T) {
 		t.Errorf("summary strip: got %q, want a CO2 figure", summary)
 	}
 	t.Logf("%s = %s", name, value)
-	// The demo file carries the results computed natively; the page's rerun
-	// in WebAssembly must reproduce them.
+	// The demo file carries the results computed natively; opened as a
+	// budget file of one's own, the page's rerun in WebAssembly must
+	// reproduce them.
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json")})); err != nil {
+		t.Fatal(err)
+	}
+	waitGen(t, ctx, gen)
 	if v := eval[string](t, ctx, `document.getElementById("verify").textContent`); v != "stored results match the rerun" {
 		t.Errorf("footer: got %q, want the demo's stored results to match the rerun", v)
 	}
@@ -483,6 +489,7 @@ func TestDropSamplesFile(t *testing.T) {
 		dt.items.add(new File([%s], "new-samples.tsv", {type: "text/tab-separated-values"}));
 		document.querySelector(".page").dispatchEvent(new DragEvent("drop", {dataTransfer: dt, bubbles: true, cancelable: true}));
 		return true })()`, text))
+	intoDemo(t, ctx)
 	waitGen(t, ctx, gen)
 	if got := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`); !strings.HasPrefix(got, "3 rows") {
 		t.Errorf("samples table after the drop: got %q, want 3 rows", got)
@@ -548,16 +555,8 @@ func TestAutosaveReopens(t *testing.T) {
 	waitIdle(t, ctx)
 	atm := cellOf(t, ctx, "atmosphere")
 	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.66")
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("saved-state").textContent.startsWith("Saved in this browser")`,
-		chromedp.WithPollingTimeout(patience))); err != nil {
-		t.Fatalf("no visible saved state: %v", err)
-	}
 	_, want := co2Figure(t, ctx)
-	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
-		t.Fatal(err)
-	}
-	waitReady(t, ctx)
-	waitIdle(t, ctx)
+	reloadSaved(t, ctx)
 	if got := eval[string](t, ctx, fmt.Sprintf(`document.getElementById("p-%s-na_per_cl").value`, atm)); got != "0.66" {
 		t.Errorf("Na/Cl after reopening: got %q, want the autosaved 0.66", got)
 	}

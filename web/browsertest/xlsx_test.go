@@ -67,7 +67,8 @@ func workbook(t testing.TB, rows [][]string) []byte {
 }
 
 // TestOpenSamplesWorkbook opens an .xlsx workbook of three samples through
-// the file picker: they replace the samples table, as a CSV file would.
+// the file picker: asked, the user puts them into the demo, where they
+// replace the samples table, as a CSV file would.
 func TestOpenSamplesWorkbook(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
@@ -88,6 +89,7 @@ func TestOpenSamplesWorkbook(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
 		t.Fatal(err)
 	}
+	intoDemo(t, ctx)
 	waitGen(t, ctx, gen)
 	if got := eval[string](t, ctx, `document.querySelector("section.kind-samples .table-tools span").textContent`); !strings.HasPrefix(got, "3 rows") {
 		t.Errorf("samples table after opening the workbook: got %q, want 3 rows", got)

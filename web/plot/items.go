@@ -141,7 +141,7 @@ func (bx *box) draw(b *strings.Builder, c *Chart) {
 	t, bt := math.Min(y0, y1), math.Max(y0, y1)
 	fmt.Fprintf(b, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" fill-opacity="0.6" stroke="%s" stroke-width="1.2" stroke-dasharray="%s"/>`,
 		l, t, math.Max(r-l, 1), math.Max(bt-t, 1), c.hatchURL(bx.s), bx.s.Colour, bx.s.Dash)
-	fmt.Fprintf(b, `<text x="%.1f" y="%.1f" font-size="11" fill="#111" stroke="#fff" stroke-width="3" paint-order="stroke">%s</text>`, l+3, bt-4, esc(bx.name))
+	fmt.Fprintf(b, `<text x="%.1f" y="%.1f" font-size="12" fill="#111" stroke="#fff" stroke-width="3" paint-order="stroke">%s</text>`, l+3, bt-4, esc(bx.name))
 }
 
 type interval struct {

@@ -53,6 +53,7 @@ func budgetPaths(args []string) ([]string, error) {
 type outcome struct {
 	line     string
 	failed   bool
+	doubtful bool
 	mismatch bool
 }
 
@@ -66,6 +67,10 @@ func runOne(ctx context.Context, path, outDir string) outcome {
 	if problems := cellProblems(d); len(problems) > 0 {
 		parts = append(parts, fmt.Sprintf("%d cells with problems", len(problems)))
 		o.failed = true
+	}
+	if doubt := doubtfulCells(d); len(doubt) > 0 {
+		parts = append(parts, "doubtful: "+strings.Join(doubt, ", "))
+		o.doubtful = true
 	}
 	r := d.Report()
 	if p, ok := r.CO2["silicate"]; ok {
@@ -115,7 +120,7 @@ func runBatch(args []string, stdout, stderr io.Writer) error {
 	}
 	start := time.Now()
 	res := batch(context.Background(), paths, *jobs, *outDir)
-	failed, differ := 0, 0
+	failed, differ, doubt := 0, 0, 0
 	for _, o := range res {
 		fmt.Fprintln(stdout, o.line)
 		if o.failed {
@@ -124,6 +129,9 @@ func runBatch(args []string, stdout, stderr io.Writer) error {
 		if o.mismatch {
 			differ++
 		}
+		if o.doubtful {
+			doubt++
+		}
 	}
 	fmt.Fprintf(stderr, "%d budgets in %.2f s on %d workers\n", len(paths), time.Since(start).Seconds(), *jobs)
 	if failed > 0 {
@@ -131,6 +139,9 @@ func runBatch(args []string, stdout, stderr io.Writer) error {
 	}
 	if *check && differ > 0 {
 		return &statusError{code: errMismatch, msg: fmt.Sprintf("%d of %d budgets do not match their stored results", differ, len(paths))}
+	}
+	if doubt > 0 {
+		return &statusError{code: errDoubtful, msg: fmt.Sprintf("%d of %d budgets have doubtful results", doubt, len(paths))}
 	}
 	return nil
 }

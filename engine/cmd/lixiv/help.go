@@ -27,7 +27,8 @@ Usage:
   lixiv help                           this text
 
 Budget files end in .lixiv.json. Exit status: 0 ok; 1 error, or a budget with cells that did not
-compute (rerun, quick and batch still print it); 2 usage; 3 results differ.
+compute (rerun, quick and batch still print it); 2 usage; 3 results differ; 4 doubtful results
+(every cell computed, but some rest on failed fits or unbracketed flow; the summary says why).
 A figure without a value is printed as "no value" with the reason.
 CO2 consumption is a geochemical budget, not a carbon-removal credit.
 `

@@ -55,9 +55,14 @@ func usageError(msg string) error { return &statusError{code: 2, msg: msg} }
 // errMismatch is the exit status of a rerun that does not match its file.
 const errMismatch = 3
 
+// errDoubtful is the exit status of rerun, quick and batch when every cell
+// computed but some results are doubtful (notebook.Doubtful).
+const errDoubtful = 4
+
 // exitCode maps an error to the process exit status: 2 for a usage error,
-// 3 for results that do not match the stored snapshot, 1 otherwise, which
-// includes a budget whose cells did not all compute (rerun, quick, batch).
+// 3 for results that do not match the stored snapshot, 4 for doubtful
+// results, 1 otherwise, which includes a budget whose cells did not all
+// compute (rerun, quick, batch).
 func exitCode(err error) int {
 	var se *statusError
 	if errors.As(err, &se) {

@@ -6,23 +6,39 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"lixiv/examples/synth"
 )
 
 // TestProblemsExitStatus checks that quick and rerun, like batch, print the
-// whole budget and then exit with status 1 when cells did not compute.
+// whole budget and then exit with status 1 when cells did not compute, and
+// with status 4 when every cell computed but some results are doubtful.
 func TestProblemsExitStatus(t *testing.T) {
 	dir := t.TempDir()
 	// A samples table whose headers name no species or date (misspelt).
 	wrong := filepath.Join(dir, "misspelt.csv")
 	// A budget whose one cell cannot be read: a row longer than the header.
 	broken := filepath.Join(dir, "broken.lixiv.json")
+	// Samples whose Na is all sea salt (see TestNoValue): none can be
+	// apportioned.
+	salty := filepath.Join(dir, "salty.csv")
 	for path, text := range map[string]string{
 		wrong:  "Sample,When,Sodum,Potasium,Calc,Magn,Chlor\nA1,2024-01-01,4.1,0.4,2.3,0.9,5\nA2,2024-02-01,4.2,0.5,2.5,1.0,5.5\n",
 		broken: `{"format":"lixiv-budget","version":1,"cells":[{"id":"s","kind":"samples","table":{"columns":["a"],"rows":[[1,2]]}}]}`,
+		salty:  saltySamples,
 	} {
 		if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
 			t.Fatal(err)
 		}
+	}
+	// The demo with doubtful fluxes (synth.DoubtfulDemo).
+	doubtful := filepath.Join(dir, "doubtful.lixiv.json")
+	d, err := synth.DoubtfulDemo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(doubtful, d.Marshal(), 0o644); err != nil {
+		t.Fatal(err)
 	}
 	tests := []struct {
 		name     string
@@ -36,6 +52,14 @@ func TestProblemsExitStatus(t *testing.T) {
 		{"rerun, good and unreadable", []string{"rerun", rain, broken}, 1, "broken.lixiv.json: s (problem)", "stored results: match"},
 		{"rerun, good", []string{"rerun", rain}, 0, "", "stored results: match"},
 		{"batch, unreadable cell", []string{"batch", broken}, 1, "1 of 1 budgets failed", "1 cells with problems"},
+		{"quick, nothing apportioned", []string{"quick", "-samples", salty}, errDoubtful, "doubtful results (see above): salty.csv: apportionment, co2",
+			"doubtful: no sample has a usable apportionment (all 2 samples failed)"},
+		{"rerun, doubtful", []string{"rerun", doubtful}, errDoubtful, "doubtful results (see above): doubtful.lixiv.json: fluxes, co2",
+			"fluxes (fluxes): doubtful\n    doubtful: 2 % of the flow passed before the first or after the last apportioned sample (above 1 %)"},
+		{"rerun, doubtful and unreadable", []string{"rerun", doubtful, broken}, 1, "broken.lixiv.json: s (problem)", "fluxes (fluxes): doubtful"},
+		{"batch, doubtful", []string{"batch", doubtful}, errDoubtful, "1 of 1 budgets have doubtful results", "doubtful: fluxes, co2"},
+		{"rerun -json, doubtful", []string{"rerun", "-json", doubtful}, errDoubtful, "doubtful", `"doubtful": {
+    "co2": [`},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -50,18 +74,20 @@ func TestProblemsExitStatus(t *testing.T) {
 	}
 }
 
+// saltySamples are invented samples whose Cl exceeds Na/0.85912 (the
+// sea-salt Na/Cl of Millero et al. 2008, docs/methods.md §4.2), so that the
+// rain correction takes all their Na and none can be apportioned.
+// Alkalinity is chosen so that both balance (TZ+ = TZ− = 610 and 652
+// µeq/L).
+const saltySamples = "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
+	"S1,2024-01-10,100,10,200,50,150,40,380\n" +
+	"S2,2024-02-10,110,12,210,55,160,42,408\n"
+
 // TestNoValue checks that a figure or a per-sample result without a value
 // is printed as "no value" with the reason, never as NaN.
 func TestNoValue(t *testing.T) {
-	// Invented samples whose Cl exceeds Na/0.85912 (the sea-salt Na/Cl of
-	// Millero et al. 2008, science.md §4.2), so that the rain correction
-	// takes all their Na and none can be apportioned. Alkalinity is chosen
-	// so that both balance (TZ+ = TZ− = 610 and 652 µeq/L).
 	path := filepath.Join(t.TempDir(), "salty.csv")
-	text := "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
-		"S1,2024-01-10,100,10,200,50,150,40,380\n" +
-		"S2,2024-02-10,110,12,210,55,160,42,408\n"
-	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+	if err := os.WriteFile(path, []byte(saltySamples), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	stdout, _, err := runStatus([]string{"quick", "-samples", path})
@@ -73,6 +99,7 @@ func TestNoValue(t *testing.T) {
 		"median silicate CO2 consumption per litre: no value: no sample could be apportioned",
 		"S1 2024-01-10 skipped: no value: the sample was not apportioned",
 		"atmospheric share of Na above 1 in 2 of 2 samples",
+		"inversion: skipped for all 2 samples",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("stdout lacks %q:\n%s (error %v)", want, out, err)

@@ -22,14 +22,7 @@ import (
 // it stops at the per-sample apportionment and CO2 per litre.
 func quickBudget(samplesPath, sheet, dischargePath string, area float64, set ...func(*notebook.SamplesSettings, *notebook.DischargeSettings)) (*notebook.Document, error) {
 	name := strings.TrimSuffix(filepath.Base(samplesPath), filepath.Ext(samplesPath))
-	d := notebook.New("Quick budget from " + filepath.Base(samplesPath))
-	add := func(k notebook.Kind, id, title string) *notebook.Cell {
-		c := notebook.NewCell(k, id, title)
-		if err := d.Insert(c, -1); err != nil {
-			panic(err) // fixed ids; a clash is a programming error
-		}
-		return c
-	}
+	d := notebook.NewBudget("Quick budget from " + filepath.Base(samplesPath))
 	readTable := func(path, sheet string) (*notebook.Table, error) {
 		b, err := os.ReadFile(path)
 		if err != nil {
@@ -44,48 +37,49 @@ func quickBudget(samplesPath, sheet, dischargePath string, area float64, set ...
 		}
 		return notebook.ReadTable(filepath.Base(path), string(b))
 	}
-	if dischargePath != "" {
-		if area <= 0 {
-			return nil, usageError("quick: a discharge file needs -area (km², above zero)")
-		}
-		s := add(notebook.KindSite, "site", name).Settings.(*notebook.SiteSettings)
-		s.Name, s.AreaKm2 = name, area
+	if dischargePath != "" && area <= 0 {
+		return nil, usageError("quick: a discharge file needs -area (km², above zero)")
 	}
+	titles := map[string]string{"site": name, "samples": filepath.Base(samplesPath), "discharge": filepath.Base(dischargePath),
+		"rain": "Sea-salt correction", "sources": "End-members (global preset)", "apportionment": "Sources of the cations",
+		"fluxes": "Annual fluxes", "co2": "CO2 consumption"}
+	for _, c := range d.Cells {
+		c.Title = titles[c.ID]
+	}
+	d.Cell("site").Settings.(*notebook.SiteSettings).Name = name
+	d.Cell("site").Settings.(*notebook.SiteSettings).AreaKm2 = area
 	st, err := readTable(samplesPath, sheet)
 	if err != nil {
 		return nil, err
 	}
-	sc := add(notebook.KindSamples, "samples", filepath.Base(samplesPath))
-	sc.Table = st
-	ds := &notebook.DischargeSettings{}
-	if dischargePath != "" {
+	d.Cell("samples").Table = st
+	if dischargePath == "" { // per-sample apportionment and CO2 per litre only
+		for _, id := range []string{"site", "discharge", "fluxes"} {
+			if err := d.Remove(id); err != nil {
+				return nil, err
+			}
+		}
+	} else {
 		qt, err := readTable(dischargePath, "")
 		if err != nil {
 			return nil, err
 		}
-		dc := add(notebook.KindDischarge, "discharge", filepath.Base(dischargePath))
-		dc.Table, ds = qt, dc.Settings.(*notebook.DischargeSettings)
+		d.Cell("discharge").Table = qt
+	}
+	ds := &notebook.DischargeSettings{}
+	if c := d.Cell("discharge"); c != nil {
+		ds = c.Settings.(*notebook.DischargeSettings)
 	}
 	for _, f := range set {
-		f(sc.Settings.(*notebook.SamplesSettings), ds)
+		f(d.Cell("samples").Settings.(*notebook.SamplesSettings), ds)
 	}
-	for _, c := range []*notebook.Cell{sc, d.Cell("discharge")} {
-		if c != nil {
+	for _, id := range []string{"samples", "discharge"} {
+		if c := d.Cell(id); c != nil {
 			if err := c.Settings.Validate(); err != nil {
 				return nil, usageError("quick: " + err.Error())
 			}
 		}
 	}
-	add(notebook.KindAtmosphere, "rain", "Sea-salt correction")
-	src := add(notebook.KindSources, "sources", "End-members (global preset)")
-	if src.Table, err = notebook.SourcesTable("global"); err != nil {
-		return nil, err
-	}
-	add(notebook.KindApportionment, "apportionment", "Sources of the cations")
-	if dischargePath != "" {
-		add(notebook.KindFluxes, "fluxes", "Annual fluxes")
-	}
-	add(notebook.KindCO2, "co2", "CO2 consumption")
 	return d, nil
 }
 
@@ -146,10 +140,14 @@ func runQuick(args []string, stdout, stderr io.Writer) error {
 			perSample(stdout, d)
 		}
 	}
+	var bad, doubt []string
 	if p := cellProblems(d); len(p) > 0 {
-		return problemsError([]string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")})
+		bad = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
 	}
-	return nil
+	if p := doubtfulCells(d); len(p) > 0 {
+		doubt = []string{filepath.Base(*samples) + ": " + strings.Join(p, ", ")}
+	}
+	return problemsError(bad, doubt)
 }
 
 // columnList collects the repeated -use-column flag.

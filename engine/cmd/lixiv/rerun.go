@@ -41,7 +41,7 @@ func runRerun(args []string, stdout, stderr io.Writer) error {
 	if fs.NArg() == 0 {
 		return usageError("rerun: name at least one budget file")
 	}
-	var bad []string
+	var bad, doubt []string
 	for _, path := range fs.Args() {
 		d, err := openBudget(context.Background(), path, 0)
 		if err != nil {
@@ -55,8 +55,11 @@ func runRerun(args []string, stdout, stderr io.Writer) error {
 		if p := cellProblems(d); len(p) > 0 {
 			bad = append(bad, fmt.Sprintf("%s: %s", filepath.Base(path), strings.Join(p, ", ")))
 		}
+		if p := doubtfulCells(d); len(p) > 0 {
+			doubt = append(doubt, fmt.Sprintf("%s: %s", filepath.Base(path), strings.Join(p, ", ")))
+		}
 	}
-	return problemsError(bad)
+	return problemsError(bad, doubt)
 }
 
 // cellProblems names the cells of d that did not compute, with their state:
@@ -64,20 +67,35 @@ func runRerun(args []string, stdout, stderr io.Writer) error {
 func cellProblems(d *notebook.Document) []string {
 	var out []string
 	for _, c := range d.Cells {
-		if st, _ := d.Status(c.ID); st != notebook.UpToDate {
+		if st, _ := d.Status(c.ID); st != notebook.UpToDate && st != notebook.Doubtful {
 			out = append(out, fmt.Sprintf("%s (%s)", c.ID, st))
 		}
 	}
 	return out
 }
 
-// problemsError is the error, exit status 1 as in batch, for budgets whose
-// cells did not all compute (one entry per budget), or nil.
-func problemsError(bad []string) error {
-	if len(bad) == 0 {
-		return nil
+// doubtfulCells names the cells of d whose results are doubtful.
+func doubtfulCells(d *notebook.Document) []string {
+	var out []string
+	for _, c := range d.Cells {
+		if st, _ := d.Status(c.ID); st == notebook.Doubtful {
+			out = append(out, c.ID)
+		}
 	}
-	return fmt.Errorf("cells with problems (see above): %s", strings.Join(bad, "; "))
+	return out
+}
+
+// problemsError is the error for budgets whose cells did not all compute,
+// exit status 1 as in batch, or else for budgets with doubtful results,
+// exit status 4 (one entry per budget in each list); nil for neither.
+func problemsError(bad, doubt []string) error {
+	if len(bad) > 0 {
+		return fmt.Errorf("cells with problems (see above): %s", strings.Join(bad, "; "))
+	}
+	if len(doubt) > 0 {
+		return &statusError{code: errDoubtful, msg: fmt.Sprintf("doubtful results (see above): %s", strings.Join(doubt, "; "))}
+	}
+	return nil
 }
 
 // fmtRange writes a figure with its interval, or "no value" and why when it
@@ -116,7 +134,7 @@ func summary(w io.Writer, path string, d *notebook.Document) {
 	for _, c := range d.Cells {
 		st, err := d.Status(c.ID)
 		line := fmt.Sprintf("  %s (%s): %s", c.ID, c.Kind, st)
-		if err != nil {
+		if err != nil && st != notebook.Doubtful {
 			line += ": " + err.Error()
 		}
 		fmt.Fprintln(w, line)
@@ -124,8 +142,16 @@ func summary(w io.Writer, path string, d *notebook.Document) {
 		if o == nil {
 			continue
 		}
+		if st == notebook.Doubtful {
+			for _, r := range o.Doubtful {
+				fmt.Fprintf(w, "    doubtful: %s\n", r)
+			}
+		}
 		for _, f := range o.Figures {
 			fmt.Fprintf(w, "    %s: %s\n", f.Name, fmtRange(f, noValueReason(d, c)))
+			if f.Note != "" {
+				fmt.Fprintf(w, "      (%s)\n", f.Note)
+			}
 		}
 		for _, m := range o.Messages {
 			fmt.Fprintf(w, "    %s: %s\n", m.Severity, m)
