@@ -4,6 +4,8 @@ import (
 	"encoding/binary"
 	"math"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 func FuzzParseTracer(f *testing.F) {
@@ -11,6 +13,7 @@ func FuzzParseTracer(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
+		defer watchdog.Start(s)()
 		tr, err := ParseTracer(s)
 		if err != nil {
 			return
@@ -30,6 +33,7 @@ func FuzzNNLS(f *testing.F) {
 	f.Add(uint8(3), uint8(4), []byte("a few bytes of ratios and data for the seed corpus, long enough"))
 	f.Add(uint8(4), uint8(2), []byte{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20})
 	f.Fuzz(func(t *testing.T, kb, rb uint8, data []byte) {
+		defer watchdog.Start([]any{kb, rb, data})()
 		k := 1 + int(kb)%MaxEndMembers
 		r := 1 + int(rb)%maxRows
 		if len(data) < 2*(r*k+r) {

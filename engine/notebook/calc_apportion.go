@@ -240,12 +240,6 @@ func init() { Register(KindApportionment, computeApportionment) }
 // or with Document.Workers = 1).
 var ChunkDraws = 4000
 
-// MaxSampleDraws caps samples × draws of the forward model, and samples ×
-// the target effective sample size of the inverse model, in one
-// apportionment: each sample keeps about its draws (about 150 bytes each)
-// for the cells below, so the cap bounds memory and work.
-const MaxSampleDraws = 4_000_000
-
 // Quick-pass limits: the first pass of Document.Quick runs the inverse
 // model to a rough posterior (an engineering choice) and the full pass
 // refines it.
@@ -382,8 +376,8 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a.doubtfulSample = make([]bool, n)
 	switch s.Model {
 	case "forward":
-		if n*s.Draws > MaxSampleDraws {
-			return nil, nil, settingErr("draws", "%d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+		if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
+			return nil, nil, err
 		}
 		if !atm.Uncertainty.Zero() {
 			// The rain ratios (and the ET factor) are drawn with the
@@ -435,8 +429,8 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
 			out.Rough = true
 		}
-		if n*mo.TargetESS > MaxSampleDraws {
-			return nil, nil, settingErr("target_ess", "%d samples × %d is above the limit of %d; lower it", n, mo.TargetESS, MaxSampleDraws)
+		if err := checkInverseDraws(n, mo); err != nil {
+			return nil, nil, err
 		}
 		var res *mix.Result
 		if workers == 1 || runtime.GOOS == "js" {
@@ -491,6 +485,9 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a.weights = make([][]float64, n)
 	a.kept = make([][]int32, n)
 	for i := 0; i < n; i++ {
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
 		nd := a.Draws
 		if a.inverse != nil {
 			nd = a.inverse.Kept(i)

@@ -11,7 +11,6 @@ import (
 	"regexp"
 	"strings"
 	"testing"
-	"time"
 
 	"github.com/chromedp/chromedp"
 )
@@ -30,7 +29,7 @@ func sallowmere(name string) string {
 // waitFor waits until script is true in the page.
 func waitFor(t testing.TB, ctx context.Context, what, script string) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](script, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](script, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("waiting for %s: %v", what, err)
 	}
 }
