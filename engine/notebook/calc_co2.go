@@ -6,6 +6,7 @@ import (
 
 	"lixiv/engine/co2"
 	"lixiv/engine/flux"
+	"lixiv/engine/internal/quantile"
 	"lixiv/engine/mix"
 )
 
@@ -188,7 +189,7 @@ func computeCO2(e *Env) (*Output, error) {
 	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
 	var vs, vc, ws, va []float64
 	var alkMed []float64 // long term: the other convention's silicate figure per sample
-	var qb quantileBuf
+	var qb quantile.Buf
 	pairs := make([][][2]float64, n) // silicate and carbonate of each kept draw, for the fluxes
 	// Progress: one unit per sample here, and n units for each of the two
 	// bootstraps below (when a fluxes cell is given), so that a page running
@@ -222,12 +223,12 @@ func computeCO2(e *Env) (*Output, error) {
 				va = append(va, otherLongSil(sp, so4, opt, scale))
 			}
 		}
-		q := qb.quantiles(vs, ws, 0.025, 0.5, 0.975)
+		q := qb.Midpoints(vs, ws, 0.025, 0.5, 0.975)
 		silLo, silMed, silHi = append(silLo, q[0]), append(silMed, q[1]), append(silHi, q[2])
-		q = qb.quantiles(vc, ws, 0.025, 0.5, 0.975)
+		q = qb.Midpoints(vc, ws, 0.025, 0.5, 0.975)
 		carbLo, carbMed, carbHi = append(carbLo, q[0]), append(carbMed, q[1]), append(carbHi, q[2])
 		if long {
-			alkMed = append(alkMed, qb.quantiles(va, ws, 0.5)[0])
+			alkMed = append(alkMed, qb.Midpoints(va, ws, 0.5)[0])
 		}
 	}
 	title := "short-term"
