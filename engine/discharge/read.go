@@ -11,6 +11,7 @@ import (
 	"strconv"
 	"strings"
 
+	"lixiv/engine/internal/dateorder"
 	"lixiv/engine/problem"
 )
 
@@ -203,8 +204,7 @@ func Read(r io.Reader, opt Options) *Import {
 	stamps := make([]stamp, len(rows))
 	okStamp := make([]bool, len(rows))
 	reported := make([]bool, len(rows))
-	dayFirstRow, monthFirstRow, ambiguous := 0, 0, 0
-	dateAt := map[int]string{} // the date cells that decide the order, by line
+	var seen dateorder.Evidence // the dates written with the year last
 	for i := start; i < len(rows); i++ {
 		st, ok := parseStamp(cell(rows[i], cols.date))
 		if ok && cols.time >= 0 {
@@ -218,37 +218,34 @@ func Read(r io.Reader, opt Options) *Import {
 		}
 		stamps[i], okStamp[i] = st, ok
 		if ok && st.form == 'l' {
-			ambiguous++
-			if st.a > 12 && dayFirstRow == 0 {
-				dayFirstRow = lines[i]
-				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
-			}
-			if st.b > 12 && monthFirstRow == 0 {
-				monthFirstRow = lines[i]
-				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
-			}
+			seen.Add(dateorder.Witness{Line: lines[i], Raw: strings.TrimSpace(cell(rows[i], cols.date)), A: st.a, B: st.b})
 		}
 	}
 	order := opt.DateOrder
 	dName := cols.name(rows[0], cols.date)
-	if order == AutoOrder && ambiguous > 0 {
-		switch {
-		case dayFirstRow > 0 && monthFirstRow > 0:
-			add(max(dayFirstRow, monthFirstRow), cols.date+1, dName, ErrAmbiguousDate, "line %d %q reads only day-first but line %d %q only month-first; set \"date order\" to day-first or month-first; the %d dates written with the year last were not loaded",
-				dayFirstRow, dateAt[dayFirstRow], monthFirstRow, dateAt[monthFirstRow], ambiguous)
-			value(dateAt[max(dayFirstRow, monthFirstRow)])
-		case dayFirstRow > 0:
+	if order == AutoOrder {
+		df, mf := seen.DayFirst, seen.MonthFirst
+		switch seen.Verdict() {
+		case dateorder.Conflict:
+			last := df
+			if mf.Line > df.Line {
+				last = mf
+			}
+			add(last.Line, cols.date+1, dName, ErrAmbiguousDate, "line %d %q reads only day-first but line %d %q only month-first; set \"date order\" to day-first or month-first; the %d dates written with the year last were not loaded",
+				df.Line, df.Raw, mf.Line, mf.Raw, seen.N)
+			value(last.Raw)
+		case dateorder.DayFirst:
 			order = DayFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (line %d has a day above 12)", dayFirstRow))
-			add(dayFirstRow, cols.date+1, dName, ErrDateOrder, "dates read day-first, as this one shows (its first number cannot be a month)")
-			value(dateAt[dayFirstRow])
-		case monthFirstRow > 0:
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (line %d has a day above 12)", df.Line))
+			add(df.Line, cols.date+1, dName, ErrDateOrder, "dates read day-first, as this one shows (its first number cannot be a month)")
+			value(df.Raw)
+		case dateorder.MonthFirst:
 			order = MonthFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (line %d has a day above 12)", monthFirstRow))
-			add(monthFirstRow, cols.date+1, dName, ErrDateOrder, "dates read month-first, as this one shows (its second number cannot be a month)")
-			value(dateAt[monthFirstRow])
-		default:
-			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; %d rows were not loaded", ambiguous)
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (line %d has a day above 12)", mf.Line))
+			add(mf.Line, cols.date+1, dName, ErrDateOrder, "dates read month-first, as this one shows (its second number cannot be a month)")
+			value(mf.Raw)
+		case dateorder.Either:
+			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; %d rows were not loaded", seen.N)
 			value(cell(rows[start], cols.date))
 		}
 	}
