@@ -106,43 +106,14 @@ func (p *Problem) Error() string {
 func (p *Problem) Unwrap() error { return p.Err }
 
 // Problems is a list of import problems. The zero value is an empty list.
-type Problems []*Problem
+type Problems = problem.Of[*Problem]
 
-// Err returns nil for an empty list and the list itself otherwise.
-func (ps Problems) Err() error {
-	if len(ps) == 0 {
-		return nil
-	}
-	return ps
-}
-
-// Error prints the first problem and how many more there are.
-func (ps Problems) Error() string {
-	switch len(ps) {
-	case 0:
-		return "no problems"
-	case 1:
-		return ps[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more problems)", ps[0].Error(), len(ps)-1)
-}
-
-// Sort orders the list by row, then column.
-func (ps Problems) Sort() {
+// sortProblems orders ps by row, then column.
+func sortProblems(ps Problems) {
 	sort.SliceStable(ps, func(i, j int) bool {
 		if ps[i].Row != ps[j].Row {
 			return ps[i].Row < ps[j].Row
 		}
 		return ps[i].Col < ps[j].Col
 	})
-}
-
-// Is reports whether any problem in the list is of kind target.
-func (ps Problems) Is(target error) bool {
-	for _, p := range ps {
-		if errors.Is(p, target) {
-			return true
-		}
-	}
-	return false
 }

@@ -378,8 +378,8 @@ func Read(r io.Reader, opt Options) *Import {
 		kept = append(kept, p)
 	}
 	imp.Problems = kept
-	imp.Problems.Sort()
-	imp.Notices.Sort()
+	sortProblems(imp.Problems)
+	sortProblems(imp.Notices)
 	if n := len(imp.Notices); n > 0 && errors.Is(imp.Notices[0], ErrBadDays) {
 		imp.Notices = append(imp.Notices[1:], imp.Notices[0]) // the count closes the list
 	}

@@ -62,6 +62,16 @@ func TestStoredResultsReproduce(t *testing.T) {
 				t.Errorf("rerun does not match the stored results (stored %s, rerun %s):\n%v\nIf the engine changed on purpose, run: go run ./examples/gen && go test ./engine/cmd/lixiv -update",
 					v.Stored, v.Rerun, v.Differ)
 			}
+			// Every message names the cell whose output holds it.
+			for _, c := range d.Cells {
+				if o := d.Output(c.ID); o != nil {
+					for _, m := range o.Messages {
+						if m.Cell != c.ID {
+							t.Errorf("cell %s: message %q names cell %q", c.ID, m.Error(), m.Cell)
+						}
+					}
+				}
+			}
 		})
 	}
 }

@@ -152,43 +152,4 @@ func (p *Problem) Unwrap() error { return p.Err }
 
 // ProblemList is the list of problems met while reading a table, in the
 // order they were found (by line, then column). The zero value is empty.
-type ProblemList []*Problem
-
-// Error returns the first problem and how many more there are.
-func (l ProblemList) Error() string {
-	switch len(l) {
-	case 0:
-		return "no problems"
-	case 1:
-		return l[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more problems)", l[0], len(l)-1)
-}
-
-// Err returns nil for an empty list and the list itself otherwise.
-func (l ProblemList) Err() error {
-	if len(l) == 0 {
-		return nil
-	}
-	return l
-}
-
-// Unwrap returns the problems, so errors.Is finds any sentinel among them.
-func (l ProblemList) Unwrap() []error {
-	out := make([]error, len(l))
-	for i, p := range l {
-		out[i] = p
-	}
-	return out
-}
-
-// Count returns the number of problems that unwrap to target.
-func (l ProblemList) Count(target error) int {
-	n := 0
-	for _, p := range l {
-		if errors.Is(p, target) {
-			n++
-		}
-	}
-	return n
-}
+type ProblemList = problem.Of[*Problem]

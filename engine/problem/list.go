@@ -1,0 +1,106 @@
+package problem
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+)
+
+// Problem is the engine's one message about the user's input: a problem
+// (something that could not be read or was refused), a warning (a
+// substitution, or a value, day or sample left out) or a note (an
+// inference), positioned at the cell, file, line, column and value it
+// concerns. The page places it by its fields (errors.As finds it inside a
+// cell's error), the command line lists it, and the report writes it.
+type Problem struct {
+	Severity Severity
+	Effect   Effect
+	Cell     string // id of the budget cell whose computation found it; "" outside a budget
+	File     string // the file the table was read from, else the id of the cell holding it
+	Line     int    // line as the file counts it (spreadsheet row for a workbook); 0 for none
+	Col      int    // column number from 1; 0 for none
+	Column   string // the column's header
+	Value    string // the cell as written
+	Sample   string // the water sample concerned, if any
+	Text     string // what was found, what was done and what to do next
+	// Row is the index in the cell's table of the data row concerned, or
+	// -1 (header, units row, the whole table, or another cell's table).
+	Row int
+	Err error // the sentinel of the package that found it, for errors.Is
+}
+
+// Error writes the problem as "file:line:col (column): "value": text".
+func (p *Problem) Error() string {
+	var b strings.Builder
+	b.WriteString(p.File)
+	if p.Line > 0 {
+		b.WriteString(":" + strconv.Itoa(p.Line))
+		if p.Col > 0 {
+			b.WriteString(":" + strconv.Itoa(p.Col))
+		}
+	}
+	if p.Column != "" {
+		fmt.Fprintf(&b, " (%s)", p.Column)
+	}
+	if b.Len() > 0 {
+		b.WriteString(": ")
+	}
+	if p.Value != "" {
+		fmt.Fprintf(&b, "%q: ", p.Value)
+	}
+	b.WriteString(p.Text)
+	return b.String()
+}
+
+// Unwrap returns the sentinel, so errors.Is(p, sample.ErrCensored) works.
+func (p *Problem) Unwrap() error { return p.Err }
+
+// Of is a list of problems in the order of the file: Problem values, or
+// the positioned problems of an importer (engine/sample, engine/discharge),
+// which keep their own fields until a budget cell turns them into Problems.
+// The zero value is empty.
+type Of[T error] []T
+
+// List is a list of Problems.
+type List = Of[*Problem]
+
+// Error returns the first problem and how many more there are.
+func (l Of[T]) Error() string {
+	switch len(l) {
+	case 0:
+		return "no problems"
+	case 1:
+		return l[0].Error()
+	}
+	return fmt.Sprintf("%s (and %d more problems)", l[0].Error(), len(l)-1)
+}
+
+// Err returns nil for an empty list and the list otherwise.
+func (l Of[T]) Err() error {
+	if len(l) == 0 {
+		return nil
+	}
+	return l
+}
+
+// Unwrap returns the problems, so errors.Is and errors.As find one among
+// them.
+func (l Of[T]) Unwrap() []error {
+	out := make([]error, len(l))
+	for i, p := range l {
+		out[i] = p
+	}
+	return out
+}
+
+// Count returns the number of problems that unwrap to target.
+func (l Of[T]) Count(target error) int {
+	n := 0
+	for _, p := range l {
+		if errors.Is(p, target) {
+			n++
+		}
+	}
+	return n
+}
