@@ -14,10 +14,6 @@ import (
 // notebook.SettingLabel).
 
 func init() {
-	kindLabels[notebook.KindCarbonate] = "Carbonate system"
-	kindLabels[notebook.KindMinerals] = "Mineral balance"
-	choices["activity_model"] = []string{"davies", "extended-debye-huckel"}
-	choices["fit_components"] = []string{"all", "cations"}
 	for k, v := range map[string]string{
 		"carbonate.ionic_strength":  "ionic strength",
 		"carbonate.H2CO3":           "H2CO3*",

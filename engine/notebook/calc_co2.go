@@ -383,7 +383,7 @@ func co2Estimators(fv *Fluxes, headline map[string]fitted, opt *co2.Options, sca
 		warns = append(warns, w...)
 		for k, f := range fs {
 			row := sideRow(f)
-			name, method = append(name, part.name), append(method, estimatorName(allMethods[k]))
+			name, method = append(name, part.name), append(method, estimators[k].Value)
 			med, lo, hi, nrep = append(med, row[3]), append(lo, row[4]), append(hi, row[5]), append(nrep, row[6])
 		}
 	}

@@ -13,22 +13,6 @@ import (
 
 func init() { Register(KindFluxes, computeFluxes) }
 
-var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted,
-	"rating-curve": flux.Rating, "beale": flux.Beale}
-
-// estimatorName returns the settings word for a flux method.
-func estimatorName(m flux.Method) string {
-	for k, v := range methods {
-		if v == m {
-			return k
-		}
-	}
-	return m.String()
-}
-
-// allMethods lists the estimators in the order of the side-by-side tables.
-var allMethods = []flux.Method{flux.Rating, flux.FlowWeighted, flux.PeriodWeighted, flux.Beale}
-
 var biases = map[string]flux.Bias{"smearing": flux.Duan, "ferguson": flux.Ferguson, "none": flux.NoBias}
 
 // period cuts the record to the site's budget period.
@@ -74,7 +58,7 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 		return nil, err
 	}
 	return &Fluxes{Record: rec, Site: site, App: app,
-		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
+		Options: flux.Options{Method: estimatorMethod(s.Estimator), AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
 			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma, Cache: &flux.Cache{}},
@@ -342,7 +326,7 @@ func computeFluxes(e *Env) (*Output, error) {
 // discharge and area errors.
 const RunoffFigure = "runoff over the complete years of the budget period"
 
-// sideBySide fluxes a quantity with each estimator of allMethods: the
+// sideBySide fluxes a quantity with each estimator of estimators: the
 // headline's own fit (when ok) for the estimator chosen, else the quantity
 // build makes, bootstrapped with series_bootstrap replicates of the same
 // seed (point values only in the quick pass). label names it in warnings.
@@ -357,7 +341,8 @@ func (v *Fluxes) sideBySide(label string, headline fitted, ok bool, build func(d
 	if ok && headline.a != nil && (n == 0 || headline.a.Weights != nil) {
 		q = headline.a // the headline's own quantity, with draws when they are needed
 	}
-	for _, m := range allMethods {
+	for _, e := range estimators {
+		m := e.Method
 		f := headline
 		if !ok || m != v.Options.Method {
 			if q == nil {
@@ -389,7 +374,7 @@ func (v *Fluxes) estimatorsTable(headline map[string]fitted, rough bool) (*Resul
 		}, rough)
 		warns = append(warns, w...)
 		for k, f := range fs {
-			name, method = append(name, c.name), append(method, estimatorName(allMethods[k]))
+			name, method = append(name, c.name), append(method, estimators[k].Value)
 			row := sideRow(f)
 			pt := math.NaN()
 			if f.r != nil {
