@@ -117,9 +117,6 @@ func Header(col *notebook.Column) string {
 	return col.Name
 }
 
-// ProgressText is the percentage shown beside the progress bar.
-func (c *CellCard) ProgressText() string { return fmt.Sprintf("%.0f %%", c.V.Progress*100) }
-
 // IsNote reports a note cell.
 func (c *CellCard) IsNote() bool { return c.V.Kind == string(notebook.KindNote) }
 

@@ -231,9 +231,6 @@ func (c *Root) Title() string {
 	return c.S.Doc.Title
 }
 
-// Busy reports a recompute in progress.
-func (c *Root) Busy() bool { return c.busy }
-
 // Kinds lists the kinds a user can add.
 func (c *Root) Kinds() []string {
 	var out []string
@@ -260,8 +257,8 @@ func (c *Root) Rendered() {
 		js.Global().Get("document").Set("title", t)
 	}
 	ds := body.Get("dataset")
-	if c.buildStart > 0 { // for the timing harness: the cost of one full render
-		js.Global().Set("lixivLastRender", nowMillis()-c.buildStart)
+	if Probing && c.buildStart > 0 { // for the timing harness: the cost of one full render
+		Probe("lixivLastRender", nowMillis()-c.buildStart)
 	}
 	if c.focusAfter != "" {
 		if el := js.Global().Get("document").Call("querySelector", c.focusAfter); el.Truthy() {
@@ -282,16 +279,16 @@ func (c *Root) Rendered() {
 	}
 	if c.editStart > 0 && !c.painted {
 		c.painted = true
-		js.Global().Set("lixivLastFirstPaint", nowMillis()-c.editStart)
+		Probe("lixivLastFirstPaint", nowMillis()-c.editStart)
 	}
 	if c.editStart > 0 && !c.quickShown && c.quickDone != nil {
 		select {
 		case <-c.quickDone: // for the timing harness: point values painted
 			c.quickShown = true
-			js.Global().Set("lixivLastQuickPaint", nowMillis()-c.editStart)
-			g := js.Global()
-			js.Global().Set("lixivLastQuickRender", fmt.Sprintf("build %.0f ms, sync %.0f ms",
-				g.Get("lixivLastBuild").Float(), g.Get("lixivLastSync").Float()))
+			if Probing {
+				Probe("lixivLastQuickPaint", nowMillis()-c.editStart)
+				Probe("lixivLastQuickRender", fmt.Sprintf("build %.0f ms, sync %.0f ms", probed("lixivLastBuild"), probed("lixivLastSync")))
+			}
 		default:
 		}
 	}
@@ -303,9 +300,11 @@ func (c *Root) Rendered() {
 		ds.Set("busy", busy)
 		ds.Set("gen", fmt.Sprint(c.gen))
 		if !c.busy && c.editStart > 0 {
-			js.Global().Set("lixivLastRecompute", nowMillis()-c.editStart)
-			js.Global().Set("lixivLastStep", c.stepMillis)
-			js.Global().Set("lixivLastCharts", c.charts.Millis)
+			if Probing {
+				Probe("lixivLastRecompute", nowMillis()-c.editStart)
+				Probe("lixivLastStep", c.stepMillis)
+				Probe("lixivLastCharts", c.charts.Millis)
+			}
 			c.stepMillis, c.charts.Millis = 0, 0
 			c.editStart = 0
 		}
@@ -369,7 +368,7 @@ func (c *Root) quickPassDone(done chan struct{}) {
 	}
 	close(done)
 	if c.editStart > 0 {
-		js.Global().Set("lixivLastQuick", nowMillis()-c.editStart)
+		Probe("lixivLastQuick", nowMillis()-c.editStart)
 	}
 	if c.holding && done == c.quickDone {
 		c.holding = false
@@ -468,7 +467,9 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			c.env.UnlockOnly()
 		}
 		t0 := nowMillis()
-		stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
+		if Probing {
+			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
+		}
 		more, err := func() (more bool, err error) {
 			defer func() {
 				if r := recover(); r != nil {
@@ -487,7 +488,9 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 			case <-quick:
 			default:
 				// The point values are in: paint them, then refine.
-				js.Global().Set("lixivQuickSteps", strings.Join(stepped, ", ")+fmt.Sprintf(", done %.0f", nowMillis()-c.editStart))
+				if Probing {
+					Probe("lixivQuickSteps", strings.Join(stepped, ", ")+fmt.Sprintf(", done %.0f", nowMillis()-c.editStart))
+				}
 				lastPaint = nowMillis()
 				c.quickPassDone(quick)
 				yieldToBrowser()
@@ -498,7 +501,9 @@ func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quic
 		}
 		if err != nil || !more {
 			// For the timing harness: the longest stretch without a yield.
-			js.Global().Set("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+			if Probing {
+				Probe("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+			}
 			c.running, c.busy = "", false
 			c.gen++
 			if err != nil {
