@@ -455,18 +455,8 @@ func (c *CellCard) EmptyTableHint() string {
 }
 
 // TableUnused reports an empty input table that the cell's current
-// settings do not read: the rain table of the sea-salt method.
-func (c *CellCard) TableUnused() bool {
-	if c.V.Kind != string(notebook.KindAtmosphere) || len(c.V.Table.Rows) > 0 {
-		return false
-	}
-	for _, p := range c.V.Params {
-		if p.Key == "method" {
-			return p.Value == "sea-salt"
-		}
-	}
-	return false
-}
+// settings do not read (notebook.ReadsTable).
+func (c *CellCard) TableUnused() bool { return c.V.TableUnread }
 
 // UnusedTableHint stands in for an unused empty table.
 func (c *CellCard) UnusedTableHint() string {

@@ -27,6 +27,7 @@ type CellView struct {
 	Params                     []ParamView
 	Roles                      []RoleView
 	HasTable                   bool
+	TableUnread                bool // an empty table the settings do not read
 	Table                      *notebook.Table
 	Notes                      []string // what an import or paste did
 	Warnings                   []string // the engine's warnings
@@ -187,7 +188,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 					v.NoteText = p.Value
 					continue
 				}
-				if idle(c.Kind, p.Key, params) {
+				if notebook.Idle(c.Settings, p.Key) {
 					continue
 				}
 				pv := ParamView{Key: p.Key, Label: notebook.SettingLabel(p.Key), Value: p.Value, Type: p.Type,
@@ -214,6 +215,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		if c.Table != nil {
 			v.HasTable, v.Table = true, c.Table
+			v.TableUnread = len(c.Table.Rows) == 0 && c.Settings != nil && !c.Broken() && !notebook.ReadsTable(c.Settings)
 			switch {
 			case c.Kind == notebook.KindSources && notebook.PresetOf(c.Table) != "":
 				v.TableOrigin = "the " + notebook.PresetOf(c.Table) + " preset"

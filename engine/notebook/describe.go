@@ -35,6 +35,12 @@ type Descriptor struct {
 	Help map[string]string
 	// Tables are the output tables the kind can give.
 	Tables []TableInfo
+	// Idle reports a setting that does nothing under the cell's other
+	// settings, which the page leaves out (nil: none ever is).
+	Idle func(s Settings, key string) bool
+	// ReadsTable reports whether the cell's settings read its data table
+	// (nil: always); the page says so in place of an empty table.
+	ReadsTable func(s Settings) bool
 	// Headline ranks the cell's figures among the budget's headline
 	// figures (FigureRank); the first that matches a figure ranks it.
 	Headline []FigureInfo
@@ -226,4 +232,18 @@ func monthChoices() []Choice {
 		out = append(out, Choice{Value: strconv.Itoa(m), Label: monthNames[m-1] + " to " + monthNames[m-2] + " (water year)"})
 	}
 	return out
+}
+
+// Idle reports whether the setting key of s does nothing under s's other
+// settings (its descriptor's Idle).
+func Idle(s Settings, key string) bool {
+	d := descriptors[s.Kind()]
+	return d != nil && d.Idle != nil && d.Idle(s, key)
+}
+
+// ReadsTable reports whether a cell with settings s reads its data table
+// (its descriptor's ReadsTable; a kind without a table reads none).
+func ReadsTable(s Settings) bool {
+	d := descriptors[s.Kind()]
+	return d != nil && d.Table && (d.ReadsTable == nil || d.ReadsTable(s))
 }

@@ -83,3 +83,36 @@ func TestFigureRank(t *testing.T) {
 		}
 	}
 }
+
+func TestIdleAndReadsTable(t *testing.T) {
+	app := func(model, sulfate string) notebook.Settings {
+		s := notebook.DefaultSettings(notebook.KindApportionment).(*notebook.ApportionmentSettings)
+		s.Model, s.Sulfate = model, sulfate
+		return s
+	}
+	tests := []struct {
+		s    notebook.Settings
+		key  string
+		want bool
+	}{
+		{app("inverse", "gypsum"), "d34s_river_permil", true},
+		{app("inverse", "isotope"), "d34s_river_permil", false},
+		{app("inverse", "gypsum"), "draws", false},
+		{app("forward", "gypsum"), "tracers", true},
+		{app("inverse", "gypsum"), "tracers", false},
+		{notebook.DefaultSettings(notebook.KindAtmosphere), "method", false},
+	}
+	for _, tt := range tests {
+		if got := notebook.Idle(tt.s, tt.key); got != tt.want {
+			t.Errorf("Idle(%+v, %s) = %v, want %v", tt.s, tt.key, got, tt.want)
+		}
+	}
+	atm := notebook.DefaultSettings(notebook.KindAtmosphere).(*notebook.AtmosphereSettings)
+	if notebook.ReadsTable(atm) {
+		t.Error("the sea-salt method reads the rain table")
+	}
+	atm.Method = "rain"
+	if !notebook.ReadsTable(atm) || !notebook.ReadsTable(notebook.DefaultSettings(notebook.KindSamples)) || notebook.ReadsTable(notebook.DefaultSettings(notebook.KindSite)) {
+		t.Error("ReadsTable")
+	}
+}

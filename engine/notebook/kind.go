@@ -1,6 +1,10 @@
 package notebook
 
-import "lixiv/engine/mix"
+import (
+	"strings"
+
+	"lixiv/engine/mix"
+)
 
 // Kind names what a cell does. The set is closed: a file naming another kind
 // loads as a broken cell.
@@ -97,7 +101,10 @@ func init() {
 		Choices: map[string][]Choice{
 			"method":          words("sea-salt", "rain"),
 			"excess_chloride": words("halite", "human"),
-		}})
+		},
+		// The sea-salt method takes its ratios from the settings, not
+		// from measured rain.
+		ReadsTable: func(s Settings) bool { return s.(*AtmosphereSettings).Method != "sea-salt" }})
 	Describe(Descriptor{Kind: KindSources, Label: "End-members", Table: true,
 		New:     func() Settings { return &SourcesSettings{Preset: "global"} },
 		Choices: map[string][]Choice{"preset": words("global", "granite", "basalt", "custom")}})
@@ -116,6 +123,17 @@ func init() {
 			"model":              words("inverse", "forward"),
 			"sulfate":            words("gypsum", "sulfide", "isotope"),
 			"negative_residuals": words("zero-and-flag", "keep"),
+		},
+		// The δ34S values are read only when the sulfate source is
+		// "isotope"; the tracers and the refinement only by the inverse
+		// model.
+		Idle: func(s Settings, key string) bool {
+			a := s.(*ApportionmentSettings)
+			switch key {
+			case "tracers", "target_ess", "max_draws":
+				return a.Model == "forward"
+			}
+			return strings.HasPrefix(key, "d34s_") && a.Sulfate != "isotope"
 		}})
 	Describe(Descriptor{Kind: KindFluxes, Label: "Fluxes",
 		Inputs: []Role{{"apportionment", KindApportionment, false}, {"discharge", KindDischarge, false}, {"site", KindSite, false},
