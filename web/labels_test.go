@@ -29,4 +29,3 @@ func TestLabels(t *testing.T) {
 		})
 	}
 }
-
