@@ -110,7 +110,7 @@ func options(k notebook.Kind, key string) (values, labels []string) {
 	if d == nil {
 		return nil, nil
 	}
-	cs := d.Choices[key]
+	cs := d.Choices(key)
 	labelled := false
 	for _, c := range cs {
 		values = append(values, c.Value)

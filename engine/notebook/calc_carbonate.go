@@ -44,8 +44,6 @@ func (s *CarbonateSettings) Validate() error {
 	)
 }
 
-var carbonateRoles = []Role{{"samples", KindSamples, false}, {"discharge", KindDischarge, true}}
-
 // CarbonateSystem is the value a carbonate cell hands on: per computed
 // sample, its carbonate system, and the samples left out with why.
 type CarbonateSystem struct {

@@ -62,8 +62,6 @@ func (s *MineralSettings) Validate() error {
 	return firstErr(inRange("analytical_uncertainty_percent", s.Uncertainty, 0, 100))
 }
 
-var mineralRoles = []Role{{"atmosphere", KindAtmosphere, false}, {"fluxes", KindFluxes, true}}
-
 // MineralBalance is the value a minerals cell hands on.
 type MineralBalance struct {
 	Balance  *mineral.Balance

@@ -2,7 +2,6 @@ package notebook
 
 import (
 	"slices"
-	"strconv"
 	"strings"
 )
 
@@ -27,12 +26,12 @@ type Descriptor struct {
 	// Compute computes a cell of the kind (nil: registered apart with
 	// Register).
 	Compute ComputeFunc
-	// Choices lists, by setting key, the values a setting that takes one
-	// of a few words accepts; Validate refuses any other, and the page
-	// offers exactly these.
-	Choices map[string][]Choice
-	// Help says in a sentence, by setting key, what a setting does.
-	Help map[string]string
+	// Notes say, setting by setting, what it does and, for a setting that
+	// takes one of a few words, the values it accepts: Validate refuses
+	// any other, and the page offers exactly these. Keys are those of the
+	// settings struct; a setting without a note takes any value of its
+	// type.
+	Notes []SettingNote
 	// Tables are the output tables the kind can give.
 	Tables []TableInfo
 	// Idle reports a setting that does nothing under the cell's other
@@ -44,6 +43,13 @@ type Descriptor struct {
 	// Headline ranks the cell's figures among the budget's headline
 	// figures (FigureRank); the first that matches a figure ranks it.
 	Headline []FigureInfo
+}
+
+// SettingNote is what a descriptor says of one setting.
+type SettingNote struct {
+	Key     string
+	Help    string   // what the setting does, in a phrase
+	Choices []Choice // the values accepted; nil for any value of its type
 }
 
 // Choice is one value a setting accepts.
@@ -160,16 +166,30 @@ func (d *Descriptor) Settings() []Setting {
 	var out []Setting
 	for _, p := range Params(d.New()) {
 		out = append(out, Setting{Key: p.Key, Label: SettingLabel(p.Key), Type: p.Type, Default: p.Value, Blank: p.Blank,
-			Choices: d.Choices[p.Key], Help: d.Help[p.Key]})
+			Choices: d.note(p.Key).Choices, Help: d.note(p.Key).Help})
 	}
 	return out
 }
 
+// note returns the note on the setting key (empty when there is none).
+func (d *Descriptor) note(key string) SettingNote {
+	for _, n := range d.Notes {
+		if n.Key == key {
+			return n
+		}
+	}
+	return SettingNote{}
+}
+
+// Choices returns the values the setting key accepts, nil when it takes
+// any value of its type.
+func (d *Descriptor) Choices(key string) []Choice { return d.note(key).Choices }
+
 // Accepts reports whether the setting key takes value: any value when
 // the kind lists no choices for it.
 func (d *Descriptor) Accepts(key, value string) bool {
-	cs, ok := d.Choices[key]
-	if !ok {
+	cs := d.Choices(key)
+	if cs == nil {
 		return true
 	}
 	for _, c := range cs {
@@ -189,7 +209,7 @@ func checkChoices(s Settings) error {
 	}
 	for _, p := range Params(s) {
 		if !d.Accepts(p.Key, p.Value) {
-			return settingErr(p.Key, "%q is not one of %q", p.Value, values(d.Choices[p.Key]))
+			return settingErr(p.Key, "%q is not one of %q", p.Value, values(d.Choices(p.Key)))
 		}
 	}
 	return nil
@@ -207,29 +227,6 @@ func values(cs []Choice) []string {
 	out := make([]string, len(cs))
 	for i, c := range cs {
 		out[i] = c.Value
-	}
-	return out
-}
-
-// words returns choices whose label is their value.
-func words(vs ...string) []Choice {
-	out := make([]Choice, len(vs))
-	for i, v := range vs {
-		out[i] = Choice{Value: v}
-	}
-	return out
-}
-
-// monthNames are the months' names, January first.
-var monthNames = [...]string{"January", "February", "March", "April", "May", "June", "July", "August",
-	"September", "October", "November", "December"}
-
-// monthChoices are the first months of the reporting year: calendar years
-// first, then the water years that start in another month.
-func monthChoices() []Choice {
-	out := []Choice{{Value: "1", Label: "January to December (calendar year)"}}
-	for m := 2; m <= 12; m++ {
-		out = append(out, Choice{Value: strconv.Itoa(m), Label: monthNames[m-1] + " to " + monthNames[m-2] + " (water year)"})
 	}
 	return out
 }

@@ -33,7 +33,7 @@ func Estimators() []Estimator { return slices.Clone(estimators) }
 // meant for setup code and tests, not for concurrent use.
 func AddEstimator(e Estimator) (remove func()) {
 	estimators = append(estimators, e)
-	refresh := func() { descriptors[KindFluxes].Choices["estimator"] = estimatorChoices() }
+	refresh := func() { setChoices(KindFluxes, "estimator", estimatorChoices()) }
 	refresh()
 	return func() {
 		estimators = slices.DeleteFunc(estimators, func(x Estimator) bool { return x == e })
@@ -80,4 +80,16 @@ func estimatorLabel(m flux.Method) string { return estimatorFor(m).Label }
 func estimatorMethod(v string) flux.Method {
 	e, _ := estimatorOf(v)
 	return e.Method
+}
+
+// setChoices sets the choices of setting key of kind k.
+func setChoices(k Kind, key string, cs []Choice) {
+	d := descriptors[k]
+	for i := range d.Notes {
+		if d.Notes[i].Key == key {
+			d.Notes[i].Choices = cs
+			return
+		}
+	}
+	d.Notes = append(d.Notes, SettingNote{Key: key, Choices: cs})
 }

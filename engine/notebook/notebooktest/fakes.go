@@ -45,10 +45,10 @@ func (s *GlazeSettings) Validate() error {
 func DescribeFakes() (remove func()) {
 	r1 := notebook.AddEstimator(notebook.Estimator{Value: "window-mean", Label: "window mean", Method: flux.Beale})
 	r2 := notebook.Describe(notebook.Descriptor{Kind: "glaze", Label: "Glaze", Inputs: []notebook.Role{{Name: "fluxes", Kind: notebook.KindFluxes, Optional: true}},
-		New:     func() notebook.Settings { return &GlazeSettings{Finish: "matt", Depth: 1} },
-		Choices: map[string][]notebook.Choice{"finish": {{Value: "matt"}, {Value: "gloss", Label: "gloss (shiny)"}}},
-		Help:    map[string]string{"finish": "how the surface looks"},
-		Tables:  []notebook.TableInfo{{Name: "coats", Columns: []notebook.ColumnInfo{{Name: "coat"}, {Name: "depth", Unit: "mm"}}}},
+		New: func() notebook.Settings { return &GlazeSettings{Finish: "matt", Depth: 1} },
+		Notes: []notebook.SettingNote{{Key: "finish", Help: "how the surface looks",
+			Choices: []notebook.Choice{{Value: "matt"}, {Value: "gloss", Label: "gloss (shiny)"}}}},
+		Tables: []notebook.TableInfo{{Name: "coats", Columns: []notebook.ColumnInfo{{Name: "coat"}, {Name: "depth", Unit: "mm"}}}},
 		Compute: func(e *notebook.Env) (*notebook.Output, error) {
 			return &notebook.Output{Tables: []*notebook.ResultTable{{Name: "coats", Columns: []*notebook.Column{notebook.TextColumn("coat", []string{"first"}), notebook.NumColumn("depth", "mm", []float64{1})}}}}, nil
 		}})
