@@ -80,14 +80,5 @@ func fwdStdDev(x []float64) float64 {
 	if len(x) < 2 {
 		return 0
 	}
-	m := 0.0
-	for _, v := range x {
-		m += v
-	}
-	m /= float64(len(x))
-	ss := 0.0
-	for _, v := range x {
-		ss += (v - m) * (v - m)
-	}
-	return math.Sqrt(ss / float64(len(x)-1))
+	return quantile.StdDev(x)
 }

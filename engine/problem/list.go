@@ -33,16 +33,7 @@ type Problem struct {
 // Error writes the problem as "file:line:col (column): "value": text".
 func (p *Problem) Error() string {
 	var b strings.Builder
-	b.WriteString(p.File)
-	if p.Line > 0 {
-		b.WriteString(":" + strconv.Itoa(p.Line))
-		if p.Col > 0 {
-			b.WriteString(":" + strconv.Itoa(p.Col))
-		}
-	}
-	if p.Column != "" {
-		fmt.Fprintf(&b, " (%s)", p.Column)
-	}
+	Place(&b, p.File, p.Line, p.Col, p.Column)
 	if b.Len() > 0 {
 		b.WriteString(": ")
 	}
@@ -51,6 +42,44 @@ func (p *Problem) Error() string {
 	}
 	b.WriteString(p.Text)
 	return b.String()
+}
+
+// Place writes where a problem stands, as every problem of the engine
+// says it: "file:line:col (column)", the line and column only when above
+// zero, the column's header only when given.
+func Place(b *strings.Builder, file string, line, col int, column string) {
+	b.WriteString(file)
+	if line > 0 {
+		b.WriteString(":" + strconv.Itoa(line))
+		if col > 0 {
+			b.WriteString(":" + strconv.Itoa(col))
+		}
+	}
+	if column != "" {
+		fmt.Fprintf(b, " (%s)", column)
+	}
+}
+
+// Class is how much a kind of problem matters and what was done about it.
+type Class struct {
+	Severity Severity
+	Effect   Effect
+}
+
+// ClassOf returns the class of severity s and effect e.
+func ClassOf(s Severity, e Effect) Class { return Class{s, e} }
+
+// Classes gives the class of each sentinel of an importer.
+type Classes map[error]Class
+
+// Of returns the class of the sentinel err wraps, and whether it has one.
+func (c Classes) Of(err error) (Class, bool) {
+	for s, cl := range c {
+		if errors.Is(err, s) {
+			return cl, true
+		}
+	}
+	return Class{}, false
 }
 
 // Unwrap returns the sentinel, so errors.Is(p, sample.ErrCensored) works.

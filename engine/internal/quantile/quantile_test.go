@@ -105,3 +105,14 @@ func TestOf95AndLower95AgainstSort(t *testing.T) {
 		}
 	}
 }
+
+func TestStdDev(t *testing.T) {
+	// 2, 4, 4, 4, 5, 5, 7, 9: mean 5, sum of squares 32, s² = 32/7 (common
+	// practice, worked by hand).
+	if got, want := StdDev([]float64{2, 4, 4, 4, 5, 5, 7, 9}), math.Sqrt(32.0/7); math.Abs(got-want) > 1e-15 {
+		t.Errorf("got %g, want %g", got, want)
+	}
+	if !math.IsNaN(StdDev([]float64{1})) {
+		t.Error("one value has a standard deviation")
+	}
+}
