@@ -64,3 +64,16 @@ func (e *Evidence) Verdict() Verdict {
 	}
 	return Either
 }
+
+// DayMonth reads the first two numbers a and b of a date written with the
+// year last as day and month: day first when dayFirst, month first when
+// monthFirst; ok is false when neither is chosen.
+func DayMonth(a, b int, dayFirst, monthFirst bool) (day, month int, ok bool) {
+	switch {
+	case dayFirst:
+		return a, b, true
+	case monthFirst:
+		return b, a, true
+	}
+	return 0, 0, false
+}

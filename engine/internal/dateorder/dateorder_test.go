@@ -35,3 +35,16 @@ func TestVerdict(t *testing.T) {
 		})
 	}
 }
+
+func TestDayMonth(t *testing.T) {
+	// 03/04/2021: 3 April day-first, 4 March month-first (common practice).
+	if d, m, ok := DayMonth(3, 4, true, false); !ok || d != 3 || m != 4 {
+		t.Errorf("day-first: %d %d %v", d, m, ok)
+	}
+	if d, m, ok := DayMonth(3, 4, false, true); !ok || d != 4 || m != 3 {
+		t.Errorf("month-first: %d %d %v", d, m, ok)
+	}
+	if _, _, ok := DayMonth(3, 4, false, false); ok {
+		t.Error("no order chosen, yet read")
+	}
+}
