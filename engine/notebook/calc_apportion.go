@@ -288,16 +288,14 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 
 func computeApportionment(e *Env) (*Output, error) {
 	s := *e.Cell.Settings.(*ApportionmentSettings)
-	ai, err := e.Input("atmosphere")
+	atm, err := inputOf[*Atmosphere](e, "atmosphere")
 	if err != nil {
 		return nil, err
 	}
-	si, err := e.Input("sources")
+	ems, err := inputOf[[]mix.EndMember](e, "sources")
 	if err != nil {
 		return nil, err
 	}
-	atm := ai.Value.(*Atmosphere)
-	ems := si.Value.([]mix.EndMember)
 	workers := e.Workers()
 	rough := e.Rough()
 	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true, rough)
