@@ -173,7 +173,7 @@ func (c *CellCard) FillResult(el js.Value, ti int) {
 			}
 		}
 	}
-	mountHTML(el, d.key(), func() string { return ResultHTML(c.V.ID, t, cols, c.ResultRows(ti)) })
+	mountHTML(el, d.key(), func() string { return ResultHTML(c.V.ID, notebook.Kind(c.V.Kind), t, cols, c.ResultRows(ti)) })
 }
 
 // FillTable mounts the input table into its element and takes its edits.

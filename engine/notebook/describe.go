@@ -73,6 +73,10 @@ type TableInfo struct {
 	// Open says that the table has further columns named by the data (one
 	// per mineral, one per source and cation, …).
 	Open bool
+	// Labels are the page's labels, without unit, of the columns whose
+	// name does not read well, by column name ("Na_atm_share": "atmospheric
+	// share of Na"); ColumnLabel labels the others by rule.
+	Labels map[string]string
 }
 
 // ColumnInfo describes a column of an output table.
