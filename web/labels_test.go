@@ -35,7 +35,7 @@ func TestColumnLabelsFromDescriptors(t *testing.T) {
 		for _, tab := range notebook.DescriptorOf(k).Tables {
 			for _, c := range tab.Columns {
 				want := notebook.ColumnLabel(k, tab.Name, c.Name)
-				if l, ok := tab.Labels[c.Name]; ok {
+				if l := tab.Label(c.Name); l != "" {
 					n++
 					if want != l {
 						t.Errorf("%s.%s.%s: engine label %q, descriptor %q", k, tab.Name, c.Name, want, l)

@@ -130,8 +130,8 @@ func ColumnLabel(k Kind, table, name string) string {
 		}
 	}
 	if d := descriptors[k]; d != nil {
-		for _, t := range d.Tables {
-			if l, ok := t.Labels[name]; ok && t.Name == table {
+		for i := range d.Tables {
+			if l := d.Tables[i].Label(name); l != "" && d.Tables[i].Name == table {
 				return l
 			}
 		}

@@ -51,7 +51,8 @@ func TestColumnLabel(t *testing.T) {
 func TestColumnLabelsNameColumns(t *testing.T) {
 	for _, k := range Kinds {
 		for _, tab := range DescriptorOf(k).Tables {
-			for name := range tab.Labels {
+			for _, l := range tab.Labels {
+				name := l.Column
 				found := tab.Open
 				for _, c := range tab.Columns {
 					found = found || c.Name == name
