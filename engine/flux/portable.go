@@ -106,3 +106,12 @@ func normal(rng *rand.Rand) float64 {
 		}
 	}
 }
+
+// Exp returns e**x by the package's portable code (the same bits natively
+// and in WebAssembly), for other engine packages whose random paths must
+// agree across targets.
+func Exp(x float64) float64 { return pexp(x) }
+
+// Log returns the natural logarithm of x by the package's portable code
+// (see Exp).
+func Log(x float64) float64 { return plog(x) }
