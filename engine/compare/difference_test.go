@@ -126,3 +126,22 @@ func TestPairOfTwins(t *testing.T) {
 		t.Error("one budget is refused")
 	}
 }
+
+// TestPairPointOnly: without the bootstrap, the point differences stand
+// alone and every interval is NaN.
+func TestPairPointOnly(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 9))
+	tt := newTwinTruth(rng, 2, 1<<30, 1)
+	bu, q := tt.budget(rng, 0, len(tt.q), false, 1, []float64{1}, []float64{0.9})
+	o, err := Pair([]Budget{bu, bu}, []flux.Apportioned{q, q}, Options{PointOnly: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	y, m := o.Budgets[0].Yields()
+	if o.Yield.Point != 0 || !math.IsNaN(o.Yield.Low) || !math.IsNaN(y.Lo) || y.Median != o.Budgets[0].Point.Mean.MolPerKm2 || !(m.Median > 0) {
+		t.Errorf("point only: %+v, yields %+v %+v", o.Yield, y, m)
+	}
+	if len(o.Years) != 2 || !math.IsNaN(o.Years[0].Yield.High) {
+		t.Errorf("years %+v", o.Years)
+	}
+}

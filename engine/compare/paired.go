@@ -31,6 +31,9 @@ type Options struct {
 	// the shared parts drawn once per replicate. Without it each sample
 	// takes a draw from its own posterior, independently in each budget.
 	Picks []int
+	// PointOnly leaves out the bootstrap: the point values alone, every
+	// interval NaN (a quick first pass).
+	PointOnly bool
 }
 
 // BudgetSeed returns the seed of budget b's own parts (resampling,
@@ -54,6 +57,22 @@ type Series struct {
 // PerMM returns the flow-normalised mean annual yield of the point result,
 // mol/km²/mm (µmol/L).
 func (s *Series) PerMM() float64 { return s.Point.Mean.MolPerKm2 / s.Point.Mean.RunoffMM }
+
+// Yields returns the median and 95 % interval of the mean annual yield
+// over the replicates, per km² (mol/km²/yr) and per mm of runoff
+// (mol/km²/mm); the point values without an interval when there was no
+// bootstrap.
+func (s *Series) Yields() (perKm2, perMM flux.Interval) {
+	if s.Boot == nil {
+		nan := math.NaN()
+		return flux.Interval{Median: s.Point.Mean.MolPerKm2, Lo: nan, Hi: nan}, flux.Interval{Median: s.PerMM(), Lo: nan, Hi: nan}
+	}
+	y, m := make([]float64, len(s.Boot.Loads)), make([]float64, len(s.Boot.Loads))
+	for r, l := range s.Boot.Loads {
+		y[r], m[r] = l.Mean.MolPerKm2, l.Mean.MolPerKm2/l.Mean.RunoffMM
+	}
+	return flux.Summary(y), flux.Summary(m)
+}
 
 // YearDifference is the difference of one reporting year: treated − control
 // in that year, or for BACI the after year's treated − control less the
@@ -98,6 +117,10 @@ func Pair(budgets []Budget, q []flux.Apportioned, opt Options) (*Outcome, error)
 		if err != nil {
 			return nil, fmt.Errorf("%s: %v", bu.Name, err)
 		}
+		if opt.PointOnly {
+			out.Budgets[b] = Series{Point: r}
+			continue
+		}
 		bo := bu.Bootstrap
 		bo.Seed, bo.Replicates, bo.KeepReplicates = BudgetSeed(opt.Seed, b), nrep, true
 		bo.DrawNumbers, bo.Draws, bo.Hold = opt.Picks, flux.PerSampleDraw, 0
@@ -114,6 +137,9 @@ func Pair(budgets []Budget, q []flux.Apportioned, opt Options) (*Outcome, error)
 		v[b], w[b] = out.Budgets[b].Point.Mean.MolPerKm2, out.Budgets[b].PerMM()
 	}
 	pY, pM := d.Combine(v), d.Combine(w)
+	if opt.PointOnly {
+		nrep = 0
+	}
 	out.YieldReps, out.PerMMReps = make([]float64, nrep), make([]float64, nrep)
 	for r := 0; r < nrep; r++ {
 		for b := range out.Budgets {

@@ -50,6 +50,9 @@ type Detection struct {
 	// Failed counts simulated programmes the estimator could not flux
 	// (left out).
 	Failed int
+	// LeftOut counts the budget's samples without a concentration and a
+	// discharge above zero, which the simulation cannot learn from.
+	LeftOut int
 }
 
 // generator makes the concentrations of simulated samples from a budget's
@@ -114,27 +117,39 @@ func newGenerator(s Scatter) (*generator, int, error) {
 // tiled returns a record of years complete reporting years made of the
 // complete years of rec, in order and repeated as needed, starting with
 // the first of them (a year of 366 days taken into one of 365 loses its
-// last day; one of 365 into 366 repeats its last). It fails when rec has
-// no complete year.
+// last day; one of 365 into 366 repeats its last). A record with no
+// complete year but at least 365 days lends its 365-day spans from its
+// first day instead, each set into a reporting year from its start. It
+// fails on a record shorter than a year.
 func tiled(rec *discharge.Record, firstMonth, years int) (*discharge.Record, error) {
-	var full []discharge.Year
+	type block struct{ start, days int } // indices into rec
+	var full []block
+	label := 0
 	for _, y := range rec.Years(firstMonth) {
 		if y.Complete() {
-			full = append(full, y)
+			if label == 0 {
+				label = y.Label
+			}
+			full = append(full, block{rec.Index(y.Start), y.Days})
 		}
 	}
 	if len(full) == 0 {
-		return nil, fmt.Errorf("the discharge record has no complete reporting year to simulate programmes on")
+		for i := 0; i+365 <= rec.Len(); i += 365 {
+			full = append(full, block{i, 365})
+		}
+		if len(full) == 0 {
+			return nil, fmt.Errorf("the discharge record is shorter than a year: no programme can be simulated on it")
+		}
+		label = discharge.YearOf(rec.First(), firstMonth) + 1
 	}
-	start, _ := discharge.YearBounds(full[0].Label, firstMonth)
+	start, _ := discharge.YearBounds(label, firstMonth)
 	var q []float64
 	for k := range years {
 		src := full[k%len(full)]
-		s, e := discharge.YearBounds(full[0].Label+k, firstMonth)
+		s, e := discharge.YearBounds(label+k, firstMonth)
 		n := int(e-s) + 1
-		i0 := rec.Index(src.Start)
 		for j := range n {
-			q = append(q, rec.Q[i0+min(j, src.Days-1)])
+			q = append(q, rec.Q[src.start+min(j, src.days-1)])
 		}
 	}
 	return discharge.NewRecord(rec.Name, start, q), nil
@@ -180,7 +195,7 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 	if p.Sims < 20 || !(p.Power > 0 && p.Power < 1) || !(p.Alpha > 0 && p.Alpha < 1) {
 		return nil, fmt.Errorf("the simulation needs at least 20 programmes, a power and a level between 0 and 1")
 	}
-	g, _, err := newGenerator(s)
+	g, left, err := newGenerator(s)
 	if err != nil {
 		return nil, err
 	}
@@ -208,7 +223,7 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 	rng := rand.New(rand.NewPCG(p.Seed, streamPlan))
 	signs := d.Signs()
 	var buf flux.Series
-	det := &Detection{Plan: plan}
+	det := &Detection{Plan: plan, LeftOut: left}
 	// One simulation: the null difference and the treated "after" flux.
 	sim := func() (float64, float64) {
 		v := make([]float64, len(signs))

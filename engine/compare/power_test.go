@@ -137,3 +137,20 @@ func BenchmarkDetect(b *testing.B) {
 		}
 	}
 }
+
+// TestDetectOnPartYears: a record with no complete reporting year lends
+// its 365-day spans; one shorter than a year is refused.
+func TestDetectOnPartYears(t *testing.T) {
+	s, _, _ := normalScatter(60, 100, 8, 7)
+	for _, c := range []struct {
+		from, days int
+		ok         bool
+	}{{150, 400, true}, {150, 200, false}} {
+		r := s
+		r.Record = discharge.NewRecord("part", s.Record.Days[c.from], s.Record.Q[c.from:c.from+c.days])
+		_, err := Detect(r, TreatedControl, Plan{PerYear: 12, Years: 1}, Power{Power: 0.8, Alpha: 0.05, Sims: 50, Seed: 1})
+		if (err == nil) != c.ok {
+			t.Errorf("%d days from day %d: %v", c.days, c.from, err)
+		}
+	}
+}

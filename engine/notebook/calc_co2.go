@@ -250,6 +250,7 @@ func computeCO2(e *Env) (*Output, error) {
 	e.Report(n, total)
 	if fi == nil {
 		out.Doubtful = a.doubtful
+		out.Value = &CO2Budget{Settings: *s, App: a, Options: *opt, Scale: scale}
 		return out, nil
 	}
 	fv := fi.Value.(*Fluxes)
@@ -261,6 +262,7 @@ func computeCO2(e *Env) (*Output, error) {
 	}
 	out.Doubtful = fv.Doubtful
 	done := n // progress units: per litre, then each bootstrap
+	out.Value = &CO2Budget{Settings: *s, Fluxes: fv, App: a, Options: *opt, Scale: scale}
 	fv = fv.ticking(func() { e.Report(done, total) })
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64

@@ -16,6 +16,7 @@ const (
 	KindCO2           Kind = "co2"           // CO2 consumption budget
 	KindCarbonate     Kind = "carbonate"     // carbonate system: pCO2 and saturation indices
 	KindMinerals      Kind = "minerals"      // mineral mass balance
+	KindCompare       Kind = "comparison"    // treated against control: differences of budgets (calc_compare.go)
 	KindNote          Kind = "note"          // free text
 	KindChart         Kind = "chart"         // any output column against any other
 	KindBroken        Kind = "broken"        // a cell that failed to load; never written as such
@@ -23,7 +24,7 @@ const (
 
 // Kinds lists every kind a user can add, in the usual document order.
 var Kinds = []Kind{KindSite, KindSamples, KindDischarge, KindCarbonate, KindAtmosphere, KindSources,
-	KindApportionment, KindFluxes, KindCO2, KindMinerals, KindNote, KindChart}
+	KindApportionment, KindFluxes, KindCO2, KindMinerals, KindCompare, KindNote, KindChart}
 
 // Role is a named input of a cell: the cell it reads from is chosen in the
 // cell's "uses" map, or, when absent there, is the nearest cell above of
@@ -52,6 +53,8 @@ func (k Kind) Roles() []Role {
 		return carbonateRoles
 	case KindMinerals:
 		return mineralRoles
+	case KindCompare:
+		return compareRoles
 	}
 	return nil
 }

@@ -218,6 +218,8 @@ func DefaultSettings(k Kind) Settings {
 		return defaultCarbonateSettings()
 	case KindMinerals:
 		return defaultMineralSettings()
+	case KindCompare:
+		return defaultCompareSettings()
 	case KindNote:
 		return &NoteSettings{}
 	case KindChart:

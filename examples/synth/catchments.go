@@ -58,6 +58,7 @@ var Examples = []Example{
 			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; the CO2 cell shows beside it the other end of the bracket, all from sulfide oxidation.")
 	}},
 	{"examples/greyhope-beck/greyhope-beck.lixiv.json", greyhopeBudget},
+	{"examples/lintmoor-whinlaw/lintmoor-whinlaw.lixiv.json", pairedBudget},
 }
 
 // Computed builds an example, computes it and keeps its results snapshot,
