@@ -223,6 +223,12 @@ func (c *CellCard) OnCheck(key string, e vugu.DOMEvent) {
 	c.R.S.SetParam(c.V.ID, key, v)
 }
 
+// OnSection puts the cell in the section typed ("" makes it shared).
+func (c *CellCard) OnSection(e vugu.DOMEvent) {
+	defer c.R.guard()
+	c.R.S.SetSection(c.V.ID, strings.TrimSpace(e.PropString("target", "value")))
+}
+
 // OnTitle renames the cell.
 func (c *CellCard) OnTitle(e vugu.DOMEvent) { c.R.S.SetTitle(c.V.ID, e.PropString("target", "value")) }
 

@@ -39,6 +39,9 @@ type CellView struct {
 	Progress                   float64 // 0..1 while running
 	OldOutputs                 bool    // outputs shown are from before the last edit
 	YearStart                  int     // first month of the reporting years of its tables (1: calendar years)
+	Section                    string  // the cell's section ("" shared, or in a budget without sections)
+	Shared                     bool    // a cell shared by every section of a budget with sections
+	SectionHead                string  // the heading of the section this cell starts ("" when it starts none; compare.go)
 }
 
 // ParamView is one setting as a form field.
@@ -267,6 +270,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		out = append(out, v)
 	}
+	markSections(out, d)
 	return out
 }
 

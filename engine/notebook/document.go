@@ -93,6 +93,7 @@ type Document struct {
 	Quick bool
 
 	rev   uint64
+	part  bool // a section's view of a budget with sections, made for its report (report_compare.go)
 	state map[string]*cellState
 	funcs map[Kind]ComputeFunc // nil: the registered functions
 }

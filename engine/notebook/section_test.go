@@ -316,3 +316,37 @@ func TestCompareDesign(t *testing.T) {
 		t.Errorf("no figure of the samples a year needed; warnings %q", o.Warnings)
 	}
 }
+
+// TestReportSections: the report of a budget with sections gives each
+// section's budget and the comparison.
+func TestReportSections(t *testing.T) {
+	cs := defaultCompareSettings()
+	cs.Replicates, cs.Simulations, cs.Treated, cs.Control = 50, 20, "T", "C"
+	d := twinSections(t, "../../testdata/budgets/small-forward.lixiv.json", []string{"T", "C"}, cs)
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	var r struct {
+		Sections []struct {
+			Section string                     `json:"section"`
+			Area    float64                    `json:"area_km2"`
+			CO2     map[string]json.RawMessage `json:"co2_consumption"`
+		} `json:"sections"`
+		Comparison struct {
+			Design      string                     `json:"design"`
+			Budgets     []map[string]string        `json:"budgets"`
+			Differences map[string]json.RawMessage `json:"differences"`
+			Cautions    []string                   `json:"cautions"`
+		} `json:"comparison"`
+	}
+	if err := json.Unmarshal(d.Report().JSON(), &r); err != nil {
+		t.Fatal(err)
+	}
+	if len(r.Sections) != 2 || r.Sections[1].Section != "C" || !(r.Sections[0].Area > 0) || r.Sections[0].CO2["silicate"] == nil {
+		t.Errorf("sections %+v", r.Sections)
+	}
+	c := r.Comparison
+	if c.Design != "treated-control" || len(c.Budgets) != 2 || c.Budgets[1]["section"] != "C" || c.Differences["silicate CO2"] == nil || len(c.Cautions) < 4 {
+		t.Errorf("comparison %+v", c)
+	}
+}
