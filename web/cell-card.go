@@ -200,7 +200,11 @@ func (c *CellCard) FillParam(el js.Value, p ParamView) {
 // FillRole fills the select of an input role with the cells it can read.
 func (c *CellCard) FillRole(el js.Value, r RoleView) {
 	choices := make([]Choice, 0, len(r.Choices)+1)
-	choices = append(choices, Choice{"", "nearest above"})
+	def := "nearest above"
+	if r.Default != "" {
+		def = r.Default
+	}
+	choices = append(choices, Choice{"", def})
 	for _, id := range r.Choices {
 		choices = append(choices, Choice{id, id})
 	}

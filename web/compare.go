@@ -2,6 +2,8 @@ package web
 
 import (
 	"math"
+	"slices"
+	"strings"
 
 	"lixiv/engine/notebook"
 	"lixiv/web/plot"
@@ -74,6 +76,36 @@ func markSections(cells []CellView, d *notebook.Document) {
 	}
 }
 
+// roleDefault says what an input of cell c left to the document reads, when
+// that is not simply the nearest cell above: a comparison's budgets come
+// from the sections its settings name; in a budget with sections, a cell
+// reads the nearest above in its own section, else a shared one.
+func roleDefault(d *notebook.Document, c *notebook.Cell) string {
+	switch {
+	case c.Kind == notebook.KindCompare:
+		return "from the section set below"
+	case c.Section != "":
+		return "nearest above in its section, else shared"
+	case d.HasSections():
+		return "nearest shared cell above"
+	}
+	return ""
+}
+
+// sectionChoices offers the document's sections for a comparison's section
+// settings (with the value set, when it names none of them, and none).
+func sectionChoices(d *notebook.Document, c *notebook.Cell, pv *ParamView) {
+	if c.Kind != notebook.KindCompare || !strings.HasSuffix(pv.Key, "_section") {
+		return
+	}
+	pv.Options = append([]string{""}, d.Sections()...)
+	if pv.Value != "" && !slices.Contains(pv.Options, pv.Value) {
+		pv.Options = append(pv.Options, pv.Value)
+	}
+	pv.OptionLabels = append([]string(nil), pv.Options...)
+	pv.OptionLabels[0] = "(none)"
+}
+
 // SetSection puts a cell in a section ("" makes it shared).
 func (s *Session) SetSection(cell, name string) error {
 	if c := s.Doc.Cell(cell); c != nil && c.Section == name {
@@ -103,8 +135,9 @@ func differenceChart(id, title, unit string, o *notebook.Output, tableName strin
 	if len(cats) == 0 {
 		return nil
 	}
-	ch := plot.New(id, title, "quantity", "difference ("+unit+")")
+	ch := plot.New(id, title, "", "difference ("+unit+")") // no axis title: the labels may take two rows
 	ch.Height = 300
+	ch.StaggerLabels = true
 	ch.DivergingBars(cats, []plot.Segment{{Name: "median with 95 % interval of the paired replicates", Style: plot.StyleN(3), Value: m, Lo: l, Hi: h}})
 	return ch
 }
@@ -126,7 +159,7 @@ func designChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 	if n == nil || inc == nil {
 		return nil
 	}
-	ch := plot.New(id, "Smallest increase detectable with 80 % power against samples a year", "samples a year", "smallest detectable increase (% of the control's flux)")
+	ch := plot.New(id, "Smallest increase detectable with 80 % power against samples a year", "samples a year", "detectable increase (% of the flux)")
 	ch.X.Log, ch.Y.Log = true, true
 	ch.Height = 300
 	ch.Line("simulated on the control's own data", plot.StyleN(0), n.Num, inc.Num)

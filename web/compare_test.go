@@ -124,3 +124,23 @@ func TestComparisonCharts(t *testing.T) {
 		}
 	}
 }
+
+// TestComparisonSectionChoices: a comparison's section settings offer the
+// budget's sections, and none.
+func TestComparisonSectionChoices(t *testing.T) {
+	s := NewSession(twinBudget(t), "twins.lixiv.json", Origin{})
+	for _, v := range s.Cells("", 0, &ChartCache{}) {
+		if v.ID != "cmp" {
+			continue
+		}
+		for _, p := range v.Params {
+			if p.Key == "control_section" {
+				if strings.Join(p.Options, "|") != "|T|C" || p.OptionLabels[0] != "(none)" || p.Value != "C" {
+					t.Errorf("control section choices %q %q, value %q", p.Options, p.OptionLabels, p.Value)
+				}
+				return
+			}
+		}
+	}
+	t.Error("no control section setting shown")
+}

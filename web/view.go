@@ -63,6 +63,7 @@ type NeedView struct {
 type RoleView struct {
 	Name, Current string
 	Choices       []string // ids of cells of the role's kind
+	Default       string   // what the empty choice reads ("" for "nearest above"; compare.go)
 }
 
 // FigureView is a headline figure formatted for the page.
@@ -202,6 +203,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				if p.Key == "water_year_start_month" {
 					pv.OptionLabels = monthLabels()
 				}
+				sectionChoices(d, c, &pv) // compare.go
 				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
 					pv.Options = columnRefs(d, c.ID, p.Value)
 					pv.OptionLabels = make([]string, len(pv.Options))
@@ -215,7 +217,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			}
 		}
 		for _, r := range c.Kind.Roles() {
-			rv := RoleView{Name: r.Name, Current: c.Uses[r.Name]}
+			rv := RoleView{Name: r.Name, Current: c.Uses[r.Name], Default: roleDefault(d, c)}
 			for _, o := range d.Cells {
 				if o.Kind == r.Kind && o.ID != c.ID {
 					rv.Choices = append(rv.Choices, o.ID)

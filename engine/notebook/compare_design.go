@@ -123,10 +123,12 @@ func (v *Comparison) monitoring(e *Env, out *Output) error {
 	out.Tables = append(out.Tables, &ResultTable{Name: "design", Title: fmt.Sprintf("Monitoring design: the smallest increase of the %s flux detectable over %d years (each period, before-after) against samples a year, %s", s.measureName(), s.Years, how),
 		Columns: []*Column{NumColumn("samples_per_year", "samples/yr", n), NumColumn("detectable_increase", "% of the control's flux", inc),
 			NumColumn("detectable_yield", "mol/km²/yr", abs), NumColumn("null_sd", "% of the flux", sd), TextColumn("design", mark)}})
+	short := fmt.Sprintf("%d programmes simulated on the control's own data with its %s estimator; %.0f %% power, two-sided %.0f %% level",
+		s.Simulations, estimatorLabel(sc.Options.Method), 100*DesignPower, 100*DesignAlpha)
 	f := Point(fmt.Sprintf("smallest increase of the %s flux detectable with %d samples a year over %d years", s.measureName(), perYear, s.Years), "% of the control's flux", 100*chosen.Relative)
-	f.Note = how
+	f.Note = short
 	fa := Point(fmt.Sprintf("smallest increase of the %s flux detectable with %d samples a year over %d years, per km²", s.measureName(), perYear, s.Years), "mol/km²/yr", chosen.Relative*base)
-	fa.Note = how
+	fa.Note = short
 	out.Figures = append(out.Figures, f, fa)
 	e.Report(len(freqs), len(freqs)+1)
 	need, det, ok, err := compare.SamplesPerYear(sc, d, s.Years, s.Target/100, p, 365, v.Design...)
@@ -141,7 +143,7 @@ func (v *Comparison) monitoring(e *Env, out *Output) error {
 		return nil
 	}
 	fn := Point(name, "samples/yr", float64(need))
-	fn.Note = fmt.Sprintf("detects %.3g %%; %s", 100*det.Relative, how)
+	fn.Note = fmt.Sprintf("detects %.3g %%; %s", 100*det.Relative, short)
 	out.Figures = append(out.Figures, fn)
 	return nil
 }

@@ -3,6 +3,7 @@ package notebook
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"lixiv/engine/chem"
 	"lixiv/engine/compare"
@@ -44,7 +45,7 @@ func diffFigure(name, unit string, d compare.Difference, note string) Figure {
 		f.Median = d.Point
 	}
 	if !math.IsNaN(d.Above) {
-		note = fmt.Sprintf("P(difference > 0) = %.3f over %d paired replicates; %s", d.Above, d.Replicates, note)
+		note = fmt.Sprintf("P(difference > 0) = %.3f, %d paired replicates; %s", d.Above, d.Replicates, note)
 	}
 	f.Note = note
 	return f
@@ -54,7 +55,10 @@ func diffFigure(name, unit string, d compare.Difference, note string) Figure {
 // cell's tables and headline figures.
 func (v *Comparison) results(out *Output) {
 	s := &v.Settings
-	note := "paired replicates: resampling, discharge and area errors of each budget its own; apportionment draws " + v.Draws
+	note := "apportionment draws shared by every budget; the rest of each budget its own (the shared table)"
+	if !strings.HasPrefix(v.Draws, "once") {
+		note = "apportionment draws taken in each budget separately (the shared table says why)"
+	}
 	if v.Draws == "" {
 		note = "point values; intervals to follow"
 	}

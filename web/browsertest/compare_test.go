@@ -90,13 +90,17 @@ func TestComparisonRenders(t *testing.T) {
 		if err := os.MkdirAll(dir, 0o755); err != nil {
 			t.Fatal(err)
 		}
-		for _, sel := range []string{"#cell-comparison", "#cell-sources", "#cell-ta-fluxes"} {
+		shots := map[string]string{"comparison": "#cell-comparison", "inputs": "#cell-comparison .inputs",
+			"figures": "#cell-comparison .figures", "warnings": "#cell-comparison .warnings", "sources": "#cell-sources",
+			"section-head": "#cell-tb-site", "difference": "#chart-comparison-diff", "per-mm": "#chart-comparison-mm",
+			"design": "#chart-comparison-design"}
+		for name, sel := range shots {
 			png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS(sel)))
 			if err != nil {
 				t.Errorf("%s: %v", sel, err)
 				continue
 			}
-			save(t, filepath.Join(dir, "paired-"+strings.TrimPrefix(sel, "#cell-")+".png"), png)
+			save(t, filepath.Join(dir, "paired-"+name+".png"), png)
 		}
 	}
 }
