@@ -144,3 +144,13 @@ func TestComparisonSectionChoices(t *testing.T) {
 	}
 	t.Error("no control section setting shown")
 }
+
+// TestHeadlineLeadsWithTheDifference: in a budget with a comparison, the
+// summary strip starts with the comparison's differences.
+func TestHeadlineLeadsWithTheDifference(t *testing.T) {
+	s := NewSession(twinBudget(t), "twins.lixiv.json", Origin{})
+	h := Headline(s.Cells("", 0, &ChartCache{}), 6)
+	if len(h) < 2 || !strings.Contains(h[0].Name, "difference in silicate CO2") || h[0].Cell != "cmp" {
+		t.Errorf("headline starts with %+v", h)
+	}
+}

@@ -358,6 +358,8 @@ func Headline(cells []CellView, max int) []FigureView {
 		perArea := strings.Contains(f.Unit, "km²")
 		carbon := strings.Contains(f.Unit, "C/")
 		switch {
+		case strings.Contains(n, "difference in") && perArea: // a comparison's differences lead
+			return -1
 		case strings.Contains(n, "co2") && strings.Contains(n, "silicate") && perArea && !carbon:
 			return 0
 		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate") && perArea && !carbon:

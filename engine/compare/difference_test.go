@@ -145,3 +145,24 @@ func TestPairPointOnly(t *testing.T) {
 		t.Errorf("years %+v", o.Years)
 	}
 }
+
+func BenchmarkPair(b *testing.B) {
+	rng := rand.New(rand.NewPCG(9, 9))
+	tt := newTwinTruth(rng, 2, 1<<30, 1)
+	rCa, rMg := make([]float64, 200), make([]float64, 200)
+	for d := range rCa {
+		rCa[d], rMg[d] = 1+0.1*rng.NormFloat64(), 0.9+0.1*rng.NormFloat64()
+	}
+	bt, qt := tt.budget(rng, 0, len(tt.q), true, 1, rCa, rMg)
+	bc, qc := tt.budget(rng, 0, len(tt.q), false, 1, rCa, rMg)
+	picks := make([]int, 1000)
+	for r := range picks {
+		picks[r] = r % 200
+	}
+	for b.Loop() {
+		bt.Bootstrap.Cache, bc.Bootstrap.Cache = &flux.Cache{}, &flux.Cache{}
+		if _, err := Pair([]Budget{bt, bc}, []flux.Apportioned{qt, qc}, Options{Replicates: 1000, Seed: 1, Picks: picks}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
