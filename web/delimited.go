@@ -34,8 +34,9 @@ func pad(row []string, n int) []string {
 // the block's header, units row and rows as a file's are read. When the
 // block's first
 // row repeats t's column names it is taken as a header: its columns are
-// matched to t's by name (unknown names become new columns) and a units
-// row under it is used for new columns. Otherwise the cells go to t's
+// matched to t's by name (unknown names, unnamed columns and names the
+// header repeats become new columns) and a units row under it is used for
+// new columns. Otherwise the cells go to t's
 // columns in order, and a block wider than t gets unnamed extra columns.
 // It returns how many rows were added.
 func AppendRows(t *notebook.Table, text string) int {
@@ -61,7 +62,16 @@ func AppendRows(t *notebook.Table, text string) int {
 			units, rows = rows[0], rows[1:]
 		}
 		for j, name := range hdr {
-			i := t.Column(name)
+			// An unnamed column, or a name this header already used, gets
+			// a column of its own: matching it would put two pasted
+			// columns into one.
+			i := -1
+			if name != "" {
+				i = t.Column(name)
+			}
+			if i >= 0 && contains(colOf, i) {
+				i = -1
+			}
 			if i < 0 {
 				t.Columns = append(t.Columns, name)
 				if len(t.Units) > 0 || (j < len(units) && units[j] != "") {

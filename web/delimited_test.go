@@ -67,6 +67,10 @@ func TestAppendRows(t *testing.T) {
 			[]string{"sample", "date", "Na", "Ca"}, []string{"CV-5", "2021-05-01", "3", "1.9"}},
 		{"wider block gets an unnamed column", "CV-6\t2021-06-01\t3\textra\n", 1,
 			[]string{"sample", "date", "Na", ""}, []string{"CV-6", "2021-06-01", "3", "extra"}},
+		{"a repeated name keeps both columns", "sample\tNa\tNa\nCV-7\t3.1\t3.2\n", 1,
+			[]string{"sample", "date", "Na", "Na"}, []string{"CV-7", "", "3.1", "3.2"}},
+		{"an unnamed header cell gets its own column", "sample\tNa\t\nCV-8\t1\tx\n", 1,
+			[]string{"sample", "date", "Na", ""}, []string{"CV-8", "", "1", "x"}},
 		{"nothing pasted", "\n\n", 0, []string{"sample", "date", "Na"}, []string{"CV-1", "2021-01-01", "3"}},
 	}
 	for _, tt := range tests {

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"lixiv/engine/notebook"
+	"lixiv/engine/sample"
 )
 
 // FuzzParseDelimited feeds arbitrary text to the page's table readers: they
@@ -53,4 +54,36 @@ func FuzzParseDelimited(f *testing.F) {
 		k := len(text)
 		TableProblems("samples", base, notebook.Messages{{File: "samples", Line: k % 7, Col: k % 5, Row: k%4 - 2, Text: text}})
 	})
+}
+
+// FuzzPasteRoundTrip pastes text into an empty table, copies the table out
+// as a spreadsheet does (tab-separated) and pastes that into another empty
+// table: the samples cell must read the same samples from both.
+func FuzzPasteRoundTrip(f *testing.F) {
+	for _, s := range []string{
+		"sample\tdate\tNa\n\t\tmg/L\nA\t2021-05-01\t1,5\nB\t2021-05-02\t<0.01\n",
+		"sample,date,Na (µmol/L)\nA,2021-05-01,12\n",
+		"sample\tnote\tNa\nA\t\"two\nlines\"\t1\nB\t\"a, b; c\"\t2\n",
+		"sample;Na;;\nA;1;;\n\nB;2;;x\n",
+		"0\n\"\n\",",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, text string) {
+		t1 := &notebook.Table{}
+		if AppendRows(t1, text) == 0 && len(t1.Columns) == 0 {
+			return
+		}
+		copied := t1.TSV()
+		t2 := &notebook.Table{}
+		AppendRows(t2, copied)
+		if a, b := pastedSamples(t1), pastedSamples(t2); a != b {
+			t.Fatalf("samples differ after copying the table out as\n%q\nfirst:\n%s\nthen:\n%s", copied, a, b)
+		}
+	})
+}
+
+// pastedSamples is what the samples cell reads from t.
+func pastedSamples(t *notebook.Table) string {
+	return sample.ParseText(t.TSV(), "f", sample.Options{Comma: '\t'}).SamplesText()
 }

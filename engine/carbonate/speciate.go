@@ -40,6 +40,11 @@ func Speciate(alk, pH float64, k Constants, g Gammas) Species {
 // at the pCO2 given.
 var ErrNoMatch = errors.New("carbonate: no pH between 0 and 14 matches this alkalinity and pCO2")
 
+// maxHalvings bounds PH's bisection: 44 halvings of the range 0 to 14
+// reach its 1e-12 tolerance, so the bound never ends a search early; it
+// makes the loop's end plain, whatever the comparisons give.
+const maxHalvings = 64
+
 // PH returns the pH of a water of alkalinity alk (eq/L) in equilibrium with
 // a CO2 partial pressure pCO2 (atm), with constants k and activity
 // coefficients g: the inverse of Speciate. The alkalinity implied by a pH at
@@ -61,7 +66,7 @@ func PH(alk, pCO2 float64, k Constants, g Gammas) (float64, error) {
 	if implied(lo) > alk || implied(hi) < alk {
 		return math.NaN(), ErrNoMatch
 	}
-	for hi-lo > 1e-12 {
+	for it := 0; it < maxHalvings && hi-lo > 1e-12; it++ {
 		mid := (lo + hi) / 2
 		if implied(mid) < alk {
 			lo = mid

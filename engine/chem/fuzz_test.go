@@ -3,6 +3,8 @@ package chem
 import (
 	"math"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 func FuzzParseUnit(f *testing.F) {
@@ -10,6 +12,7 @@ func FuzzParseUnit(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
+		defer watchdog.Start(s)()
 		u, err := ParseUnit(s)
 		if err != nil {
 			return
@@ -31,6 +34,7 @@ func FuzzParseSpecies(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
+		defer watchdog.Start(s)()
 		sp, basis, ok := ParseSpecies(s)
 		if !ok {
 			return

@@ -6,6 +6,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
+	"lixiv/engine/internal/watchdog"
 	"lixiv/engine/mix"
 )
 
@@ -21,6 +22,7 @@ func FuzzChain(f *testing.F) {
 	f.Add(0.0, 0.0, 1000.0, 0.0, 0.0, 1000.0, 0.0, uint8(3))
 	f.Add(50.0, 3.0, 10.0, 5.0, 400.0, 90.0, 120.0, uint8(2))
 	f.Fuzz(func(t *testing.T, na, k, ca, mg, cl, so4, clStar float64, mode uint8) {
+		defer watchdog.Start([]any{na, k, ca, mg, cl, so4, clStar, mode})()
 		for _, v := range []float64{na, k, ca, mg, cl, so4} {
 			if v > 1e12 { // far beyond any water; keeps the arithmetic exact enough
 				return

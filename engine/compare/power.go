@@ -1,6 +1,7 @@
 package compare
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -36,6 +37,17 @@ type Power struct {
 	Power, Alpha float64 // such as 0.80 and 0.05
 	Sims         int     // simulated pairs (or quartets) of programmes for the null, and as many again for the power
 	Seed         uint64
+	// Context, when set, cancels a long simulation: it is looked at every
+	// few programmes, and Detect then returns its error.
+	Context context.Context
+}
+
+// err returns the error of the cancelled context, or nil.
+func (p *Power) err() error {
+	if p.Context == nil {
+		return nil
+	}
+	return p.Context.Err()
 }
 
 // Detection is the result of a simulated monitoring design.
@@ -239,6 +251,9 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 	null := make([]float64, 0, p.Sims)
 	var fluxes []float64
 	for len(null) < p.Sims {
+		if err := p.err(); err != nil {
+			return nil, err
+		}
 		x, t := sim()
 		if math.IsNaN(x) {
 			det.Failed++
@@ -253,6 +268,9 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 	hi := flux.Quantile(null, 1-p.Alpha/2)
 	deltas := make([]float64, 0, p.Sims)
 	for len(deltas) < p.Sims {
+		if err := p.err(); err != nil {
+			return nil, err
+		}
 		x, t := sim()
 		if math.IsNaN(x) || !(t > 0) {
 			det.Failed++

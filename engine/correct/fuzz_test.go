@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzApply feeds arbitrary concentrations and options to Apply: it must
@@ -17,6 +18,7 @@ func FuzzApply(f *testing.F) {
 	f.Add(80.0, 200.0, 20.0, 100.0, 40.0, 30.0, 50.0, uint8(2))
 	f.Add(0.0, 0.0, 0.0, 1000.0, 0.0, 500.0, 1e-300, uint8(5))
 	f.Fuzz(func(t *testing.T, cl, na, k, ca, mg, so4, clStar float64, mode uint8) {
+		defer watchdog.Start([]any{cl, na, k, ca, mg, so4, clStar, mode})()
 		c := chem.NewComposition()
 		c[chem.Cl], c[chem.Na], c[chem.K], c[chem.Ca], c[chem.Mg], c[chem.SO4] = cl, na, k, ca, mg, so4
 		opt := &Options{

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/watchdog"
 )
 
 // varyRef is Vary as first written, a copy of the Result redone with the
@@ -294,6 +295,7 @@ func FuzzVaryParts(f *testing.F) {
 	f.Add(565.7647, 486.0597, 10.5797, 10.6568, 54.7421, 29.2643, 0.094, math.Inf(1), uint8(0x0a), 1.0, 1.0, 1.0, 1.0)
 	f.Add(80.0, 200.0, 20.0, 100.0, 40.0, math.NaN(), 0.0, 50.0, uint8(0x2b), 0.0, math.Inf(1), 1e300, math.NaN())
 	f.Fuzz(func(t *testing.T, cl, na, kk, ca, mg, so4, sr, clStar float64, mode uint8, kNa, kCa, kSO4, kCl float64) {
+		defer watchdog.Start([]any{cl, na, kk, ca, mg, so4, sr, clStar, mode, kNa, kCa, kSO4, kCl})()
 		c := chem.NewComposition()
 		c[chem.Cl], c[chem.Na], c[chem.K], c[chem.Ca], c[chem.Mg], c[chem.SO4], c[chem.Sr] = cl, na, kk, ca, mg, so4, sr
 		opt := &Options{

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzRead checks that the importer never panics and that whatever loads
@@ -37,6 +39,7 @@ func FuzzRead(f *testing.F) {
 		f.Add(string(b), uint8(0))
 	}
 	f.Fuzz(func(t *testing.T, in string, mode uint8) {
+		defer watchdog.Start([]any{in, mode})()
 		opt := Options{DateOrder: DateOrder(mode % 3), Decimal: DecimalMark(mode / 3 % 3), AreaKm2: float64(mode % 2)}
 		if mode&0x80 != 0 {
 			opt.Unit = LPerS
@@ -79,6 +82,7 @@ func FuzzRoundTrip(f *testing.F) {
 	f.Add(int64(0), 1.5, 2.25, 0.0, uint8(3))
 	f.Add(int64(-30000), 1e-9, 1e6, 3.0, uint8(0))
 	f.Fuzz(func(t *testing.T, first int64, a, b, c float64, gaps uint8) {
+		defer watchdog.Start([]any{first, a, b, c, gaps})()
 		if first < -200000 || first > 200000 {
 			return
 		}

@@ -251,6 +251,9 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 	var fixed []float64
 	fixedOK := false
 	for r := 0; r < rp.nrep; r++ {
+		if err := b.err(); err != nil {
+			return nil, err
+		}
 		fq, fa := rp.next(nil, nil)
 		if held && fixed != nil {
 			copy(out, fixed)
@@ -476,6 +479,9 @@ func (c *Cache) loads(rec *discharge.Record, s Series, opt Options, b BootstrapO
 	rp := newReplicates(smp, len(s.Days), years, rb)
 	rl = &refLoads{mol: make([][]float64, nrep), ok: make([]bool, nrep), e: e}
 	for r := 0; r < nrep; r++ {
+		if err := b.err(); err != nil {
+			return nil, err // nothing is cached
+		}
 		rp.next(nil, nil)
 		out := make([]float64, len(years))
 		if r > 0 && rb.Hold&Sampling != 0 {

@@ -1,6 +1,7 @@
 package flux
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -129,12 +130,24 @@ type BootstrapOptions struct {
 	DrawNumbers []int
 	// KeepReplicates keeps each replicate's loads in Uncertainty.Loads.
 	KeepReplicates bool
+	// Context, when set, cancels a long bootstrap: it is looked at before
+	// every replicate, and the bootstrap then returns its error.
+	Context context.Context
 }
 
 func (b *BootstrapOptions) tick() {
 	if b.Tick != nil {
 		b.Tick()
 	}
+}
+
+// err is the error of a cancelled Context, nil while the bootstrap may go
+// on.
+func (b *BootstrapOptions) err() error {
+	if b.Context != nil {
+		return b.Context.Err()
+	}
+	return nil
 }
 
 // Interval is a bootstrap summary: the median and the 2.5 % and 97.5 %
@@ -229,6 +242,9 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 		col := newCollector(u, years, rp.nrep, opt, s.MolarMass, b.KeepReplicates)
 		out := make([]float64, len(years))
 		for r := 0; r < rp.nrep; r++ {
+			if err := b.err(); err != nil {
+				return nil, err
+			}
 			fq, fa := rp.next(nil, nil)
 			copy(out, rl.mol[r])
 			col.add(r, out, rl.e.sumQ, fq, fa, rl.ok[r])
@@ -265,6 +281,9 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	var fixed []float64
 	fixedOK := false
 	for r := 0; r < rp.nrep; r++ {
+		if err := b.err(); err != nil {
+			return nil, err
+		}
 		fq, fa := rp.next(pk, idx)
 		for j, sm := range smp {
 			c[j] = sm.c
@@ -492,15 +511,22 @@ func (c *collector) finish() {
 	u.Mean = li(ny)
 }
 
-// factor returns 1 + sd·ε, redrawn while not positive; it always consumes
-// at least one normal draw so that streams stay aligned when sd is 0.
+// maxRedraws bounds factor's redrawing: for σ up to 10 (1000 %) a draw is
+// positive with probability above 0.46, so 1000 redraws all failing has a
+// probability below 1e-300; a σ that is NaN or infinite stops there.
+const maxRedraws = 1000
+
+// factor returns 1 + sd·ε, redrawn while not positive (at most maxRedraws
+// times, NaN then, which leaves the replicate out of the intervals); it
+// always consumes at least one normal draw so that streams stay aligned
+// when sd is 0.
 func factor(rng *rand.Rand, sd float64) float64 {
-	for {
-		f := 1 + sd*normal(rng)
-		if f > 0 {
+	for range maxRedraws {
+		if f := 1 + sd*normal(rng); f > 0 {
 			return f
 		}
 	}
+	return math.NaN()
 }
 
 // Summary returns the median and 95 % interval of the non-NaN values of v

@@ -19,6 +19,11 @@ type engine struct {
 	cs    []float64 // cos(2π t) per day
 	year  []int     // reporting year index per day
 	sumQ  []float64 // per year: Σ Q_d over days with a value (m³/s × days)
+	// flow lists, in order, the days with a discharge other than 0: the
+	// only days whose concentration enters a load. The daily loops of every
+	// replicate walk these, so a long record that is mostly gaps (a date
+	// typed a century out) costs what its days with data cost.
+	flow []int
 
 	smp []sample
 	lnQ []float64 // per sample: plog(q)
@@ -56,6 +61,9 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 		}
 		if !math.IsNaN(q) {
 			e.sumQ[y] += q
+			if q != 0 {
+				e.flow = append(e.flow, k)
+			}
 		}
 		if opt.Seasonal {
 			e.sn[k], e.cs[k] = seasonal(d.YearFraction())
@@ -249,25 +257,25 @@ func (e *engine) periodWeighted(w, c []float64, cref float64) bool {
 	if len(nodes) == 0 {
 		return false
 	}
-	n := len(e.cd)
-	for k := 0; k <= nodes[0].k && k < n; k++ {
-		e.cd[k] = nodes[0].c
-	}
-	for j := 1; j < len(nodes); j++ {
-		a, bn := nodes[j-1], nodes[j]
-		span := float64(bn.k - a.k)
-		for k := a.k + 1; k <= bn.k; k++ {
-			e.cd[k] = a.c + (bn.c-a.c)*(float64(k-a.k)/span)
-		}
-	}
-	for k := nodes[len(nodes)-1].k; k < n; k++ {
-		e.cd[k] = nodes[len(nodes)-1].c
-	}
-	if b != 0 {
-		for k, q := range e.q {
-			if !math.IsNaN(q) && q > 0 {
-				e.cd[k] *= pexp(b * e.lnq[k])
+	// e.cd is needed on the days with flow only (sumDaily reads no other),
+	// so a record that is mostly gap costs what its days with data cost.
+	j := 0 // nodes[j-1].k < k <= nodes[j].k while interpolating
+	first, last := nodes[0], nodes[len(nodes)-1]
+	for _, k := range e.flow {
+		switch {
+		case k <= first.k:
+			e.cd[k] = first.c
+		case k >= last.k:
+			e.cd[k] = last.c
+		default:
+			for nodes[j].k < k {
+				j++
 			}
+			a, bn := nodes[j-1], nodes[j]
+			e.cd[k] = a.c + (bn.c-a.c)*(float64(k-a.k)/float64(bn.k-a.k))
+		}
+		if b != 0 && e.q[k] > 0 {
+			e.cd[k] *= pexp(b * e.lnq[k])
 		}
 	}
 	return true
@@ -320,10 +328,7 @@ func (e *engine) flowSlope(w, c []float64) float64 {
 
 // sumDaily adds Σ (C_d − Cref) Q_d per year into out.
 func (e *engine) sumDaily(cref float64, out []float64) {
-	for k, q := range e.q {
-		if math.IsNaN(q) || q == 0 {
-			continue
-		}
-		out[e.year[k]] += (e.cd[k] - cref) * q
+	for _, k := range e.flow {
+		out[e.year[k]] += (e.cd[k] - cref) * e.q[k]
 	}
 }

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzEstimate drives every estimator and the bootstrap with random records
@@ -17,6 +18,7 @@ func FuzzEstimate(f *testing.F) {
 	f.Add(uint64(2), uint16(3), uint8(2), uint8(0))
 	f.Add(uint64(3), uint16(1200), uint8(90), uint8(255))
 	f.Fuzz(func(t *testing.T, seed uint64, ndays uint16, nsmp uint8, flags uint8) {
+		defer watchdog.Start([]any{seed, ndays, nsmp, flags})()
 		rng := rand.New(rand.NewPCG(seed, 9))
 		n := int(ndays%2000) + 1
 		q := make([]float64, n)

@@ -213,10 +213,7 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit, out []floa
 			return true
 		}
 	}
-	for k, q := range e.q {
-		if math.IsNaN(q) || q == 0 {
-			continue
-		}
+	for _, k := range e.flow {
 		pred := b0 + beta[0]*e.lnq[k]
 		if m == 3 {
 			pred += beta[1]*e.sn[k] + beta[2]*e.cs[k]

@@ -4,6 +4,8 @@ import (
 	"encoding/binary"
 	"math"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 func FuzzParseTracer(f *testing.F) {
@@ -11,6 +13,7 @@ func FuzzParseTracer(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
+		defer watchdog.Start(s)()
 		tr, err := ParseTracer(s)
 		if err != nil {
 			return
@@ -30,6 +33,7 @@ func FuzzSimplexLS(f *testing.F) {
 	f.Add(uint8(3), uint8(4), []byte("a few bytes of ratios and weights for the seed corpus"))
 	f.Add(uint8(4), uint8(2), []byte{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16})
 	f.Fuzz(func(t *testing.T, nb, mb uint8, data []byte) {
+		defer watchdog.Start([]any{nb, mb, data})()
 		n := 1 + int(nb)%MaxEndMembers
 		m := 1 + int(mb)%int(NTracers)
 		need := (m*n + 2*m) * 2

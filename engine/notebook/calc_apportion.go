@@ -231,11 +231,6 @@ var expandSplits = true
 // (about 64 MB).
 const expandLimit = 500_000
 
-// MaxSampleDraws caps samples × draws in one apportionment: above
-// expandLimit only a weight (8 bytes) is kept per draw, plus the model's
-// own per-draw record, so the cap bounds memory and work.
-const MaxSampleDraws = 4_000_000
-
 // delta34S finds a sample's δ34S of sulfate (‰) among its unrecognised
 // columns ("d34S", "δ34S-SO4", "delta34S", …).
 func delta34S(meta map[string]string) (float64, bool) {
@@ -351,8 +346,8 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	if n == 0 {
 		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
 	}
-	if n*s.Draws > MaxSampleDraws {
-		return nil, nil, settingErr("draws", "%d samples × %d draws is above the limit of %d sample-draws; use fewer draws", n, s.Draws, MaxSampleDraws)
+	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
+		return nil, nil, err
 	}
 	status := make([]string, n)
 	kept := make([]float64, n)
@@ -458,6 +453,9 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		a.splits = make([][]mix.Split, n)
 	}
 	for i := 0; i < n; i++ {
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
 		if a.inverse != nil { // the draws are done; keep reporting while they are summarised
 			report(a.inverse.Draws*n, a.inverse.Draws*n)
 		}

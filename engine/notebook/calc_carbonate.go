@@ -104,6 +104,9 @@ func computeCarbonate(e *Env) (*Output, error) {
 	missing := map[chem.Species]int{}
 	warn := map[string]int{}
 	for _, i := range smp.Used() {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
 		sm := smp.Table.Samples[i]
 		bg, miss := carbonate.Background(sm.C)
 		for _, sp := range miss {

@@ -259,11 +259,14 @@ func computeCO2(e *Env) (*Output, error) {
 		fv = &Fluxes{Record: fv.Record, Site: fv.Site, Options: fv.Options, Bootstrap: fv.Bootstrap, SeriesReplicates: fv.SeriesReplicates,
 			App: a, Policy: fv.Policy, DoubtfulAbove: fv.DoubtfulAbove}
 		fv.Doubtful = fv.doubtfulReasons(fv.unapportionedShare(), nil)
+		if err := checkBootstrapWork("bootstrap", fv.Bootstrap.Replicates, n, fv.Record.Len()); err != nil {
+			return nil, err
+		}
 	}
 	out.Doubtful = fv.Doubtful
 	done := n // progress units: per litre, then each bootstrap
 	out.Value = &CO2Budget{Settings: *s, Fluxes: fv, App: a, Options: *opt, Scale: scale}
-	fv = fv.ticking(func() { e.Report(done, total) })
+	fv = fv.ticking(e.Ctx, func() { e.Report(done, total) })
 	var yName, yYear []string
 	var yMed, yLo, yHi, kMed, kLo, kHi []float64
 	bySource := &sourceTable{unit: "mol/km²/yr", n: fv.breakdownReplicates()}

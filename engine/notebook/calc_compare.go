@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"context"
 	"errors"
 	"fmt"
 
@@ -322,11 +323,11 @@ func jointDraws(d *Document, bs []compared, reps int, seed uint64) (*compare.Joi
 
 // budgetFluxOptions returns a budget of the comparison for compare.Pair:
 // its record, estimator and its own discharge and area errors.
-func budgetFluxOptions(c compared, tick func()) compare.Budget {
+func budgetFluxOptions(ctx context.Context, c compared, tick func()) compare.Budget {
 	f := c.b.Fluxes
 	return compare.Budget{Name: roleWords[c.role], Record: f.Record, Options: f.Options,
 		Bootstrap: flux.BootstrapOptions{DischargeError: f.Bootstrap.DischargeError, AreaError: f.Bootstrap.AreaError,
-			Cache: &flux.Cache{}, Tick: tick}}
+			Cache: &flux.Cache{}, Tick: tick, Context: ctx}}
 }
 
 func computeCompare(e *Env) (*Output, error) {
@@ -347,8 +348,12 @@ func computeCompare(e *Env) (*Output, error) {
 	budgets := make([]compare.Budget, len(bs))
 	fluxes := make([]*Fluxes, len(bs))
 	for b, c := range bs {
-		budgets[b] = budgetFluxOptions(c, tick)
-		fluxes[b] = c.b.Fluxes.ticking(tick)
+		f := c.b.Fluxes
+		if err := checkBootstrapWork("replicates", s.Replicates, len(f.App.Names), f.Record.Len()); err != nil {
+			return nil, err
+		}
+		budgets[b] = budgetFluxOptions(e.Ctx, c, tick)
+		fluxes[b] = c.b.Fluxes.ticking(e.Ctx, tick)
 		if c.b.Fluxes.Options.Method != bs[0].b.Fluxes.Options.Method {
 			out.Warnings = append(out.Warnings, fmt.Sprintf("the %s budget fluxes with the %s estimator, the %s budget with the %s: their biases need not cancel in the difference",
 				roleWords[c.role], estimatorLabel(c.b.Fluxes.Options.Method), roleWords[bs[0].role], estimatorLabel(bs[0].b.Fluxes.Options.Method)))

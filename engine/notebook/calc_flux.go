@@ -68,7 +68,12 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Fluxes{Record: rec, Site: site, App: ai.Value.(*Apportioned),
+	app := ai.Value.(*Apportioned)
+	if err := firstErr(checkBootstrapWork("bootstrap", s.Bootstrap, len(app.Names), rec.Len()),
+		checkBootstrapWork("series_bootstrap", s.SeriesBootstrap, len(app.Names), rec.Len())); err != nil {
+		return nil, err
+	}
+	return &Fluxes{Record: rec, Site: site, App: app,
 		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
@@ -158,7 +163,7 @@ func computeFluxes(e *Env) (*Output, error) {
 	}
 	var jobs []job
 	cur := 0
-	tv := v.ticking(func() { e.Report(cur, len(jobs)) })
+	tv := v.ticking(e.Ctx, func() { e.Report(cur, len(jobs)) })
 	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
 		if countFinite(v.measuredSeries(sp).C) == 0 {
 			continue

@@ -208,6 +208,9 @@ func computeMinerals(e *Env) (*Output, error) {
 	var days []dayOf
 	negative := map[string]int{}
 	for _, i := range atm.Use {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
 		sm := atm.Samples.Table.Samples[i]
 		r, err := correct.Apply(sm.C, &opt)
 		if err != nil {
@@ -327,7 +330,13 @@ func (v *MineralBalance) flux(e *Env, fv *Fluxes, days []dayOf) ([]string, error
 	if e.Rough() {
 		reps = 0
 	}
-	for j, p := range v.Balance.Phases {
+	if err := checkBootstrapWork("series_bootstrap", reps, n, fv.Record.Len()); err != nil {
+		return nil, err
+	}
+	j := 0
+	fv = fv.ticking(e.Ctx, func() { e.Report(j, len(v.Balance.Phases)) })
+	for j = range v.Balance.Phases {
+		p := v.Balance.Phases[j]
 		if err := e.Ctx.Err(); err != nil {
 			return nil, err
 		}

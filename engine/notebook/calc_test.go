@@ -292,22 +292,6 @@ func TestSamplesCellReportsPositions(t *testing.T) {
 	}
 }
 
-func TestSampleDrawsCap(t *testing.T) {
-	d, err := loadFile("../../testdata/budgets/small-forward.lixiv.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	// 13 samples × 400,000 draws is above the cap: refused before any work.
-	if err := d.SetParam("apportionment", "draws", "400000"); err != nil {
-		t.Fatal(err)
-	}
-	d.Recompute(context.Background(), nil)
-	st, err := d.Status("apportionment")
-	if st != Problem || err == nil || !strings.Contains(err.Error(), "sample-draws") {
-		t.Errorf("got %v %v, want a problem about sample-draws", st, err)
-	}
-}
-
 func TestChecksumIgnoresLastBits(t *testing.T) {
 	mk := func(vals []float64, med float64) *Document {
 		d := New("c")

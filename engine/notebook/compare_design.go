@@ -21,6 +21,13 @@ const (
 	DesignAlpha = 0.05
 )
 
+// MaxDesignWork caps the monitoring design's work for one sampling
+// frequency: simulations × 2 (the null and the power) × budgets × days of
+// a programme. The design simulates about sixteen frequencies (its curve
+// and the bisection for the samples a year needed), so it stays within
+// about twice the fluxes cell's MaxBootstrapWork (an engineering choice).
+const MaxDesignWork = MaxBootstrapWork / 8
+
 // ownRate returns the samples a year of a budget: its apportioned samples
 // within its record over the record's length in years, at least 1.
 func ownRate(f *Fluxes) int {
@@ -83,7 +90,13 @@ func (v *Comparison) monitoring(e *Env, out *Output) error {
 		freqs = append(freqs, perYear)
 		slices.Sort(freqs)
 	}
-	p := compare.Power{Power: DesignPower, Alpha: DesignAlpha, Sims: s.Simulations, Seed: uint64(s.Seed)}
+	days := int(math.Round(float64(s.Years) * 365.25))
+	if work := s.Simulations * 2 * d.Budgets() * days; work > MaxDesignWork {
+		return fmt.Errorf("%s: %s simulations × 2 × %d programmes × %s days is %s, above the limit of %s; use at most %s simulations, or fewer years",
+			SettingName("design_simulations"), grouped(s.Simulations), d.Budgets(), grouped(days), grouped(work), grouped(MaxDesignWork),
+			grouped(max(1, MaxDesignWork/(2*d.Budgets()*days))))
+	}
+	p := compare.Power{Power: DesignPower, Alpha: DesignAlpha, Sims: s.Simulations, Seed: uint64(s.Seed), Context: e.Ctx}
 	base := math.NaN()
 	if o := v.outcome(s.measureName()); o != nil {
 		base = o.Budgets[1].Point.Mean.MolPerKm2

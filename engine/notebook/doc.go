@@ -107,7 +107,13 @@
 // unknown kind, a value of the wrong type, a setting out of range, a
 // malformed table — loads as a broken cell that keeps its raw JSON and the
 // reason, is written back unchanged and computes to a Problem; the rest of
-// the budget still opens. Loading never runs anything the file holds, and
-// limits (MaxCells, MaxRows, MaxColumns, MaxDraws, MaxBootstrap) keep a
-// hostile file from asking for unbounded work.
+// the budget still opens. Loading never runs anything the file holds.
+//
+// # Limits
+//
+// Limits (limits.go, listed in SCHEMA.md) keep a file, a paste or a setting
+// from asking for unbounded work or memory: table sizes, samples × draws,
+// bootstrap replicates × (samples + days of discharge). An input beyond one
+// is refused with a message naming the setting as the page labels it
+// (SettingName), and every long loop honours the run's context.
 package notebook

@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"lixiv/engine/internal/watchdog"
 	"lixiv/engine/sample"
 )
 
@@ -68,6 +69,7 @@ func FuzzTableFromText(f *testing.F) {
 	f.Add("a;b\n1;2\n")
 	f.Add("\"q,\"\"x\",b\n1,2\n")
 	f.Fuzz(func(t *testing.T, text string) {
+		defer watchdog.Start(text)()
 		tab, err := TableFromText(text)
 		if err != nil {
 			return

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"lixiv/engine/internal/golden"
+	"lixiv/engine/internal/watchdog"
 )
 
 func TestMigrateV0(t *testing.T) {
@@ -171,6 +172,7 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte(`{"format":"lixiv-budget","version":1,"cells":[{"id":"a","kind":"chart","settings":{"x":"a.b.c"}}]}`))
 	f.Add([]byte(`{"format":"lixiv-budget","version":1,"cells":[{"id":"s","kind":"samples","table":{"columns":["a"],"units":["mg/L"],"rows":[[1e999,"x",null]]}}]}`))
 	f.Fuzz(func(t *testing.T, data []byte) {
+		defer watchdog.Start(data)()
 		d, err := Parse(data, "fuzz")
 		if err != nil {
 			return

@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"context"
 	"fmt"
 	"math"
 
@@ -36,10 +37,13 @@ type Fluxes struct {
 	tick func()
 }
 
-// ticking returns a copy of v whose long loops call tick.
-func (v *Fluxes) ticking(tick func()) *Fluxes {
+// ticking returns a copy of v whose long loops call tick and whose
+// bootstraps stop when ctx is cancelled: the context and progress of the
+// cell computing with it (a cell below reuses the value of a fluxes cell
+// computed in an earlier run).
+func (v *Fluxes) ticking(ctx context.Context, tick func()) *Fluxes {
 	w := *v
-	w.tick, w.Bootstrap.Tick = tick, tick
+	w.tick, w.Bootstrap.Tick, w.Bootstrap.Context = tick, tick, ctx
 	return &w
 }
 

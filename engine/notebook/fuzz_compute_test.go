@@ -4,6 +4,8 @@ import (
 	"context"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzCompute feeds any text as the sample table of a small budget and
@@ -14,6 +16,7 @@ func FuzzCompute(f *testing.F) {
 	f.Add("sample\tdate\tNa (mg/L)\tCa (mg/L)\tCl (mg/L)\tAlk (meq/L)\nA\t01/05/2021\t2,3\t<0.1\tn.d.\t0.5\n")
 	f.Add("sample,date,Na,Cl\n,,mg/L,mg/L\nA,2021-05-01,0,0\nB,2021-05-02,-1,1e308\n")
 	f.Fuzz(func(t *testing.T, text string) {
+		defer watchdog.Start(text)()
 		tab, err := TableFromText(text)
 		if err != nil || len(tab.Rows) > 50 || len(tab.Columns) > 20 {
 			return
@@ -56,6 +59,7 @@ func FuzzComputeFlow(f *testing.F) {
 			{"C", "2021-05-03", "120", "12", "230", "60", "55", "45", "540"},
 		}}
 	f.Fuzz(func(t *testing.T, text string) {
+		defer watchdog.Start(text)()
 		tab, err := TableFromText(text)
 		if err != nil || len(tab.Rows) > 400 || len(tab.Columns) > 6 {
 			return

@@ -10,12 +10,6 @@ import (
 	"reflect"
 )
 
-// Limits on files the loader accepts.
-const (
-	MaxFileSize = 512 << 20 // bytes
-	MaxDepth    = 64        // nesting of objects and arrays
-)
-
 // FileError is a budget file that cannot be read at all. A problem confined
 // to one cell does not give a FileError: that cell loads as a broken cell.
 type FileError struct {

@@ -228,16 +228,6 @@ func DefaultSettings(k Kind) Settings {
 	return &BrokenSettings{}
 }
 
-// Limits on values a file may ask for, so that a hostile file cannot make the
-// engine run for days or allocate without bound.
-const (
-	MaxDraws     = 1_000_000 // Monte Carlo draws per sample
-	MaxBootstrap = 100_000   // bootstrap resamples
-	MaxRows      = 2_000_000 // rows in one data table
-	MaxColumns   = 1000      // columns in one data table
-	MaxCells     = 10_000    // cells in one budget
-)
-
 func oneOf(key, v string, allowed ...string) error {
 	for _, a := range allowed {
 		if v == a {

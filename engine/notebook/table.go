@@ -79,12 +79,13 @@ func (t *Table) Cell(r, c int) string {
 }
 
 // CSV renders the table as comma-separated text: the header row, then the
-// units row when any unit is set, then the data rows. Cells holding a comma,
-// quote or line break are quoted.
+// units row when any unit is set, then the data rows. Cells holding a
+// comma, semicolon, tab, quote or line break are quoted, so that the text
+// reads back (TableFromText) with the same delimiter and cells.
 func (t *Table) CSV() string { return t.delimited(',') }
 
-// TSV renders the table as tab-separated text, as a spreadsheet copies it;
-// decimal commas then stay readable.
+// TSV renders the table as tab-separated text, as a spreadsheet copies it,
+// quoted as CSV is.
 func (t *Table) TSV() string { return t.delimited('\t') }
 
 func (t *Table) delimited(sep byte) string {
@@ -115,7 +116,12 @@ func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
 		if i > 0 {
 			b.WriteByte(sep)
 		}
-		if strings.ContainsAny(c, string(sep)+"\"\r\n") {
+		// Quoted: a cell holding a quote or a line break, one holding any
+		// delimiter the readers detect (not only sep), so that the text
+		// reads back with the same delimiter and the same cells, and one
+		// holding a byte-order mark, which a reader drops at the start of a
+		// file.
+		if strings.ContainsAny(c, "\t;,\"\r\n\ufeff") {
 			b.WriteByte('"')
 			b.WriteString(strings.ReplaceAll(c, `"`, `""`))
 			b.WriteByte('"')
@@ -130,6 +136,10 @@ func writeCSVRow(b *strings.Builder, cells []string, sep byte) {
 func (t *Table) check() error {
 	if t == nil {
 		return nil
+	}
+	if len(t.Columns) > MaxColumns || len(t.Rows) > MaxRows {
+		return fmt.Errorf("the table has %s columns and %s rows, above the limit of %s columns or %s rows",
+			grouped(len(t.Columns)), grouped(len(t.Rows)), grouped(MaxColumns), grouped(MaxRows))
 	}
 	if len(t.Units) != 0 && len(t.Units) != len(t.Columns) {
 		return fmt.Errorf("units row has %d cells for %d columns", len(t.Units), len(t.Columns))

@@ -19,11 +19,14 @@
 //     as Latin-1, and lone carriage returns end lines. Binary files and
 //     .xlsx workbooks are reported as ErrNotTable.
 //  2. Delimiter: the one of tab, semicolon and comma that gives the most
-//     lines with the same number of fields in the first 64 KiB, unless
-//     Options.Comma sets it. Fields may be quoted ("a, b"), with "" for a
-//     quote and line breaks inside quotes.
-//  3. Header: the first line with at least half as many fields as the
-//     typical line that does not start with "#"; lines above it are kept
+//     records (lines, joined where a quoted field holds a line break) with
+//     the same number of fields in the first 64 KiB, among those that leave
+//     the fewest quotes inside unquoted fields, unless Options.Comma sets
+//     it. Fields may be quoted ("a, b"), with "" for a quote and line
+//     breaks inside quotes.
+//  3. Header: the first line with at least half as many non-empty fields
+//     (trailing empty fields and white space are not counted) as the
+//     typical record that does not start with "#"; lines above it are kept
 //     in Table.Preamble.
 //  4. Columns: each header is read as a species with its unit ("Ca (mg/L)",
 //     "Ca2+ [µmol/L]", "Calcium mg/l", "Ca_umol_L", "NO3-N (mg/L)",

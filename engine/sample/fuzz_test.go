@@ -8,6 +8,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 // FuzzRead feeds arbitrary bytes to the importer: it must never panic,
@@ -34,6 +36,7 @@ func FuzzRead(f *testing.F) {
 	noteSentinels := []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit,
 		ErrComment, ErrChosenColumn}
 	f.Fuzz(func(t *testing.T, in []byte) {
+		defer watchdog.Start(in)()
 		tb, err := Read(bytes.NewReader(in), "fuzz.csv", Options{})
 		if err != nil {
 			t.Fatalf("read error from memory: %v", err)

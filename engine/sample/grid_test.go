@@ -5,6 +5,8 @@ import (
 	"os"
 	"strings"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 func TestSplitText(t *testing.T) {
@@ -113,6 +115,7 @@ func FuzzSplitText(f *testing.F) {
 		f.Add(string(b))
 	}
 	f.Fuzz(func(t *testing.T, text string) {
+		defer watchdog.Start(text)()
 		for _, g := range []*Grid{SplitText(text, "f.csv", Options{}), SplitCells(text)} {
 			if len(g.Lines) != len(g.Rows) {
 				t.Fatalf("%d lines for %d rows", len(g.Lines), len(g.Rows))

@@ -94,9 +94,10 @@ func (lr *lineReader) unclosedQuote() bool { return lr.badQ }
 
 // scanQuote follows the quoting through b, starting inside a quoted field
 // when q is true and at the start of a field when start is true, and
-// returns the state at the end. A quote opens a quoted field only at the
-// start of a field.
-func scanQuote(b []byte, comma byte, q, start bool) (bool, bool) {
+// returns whether b ends inside quotes, and whether a quote stands inside
+// an unquoted field (bare). A quote opens a quoted field only at the start
+// of a field.
+func scanQuote(b []byte, comma byte, q, start bool) (quoted, bare bool) {
 	for i := 0; i < len(b); i++ {
 		c := b[i]
 		switch {
@@ -112,11 +113,13 @@ func scanQuote(b []byte, comma byte, q, start bool) (bool, bool) {
 			start = true
 		case c == '"' && start:
 			q, start = true, false
+		case c == '"':
+			bare = true
 		case c != ' ':
 			start = false
 		}
 	}
-	return q, start
+	return q, bare
 }
 
 // split cuts a record into fields. Quoted fields are unquoted into scratch.
@@ -212,28 +215,62 @@ func (c crReader) Read(p []byte) (int, error) {
 }
 
 // detectComma picks the delimiter that gives the most lines with the same
-// number (at least two) of fields in the sample text; ties go to tab, then
-// semicolon, then comma.
-func detectComma(lines [][]byte) (comma byte, modal int) {
-	best, bestN, bestModal := byte(','), -1, 1
+// number (at least two) of fields in the sample text, among those that
+// leave the fewest quotes inside unquoted fields (a delimiter that cuts
+// through quoted fields leaves such quotes); ties go to the larger number
+// of fields, then to tab, then semicolon, then comma.
+func detectComma(lines [][]byte) byte {
+	best, bestN, bestModal, bestBare := byte(','), -1, 1, 0
 	for _, c := range []byte{'\t', ';', ','} {
-		if m, n := modalFields(lines, c); m >= 2 && (n > bestN || n == bestN && m > bestModal) {
-			best, bestN, bestModal = c, n, m
+		m, n := modalFields(lines, c)
+		if m < 2 {
+			continue
+		}
+		bare := bareQuotes(lines, c)
+		if bestN < 0 || bare < bestBare || bare == bestBare && (n > bestN || n == bestN && m > bestModal) {
+			best, bestN, bestModal, bestBare = c, n, m, bare
 		}
 	}
-	return best, bestModal
+	return best
+}
+
+// bareQuotes counts the records in which, split at comma, a quote stands
+// inside an unquoted field.
+func bareQuotes(lines [][]byte, comma byte) int {
+	n := 0
+	for _, l := range joinRecords(lines, comma) {
+		if _, bare := scanQuote(l, comma, false, true); bare {
+			n++
+		}
+	}
+	return n
 }
 
 // modalFields returns the most common number of fields (at least two) of
-// the lines split at comma, and how many lines have it; 1, 0 when no line
-// has two fields.
+// the lines, joined into records and split at comma, and how many records
+// have it; 1, 0 when none has two fields.
 func modalFields(lines [][]byte, comma byte) (modal, count int) {
+	return modalWidth(lines, comma, func(fs [][]byte) int { return len(fs) })
+}
+
+// typicalWidth is modalFields not counting trailing empty fields, as the
+// header row is judged (importer.run): the width the header row must
+// reach about half of.
+func typicalWidth(lines [][]byte, comma byte) int {
+	m, _ := modalWidth(lines, comma, trimmedLen)
+	return m
+}
+
+// modalWidth returns the most common width (at least two) of the records of
+// lines split at comma, and how many records have it; 1, 0 when none is
+// two wide.
+func modalWidth(lines [][]byte, comma byte, width func([][]byte) int) (modal, count int) {
 	var scratch []byte
 	var fs [][]byte
 	counts := map[int]int{}
-	for _, l := range lines {
+	for _, l := range joinRecords(lines, comma) {
 		fs = split(l, comma, fs[:0], &scratch)
-		counts[len(fs)]++
+		counts[width(fs)]++
 	}
 	m, n := 0, 0
 	for k, v := range counts {
@@ -247,10 +284,36 @@ func modalFields(lines [][]byte, comma byte) (modal, count int) {
 	return m, n
 }
 
-// trimmedLen is the number of fields without trailing empty ones.
+// joinRecords joins the lines of a quoted field that holds line breaks
+// into one record, as the line reader does (lineReader.next), so that the
+// delimiter and the typical number of fields are judged on records, not
+// on the pieces of one.
+func joinRecords(lines [][]byte, comma byte) [][]byte {
+	out := make([][]byte, 0, len(lines))
+	for i := 0; i < len(lines); i++ {
+		l := lines[i]
+		if bytes.IndexByte(l, '"') >= 0 {
+			if q, _ := scanQuote(l, comma, false, true); q {
+				rec := append([]byte(nil), l...)
+				for q && i+1 < len(lines) {
+					i++
+					rec = append(append(rec, '\n'), lines[i]...)
+					q, _ = scanQuote(lines[i], comma, true, false)
+				}
+				l = rec
+			}
+		}
+		out = append(out, l)
+	}
+	return out
+}
+
+// trimmedLen is the number of fields without trailing empty ones. A field
+// of white space alone (any Unicode space, as a header cell is trimmed)
+// counts as empty.
 func trimmedLen(fs [][]byte) int {
 	n := len(fs)
-	for n > 0 && len(trimSpace(fs[n-1])) == 0 {
+	for n > 0 && len(bytes.TrimSpace(trimSpace(fs[n-1]))) == 0 {
 		n--
 	}
 	return n

@@ -77,12 +77,12 @@ func (im *importer) read(r io.Reader) error {
 		im.fileProblem(ErrNotTable, "the file is empty")
 		return lr.err
 	}
-	comma, modal := detectComma(sample)
+	comma := detectComma(sample)
 	switch opt.Comma {
 	case ',', ';', '\t', '|':
 		comma = byte(opt.Comma)
-		modal, _ = modalFields(sample, comma)
 	}
+	modal := typicalWidth(sample, comma)
 	lr.comma = comma
 	if st, ok := r.(interface{ Stat() (os.FileInfo, error) }); ok {
 		if fi, err := st.Stat(); err == nil && !whole {
@@ -112,9 +112,10 @@ type records interface {
 	unclosedQuote() bool
 }
 
-// splitLines cuts sample lines into fields, each line with its own scratch
+// splitLines cuts sample lines, joined into records, into fields, each line with its own scratch
 // so that unquoted fields stay valid.
 func splitLines(lines [][]byte, comma byte) [][][]byte {
+	lines = joinRecords(lines, comma)
 	out := make([][][]byte, len(lines))
 	for i, l := range lines {
 		var scratch []byte

@@ -32,6 +32,9 @@ func TestReadDelimiters(t *testing.T) {
 		{"no final newline", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1", ',', '.'},
 		{"blank lines", "\n\nSite,Ca (mg/L),Na (mg/L)\n\nA,40.078,1\n\n", ',', '.'},
 		{"semicolon, decimal comma, trailing empty cells", "Site;Ca;Na;Remark\n;mg/L;mg/L;\nA;40,078;1,5;\nB;40,078;1,25;\nC;40,078;n.a.;dry\nD;40,078;2,5;\n", ';', ','},
+		// A quoted note holding line breaks and the other delimiters: the
+		// delimiter is judged on records, not on the pieces of one.
+		{"quoted line breaks and commas in a tab table", "Site\tCa (mg/L)\tNote\nA\t40.078\t\"wet,\nwindy,\ncold,\"\n", '\t', '.'},
 		{"tab with ragged trailing tabs", "Site\tCa (mg/L)\tNa (mg/L)\tNote\nA\t40.078\t1\t\nB\t40.078\t2\nC\t40.078\t3\tx\n", '\t', '.'},
 	}
 	for _, tc := range tests {
@@ -453,5 +456,22 @@ func TestRequire(t *testing.T) {
 				t.Errorf("got\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(tc.want, "\n"))
 			}
 		})
+	}
+}
+
+// SamplesText compares two reads of one table: the same samples on other
+// lines give the same text, a changed value does not.
+func TestSamplesText(t *testing.T) {
+	a := ParseText("Site,Ca (mg/L)\nA,40.078\n", "a.csv", Options{})
+	b := ParseText("# comment\nSite,Ca (mg/L)\n\nA,40.078\n", "b.csv", Options{})
+	c := ParseText("Site,Ca (mg/L)\nA,40.079\n", "c.csv", Options{})
+	if a.Samples[0].Line == b.Samples[0].Line {
+		t.Fatalf("the reads should differ in lines")
+	}
+	if a.SamplesText() != b.SamplesText() {
+		t.Errorf("same samples on other lines:\n%s\n%s", a.SamplesText(), b.SamplesText())
+	}
+	if a.SamplesText() == c.SamplesText() {
+		t.Errorf("a changed value gives the same text:\n%s", c.SamplesText())
 	}
 }

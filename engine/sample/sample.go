@@ -1,6 +1,8 @@
 package sample
 
 import (
+	"fmt"
+	"strings"
 	"time"
 
 	"lixiv/engine/chem"
@@ -90,6 +92,19 @@ type Table struct {
 	Policy   Policy   // substitution applied to censored values in C
 	Comma    rune     // field delimiter read (detected or given)
 	Decimal  rune     // decimal mark read (detected or given)
+}
+
+// SamplesText writes every sample read, one per line with all its fields
+// but the line it came from, so that two reads of one table in different
+// text forms (a file and the same table saved again) can be compared.
+func (t *Table) SamplesText() string {
+	var b strings.Builder
+	for _, s := range t.Samples {
+		c := *s
+		c.Line = 0
+		fmt.Fprintf(&b, "%+v\n", c)
+	}
+	return b.String()
 }
 
 // Species returns the species that have a column in the table, in

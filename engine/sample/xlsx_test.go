@@ -13,6 +13,7 @@ import (
 	"testing"
 
 	"lixiv/engine/internal/golden"
+	"lixiv/engine/internal/watchdog"
 )
 
 // xc is one cell of a test worksheet: ref such as "B3", t the cell type
@@ -459,6 +460,7 @@ func FuzzReadXLSX(f *testing.F) {
 		ErrUnknownUnit, ErrNoUnit, ErrUnitMismatch, ErrBadDate, ErrAmbiguousDate, ErrFieldCount, ErrQuote, ErrTooMany,
 		ErrNotWorkbook, ErrNoSheet, ErrBadRow}
 	f.Fuzz(func(t *testing.T, in []byte, sheet string) {
+		defer watchdog.Start([]any{in, sheet})()
 		tb, err := ReadXLSX(in, "fuzz.xlsx", sheet, Options{})
 		if tb == nil {
 			t.Fatal("nil table")
@@ -570,6 +572,7 @@ func FuzzXLSXParts(f *testing.F) {
 		`<c r="C3"><v>40</v></c></row></sheetData><mergeCells><mergeCell ref="A1:A2"/><mergeCell ref="B1:C1"/><mergeCell ref="D9:C1"/>`+
 		`<mergeCell ref="A1:XFD1"/></mergeCells></worksheet>`), part("xl/sharedStrings.xml"), part("xl/styles.xml"))
 	f.Fuzz(func(t *testing.T, sheet, shared, styles []byte) {
+		defer watchdog.Start([]any{sheet, shared, styles})()
 		in := replaceParts(t, book, map[string][]byte{"xl/worksheets/sheet1.xml": sheet, "xl/sharedStrings.xml": shared, "xl/styles.xml": styles})
 		tb, err := ReadXLSX(in, "fuzz.xlsx", "", Options{})
 		if tb == nil {

@@ -23,6 +23,19 @@ import (
 // command built once for every test.
 var repo, dist, lixivBin string
 
+// patience is how long a test waits for the page (a render, a recompute,
+// a download, the service worker) before it fails: far beyond the seconds
+// any of them takes (each takes under 10 s on an idle machine, and one
+// took over 2 minutes with the machine's two cores shared by some forty
+// busy processes), so that a machine busy with other work never fails a
+// test, while a page that hangs still ends it. Tests wait for events (the
+// page's data-ready, data-busy and data-gen marks, the browser's download
+// events), never for a fixed time.
+const patience = 5 * time.Minute
+
+// sessionLimit ends a browser that a test left running.
+const sessionLimit = 30 * time.Minute
+
 func TestMain(m *testing.M) {
 	os.Exit(setup(m))
 }
@@ -74,7 +87,7 @@ func startServer(t testing.TB) *server {
 	}
 	s := &server{URL: "http://" + addr + "/", cmd: cmd}
 	t.Cleanup(s.Stop)
-	for i := 0; i < 100; i++ {
+	for deadline := time.Now().Add(patience); time.Now().Before(deadline); {
 		resp, err := http.Get(s.URL + "index.html")
 		if err == nil {
 			resp.Body.Close()
@@ -123,7 +136,7 @@ func newBrowser(t testing.TB, profile string) context.Context {
 		chromedp.WindowSize(1280, 1000),
 		chromedp.UserDataDir(profile),
 	}
-	ctx, cancel := context.WithTimeout(context.Background(), 240*time.Second) // a cap for a busy machine, not a measure
+	ctx, cancel := context.WithTimeout(context.Background(), sessionLimit)
 	t.Cleanup(cancel)
 	actx, acancel := chromedp.NewExecAllocator(ctx, opts...)
 	t.Cleanup(acancel)
@@ -174,7 +187,7 @@ func open(t testing.TB, ctx context.Context, url string) {
 // waitReady waits until the page's first render has marked the body.
 func waitReady(t testing.TB, ctx context.Context) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.ready === "1"`, chromedp.WithPollingTimeout(30*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.ready === "1"`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("page did not render: %v", err)
 	}
 }
@@ -192,7 +205,7 @@ func eval[T any](t testing.TB, ctx context.Context, script string) T {
 // waitIdle waits until no recompute is running.
 func waitIdle(t testing.TB, ctx context.Context) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.busy === "0"`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.body.dataset.busy === "0"`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("page did not finish computing: %v", err)
 	}
 }
@@ -202,7 +215,7 @@ func waitIdle(t testing.TB, ctx context.Context) {
 func reloadSaved(t testing.TB, ctx context.Context) {
 	t.Helper()
 	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`document.getElementById("saved-state").textContent.startsWith("Saved in this browser")`,
-		chromedp.WithPollingTimeout(30*time.Second))); err != nil {
+		chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("no visible saved state: %v", err)
 	}
 	if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
@@ -216,7 +229,7 @@ func reloadSaved(t testing.TB, ctx context.Context) {
 // demo: into the demo's table.
 func intoDemo(t testing.TB, ctx context.Context) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("choice-demo")`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("choice-demo")`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("no question for a table opened over the demo: %v", err)
 	}
 	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#choice-demo"))); err != nil {

@@ -11,7 +11,6 @@ import (
 	"regexp"
 	"strings"
 	"testing"
-	"time"
 
 	"github.com/chromedp/chromedp"
 )
@@ -30,7 +29,7 @@ func sallowmere(name string) string {
 // waitFor waits until script is true in the page.
 func waitFor(t testing.TB, ctx context.Context, what, script string) {
 	t.Helper()
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](script, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](script, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("waiting for %s: %v", what, err)
 	}
 }
@@ -172,13 +171,21 @@ func TestOwnBudgetJourney(t *testing.T) {
 	}
 	// The two runoffs say how each was formed.
 	figs := figures(t, ctx)
-	if r := figs["cell-discharge: runoff"]; r == "" {
+	if r := figs["cell-discharge: runoff of the whole record"]; r == "" {
 		t.Errorf("no runoff in the discharge cell: %v", figs)
 	}
-	if n := text(t, ctx, "#cell-discharge .figure .fig-note"); !strings.Contains(n, "from the record") {
+	note := func(cell, name string) string {
+		return eval[string](t, ctx, fmt.Sprintf(`(() => {
+			for (const f of document.querySelectorAll("#cell-%s .figure")) {
+				if (f.textContent.includes(%q)) { const n = f.querySelector(".fig-note"); return n ? n.textContent : ""; }
+			}
+			return "";
+		})()`, cell, name))
+	}
+	if n := note("discharge", "runoff of the whole record"); !strings.Contains(n, "from the record") {
 		t.Errorf("discharge runoff: got note %q", n)
 	}
-	if n := text(t, ctx, "#cell-fluxes .figure .fig-note"); !strings.Contains(n, "discharge and area errors") {
+	if n := note("fluxes", "runoff over the complete years"); !strings.Contains(n, "discharge and area errors") {
 		t.Errorf("flux runoff: got note %q", n)
 	}
 }

@@ -11,6 +11,7 @@ import (
 	"regexp"
 	"sort"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -79,7 +80,7 @@ func edit(t testing.TB, ctx context.Context, selector, value string) {
 func waitGen(t testing.TB, ctx context.Context, gen string) {
 	t.Helper()
 	js := fmt.Sprintf(`document.body.dataset.gen !== %q && document.body.dataset.busy === "0"`, gen)
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](js, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](js, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("no recompute finished after the edit: %v", err)
 	}
 }
@@ -206,7 +207,6 @@ func TestMarkupShownAsText(t *testing.T) {
 	id := cellOf(t, ctx, "samples")
 	const evil = `<img src=x onerror="document.body.dataset.owned=1"><b>CV-bold</b>`
 	paste(t, ctx, "#paste-"+id, samplesBlock(t, ctx, evil))
-	time.Sleep(200 * time.Millisecond)
 	if n := eval[int](t, ctx, `document.querySelectorAll("section.cell img, section.cell b.injected, section.cell td b").length`); n != 0 {
 		t.Errorf("markup from a sample name became %d elements", n)
 	}
@@ -214,7 +214,11 @@ func TestMarkupShownAsText(t *testing.T) {
 		t.Errorf("a script in a sample name ran")
 	}
 	eval[bool](t, ctx, `[...document.querySelectorAll("section.kind-samples .result > button")].forEach(b => b.click()) || true`)
-	time.Sleep(300 * time.Millisecond)
+	// Wait for the output table to show the pasted sample (or give up
+	// after patience): the check below then reads a rendered table.
+	q, _ := json.Marshal(evil)
+	chromedp.Run(ctx, chromedp.Poll[bool](fmt.Sprintf(`[...document.querySelectorAll("section.kind-samples table.out td")].some(td => td.textContent === %s)`, q),
+		chromedp.WithPollingTimeout(patience)))
 	cells := eval[string](t, ctx, `[...document.querySelectorAll("section.kind-samples table.out td")].map(td => td.textContent).join("|")`)
 	if !strings.Contains(cells, evil) {
 		t.Errorf("the sample name is not shown as its text; output cells: %.200s", cells)
@@ -235,20 +239,16 @@ func TestMarkupShownAsText(t *testing.T) {
 func TestSavedBudgetReopens(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
-	dir := t.TempDir()
-	if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
-		Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: dir, EventsEnabled: new(true)}); err != nil {
-		t.Fatal(err)
-	}
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)
 	atm := cellOf(t, ctx, "atmosphere")
 	edit(t, ctx, "#p-"+atm+"-na_per_cl", "0.7") // a budget of the user's own, not the demo
 	want := figures(t, ctx)
-	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#download"))); err != nil {
-		t.Fatal(err)
-	}
-	file := waitDownload(t, dir)
+	file := download(t, ctx, t.TempDir(), func() {
+		if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("#download"))); err != nil {
+			t.Fatal(err)
+		}
+	})
 	data, err := os.ReadFile(file)
 	if err != nil {
 		t.Fatal(err)
@@ -283,24 +283,31 @@ func TestSavedBudgetReopens(t *testing.T) {
 	}
 }
 
-// waitDownload waits for a finished file in dir.
-func waitDownload(t testing.TB, dir string) string {
+// download runs start, which makes the page download a file, and waits
+// for the browser to report the download complete (not for a file to
+// appear, which may still be written); it returns the file, saved in dir.
+func download(t testing.TB, ctx context.Context, dir string, start func()) string {
 	t.Helper()
-	os.MkdirAll(dir, 0o755)
-	deadline := time.Now().Add(20 * time.Second)
-	for time.Now().Before(deadline) {
-		entries, _ := os.ReadDir(dir)
-		for _, e := range entries {
-			if !strings.HasSuffix(e.Name(), ".crdownload") {
-				if info, err := e.Info(); err == nil && info.Size() > 0 {
-					time.Sleep(100 * time.Millisecond)
-					return filepath.Join(dir, e.Name())
-				}
-			}
-		}
-		time.Sleep(100 * time.Millisecond)
+	if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
+		Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: dir, EventsEnabled: new(true)}); err != nil {
+		t.Fatal(err)
 	}
-	t.Fatal("no download arrived")
+	wctx, cancel := context.WithTimeout(ctx, patience)
+	defer cancel()
+	events := chromedp.Events(wctx, browser.DownloadProgress)
+	start()
+	for ev, err := range events {
+		if err != nil {
+			break
+		}
+		switch ev.State {
+		case browser.DownloadProgressStateCompleted:
+			return filepath.Join(dir, ev.GUID)
+		case browser.DownloadProgressStateCanceled:
+			t.Fatal("the download was cancelled")
+		}
+	}
+	t.Fatal("no download completed")
 	return ""
 }
 
@@ -312,7 +319,7 @@ func TestOfflineReload(t *testing.T) {
 	_, want := co2Figure(t, ctx)
 	// Wait until the service worker has cached the page and controls it.
 	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!navigator.serviceWorker.controller || (location.reload(), false)`,
-		chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(1500*time.Millisecond))); err != nil {
+		chromedp.WithPollingTimeout(patience), chromedp.WithPollingInterval(1500*time.Millisecond))); err != nil {
 		t.Fatalf("service worker never took control: %v", err)
 	}
 	waitReady(t, ctx)
@@ -341,15 +348,16 @@ func TestNoRequestLeavesTheOrigin(t *testing.T) {
 		t.Fatal(err)
 	}
 	requests := chromedp.Events(ctx, network.RequestWillBeSent)
+	var mu sync.Mutex
 	var urls []string
-	done := make(chan struct{})
 	go func() {
-		defer close(done)
 		for ev, err := range requests {
 			if err != nil {
 				return
 			}
+			mu.Lock()
 			urls = append(urls, ev.Request.URL)
+			mu.Unlock()
 		}
 	}()
 	open(t, ctx, srv.URL)
@@ -360,7 +368,7 @@ func TestNoRequestLeavesTheOrigin(t *testing.T) {
 	violated, err := chromedp.Run(ctx, chromedp.Evaluate[string](`new Promise(resolve => {
 		document.addEventListener("securitypolicyviolation", e => resolve(e.effectiveDirective), {once: true});
 		fetch("http://127.0.0.2:9/lixiv-csp-check").catch(() => {});
-		setTimeout(() => resolve("none"), 3000);
+		setTimeout(() => resolve("none"), 60000); // only if no violation comes at all
 	})`, chromedp.EvalAwaitPromise))
 	if err != nil {
 		t.Fatal(err)
@@ -368,13 +376,25 @@ func TestNoRequestLeavesTheOrigin(t *testing.T) {
 	if violated != "connect-src" {
 		t.Errorf("a request to another origin: got violation %q, want connect-src", violated)
 	}
-	time.Sleep(300 * time.Millisecond)
+	// The events arrive on their own goroutine: wait until the page's own
+	// requests (index, scripts, wasm, demo) have all been seen.
+	seen := func() []string { // the requests seen so far, without data: and blob: URLs
+		mu.Lock()
+		defer mu.Unlock()
+		var out []string
+		for _, u := range urls {
+			if !strings.HasPrefix(u, "data:") && !strings.HasPrefix(u, "blob:") {
+				out = append(out, u)
+			}
+		}
+		return out
+	}
+	for deadline := time.Now().Add(patience); len(seen()) < 4 && time.Now().Before(deadline); {
+		time.Sleep(50 * time.Millisecond)
+	}
 	origin := strings.TrimSuffix(srv.URL, "/")
 	n := 0
-	for _, u := range urls {
-		if strings.HasPrefix(u, "data:") || strings.HasPrefix(u, "blob:") {
-			continue
-		}
+	for _, u := range seen() {
 		n++
 		if u != origin && !strings.HasPrefix(u, origin+"/") {
 			if strings.Contains(u, "lixiv-csp-check") {
@@ -393,10 +413,6 @@ func TestExportsTableAndChart(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
 	dir := t.TempDir()
-	if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
-		Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: dir, EventsEnabled: new(true)}); err != nil {
-		t.Fatal(err)
-	}
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)
 	tests := []struct {
@@ -410,14 +426,12 @@ func TestExportsTableAndChart(t *testing.T) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			d := filepath.Join(dir, strings.ReplaceAll(tt.name, " ", "-"))
-			if _, err := chromedp.Call(ctx, browser.SetDownloadBehavior, browser.SetDownloadBehaviorParams{
-				Behavior: browser.SetDownloadBehaviorBehaviorAllowAndName, DownloadPath: d}); err != nil {
-				t.Fatal(err)
-			}
-			if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(tt.button))); err != nil {
-				t.Fatal(err)
-			}
-			data, err := os.ReadFile(waitDownload(t, d))
+			file := download(t, ctx, d, func() {
+				if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS(tt.button))); err != nil {
+					t.Fatal(err)
+				}
+			})
+			data, err := os.ReadFile(file)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -498,14 +512,14 @@ func TestLongRunStaysResponsive(t *testing.T) {
 	eval[bool](t, ctx, fmt.Sprintf(`(() => { const el = document.getElementById("p-%s-draws");
 		el.value = "40000"; el.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, ap))
 	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.querySelector("section.state-running progress")`,
-		chromedp.WithPollingTimeout(30*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
+		chromedp.WithPollingTimeout(patience), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
 		t.Fatalf("no progress bar while computing: %v", err)
 	}
 	// A click on the note's fold button is handled while the run goes on.
 	note := cellOf(t, ctx, "note")
 	eval[bool](t, ctx, fmt.Sprintf(`document.querySelector("#cell-%s .fold").click() || true`, note))
 	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](fmt.Sprintf(`!document.querySelector("#cell-%s .cell-body")`, note),
-		chromedp.WithPollingTimeout(10*time.Second), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
+		chromedp.WithPollingTimeout(patience), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
 		t.Fatalf("the fold click was not handled: %v", err)
 	}
 	if busy := eval[string](t, ctx, `document.body.dataset.busy`); busy != "1" {
@@ -599,7 +613,7 @@ func TestBadBudgetFileKeepsTheOpenOne(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{bad})); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("page-message")`, chromedp.WithPollingTimeout(10*time.Second))); err != nil {
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](`!!document.getElementById("page-message")`, chromedp.WithPollingTimeout(patience))); err != nil {
 		t.Fatalf("no message about the bad file: %v", err)
 	}
 	msg := eval[string](t, ctx, `document.getElementById("page-message").textContent`)

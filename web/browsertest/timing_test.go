@@ -5,11 +5,14 @@ package browsertest
 import (
 	"fmt"
 	"os"
+	"path/filepath"
 	"sort"
 	"testing"
 	"time"
 
 	"github.com/chromedp/chromedp"
+
+	"lixiv/engine/notebook/atlimits"
 )
 
 // TestTiming measures, without asserting anything, the time from
@@ -105,4 +108,49 @@ func stats(v []float64) string {
 		return "no data"
 	}
 	return fmt.Sprintf("median %.0f ms (min %.0f, max %.0f, n=%d)", s[len(s)/2], s[0], s[len(s)-1], len(s))
+}
+
+// TestTimingAtLimits opens the costliest budget the engine's limits allow
+// (engine/notebook/atlimits: 4,000 samples × 1,000 draws, 200 years of
+// daily discharge, every series bootstrapped at the limit) through the file
+// picker and reports, without asserting anything, how long the page takes
+// to compute it and the longest stretch the main thread went without
+// handing back to the browser meanwhile. Run it with `make browser-timing`.
+func TestTimingAtLimits(t *testing.T) {
+	if os.Getenv("LIXIV_TIMING") == "" {
+		t.Skip("LIXIV_TIMING not set")
+	}
+	demo, err := os.ReadFile(filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := atlimits.Budget(demo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	file := filepath.Join(t.TempDir(), "at-limits.lixiv.json")
+	if err := os.WriteFile(file, d.Marshal(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	srv := startServer(t)
+	ctx := newBrowser(t, "")
+	open(t, ctx, srv.URL)
+	waitIdle(t, ctx)
+	gen := eval[string](t, ctx, `document.body.dataset.gen`)
+	eval[bool](t, ctx, `(() => { window.lixivGap = 0; window.lixivT0 = performance.now(); let last = lixivT0;
+		window.lixivBeat = setInterval(() => { const n = performance.now(); lixivGap = Math.max(lixivGap, n - last); last = n; }, 10);
+		return true })()`)
+	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
+		t.Fatal(err)
+	}
+	js := fmt.Sprintf(`document.body.dataset.gen !== %q && document.body.dataset.busy === "0"`, gen)
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](js, chromedp.WithPollingTimeout(sessionLimit), chromedp.WithPollingInterval(time.Second))); err != nil {
+		t.Fatalf("the budget at the limits did not finish computing: %v", err)
+	}
+	took := eval[float64](t, ctx, `(() => { clearInterval(lixivBeat); return performance.now() - lixivT0 })()`)
+	gap := eval[float64](t, ctx, `lixivGap`)
+	slice := eval[string](t, ctx, `window.lixivLongestSlice || ""`)
+	bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`)
+	t.Logf("timing: budget at the limits (%d samples × %d draws, %d days, %d replicates per series) opened and computed in %.0f s; longest main-thread stall %.0f ms (longest engine slice without a yield: %s); cells with problems: %q",
+		atlimits.Samples, atlimits.Draws, atlimits.Days, atlimits.Replicates, took/1000, gap, slice, bad)
 }

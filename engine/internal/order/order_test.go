@@ -4,6 +4,8 @@ import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"lixiv/engine/internal/watchdog"
 )
 
 // TestSelectMatchesSort checks every order statistic of sets with ties,
@@ -51,6 +53,7 @@ func TestSelectMatchesSort(t *testing.T) {
 func FuzzSelect(f *testing.F) {
 	f.Add([]byte{3, 1, 2}, uint8(1))
 	f.Fuzz(func(t *testing.T, b []byte, k uint8) {
+		defer watchdog.Start([]any{b, k})()
 		if len(b) == 0 {
 			return
 		}
