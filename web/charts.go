@@ -31,7 +31,7 @@ type cachedCharts struct {
 // of a cell of kind k read.
 var chartInputs = map[notebook.Kind][]notebook.Kind{
 	notebook.KindDischarge: {notebook.KindSamples},
-	notebook.KindSources:   {notebook.KindSamples, notebook.KindAtmosphere},
+	notebook.KindSources:   {notebook.KindSamples, notebook.KindAtmosphere, notebook.KindApportionment},
 }
 
 // For returns the charts of cell c, drawing them when needed.
@@ -309,21 +309,88 @@ func hydrograph(id string, d *notebook.Document, o *notebook.Output) *plot.Chart
 
 // mixingChart draws Ca/Na against another ratio to Na on log axes: the
 // samples as points and each end-member's prior range as a hatched box.
+// Where an apportionment has run, the samples it could not fit are marked,
+// and the edges of the boxes that samples' posteriors press against are
+// drawn; which ones, the apportionment decides (notebook.Marks).
 func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.Output, xRatio string) *plot.Chart {
 	ch := plot.New(id, "Mixing diagram: Ca/Na against "+xRatio, xRatio+" (mol/mol)", "Ca/Na (mol/mol)")
 	ch.X.Log, ch.Y.Log = true, true
-	for i, b := range priorBoxes(table(o, []string{"priors"}, "end-member", "ratio"), xRatio) {
+	boxes := priorBoxes(table(o, []string{"priors"}, "end-member", "ratio"), xRatio)
+	for i, b := range boxes {
 		ch.Box(b.name, plot.StyleN(i+1), b.x0, b.x1, b.y0, b.y1)
 	}
-	if x, y, names, label := sampleRatios(d, xRatio); x != nil {
+	x, y, names, label := sampleRatios(d, xRatio)
+	if x != nil {
 		st := plot.StyleN(0)
 		st.Open = true // rings: a dense cloud of samples still shows each one
 		ch.Points(label, st, x, y, names)
+	}
+	if m := apportionmentMarks(d); m != nil {
+		markMisfits(ch, m, x, y, names)
+		for i, b := range boxes {
+			for _, e := range m.Edges {
+				if e.EndMember != b.name {
+					continue
+				}
+				st := plot.StyleN(i + 1)
+				st.Dash, st.Marker = "", ""
+				side := "lower"
+				if e.Upper {
+					side = "upper"
+				}
+				name := fmt.Sprintf("%s %s: %s edge the fit presses against (%s)", e.EndMember, e.Ratio, side, plural(len(e.Samples), "sample"))
+				switch e.Ratio {
+				case "Ca/Na":
+					ch.Line(name, st, []float64{b.x0, b.x1}, []float64{e.Value, e.Value})
+				case xRatio:
+					ch.Line(name, st, []float64{e.Value, e.Value}, []float64{b.y0, b.y1})
+				}
+			}
+		}
 	}
 	if ch.Empty() {
 		return nil
 	}
 	return ch
+}
+
+// apportionmentMarks returns the marks of the first computed
+// apportionment, or nil.
+func apportionmentMarks(d *notebook.Document) *notebook.Marks {
+	for _, c := range d.Cells {
+		if c.Kind != notebook.KindApportionment {
+			continue
+		}
+		if o := d.Output(c.ID); o != nil {
+			if a, ok := o.Value.(*notebook.Apportioned); ok {
+				return &a.Diagram
+			}
+		}
+	}
+	return nil
+}
+
+// markMisfits draws, over the samples, those the apportionment could not
+// fit, each named with the tracer it could not match.
+func markMisfits(ch *plot.Chart, m *notebook.Marks, x, y []float64, names []string) {
+	bad := map[string]string{}
+	for i, t := range m.Misfit {
+		if t != "" && i < len(m.Names) {
+			bad[m.Names[i]] = t
+		}
+	}
+	var mx, my []float64
+	var mn []string
+	for i, n := range names {
+		if t, ok := bad[n]; ok && i < len(x) {
+			mx, my, mn = append(mx, x[i]), append(my, y[i]), append(mn, n+": does not fit "+t)
+		}
+	}
+	if len(mx) > 0 {
+		st := plot.StyleN(4)
+		st.Open = false
+		ch.Points("samples the apportionment cannot fit", st, mx, my, mn)
+	}
 }
 
 type priorBox struct {

@@ -148,3 +148,46 @@ func demoBudget(t *testing.T) *notebook.Document {
 	}
 	return d
 }
+
+// TestMixingDiagramMarks checks that the mixing diagrams draw what the
+// apportionment decides to mark: the samples it cannot fit, and the edge
+// of an end-member's prior box that posteriors press against.
+func TestMixingDiagramMarks(t *testing.T) {
+	d := demoBudget(t)
+	var a *notebook.Apportioned
+	var src *notebook.Cell
+	for _, c := range d.Cells {
+		switch c.Kind {
+		case notebook.KindApportionment:
+			a, _ = d.Output(c.ID).Value.(*notebook.Apportioned)
+		case notebook.KindSources:
+			src = c
+		}
+	}
+	if a == nil || src == nil {
+		t.Fatal("the demo has no apportionment or no end-member cell")
+	}
+	_, _, names, _ := sampleRatios(d, "Mg/Na")
+	if len(names) == 0 {
+		t.Fatal("no samples in the mixing diagram")
+	}
+	a.Diagram = notebook.Marks{
+		Names:  []string{names[0]},
+		Misfit: []string{"Mg/Na"},
+		Edges:  []notebook.BoxEdge{{EndMember: "carbonate", Ratio: "Ca/Na", Upper: true, Value: 60, Samples: []string{names[0]}}},
+	}
+	ch := mixingChart("m", d, src, d.Output(src.ID), "Mg/Na")
+	if ch == nil {
+		t.Fatal("no mixing diagram")
+	}
+	svg := ch.SVG()
+	for _, w := range []string{
+		"samples the apportionment cannot fit",
+		names[0] + ": does not fit Mg/Na",
+		"carbonate Ca/Na: upper edge the fit presses against (1 sample)",
+	} {
+		if !strings.Contains(svg, w) {
+			t.Errorf("the diagram lacks %q", w)
+		}
+	}
+}

@@ -31,7 +31,7 @@ var columnLabels = map[string]string{
 	"Cl_excess":            "Cl above the rain input",
 	"Na_atm_share":         "atmospheric share of Na",
 	"SO4_sulfide":          "SO4 from sulfide",
-	"accepted":             "draws accepted",
+	"shares.ESS":           "effective sample size",
 	"mass_flux":            "mass flux",
 	"mass_yield":           "mass yield",
 	"bias_factor":          "bias factor",
@@ -84,17 +84,25 @@ func ColumnLabel(table string, col *notebook.Column) string {
 }
 
 // idle reports a setting that does nothing in the cell's current mode:
-// the δ34S values are read only when the sulfate source is "isotope".
+// the δ34S values are read only when the sulfate source is "isotope", and
+// the tracers and the refinement of the inverse model only by it.
 func idle(kind notebook.Kind, key string, params []notebook.Param) bool {
-	if kind != notebook.KindApportionment || !strings.HasPrefix(key, "d34s_") {
+	if kind != notebook.KindApportionment {
 		return false
 	}
-	for _, p := range params {
-		if p.Key == "sulfate" {
-			return p.Value != "isotope"
+	value := func(k string) string {
+		for _, p := range params {
+			if p.Key == k {
+				return p.Value
+			}
 		}
+		return ""
 	}
-	return false
+	switch key {
+	case "tracers", "target_ess", "max_draws":
+		return value("model") == "forward"
+	}
+	return strings.HasPrefix(key, "d34s_") && value("sulfate") != "isotope"
 }
 
 // RefLabel labels a chart reference "cell.table.column" with the title of

@@ -154,8 +154,11 @@ func TestCheckValues(t *testing.T) {
 		// Item 7: Na 100, Alk 100, SiO2 200, zero silicate Ca/Na and Mg/Na ->
 		// phi_sil 100, phi_carb 0, sink 0, net_long 50.
 		{"7 albite, zero ratios", water(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200}), correct.Gypsum, zeroSil, 100, 0, 50, 0, 1e-9, false, false},
-		// Item 7, second part: default (Ca/Na)_sil 0.35 clamps Ca_carb to 0.
-		{"7 albite, default ratios", water(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200}), correct.Gypsum, nil, 218, 0, 218 - 109, 59, 1e-9, true, false},
+		// Item 7, second part (corrected): the default (Ca/Na)_sil 0.35
+		// would give silicate Ca and Mg above the measured Ca* = Mg* = 0;
+		// they are capped there (never invented), so phi_sil stays 100,
+		// net_long 50 and the conventional sink 0, with a warning.
+		{"7 albite, default ratios", water(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200}), correct.Gypsum, nil, 100, 0, 50, 0, 1e-9, true, false},
 		// Item 8: phi_sil 238, phi_carb 480 (tolerance 1e-4 as docs/methods.md §13 gives it).
 		{"8 mixed sample", mixed, correct.Gypsum, nil, 238, 480, 238 + 480 - (238+960)/2.0, 59, 1e-4, false, false},
 		// Item 14: Ca 1000, SO4 500 (sulfide), Alk 1000 -> phi 0, net_long −500.
@@ -173,8 +176,8 @@ func TestCheckValues(t *testing.T) {
 					t.Errorf("%s: got %.6f, want %g (tolerance %g)", name, got[i], want[i], tc.tol)
 				}
 			}
-			if got := hasErr(fr.Warnings, mix.ErrCarbonateDeficit); got != tc.wantDeficit {
-				t.Errorf("carbonate-deficit warning: got %v, want %v", got, tc.wantDeficit)
+			if got := hasErr(fr.Warnings, mix.ErrSilicateCapped); got != tc.wantDeficit {
+				t.Errorf("silicate-capped warning: got %v, want %v", got, tc.wantDeficit)
 			}
 			if got := hasErr(r.Warnings, ErrRelease); got != tc.wantReleaseOn {
 				t.Errorf("CO2-release warning: got %v, want %v", got, tc.wantReleaseOn)

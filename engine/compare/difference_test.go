@@ -96,7 +96,7 @@ func TestPairOfTwins(t *testing.T) {
 	rng := rand.New(rand.NewPCG(9, 9))
 	tt := newTwinTruth(rng, 2, 1<<30, 1)
 	rCa, rMg := []float64{1, 1.1, 0.9}, []float64{0.9, 1, 0.8}
-	bu, q := tt.budget(rng, 0, len(tt.q), false, 1, rCa, rMg)
+	bu, q := tt.budget(rng, 0, len(tt.q), false, 1, rCa, rMg, nil)
 	for _, d := range []Design{TreatedControl, BACI} {
 		bs, qs := make([]Budget, d.Budgets()), make([]flux.Apportioned, 0)
 		for b := range bs {
@@ -132,7 +132,7 @@ func TestPairOfTwins(t *testing.T) {
 func TestPairPointOnly(t *testing.T) {
 	rng := rand.New(rand.NewPCG(9, 9))
 	tt := newTwinTruth(rng, 2, 1<<30, 1)
-	bu, q := tt.budget(rng, 0, len(tt.q), false, 1, []float64{1}, []float64{0.9})
+	bu, q := tt.budget(rng, 0, len(tt.q), false, 1, []float64{1}, []float64{0.9}, nil)
 	o, err := Pair([]Budget{bu, bu}, []flux.Apportioned{q, q}, Options{PointOnly: true})
 	if err != nil {
 		t.Fatal(err)
@@ -153,8 +153,8 @@ func BenchmarkPair(b *testing.B) {
 	for d := range rCa {
 		rCa[d], rMg[d] = 1+0.1*rng.NormFloat64(), 0.9+0.1*rng.NormFloat64()
 	}
-	bt, qt := tt.budget(rng, 0, len(tt.q), true, 1, rCa, rMg)
-	bc, qc := tt.budget(rng, 0, len(tt.q), false, 1, rCa, rMg)
+	bt, qt := tt.budget(rng, 0, len(tt.q), true, 1, rCa, rMg, nil)
+	bc, qc := tt.budget(rng, 0, len(tt.q), false, 1, rCa, rMg, nil)
 	picks := make([]int, 1000)
 	for r := range picks {
 		picks[r] = r % 200

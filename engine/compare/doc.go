@@ -29,7 +29,12 @@
 // DrawNumbers), so the shared part partly cancels in the difference. What
 // each budget has of its own — the resampling of its samples, the
 // systematic error of its discharge record, the error of its area — is
-// drawn from a seed of its own (BudgetSeed). The difference's interval is
+// drawn from a seed of its own (BudgetSeed). Where no joint draws exist —
+// an apportionment whose weighted draws belong to each sample, as the
+// inverse model's do — Pair goes without Picks: each budget's bootstrap
+// takes each sample's draw by its weight, independently in each budget,
+// and the uncertainty the budgets share is not carried as shared (the
+// caller says so). The difference's interval is
 // the 2.5 % and 97.5 % quantiles of the replicate differences; P(D > 0) is
 // the share of replicates above zero. Each quantity is given per km² of
 // catchment (mol/km²/yr) and per mm of runoff (mol/km²/mm, which is the

@@ -29,7 +29,10 @@ type Options struct {
 	// Picks, when set, gives the draw each replicate takes in every sample
 	// of every budget (an index into the quantities' draws; Joint.Picks):
 	// the shared parts drawn once per replicate. Without it each sample
-	// takes a draw from its own posterior, independently in each budget.
+	// takes a draw from its own weighted draws (flux.Apportioned.Weights),
+	// independently in each budget, which is all there is when each
+	// sample's draws are its own (the inverse model): what the budgets
+	// share is then not drawn as shared.
 	Picks []int
 	// PointOnly leaves out the bootstrap: the point values alone, every
 	// interval NaN (a quick first pass).

@@ -102,8 +102,10 @@ func (tt *twinTruth) yield(a, b int, treated bool) (perKm2, perMM float64) {
 // phase with 3 % analytical noise, gauges it with a systematic error of 5 %
 // (1σ), and apportions each sample with nd draws whose silicate Ca/Na and
 // Mg/Na are drawn once per draw (rCa, rMg; shared by every sample of both
-// catchments). It returns the budget and its silicate cations.
-func (tt *twinTruth) budget(rng *rand.Rand, a, b int, treated bool, gauge float64, rCa, rMg []float64) (Budget, flux.Apportioned) {
+// catchments). With own set, each sample has weighted draws of its own
+// instead, as the inverse model gives (see ownDraws). It returns the budget
+// and its silicate cations.
+func (tt *twinTruth) budget(rng *rand.Rand, a, b int, treated bool, gauge float64, rCa, rMg []float64, own *ownPrior) (Budget, flux.Apportioned) {
 	gq := make([]float64, b-a)
 	for k := range gq {
 		gq[k] = tt.q[a+k] * gauge
@@ -131,14 +133,23 @@ func (tt *twinTruth) budget(rng *rand.Rand, a, b int, treated bool, gauge float6
 			return [4]float64{naSil, meas[1] - atm[1], math.Min(ca*naSil, meas[2]-atm[2]), math.Min(mg*naSil, meas[3]-atm[3])}
 		}
 		mid := sil(mean(rCa), mean(rMg))
+		if own != nil {
+			// As many draws as the sample's own refinement took: 200 to
+			// 399; the point value at the prior's centre, their weighted
+			// mean.
+			var w []float64
+			rCa, rMg, w = own.draws(rng, nd+rng.IntN(nd))
+			q.Weights = append(q.Weights, w)
+			mid = sil(own.cCa, own.cMg)
+		}
 		for j := range 4 {
 			p := &q.Parts[j]
 			p.Measured = append(p.Measured, meas[j])
 			p.Amount = append(p.Amount, mid[j])
-			p.Draws = append(p.Draws, make([]float64, nd))
+			p.Draws = append(p.Draws, make([]float64, len(rCa)))
 		}
 		i := len(q.Days) - 1
-		for d := range nd {
+		for d := range rCa {
 			s := sil(rCa[d], rMg[d])
 			for j := range 4 {
 				q.Parts[j].Draws[i][d] = s[j]
@@ -149,10 +160,36 @@ func (tt *twinTruth) budget(rng *rand.Rand, a, b int, treated bool, gauge float6
 		Bootstrap: flux.BootstrapOptions{DischargeError: 0.05, Cache: &flux.Cache{}}}, q
 }
 
+// ownPrior is the prior of the silicate ratios (centres cCa, cMg, a 10 %
+// spread, normal) from which each sample draws its own weighted draws.
+type ownPrior struct{ cCa, cMg float64 }
+
+// draws returns nd draws of the silicate Ca/Na and Mg/Na of one sample and
+// their importance weights: drawn from a proposal half as wide again as the
+// prior (15 %) and weighted by prior over proposal density, as the inverse
+// model weights its own draws of each sample (here the data say nothing of
+// the ratios, so the posterior is the prior).
+func (o *ownPrior) draws(rng *rand.Rand, nd int) (rCa, rMg, w []float64) {
+	const prior, proposal = 0.1, 0.15
+	rCa, rMg, w = make([]float64, nd), make([]float64, nd), make([]float64, nd)
+	for d := range nd {
+		zCa, zMg := rng.NormFloat64(), rng.NormFloat64()
+		rCa[d] = o.cCa * (1 + proposal*zCa)
+		rMg[d] = o.cMg * (1 + proposal*zMg)
+		// log N(x; c, prior c) − log N(x; c, proposal c), both ratios.
+		r := proposal / prior
+		w[d] = flux.Exp(-0.5 * (zCa*zCa + zMg*zMg) * (r*r - 1))
+	}
+	return rCa, rMg, w
+}
+
 // scenario is one row of the validation table.
 type scenario struct {
 	design Design
 	effect float64
+	// own gives each sample weighted draws of its own, taken independently
+	// in each budget (the inverse model), in place of joint draws.
+	own bool
 }
 
 // pairResult is what one synthetic pair (or quartet) gave.
@@ -191,8 +228,12 @@ func runPair(sc scenario, p int, reps int) (*pairResult, error) {
 	gT, gC := 1+0.05*rng.NormFloat64(), 1+0.05*rng.NormFloat64()
 	var bs []Budget
 	var qs []flux.Apportioned
+	var own *ownPrior
+	if sc.own {
+		own = &ownPrior{cCa: cCa, cMg: cMg}
+	}
 	add := func(a, b int, treated bool, g float64) {
-		bu, q := tt.budget(rng, a, b, treated, g, rCa, rMg)
+		bu, q := tt.budget(rng, a, b, treated, g, rCa, rMg, own)
 		bs, qs = append(bs, bu), append(qs, q)
 	}
 	res := &pairResult{}
@@ -212,6 +253,14 @@ func runPair(sc scenario, p int, reps int) (*pairResult, error) {
 		tb, tbm := tt.yield(0, split, true)
 		cb, cbm := tt.yield(0, split, false)
 		res.truth, res.truthMM, res.base = (ta-tb)-(ca-cb), (tam-tbm)-(cam-cbm), ca
+	}
+	if sc.own {
+		out, err := Pair(bs, qs, Options{Design: sc.design, Replicates: reps, Seed: uint64(p + 1)})
+		if err != nil {
+			return nil, err
+		}
+		res.est = out
+		return res, nil
 	}
 	w := make([][][]float64, len(qs))
 	for b := range qs {
@@ -238,6 +287,7 @@ func runPair(sc scenario, p int, reps int) (*pairResult, error) {
 // TestValidationComparison runs synthetic twin catchments with a known
 // added silicate flux (0, 10, 25 and 50 % treated − control; 0 and 25 %
 // BACI, with a wetter after period) through Pair with joint draws, and
+// again (0, 25, 50 %; 0, 25 %) with each sample's own weighted draws, and
 // requires the 95 % intervals of the difference to cover the true
 // difference in at least 90 % of pairs, per km² and per mm of runoff, and a
 // zero effect to be declared detected (its interval excluding zero) in no
@@ -245,8 +295,10 @@ func runPair(sc scenario, p int, reps int) (*pairResult, error) {
 // The table goes to docs/validation.md.
 func TestValidationComparison(t *testing.T) {
 	const pairs, reps = 200, 250
-	scen := []scenario{{TreatedControl, 0}, {TreatedControl, 0.10}, {TreatedControl, 0.25}, {TreatedControl, 0.50},
-		{BACI, 0}, {BACI, 0.25}}
+	scen := []scenario{{TreatedControl, 0, false}, {TreatedControl, 0.10, false}, {TreatedControl, 0.25, false}, {TreatedControl, 0.50, false},
+		{BACI, 0, false}, {BACI, 0.25, false},
+		{TreatedControl, 0, true}, {TreatedControl, 0.25, true}, {TreatedControl, 0.50, true},
+		{BACI, 0, true}, {BACI, 0.25, true}}
 	var rows []string
 	for _, sc := range scen {
 		var cover, coverMM, detected int
@@ -270,21 +322,25 @@ func TestValidationComparison(t *testing.T) {
 			width += (y.High - y.Low) / r.base
 		}
 		share := func(k int) float64 { return float64(k) / pairs }
-		rows = append(rows, fmt.Sprintf("| %s | %.0f %% | %+.1f %% | %d of %d (%.0f %%) | %d of %d (%.0f %%) | %.0f %% | %d of %d (%.0f %%) |",
-			sc.design.Formula(), 100*sc.effect, 100*bias/pairs, cover, pairs, 100*share(cover), coverMM, pairs, 100*share(coverMM),
+		draws := "joint"
+		if sc.own {
+			draws = "each sample's own"
+		}
+		rows = append(rows, fmt.Sprintf("| %s | %s | %.0f %% | %+.1f %% | %d of %d (%.0f %%) | %d of %d (%.0f %%) | %.0f %% | %d of %d (%.0f %%) |",
+			sc.design.Formula(), draws, 100*sc.effect, 100*bias/pairs, cover, pairs, 100*share(cover), coverMM, pairs, 100*share(coverMM),
 			100*width/pairs, detected, pairs, 100*share(detected)))
 		t.Log(rows[len(rows)-1])
 		if share(cover) < 0.90 || share(coverMM) < 0.90 {
-			t.Errorf("%v, effect %.0f %%: intervals cover the truth in %d and %d of %d pairs, want at least 90 %%", sc.design, 100*sc.effect, cover, coverMM, pairs)
+			t.Errorf("%v (own draws %v), effect %.0f %%: intervals cover the truth in %d and %d of %d pairs, want at least 90 %%", sc.design, sc.own, 100*sc.effect, cover, coverMM, pairs)
 		}
 		if allow := 0.05 + 2*math.Sqrt(0.05*0.95/pairs); sc.effect == 0 && share(detected) > allow {
-			t.Errorf("%v: a zero effect declared detected in %d of %d pairs, more than the nominal 5 %% allows (%.1f %%)", sc.design, detected, pairs, 100*allow)
+			t.Errorf("%v (own draws %v): a zero effect declared detected in %d of %d pairs, more than the nominal 5 %% allows (%.1f %%)", sc.design, sc.own, detected, pairs, 100*allow)
 		}
 	}
-	body := fmt.Sprintf(`Treated against control (comparison cell, engine/compare, docs/methods.md §17; `+"`TestValidationComparison`"+`): invented twin catchments of our own sharing one daily truth (a storm-driven discharge, silicate, carbonate and sea-salt water with dilution at high flow), the treated one given a known added silicate flux (effect × its silicate water). Each catchment is sampled every fortnight at its own random phase with 3 %% analytical noise and gauged with its own systematic error (5 %%, 1σ); two calendar years for treated − control, two before and two wetter (× 1.3 flow) after for BACI, the flux added after. Both catchments are apportioned with one end-member table whose silicate Ca/Na and Mg/Na prior is off the truth by 10 %% (1σ, the same for both) with a 10 %% spread, 200 draws shared by every sample. %d pairs per row; each compared with Pair (rating curve with smearing, %d replicates, joint draws: one draw per replicate for both catchments; resampling and discharge error of each catchment its own). The error is the mean of the point difference less the true one; it and the widths of the 95 %% intervals (per km²) are given as shares of the control's true silicate yield. "Detected" counts pairs whose interval excludes zero (false detections at a zero effect, the power otherwise). Per km², the before-after intervals cover more than 95 %%: each budget draws its own discharge error, while a catchment's before and after share one gauge (docs/methods.md §17), so the interval is on the wide side; per mm of runoff, where the discharge error cancels, they do not.
+	body := fmt.Sprintf(`Treated against control (comparison cell, engine/compare, docs/methods.md §17; `+"`TestValidationComparison`"+`): invented twin catchments of our own sharing one daily truth (a storm-driven discharge, silicate, carbonate and sea-salt water with dilution at high flow), the treated one given a known added silicate flux (effect × its silicate water). Each catchment is sampled every fortnight at its own random phase with 3 %% analytical noise and gauged with its own systematic error (5 %%, 1σ); two calendar years for treated − control, two before and two wetter (× 1.3 flow) after for BACI, the flux added after. Both catchments are apportioned with one end-member table whose silicate Ca/Na and Mg/Na prior is off the truth by 10 %% (1σ, the same for both) with a 10 %% spread, 200 draws. With joint draws (as the forward model gives) draw d holds the same ratios in every sample of both catchments and Pair takes one draw per replicate for both; with each sample's own draws (as the inverse model gives) every sample has 200 to 399 draws of its own (as many as its refinement took) from a proposal 15 %% wide, weighted by prior over proposal density, and each replicate takes a draw of each sample by weight, independently in each catchment, so the prior's error common to both catchments is not carried as shared. %d pairs per row; each compared with Pair (rating curve with smearing, %d replicates; resampling and discharge error of each catchment its own). The error is the mean of the point difference less the true one; it and the widths of the 95 %% intervals (per km²) are given as shares of the control's true silicate yield. "Detected" counts pairs whose interval excludes zero (false detections at a zero effect, the power otherwise). Per km², the before-after intervals cover more than 95 %%: each budget draws its own discharge error, while a catchment's before and after share one gauge (docs/methods.md §17), so the interval is on the wide side; per mm of runoff, where the discharge error cancels, they do not.
 
-| design | added silicate flux | mean error | truth inside 95 %% interval, per km² | per mm of runoff | mean interval width | detected |
-|---|---|---|---|---|---|---|
+| design | apportionment draws | added silicate flux | mean error | truth inside 95 %% interval, per km² | per mm of runoff | mean interval width | detected |
+|---|---|---|---|---|---|---|---|
 %s
 `, pairs, reps, strings.Join(rows, "\n"))
 	validation.Section(t, "comparison", body)

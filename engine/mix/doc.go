@@ -2,52 +2,77 @@
 // sources: the atmosphere, evaporites, silicate and carbonate rocks.
 //
 // Concentrations are µmol/L. Two models share the Split type: the forward
-// model (sequential subtraction with fixed silicate end-member ratios) and
-// the inverse Monte Carlo model (uncertain end-members, constrained least
-// squares per draw).
+// model (sequential subtraction with fixed silicate end-member ratios,
+// forward*.go) and the inverse model (uncertain end-members, one weighted
+// posterior per sample). docs/methods.md §6 and §7 give their equations.
 //
 // # Inverse model
 //
-// The inverse model (Invert, or NewRun and Run.Step) follows docs/methods.md §7:
+// The inverse model (Invert, or NewRun and Run.Step) works in concentration
+// space, sample by sample:
 //
-//  1. End-members are user-defined (EndMember): a name, the Source their
-//     cations are booked to, and a Prior per ratio to Na and for 87Sr/86Sr
-//     (fixed, log-uniform or log-normal). Presets carry their published
-//     sources: PresetRain (sea salt), PresetEvaporite, PresetCarbonate,
-//     PresetSilicate and the lithology-specific PresetGranitic and
-//     PresetBasaltic.
-//  2. Tracers are any subset of Ca/Na, Mg/Na, K/Na, HCO3/Na, Cl/Na, Sr/Na
-//     and 87Sr/86Sr. The isotope ratio mixes in proportion to Sr and enters
-//     linearised: sum_j a_j (Sr/Na)_j (R_j - R_measured) = 0.
-//  3. For each draw every end-member ratio is drawn once from its prior and
-//     shared by all samples (the same rocks for the whole catchment), so
-//     draw d is coherent across samples and fluxes can be propagated draw
-//     by draw (Result.Draw, Result.SplitAt).
-//  4. For each sample and draw the Na fractions a_j solve the weighted least
-//     squares with sum a_j = 1 and a_j >= 0 exactly (closed-form solves on
-//     the faces of the simplex; no grid). The weights are the analytical
-//     uncertainties of the measured ratios; with Options.Perturb the
-//     measured ratios themselves are also drawn from those uncertainties.
-//  5. The draw is accepted when chi-square is within the 95 % quantile
-//     (Accept), or weighted by exp(-chi2/2) (Weight).
-//  6. Per sample: median and 2.5/97.5 % quantiles of each end-member's Na
-//     fraction and of each source's share and amount of Na, K, Ca and Mg
-//     (amount of X from end-member j = a_j Na (X/Na)_j, scaled so the
-//     sources add up to the measured X), the acceptance rate, a Status and
-//     warnings (under-determined, ill-conditioned, missing tracer, no fit).
+//  1. The data are Na* and the numerators of the chosen tracers (Ca*, Mg*,
+//     K*, HCO3 or alkalinity, Cl*, Sr*, and the Sr-weighted 87Sr/86Sr),
+//     corrected for rain and evaporites by engine/correct when a Water has
+//     a Correction. Their errors come from the measurements: each measured
+//     concentration has the analytical precision of Options.Precision (3 %
+//     with a floor by default), the rain's X/Cl ratios and Cl* the spread of
+//     Options.Rain, and the correction, linear in all of them, carries them
+//     to the data with the covariance the shared Cl brings
+//     (correct.Result.Linearize).
+//  2. The unknowns are the amounts n_j >= 0 (µmol/L of Na) each end-member
+//     brings and the end-members' ratios. Data = A(ratios) n + error: Na* =
+//     sum n_j, X* = sum (X/Na)_j n_j. No closure, and Na* <= 0 needs no
+//     special algebra.
+//  3. Each ratio has a prior (Prior): a published central value with a
+//     range reads as a log-normal with the range as its 95 % interval
+//     (Within); presets carry their sources. The amounts have a
+//     spike-and-slab prior (slab.go): each end-member present with
+//     probability ½, the present ones' shares of the rock-derived cation
+//     charge uniform, so amounts of exactly 0 — and shares of exactly 0 and
+//     1 — are reachable.
+//  4. The posterior is sampled by importance sampling (sample.go,
+//     proposal.go): first-stage draws from the priors, shared by all
+//     samples, then refinement stages that propose the ratios from a
+//     Gaussian mixture fitted to the weighted draws so far (one component
+//     per set of present end-members), until the effective sample size
+//     reaches Options.TargetESS or the draws reach Options.MaxDraws. For
+//     each draw of the ratios, a set of present end-members is proposed in
+//     proportion to a Laplace estimate of its evidence and the amounts from
+//     the Gaussian of its least-squares problem; every draw is weighted by
+//     the exact ratio of prior × likelihood to its proposal (the balance
+//     heuristic over all stages). Every draw counts with its weight.
+//  5. Per sample: weighted quantiles of each end-member's Na fraction and
+//     of the amount and share of Na, K, Ca and Mg from each source (the
+//     correction's atmospheric and evaporite amounts drawn with the same
+//     errors; an end-member's share of a cation times the corrected amount,
+//     so no source gets more than was measured), the ESS, a posterior
+//     predictive check of the misfit, the width of each fraction against
+//     what the priors alone give, the ratios whose posterior lies beyond
+//     their prior's range, the posterior correlation of the amounts, and a
+//     verdict in words (SampleResult.Verdict; SampleResult.Doubtful).
+//
+// An evaporite end-member takes part only with the Cl/Na tracer (elsewhere
+// no tracer can tell its Na from silicate Na), and Problem's confusions
+// name, before the run, end-members the chosen tracers cannot tell from a
+// mix of others and the tracer that would separate them. A water with Na*
+// <= 0 that no mix fits gets the Na-free rule (Ca* and Mg* to carbonate).
+// The draws of each sample, with their weights, are its posterior
+// (Result.Draw); draws of different samples are unrelated.
 //
 // The waters may be raw river chemistry, with the rain end-member in the
-// inversion (DefaultEndMembers(true)), or already corrected for atmospheric
-// and evaporite input by engine/correct, in which case rain is left out
-// (DefaultEndMembers(false)) and Cl/Na is useful only if halite remains.
+// inversion (DefaultEndMembers(true)), or corrected by engine/correct, in
+// which case rain is left out (DefaultEndMembers(false)).
 //
 // Results are bit-identical for a given seed on every supported target
-// (amd64 and WebAssembly): draws come from one PCG stream in a fixed
-// order, exp and log are computed by portable code of this package rather
-// than the math package (which uses assembly on amd64), and each sample is
-// worked by one goroutine in draw order, so neither the number of cores
-// nor the chunking of Run.Step changes a bit. Result.Checksum hashes every
-// number of a result. (On arm64 and some other targets the Go compiler may
-// fuse a multiply and an add into one rounding, so bits there can differ
-// from amd64 and WebAssembly in the last place.)
+// (amd64 and WebAssembly): the first-stage draws come from one PCG stream
+// in a fixed order, each sample's later draws and data errors from streams
+// of its own, exp, log, the normal quantile and its distribution function
+// are computed by portable code of this package rather than the math
+// package (which uses assembly on amd64), and each sample is worked by one
+// goroutine in draw order, so neither the number of cores nor the chunking
+// of Run.Step changes a bit. Result.Checksum hashes every number of a
+// result. (On arm64 and some other targets the Go compiler may fuse a
+// multiply and an add into one rounding, so bits there can differ from
+// amd64 and WebAssembly in the last place.)
 package mix

@@ -9,11 +9,36 @@ import (
 	"lixiv/engine/correct"
 )
 
-// SilicateRatio is a molar ratio X/Na of the silicate end-member with its
-// 1σ uncertainty.
+// SilicateRatio is a molar ratio X/Na of the silicate end-member: its
+// central value and its published range, read as everywhere (docs/methods.md
+// §7.3) as the 95 % interval of a log-normal with its median at the
+// central value (Within). Lo = Hi = Value (or both 0) makes it exact.
 type SilicateRatio struct {
-	Value float64 // central value, mol/mol
-	Sigma float64 // one standard deviation, mol/mol (0 for an exact ratio)
+	Value  float64 // central value, mol/mol
+	Lo, Hi float64 // the published range, mol/mol
+}
+
+// Exact returns a silicate ratio without uncertainty.
+func Exact(v float64) SilicateRatio { return SilicateRatio{Value: v, Lo: v, Hi: v} }
+
+// exact reports whether the ratio has no spread.
+func (r SilicateRatio) exact() bool { return r.Lo == r.Hi || (r.Lo == 0 && r.Hi == 0) }
+
+// prior returns the ratio as a prior of the inverse model.
+func (r SilicateRatio) prior() Prior {
+	if r.exact() {
+		return FixedRatio(r.Value)
+	}
+	return Within(r.Lo, r.Value, r.Hi)
+}
+
+// Sigma returns the first-order 1σ of the ratio: the central value times
+// the σ of its logarithm, ln(Hi/Lo)/3.92.
+func (r SilicateRatio) Sigma() float64 {
+	if r.exact() {
+		return 0
+	}
+	return r.Value * plog(r.Hi/r.Lo) / (2 * z975)
 }
 
 // SilicateRatios are the silicate end-member ratios of the forward model.
@@ -29,13 +54,14 @@ type SilicateRatios struct {
 // model: the global silicate end-member of Gaillardet, Dupré, Louvat &
 // Allègre (1999), Chem. Geol. 159, 3-30: Ca/Na 0.35 ± 0.15, Mg/Na 0.24 ±
 // 0.12 (docs/methods.md §6.2: central values confirmed through a secondary
-// reproduction; the ± values and their meaning are from memory and are used
-// here as 1σ). No K/Na default is given, so KNa is NaN.
+// reproduction; the ± values and their meaning are from memory), the ±
+// read as the 95 % range as everywhere, the same reading PresetSilicate
+// takes. No K/Na default is given, so KNa is NaN.
 func ForwardSilicate() SilicateRatios {
 	return SilicateRatios{
-		CaNa: SilicateRatio{0.35, 0.15},
-		MgNa: SilicateRatio{0.24, 0.12},
-		KNa:  SilicateRatio{math.NaN(), math.NaN()},
+		CaNa: SilicateRatio{0.35, 0.20, 0.50},
+		MgNa: SilicateRatio{0.24, 0.12, 0.36},
+		KNa:  SilicateRatio{math.NaN(), math.NaN(), math.NaN()},
 	}
 }
 
@@ -49,7 +75,8 @@ type ForwardOptions struct {
 	// K* as silicate; K* above it is reported as unassigned.
 	KFromRatio bool
 	// Draws, when positive, propagates the ratio uncertainties by a seeded
-	// Monte Carlo with that many draws instead of to first order.
+	// Monte Carlo with that many draws (log-normal ratios, drawn by the
+	// portable code of the inverse model) instead of to first order.
 	Draws int
 	// Seed seeds the Monte Carlo generator (PCG); the same seed gives the
 	// same draws on every platform.
@@ -64,8 +91,8 @@ type ForwardOptions struct {
 // ForwardResult is the source apportionment of one sample by the forward
 // model. All amounts are µmol/L.
 type ForwardResult struct {
-	// Split is the apportionment with the central ratios; a negative
-	// carbonate share is set to 0 (see Deficit).
+	// Split is the apportionment with the central ratios. Silicate Ca and
+	// Mg never exceed the corrected Ca* and Mg* (see Deficit).
 	Split Split
 	// Sigma is the 1σ uncertainty of each entry of Split from the
 	// end-member ratio uncertainties (first order, or the standard
@@ -74,18 +101,18 @@ type ForwardResult struct {
 	// Lo and Hi are the 2.5 % and 97.5 % quantiles over the Monte Carlo
 	// draws; NaN under first-order propagation.
 	Lo, Hi Split
-	// Deficit is, per cation, the amount by which carbonate would have
-	// been negative before it was set to 0.
+	// Deficit is, per cation, the amount by which Na_sil times the
+	// silicate ratio exceeded the corrected amount: silicate was capped
+	// at the corrected amount and carbonate got none.
 	Deficit [NCations]float64
 	// Clamped is, per cation, the share of draws (0 or 1 under first
-	// order) in which carbonate was set to 0.
+	// order) in which silicate was capped.
 	Clamped [NCations]float64
 	// Unassigned is, per cation, measured amount given to no source:
 	// Na removed as human input, K* above the silicate K/Na ratio.
 	Unassigned [NCations]float64
-	// Misfit is, per cation, measured − (Split total − Deficit +
-	// Unassigned); nonzero where the correction set a negative residual
-	// to zero.
+	// Misfit is, per cation, measured − (Split total + Unassigned);
+	// nonzero where the correction set a negative residual to zero.
 	Misfit [NCations]float64
 	// Draws holds every Monte Carlo draw (nil under first order), for
 	// propagating the uncertainty to derived quantities such as CO2.
@@ -98,9 +125,10 @@ type ForwardResult struct {
 var (
 	// ErrForwardInput marks a sample the forward model cannot apportion.
 	ErrForwardInput = errors.New("mix: forward model input")
-	// ErrCarbonateDeficit warns that silicate Ca or Mg from the end-member
-	// ratio exceeds the corrected Ca or Mg, so carbonate was set to 0.
-	ErrCarbonateDeficit = errors.New("silicate ratio too high or Ca removed by calcite precipitation: carbonate set to 0")
+	// ErrSilicateCapped warns that Na_sil times a silicate ratio exceeds
+	// the corrected Ca, Mg (or Sr), so silicate was capped at it and
+	// carbonate got none (docs/methods.md §13 item 7, corrected).
+	ErrSilicateCapped = errors.New("silicate ratio too high for the measured amount (or Ca removed by calcite precipitation): silicate capped at the measured amount, carbonate set to 0")
 	// ErrNoSilicateNa warns that no Na is left for silicate weathering.
 	ErrNoSilicateNa = errors.New("no silicate Na after correction")
 	// ErrMassBalance warns that a cation's sources do not add up to the
@@ -117,18 +145,21 @@ var (
 //
 //	Na_sil  = Na* − Na_evap                      (c.Residual[Na])
 //	K_sil   = K*  (or Na_sil × (K/Na)_sil with KFromRatio)
-//	Ca_sil  = Na_sil × (Ca/Na)_sil
-//	Mg_sil  = Na_sil × (Mg/Na)_sil
-//	Ca_carb = Ca − Ca_atm − Ca_evap − Ca_sil     (set to 0 with a warning if negative)
-//	Mg_carb = Mg − Mg_atm − Mg_sil               (likewise)
+//	Ca_sil  = min(Na_sil × (Ca/Na)_sil, Ca*)     (capped, with a warning)
+//	Mg_sil  = min(Na_sil × (Mg/Na)_sil, Mg*)     (likewise)
+//	Ca_carb = Ca* − Ca_sil                       (Ca* = Ca − Ca_atm − Ca_evap)
+//	Mg_carb = Mg* − Mg_sil
 //
-// The atmosphere and evaporite rows come from c.Atm and c.Evap. Only the
-// end-member ratio uncertainties are propagated: to first order (σ(Ca_sil) =
-// Na_sil σ(Ca/Na), the same for Ca_carb) or, with opt.Draws > 0, by Monte
-// Carlo with each ratio drawn from a normal distribution truncated at zero
-// (redrawn when negative), the clamp applied per draw. A negative Na* (kept
-// by correct.Keep) is reported as negative silicate Na with a warning, and
-// silicate Ca, Mg and K are then taken as 0. opt may be nil.
+// Silicate Ca and Mg never exceed the measured (corrected) amounts, so no
+// cation is invented and carbonate is never negative (docs/methods.md §7.8,
+// §13 item 7). The atmosphere and evaporite rows come from c.Atm
+// and c.Evap. Only the end-member ratio uncertainties are propagated: to
+// first order (σ(Ca_sil) = Na_sil σ(Ca/Na), the same for Ca_carb, 0 where
+// capped) or, with opt.Draws > 0, by Monte Carlo with each ratio drawn from
+// its log-normal (the published range as its 95 % interval), the cap
+// applied per draw. A negative Na* (kept by correct.Keep) is reported as
+// negative silicate Na with a warning, and silicate Ca, Mg and K are then
+// taken as 0. opt may be nil.
 func Forward(c *correct.Result, opt *ForwardOptions) (ForwardResult, error) {
 	var res ForwardResult
 	if opt == nil {
@@ -149,7 +180,7 @@ func Forward(c *correct.Result, opt *ForwardOptions) (ForwardResult, error) {
 	res.Unassigned = cen.unassigned
 	res.Unassigned[fwdNa] += c.Human[chem.Na]
 	for i, sp := range Cations {
-		res.Misfit[i] = c.Input[sp] - (res.Split.Total(sp) - res.Deficit[i] + res.Unassigned[i])
+		res.Misfit[i] = c.Input[sp] - (res.Split.Total(sp) + res.Unassigned[i])
 	}
 	if opt.Draws > 0 {
 		res.monteCarlo(c, &rat, opt)
@@ -185,9 +216,24 @@ func fwdCheck(c *correct.Result, rat *SilicateRatios, opt *ForwardOptions) error
 		}{"K/Na", rat.KNa})
 	}
 	for _, ch := range check {
-		if !(ch.r.Value >= 0) || math.IsInf(ch.r.Value, 0) || !(ch.r.Sigma >= 0) || math.IsInf(ch.r.Sigma, 0) {
-			return fmt.Errorf("%w: silicate %s = %g ± %g, want finite and >= 0", ErrForwardInput, ch.name, ch.r.Value, ch.r.Sigma)
+		if err := ch.r.check(); err != nil {
+			return fmt.Errorf("%w: silicate %s: %v", ErrForwardInput, ch.name, err)
 		}
+	}
+	return nil
+}
+
+// check reports a ratio that is not a finite number >= 0 or whose range
+// does not hold it.
+func (r SilicateRatio) check() error {
+	bad := func(x float64) bool { return !(x >= 0) || math.IsInf(x, 0) }
+	switch {
+	case bad(r.Value):
+		return fmt.Errorf("%g, want finite and >= 0", r.Value)
+	case r.exact():
+		return nil
+	case bad(r.Lo) || bad(r.Hi) || !(r.Lo > 0) || r.Lo > r.Value || r.Value > r.Hi:
+		return fmt.Errorf("%g in [%g, %g], want 0 < low <= central <= high", r.Value, r.Lo, r.Hi)
 	}
 	return nil
 }
@@ -233,27 +279,32 @@ func (d *forwardDraw) run(c *correct.Result, caNa, mgNa, kNa float64, kFromRatio
 		sp    chem.Species
 		ratio float64
 	}{{fwdCa, chem.Ca, caNa}, {fwdMg, chem.Mg, mgNa}} {
-		sil := na * x.ratio
-		carb := c.Residual[x.sp] - sil
-		d.split[Silicate][x.i] = sil
+		sil, have := na*x.ratio, math.Max(c.Residual[x.sp], 0)
 		d.deficit[x.i] = 0
-		if carb < 0 {
-			d.deficit[x.i] = -carb
-			carb = 0
+		if sil > have {
+			d.deficit[x.i] = sil - have
+			sil = have
 		}
-		d.split[Carbonate][x.i] = carb
+		d.split[Silicate][x.i] = sil
+		d.split[Carbonate][x.i] = have - sil
 	}
 }
 
 // firstOrder fills Sigma, Lo, Hi and Clamped by first-order propagation.
 func (res *ForwardResult) firstOrder(rat *SilicateRatios, kFromRatio bool) {
 	na := math.Max(res.Split[Silicate][fwdNa], 0)
-	res.Sigma[Silicate][fwdCa] = na * rat.CaNa.Sigma
-	res.Sigma[Carbonate][fwdCa] = na * rat.CaNa.Sigma
-	res.Sigma[Silicate][fwdMg] = na * rat.MgNa.Sigma
-	res.Sigma[Carbonate][fwdMg] = na * rat.MgNa.Sigma
+	for _, x := range []struct {
+		i int
+		r SilicateRatio
+	}{{fwdCa, rat.CaNa}, {fwdMg, rat.MgNa}} {
+		if res.Deficit[x.i] > 0 {
+			continue // capped: the silicate amount does not move with the ratio
+		}
+		res.Sigma[Silicate][x.i] = na * x.r.Sigma()
+		res.Sigma[Carbonate][x.i] = na * x.r.Sigma()
+	}
 	if kFromRatio {
-		res.Sigma[Silicate][fwdK] = na * rat.KNa.Sigma
+		res.Sigma[Silicate][fwdK] = na * rat.KNa.Sigma()
 	}
 	for s := range res.Lo {
 		for i := range res.Lo[s] {
@@ -275,10 +326,10 @@ func (res *ForwardResult) warn(c *correct.Result) {
 	}
 	for i, sp := range Cations {
 		if res.Deficit[i] > 0 {
-			res.Warnings = append(res.Warnings, fmt.Errorf("%w: %s_carb = −%.4g µmol/L", ErrCarbonateDeficit, sp, res.Deficit[i]))
+			res.Warnings = append(res.Warnings, fmt.Errorf("%w: %s_sil by %.4g µmol/L", ErrSilicateCapped, sp, res.Deficit[i]))
 		}
 		if res.Clamped[i] > 0 && res.Deficit[i] == 0 {
-			res.Warnings = append(res.Warnings, fmt.Errorf("%w: %s_carb in %.3g %% of draws", ErrCarbonateDeficit, sp, 100*res.Clamped[i]))
+			res.Warnings = append(res.Warnings, fmt.Errorf("%w: %s_sil in %.3g %% of draws", ErrSilicateCapped, sp, 100*res.Clamped[i]))
 		}
 		if math.IsNaN(c.Input[sp]) {
 			res.Warnings = append(res.Warnings, fmt.Errorf("%w: %s not measured", ErrForwardInput, sp))

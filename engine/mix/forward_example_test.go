@@ -40,5 +40,5 @@ func ExampleForward() {
 	// evaporite     0.000    0.000    0.000    0.000
 	// silicate    100.000   20.000   35.000   24.000
 	// carbonate     0.000    0.000  400.000   80.000
-	// ±1σ carbonate Ca 15.0, Mg 12.0
+	// ±1σ carbonate Ca 8.2, Mg 6.7
 }

@@ -6,14 +6,18 @@ import (
 	"testing"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/correct"
 )
 
 func TestForwardInverseAgree(t *testing.T) {
+	exactData := correct.UniformPrecision(0, 1e-9, 1e-12)
 	// Issue 3 "must show": the forward and inverse models agree when the
 	// inverse priors collapse to the forward model's fixed ratios. The
 	// forward model takes all Na* as silicate, so the carbonate end-member
 	// is given a Na content that tends to zero: Ca/Na 1e5, Mg/Na 2e4
-	// (Ca/Mg 5, as the carbonate part of the sample). The water is the
+	// (Ca/Mg 5, as the carbonate part of the sample). The data are taken
+	// as exact (a precision of 1e-9 µmol/L), as the forward model takes
+	// them. The water is the
 	// corrected mixture of docs/methods.md §13 item 8 (Na_sil 100, K_sil 20,
 	// Ca_sil 35, Mg_sil 24, Ca_carb 400, Mg_carb 80) plus the 0.004 µmol/L
 	// of Na the carbonate end-member then carries; the two models must agree
@@ -33,7 +37,7 @@ func TestForwardInverseAgree(t *testing.T) {
 		EndMembers: []EndMember{sil, carb},
 		Tracers:    []Tracer{CaNa, MgNa, KNa},
 		Waters:     []Water{{Name: "item 8, corrected", Conc: cr.Residual, Sr87Sr86: math.NaN()}},
-	}, &Options{Draws: 200, Seed: 1, Workers: 1})
+	}, &Options{Draws: 200, Seed: 1, Workers: 1, Precision: &exactData})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -21,12 +21,17 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 	res.Draws = make([]Split, n)
 	var clamped [NCations]int
 	var d forwardDraw
+	sCa, sMg := newSampler(rat.CaNa.prior()), newSampler(rat.MgNa.prior())
+	var sK sampler
+	if opt.KFromRatio {
+		sK = newSampler(rat.KNa.prior())
+	}
 	for k := range n {
-		ca := fwdNormal(rng, rat.CaNa)
-		mg := fwdNormal(rng, rat.MgNa)
+		ca := sCa.draw(uniform(rng))
+		mg := sMg.draw(uniform(rng))
 		kk := math.NaN()
 		if opt.KFromRatio {
-			kk = fwdNormal(rng, rat.KNa)
+			kk = sK.draw(uniform(rng))
 		}
 		if opt.Vary != nil {
 			ck := opt.Vary(k)
@@ -68,21 +73,6 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 			res.Hi[s][i] = fwdQuantileUnsorted(col, 0.975)
 		}
 	}
-}
-
-// fwdNormal draws from N(r.Value, r.Sigma) truncated at zero by
-// redrawing (common practice, no source); after 64 negative draws it
-// returns 0.
-func fwdNormal(rng *rand.Rand, r SilicateRatio) float64 {
-	if r.Sigma == 0 {
-		return r.Value
-	}
-	for range 64 {
-		if x := r.Value + r.Sigma*rng.NormFloat64(); x >= 0 {
-			return x
-		}
-	}
-	return 0
 }
 
 // fwdStdDev returns the sample standard deviation (n − 1), 0 for n < 2.

@@ -10,26 +10,27 @@ import (
 
 // ForwardSrNa returns the default silicate (Sr/Na)_sil: 1000 Sr/Na = 3 ± 1
 // for the global silicate end-member of Gaillardet et al. (1999), Chem.
-// Geol. 159, 3-30 (docs/methods.md §6.2; ± from memory, used as 1σ).
-func ForwardSrNa() SilicateRatio { return SilicateRatio{Value: 0.003, Sigma: 0.001} }
+// Geol. 159, 3-30 (docs/methods.md §6.2; ± from memory, read as the 95 %
+// range as everywhere).
+func ForwardSrNa() SilicateRatio { return SilicateRatio{Value: 0.003, Lo: 0.002, Hi: 0.004} }
 
 // SrSplit is the strontium of one sample by source, µmol/L, from the
 // optional Sr step of the forward model (docs/methods.md §6.1):
 //
-//	Sr_sil  = Na_sil × (Sr/Na)_sil
-//	Sr_carb = Sr − Sr_atm − Sr_sil      (set to 0 with a warning if negative)
+//	Sr_sil  = min(Na_sil × (Sr/Na)_sil, Sr*)   (capped, with a warning)
+//	Sr_carb = Sr* − Sr_sil
 //
 // Evaporite Sr is neglected (common practice, no source).
 type SrSplit struct {
 	Amount  [NSources]float64 // Sr from each source
 	Sigma   [NSources]float64 // 1σ from (Sr/Na)_sil, first order
-	Deficit float64           // amount by which Sr_carb was negative before it was set to 0
+	Deficit float64           // amount by which Na_sil × (Sr/Na)_sil exceeded Sr*: silicate Sr was capped at Sr*
 }
 
 // ForwardSr apportions the Sr of a corrected sample, given Na_sil from a
 // forward result and the silicate (Sr/Na)_sil; the uncertainty is
 // propagated to first order. It returns an error when Sr was not measured
-// or the ratio is invalid, and warnings for a clamped carbonate share.
+// or the ratio is invalid, and a warning when silicate Sr was capped.
 func ForwardSr(c *correct.Result, f *ForwardResult, srNa SilicateRatio) (SrSplit, []error, error) {
 	var s SrSplit
 	if c == nil || f == nil {
@@ -38,23 +39,24 @@ func ForwardSr(c *correct.Result, f *ForwardResult, srNa SilicateRatio) (SrSplit
 	if math.IsNaN(c.Residual[chem.Sr]) {
 		return s, nil, fmt.Errorf("%w: Sr not measured", ErrForwardInput)
 	}
-	if !(srNa.Value >= 0) || math.IsInf(srNa.Value, 0) || !(srNa.Sigma >= 0) || math.IsInf(srNa.Sigma, 0) {
-		return s, nil, fmt.Errorf("%w: silicate Sr/Na = %g ± %g, want finite and >= 0", ErrForwardInput, srNa.Value, srNa.Sigma)
+	if err := srNa.check(); err != nil {
+		return s, nil, fmt.Errorf("%w: silicate Sr/Na: %v", ErrForwardInput, err)
 	}
 	na := math.Max(f.Split[Silicate][fwdNa], 0) // no negative silicate Sr from a kept negative Na*
 	s.Amount[Atmosphere] = c.Atm[chem.Sr]
 	s.Amount[Evaporite] = c.Evap[chem.Sr]
-	s.Amount[Silicate] = na * srNa.Value
-	s.Sigma[Silicate] = na * srNa.Sigma
-	s.Sigma[Carbonate] = na * srNa.Sigma
-	carb := c.Residual[chem.Sr] - s.Amount[Silicate]
+	sil, have := na*srNa.Value, math.Max(c.Residual[chem.Sr], 0)
 	var warn []error
-	if carb < 0 {
-		s.Deficit = -carb
-		carb = 0
-		warn = append(warn, fmt.Errorf("%w: Sr_carb = −%.4g µmol/L", ErrCarbonateDeficit, s.Deficit))
+	if sil > have {
+		s.Deficit = sil - have
+		sil = have
+		warn = append(warn, fmt.Errorf("%w: Sr_sil by %.4g µmol/L", ErrSilicateCapped, s.Deficit))
+	} else {
+		s.Sigma[Silicate] = na * srNa.Sigma()
+		s.Sigma[Carbonate] = na * srNa.Sigma()
 	}
-	s.Amount[Carbonate] = carb
+	s.Amount[Silicate] = sil
+	s.Amount[Carbonate] = have - sil
 	return s, warn, nil
 }
 

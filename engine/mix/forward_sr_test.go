@@ -41,13 +41,14 @@ func TestForwardSr(t *testing.T) {
 		chem.Na: 125.7736, chem.K: 20.56099, chem.Ca: 435.56508, chem.Mg: 106.90273, chem.Cl: 30, chem.SO4: 1.551756,
 	}
 	tests := []struct {
-		name        string
-		sr          float64
-		carb, defic float64
-		warn        bool
+		name             string
+		sr               float64
+		sil, carb, defic float64
+		warn             bool
 	}{
-		{"carbonate Sr 1.2", 1.5049844, 1.2, 0, false},
-		{"Sr below silicate share", 0.2049844, 0, 0.1, true},
+		{"carbonate Sr 1.2", 1.5049844, 0.3, 1.2, 0, false},
+		// Sr* = 0.2 below the silicate share 0.3: silicate capped at 0.2.
+		{"Sr below silicate share", 0.2049844, 0.2, 0, 0.1, true},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -65,14 +66,15 @@ func TestForwardSr(t *testing.T) {
 				t.Fatal(err)
 			}
 			const tol = 1e-6
-			if math.Abs(s.Amount[Atmosphere]-0.0049844) > tol || math.Abs(s.Amount[Silicate]-0.3) > tol ||
+			if math.Abs(s.Amount[Atmosphere]-0.0049844) > tol || math.Abs(s.Amount[Silicate]-tc.sil) > tol ||
 				math.Abs(s.Amount[Carbonate]-tc.carb) > tol || math.Abs(s.Deficit-tc.defic) > tol {
-				t.Errorf("got %+v; want atm 0.0049844, sil 0.3, carb %g, deficit %g", s, tc.carb, tc.defic)
+				t.Errorf("got %+v; want atm 0.0049844, sil %g, carb %g, deficit %g", s, tc.sil, tc.carb, tc.defic)
 			}
-			if math.Abs(s.Sigma[Silicate]-0.1) > tol {
-				t.Errorf("σ Sr_sil: got %g, want 100 × 0.001 = 0.1", s.Sigma[Silicate])
+			// 1000 Sr/Na = 3 ± 1 read as a 95 % log-normal range.
+			if want := 100 * 0.003 * math.Log(2) / (2 * z975); tc.defic == 0 && math.Abs(s.Sigma[Silicate]-want) > tol {
+				t.Errorf("σ Sr_sil: got %g, want %g", s.Sigma[Silicate], want)
 			}
-			if got := len(warn) > 0 && errors.Is(warn[0], ErrCarbonateDeficit); got != tc.warn {
+			if got := len(warn) > 0 && errors.Is(warn[0], ErrSilicateCapped); got != tc.warn {
 				t.Errorf("deficit warning: got %v, want %v", warn, tc.warn)
 			}
 		})

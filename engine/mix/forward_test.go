@@ -40,11 +40,11 @@ func fwdHas(ws []error, target error) bool {
 
 // exact is a silicate end-member without uncertainty.
 func exact(ca, mg float64) *SilicateRatios {
-	return &SilicateRatios{CaNa: SilicateRatio{Value: ca}, MgNa: SilicateRatio{Value: mg}, KNa: SilicateRatio{Value: math.NaN()}}
+	return &SilicateRatios{CaNa: Exact(ca), MgNa: Exact(mg), KNa: SilicateRatio{Value: math.NaN()}}
 }
 
 func TestForwardMixedSample(t *testing.T) {
-	// docs/methods.md §13 item 8: Cl 30 of sea salt (Millero et al. 2008) +
+	// Methods brief §13 item 8: Cl 30 of sea salt (Millero et al. 2008) +
 	// Na_sil 100, K_sil 20, Ca_sil 35, Mg_sil 24 + Ca_carb 400, Mg_carb 80;
 	// with (Ca/Na)_sil 0.35 and (Mg/Na)_sil 0.24 the parts are recovered to
 	// 1e-4.
@@ -83,7 +83,7 @@ func TestForwardMixedSample(t *testing.T) {
 					t.Errorf("misfit %s: got %g, want 0", Cations[i], m)
 				}
 			}
-			if fwdHas(res.Warnings, ErrCarbonateDeficit) || fwdHas(res.Warnings, ErrMassBalance) {
+			if fwdHas(res.Warnings, ErrSilicateCapped) || fwdHas(res.Warnings, ErrMassBalance) {
 				t.Errorf("unexpected warnings %v", res.Warnings)
 			}
 		})
@@ -91,10 +91,11 @@ func TestForwardMixedSample(t *testing.T) {
 }
 
 func TestForwardEndMemberWaters(t *testing.T) {
-	// docs/methods.md §13 items 6 and 7: water from calcite dissolution is all
-	// carbonate; water from albite weathering to kaolinite is all silicate,
-	// and with the default (Ca/Na)_sil 0.35 (Gaillardet et al. 1999) its
-	// Ca_carb is clamped to 0 with a warning.
+	// Methods brief §13 items 6 and 7 (corrected): water from calcite
+	// dissolution is all carbonate; water from albite weathering to
+	// kaolinite is all silicate, and with the default (Ca/Na)_sil 0.35
+	// (Gaillardet et al. 1999) its silicate Ca and Mg are capped at the
+	// measured Ca* = Mg* = 0 (never invented), with a warning.
 	calcite := fwdSample(map[chem.Species]float64{chem.Ca: 1000, chem.Alk: 2000, chem.Na: 0, chem.K: 0, chem.Mg: 0, chem.Cl: 0, chem.SO4: 0})
 	albite := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.Alk: 100, chem.SiO2: 200, chem.K: 0, chem.Ca: 0, chem.Mg: 0, chem.Cl: 0, chem.SO4: 0})
 	tests := []struct {
@@ -107,7 +108,7 @@ func TestForwardEndMemberWaters(t *testing.T) {
 	}{
 		{"calcite", calcite, nil, [NCations]float64{}, [NCations]float64{0, 0, 1000, 0}, [NCations]float64{}, false},
 		{"albite, zero silicate Ca/Na and Mg/Na", albite, exact(0, 0), [NCations]float64{100, 0, 0, 0}, [NCations]float64{}, [NCations]float64{}, false},
-		{"albite, default ratios", albite, nil, [NCations]float64{100, 0, 35, 24}, [NCations]float64{}, [NCations]float64{0, 0, 35, 24}, true},
+		{"albite, default ratios", albite, nil, [NCations]float64{100, 0, 0, 0}, [NCations]float64{}, [NCations]float64{0, 0, 35, 24}, true},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -119,7 +120,7 @@ func TestForwardEndMemberWaters(t *testing.T) {
 				t.Errorf("silicate %v, carbonate %v, deficit %v; want %v, %v, %v",
 					res.Split[Silicate], res.Split[Carbonate], res.Deficit, tc.sil, tc.carb, tc.deficit)
 			}
-			if got := fwdHas(res.Warnings, ErrCarbonateDeficit); got != tc.wantDeficit {
+			if got := fwdHas(res.Warnings, ErrSilicateCapped); got != tc.wantDeficit {
 				t.Errorf("carbonate-deficit warning: got %v, want %v (%v)", got, tc.wantDeficit, res.Warnings)
 			}
 		})
@@ -128,16 +129,18 @@ func TestForwardEndMemberWaters(t *testing.T) {
 
 func TestForwardFirstOrder(t *testing.T) {
 	// First-order propagation (JCGM 100:2008 GUM): σ(Ca_sil) = Na_sil
-	// σ(Ca/Na) = 100 × 0.15 = 15, σ(Mg_sil) = 100 × 0.12 = 12 with the
-	// default ratios; the carbonate shares carry the same σ.
+	// σ(Ca/Na), with σ(Ca/Na) = 0.35 ln(0.50/0.20)/3.92 for the default
+	// 0.35 ± 0.15 read as a 95 % log-normal range (docs/methods.md §7.3
+	// revised), and likewise Mg; the carbonate shares carry the same σ.
 	c := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 500, chem.Mg: 200, chem.Cl: 0, chem.SO4: 0})
 	res, err := Forward(fwdCorrect(t, c, nil), nil)
 	if err != nil {
 		t.Fatal(err)
 	}
 	want := Split{}
-	want[Silicate][2], want[Carbonate][2] = 15, 15
-	want[Silicate][3], want[Carbonate][3] = 12, 12
+	sCa, sMg := 100*0.35*math.Log(0.5/0.2)/(2*z975), 100*0.24*math.Log(0.36/0.12)/(2*z975)
+	want[Silicate][2], want[Carbonate][2] = sCa, sCa
+	want[Silicate][3], want[Carbonate][3] = sMg, sMg
 	for s := range want {
 		for i := range want[s] {
 			if math.Abs(res.Sigma[s][i]-want[s][i]) > 1e-12 {
@@ -154,10 +157,11 @@ func TestForwardFirstOrder(t *testing.T) {
 }
 
 func TestForwardMonteCarlo(t *testing.T) {
-	// With Ca and Mg far above the silicate share, nothing is clamped and
-	// the draws reproduce the normal ratio spread: sd 15 and 12, 95 %
-	// interval mean ± 1.96 sd (common practice; the truncation at 0 lies
-	// 2.3 sd from 0.35 ± 0.15 and moves the sd by under 3 %).
+	// With Ca and Mg far above the silicate share, nothing is capped and
+	// the draws reproduce the log-normal ratio spread (median 0.35, σ of ln
+	// s = ln(0.5/0.2)/3.92): sd of Ca_sil 35 sqrt((e^s² − 1) e^s²) = 8.525,
+	// 97.5 % quantile 35 e^(1.96 s) = 55.34 (common practice, computed);
+	// Mg likewise with s = ln 3/3.92: sd 7.136.
 	c := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.K: 10, chem.Ca: 500, chem.Mg: 200, chem.Cl: 0, chem.SO4: 0})
 	cr := fwdCorrect(t, c, nil)
 	opt := &ForwardOptions{Draws: 20000, Seed: 42}
@@ -170,10 +174,10 @@ func TestForwardMonteCarlo(t *testing.T) {
 		got, want float64
 		tol       float64
 	}{
-		{"σ Ca_sil", res.Sigma[Silicate][2], 15, 0.05 * 15},
-		{"σ Mg_carb", res.Sigma[Carbonate][3], 12, 0.07 * 12},
-		{"Ca_sil 97.5 %", res.Hi[Silicate][2], 35 + 1.96*15, 1.5},
-		{"Ca_carb 2.5 %", res.Lo[Carbonate][2], 465 - 1.96*15, 1.5},
+		{"σ Ca_sil", res.Sigma[Silicate][2], 8.525, 0.03 * 8.525},
+		{"σ Mg_carb", res.Sigma[Carbonate][3], 7.136, 0.03 * 7.136},
+		{"Ca_sil 97.5 %", res.Hi[Silicate][2], 55.34, 1},
+		{"Ca_carb 2.5 %", res.Lo[Carbonate][2], 500 - 55.34, 1},
 		{"σ Na_sil (exact)", res.Sigma[Silicate][0], 0, 0},
 		{"clamped Ca share", res.Clamped[2], 0, 0},
 	}
@@ -202,7 +206,7 @@ func TestForwardMonteCarlo(t *testing.T) {
 	})
 	t.Run("clamp share", func(t *testing.T) {
 		// Ca* equal to the central Ca_sil 35: about half of the draws need
-		// the clamp (the ratio distribution is symmetric about 0.35).
+		// the cap (0.35 is the median of the ratio).
 		c := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.K: 0, chem.Ca: 35, chem.Mg: 500, chem.Cl: 0, chem.SO4: 0})
 		res, err := Forward(fwdCorrect(t, c, nil), &ForwardOptions{Draws: 4000, Seed: 1})
 		if err != nil {
@@ -211,8 +215,8 @@ func TestForwardMonteCarlo(t *testing.T) {
 		if math.Abs(res.Clamped[2]-0.5) > 0.05 {
 			t.Errorf("clamped Ca share: got %g, want 0.5 ± 0.05", res.Clamped[2])
 		}
-		if !fwdHas(res.Warnings, ErrCarbonateDeficit) {
-			t.Errorf("warnings %v: want ErrCarbonateDeficit for the clamped draws", res.Warnings)
+		if !fwdHas(res.Warnings, ErrSilicateCapped) {
+			t.Errorf("warnings %v: want ErrSilicateCapped for the clamped draws", res.Warnings)
 		}
 	})
 }
@@ -224,7 +228,7 @@ func TestForwardPotassium(t *testing.T) {
 	c := fwdSample(map[chem.Species]float64{chem.Na: 100, chem.K: 30, chem.Ca: 500, chem.Mg: 200, chem.Cl: 0, chem.SO4: 0})
 	cr := fwdCorrect(t, c, nil)
 	rat := ForwardSilicate()
-	rat.KNa = SilicateRatio{Value: 0.1, Sigma: 0.02}
+	rat.KNa = SilicateRatio{Value: 0.1, Lo: 0.07, Hi: 0.14} // σ 0.1 ln 2/3.92
 	tests := []struct {
 		name                string
 		opt                 ForwardOptions
@@ -232,7 +236,7 @@ func TestForwardPotassium(t *testing.T) {
 		warn                bool
 	}{
 		{"all silicate", ForwardOptions{}, 30, 0, 0, false},
-		{"from K/Na", ForwardOptions{Silicate: &rat, KFromRatio: true}, 10, 20, 2, true},
+		{"from K/Na", ForwardOptions{Silicate: &rat, KFromRatio: true}, 10, 20, 100 * 0.1 * math.Log(2) / (2 * z975), true},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -258,7 +262,7 @@ func TestForwardPotassium(t *testing.T) {
 }
 
 func TestForwardMassBalance(t *testing.T) {
-	// The sources plus Unassigned minus Deficit add up to the measured value;
+	// The sources plus Unassigned add up to the measured value;
 	// where the correction set a negative residual to zero, the difference
 	// shows as Misfit with a warning (never silently).
 	t.Run("human input", func(t *testing.T) {
@@ -297,7 +301,7 @@ func TestForwardErrors(t *testing.T) {
 	neg := ForwardSilicate()
 	neg.CaNa.Value = -0.1
 	nanSigma := ForwardSilicate()
-	nanSigma.MgNa.Sigma = math.NaN()
+	nanSigma.MgNa.Lo = math.NaN()
 	tests := []struct {
 		name string
 		c    *correct.Result

@@ -12,7 +12,7 @@ type Dist int
 const (
 	Fixed      Dist = iota // the ratio is Value, exactly
 	LogUniform             // log-uniform between Lo and Hi
-	LogNormal              // log-normal with median Value; [Lo, Hi] is its central 95 % range
+	LogNormal              // log-normal with median Value and σ of ln = ln(Hi/Lo)/3.92: [Lo, Hi] read as a 95 % range
 )
 
 var distNames = [...]string{"fixed", "log-uniform", "log-normal"}
@@ -30,19 +30,38 @@ const z975 = 1.959963984540054
 
 // Prior is the prior distribution of one end-member ratio: a central value
 // and a range. Ratios are positive and span decades, so the random shapes
-// are logarithmic (docs/methods.md §7.2). The zero Prior is a fixed ratio of 0.
+// are logarithmic (docs/methods.md §7.3). The zero Prior is a fixed ratio of 0.
+//
+// A published "central value ± range" is read one way everywhere (methods
+// brief §7.3, revised): the range is the prior's 95 % interval, log-normal
+// with its median at the central value and σ of ln = ln(Hi/Lo)/3.92
+// (Within). Where the source states the ± is one standard deviation, use
+// OneSigma. When the central value is the geometric mean of Lo and Hi, Lo
+// and Hi are exactly the 2.5 % and 97.5 % quantiles; otherwise the interval
+// keeps the width and moves with the median.
 type Prior struct {
 	Dist  Dist
 	Value float64 // central value: the fixed ratio, the log-normal median, the value the forward model uses
-	Lo    float64 // lower end of the range (LogUniform: hard bound; LogNormal: 2.5 % quantile)
-	Hi    float64 // upper end of the range (LogUniform: hard bound; LogNormal: 97.5 % quantile)
+	Lo    float64 // lower end of the range (LogUniform: hard bound; LogNormal: the 95 % range, with Hi)
+	Hi    float64 // upper end of the range (LogUniform: hard bound; LogNormal: the 95 % range, with Lo)
 }
 
 // FixedRatio returns a prior that always gives v.
 func FixedRatio(v float64) Prior { return Prior{Dist: Fixed, Value: v, Lo: v, Hi: v} }
 
-// Range returns a log-uniform prior on [lo, hi] with central value v.
+// Range returns a log-uniform prior on [lo, hi] with central value v: hard
+// bounds, for a user who means them. Published ranges take Within.
 func Range(lo, v, hi float64) Prior { return Prior{Dist: LogUniform, Value: v, Lo: lo, Hi: hi} }
+
+// Within returns the reading of a published central value v with a range
+// [lo, hi]: log-normal with median v and σ of ln = ln(hi/lo)/3.92, the
+// range taken as the 95 % interval (docs/methods.md §7.3).
+func Within(lo, v, hi float64) Prior { return Prior{Dist: LogNormal, Value: v, Lo: lo, Hi: hi} }
+
+// OneSigma returns the reading of a published v ± sd where the source says
+// sd is one standard deviation: log-normal with median v and σ of ln =
+// ln(1 + sd/v) (the relative spread, common practice).
+func OneSigma(v, sd float64) Prior { return Spread(v, plog(1+sd/v)) }
 
 // Spread returns a log-normal prior with median v whose log has standard
 // deviation rel (so rel = 0.01 is a 1 % spread).
@@ -97,6 +116,35 @@ func newSampler(p Prior) sampler {
 		}
 	}
 	return s
+}
+
+// sigmaLn returns the σ of ln of a random prior (0 for a fixed one): for
+// a log-uniform prior, that of the uniform, (ln Hi − ln Lo)/√12.
+func (s *sampler) sigmaLn() float64 {
+	switch {
+	case s.constant:
+		return 0
+	case s.dist == LogUniform:
+		return s.b * 0.28867513459481287
+	}
+	return s.b
+}
+
+// latent maps a uniform u in (0, 1) to the prior's standard normal latent
+// eta = Φ⁻¹(u) and the log-ratio x. Every random prior is a function of a
+// standard normal eta: log-normal x = a + b eta, log-uniform x = a + b Φ(eta),
+// so the proposals of the inverse model are Gaussian in eta.
+func (s *sampler) latent(u float64) (eta, x float64) {
+	eta = normQuantile(u)
+	return eta, s.fromLatent(eta)
+}
+
+// fromLatent returns the log-ratio of the latent eta.
+func (s *sampler) fromLatent(eta float64) float64 {
+	if s.dist == LogUniform {
+		return s.a + float64(normCDF(eta)*s.b)
+	}
+	return s.a + float64(s.b*eta)
 }
 
 // draw maps a uniform u in (0, 1) to a prior draw.

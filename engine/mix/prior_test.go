@@ -167,7 +167,7 @@ func TestQuantilesAgainstSort(t *testing.T) {
 			for i := range w {
 				w[i] = 1
 			}
-			var idx []int
+			var idx []wpair
 			wi := weightedInterval(v, w, &idx)
 			at := func(p float64) float64 { return s[max(0, int(math.Ceil(p*float64(n)-1e-9))-1)] }
 			if wi.Lo != at(0.025) || wi.Median != at(0.5) || wi.Hi != at(0.975) {
@@ -182,7 +182,7 @@ func TestStatusTable(t *testing.T) {
 		if s.String() == "unknown status" {
 			t.Errorf("%d has no name", s)
 		}
-		if (s.Err() == nil) != (s == Success) {
+		if (s.Err() == nil) != (s == Fits || s == Rule) {
 			t.Errorf("%v: Err() = %v", s, s.Err())
 		}
 	}

@@ -4,64 +4,107 @@ import (
 	"fmt"
 	"math"
 
-	"gonum.org/v1/gonum/mat"
 	"lixiv/engine/chem"
+	"lixiv/engine/correct"
 )
 
 // Water is one water sample as the inverse model sees it.
 type Water struct {
-	Name     string
-	Conc     chem.Composition // µmol/L (Alk µeq/L), NaN where not measured
-	Sr87Sr86 float64          // 87Sr/86Sr; NaN when not measured
+	Name string
+	// Conc holds the concentrations the model fits, µmol/L (Alk µeq/L),
+	// NaN where not measured: raw river chemistry when rain is among the
+	// end-members, or chemistry corrected elsewhere. It is not read when
+	// Correction is set.
+	Conc chem.Composition
+	// Sr87Sr86 is the water's measured 87Sr/86Sr; NaN when not measured.
+	Sr87Sr86 float64
+	// Correction, when set, is the rain and evaporite correction of the
+	// water's measured chemistry (correct.Apply). The model then fits the
+	// corrected concentrations (before any negative policy: a residual
+	// below zero is data too), propagates to them the analytical precision
+	// of the measured concentrations and the spread of the correction's
+	// inputs (Options.Rain), with the covariance the shared Cl brings, and
+	// books what the correction removed to the atmosphere and evaporite
+	// sources, draw by draw.
+	Correction *correct.Result
+	// Precision, when set, replaces Options.Precision for this water (for
+	// example from columns of the sample table).
+	Precision *correct.Precision
 }
 
 // Problem is what the inverse model is asked: which end-members mix, which
 // tracers constrain them, and the waters to apportion. The waters may be
-// raw river chemistry, with rain among the end-members, or chemistry already
+// raw river chemistry, with rain among the end-members, or chemistry
 // corrected for atmospheric (and evaporite) input, without them; see
 // DefaultEndMembers.
+//
+// An evaporite end-member takes part only where a tracer can see it: with
+// the Cl/Na tracer, for a water that has a Cl value to fit. Without it, its
+// ratios to Na (low Ca/Na, Mg/Na and HCO3/Na) cannot be told from a
+// silicate end-member mixed with a little carbonate, and the split between
+// them would be the priors' (docs/methods.md §7.9). When it takes part
+// for a corrected water, the halite the correction took from Cl above Cl*
+// is left in the data for it to fit.
 type Problem struct {
 	EndMembers []EndMember
 	Tracers    []Tracer
 	Waters     []Water
 }
 
-// Scoring chooses how draws are judged against the data.
-type Scoring int
-
-// The scorings (docs/methods.md §7.3 step 4).
+// Defaults of the analytical precision (common practice, no source:
+// 2-5 % relative for major ions by ion chromatography or ICP, with a floor
+// near the detection limit; docs/methods.md §7.2).
 const (
-	// Accept keeps a draw when its chi-square misfit is within the 95 %
-	// quantile of the chi-square distribution with nu = tracers + 1 -
-	// end-members degrees of freedom (nu taken as 1 when it is 0 or less,
-	// so an exactly determined sample must lie within about two standard
-	// errors of the end-member simplex).
-	Accept Scoring = iota
-	// Weight keeps every draw with weight exp(-chi2/2) (importance
-	// weighting of prior draws).
-	Weight
+	DefaultRelPrecision = 0.03  // relative 1σ of every measured concentration
+	DefaultFloor        = 0.5   // µmol/L: smallest 1σ of Na, K, Ca, Mg, Cl, SO4
+	DefaultAlkFloor     = 5     // µeq/L: smallest 1σ of alkalinity (and µmol/L of HCO3)
+	DefaultSrFloor      = 0.001 // µmol/L: smallest 1σ of Sr
+	DefaultIsoPrecision = 2e-5  // 1σ of 87Sr/86Sr
 )
+
+// DefaultPrecision returns the default analytical precision: 3 % relative
+// with the floors above.
+func DefaultPrecision() correct.Precision {
+	p := correct.UniformPrecision(DefaultRelPrecision, DefaultFloor, DefaultSrFloor)
+	p.Floor[chem.Alk], p.Floor[chem.HCO3] = DefaultAlkFloor, DefaultAlkFloor
+	return p
+}
 
 // Options tune an inversion. The zero value means the documented defaults.
 type Options struct {
-	Draws       int                    // number of Monte Carlo draws; 0 means 10,000 (docs/methods.md §7.3)
-	Seed        uint64                 // seed of the PCG generator; stored with the budget
-	Scoring     Scoring                // Accept (default) or Weight
-	RelErr      [chem.NSpecies]float64 // analytical 1σ relative error by species; 0 means 0.03 (docs/methods.md §8.6, common practice)
-	FloorErr    float64                // smallest 1σ of a concentration, µmol/L; 0 means 0.01 (assumption)
-	IsoErr      float64                // analytical 1σ of 87Sr/86Sr; 0 means 2e-5 (docs/methods.md §8.6, common practice)
-	MinAccepted int                    // fewer kept draws than this give FewAccepted; 0 means min(100, Draws/10)
-	Perturb     bool                   // also draw the measured ratios from their analytical errors, per sample and draw (docs/methods.md §7.3 step 1)
-	Workers     int                    // goroutines for Invert; 0 means GOMAXPROCS
-	Progress    func(done, total int)  // called with sample-draws done so far; never concurrently
-	// Vary, when set, gives the concentrations of water s under draw d
-	// (the water's Conc redone with that draw's rain correction, say):
-	// each draw is then fitted to its own data, and the amounts of each
-	// source follow that draw's concentrations. It returns false to drop
-	// the draw. It is called for different samples at once and must give
-	// the same numbers for the same s and d on every call. nil means Conc
-	// for every draw.
-	Vary func(s, d int) (chem.Composition, bool)
+	// Draws is the number of prior draws of the first stage, shared by all
+	// samples; 0 means 400.
+	Draws int
+	// TargetESS is the effective sample size at which a sample's
+	// refinement stops; 0 means 1000.
+	TargetESS int
+	// MaxDraws caps the draws of one sample over all stages; 0 means 20
+	// times TargetESS (and never fewer than Draws).
+	MaxDraws int
+	// Seed seeds the PCG generators; stored with the budget.
+	Seed uint64
+	// Precision is the analytical precision of the measured
+	// concentrations; nil means DefaultPrecision().
+	Precision *correct.Precision
+	// IsoErr is the analytical 1σ of 87Sr/86Sr; 0 means DefaultIsoPrecision.
+	IsoErr float64
+	// Rain is the relative spread of the correction's inputs (X/Cl ratios
+	// of rain, evapotranspiration factor) propagated for waters with a
+	// Correction. ScaleCl says Cl* comes from measured rain, so that the
+	// factor's spread moves it.
+	Rain    correct.Uncertainty
+	ScaleCl bool
+	// Workers is the number of goroutines for Invert; 0 means GOMAXPROCS.
+	Workers int
+	// Progress is called with the work done so far and the work expected
+	// (in draws), never concurrently.
+	Progress func(done, total int)
+
+	// perturb selects the other sampler of the calibration study: the
+	// amounts solved by non-negative least squares for data perturbed by
+	// their errors, the ratios weighted by the constrained misfit
+	// (noVolume drops the Gaussian volume term ½ log det ÃᵀÃ from it).
+	perturb, noVolume bool
 }
 
 func (o *Options) withDefaults() Options {
@@ -70,57 +113,31 @@ func (o *Options) withDefaults() Options {
 		d = *o
 	}
 	if d.Draws <= 0 {
-		d.Draws = 10000
+		d.Draws = 400
 	}
-	for i, v := range d.RelErr {
-		if v <= 0 {
-			d.RelErr[i] = 0.03
-		}
+	if d.TargetESS <= 0 {
+		d.TargetESS = 1000
 	}
-	if d.FloorErr <= 0 {
-		d.FloorErr = 0.01
+	if d.MaxDraws <= 0 {
+		d.MaxDraws = 20 * d.TargetESS
+	}
+	d.MaxDraws = max(d.MaxDraws, d.Draws)
+	if d.Precision == nil {
+		p := DefaultPrecision()
+		d.Precision = &p
 	}
 	if d.IsoErr <= 0 {
-		d.IsoErr = 2e-5
-	}
-	if d.MinAccepted <= 0 {
-		d.MinAccepted = min(100, max(1, d.Draws/10))
+		d.IsoErr = DefaultIsoPrecision
 	}
 	return d
 }
 
-// chi2q95 holds the 95 % quantiles of the chi-square distribution for 1 to
-// 8 degrees of freedom (standard table values, checked against gonum's
-// distuv.ChiSquared in the tests). Fixed constants keep acceptance
-// bit-identical across targets.
-var chi2q95 = [...]float64{0, 3.841458820694124, 5.991464547107979, 7.814727903251178,
-	9.487729036781154, 11.070497693516351, 12.591587243743977, 14.067140449340169, 15.507313055865453}
+// seaSr87Sr86 is the 87Sr/86Sr of marine aerosol taken for the Sr the rain
+// correction removes: seawater 0.709175 (McArthur, Howarth & Bailey 2001,
+// J. Geol. 109; from memory, docs/methods.md §4.2).
+const seaSr87Sr86 = 0.709175
 
-// rowSpec is one ratio row for the kernels: its offset in a draw's block of
-// the (reduced) table, its weight and its measured ratio.
-type rowSpec struct {
-	off  int
-	w, d float64
-}
-
-// prep is what one water contributes to the per-draw solve.
-type prep struct {
-	skip     bool
-	na       float64
-	m        int               // rows in use
-	par      [NTracers]int     // tracer of each row
-	w        [NTracers]float64 // weight 1/σ² of each row
-	d        [NTracers]float64 // measured ratio (0 for the isotope row)
-	iso      int               // row of 87Sr/86Sr (always the last), or -1
-	riso     float64           // measured 87Sr/86Sr
-	meas     [NCations]float64 // measured cations, NaN if missing
-	thresh   float64           // chi-square acceptance threshold
-	c        float64           // sum of w d² over the rows, the misfit of a = 0
-	rows     []rowSpec         // the ratio rows (not the isotope row), for the kernels
-	warnings []error
-}
-
-func (p *Problem) validate() error {
+func (p *Problem) validate(o *Options) error {
 	n := len(p.EndMembers)
 	if n < 1 || n > MaxEndMembers {
 		return fmt.Errorf("mix: %d end-members; want 1 to %d", n, MaxEndMembers)
@@ -146,156 +163,308 @@ func (p *Problem) validate() error {
 	if seen[Sr87Sr86] {
 		for i := range p.EndMembers {
 			e := &p.EndMembers[i]
-			if e.Ratio[Sr87Sr86].Value <= 0 {
-				return fmt.Errorf("mix: end-member %q has no 87Sr/86Sr, needed by the tracer", e.Name)
+			if e.Ratio[Sr87Sr86].Value <= 0 || e.Ratio[SrNa].Value <= 0 {
+				return fmt.Errorf("mix: end-member %q needs Sr/Na and 87Sr/86Sr for the isotope tracer", e.Name)
+			}
+		}
+	}
+	if err := o.Precision.Check(); err != nil {
+		return fmt.Errorf("mix: %w", err)
+	}
+	if err := o.Rain.Check(); err != nil {
+		return fmt.Errorf("mix: %w", err)
+	}
+	for _, w := range p.Waters {
+		if w.Precision != nil {
+			if err := w.Precision.Check(); err != nil {
+				return fmt.Errorf("mix: sample %q: %w", w.Name, err)
 			}
 		}
 	}
 	return nil
 }
 
-// measured returns the measured value of the numerator of tracer t.
-func measured(c *chem.Composition, t Tracer) float64 {
+// MaxEndMembers is the largest number of end-members the inverse model
+// takes: the constrained solver enumerates the 2^n - 1 faces of the
+// non-negative orthant at worst.
+const MaxEndMembers = 6
+
+// maxRows is the largest number of data rows: Na and one per tracer.
+const maxRows = int(NTracers) + 1
+
+// affine is a datum to first order in a water's error sources (see
+// correct.Affine); g has one entry per source.
+type affine struct {
+	v float64
+	g []float64
+}
+
+func (a *affine) at(z []float64) float64 {
+	v := a.v
+	for i, g := range a.g {
+		v += float64(g * z[i])
+	}
+	return v
+}
+
+// setup is what one water contributes to every draw: its data rows with
+// their error model, whitened, and the amounts the split is made of.
+type setup struct {
+	skip   bool
+	naFree bool  // Na* <= 0: where the fit fails, the Na-free rule answers
+	act    []int // end-members taking part, in order
+	k      int   // len(act)
+
+	r      int              // data rows: row 0 is Na, then one per tracer
+	tr     [maxRows]Tracer  // tracer of each row (row 0: -1)
+	iso    int              // row of the Sr-weighted isotope datum, or -1
+	y      [maxRows]float64 // the data
+	sd     [maxRows]float64 // their marginal 1σ
+	linv   [maxRows][maxRows]float64
+	yt     [maxRows]float64  // whitened data L⁻¹ y
+	yy     float64           // |yt|²
+	q      int               // error sources
+	m      []float64         // whitened error gradients L⁻¹ G, r × q
+	x      [NCations]affine  // corrected concentration of each cation (the data)
+	in     [NCations]float64 // measured concentration of each cation, which the split adds up to
+	has    [NCations]bool    // the cation is measured
+	atm    [NCations]affine  // removed by the correction, booked to the atmosphere
+	evap   [NCations]affine  // removed by the correction, booked to evaporite
+	so4    affine            // sulfide-derived sulfate
+	dims   []int             // the run's latent dimensions that are this sample's (end-members taking part)
+	halite bool              // the correction's halite is left in the data
+
+	warnings []error
+}
+
+// rawLinear writes uncorrected concentrations in the form of a correction
+// that removes nothing, each measured species with its own error source.
+func rawLinear(c *chem.Composition, prec *correct.Precision, species []chem.Species) correct.Linear {
+	var l correct.Linear
+	idx := map[chem.Species]int{}
+	for _, s := range species {
+		if sd := prec.Sigma(s, c[s]); sd > 0 {
+			idx[s] = len(l.Sources)
+			l.Sources = append(l.Sources, correct.ErrorSource{Species: s, Kind: correct.Measured, Sigma: sd})
+		}
+	}
+	for s := range l.Input {
+		a := correct.Affine{Value: c[s]}
+		if i, ok := idx[chem.Species(s)]; ok {
+			a.Grad = make([]float64, len(l.Sources))
+			a.Grad[i] = l.Sources[i].Sigma
+		}
+		l.Input[s], l.Residual[s] = a, a
+	}
+	return l
+}
+
+// modelSpecies are the species a raw water's error model carries.
+var modelSpecies = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.Sr, chem.Alk, chem.HCO3}
+
+// numerator returns the species of tracer t's datum in c: alkalinity for
+// HCO3/Na when HCO3 is not given.
+func numerator(c *chem.Composition, t Tracer) chem.Species {
 	if t == HCO3Na && !c.Has(chem.HCO3) {
-		return c[chem.Alk]
+		return chem.Alk
 	}
-	return c[t.Species()]
+	return t.Species()
 }
 
-// fill sets the data rows of pr from the concentrations c: the measured
-// cations, Na, and for each tracer its measured ratio to Na and weight,
-// ratio rows first and the isotope row (if any) last, which the fast
-// kernels rely on. rows is reused for pr.rows. It returns false when Na is
-// missing or not positive; missing lists the tracers left out (bit t for
-// tracer t).
-func (p *Problem) fill(pr *prep, c *chem.Composition, sr87 float64, o *Options, rows []rowSpec) (ok bool, missing uint32) {
-	*pr = prep{iso: -1, rows: rows[:0]}
-	for i, sp := range Cations {
-		pr.meas[i] = c[sp]
+// prepare sets up water w for the run.
+func (r *Run) prepare(w *Water) setup {
+	var st setup
+	st.iso = -1
+	o := &r.opt
+	prec := o.Precision
+	if w.Precision != nil {
+		prec = w.Precision
 	}
-	na := c[chem.Na]
-	if math.IsNaN(na) || na <= 0 {
-		return false, 0
+	var lin correct.Linear
+	in := &w.Conc
+	if w.Correction != nil {
+		lin = w.Correction.Linearize(prec, o.Rain, o.ScaleCl)
+		in = &w.Correction.Input
+	} else {
+		lin = rawLinear(&w.Conc, prec, modelSpecies)
 	}
-	pr.na = na
-	sNa := math.Max(o.RelErr[chem.Na]*na, o.FloorErr)
-	iso := false
-	for _, t := range p.Tracers {
+	// End-members taking part: an evaporite end-member only where Cl/Na
+	// sees it.
+	clData := !math.IsNaN(lin.Residual[chem.Cl].Value)
+	for j := range r.prob.EndMembers {
+		e := &r.prob.EndMembers[j]
+		if e.Source == Evaporite && !(r.useTr[ClNa] && clData) {
+			st.warnings = append(st.warnings, fmt.Errorf("%w: %q of sample %q: without the Cl/Na tracer its Na cannot be told from silicate Na (halite is taken from Cl above Cl* by the rain correction)",
+				ErrNotSeen, e.Name, w.Name))
+			continue
+		}
+		if e.Source == Evaporite && w.Correction != nil {
+			st.halite = true
+		}
+		st.act = append(st.act, j)
+	}
+	st.k = len(st.act)
+	for i, d := range r.dims {
+		for _, j := range st.act {
+			if d.em == j {
+				st.dims = append(st.dims, i)
+			}
+		}
+	}
+	// The data: corrected values, with the halite left in them when an
+	// evaporite end-member fits it.
+	data := func(s chem.Species) correct.Affine {
+		a := lin.Residual[s]
+		if st.halite && (s == chem.Na || s == chem.Cl) && lin.Halite.Grad != nil {
+			a = sumAffine(a, lin.Halite, 1)
+		}
+		return a
+	}
+	na := data(chem.Na)
+	if math.IsNaN(na.Value) {
+		st.skip = true
+		st.warnings = append(st.warnings, fmt.Errorf("%w: sample %q has no Na", ErrSkipped, w.Name))
+		return st
+	}
+	rows := []correct.Affine{na}
+	st.tr[0] = -1
+	for _, t := range r.prob.Tracers {
 		if t == Sr87Sr86 {
-			iso = true
 			continue
 		}
-		x := measured(c, t)
-		if math.IsNaN(x) || x < 0 {
-			missing |= 1 << t
+		a := data(numerator(in, t))
+		if math.IsNaN(a.Value) {
+			st.warnings = append(st.warnings, fmt.Errorf("%w: %s of sample %q is not measured; left out", ErrMissingTracer, t, w.Name))
 			continue
 		}
-		sp := t.Species()
-		if t == HCO3Na && !c.Has(chem.HCO3) {
-			sp = chem.Alk
-		}
-		sx := math.Max(o.RelErr[sp]*x, o.FloorErr)
-		rho := x / na
-		s := math.Sqrt((sx/na)*(sx/na) + (rho*sNa/na)*(rho*sNa/na))
-		pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(t), 1/(s*s), rho
-		pr.m++
+		st.tr[len(rows)] = t
+		rows = append(rows, a)
 	}
-	if iso {
-		x := c[chem.Sr]
-		if math.IsNaN(sr87) || math.IsNaN(x) || x <= 0 {
-			missing |= 1 << Sr87Sr86
+	q := len(lin.Sources)
+	if r.useTr[Sr87Sr86] {
+		sr, atm := lin.Input[chem.Sr], lin.Atm[chem.Sr]
+		if math.IsNaN(w.Sr87Sr86) || !(sr.Value > 0) {
+			st.warnings = append(st.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, Sr87Sr86, w.Name))
 		} else {
-			// Row sum_j a_j (Sr/Na)_j (R_j - R) = 0; its 1σ is (Sr/Na) σ_R.
-			s := x / na * o.IsoErr
-			pr.iso = pr.m
-			pr.riso = sr87
-			pr.par[pr.m], pr.w[pr.m], pr.d[pr.m] = int(Sr87Sr86), 1/(s*s), 0
-			pr.m++
+			// R* Sr* = R Sr − R_sea Sr_atm, with the isotope precision as
+			// one more error source.
+			a := sumAffine(correct.Affine{Value: 0}, sr, w.Sr87Sr86)
+			if atm.Value > 0 || atm.Grad != nil {
+				a = sumAffine(a, atm, -seaSr87Sr86)
+			}
+			a.Grad = append(append([]float64(nil), padded(a.Grad, q)...), sr.Value*o.IsoErr)
+			q++
+			st.iso = len(rows)
+			st.tr[st.iso] = Sr87Sr86
+			rows = append(rows, a)
 		}
 	}
-	n := len(p.EndMembers)
-	for k := 0; k < pr.m; k++ {
-		pr.c += pr.w[k] * pr.d[k] * pr.d[k]
-		if k != pr.iso {
-			pr.rows = append(pr.rows, rowSpec{off: pr.par[k] * n, w: pr.w[k], d: pr.d[k]})
+	st.r, st.q = len(rows), q
+	for i, a := range rows {
+		st.y[i] = a.Value
+	}
+	// Amounts: the corrected cations (with the halite in Na where it is
+	// fitted), and what the correction booked to the atmosphere and to
+	// evaporite.
+	for c, sp := range Cations {
+		x := data(sp)
+		st.x[c] = affine{x.Value, padded(x.Grad, q)}
+		st.in[c] = lin.Input[sp].Value
+		st.has[c] = !math.IsNaN(x.Value)
+		st.atm[c] = affine{lin.Atm[sp].Value, padded(lin.Atm[sp].Grad, q)}
+		ev := lin.Evap(sp)
+		if st.halite && sp == chem.Na {
+			ev = correct.Affine{}
+		}
+		st.evap[c] = affine{ev.Value, padded(ev.Grad, q)}
+	}
+	st.so4 = affine{lin.SO4Sulf.Value, padded(lin.SO4Sulf.Grad, q)}
+	st.naFree = !(na.Value > 0)
+	if st.r < st.k {
+		st.warnings = append(st.warnings, fmt.Errorf("%w: sample %q has %d data (Na and %d tracers) for %d end-members; the split follows the end-member ranges",
+			ErrUnderdetermined, w.Name, st.r, st.r-1, st.k))
+	}
+	// Covariance C = G Gᵀ of the rows, its Cholesky factor L, and the
+	// whitening L⁻¹ of the data and of the error gradients.
+	var cov [maxRows][maxRows]float64
+	for i := 0; i < st.r; i++ {
+		gi := padded(rows[i].Grad, q)
+		for j := 0; j <= i; j++ {
+			gj := padded(rows[j].Grad, q)
+			s := 0.0
+			for k := range gi {
+				s += gi[k] * gj[k]
+			}
+			cov[i][j] = s
+		}
+		st.sd[i] = math.Sqrt(cov[i][i])
+	}
+	var l [maxRows][maxRows]float64
+	for j := 0; j < st.r; j++ {
+		d := cov[j][j]
+		for p := 0; p < j; p++ {
+			d -= l[j][p] * l[j][p]
+		}
+		// A datum without error (a zero floor and a zero value) gets a
+		// tiny one, so that the whitening exists.
+		d = math.Max(d, 1e-18*(1+cov[j][j])+1e-30)
+		l[j][j] = math.Sqrt(d)
+		for i := j + 1; i < st.r; i++ {
+			s := cov[i][j]
+			for p := 0; p < j; p++ {
+				s -= l[i][p] * l[j][p]
+			}
+			l[i][j] = s / l[j][j]
 		}
 	}
-	return true, missing
+	for c := 0; c < st.r; c++ { // column c of L⁻¹
+		for i := c; i < st.r; i++ {
+			s := 0.0
+			if i == c {
+				s = 1
+			}
+			for p := c; p < i; p++ {
+				s -= l[i][p] * st.linv[p][c]
+			}
+			st.linv[i][c] = s / l[i][i]
+		}
+	}
+	st.m = make([]float64, st.r*q)
+	for i := 0; i < st.r; i++ {
+		yt := 0.0
+		for p := 0; p <= i; p++ {
+			yt += st.linv[i][p] * st.y[p]
+			gp := padded(rows[p].Grad, q)
+			for k := 0; k < q; k++ {
+				st.m[i*q+k] += st.linv[i][p] * gp[k]
+			}
+		}
+		st.yt[i] = yt
+		st.yy += yt * yt
+	}
+	return st
 }
 
-// prepare sets up the rows of one water and its warnings.
-func (p *Problem) prepare(w *Water, o *Options) prep {
-	var pr prep
-	ok, missing := p.fill(&pr, &w.Conc, w.Sr87Sr86, o, nil)
-	if !ok {
-		pr.skip = true
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has no Na > 0", ErrSkipped, w.Name))
-		return pr
+// padded returns g with zeros up to length q (nil g gives zeros).
+func padded(g []float64, q int) []float64 {
+	if len(g) >= q {
+		return g[:q]
 	}
-	for _, t := range p.Tracers {
-		if t != Sr87Sr86 && missing&(1<<t) != 0 {
-			pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q is missing or negative; left out", ErrMissingTracer, t, w.Name))
-		}
-	}
-	if missing&(1<<Sr87Sr86) != 0 {
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: %s of sample %q needs Sr and 87Sr/86Sr; left out", ErrMissingTracer, Sr87Sr86, w.Name))
-	}
-	n := len(p.EndMembers)
-	if pr.m == 0 {
-		pr.skip = true
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has none of the chosen tracers", ErrSkipped, w.Name))
-		return pr
-	}
-	nu := pr.m + 1 - n
-	pr.thresh = chi2q95[max(1, min(nu, len(chi2q95)-1))]
-	rank, cond := p.identifiable(&pr)
-	if pr.m < n-1 || rank < n {
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q has %d independent of %d equations for %d end-members; results follow the priors",
-			ErrUnderdetermined, w.Name, rank, pr.m+1, n))
-	} else if cond > 1e3 {
-		pr.warnings = append(pr.warnings, fmt.Errorf("%w: sample %q, condition number %.3g > 1e3 (docs/methods.md §7.4)", ErrIllConditioned, w.Name, cond))
-	}
-	return pr
+	out := make([]float64, q)
+	copy(out, g)
+	return out
 }
 
-// identifiable returns the rank and condition number of the mixing matrix
-// [E; 1] at the central end-member values, each row scaled to unit maximum
-// (docs/methods.md §7.4).
-func (p *Problem) identifiable(pr *prep) (rank int, cond float64) {
-	n := len(p.EndMembers)
-	a := mat.NewDense(pr.m+1, n, nil)
-	for k := 0; k < pr.m; k++ {
-		big := 0.0
-		for j := range p.EndMembers {
-			e := &p.EndMembers[j]
-			v := e.Ratio[pr.par[k]].Value
-			if k == pr.iso {
-				v = e.Ratio[SrNa].Value * (v - pr.riso)
-			}
-			a.Set(k, j, v)
-			big = math.Max(big, math.Abs(v))
-		}
-		if big > 0 {
-			for j := 0; j < n; j++ {
-				a.Set(k, j, a.At(k, j)/big)
-			}
+// sumAffine returns a + f b.
+func sumAffine(a, b correct.Affine, f float64) correct.Affine {
+	n := max(len(a.Grad), len(b.Grad))
+	out := correct.Affine{Value: a.Value + f*b.Value}
+	if n > 0 {
+		out.Grad = make([]float64, n)
+		copy(out.Grad, a.Grad)
+		for i, g := range b.Grad {
+			out.Grad[i] += f * g
 		}
 	}
-	for j := 0; j < n; j++ {
-		a.Set(pr.m, j, 1)
-	}
-	var svd mat.SVD
-	if !svd.Factorize(a, mat.SVDNone) {
-		return 0, math.Inf(1)
-	}
-	s := svd.Values(nil)
-	for _, v := range s {
-		if v > 1e-10*s[0] {
-			rank++
-		}
-	}
-	if rank < n {
-		return rank, math.Inf(1)
-	}
-	return rank, s[0] / s[n-1]
+	return out
 }

@@ -1,6 +1,7 @@
 package mix
 
 import (
+	"math"
 	"slices"
 
 	"lixiv/engine/internal/order"
@@ -60,41 +61,90 @@ func qindex(n int, p float64) (int, float64) {
 	return i, h - float64(i)
 }
 
-// weightedInterval returns weighted 2.5 %, 50 % and 97.5 % quantiles: the
-// smallest value whose cumulative weight reaches p of the total (common
-// practice). v is left unchanged; idx is working space.
-func weightedInterval(v, w []float64, idx *[]int) Interval {
+// weightedInterval returns weighted 2.5 %, 50 % and 97.5 % quantiles: for
+// each p the smallest value whose cumulative weight, in increasing order of
+// the values, reaches p of the total (common practice). v and w are left
+// unchanged; buf is working space. It selects rather than sorts, so it is
+// linear in len(v) on average.
+func weightedInterval(v, w []float64, buf *[]wpair) Interval {
 	n := len(v)
-	ix := slices.Grow((*idx)[:0], n)[:n]
-	for i := range ix {
-		ix[i] = i
+	ps := slices.Grow((*buf)[:0], n)[:n]
+	tot := 0.0
+	k := 0
+	for i := range v {
+		if w[i] > 0 {
+			ps[k] = wpair{v[i], w[i]}
+			tot += w[i]
+			k++
+		}
 	}
-	slices.SortStableFunc(ix, func(a, b int) int {
+	ps = ps[:k]
+	*buf = ps
+	if k == 0 {
+		return Interval{math.NaN(), math.NaN(), math.NaN()}
+	}
+	return Interval{wselect(ps, 0.025*tot), wselect(ps, 0.5*tot), wselect(ps, 0.975*tot)}
+}
+
+// wpair is a value with its weight.
+type wpair struct{ v, w float64 }
+
+// wselect returns the smallest value of ps whose cumulative weight, in
+// increasing order of the values, reaches target (the largest value when
+// rounding leaves the total short of it). It reorders ps: a weighted
+// quickselect with a three-way partition around the median of three.
+func wselect(ps []wpair, target float64) float64 {
+	lo, hi := 0, len(ps)
+	base := 0.0
+	for hi-lo > 12 {
+		a, b, c := ps[lo].v, ps[lo+(hi-lo)/2].v, ps[hi-1].v
+		p := max(min(a, b), min(max(a, b), c))
+		// [lo, lt) < p, [lt, gt) == p, [gt, hi) > p.
+		lt, i, gt := lo, lo, hi
+		wl, we := 0.0, 0.0
+		for i < gt {
+			switch x := ps[i]; {
+			case x.v < p:
+				ps[lt], ps[i] = ps[i], ps[lt]
+				wl += x.w
+				lt++
+				i++
+			case x.v > p:
+				gt--
+				ps[gt], ps[i] = ps[i], ps[gt]
+			default:
+				we += x.w
+				i++
+			}
+		}
 		switch {
-		case v[a] < v[b]:
+		case base+wl >= target:
+			hi = lt
+		case base+wl+we >= target:
+			return p
+		default:
+			base += wl + we
+			lo = gt
+		}
+	}
+	part := ps[lo:hi]
+	slices.SortFunc(part, func(a, b wpair) int {
+		switch {
+		case a.v < b.v:
 			return -1
-		case v[a] > v[b]:
+		case a.v > b.v:
 			return 1
 		}
 		return 0
 	})
-	*idx = ix
-	tot := 0.0
-	for _, x := range w {
-		tot += x
-	}
-	var out [3]float64
-	ps := [3]float64{0.025, 0.5, 0.975}
-	c, q := 0.0, 0
-	for _, i := range ix {
-		c += w[i]
-		for q < 3 && c >= ps[q]*tot {
-			out[q] = v[i]
-			q++
+	for _, x := range part {
+		base += x.w
+		if base >= target {
+			return x.v
 		}
 	}
-	for ; q < 3; q++ {
-		out[q] = v[ix[n-1]]
+	if len(part) > 0 {
+		return part[len(part)-1].v
 	}
-	return Interval{out[0], out[1], out[2]}
+	return ps[hi-1].v
 }

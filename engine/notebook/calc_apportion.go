@@ -16,8 +16,8 @@ import (
 )
 
 // Apportioned is the value an apportionment cell hands on: per sample, the
-// correction and the split of each cation among the sources, as a median
-// with 95 % bounds and draw by draw.
+// correction, the split of each cation among the sources as a median with
+// 95 % bounds, and the sample's posterior as weighted draws of its own.
 type Apportioned struct {
 	Samples   *Samples
 	Index     []int // positions in Samples.Table.Samples of the apportioned samples
@@ -29,11 +29,28 @@ type Apportioned struct {
 	// Mean is the weighted mean of each sample's kept draws: unlike the
 	// cell-by-cell medians, its sources add up to what was measured, as
 	// every draw's do, so it is the point value of apportioned fluxes.
-	Mean    []mix.Split
-	Lo, Hi  []mix.Split // 2.5 % and 97.5 % quantiles
-	Draws   int         // draw numbers run; Draw(i, d) for d < Draws
-	Model   string      // "inverse" or "forward"
-	Sulfate string      // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
+	Mean   []mix.Split
+	Lo, Hi []mix.Split // 2.5 % and 97.5 % quantiles
+	// Draws is the most draws a sample has; sample i has Kept(i) of them
+	// (the inverse model's posterior of each sample is a weighted sample
+	// of its own, draw numbers 0 … Kept(i)−1; draws of different samples
+	// are unrelated).
+	Draws   int
+	Model   string // "inverse" or "forward"
+	Sulfate string // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
+	// Status, Verdict and ESS are each sample's fit as the inverse model
+	// judged it (the forward model has none to judge: Rule, and an ESS of
+	// its draw count).
+	Status  []mix.Status
+	Verdict []string
+	ESS     []float64
+	// Diagram is what the mixing diagrams mark: per sample, the tracer the
+	// fit cannot match and the end-member ratios the posterior piles
+	// against (empty for the forward model).
+	Diagram Marks
+	// doubtfulSample marks the samples whose result should not be trusted
+	// as it stands (mix.SampleResult.Doubtful).
+	doubtfulSample []bool
 
 	// doubtful gives the reasons the apportionment is doubtful (Output.Doubtful).
 	doubtful []string
@@ -52,25 +69,39 @@ type Apportioned struct {
 
 	inverse *mix.Result
 	forward [][]mix.Split
-	weights [][]float64 // per sample and draw; 0 for a draw not kept
-	// splits holds every draw of every sample, expanded for code that
-	// indexes it directly (the fluxes cell's series); nil when not expanded.
-	splits [][]mix.Split
+	weights [][]float64 // per sample and draw
 }
 
-// Draw returns the split of sample i under draw d (atmospheric and
-// evaporite rows included), its weight and whether the draw was kept. Draw
-// d stands for the same end-member values in every sample, so derived
-// fluxes can be propagated draw by draw. The split is worked out from the
-// model's result on each call; nothing per draw is stored but the weight.
+// Marks says which samples a mixing diagram marks and which edges of the
+// end-members' prior boxes it draws: the engine decides, the page draws.
+type Marks struct {
+	Names  []string  // the samples, in the order of Misfit
+	Misfit []string  // per sample: the tracer the fit cannot match ("" when it fits)
+	Edges  []BoxEdge // edges of prior boxes that some sample's posterior piles against
+}
+
+// BoxEdge is one edge of an end-member's prior box in a mixing diagram.
+type BoxEdge struct {
+	EndMember string
+	Ratio     string  // such as "Ca/Na"
+	Upper     bool    // the upper edge (else the lower)
+	Value     float64 // the ratio at that edge of the prior's 95 % range
+	Samples   []string
+}
+
+// Draw returns the split of sample i under its draw d (atmospheric and
+// evaporite rows included), its weight and whether the sample has such a
+// draw with a positive weight.
 func (a *Apportioned) Draw(i, d int) (mix.Split, float64, bool) {
-	if a.splits != nil {
-		w := a.weights[i][d]
-		return a.splits[i][d], w, w > 0
+	if d < 0 || d >= len(a.weights[i]) {
+		return mix.Split{}, 0, false
 	}
-	s, _, ok := a.drawAt(i, d)
 	w := a.weights[i][d]
-	return s, w, ok && w > 0
+	if a.forward != nil {
+		return a.forward[i][d], w, w > 0
+	}
+	_, s, _ := a.inverse.Draw(i, d)
+	return s, w, w > 0
 }
 
 // Kept returns the number of draws of sample i with a positive weight.
@@ -85,11 +116,11 @@ func (a *Apportioned) KeptDraw(i, k int) (d int, split mix.Split, weight float64
 }
 
 // keptSplit is KeptDraw without a copy where the splits are stored: the
-// split is a.splits' own, or else worked out into buf.
+// forward model's own, or else copied into buf.
 func (a *Apportioned) keptSplit(i, k int, buf *mix.Split) (d int, split *mix.Split, weight float64) {
 	d = int(a.kept[i][k])
-	if a.splits != nil {
-		return d, &a.splits[i][d], a.weights[i][d]
+	if a.forward != nil {
+		return d, &a.forward[i][d], a.weights[i][d]
 	}
 	*buf, weight, _ = a.Draw(i, d)
 	return d, buf, weight
@@ -115,8 +146,25 @@ func (a *Apportioned) keptWeights() [][]float64 {
 }
 
 // Usable reports whether sample i has a usable apportionment: at least
-// one kept draw.
-func (a *Apportioned) Usable(i int) bool { return len(a.kept[i]) > 0 }
+// one kept draw, and, for the inverse model, data that some mix of the
+// end-members fits (or that the Na-free rule answers): a sample that does
+// not fit rests on a failed fit (docs/methods.md §7.7, §8.8).
+func (a *Apportioned) Usable(i int) bool {
+	if len(a.kept[i]) == 0 {
+		return false
+	}
+	if a.inverse != nil {
+		st := a.Status[i]
+		return st == mix.Fits || st == mix.Rule
+	}
+	return true
+}
+
+// Doubtful reports whether sample i's apportionment should not be trusted
+// as it stands: the data do not fit the end-members, fit them only with
+// ratios beyond their prior ranges, or the posterior is poorly sampled
+// (mix.SampleResult.Doubtful).
+func (a *Apportioned) Doubtful(i int) bool { return a.doubtfulSample[i] }
 
 // Unusable counts the samples without a usable apportionment.
 func (a *Apportioned) Unusable() int {
@@ -151,12 +199,12 @@ func (a *Apportioned) SulfateAboveRain() bool {
 	return false
 }
 
-// howMany says how many of the samples of an inversion did not succeed:
-// "all 12 samples", or "3 of 12 samples".
+// howMany says how many of the samples of an inversion neither fit nor
+// were answered by a rule: "all 12 samples", or "3 of 12 samples".
 func howMany(samples []mix.SampleResult) string {
 	bad := 0
 	for i := range samples {
-		if samples[i].Status != mix.Success {
+		if samples[i].Status != mix.Fits && samples[i].Status != mix.Rule {
 			bad++
 		}
 	}
@@ -169,67 +217,37 @@ func howMany(samples []mix.SampleResult) string {
 	return fmt.Sprintf("%d of %d samples", bad, len(samples))
 }
 
-// Weights returns the weight of each draw of sample i (0 for a draw not
-// kept). The slice is shared: do not change it.
+// Weights returns the weight of each draw of sample i. The slice is
+// shared: do not change it.
 func (a *Apportioned) Weights(i int) []float64 { return a.weights[i] }
 
-// drawAt works out the split of sample i under draw d from the model's
-// result: the forward model's draw, or the inverse model's with the
-// atmospheric and evaporite amounts added.
-func (a *Apportioned) drawAt(i, d int) (mix.Split, float64, bool) {
-	if a.forward != nil {
-		return a.forward[i][d], 1, true
-	}
-	s, w, ok := a.inverse.SplitAt(i, d)
-	if !ok {
-		return s, 0, false
-	}
-	a.addRemoved(i, d, &s)
-	return s, w, true
-}
-
 // SO4Sulf returns the sulfide-derived sulfate (µmol/L) of sample i under
-// draw d, which follows the draw's atmospheric sulfate.
+// its draw d, which follows the draw's atmospheric sulfate.
 func (a *Apportioned) SO4Sulf(i, d int) float64 {
-	if a.scales == nil {
+	switch {
+	case a.forward == nil:
+		return a.inverse.SO4Sulf(i, d)
+	case a.scales == nil:
 		return a.Corrected[i].SO4Sulf
 	}
 	return a.Corrected[i].VarySO4Sulf(&a.scales[d])
 }
 
-// addRemoved adds to s the atmospheric and evaporite amounts the
-// correction removed from sample i under draw d.
-func (a *Apportioned) addRemoved(i, d int, s *mix.Split) {
-	atm, evap := &a.Corrected[i].Atm, &a.Corrected[i].Evap
-	if a.scales != nil {
-		var va, ve chem.Composition
-		a.Corrected[i].VaryRemoved(&a.scales[d], &va, &ve)
-		atm, evap = &va, &ve
-	}
-	for k, sp := range mix.Cations {
-		s[mix.Atmosphere][k] += atm[sp]
-		s[mix.Evaporite][k] += evap[sp]
-	}
-}
-
 func init() { Register(KindApportionment, computeApportionment) }
 
-// ChunkDraws is the number of sample-draws the inverse model works through
+// ChunkDraws is the number of draws the inverse model works through
 // between progress reports when it runs on one goroutine (in the browser,
 // or with Document.Workers = 1).
-var ChunkDraws = 20000
+var ChunkDraws = 4000
 
-// expandSplits says whether an apportionment may store every draw of every
-// sample (128 bytes each) in Apportioned.splits, which makes the fluxes
-// cell's series quick to build. It does so only up to expandLimit
-// sample-draws; above that, Draw works each split out from the model's
-// result when asked, and an apportionment of 100 samples × 10,000 draws
-// holds about 8 MB (the draw weights) instead of about 130 MB.
-var expandSplits = true
-
-// expandLimit is the largest samples × draws whose splits are stored
-// (about 64 MB).
-const expandLimit = 500_000
+// Quick-pass limits: the first pass of Document.Quick runs the inverse
+// model to a rough posterior (an engineering choice) and the full pass
+// refines it.
+const (
+	roughDraws = 300
+	roughESS   = 100
+	roughMax   = 3000
+)
 
 // delta34S finds a sample's δ34S of sulfate (‰) among its unrecognised
 // columns ("d34S", "δ34S-SO4", "delta34S", …).
@@ -246,8 +264,10 @@ func delta34S(meta map[string]string) (float64, bool) {
 }
 
 // forwardRatios takes the forward model's silicate ratios from the first
-// silicate end-member: the central value, and as 1σ a quarter of the prior
-// range (a range read as about ±2σ; an assumption, no source).
+// silicate end-member: its central value and range, which the forward
+// model reads as the inverse model does (a log-normal with the range as
+// its 95 % interval, docs/methods.md §7.3; a log-uniform range is read the
+// same way).
 func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 	for _, em := range ems {
 		if em.Source != mix.Silicate {
@@ -256,9 +276,9 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 		r := func(t mix.Tracer) mix.SilicateRatio {
 			p := em.Ratio[t]
 			if p.Dist == mix.Fixed {
-				return mix.SilicateRatio{Value: p.Value}
+				return mix.Exact(p.Value)
 			}
-			return mix.SilicateRatio{Value: p.Value, Sigma: (p.Hi - p.Lo) / 4}
+			return mix.SilicateRatio{Value: p.Value, Lo: p.Lo, Hi: p.Hi}
 		}
 		return &mix.SilicateRatios{CaNa: r(mix.CaNa), MgNa: r(mix.MgNa), KNa: mix.SilicateRatio{Value: math.NaN()}}
 	}
@@ -278,14 +298,15 @@ func computeApportionment(e *Env) (*Output, error) {
 	atm := ai.Value.(*Atmosphere)
 	ems := si.Value.([]mix.EndMember)
 	workers := e.Workers()
-	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true)
+	rough := e.Rough()
+	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true, rough)
 	if err != nil {
 		return out, err // out, when not nil, says which samples it could not take
 	}
 	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 		o := s
 		o.Sulfate = sulfate
-		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false)
+		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false, rough)
 		return b, err
 	}
 	return out, nil
@@ -297,7 +318,7 @@ func computeApportionment(e *Env) (*Output, error) {
 // origin. Without summary it leaves out what only the cell shows (the
 // per-sample quantiles Median, Lo and Hi, and the tables): the draws,
 // their weights and each sample's mean split are all fluxes need.
-func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary bool) (*Apportioned, *Output, error) {
+func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary, rough bool) (*Apportioned, *Output, error) {
 	opt := atm.Options
 	switch s.Sulfate {
 	case "sulfide":
@@ -315,6 +336,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
 	out := &Output{}
 	warn := map[string]int{}
+	var precs []*correct.Precision
 	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
 		o := opt
@@ -341,26 +363,27 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		a.Days = append(a.Days, atm.Samples.Days[i])
 		a.Q = append(a.Q, sm.Q)
 		a.Corrected = append(a.Corrected, r)
+		precs = append(precs, atm.Samples.SamplePrecision(i))
 	}
 	n := len(a.Index)
 	if n == 0 {
 		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
 	}
-	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
-		return nil, nil, err
-	}
-	status := make([]string, n)
-	kept := make([]float64, n)
 	if err := atm.Uncertainty.Check(); err != nil {
 		return nil, nil, err
 	}
-	if !atm.Uncertainty.Zero() {
-		// The rain ratios (and the ET factor) are drawn once per draw and
-		// shared by every sample, like the end-member ratios.
-		a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
-	}
+	a.Status, a.Verdict, a.ESS = make([]mix.Status, n), make([]string, n), make([]float64, n)
+	a.doubtfulSample = make([]bool, n)
 	switch s.Model {
 	case "forward":
+		if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
+			return nil, nil, err
+		}
+		if !atm.Uncertainty.Zero() {
+			// The rain ratios (and the ET factor) are drawn with the
+			// silicate ratios, draw by draw.
+			a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
+		}
 		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
 		a.forward = make([][]mix.Split, n)
 		for i := range a.Corrected {
@@ -378,10 +401,10 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 				return nil, nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
 			}
 			for _, w := range fr.Warnings {
-				warn[w.Error()]++
+				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
 			}
 			a.forward[i] = fr.Draws
-			status[i], kept[i] = "success", 1
+			a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
 			report(i+1, n)
 		}
 	case "inverse":
@@ -394,16 +417,20 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			tracers = append(tracers, tr)
 		}
 		p := mix.Problem{EndMembers: ems, Tracers: tracers}
-		for i, r := range a.Corrected {
-			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Conc: r.Residual,
-				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86})
+		for i := range a.Corrected {
+			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Correction: &a.Corrected[i],
+				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86, Precision: precs[i]})
 		}
-		mo := &mix.Options{Draws: s.Draws, Seed: uint64(s.Seed), Workers: workers}
-		if a.scales != nil {
-			mo.Vary = func(i, d int) (c chem.Composition, ok bool) {
-				rejected := a.Corrected[i].VaryResidual(&a.scales[d], &c)
-				return c, !rejected
-			}
+		prec := atm.Samples.Precision
+		mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
+			Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: workers}
+		if rough {
+			// The quick pass: a rough posterior now, refined in the full pass.
+			mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
+			out.Rough = true
+		}
+		if err := checkInverseDraws(n, mo); err != nil {
+			return nil, nil, err
 		}
 		var res *mix.Result
 		if workers == 1 || runtime.GOOS == "js" {
@@ -415,9 +442,9 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 				return nil, nil, err
 			}
 			for !run.Step(ctx, ChunkDraws) {
-				report(int(run.Progress()*float64(run.Total())), run.Total())
+				report(int(run.Progress()*1000), 1000)
 			}
-			report(run.Total(), run.Total())
+			report(1000, 1000)
 			res = run.Result()
 		} else {
 			mo.Progress = func(done, total int) { report(done, total) }
@@ -430,67 +457,57 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			return nil, nil, err
 		}
 		a.inverse = res
+		a.Draws = 0
+		for i := range res.Samples {
+			a.Draws = max(a.Draws, res.Kept(i))
+		}
+		a.diagram(res, ems)
+		for _, c := range res.Confusions {
+			out.Warnings = append(out.Warnings, "identifiability: "+c.Text)
+		}
 		for i := range res.Samples {
 			sr := &res.Samples[i]
-			status[i], kept[i] = sr.Status.String(), sr.AcceptRate
+			a.Status[i], a.Verdict[i], a.ESS[i], a.doubtfulSample[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
 			for _, w := range sr.Warnings {
-				warn[w.Error()]++
+				// Grouped by kind: "end-member left out, no tracer sees it: …".
+				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
 			}
 		}
-		if res.Status != mix.Success {
+		if res.Status != mix.Fits && res.Status != mix.Rule {
 			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for "+howMany(res.Samples)+" (see the status column)")
 		}
 	}
-	// Medians and bounds, cell by cell, from the draws, one sample at a
-	// time: only that sample's draws are expanded.
+	// Medians and bounds, cell by cell, from each sample's weighted draws.
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
-	vals, ws := make([]float64, 0, s.Draws), make([]float64, 0, s.Draws)
+	var vals, ws []float64
 	var draws []mix.Split
 	var qb quantileBuf
 	a.weights = make([][]float64, n)
 	a.kept = make([][]int32, n)
-	if expandSplits && n*a.Draws <= expandLimit {
-		a.splits = make([][]mix.Split, n)
-	}
 	for i := 0; i < n; i++ {
 		if err := ctx.Err(); err != nil {
 			return nil, nil, err
 		}
-		if a.inverse != nil { // the draws are done; keep reporting while they are summarised
-			report(a.inverse.Draws*n, a.inverse.Draws*n)
+		nd := a.Draws
+		if a.inverse != nil {
+			nd = a.inverse.Kept(i)
 		}
 		draws, ws = draws[:0], ws[:0]
-		a.weights[i] = make([]float64, a.Draws)
+		a.weights[i] = make([]float64, nd)
 		a.kept[i] = nil
-		if a.splits != nil {
-			a.splits[i] = make([]mix.Split, a.Draws)
-		}
-		if a.inverse != nil {
-			for k := 0; k < a.inverse.Kept(i); k++ {
-				d, sp, w := a.inverse.Draw(i, k)
-				a.addRemoved(i, d, &sp)
-				draws = append(draws, sp)
-				ws = append(ws, w)
-				a.weights[i][d] = w
-				if w > 0 {
-					a.kept[i] = append(a.kept[i], int32(d))
-				}
-				if a.splits != nil {
-					a.splits[i][d] = sp
-				}
+		for d := 0; d < nd; d++ {
+			var sp mix.Split
+			w := 1.0
+			if a.inverse != nil {
+				_, sp, w = a.inverse.Draw(i, d)
+			} else {
+				sp = a.forward[i][d]
 			}
-		} else {
-			for d := 0; d < a.Draws; d++ {
-				sp, w, _ := a.drawAt(i, d)
-				draws = append(draws, sp)
-				ws = append(ws, w)
-				a.weights[i][d] = w
-				if w > 0 {
-					a.kept[i] = append(a.kept[i], int32(d))
-				}
-				if a.splits != nil {
-					a.splits[i][d] = sp
-				}
+			draws = append(draws, sp)
+			ws = append(ws, w)
+			a.weights[i][d] = w
+			if w > 0 {
+				a.kept[i] = append(a.kept[i], int32(d))
 			}
 		}
 		a.Mean[i] = meanSplit(draws, ws)
@@ -505,27 +522,33 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			}
 		}
 	}
-	if a.splits != nil {
-		a.inverse, a.forward = nil, nil // everything is in splits now
-	}
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
 	if summary {
-		out.Tables = append(out.Tables, a.shareTable(status, kept), a.amountTable())
+		out.Tables = append(out.Tables, a.shareTable(), a.amountTable())
 	}
-	fit := 0
-	for _, st := range status {
-		if st == "success" {
+	fit, doubt := 0, 0
+	for i := range a.Status {
+		if a.Status[i] == mix.Fits || a.Status[i] == mix.Rule {
 			fit++
 		}
+		if a.doubtfulSample[i] {
+			doubt++
+		}
 	}
-	out.Figures = append(out.Figures, Point("samples apportioned", "", float64(fit)), Point("samples without a good fit", "", float64(n-fit)))
+	out.Figures = append(out.Figures, Point("samples apportioned", "", float64(fit)), Point("samples without a good fit", "", float64(n-fit)),
+		Point("samples doubtful", "", float64(doubt)))
 	a.Sulfate = s.Sulfate
 	// Doubtful when no sample, or fewer than three in four, could be
-	// apportioned (a quarter: an engineering choice, no source).
+	// apportioned, or when more than a quarter of the samples do not fit,
+	// fit only with end-member ratios beyond their ranges or are poorly
+	// sampled (a quarter: an engineering choice, no source).
 	if bad := a.Unusable(); bad == n && n > 0 {
 		a.doubtful = []string{"no sample has a usable apportionment (" + countOf(bad, n, "samples") + " failed)"}
 	} else if 4*bad > n {
 		a.doubtful = []string{fmt.Sprintf("%s have no usable apportionment (more than a quarter)", countOf(bad, n, "samples"))}
+	}
+	if 4*doubt > n {
+		a.doubtful = append(a.doubtful, fmt.Sprintf("%s do not fit the end-members, fit them only with ratios beyond their ranges, or are poorly sampled (more than a quarter; see the status column)", countOf(doubt, n, "samples")))
 	}
 	out.Doubtful = a.doubtful
 	out.Value = a
@@ -569,11 +592,11 @@ func (a *Apportioned) dates() []string {
 	return d
 }
 
-// shareTable lists, per sample, the share of each cation from each source
-// with its 95 % bounds.
-func (a *Apportioned) shareTable(status []string, kept []float64) *ResultTable {
-	cols := []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()), TextColumn("status", status),
-		NumColumn("accepted", "fraction", kept)}
+// shareTable lists, per sample, its status in words, its effective sample
+// size, and the share of each cation from each source with its 95 % bounds.
+func (a *Apportioned) shareTable() *ResultTable {
+	cols := []*Column{TextColumn("sample", a.Names), TextColumn("date", a.dates()), TextColumn("status", a.Verdict),
+		NumColumn("ESS", "draws", a.ESS)}
 	for k, sp := range mix.Cations {
 		for src := mix.Source(0); src < mix.NSources; src++ {
 			name := sp.Symbol() + "_" + src.String()
@@ -585,7 +608,7 @@ func (a *Apportioned) shareTable(status []string, kept []float64) *ResultTable {
 			cols = append(cols, NumColumn(name, "fraction", med), NumColumn(name+"_low", "fraction", lo), NumColumn(name+"_high", "fraction", hi))
 		}
 	}
-	return &ResultTable{Name: "shares", Title: "Share of each cation from each source (median, 2.5 % and 97.5 %)", Columns: cols}
+	return &ResultTable{Name: "shares", Title: "Share of each cation from each source (median, 2.5 % and 97.5 %), with each sample's status and effective sample size", Columns: cols}
 }
 
 // amountTable lists the median µmol/L of each cation from each source.
@@ -611,3 +634,51 @@ func (a *Apportioned) amountTable() *ResultTable {
 // cationsOrder and sourceNames follow mix.Cations and mix.Source.
 var cationsOrder = mix.Cations
 var sourceNames = [mix.NSources]string{"atmosphere", "evaporite", "silicate", "carbonate"}
+
+// diagram sets the marks of the mixing diagrams from the inversion: the
+// samples that do not fit, with the tracer they miss, and the edges of the
+// prior boxes that posteriors press against.
+func (a *Apportioned) diagram(res *mix.Result, ems []mix.EndMember) {
+	edges := map[string]*BoxEdge{}
+	var order []string
+	a.Diagram.Misfit, a.Diagram.Names = make([]string, len(res.Samples)), a.Names
+	for i := range res.Samples {
+		sr := &res.Samples[i]
+		if sr.Status == mix.NoFit && sr.Misfit != nil {
+			a.Diagram.Misfit[i] = "Na"
+			if sr.Misfit.Tracer >= 0 {
+				a.Diagram.Misfit[i] = sr.Misfit.Tracer.String()
+			}
+		}
+		for _, b := range sr.Bounds {
+			name := ems[b.EndMember].Name
+			key := fmt.Sprintf("%s|%s|%v", name, b.Tracer, b.Upper)
+			if edges[key] == nil {
+				edges[key] = &BoxEdge{EndMember: name, Ratio: b.Tracer.String(), Upper: b.Upper, Value: b.Limit}
+				order = append(order, key)
+			}
+			edges[key].Samples = append(edges[key].Samples, a.Names[i])
+		}
+	}
+	for _, k := range order {
+		a.Diagram.Edges = append(a.Diagram.Edges, *edges[k])
+	}
+}
+
+// precisionSpecies are the species whose relative precision a samples
+// table column may set, by their symbols in lower case.
+var precisionSpecies = []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Sr, chem.Alk, chem.HCO3}
+
+// precisionColumn reads a header such as "Na rsd (%)", "rsd_Ca" or "Mg RSD
+// %": a relative 1σ in percent for the species named. It returns false for
+// any other header.
+func precisionColumn(h string) (chem.Species, bool) {
+	k := strings.ToLower(strings.NewReplacer(" ", "", "_", "", "-", "", "(", "", ")", "", "%", "").Replace(h))
+	for _, sp := range precisionSpecies {
+		sym := strings.ToLower(sp.Symbol())
+		if k == sym+"rsd" || k == "rsd"+sym {
+			return sp, true
+		}
+	}
+	return 0, false
+}

@@ -321,6 +321,11 @@ func jointDraws(d *Document, bs []compared, reps int, seed uint64) (*compare.Joi
 	return j, fmt.Sprintf("once per replicate for every budget: one end-member table and rain correction serve them all, and %d draws (%.4g effective) are kept by every sample", len(j.Draws), j.Effective)
 }
 
+// ownDrawsWarning names the consequence of paired replicates without
+// joint draws (docs/methods.md §17), shown whenever each sample takes its
+// own.
+const ownDrawsWarning = "apportionment draws: each sample's weighted draws are taken as its own (the shared table says why), by weight and independently in each budget, so the end-member and rain uncertainty the budgets share is not carried as shared — it does not cancel in the difference as a common error should, and within each budget it averages out over the samples as if independent. Joint draws need the forward model with one end-member table, rain correction, number of draws and seed in every budget"
+
 // budgetFluxOptions returns a budget of the comparison for compare.Pair:
 // its record, estimator and its own discharge and area errors.
 func budgetFluxOptions(ctx context.Context, c compared, tick func()) compare.Budget {
@@ -368,6 +373,8 @@ func computeCompare(e *Env) (*Output, error) {
 		joint, v.Draws = jointDraws(e.doc, bs, s.Replicates, uint64(s.Seed))
 		if joint != nil {
 			opt.Picks = joint.Picks
+		} else {
+			out.Warnings = append(out.Warnings, ownDrawsWarning)
 		}
 	}
 	for _, q := range qs {

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
 	"lixiv/engine/problem"
 	"lixiv/engine/qc"
@@ -20,6 +21,13 @@ type Samples struct {
 	Use   []bool    // false for samples left out (charge balance beyond the reject limit, no date)
 	NICB  []float64 // normalised inorganic charge balance, %
 	Days  []discharge.Day
+	// Precision is the analytical precision of the cell's settings;
+	// IsoPrecision the 1σ of 87Sr/86Sr.
+	Precision    correct.Precision
+	IsoPrecision float64
+	// own holds, per sample, a precision that columns of the table set
+	// (nil where none does).
+	own []*correct.Precision
 
 	// File names the samples' source in messages: the file the table was
 	// read from, else the id of the samples cell; lines in sample.Sample
@@ -30,6 +38,16 @@ type Samples struct {
 	// cell ("n.d.") as the user wrote it.
 	Input *Table
 	Rows  []int
+}
+
+// SamplePrecision returns the analytical precision of sample i: the
+// settings', with the relative precision of any species that a column of
+// the table gives for this sample ("Na rsd (%)"). nil means the settings'.
+func (s *Samples) SamplePrecision(i int) *correct.Precision {
+	if s.own == nil {
+		return nil
+	}
+	return s.own[i]
 }
 
 // Cell returns the text the user wrote for species sp of sample i, or "".
@@ -219,8 +237,42 @@ func computeSamples(e *Env) (*Output, error) {
 	if left == n {
 		return out, noneUsed(tab, flags)
 	}
+	if err := v.readPrecision(s); err != nil {
+		return out, err
+	}
 	out.Value = v
 	return out, nil
+}
+
+// readPrecision sets the analytical precision from the settings and from
+// any precision columns of the table ("Na rsd (%)": relative 1σ in percent
+// for that species, row by row). A value that is not a number from 0 to
+// 100 stops the cell with its row and column.
+func (v *Samples) readPrecision(s *SamplesSettings) error {
+	v.Precision = correct.UniformPrecision(s.PrecisionPercent/100, s.PrecisionFloor, s.SrFloor)
+	v.Precision.Floor[chem.Alk], v.Precision.Floor[chem.HCO3] = s.AlkFloor, s.AlkFloor
+	v.IsoPrecision = s.IsoPrecision
+	for i, smp := range v.Table.Samples {
+		for h, text := range smp.Meta {
+			sp, ok := precisionColumn(h)
+			if !ok || strings.TrimSpace(text) == "" {
+				continue
+			}
+			x, err := parseNum(text)
+			if err != nil || x < 0 || x > 100 {
+				return fmt.Errorf("%s, line %d, column %q: sample %s: %q is not a relative precision in percent (0 to 100)", v.File, smp.Line, h, sampleName(smp), text)
+			}
+			if v.own == nil {
+				v.own = make([]*correct.Precision, len(v.Table.Samples))
+			}
+			if v.own[i] == nil {
+				p := v.Precision
+				v.own[i] = &p
+			}
+			v.own[i].Rel[sp] = x / 100
+		}
+	}
+	return nil
 }
 
 // alkFromHCO3 takes HCO3 as alkalinity (µmol/L of HCO3 are µeq/L) in

@@ -49,15 +49,20 @@ func drawSourceOf(d *Document, co2ID string) (ds drawSource, ok bool) {
 
 // sharedDraws returns "" when draw d of every compared budget's
 // apportionment stands for the same end-member ratios, and the same rain
-// ratios and ET factor, in every sample of every budget — one model,
-// number of draws and seed, one end-member table and one rain correction
-// — and otherwise says which differs, as the end of a sentence.
+// ratios and ET factor, in every sample of every budget — the forward
+// model with one number of draws and seed, one end-member table and one
+// rain correction — and otherwise says why not, as the end of a sentence.
+// The inverse model never shares its draws: each sample's weighted draws
+// are its own.
 func sharedDraws(d *Document, bs []compared) string {
 	var first drawSource
 	for k, c := range bs {
 		ds, ok := drawSourceOf(d, c.cell)
 		if !ok {
 			return fmt.Sprintf("the %s budget's apportionment could not be traced", roleWords[c.role])
+		}
+		if ds.app.Model == "inverse" {
+			return fmt.Sprintf("the %s budget apportions with the inverse model, whose draws belong to their sample (each sample's weighted draws are its own; draw d of one sample is not draw d of another)", roleWords[c.role])
 		}
 		if k == 0 {
 			first = ds

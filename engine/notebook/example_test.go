@@ -102,9 +102,9 @@ func Example_budget() {
 	v, _ := again.Verify()
 	fmt.Println("rerun matches the saved results:", v.Match)
 	// Output:
-	// silicate CO2 consumption per km²: 1.49e+05 [1.27e+05, 1.78e+05] mol/km²/yr
-	// carbonate CO2 consumption per km²: 5.55e+04 [4.59e+04, 6.73e+04] mol/km²/yr
+	// silicate CO2 consumption per km²: 1.49e+05 [1.25e+05, 1.78e+05] mol/km²/yr
+	// carbonate CO2 consumption per km²: 5.54e+04 [4.6e+04, 6.49e+04] mol/km²/yr
 	// site ran 1 time(s); co2 ran 2 times
-	// after the edit: 1.27e+05 mol/km²/yr
+	// after the edit: 1.29e+05 mol/km²/yr
 	// rerun matches the saved results: true
 }

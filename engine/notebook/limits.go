@@ -1,6 +1,10 @@
 package notebook
 
-import "fmt"
+import (
+	"fmt"
+
+	"lixiv/engine/mix"
+)
 
 // The limits of a budget: what a file, a paste or a setting may ask of the
 // engine, so that no input makes it run for hours, allocate without bound
@@ -30,10 +34,11 @@ const (
 	MaxColumns = 1000
 	// MaxDraws is the most Monte Carlo draws per sample (setting "draws").
 	MaxDraws = 1_000_000
-	// MaxSampleDraws caps samples × draws in one apportionment: above
-	// expandLimit only a weight (8 bytes) is kept per draw, plus the
-	// inverse model's own per-draw record, so the cap bounds memory (about
-	// 300 MB) and work (a few seconds natively).
+	// MaxSampleDraws caps samples × the most draws one sample may take
+	// (setting "max_draws", at least "draws") under the inverse model,
+	// which keeps each sample's draws with a positive weight (144 bytes
+	// each) for the cells below: the cap bounds memory (under 600 MB) and
+	// work (BenchmarkWorstAllowed).
 	MaxSampleDraws = 4_000_000
 	// MaxForwardSampleDraws caps samples × draws under the forward model,
 	// which keeps every draw of every sample (128 bytes each): about
@@ -97,6 +102,27 @@ func checkSampleDraws(model string, samples, draws int) error {
 	if samples*draws > limit {
 		return fmt.Errorf("%s: %s samples × %s draws is %s sample-draws, above the limit of %s%s; use at most %s draws",
 			SettingName("draws"), grouped(samples), grouped(draws), grouped(samples*draws), grouped(limit), why, grouped(max(1, limit/samples)))
+	}
+	return nil
+}
+
+// checkInverseDraws refuses an inverse model whose samples × most draws per
+// sample (after the first stage and every refinement) exceed
+// MaxSampleDraws.
+func checkInverseDraws(samples int, o *mix.Options) error {
+	most := max(o.MaxDraws, o.Draws)
+	if o.MaxDraws <= 0 { // mix.Options' defaults: 20 × the target ESS, itself 1000
+		ess := o.TargetESS
+		if ess <= 0 {
+			ess = 1000
+		}
+		most = max(20*ess, o.Draws)
+	}
+	if samples*most > MaxSampleDraws {
+		return fmt.Errorf("%s: %s samples × %s draws is %s sample-draws, above the limit of %s for the inverse model, which keeps each sample's draws; "+
+			"use at most %s draws per sample (a lower %s may then be needed)",
+			SettingName("max_draws"), grouped(samples), grouped(most), grouped(samples*most), grouped(MaxSampleDraws),
+			grouped(max(1, MaxSampleDraws/samples)), SettingName("target_ess"))
 	}
 	return nil
 }

@@ -26,7 +26,7 @@ func TestLimitsRefuse(t *testing.T) {
 	}{
 		// 13 samples × 400,000 draws: above MaxSampleDraws.
 		{"samples × draws", "../../testdata/budgets/small-forward.lixiv.json", "apportionment", "draws", "400000",
-			[]string{"Monte Carlo draws (draws): 13 samples × 400,000 draws is 5,200,000 sample-draws", "limit of 1,000,000 for the forward model", "use at most 76,923 draws"}},
+			[]string{"prior draws (first stage) (draws): 13 samples × 400,000 draws is 5,200,000 sample-draws", "limit of 1,000,000 for the forward model", "use at most 76,923 draws"}},
 		// The demo: 78 samples and 1095 days; 50,000 replicates do 58,650,000.
 		{"bootstrap replicates × (samples + days)", "demo", "fluxes", "bootstrap", "50000",
 			[]string{"bootstrap replicates (bootstrap): 50,000 replicates × (78 samples + 1,095 days of discharge) is 58,650,000", "limit of 50,000,000", "use at most 42,625 replicates"}},
@@ -98,7 +98,7 @@ func TestCheckSampleDraws(t *testing.T) {
 func TestSettingRangeNamesLabel(t *testing.T) {
 	d := demoDocument(t)
 	for key, want := range map[string]string{
-		"draws":     "Monte Carlo draws: 2e+06 is outside [1, 1e+06]",
+		"draws":     "prior draws (first stage): 2e+06 is outside [1, 1e+06]",
 		"bootstrap": "bootstrap replicates: 2e+06 is outside [1, 100000]",
 	} {
 		cell := "fluxes"

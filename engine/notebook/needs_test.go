@@ -174,7 +174,7 @@ func TestSettingLabel(t *testing.T) {
 		{"critical_chloride_umol", "critical chloride (µmol/L)"},
 		{"nicb_flag_percent", "NICB flag (%)"},
 		{"d34s_river_permil", "δ34S river (‰)"},
-		{"draws", "Monte Carlo draws"},
+		{"draws", "prior draws (first stage)"},
 	}
 	for _, tt := range tests {
 		if got := SettingLabel(tt.key); got != tt.want {

@@ -61,6 +61,8 @@ type SampleReport struct {
 	Sample   string                      `json:"sample"`
 	Date     string                      `json:"date"`
 	Status   string                      `json:"status"`
+	ESS      Number                      `json:"ess"`      // effective sample size of the sample's posterior
+	Doubtful bool                        `json:"doubtful"` // no fit, or a poorly sampled posterior
 	Shares   map[string]map[string]Range `json:"shares"`
 	CO2PerL  map[string]Range            `json:"co2_umol_per_litre"`
 	Warnings []string                    `json:"warnings,omitempty"`
@@ -303,7 +305,8 @@ func (d *Document) Report() *Report {
 			pl = co.Table("per-litre")
 		}
 		for i := range a.Names {
-			s := SampleReport{Sample: a.Names[i], Date: a.Days[i].String(), Status: st[i], Shares: map[string]map[string]Range{}}
+			s := SampleReport{Sample: a.Names[i], Date: a.Days[i].String(), Status: st[i], ESS: Number(a.ESS[i]),
+				Doubtful: a.Doubtful(i), Shares: map[string]map[string]Range{}}
 			for k, sp := range cationsOrder {
 				m := map[string]Range{}
 				for src := 0; src < 4; src++ {

@@ -273,8 +273,9 @@ func TestCompareNeedsSections(t *testing.T) {
 	}
 }
 
-// TestCompareDesign: on budgets with a complete year, the monitoring
-// design gives the detectable increase at every frequency of its curve,
+// TestCompareDesign: on budgets with a complete year (apportioned with
+// the inverse model, each sample's draws its own, which the cell says),
+// the monitoring design gives the detectable increase at every frequency of its curve,
 // falling as samples are taken more often, marks the design's own, and
 // gives the samples a year needed for the target.
 func TestCompareDesign(t *testing.T) {
@@ -288,7 +289,19 @@ func TestCompareDesign(t *testing.T) {
 		t.Fatalf("%v %v", st, err)
 	}
 	o := d.Output("cmp")
-	t.Logf("draws: %s", o.Table("shared").Column("drawn").Text[3])
+	// The budget apportions with the inverse model, whose draws belong to
+	// their sample: no joint draws, and the cell names the consequence.
+	if got := o.Table("shared").Column("drawn").Text[3]; !strings.Contains(got, "inverse model, whose draws belong to their sample") {
+		t.Errorf("apportionment draws: %q", got)
+	}
+	if w := strings.Join(o.Warnings, "\n"); !strings.Contains(w, "not carried as shared") {
+		t.Errorf("no warning that the shared uncertainty is not carried as shared:\n%s", w)
+	}
+	for _, f := range o.Figures {
+		if strings.Contains(f.Name, "difference in") && !strings.Contains(f.Note, "not carried as shared") {
+			t.Errorf("%s: note %q", f.Name, f.Note)
+		}
+	}
 	tb := o.Table("design")
 	if tb == nil {
 		t.Fatalf("no design table; warnings %q", o.Warnings)

@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/mix"
 )
 
 // Settings are the parameters of one cell. Each kind has its own struct;
@@ -36,6 +37,13 @@ type SamplesSettings struct {
 	NICBFlag       float64 `json:"nicb_flag_percent"`   // |NICB| above this is flagged
 	NICBReject     float64 `json:"nicb_reject_percent"` // |NICB| above this leaves the sample out
 	DefaultUnit    string  `json:"default_unit"`        // unit of species columns that state none ("" = ask: such columns are kept as text)
+	// The analytical precision the apportionment propagates: a relative
+	// 1σ with a floor; a column such as "Na rsd (%)" sets it per sample.
+	PrecisionPercent float64 `json:"precision_percent"`    // relative 1σ of every measured concentration, %
+	PrecisionFloor   float64 `json:"precision_floor_umol"` // smallest 1σ of Na, K, Ca, Mg, Cl, SO4, µmol/L
+	AlkFloor         float64 `json:"alkalinity_floor_ueq"` // smallest 1σ of alkalinity, µeq/L
+	SrFloor          float64 `json:"sr_floor_umol"`        // smallest 1σ of Sr, µmol/L
+	IsoPrecision     float64 `json:"sr_isotope_precision"` // 1σ of 87Sr/86Sr
 	// UseColumns names, by header, the column to read where a species has
 	// two or more (two Ca columns); without it such columns are refused.
 	UseColumns []string `json:"use_columns,omitempty"`
@@ -77,7 +85,9 @@ type SourcesSettings struct {
 type ApportionmentSettings struct {
 	Model         string   `json:"model"`                 // "inverse" (Monte Carlo) or "forward"
 	Tracers       []string `json:"tracers"`               // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
-	Draws         int      `json:"draws"`                 // Monte Carlo draws per sample
+	Draws         int      `json:"draws"`                 // prior draws of the first stage (the forward model: draws per sample)
+	TargetESS     int      `json:"target_ess"`            // effective sample size at which a sample's refinement stops
+	MaxDraws      int      `json:"max_draws"`             // cap of draws per sample over all stages
 	Seed          int64    `json:"seed"`                  // random seed; results depend on it only
 	Sulfate       string   `json:"sulfate"`               // "gypsum", "sulfide" or "isotope": origin of SO4 above the rain share
 	D34SRiver     float64  `json:"d34s_river_permil"`     // δ34S of river sulfate, ‰, for samples without a d34S column
@@ -175,7 +185,12 @@ func DefaultSettings(k Kind) Settings {
 	case KindSite:
 		return &SiteSettings{AreaUncertainty: 2, WaterYearStart: 10} // 2 %: docs/methods.md §8.6, common practice
 	case KindSamples:
-		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10} // common practice
+		// NICB limits: common practice. Precision: 2-5 % relative for major
+		// ions by ion chromatography or ICP with a floor near the
+		// detection limit, common practice, no source (package mix).
+		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10,
+			PrecisionPercent: 100 * mix.DefaultRelPrecision, PrecisionFloor: mix.DefaultFloor, AlkFloor: mix.DefaultAlkFloor,
+			SrFloor: mix.DefaultSrFloor, IsoPrecision: mix.DefaultIsoPrecision}
 	case KindDischarge:
 		return &DischargeSettings{Unit: "m3/s", GapFillDays: 0, DateOrder: "auto"}
 	case KindAtmosphere:
@@ -187,16 +202,18 @@ func DefaultSettings(k Kind) Settings {
 			// The default method takes the reference-seawater ratios, whose
 			// major-ion proportions are constant in the open ocean (common
 			// practice, from memory), so they start exact (0); a user who
-			// measures rain, or expects fractionated aerosol, sets a spread
-			// (the rain cell warns when measured rain ratios are taken as
-			// exact). The ET factor starts at 10 % (1σ; common practice, no
-			// source); it matters only where Cl* comes from measured rain.
+			// measures rain, or expects fractionated aerosol or dust, sets a
+			// spread (the rain cell warns when measured rain ratios are
+			// taken as exact). The ET factor starts at 10 % (1σ; common
+			// practice, no source); it matters only where Cl* comes from
+			// measured rain. SCHEMA.md states both (a test reads it).
 			RatioUncertainty: 0, FactorUncertainty: 10}
 	case KindSources:
 		return &SourcesSettings{Preset: "global"}
 	case KindApportionment:
 		return &ApportionmentSettings{Model: "inverse", Tracers: []string{"Ca/Na", "Mg/Na", "HCO3/Na"},
-			Draws: 2000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag",
+			// Draws, target and cap: engineering choices (docs/methods.md).
+			Draws: 400, TargetESS: 1000, MaxDraws: 20000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag",
 			// δ34S end-members: evaporite sulfate about +10 to +35 ‰ (Claypool
 			// et al. 1980), sedimentary sulfide usually negative; both from
 			// memory (docs/methods.md §5.2). Users should set their own.
@@ -273,6 +290,11 @@ func (s *SamplesSettings) Validate() error {
 		inRange("nicb_flag_percent", s.NICBFlag, 0, 100),
 		inRange("nicb_reject_percent", s.NICBReject, 0, 1000),
 		unitOK("default_unit", s.DefaultUnit),
+		inRange("precision_percent", s.PrecisionPercent, 0, 100),
+		inRange("precision_floor_umol", s.PrecisionFloor, 0, 1e4),
+		inRange("alkalinity_floor_ueq", s.AlkFloor, 0, 1e4),
+		inRange("sr_floor_umol", s.SrFloor, 0, 1e4),
+		inRange("sr_isotope_precision", s.IsoPrecision, 0, 1),
 	)
 }
 
@@ -328,6 +350,8 @@ func (s *ApportionmentSettings) Validate() error {
 		inRange("d34s_sulfide_permil", s.D34SSulfide, -100, 100),
 		oneOf("negative_residuals", s.Negative, "zero-and-flag", "keep"),
 		inRange("draws", float64(s.Draws), 1, MaxDraws),
+		inRange("target_ess", float64(s.TargetESS), 1, MaxDraws),
+		inRange("max_draws", float64(s.MaxDraws), 1, mix.MaxDraws),
 	)
 	if err != nil {
 		return err

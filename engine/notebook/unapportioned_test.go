@@ -16,11 +16,11 @@ const demoPath = "../../examples/corrie-vale/corrie-vale.lixiv.json"
 
 // Unfittable returns the demo budget with n of its samples made impossible
 // to apportion: those at the highest discharge when high, else the lowest.
-// Each loses its Na down to 0.85 of its Cl, below the sea-salt Na/Cl of
-// 0.859 (Millero et al. 2008), so that the rain correction leaves no Na*
-// and the inverse model cannot take the sample; the Na removed is added to
-// Mg at equal charge, so the charge balance (and whether the sample enters
-// the budget) does not change. The data stay invented.
+// Each loses its Ca and Mg, whose charge goes to Na, so that the charge
+// balance (and whether the sample enters the budget) does not change: no
+// silicate of the granitic preset (Ca/Na and Mg/Na of 0.1 and more) and no
+// carbonate gives a water with Na and no Ca or Mg, and the sample does not
+// fit. The data stay invented.
 func unfittable(t *testing.T, n int, high bool) *Document {
 	t.Helper()
 	d, err := loadFile(demoPath)
@@ -64,12 +64,11 @@ func unfittable(t *testing.T, n int, high bool) *Document {
 		cells := tab.Rows[r.i]
 		// The table is in mg/L: µmol/L = mg/L / M × 1000.
 		na := num(cells[col["Na"]]) / chem.Na.MolarMass() * 1000
-		cl := num(cells[col["Cl"]]) / chem.Cl.MolarMass() * 1000
+		ca := num(cells[col["Ca"]]) / chem.Ca.MolarMass() * 1000
 		mg := num(cells[col["Mg"]]) / chem.Mg.MolarMass() * 1000
-		naNew := 0.85 * cl
-		mgNew := mg + (na-naNew)/2
+		naNew := na + 2*(ca+mg)
 		cells[col["Na"]] = strconv.FormatFloat(naNew*chem.Na.MolarMass()/1000, 'f', 6, 64)
-		cells[col["Mg"]] = strconv.FormatFloat(mgNew*chem.Mg.MolarMass()/1000, 'f', 6, 64)
+		cells[col["Ca"]], cells[col["Mg"]] = "0", "0"
 	}
 	if err := d.SetTable("samples", tab); err != nil {
 		t.Fatal(err)

@@ -42,11 +42,10 @@ var Examples = []Example{
 		if err != nil {
 			return nil, err
 		}
-		// Two tracers for two end-members: over-determined by one, so the
-		// misfit test has something to say (docs/methods.md §7.4).
-		if err := d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na"); err != nil {
-			return nil, err
-		}
+		// The default tracers, Ca/Na, Mg/Na and HCO3/Na: with Na, four
+		// data for two end-members, so the misfit test has something to
+		// say (docs/methods.md §7.9), and HCO3/Na tells the little calcite
+		// of the granite from a granite richer in Ca.
 		c := notebook.NewCell(notebook.KindChart, "chart", "Silicate CO2 consumption per litre through the seasons")
 		s := c.Settings.(*notebook.ChartSettings)
 		s.X, s.Y = "co2.per-litre.date", "co2.per-litre.silicate"

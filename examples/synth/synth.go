@@ -34,6 +34,7 @@ type Truth struct {
 	CaNaSil, MgNaSil float64 // silicate ratios of the truth
 	KNaSil           float64
 	CaCarb, MgCarb   float64 // µmol/L carbonate Ca and Mg at mean flow
+	CaNaCarb         float64 // Ca/Na of the carbonate rock (0: the carbonate brings no Na)
 	Gypsum           float64 // µmol/L Ca and SO4 from gypsum
 	Pyrite           float64 // µmol/L SO4 from sulfide oxidation, buffered by carbonate
 	NO3              float64 // µmol/L
@@ -115,6 +116,9 @@ func (t *Truth) Samples(q []float64) []Sample {
 		ca, mg := t.CaCarb*dil, t.MgCarb*dil
 		c[chem.Cl] = cl
 		c[chem.Na] = cl*seaPerCl[chem.Na] + naSil
+		if t.CaNaCarb > 0 {
+			c[chem.Na] += ca / t.CaNaCarb
+		}
 		c[chem.K] = cl*seaPerCl[chem.K] + naSil*t.KNaSil
 		no3 := t.NO3 * (0.5 + r.Float64())
 		// Sulfuric acid from pyrite and nitric acid from nitrification are

@@ -19,13 +19,12 @@ func TestProblemsExitStatus(t *testing.T) {
 	wrong := filepath.Join(dir, "misspelt.csv")
 	// A budget whose one cell cannot be read: a row longer than the header.
 	broken := filepath.Join(dir, "broken.lixiv.json")
-	// Samples whose Na is all sea salt (see TestNoValue): none can be
-	// apportioned.
-	salty := filepath.Join(dir, "salty.csv")
+	// Waters of albite weathering alone: no silicate end-member fits them.
+	albite := filepath.Join(dir, "albite.csv")
 	for path, text := range map[string]string{
 		wrong:  "Sample,When,Sodum,Potasium,Calc,Magn,Chlor\nA1,2024-01-01,4.1,0.4,2.3,0.9,5\nA2,2024-02-01,4.2,0.5,2.5,1.0,5.5\n",
 		broken: `{"format":"lixiv-budget","version":1,"cells":[{"id":"s","kind":"samples","table":{"columns":["a"],"rows":[[1,2]]}}]}`,
-		salty:  saltySamples,
+		albite: albiteSamples,
 	} {
 		if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
 			t.Fatal(err)
@@ -52,8 +51,8 @@ func TestProblemsExitStatus(t *testing.T) {
 		{"rerun, good and unreadable", []string{"rerun", rain, broken}, 1, "broken.lixiv.json: s (problem)", "stored results: match"},
 		{"rerun, good", []string{"rerun", rain}, 0, "", "stored results: match"},
 		{"batch, unreadable cell", []string{"batch", broken}, 1, "1 of 1 budgets failed", "1 cells with problems"},
-		{"quick, nothing apportioned", []string{"quick", "-samples", salty}, errDoubtful, "doubtful results (see above): salty.csv: apportionment, co2",
-			"doubtful: no sample has a usable apportionment (all 2 samples failed)"},
+		{"quick, nothing fits", []string{"quick", "-samples", albite}, errDoubtful, "doubtful results (see above): albite.csv: apportionment",
+			"doubtful: all 2 samples do not fit the end-members, fit them only with ratios beyond their ranges, or are poorly sampled"},
 		{"rerun, doubtful", []string{"rerun", doubtful}, errDoubtful, "doubtful results (see above): doubtful.lixiv.json: fluxes, co2",
 			"fluxes (fluxes): doubtful\n    doubtful: 2 % of the flow passed before the first or after the last apportioned sample (above 1 %)"},
 		{"rerun, doubtful and unreadable", []string{"rerun", doubtful, broken}, 1, "broken.lixiv.json: s (problem)", "fluxes (fluxes): doubtful"},
@@ -76,16 +75,26 @@ func TestProblemsExitStatus(t *testing.T) {
 
 // saltySamples are invented samples whose Cl exceeds Na/0.85912 (the
 // sea-salt Na/Cl of Millero et al. 2008, docs/methods.md §4.2), so that the
-// rain correction takes all their Na and none can be apportioned.
-// Alkalinity is chosen so that both balance (TZ+ = TZ− = 610 and 652
-// µeq/L).
+// rain correction takes all their Na. Alkalinity is chosen so that both
+// balance (TZ+ = TZ− = 610 and 652 µeq/L).
 const saltySamples = "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
 	"S1,2024-01-10,100,10,200,50,150,40,380\n" +
 	"S2,2024-02-10,110,12,210,55,160,42,408\n"
 
+// albiteSamples are invented waters of albite weathering alone, with no Ca
+// or Mg: no silicate end-member of the global preset (Ca/Na and Mg/Na of
+// 0.1 and more) fits them, so their apportionment is doubtful. Alkalinity
+// balances the charge (TZ+ = TZ− = 102 and 122 µeq/L).
+const albiteSamples = "sample,date,Na (µmol/L),K (µmol/L),Ca (µmol/L),Mg (µmol/L),Cl (µmol/L),SO4 (µmol/L),Alk (µeq/L)\n" +
+	"A1,2024-01-10,100,2,0,0,10,5,82\n" +
+	"A2,2024-02-10,120,2,0,0,10,5,102\n"
+
 // TestNoValue checks that a figure or a per-sample result without a value
 // is printed as "no value" with the reason, never as NaN.
 func TestNoValue(t *testing.T) {
+	// The salty samples: no mix of Na-bearing end-members fits, and the
+	// Na-free rule answers them (Ca* and Mg* to carbonate, K* to
+	// silicate), saying so; nothing prints as NaN.
 	path := filepath.Join(t.TempDir(), "salty.csv")
 	if err := os.WriteFile(path, []byte(saltySamples), 0o644); err != nil {
 		t.Fatal(err)
@@ -96,10 +105,9 @@ func TestNoValue(t *testing.T) {
 		t.Errorf("NaN printed:\n%s", out)
 	}
 	for _, want := range []string{
-		"median silicate CO2 consumption per litre: no value: no sample could be apportioned",
-		"S1 2024-01-10 skipped: no value: the sample was not apportioned",
+		"S1 2024-01-10 Na* ≤ 0: no silicate or evaporite Na; all Ca* and Mg* to carbonate, K* to silicate",
+		"Na* <= 0 after the corrections",
 		"atmospheric share of Na above 1 in 2 of 2 samples",
-		"inversion: skipped for all 2 samples",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("stdout lacks %q:\n%s (error %v)", want, out, err)

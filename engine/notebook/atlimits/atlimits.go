@@ -15,7 +15,8 @@ import (
 )
 
 // The shape of the budget. Every cost is at its limit at once:
-//   - Samples × Draws is notebook.MaxSampleDraws (the inverse model);
+//   - Samples × Draws is notebook.MaxSampleDraws (the inverse model, whose
+//     first stage takes every draw a sample may: draws = max_draws);
 //   - Days is the longest record discharge.Read accepts (discharge.MaxDays);
 //   - Replicates × (Samples + Days), for both bootstrap settings, is at
 //     most notebook.MaxBootstrapWork;
@@ -65,6 +66,8 @@ func Budget(demo []byte) (*notebook.Document, error) {
 		d.SetTable("samples", st), d.SetTable("discharge", dt),
 		d.SetParam("apportionment", "model", "inverse"),
 		d.SetParam("apportionment", "draws", fmt.Sprint(Draws)),
+		d.SetParam("apportionment", "target_ess", fmt.Sprint(Draws)),
+		d.SetParam("apportionment", "max_draws", fmt.Sprint(Draws)),
 		d.SetParam("rain", "rain_ratio_uncertainty_percent", "10"),
 		d.SetParam("fluxes", "estimator", "rating-curve"),
 		d.SetParam("fluxes", "seasonal_terms", "true"),
