@@ -296,7 +296,7 @@ const MinJointDraws = 50
 // and why.
 func jointDraws(d *Document, bs []compared, reps int, seed uint64) (*compare.Joint, string) {
 	if why := sharedDraws(d, bs); why != "" {
-		return nil, "each sample's draw from its own posterior, separately in each budget, since " + why
+		return nil, ownDraws + ", since " + why
 	}
 	var w [][][]float64
 	for _, c := range bs {
@@ -312,11 +312,11 @@ func jointDraws(d *Document, bs []compared, reps int, seed uint64) (*compare.Joi
 	j, err := compare.JointDraws(w, reps, seed)
 	switch {
 	case errors.Is(err, compare.ErrNoJoint):
-		return nil, "each sample's draw from its own posterior, separately in each budget, since no draw is kept by every sample of the budgets"
+		return nil, ownDraws + ", since no draw is kept by every sample of the budgets"
 	case err != nil:
-		return nil, "each sample's draw from its own posterior, separately in each budget: " + err.Error()
+		return nil, ownDraws + ": " + err.Error()
 	case j.Effective < MinJointDraws:
-		return nil, fmt.Sprintf("each sample's draw from its own posterior, separately in each budget, since the draws kept by every sample of the budgets amount to %.3g effective draws, fewer than %d", j.Effective, MinJointDraws)
+		return nil, fmt.Sprintf(ownDraws+", since the draws kept by every sample of the budgets amount to %.3g effective draws, fewer than %d", j.Effective, MinJointDraws)
 	}
 	return j, fmt.Sprintf("once per replicate for every budget: one end-member table and rain correction serve them all, and %d draws (%.4g effective) are kept by every sample", len(j.Draws), j.Effective)
 }
@@ -324,7 +324,11 @@ func jointDraws(d *Document, bs []compared, reps int, seed uint64) (*compare.Joi
 // ownDrawsWarning names the consequence of paired replicates without
 // joint draws (docs/methods.md §17), shown whenever each sample takes its
 // own.
-const ownDrawsWarning = "apportionment draws: each sample's weighted draws are taken as its own (the shared table says why), by weight and independently in each budget, so the end-member and rain uncertainty the budgets share is not carried as shared — it does not cancel in the difference as a common error should, and within each budget it averages out over the samples as if independent. Joint draws need the forward model with one end-member table, rain correction, number of draws and seed in every budget"
+const ownDrawsWarning = "apportionment draws: each replicate takes a draw of each sample by its weight, independently in each budget (the shared table says why). The end-member and rain uncertainty the budgets share is therefore not carried as shared: it does not cancel in the difference as a common error should, and within each budget it averages out over the samples as if independent. Joint draws need the forward model with one end-member table, rain correction, number of draws and seed in every budget"
+
+// ownDraws says, at the start of a sentence, how the draws are taken
+// without joint draws.
+const ownDraws = "each sample's own draw, by its weight, separately in each budget"
 
 // budgetFluxOptions returns a budget of the comparison for compare.Pair:
 // its record, estimator and its own discharge and area errors.

@@ -57,7 +57,7 @@ func (v *Comparison) results(out *Output) {
 	s := &v.Settings
 	note := "apportionment draws shared by every budget; the rest of each budget its own (the shared table)"
 	if !strings.HasPrefix(v.Draws, "once") {
-		note = "each sample's own apportionment draws, taken in each budget separately: shared end-member uncertainty not carried as shared (the shared table says why)"
+		note = "each sample's own apportionment draws: shared end-member uncertainty not carried as shared (see the warnings)"
 	}
 	if v.Draws == "" {
 		note = "point values; intervals to follow"

@@ -36,8 +36,10 @@ func openPaired(t *testing.T) context.Context {
 // four sections, marks its shared cells, and its comparison cell shows its
 // figures, its tables (the differences per km² and per mm of runoff, the
 // budgets, how the draws were shared, the feedstock, the years and the
-// monitoring design), its three charts and its cautions. With
-// LIXIV_SHOTS set, it also saves pictures of the comparison cell there.
+// monitoring design), its three charts and its cautions; with one budget
+// apportioned under another seed it warns that the uncertainty the budgets
+// share is not carried as shared. With LIXIV_SHOTS set, it also saves
+// pictures of the comparison cell there.
 func TestComparisonRenders(t *testing.T) {
 	ctx := openPaired(t)
 	heads := eval[[]string](t, ctx, `[...document.querySelectorAll(".section-head")].map(e => e.textContent)`)
@@ -101,6 +103,22 @@ func TestComparisonRenders(t *testing.T) {
 				continue
 			}
 			save(t, filepath.Join(dir, "paired-"+name+".png"), png)
+		}
+	}
+	// One budget apportioned with another seed: no joint draws, and the
+	// cell says what the budgets' shared uncertainty then lacks.
+	edit(t, ctx, "#p-tb-apportionment-seed", "2")
+	js := `document.getElementById("cell-comparison").className.includes("state-ok")`
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](js, chromedp.WithPollingTimeout(200*time.Second))); err != nil {
+		t.Fatalf("the comparison did not compute again: %v", err)
+	}
+	warn = strings.Join(cellText(t, ctx, "comparison", ".warnings li"), "\n")
+	if !strings.Contains(warn, "not carried as shared") {
+		t.Errorf("no warning that the shared uncertainty is not carried as shared:\n%s", warn)
+	}
+	if dir := os.Getenv("LIXIV_SHOTS"); dir != "" {
+		if png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#cell-comparison"))); err == nil {
+			save(t, filepath.Join(dir, "paired-own-draws.png"), png)
 		}
 	}
 }
