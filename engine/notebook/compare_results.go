@@ -51,6 +51,21 @@ func diffFigure(name, unit string, d compare.Difference, note string) Figure {
 	return f
 }
 
+// aboveFigure is the probability that quantity name's difference per km²
+// is above zero: the share of paired replicates above zero. When every
+// replicate (or none) is, the note says so: the share cannot resolve the
+// probability beyond 1 − 1/n with n replicates.
+func aboveFigure(name string, d compare.Difference) Figure {
+	f := Point(fmt.Sprintf("probability that the %s difference per km² is above zero", name), "fraction", d.Above)
+	switch d.Above {
+	case 1:
+		f.Note = fmt.Sprintf("all %d paired replicates above zero: more replicates resolve it beyond %.4g", d.Replicates, 1-1/float64(d.Replicates))
+	case 0:
+		f.Note = fmt.Sprintf("none of %d paired replicates above zero: more replicates resolve it below %.4g", d.Replicates, 1/float64(d.Replicates))
+	}
+	return f
+}
+
 // results puts the differences, the budgets and the feedstock in the
 // cell's tables and headline figures.
 func (v *Comparison) results(out *Output) {
@@ -75,7 +90,7 @@ func (v *Comparison) results(out *Output) {
 			diffFigure(fmt.Sprintf("%s: difference in %s per km²", v.formula(), what), "mol/km²/yr", o.Yield, note),
 			diffFigure(fmt.Sprintf("%s: difference in %s per mm of runoff", v.formula(), what), "mol/km²/mm", o.PerMM, note))
 		if !math.IsNaN(o.Yield.Above) {
-			out.Figures = append(out.Figures, Point(fmt.Sprintf("probability that the %s difference per km² is above zero", name), "fraction", o.Yield.Above))
+			out.Figures = append(out.Figures, aboveFigure(name, o.Yield))
 		}
 	}
 	out.Tables = append(out.Tables, v.differenceTable("difference", "per km² of catchment", "mol/km²/yr", false),

@@ -7,6 +7,8 @@ import (
 	"os"
 	"strings"
 	"testing"
+
+	"lixiv/engine/compare"
 )
 
 // sectionDoc is a budget of two sections, A and B, each with a site and a
@@ -361,5 +363,24 @@ func TestReportSections(t *testing.T) {
 	c := r.Comparison
 	if c.Design != "treated-control" || len(c.Budgets) != 2 || c.Budgets[1]["section"] != "C" || c.Differences["silicate CO2"] == nil || len(c.Cautions) < 4 {
 		t.Errorf("comparison %+v", c)
+	}
+}
+
+// TestAboveFigureNotes: a probability of 1 or 0 from the paired replicates
+// says that every replicate, or none, was above zero and how far the
+// replicates resolve it; one in between has no such note.
+func TestAboveFigureNotes(t *testing.T) {
+	for _, c := range []struct {
+		above float64
+		want  string
+	}{
+		{1, "all 500 paired replicates above zero: more replicates resolve it beyond 0.998"},
+		{0, "none of 500 paired replicates above zero: more replicates resolve it below 0.002"},
+		{0.9, ""},
+	} {
+		f := aboveFigure("silicate CO2", compare.Difference{Above: c.above, Replicates: 500})
+		if f.Note != c.want || f.Median != c.above {
+			t.Errorf("P = %g: %v %q, want %q", c.above, f.Median, f.Note, c.want)
+		}
 	}
 }
