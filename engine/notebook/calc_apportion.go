@@ -432,6 +432,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		if err := checkInverseDraws(n, mo); err != nil {
 			return nil, nil, err
 		}
+		mo.MaxKept = MaxSampleDraws
 		var res *mix.Result
 		if workers == 1 || runtime.GOOS == "js" {
 			// One goroutine, in chunks: the progress callback runs between
@@ -445,12 +446,15 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 				report(int(run.Progress()*1000), 1000)
 			}
 			report(1000, 1000)
+			if err := run.Err(); err != nil {
+				return nil, nil, keptErr(err)
+			}
 			res = run.Result()
 		} else {
 			mo.Progress = func(done, total int) { report(done, total) }
 			var err error
 			if res, err = mix.Invert(ctx, p, mo); err != nil {
-				return nil, nil, err
+				return nil, nil, keptErr(err)
 			}
 		}
 		if err := ctx.Err(); err != nil {
