@@ -15,9 +15,6 @@ import (
 // computes every number).
 
 func init() {
-	kindLabels[notebook.KindCompare] = "Comparison"
-	choices["design"] = []string{"treated-control", "before-after-control-impact"}
-	choices["co2_measure"] = []string{"silicate", "total"}
 	for k, v := range map[string]string{
 		"difference.difference":   "difference",
 		"per-mm.difference":       "difference",
@@ -118,7 +115,7 @@ func (s *Session) SetSection(cell, name string) error {
 // zero with their 95 % intervals, one per quantity of the given names.
 func differenceChart(id, title, unit string, o *notebook.Output, tableName string, names []string) *plot.Chart {
 	t := o.Table(tableName)
-	q, med, lo, hi := exact(t, "quantity"), exact(t, "difference"), exact(t, "difference_low"), exact(t, "difference_high")
+	q, med, lo, hi := t.Column("quantity"), t.Column("difference"), t.Column("difference_low"), t.Column("difference_high")
 	if q == nil || med == nil || q.Text == nil {
 		return nil
 	}
@@ -155,7 +152,7 @@ func at(c *notebook.Column, i int) float64 {
 // cell is asked about as a dashed line.
 func designChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 	t := o.Table("design")
-	n, inc, mark := exact(t, "samples_per_year"), exact(t, "detectable_increase"), exact(t, "design")
+	n, inc, mark := t.Column("samples_per_year"), t.Column("detectable_increase"), t.Column("design")
 	if n == nil || inc == nil {
 		return nil
 	}

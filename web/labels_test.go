@@ -29,25 +29,3 @@ func TestLabels(t *testing.T) {
 		})
 	}
 }
-
-func TestIdleSettings(t *testing.T) {
-	params := func(sulfate string) []notebook.Param {
-		return []notebook.Param{{Key: "sulfate", Value: sulfate}, {Key: "d34s_river_permil", Value: "5"}}
-	}
-	tests := []struct {
-		kind    notebook.Kind
-		key     string
-		sulfate string
-		want    bool
-	}{
-		{notebook.KindApportionment, "d34s_river_permil", "gypsum", true},
-		{notebook.KindApportionment, "d34s_river_permil", "isotope", false},
-		{notebook.KindApportionment, "draws", "gypsum", false},
-		{notebook.KindAtmosphere, "d34s_river_permil", "gypsum", false},
-	}
-	for _, tt := range tests {
-		if got := idle(tt.kind, tt.key, params(tt.sulfate)); got != tt.want {
-			t.Errorf("idle(%s, %s, sulfate %s): got %v, want %v", tt.kind, tt.key, tt.sulfate, got, tt.want)
-		}
-	}
-}

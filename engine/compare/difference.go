@@ -5,6 +5,7 @@ import (
 	"sort"
 
 	"lixiv/engine/flux"
+	"lixiv/engine/internal/quantile"
 )
 
 // Design says how the budgets of a comparison combine.
@@ -111,5 +112,5 @@ func quantileOf(v []float64, p float64) float64 {
 		}
 	}
 	sort.Float64s(s)
-	return flux.Quantile(s, p)
+	return quantile.Sorted(s, p)
 }

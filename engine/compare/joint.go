@@ -7,7 +7,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
-	"lixiv/engine/flux"
+	"lixiv/engine/internal/portable"
 )
 
 // streamJoint is the second PCG word of the joint draw choice.
@@ -62,7 +62,7 @@ func JointDraws(weights [][][]float64, n int, seed uint64) (*Joint, error) {
 			}
 			for d, x := range w {
 				if x > 0 && !math.IsInf(x, 0) {
-					lw[d] += flux.Log(x)
+					lw[d] += portable.Log(x)
 				} else {
 					lw[d] = math.Inf(-1)
 				}
@@ -83,7 +83,7 @@ func JointDraws(weights [][][]float64, n int, seed uint64) (*Joint, error) {
 		if math.IsInf(v, -1) {
 			continue
 		}
-		w := flux.Exp(v - top)
+		w := portable.Exp(v - top)
 		t += w
 		t2 += w * w
 		j.Draws = append(j.Draws, d)

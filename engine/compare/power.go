@@ -9,6 +9,8 @@ import (
 
 	"lixiv/engine/discharge"
 	"lixiv/engine/flux"
+	"lixiv/engine/internal/portable"
+	"lixiv/engine/internal/quantile"
 )
 
 // streamPlan is the second PCG word of the monitoring simulations.
@@ -96,7 +98,7 @@ func newGenerator(s Scatter) (*generator, int, error) {
 			left++
 			continue
 		}
-		lq, lc = append(lq, flux.Log(q)), append(lc, flux.Log(c))
+		lq, lc = append(lq, portable.Log(q)), append(lc, portable.Log(c))
 	}
 	n := len(lc)
 	if n < 3 {
@@ -182,7 +184,7 @@ func (g *generator) programme(rng *rand.Rand, rec *discharge.Record, perYear int
 		}
 		e := g.resid[rng.IntN(len(g.resid))]
 		buf.Days = append(buf.Days, rec.Days[k])
-		buf.C = append(buf.C, flux.Exp(g.b0+g.b1*flux.Log(q)+e))
+		buf.C = append(buf.C, portable.Exp(g.b0+g.b1*portable.Log(q)+e))
 	}
 	r, err := flux.Estimate(rec, *buf, opt)
 	if err != nil {
@@ -265,7 +267,7 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 		null, fluxes = append(null, x), append(fluxes, t)
 	}
 	sort.Float64s(null)
-	hi := flux.Quantile(null, 1-p.Alpha/2)
+	hi := quantile.Sorted(null, 1-p.Alpha/2)
 	deltas := make([]float64, 0, p.Sims)
 	for len(deltas) < p.Sims {
 		if err := p.err(); err != nil {
@@ -285,7 +287,7 @@ func Detect(s Scatter, d Design, plan Plan, p Power) (*Detection, error) {
 		fluxes = append(fluxes, t)
 	}
 	sort.Float64s(deltas)
-	det.Relative = flux.Quantile(deltas, p.Power)
+	det.Relative = quantile.Sorted(deltas, p.Power)
 	m := mean(fluxes)
 	det.Flux, det.SD = m, stdDev(null)/m
 	return det, nil

@@ -9,6 +9,7 @@ import (
 
 	"lixiv/engine/discharge"
 	"lixiv/engine/flux"
+	"lixiv/engine/internal/portable"
 	"lixiv/engine/internal/validation"
 )
 
@@ -178,7 +179,7 @@ func (o *ownPrior) draws(rng *rand.Rand, nd int) (rCa, rMg, w []float64) {
 		rMg[d] = o.cMg * (1 + proposal*zMg)
 		// log N(x; c, prior c) − log N(x; c, proposal c), both ratios.
 		r := proposal / prior
-		w[d] = flux.Exp(-0.5 * (zCa*zCa + zMg*zMg) * (r*r - 1))
+		w[d] = portable.Exp(-0.5 * (zCa*zCa + zMg*zMg) * (r*r - 1))
 	}
 	return rCa, rMg, w
 }

@@ -12,6 +12,7 @@ import (
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/quantile"
 	"lixiv/engine/mix"
 )
 
@@ -485,7 +486,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	var vals, ws []float64
 	var draws []mix.Split
-	var qb quantileBuf
+	var qb quantile.Buf
 	a.weights = make([][]float64, n)
 	a.kept = make([][]int32, n)
 	for i := 0; i < n; i++ {
@@ -521,7 +522,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 				for _, sp := range draws {
 					vals = append(vals, sp[src][k])
 				}
-				q := qb.quantiles(vals, ws, 0.025, 0.5, 0.975)
+				q := qb.Midpoints(vals, ws, 0.025, 0.5, 0.975)
 				a.Lo[i][src][k], a.Median[i][src][k], a.Hi[i][src][k] = q[0], q[1], q[2]
 			}
 		}

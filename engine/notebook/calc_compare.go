@@ -57,10 +57,8 @@ func (*CompareSettings) Kind() Kind { return KindCompare }
 // Validate implements Settings.
 func (s *CompareSettings) Validate() error {
 	err := firstErr(
-		oneOf("design", s.Design, "treated-control", "before-after-control-impact"),
 		validSection(s.Treated), validSection(s.Control), validSection(s.TreatedBefore), validSection(s.ControlBefore),
 		inRange("replicates", float64(s.Replicates), 1, MaxBootstrap),
-		oneOf("co2_measure", s.CO2Measure, "silicate", "total"),
 		inRange("feedstock_t_per_ha", s.TonnesPerHa, 0, 1e4),
 		inRange("spread_area_ha", s.AreaHa, 0, 1e10),
 		inRange("cao_percent", s.CaO, 0, 100), inRange("mgo_percent", s.MgO, 0, 100),
@@ -89,6 +87,31 @@ func (s *CompareSettings) design() compare.Design {
 
 func (s *CompareSettings) oxides() compare.Oxides {
 	return compare.Oxides{CaO: s.CaO, MgO: s.MgO, Na2O: s.Na2O, K2O: s.K2O}
+}
+
+// compareDescriptor describes the comparison cell (package describe.go).
+var compareDescriptor = Descriptor{Kind: KindCompare, Label: "Comparison", New: func() Settings { return defaultCompareSettings() },
+	Inputs: compareRoles,
+	Notes: []SettingNote{
+		{Key: "design", Help: "treated − control over one period, or (after − before) treated − (after − before) control",
+			Choices: []Choice{{Value: "treated-control"}, {Value: "before-after-control-impact"}}},
+		{Key: "co2_measure", Help: "the CO2 consumption set against the feedstock and simulated by the monitoring design",
+			Choices: []Choice{{Value: "silicate"}, {Value: "total"}}},
+	},
+	Tables: []TableInfo{
+		{Name: "difference", Columns: []ColumnInfo{{"quantity", ""}}, Open: true},
+		{Name: "per-mm", Columns: []ColumnInfo{{"quantity", ""}}, Open: true},
+		{Name: "budgets", Columns: []ColumnInfo{{"budget", ""}, {"section", ""}, {"co2_cell", ""}, {"estimator", ""}, {"area", "km²"}, {"runoff", "mm/yr"}, {"complete_years", ""}, {"samples", "apportioned"}}},
+		{Name: "shared", Columns: []ColumnInfo{{"part", ""}, {"drawn", ""}}},
+		{Name: "feedstock", Columns: []ColumnInfo{{"oxide", ""}, {"content", "wt %"}, {"molar_mass", "g/mol"}, {"charge", "mol/kg"}}},
+		{Name: "years", Columns: []ColumnInfo{{"year", ""}}, Open: true},
+		{Name: "design", Columns: []ColumnInfo{{"samples_per_year", "samples/yr"}}, Open: true},
+	},
+	// A comparison's differences per km² lead the summary strip.
+	Headline: []FigureInfo{
+		{Name: "treated − control: difference in", Prefix: true, Rank: -1},
+		{Name: "(after − before) treated − (after − before) control: difference in", Prefix: true, Rank: -1},
+	},
 }
 
 // compareRoles are the budgets a comparison reads, in the order of
