@@ -113,7 +113,7 @@ var choices = map[string][]string{
 	"method":                {"sea-salt", "rain"},
 	"excess_chloride":       {"halite", "human"},
 	"preset":                {"global", "granite", "basalt", "custom"},
-	"model":                 {"inverse", "forward"},
+	"model":                 notebook.ApportionmentModels,
 	"sulfate":               {"gypsum", "sulfide", "isotope"},
 	"negative_residuals":    {"zero-and-flag", "keep"},
 	"estimator":             {"rating-curve", "discharge-weighted", "interpolation", "beale"},

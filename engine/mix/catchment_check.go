@@ -19,17 +19,17 @@ type Identifiability struct {
 	// learn. The check wants Spare >= Shared.
 	Spare, Shared int
 	// Spread is the number of directions of the tracer space along which
-	// the samples' ratios to Na spread by more than twice their errors;
+	// the samples' ratios to Na spread clearly more than their errors;
 	// Want is the end-members less one.
 	Spread, Want int
 	// Text says the outcome in words.
 	Text string
 }
 
-// spreadFactor is the factor by which the samples' spread along a
-// direction must exceed their errors for it to count (an engineering
-// choice, no source): variance 4, twice the standard error.
-const spreadFactor = 4
+// spreadSigmas is how far, in standard errors of a sample variance, the
+// samples' variance along a direction must exceed that of their errors for
+// the direction to count (an engineering choice, no source).
+const spreadSigmas = 4
 
 // check makes the counting check and lists the samples of the joint fit.
 func (c *CatchmentRun) check() Identifiability {
@@ -69,9 +69,10 @@ func (c *CatchmentRun) check() Identifiability {
 }
 
 // spread counts the directions of the space of log ratios to Na along
-// which the used samples spread by more than spreadFactor times their
-// errors: the eigenvalues of the covariance of the log ratios, each
-// tracer standardised by its median error, that exceed spreadFactor.
+// which the used samples spread clearly more than their errors: the
+// eigenvalues of the covariance of the log ratios, each tracer
+// standardised by its median error, that exceed 1 by spreadSigmas
+// standard errors.
 func (c *CatchmentRun) spread() int {
 	r := c.base
 	var rows [maxRows]Tracer
@@ -141,8 +142,13 @@ func (c *CatchmentRun) spread() int {
 		cov[i] /= float64(len(pts) - 1)
 	}
 	n := 0
+	// Along a direction of pure error the variance is near 1, give or take
+	// sqrt(2/(S−1)) for S samples (common practice for a sample variance):
+	// a direction counts when its variance exceeds 1 by spreadSigmas of
+	// that.
+	limit := 1 + spreadSigmas*sqrt(2/float64(len(pts)-1))
 	for _, l := range jacobiEigen(m, cov) {
-		if l > spreadFactor {
+		if l > limit {
 			n++
 		}
 	}

@@ -81,9 +81,15 @@ type SourcesSettings struct {
 	Preset string `json:"preset"` // "granite", "basalt", "global" or "custom"
 }
 
+// ApportionmentModels are the values of the apportionment cell's model
+// setting: "inverse" (each sample on its own, Monte Carlo), "catchment"
+// (every sample together, sharing the end-members' ratios) and "forward"
+// (sequential subtraction). The page's choice list reads them.
+var ApportionmentModels = []string{"inverse", "catchment", "forward"}
+
 // ApportionmentSettings choose the model.
 type ApportionmentSettings struct {
-	Model         string   `json:"model"`                 // "inverse" (Monte Carlo) or "forward"
+	Model         string   `json:"model"`                 // one of ApportionmentModels
 	Tracers       []string `json:"tracers"`               // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
 	Draws         int      `json:"draws"`                 // prior draws of the first stage (the forward model: draws per sample)
 	TargetESS     int      `json:"target_ess"`            // effective sample size at which a sample's refinement stops
@@ -341,7 +347,7 @@ func (s *SourcesSettings) Validate() error { return nil }
 // Validate implements Settings.
 func (s *ApportionmentSettings) Validate() error {
 	err := firstErr(
-		oneOf("model", s.Model, "inverse", "forward"),
+		oneOf("model", s.Model, ApportionmentModels...),
 		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide", "isotope"),
 		inRange("d34s_river_permil", s.D34SRiver, -100, 100),
 		inRange("d34s_evaporite_permil", s.D34SEvaporite, -100, 100),
@@ -354,8 +360,8 @@ func (s *ApportionmentSettings) Validate() error {
 	if err != nil {
 		return err
 	}
-	if s.Model == "inverse" && len(s.Tracers) == 0 {
-		return settingErr("tracers", "the inverse model needs at least one tracer")
+	if s.Model != "forward" && len(s.Tracers) == 0 {
+		return settingErr("tracers", "the %s model needs at least one tracer", s.Model)
 	}
 	return nil
 }
