@@ -50,9 +50,9 @@ func makeCatchment(ns, n int, seed uint64) *synthCatchment {
 				sc.theta[t][j] = s.v
 				continue
 			}
-			sc.theta[t][j] = math.Exp(s.fromLatent(rng.NormFloat64()))
+			sc.theta[t][j] = pexp(s.fromLatent(normal01(rng)))
 		}
-		sc.tau[j] = math.Abs(0.1 * rng.NormFloat64())
+		sc.tau[j] = math.Abs(0.1 * normal01(rng))
 	}
 	prec := DefaultPrecision()
 	for i := range ns {
@@ -60,16 +60,16 @@ func makeCatchment(ns, n int, seed uint64) *synthCatchment {
 		g := make([]float64, n)
 		sum := 0.0
 		for j := range g {
-			g[j] = rng.ExpFloat64()
+			g[j] = -plog(uniform(rng))
 			sum += g[j]
 		}
-		total := 100 * math.Exp(rng.Float64()*math.Log(20))
+		total := 100 * pexp(rng.Float64()*plog(20))
 		for j := range ems {
 			var r [NTracers]float64
 			for t := range NTracers {
 				r[t] = sc.theta[t][j]
 				if !newSampler(ems[j].Ratio[t]).constant && Tracer(t) != Sr87Sr86 {
-					r[t] *= math.Exp(sc.tau[j] * rng.NormFloat64())
+					r[t] *= pexp(sc.tau[j] * normal01(rng))
 				}
 			}
 			charge := 1 + r[KNa] + 2*r[CaNa] + 2*r[MgNa]
@@ -86,12 +86,17 @@ func makeCatchment(ns, n int, seed uint64) *synthCatchment {
 		}
 		meas := chem.NewComposition()
 		for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.Alk} {
-			meas[sp] = c[sp] + prec.Sigma(sp, c[sp])*rng.NormFloat64()
+			meas[sp] = c[sp] + prec.Sigma(sp, c[sp])*normal01(rng)
 		}
 		sc.prob.Waters = append(sc.prob.Waters, Water{Name: "s" + itoa(i+1), Conc: meas, Sr87Sr86: math.NaN()})
 	}
 	return sc
 }
+
+// normal01 is a standard normal number computed the same on every target
+// (the generator's data must not differ between the native and the
+// WebAssembly runs; rand's NormFloat64 uses the math package's exp).
+func normal01(rng *rand.Rand) float64 { return normQuantile(uniform(rng)) }
 
 func itoa(i int) string {
 	if i < 10 {
