@@ -54,6 +54,8 @@ type CatchmentOptions struct {
 	// scatter of ln ratio per end-member; 0 means 0.1 (common practice, no
 	// source; docs/methods.md §7.11).
 	Scatter float64
+
+	fixScatter bool // the scatter held at zero (a study of the sampler)
 }
 
 // RHatLimit is the split R-hat below which the chains agree (Vehtari et al.
@@ -161,10 +163,11 @@ type CatchmentRun struct {
 	keep   [][]float64 // the kept states, one per joint draw
 	extra  []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
 
-	phase int // 0: chains; 1: samples; 2: done
-	next  int // phase 1: next sample
-	shown float64
-	mu    sync.Mutex
+	refitted int // the last warm-up step at which the proposals were refitted
+	phase    int // 0: chains; 1: samples; 2: done
+	next     int // phase 1: next sample
+	shown    float64
+	mu       sync.Mutex
 }
 
 // catchmentStream, drawStream and scatterStream are the second PCG words of
@@ -201,6 +204,9 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 	base.res.Joint = true
 	c.nd = len(base.dims)
 	for j := range base.n {
+		if c.co.fixScatter {
+			break
+		}
 		for _, d := range base.dims {
 			if d.em == j {
 				c.ems = append(c.ems, j)
@@ -293,7 +299,7 @@ func (c *CatchmentRun) Step(ctx context.Context, n int) (done bool) {
 					ch = x
 				}
 			}
-			if ch.t < ch.goal+c.co.Warmup {
+			if ch.t < c.stopAt(ch) {
 				c.step(ch)
 				n -= per
 				if ch.t%64 == 0 {
@@ -301,7 +307,7 @@ func (c *CatchmentRun) Step(ctx context.Context, n int) (done bool) {
 				}
 				continue
 			}
-			c.checkpoint()
+			c.sync()
 			continue
 		}
 		c.summarise(c.next)
@@ -313,6 +319,18 @@ func (c *CatchmentRun) Step(ctx context.Context, n int) (done bool) {
 		}
 	}
 	return c.Done()
+}
+
+// sync is called when every chain has reached its stop: it refits the
+// proposals during the warm-up, and after it checks convergence.
+func (c *CatchmentRun) sync() {
+	if t := c.chains[0].t; t < c.co.Warmup {
+		if c.refitAt(t) {
+			c.refit()
+		}
+		return
+	}
+	c.checkpoint()
 }
 
 // checkpoint is called when every chain has reached its goal: it checks
@@ -433,7 +451,7 @@ func InvertCatchment(ctx context.Context, p Problem, o *Options, co *CatchmentOp
 	for c.phase == 0 {
 		parallel(len(c.chains), func(i int) {
 			ch := c.chains[i]
-			for ch.t < ch.goal+c.co.Warmup && ctx.Err() == nil {
+			for stop := c.stopAt(ch); ch.t < stop && ctx.Err() == nil; {
 				c.step(ch)
 				if ch.t%256 == 0 {
 					c.report()
@@ -444,7 +462,7 @@ func InvertCatchment(ctx context.Context, p Problem, o *Options, co *CatchmentOp
 			c.cancel()
 			return c.base.res, nil
 		}
-		c.checkpoint()
+		c.sync()
 	}
 	ns := len(p.Waters)
 	done := make([]bool, ns)

@@ -25,9 +25,8 @@ type chain struct {
 	tau      [MaxEndMembers]float64
 }
 
-// adaptEvery is the length of a warm-up adaptation window, in steps; the
-// proposal's covariance is refitted at the end of windows that double in
-// length, its scale after every window (towards 23 % acceptance, the
+// adaptEvery is the length of a warm-up adaptation window, in steps: the
+// proposal's scale is tuned after every window (towards 23 % acceptance, the
 // optimum of random-walk Metropolis in many dimensions: Roberts, Gelman &
 // Gilks 1997, Ann. Appl. Probab. 7, from memory).
 const (
@@ -105,10 +104,8 @@ func (c *CatchmentRun) step(ch *chain) {
 	ch.hist = append(ch.hist, ch.x...)
 }
 
-// adapt tunes the proposal of ch at the end of a warm-up window: its scale
-// towards the goal acceptance, and, at windows 4, 8, 16, … within the first
-// three quarters of the warm-up, its covariance to that of the second half of the warm-up so far, scaled
-// by 2.38²/dimensions (Gelman, Roberts & Gilks 1996, from memory).
+// adapt tunes the scale of ch's proposal at the end of each warm-up
+// window, towards the goal acceptance.
 func (c *CatchmentRun) adapt(ch *chain) {
 	if ch.t%adaptEvery != 0 {
 		return
@@ -117,28 +114,65 @@ func (c *CatchmentRun) adapt(ch *chain) {
 	ch.window = 0
 	ch.logScale += 1.5 * (rate - acceptGoal)
 	ch.logScale = max(-12, min(3, ch.logScale))
-	w := ch.t / adaptEvery
-	if w < 4 || w&(w-1) != 0 || 4*ch.t > 3*c.co.Warmup {
-		return
+}
+
+// refitAt reports whether the chains' proposals are refitted at step t:
+// at 200, 400, 800, … steps and at three quarters of the warm-up, never
+// after.
+func (c *CatchmentRun) refitAt(t int) bool {
+	last := 3 * c.co.Warmup / 4
+	if t == last {
+		return true
 	}
+	for p := 200; p < last; p *= 2 {
+		if t == p {
+			return true
+		}
+	}
+	return false
+}
+
+// stopAt returns the step at which ch waits for the other chains: the next
+// refit, or the end of its current goal.
+func (c *CatchmentRun) stopAt(ch *chain) int {
+	for t := max(ch.t, c.refitted+1); t < c.co.Warmup; t++ {
+		if c.refitAt(t) {
+			return t
+		}
+	}
+	return c.co.Warmup + ch.goal
+}
+
+// refit sets every chain's proposal covariance to that of the second half
+// of the warm-up so far, pooled over the chains (which, started apart, see
+// more of the posterior than any one of them), scaled by 2.38²/dimensions
+// (Gelman, Roberts & Gilks 1996, from memory).
+func (c *CatchmentRun) refit() {
 	np := c.np
-	from, to := ch.t/2, ch.t
-	n := float64(to - from)
+	to := c.chains[0].t
+	c.refitted = to
+	from := to / 2
+	n := 0.0
 	mean := make([]float64, np)
-	for k := from; k < to; k++ {
-		for i := range np {
-			mean[i] += ch.warm[k*np+i]
+	for _, ch := range c.chains {
+		for k := from; k < to; k++ {
+			for i := range np {
+				mean[i] += ch.warm[k*np+i]
+			}
+			n++
 		}
 	}
 	for i := range mean {
 		mean[i] /= n
 	}
 	cov := make([]float64, np*np)
-	for k := from; k < to; k++ {
-		x := ch.warm[k*np : (k+1)*np]
-		for i := range np {
-			for j := 0; j <= i; j++ {
-				cov[i*np+j] += float64((x[i] - mean[i]) * (x[j] - mean[j]))
+	for _, ch := range c.chains {
+		for k := from; k < to; k++ {
+			x := ch.warm[k*np : (k+1)*np]
+			for i := range np {
+				for j := 0; j <= i; j++ {
+					cov[i*np+j] += float64((x[i] - mean[i]) * (x[j] - mean[j]))
+				}
 			}
 		}
 	}
@@ -149,8 +183,12 @@ func (c *CatchmentRun) adapt(ch *chain) {
 		}
 		cov[i*np+i] += 1e-8
 	}
-	if l, ok := cholesky(np, cov); ok {
-		ch.chol = l
+	l, ok := cholesky(np, cov)
+	if !ok {
+		return
+	}
+	for _, ch := range c.chains {
+		ch.chol = append([]float64(nil), l...)
 		ch.logScale = 0
 	}
 }
@@ -211,12 +249,29 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 }
 
 // sampleLogL returns the log marginal likelihood of one sample given the
-// shared ratios th and scatters tau: the exact non-negative fit of its
-// amounts, with the scatter added to each tracer row's variance at the fit
-// without scatter, −½ χ² − ½ log det C − ½ log det ÃᵀÃ.
+// shared ratios th and scatters tau (up to a constant). The amounts have a
+// half-normal prior on the cation charge each end-member brings, c_j n_j
+// with c_j = 1 + K/Na + 2 Ca/Na + 2 Mg/Na, of scale the sample's own
+// cation charge T (an assumption, docs/methods.md §7.11): proper, so that
+// end-members that come to look alike cannot make the volume of their
+// amounts infinite, and in units of charge, so that an end-member poor in
+// Na (carbonate) cannot trade its ratios against its amount. Its Gaussian
+// part joins the least squares: with D = diag(c_j/T)², the exact
+// non-negative fit of ÃᵀÃ + D gives the misfit, and the marginal is
+// −½ (χ² + nᵀDn) − ½ log det C − ½ log det(ÃᵀÃ + D) + ½ log det D. The
+// scatter is added to each tracer row's variance at the fit without it.
 func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
+	var dg vec6
+	tot := 0.0
+	for c, f := range [NCations]float64{1, 1, 2, 2} {
+		if v := st.x[c].v; v > 0 {
+			tot += f * v
+		}
+	}
+	tot = max(tot, 1)
+	ld := 0.0
 	for jj, j := range st.act {
 		A[0][jj] = 1
 		for row := 1; row < R; row++ {
@@ -226,10 +281,16 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 				A[row][jj] = th[t][j]
 			}
 		}
+		cj := (1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]) / tot
+		dg[jj] = cj * cj
+		ld += plog(cj)
 	}
 	var H mat6
 	var b, n vec6
 	normal(R, K, &st.linv, &A, &st.yt, &H, &b)
+	for jj := 0; jj < K; jj++ {
+		H[jj][jj] += dg[jj]
+	}
 	nnls(K, &H, &b, &n)
 	// The covariance with the scatter, and its factor.
 	var C, L [maxRows][maxRows]float64
@@ -279,24 +340,16 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 	}
 	gram(R, K, &At, &yt, &H, &b)
+	for jj := 0; jj < K; jj++ {
+		H[jj][jj] += dg[jj]
+	}
 	nnls(K, &H, &b, &n)
-	chi2 := max(0, yy-2*dot(K, &b, &n)+quad(K, &H, &n))
-	l := -0.5*chi2 - logDet
-	// The amounts' prior is flat in the cation charge each end-member
-	// brings (c_j n_j, as the per-sample model's shares of charge), not in
-	// its Na: the Jacobian Π c_j, without which an end-member poor in Na
-	// (carbonate) would trade its ratios against its amount.
-	for _, j := range st.act {
-		l += plog(1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j])
+	chi2 := max(0, yy-2*dot(K, &b, &n)+quad(K, &H, &n)) // the penalty nᵀDn included
+	hd, ok := logDetChol(K, &H)
+	if !ok {
+		return math.Inf(-1)
 	}
-	if R >= K {
-		hd, ok := logDetChol(K, &H)
-		if !ok {
-			hd = 0.5 * float64(K) * plog(1e-13*max(H[0][0], 1e-300))
-		}
-		l -= hd
-	}
-	return l
+	return -0.5*chi2 - logDet - hd + ld
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
