@@ -456,7 +456,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		}
 		var co *mix.CatchmentOptions
 		if s.Model == "catchment" {
-			if err := checkSampleDraws(s.Model, n, catchmentKeep); err != nil {
+			if err := checkCatchmentSamples(n); err != nil {
 				return nil, nil, err
 			}
 			co = &mix.CatchmentOptions{Keep: catchmentKeep}
