@@ -9,7 +9,7 @@ import (
 	"sync"
 )
 
-// The catchment-wide model (docs/methods.md §7.11) inverts every water of
+// The catchment-wide model (docs/methods.md §7.12) inverts every water of
 // a Problem together: the end-member ratios the likelihood reads are
 // shared by all samples (one value per end-member and ratio, with today's
 // priors), each sample's own ratios scatter about them by a log-normal
@@ -52,7 +52,7 @@ type CatchmentOptions struct {
 	Keep int
 	// Scatter is the scale of the half-normal prior of the sample-to-sample
 	// scatter of ln ratio per end-member; 0 means 0.1 (common practice, no
-	// source; docs/methods.md §7.11).
+	// source; docs/methods.md §7.12).
 	Scatter float64
 
 	fixScatter bool // the scatter held at zero (a study of the sampler)
@@ -180,7 +180,7 @@ const (
 )
 
 // NewCatchmentRun checks the problem, sets up every water and makes the
-// counting check (docs/methods.md §7.11). When the samples cannot identify
+// counting check (docs/methods.md §7.12). When the samples cannot identify
 // the shared ratios, the run is the per-sample model's, and
 // Result().Catchment.Fallback says why.
 func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun, error) {

@@ -252,7 +252,7 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // shared ratios th and scatters tau (up to a constant). The amounts have a
 // half-normal prior on the cation charge each end-member brings, c_j n_j
 // with c_j = 1 + K/Na + 2 Ca/Na + 2 Mg/Na, of scale the sample's own
-// cation charge T (an assumption, docs/methods.md §7.11): proper, so that
+// cation charge T (an assumption, docs/methods.md §7.12): proper, so that
 // end-members that come to look alike cannot make the volume of their
 // amounts infinite, and in units of charge, so that an end-member poor in
 // Na (carbonate) cannot trade its ratios against its amount. Its Gaussian

@@ -6,7 +6,7 @@ import (
 )
 
 // Identifiability is the counting check of the catchment-wide model, made
-// before the run (docs/methods.md §7.11): the samples must give more
+// before the run (docs/methods.md §7.12): the samples must give more
 // equations than their own amounts take, by at least the number of shared
 // ratios, and their data must spread along the mixing space.
 type Identifiability struct {
