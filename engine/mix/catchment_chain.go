@@ -255,11 +255,13 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // cation charge T (an assumption, docs/methods.md §7.12): proper, so that
 // end-members that come to look alike cannot make the volume of their
 // amounts infinite, and in units of charge, so that an end-member poor in
-// Na (carbonate) cannot trade its ratios against its amount. Its Gaussian
-// part joins the least squares: with D = diag(c_j/T)², the exact
-// non-negative fit of ÃᵀÃ + D gives the misfit, and the marginal is
-// −½ (χ² + nᵀDn) − ½ log det C − ½ log det(ÃᵀÃ + D) + ½ log det D. The
-// scatter is added to each tracer row's variance at the fit without it.
+// Na (carbonate) cannot trade its ratios against its amount. With D =
+// diag(c_j/T)², the integral over n >= 0 of the Gaussian likelihood times
+// that prior is taken in closed form but for the orthant, whose chance is
+// the product of the marginal chances (gaussOrthant): without it, the
+// marginal would favour end-members that sit inside the cloud of samples.
+// The scatter is added to each tracer row's variance at the exact
+// non-negative fit without it.
 func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
@@ -343,13 +345,73 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	for jj := 0; jj < K; jj++ {
 		H[jj][jj] += dg[jj]
 	}
-	nnls(K, &H, &b, &n)
-	chi2 := max(0, yy-2*dot(K, &b, &n)+quad(K, &H, &n)) // the penalty nᵀDn included
-	hd, ok := logDetChol(K, &H)
-	if !ok {
-		return math.Inf(-1)
+	return gaussOrthant(K, &H, &b, yy) - logDet + ld
+}
+
+// gaussOrthant returns the log of the integral over n >= 0 of
+// exp(−½ (yy − 2 bᵀn + nᵀHn)) (up to the constant (2π)^(k/2)): the Gaussian
+// integral at the unconstrained optimum μ = H⁻¹b, −½ (yy − bᵀμ) − ½ log det H,
+// times the chance that a draw of N(μ, H⁻¹) is non-negative, taken as the
+// product of the marginal chances Φ(μ_j/σ_j) (as the face estimates of the
+// per-sample model, slab.go). −Inf when H is singular.
+func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
+	var L [MaxEndMembers][MaxEndMembers]float64
+	hd := 0.0
+	for j := 0; j < K; j++ {
+		d := H[j][j]
+		for p := 0; p < j; p++ {
+			d -= L[j][p] * L[j][p]
+		}
+		if !(d > 1e-13*H[j][j]) {
+			return math.Inf(-1)
+		}
+		d = sqrt(d)
+		L[j][j] = d
+		hd += plog(d)
+		for i := j + 1; i < K; i++ {
+			s := H[i][j]
+			for p := 0; p < j; p++ {
+				s -= L[i][p] * L[j][p]
+			}
+			L[i][j] = s / d
+		}
 	}
-	return -0.5*chi2 - logDet - hd + ld
+	var y, mu vec6
+	for i := 0; i < K; i++ {
+		s := b[i]
+		for p := 0; p < i; p++ {
+			s -= L[i][p] * y[p]
+		}
+		y[i] = s / L[i][i]
+	}
+	fit := 0.0
+	for i := K - 1; i >= 0; i-- {
+		s := y[i]
+		for p := i + 1; p < K; p++ {
+			s -= L[p][i] * mu[p]
+		}
+		mu[i] = s / L[i][i]
+		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
+	}
+	l := -0.5*max(0, yy-fit) - hd
+	for i := 0; i < K; i++ {
+		// (H⁻¹)_ii: the squared norm of column i of L⁻¹.
+		var col vec6
+		v := 0.0
+		for a := i; a < K; a++ {
+			s := 0.0
+			if a == i {
+				s = 1
+			}
+			for p := i; p < a; p++ {
+				s -= L[a][p] * col[p]
+			}
+			col[a] = s / L[a][a]
+			v += col[a] * col[a]
+		}
+		l += plog(max(normCDF(mu[i]/sqrt(v)), 1e-300))
+	}
+	return l
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
