@@ -156,9 +156,10 @@ type CatchmentRun struct {
 	co   CatchmentOptions
 	cat  *Catchment
 
-	used   []int // samples in the joint likelihood
-	ems    []int // end-members with a scatter (some ratio of theirs is random)
-	nd, np int   // shared latents; all parameters (latents and log scatters)
+	used   []int               // samples in the joint likelihood
+	seen   [MaxEndMembers]bool // end-members that take part in some used sample
+	ems    []int               // end-members with a scatter (some ratio of theirs is random)
+	nd, np int                 // shared latents; all parameters (latents and log scatters)
 	chains []*chain
 	keep   [][]float64 // the kept states, one per joint draw
 	extra  []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
@@ -204,8 +205,8 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 	base.res.Joint = true
 	c.nd = len(base.dims)
 	for j := range base.n {
-		if c.co.fixScatter {
-			break
+		if c.co.fixScatter || !c.seen[j] {
+			continue
 		}
 		for _, d := range base.dims {
 			if d.em == j {
@@ -496,6 +497,9 @@ func (c *CatchmentRun) summariseShared() {
 	cat := c.cat
 	cat.MaxRHat, cat.MinESS = 0, math.Inf(1)
 	for i, d := range r.dims {
+		if !c.seen[d.em] {
+			continue // no sample sees it: its prior, untouched
+		}
 		s := &r.smp[d.t][d.em]
 		for k, x := range c.keep {
 			col[k] = pexp(s.fromLatent(x[i]))

@@ -42,11 +42,18 @@ func (c *CatchmentRun) check() Identifiability {
 			continue
 		}
 		c.used = append(c.used, s)
+		for _, j := range st.act {
+			c.seen[j] = true
+		}
 		id.Spare += st.r - st.k
 		kmax = max(kmax, st.k)
 	}
 	id.Samples = len(c.used)
-	id.Shared = len(r.dims)
+	for _, d := range r.dims {
+		if c.seen[d.em] {
+			id.Shared++
+		}
+	}
 	id.Want = max(kmax-1, 0)
 	id.Spread = c.spread()
 	id.OK = id.Samples > 0 && id.Spare >= id.Shared && id.Spread >= id.Want && id.Shared > 0

@@ -10,7 +10,10 @@ package mix
 // diagnose reports whether every shared latent has R-hat below RHatLimit
 // and an ESS of at least the target, over the kept steps so far.
 func (c *CatchmentRun) diagnose() bool {
-	for i := range c.nd {
+	for i, d := range c.base.dims {
+		if !c.seen[d.em] {
+			continue
+		}
 		rh, ess := c.diag(i)
 		if !(rh < RHatLimit) || !(ess >= float64(c.co.TargetESS)) {
 			return false
