@@ -265,6 +265,7 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
+	design(st, th, &A)
 	var dg vec6
 	tot := 0.0
 	for c, f := range [NCations]float64{1, 1, 2, 2} {
@@ -275,14 +276,6 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	tot = max(tot, 1)
 	ld := 0.0
 	for jj, j := range st.act {
-		A[0][jj] = 1
-		for row := 1; row < R; row++ {
-			if t := st.tr[row]; t == Sr87Sr86 {
-				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
-			} else {
-				A[row][jj] = th[t][j]
-			}
-		}
 		cj := (1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]) / tot
 		dg[jj] = cj * cj
 		ld += plog(cj)
@@ -395,21 +388,7 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	}
 	l := -0.5*max(0, yy-fit) - hd
 	for i := 0; i < K; i++ {
-		// (H⁻¹)_ii: the squared norm of column i of L⁻¹.
-		var col vec6
-		v := 0.0
-		for a := i; a < K; a++ {
-			s := 0.0
-			if a == i {
-				s = 1
-			}
-			for p := i; p < a; p++ {
-				s -= L[a][p] * col[p]
-			}
-			col[a] = s / L[a][a]
-			v += col[a] * col[a]
-		}
-		l += plog(max(normCDF(mu[i]/sqrt(v)), 1e-300))
+		l += plog(max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300))
 	}
 	return l
 }
@@ -418,6 +397,12 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 // whitened by the lower-triangular w (Ã = w A), with ỹ given whitened.
 func normal(R, K int, w *[maxRows][maxRows]float64, A *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
 	var At [maxRows][MaxEndMembers]float64
+	whiten(R, K, w, A, &At)
+	gram(R, K, &At, yt, H, b)
+}
+
+// whiten sets At = w A for the lower-triangular w.
+func whiten(R, K int, w *[maxRows][maxRows]float64, A, At *[maxRows][MaxEndMembers]float64) {
 	for i := 0; i < R; i++ {
 		wi := &w[i]
 		for jj := 0; jj < K; jj++ {
@@ -428,7 +413,6 @@ func normal(R, K int, w *[maxRows][maxRows]float64, A *[maxRows][MaxEndMembers]f
 			At[i][jj] = s
 		}
 	}
-	gram(R, K, &At, yt, H, b)
 }
 
 // gram forms H = ÃᵀÃ and b = Ãᵀỹ.
@@ -447,4 +431,23 @@ func gram(R, K int, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H
 		}
 		b[i] = s
 	}
+}
+
+// invDiag returns (H⁻¹)_ii for H = L Lᵀ of order m: the squared norm of
+// column i of L⁻¹.
+func invDiag(m int, l *[MaxEndMembers][MaxEndMembers]float64, i int) float64 {
+	var col [MaxEndMembers]float64
+	v := 0.0
+	for a := i; a < m; a++ {
+		s := 0.0
+		if a == i {
+			s = 1
+		}
+		for p := i; p < a; p++ {
+			s -= l[a][p] * col[p]
+		}
+		col[a] = s / l[a][a]
+		v += col[a] * col[a]
+	}
+	return v
 }
