@@ -84,8 +84,9 @@ func ColumnLabel(table string, col *notebook.Column) string {
 }
 
 // idle reports a setting that does nothing in the cell's current mode:
-// the δ34S values are read only when the sulfate source is "isotope", and
-// the tracers and the refinement of the inverse model only by it.
+// the δ34S values are read only when the sulfate source is "isotope", the
+// tracers only by the inverse and catchment-wide models, and the
+// refinement of the inverse model only by it.
 func idle(kind notebook.Kind, key string, params []notebook.Param) bool {
 	if kind != notebook.KindApportionment {
 		return false
@@ -99,8 +100,10 @@ func idle(kind notebook.Kind, key string, params []notebook.Param) bool {
 		return ""
 	}
 	switch key {
-	case "tracers", "target_ess", "max_draws":
+	case "tracers":
 		return value("model") == "forward"
+	case "target_ess", "max_draws":
+		return value("model") != "inverse"
 	}
 	return strings.HasPrefix(key, "d34s_") && value("sulfate") != "isotope"
 }
