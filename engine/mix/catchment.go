@@ -227,6 +227,16 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 // NotRun.
 func (c *CatchmentRun) Result() *Result { return c.base.res }
 
+// Err reports a run stopped because its samples' draws passed
+// Options.MaxKept (only the per-sample model's, after a fall back: the
+// joint draws are CatchmentOptions.Keep per sample); nil otherwise.
+func (c *CatchmentRun) Err() error {
+	if c.phase == 3 {
+		return c.base.Err()
+	}
+	return nil
+}
+
 // Done reports whether the run is finished.
 func (c *CatchmentRun) Done() bool {
 	if c.phase == 3 {

@@ -81,6 +81,11 @@ type Options struct {
 	// MaxDraws caps the draws of one sample over all stages; 0 means 20
 	// times TargetESS (and never fewer than Draws).
 	MaxDraws int
+	// MaxKept caps the draws the result keeps over all samples (those
+	// with a weight, about 150 bytes each), which bounds its memory; 0
+	// means no cap. A run that would keep more stops at the sample that
+	// passes it, and Run.Err and Invert say so.
+	MaxKept int
 	// Seed seeds the PCG generators; stored with the budget.
 	Seed uint64
 	// Precision is the analytical precision of the measured

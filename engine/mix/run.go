@@ -2,6 +2,7 @@ package mix
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math/rand/v2"
 	"runtime"
@@ -44,8 +45,10 @@ type Run struct {
 	cur      int         // Step: next sample
 	work     *sampleWork // Step: the sample being worked on
 	finished atomic.Int64
-	shown    float64    // Progress: the largest fraction reported so far
-	mu       sync.Mutex // serialises Options.Progress
+	kept     atomic.Int64 // draws kept by the finished samples
+	over     atomic.Int64 // 1 + the sample whose draws passed Options.MaxKept, or 0
+	shown    float64      // Progress: the largest fraction reported so far
+	mu       sync.Mutex   // serialises Options.Progress
 }
 
 // NewRun checks the problem, draws the first-stage end-member ratios and
@@ -189,6 +192,10 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 		r.report()
 		if r.work.finished {
 			r.finish(r.work)
+			if r.keep(r.work.s) {
+				r.cancel()
+				return true
+			}
 			r.work = nil
 			r.cur++
 			r.finished.Add(1)
@@ -227,7 +234,7 @@ func (r *Run) Result() *Result { return r.res }
 // goroutines over samples (all cores by default). The result does not
 // depend on the number of workers. Cancelling ctx stops the run early;
 // unfinished samples are then Canceled. The error is non-nil only for a
-// problem that cannot be run at all; how the inversion went is in
+// problem that cannot be run at all, or a run stopped at Options.MaxKept; how the inversion went is in
 // Result.Status and each sample's Status, Verdict and Warnings.
 func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 	r, err := NewRun(p, o)
@@ -253,7 +260,7 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 					return
 				}
 				w := r.begin(s)
-				for !w.finished && ctx.Err() == nil {
+				for !w.finished && ctx.Err() == nil && r.over.Load() == 0 {
 					w.advance(r, chunk)
 				}
 				if !w.finished {
@@ -262,6 +269,11 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 					continue
 				}
 				r.finish(w)
+				if r.keep(s) {
+					r.res.Samples[s].Status = Canceled
+					r.res.Samples[s].Verdict = Canceled.String()
+					continue
+				}
 				r.finished.Add(1)
 				r.report()
 			}
@@ -270,5 +282,32 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 	wg.Wait()
 	r.cur = ns
 	r.res.Status = r.res.worst()
-	return r.res, nil
+	return r.res, r.Err()
 }
+
+// keep counts the draws sample s keeps and reports whether they pass
+// Options.MaxKept.
+func (r *Run) keep(s int) bool {
+	if r.opt.MaxKept <= 0 {
+		return false
+	}
+	if r.kept.Add(int64(len(r.res.Samples[s].draws))) <= int64(r.opt.MaxKept) {
+		return false
+	}
+	r.over.CompareAndSwap(0, int64(s)+1)
+	return true
+}
+
+// Err reports a run stopped because its samples' draws passed
+// Options.MaxKept (ErrTooManyKept), naming the sample; nil otherwise.
+func (r *Run) Err() error {
+	if s := r.over.Load(); s > 0 {
+		return fmt.Errorf("%w: the draws kept reached the limit of %d at sample %q (%d of %d)",
+			ErrTooManyKept, r.opt.MaxKept, r.prob.Waters[s-1].Name, s, len(r.prob.Waters))
+	}
+	return nil
+}
+
+// ErrTooManyKept says an inversion stopped because its samples' draws
+// passed Options.MaxKept.
+var ErrTooManyKept = errors.New("too many draws kept")

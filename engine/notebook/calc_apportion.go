@@ -454,6 +454,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		if err := checkInverseDraws(n, mo); err != nil {
 			return nil, nil, err
 		}
+		mo.MaxKept = MaxSampleDraws
 		var co *mix.CatchmentOptions
 		if s.Model == "catchment" {
 			if err := checkCatchmentSamples(n); err != nil {
@@ -583,13 +584,15 @@ const catchmentKeep = 1000
 // invert runs the inverse model (or, with co, the catchment-wide model) on
 // the problem: on one goroutine in chunks, the progress callback between
 // them, in the browser or with one worker (the chunk size does not change
-// the result); otherwise on every worker.
+// the result); otherwise on every worker. A run stopped at the draws it
+// may keep (mix.ErrTooManyKept) is an error that names the settings.
 func invert(ctx context.Context, workers int, report func(done, total int), p mix.Problem, mo *mix.Options, co *mix.CatchmentOptions) (*mix.Result, error) {
 	if workers == 1 || runtime.GOOS == "js" {
 		type stepper interface {
 			Step(context.Context, int) bool
 			Progress() float64
 			Result() *mix.Result
+			Err() error
 		}
 		var run stepper
 		var err error
@@ -605,6 +608,9 @@ func invert(ctx context.Context, workers int, report func(done, total int), p mi
 			report(int(run.Progress()*1000), 1000)
 		}
 		report(1000, 1000)
+		if err := run.Err(); err != nil {
+			return nil, keptErr(err)
+		}
 		return run.Result(), ctx.Err()
 	}
 	mo.Progress = func(done, total int) { report(done, total) }
@@ -615,10 +621,10 @@ func invert(ctx context.Context, workers int, report func(done, total int), p mi
 	} else {
 		res, err = mix.Invert(ctx, p, mo)
 	}
-	if err == nil {
-		err = ctx.Err()
+	if err != nil {
+		return nil, keptErr(err)
 	}
-	return res, err
+	return res, ctx.Err()
 }
 
 // catchment hands on what the catchment-wide model learned: after a fall

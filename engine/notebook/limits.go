@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"errors"
 	"fmt"
 
 	"lixiv/engine/mix"
@@ -34,11 +35,11 @@ const (
 	MaxColumns = 1000
 	// MaxDraws is the most Monte Carlo draws per sample (setting "draws").
 	MaxDraws = 1_000_000
-	// MaxSampleDraws caps samples × the most draws one sample may take
-	// (setting "max_draws", at least "draws") under the inverse model,
-	// which keeps each sample's draws with a positive weight (144 bytes
-	// each) for the cells below: the cap bounds memory (under 600 MB) and
-	// work (BenchmarkWorstAllowed).
+	// MaxSampleDraws caps the draws the inverse model keeps over all
+	// samples (each sample's draws with a weight, about 150 bytes each,
+	// for the cells below; at least its target ESS when it reaches it), so
+	// that memory stays under 600 MB: samples × target_ess may not pass
+	// it, and a run whose draws kept pass it stops with a message.
 	MaxSampleDraws = 4_000_000
 	// MaxForwardSampleDraws caps samples × draws under the forward model,
 	// which keeps every draw of every sample (128 bytes each): about
@@ -122,23 +123,29 @@ func checkCatchmentSamples(samples int) error {
 	return nil
 }
 
-// checkInverseDraws refuses an inverse model whose samples × most draws per
-// sample (after the first stage and every refinement) exceed
-// MaxSampleDraws.
+// checkInverseDraws refuses an inverse model whose samples × target
+// effective sample size exceed MaxSampleDraws: each sample that reaches
+// its target keeps at least that many draws. The run itself stops where
+// the draws kept pass MaxSampleDraws (keptErr).
 func checkInverseDraws(samples int, o *mix.Options) error {
-	most := max(o.MaxDraws, o.Draws)
-	if o.MaxDraws <= 0 { // mix.Options' defaults: 20 × the target ESS, itself 1000
-		ess := o.TargetESS
-		if ess <= 0 {
-			ess = 1000
-		}
-		most = max(20*ess, o.Draws)
+	ess := o.TargetESS
+	if ess <= 0 {
+		ess = 1000 // mix.Options' default
 	}
-	if samples*most > MaxSampleDraws {
-		return fmt.Errorf("%s: %s samples × %s draws is %s sample-draws, above the limit of %s for the inverse model, which keeps each sample's draws; "+
-			"use at most %s draws per sample (a lower %s may then be needed)",
-			SettingName("max_draws"), grouped(samples), grouped(most), grouped(samples*most), grouped(MaxSampleDraws),
-			grouped(max(1, MaxSampleDraws/samples)), SettingName("target_ess"))
+	if samples*ess > MaxSampleDraws {
+		return fmt.Errorf("%s: %s samples × a target of %s is %s sample-draws, above the limit of %s; use a target of at most %s",
+			SettingName("target_ess"), grouped(samples), grouped(ess), grouped(samples*ess), grouped(MaxSampleDraws),
+			grouped(max(1, MaxSampleDraws/samples)))
 	}
 	return nil
+}
+
+// keptErr names the settings that decide how many draws the inverse model
+// keeps when a run stopped at the limit (mix.ErrTooManyKept).
+func keptErr(err error) error {
+	if errors.Is(err, mix.ErrTooManyKept) {
+		return fmt.Errorf("%v, the most the inverse model keeps (%s sample-draws); lower %s or %s",
+			err, grouped(MaxSampleDraws), SettingName("max_draws"), SettingName("target_ess"))
+	}
+	return err
 }

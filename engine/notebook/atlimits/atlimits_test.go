@@ -10,7 +10,7 @@ import (
 	"lixiv/engine/notebook"
 )
 
-// The budget sits at the limits: one draw more, or one replicate more, is
+// The budget sits at the limits: a target ESS one higher, or one replicate more, is
 // refused before any work (the computation at the limits themselves is
 // BenchmarkWorstAllowed's, too long for a test).
 func TestAtTheLimits(t *testing.T) {
@@ -23,7 +23,7 @@ func TestAtTheLimits(t *testing.T) {
 		set        [][3]string
 		want       string
 	}{
-		{"one draw more", "apportionment", [][3]string{{"apportionment", "draws", strconv.Itoa(Draws + 1)}}, "above the limit of 4,000,000"},
+		{"one more effective draw", "apportionment", [][3]string{{"apportionment", "target_ess", strconv.Itoa(Draws + 1)}}, "above the limit of 4,000,000"},
 		{"one replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"fluxes", "bootstrap", strconv.Itoa(Replicates + 1)}},
 			"bootstrap replicates (bootstrap): 648 replicates × (4,000 samples + 73,200 days of discharge)"},
 		{"one series replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"fluxes", "series_bootstrap", strconv.Itoa(Replicates + 1)}},
