@@ -54,8 +54,6 @@ type CatchmentOptions struct {
 	// scatter of ln ratio per end-member; 0 means 0.1 (common practice, no
 	// source; docs/methods.md §7.12).
 	Scatter float64
-
-	fixScatter bool // the scatter held at zero (a study of the sampler)
 }
 
 // RHatLimit is the split R-hat below which the chains agree (Vehtari et al.
@@ -205,7 +203,7 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 	base.res.Joint = true
 	c.nd = len(base.dims)
 	for j := range base.n {
-		if c.co.fixScatter || !c.seen[j] {
+		if !c.seen[j] {
 			continue
 		}
 		for _, d := range base.dims {
