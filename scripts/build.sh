@@ -17,7 +17,8 @@ gofmt -w web/*_gen.go
 
 rm -rf "$out.tmp"
 mkdir -p "$out.tmp"
-GOOS=js GOARCH=wasm "$GO" build -trimpath -ldflags="-s -w" -o "$out.tmp/main.wasm" ./wasm
+# LIXIV_TAGS=timing builds the page with the timing harness's probes (make browser-timing).
+GOOS=js GOARCH=wasm "$GO" build -trimpath -tags "${LIXIV_TAGS:-}" -ldflags="-s -w" -o "$out.tmp/main.wasm" ./wasm
 
 cp "$("$GO" env GOROOT)/lib/wasm/wasm_exec.js" "$out.tmp/"
 vugu=$("$GO" list -m -f '{{.Dir}}' github.com/vugu/vugu)

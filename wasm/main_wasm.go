@@ -49,8 +49,8 @@ func main() {
 			log.Print("render: ", err)
 		}
 		// For the timing harness: building the page and syncing it to the DOM.
-		js.Global().Set("lixivLastBuild", t1-t0)
-		js.Global().Set("lixivLastSync", now()-t1)
+		web.Probe("lixivLastBuild", t1-t0)
+		web.Probe("lixivLastSync", now()-t1)
 		root.Rendered()
 	}
 }

@@ -117,9 +117,6 @@ func Header(col *notebook.Column) string {
 	return col.Name
 }
 
-// ProgressText is the percentage shown beside the progress bar.
-func (c *CellCard) ProgressText() string { return fmt.Sprintf("%.0f %%", c.V.Progress*100) }
-
 // IsNote reports a note cell.
 func (c *CellCard) IsNote() bool { return c.V.Kind == string(notebook.KindNote) }
 
@@ -458,18 +455,8 @@ func (c *CellCard) EmptyTableHint() string {
 }
 
 // TableUnused reports an empty input table that the cell's current
-// settings do not read: the rain table of the sea-salt method.
-func (c *CellCard) TableUnused() bool {
-	if c.V.Kind != string(notebook.KindAtmosphere) || len(c.V.Table.Rows) > 0 {
-		return false
-	}
-	for _, p := range c.V.Params {
-		if p.Key == "method" {
-			return p.Value == "sea-salt"
-		}
-	}
-	return false
-}
+// settings do not read (notebook.ReadsTable).
+func (c *CellCard) TableUnused() bool { return c.V.TableUnread }
 
 // UnusedTableHint stands in for an unused empty table.
 func (c *CellCard) UnusedTableHint() string {

@@ -8,7 +8,6 @@ import (
 	"time"
 
 	"lixiv/engine/chem"
-	"lixiv/engine/flux"
 	"lixiv/engine/notebook"
 	"lixiv/web/plot"
 )
@@ -209,7 +208,7 @@ func chargeBalanceChart(id string, c *notebook.Cell, o *notebook.Output) *plot.C
 		return nil
 	}
 	ch := plot.New(id, "Charge balance of each sample", "sample (table order)", labelWithUnit("NICB", nicb))
-	names, flags := texts(column(t, "sample", "name", "id")), texts(exact(t, "flag"))
+	names, flags := texts(column(t, "sample", "name", "id")), texts(t.Column("flag"))
 	n := len(nicb.Num)
 	groups := []struct {
 		name  string
@@ -317,7 +316,7 @@ func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.
 	for i, b := range boxes {
 		ch.Box(b.name, plot.StyleN(i+1), b.x0, b.x1, b.y0, b.y1)
 	}
-	x, y, names, label := sampleRatios(d, xRatio)
+	x, y, names, label := notebook.SampleRatios(d, xRatio)
 	if x != nil {
 		st := plot.StyleN(0)
 		st.Open = true // rings: a dense cloud of samples still shows each one
@@ -461,55 +460,6 @@ func priorBoxes(t *notebook.ResultTable, xRatio string) []priorBox {
 	return out
 }
 
-// sampleRatios finds per-sample Ca/Na and xRatio: from the atmosphere
-// cell's ratios table (X*/Na* after rain and evaporite correction), else the
-// measured ratios of the samples table, labelled as such.
-func sampleRatios(d *notebook.Document, xRatio string) (x, y []float64, names []string, label string) {
-	for _, c := range d.Cells {
-		if c.Kind != notebook.KindAtmosphere {
-			continue
-		}
-		t := d.Output(c.ID).Table("ratios")
-		xc, yc := exact(t, xRatio), exact(t, "Ca/Na")
-		if xc != nil && yc != nil && xc.Num != nil && yc.Num != nil {
-			return xc.Num, yc.Num, texts(column(t, "sample")), "samples after rain correction"
-		}
-	}
-	for _, c := range d.Cells {
-		if c.Kind != notebook.KindSamples {
-			continue
-		}
-		t := d.Output(c.ID).Table("samples")
-		na, ca := exact(t, "Na"), exact(t, "Ca")
-		num := exact(t, strings.TrimSuffix(xRatio, "/Na"))
-		if num == nil && xRatio == "HCO3/Na" {
-			num = exact(t, "Alk")
-		}
-		if na == nil || ca == nil || num == nil {
-			continue
-		}
-		x, y = make([]float64, len(na.Num)), make([]float64, len(na.Num))
-		for i := range na.Num {
-			x[i], y[i] = num.Num[i]/na.Num[i], ca.Num[i]/na.Num[i]
-		}
-		return x, y, texts(column(t, "sample")), "samples (measured, before rain correction)"
-	}
-	return nil, nil, nil, ""
-}
-
-// exact finds a numeric or text column by its exact name.
-func exact(t *notebook.ResultTable, name string) *notebook.Column {
-	if t == nil {
-		return nil
-	}
-	for _, c := range t.Columns {
-		if c.Name == name {
-			return c
-		}
-	}
-	return nil
-}
-
 // sourceNames are the sources of the apportionment in stacking order.
 var sourceNames = []string{"atmosphere", "evaporite", "silicate", "carbonate"}
 
@@ -520,7 +470,7 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 	if t == nil {
 		return nil
 	}
-	names := texts(exact(t, "sample"))
+	names := texts(t.Column("sample"))
 	if len(names) == 0 {
 		return nil
 	}
@@ -530,12 +480,12 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 	ch.Y.Min, ch.Y.Max, ch.Y.Fixed = 0, 1, true // shares
 	var segs []plot.Segment
 	for i, src := range sourceNames {
-		v := exact(t, cation+"_"+src)
+		v := t.Column(cation + "_" + src)
 		if v == nil || v.Num == nil {
 			continue
 		}
 		segs = append(segs, plot.Segment{Name: src, Style: plot.StyleN(i + 1), Value: v.Num,
-			Lo: nums(exact(t, cation+"_"+src+"_low")), Hi: nums(exact(t, cation+"_"+src+"_high"))})
+			Lo: nums(t.Column(cation + "_" + src + "_low")), Hi: nums(t.Column(cation + "_" + src + "_high"))})
 	}
 	if len(segs) == 0 {
 		return nil
@@ -545,51 +495,26 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 }
 
 // cqChart draws concentration against discharge at sampling on log axes,
-// for Na and Ca, with the rating curve the flux engine fits to each.
+// for Na and Ca, with the rating curve the flux engine fits to each
+// (notebook.Fluxes.CQ).
 func cqChart(id string, o *notebook.Output) *plot.Chart {
 	v, ok := o.Value.(*notebook.Fluxes)
-	if !ok || v == nil || v.App == nil || v.Record == nil {
+	if !ok {
 		return nil
 	}
-	a := v.App
 	ch := plot.New(id, "Concentration against discharge at sampling", "discharge Q (m³/s)", "concentration C (µmol/L)")
 	ch.X.Log, ch.Y.Log = true, true
 	var note []string
-	for k, sp := range []chem.Species{chem.Na, chem.Ca} {
-		q, c := make([]float64, len(a.Names)), make([]float64, len(a.Names))
-		for i := range a.Names {
-			c[i] = a.Corrected[i].Input[sp]
-			q[i] = math.NaN()
-			if i < len(a.Q) {
-				q[i] = a.Q[i]
-			}
-			if math.IsNaN(q[i]) {
-				if j := v.Record.Index(a.Days[i]); j >= 0 {
-					q[i] = v.Record.Q[j]
-				}
-			}
-		}
+	for k, cq := range v.CQ(chem.Na, chem.Ca) {
 		st := plot.StyleN(2 * k)
-		ch.Points(sp.Symbol()+" samples", st, q, c, a.Names)
-		opt := v.Options
-		opt.Method = flux.Rating
-		ser := flux.ForSpecies(sp, a.Days, c)
-		ser.Q = a.Q
-		r, err := flux.Estimate(v.Record, ser, opt)
-		if err != nil || r.Rating == nil {
+		ch.Points(cq.Species.Symbol()+" samples", st, cq.Q, cq.C, cq.Names)
+		if cq.Fit == nil {
 			continue
-		}
-		fit := r.Rating
-		lo, hi := minMax(q)
-		xs, ys := make([]float64, 41), make([]float64, 41)
-		for j := range xs {
-			xs[j] = lo * math.Pow(hi/lo, float64(j)/40)
-			ys[j] = fit.A * math.Pow(xs[j], fit.B)
 		}
 		ls := st
 		ls.Dash = plot.StyleN(2*k + 1).Dash
-		ch.Line(sp.Symbol()+" rating curve", ls, xs, ys)
-		note = append(note, fmt.Sprintf("%s: C = %s·Q^%.3f, R² %.2f", sp.Symbol(), plot.Number(fit.A), fit.B, fit.R2))
+		ch.Line(cq.Species.Symbol()+" rating curve", ls, cq.CurveQ, cq.CurveC)
+		note = append(note, fmt.Sprintf("%s: C = %s·Q^%.3f, R² %.2f", cq.Species.Symbol(), plot.Number(cq.Fit.A), cq.Fit.B, cq.Fit.R2))
 	}
 	ch.Note = strings.Join(note, ";  ")
 	if ch.Empty() {
@@ -598,27 +523,11 @@ func cqChart(id string, o *notebook.Output) *plot.Chart {
 	return ch
 }
 
-func minMax(v []float64) (lo, hi float64) {
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for _, x := range v {
-		if x > 0 && !math.IsInf(x, 0) {
-			lo, hi = math.Min(lo, x), math.Max(hi, x)
-		}
-	}
-	if lo > hi {
-		return 1, 10
-	}
-	if lo == hi {
-		return lo / 2, hi * 2
-	}
-	return lo, hi
-}
-
 // sourceYieldChart stacks the mean annual yield of each cation by rock
 // source, from the fluxes' "mean" table.
 func sourceYieldChart(id string, o *notebook.Output) *plot.Chart {
 	t := o.Table("mean")
-	series, yield := exact(t, "series"), exact(t, "yield")
+	series, yield := t.Column("series"), t.Column("yield")
 	if series == nil || yield == nil || series.Text == nil {
 		return nil
 	}

@@ -84,7 +84,7 @@ func TestMixingDiagramRatios(t *testing.T) {
 				d.Recompute(context.Background(), nil) // cells below lose their input; the samples cell stays
 			}
 			for _, ratio := range []string{"Mg/Na", "HCO3/Na"} {
-				x, y, names, label := sampleRatios(d, ratio)
+				x, y, names, label := notebook.SampleRatios(d, ratio)
 				if label != tc.label {
 					t.Errorf("%s: label %q, want %q", ratio, label, tc.label)
 				}
@@ -167,7 +167,7 @@ func TestMixingDiagramMarks(t *testing.T) {
 	if a == nil || src == nil {
 		t.Fatal("the demo has no apportionment or no end-member cell")
 	}
-	_, _, names, _ := sampleRatios(d, "Mg/Na")
+	_, _, names, _ := notebook.SampleRatios(d, "Mg/Na")
 	if len(names) == 0 {
 		t.Fatal("no samples in the mixing diagram")
 	}

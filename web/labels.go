@@ -83,31 +83,6 @@ func ColumnLabel(table string, col *notebook.Column) string {
 	return l
 }
 
-// idle reports a setting that does nothing in the cell's current mode:
-// the δ34S values are read only when the sulfate source is "isotope", the
-// tracers only by the inverse and catchment-wide models, and the
-// refinement of the inverse model only by it.
-func idle(kind notebook.Kind, key string, params []notebook.Param) bool {
-	if kind != notebook.KindApportionment {
-		return false
-	}
-	value := func(k string) string {
-		for _, p := range params {
-			if p.Key == k {
-				return p.Value
-			}
-		}
-		return ""
-	}
-	switch key {
-	case "tracers":
-		return value("model") == "forward"
-	case "target_ess", "max_draws":
-		return value("model") != "inverse"
-	}
-	return strings.HasPrefix(key, "d34s_") && value("sulfate") != "isotope"
-}
-
 // RefLabel labels a chart reference "cell.table.column" with the title of
 // the cell and the column's label and unit.
 func RefLabel(d *notebook.Document, ref string) string {

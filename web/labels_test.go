@@ -29,30 +29,3 @@ func TestLabels(t *testing.T) {
 		})
 	}
 }
-
-func TestIdleSettings(t *testing.T) {
-	params := func(sulfate, model string) []notebook.Param {
-		return []notebook.Param{{Key: "model", Value: model}, {Key: "sulfate", Value: sulfate}, {Key: "d34s_river_permil", Value: "5"}}
-	}
-	tests := []struct {
-		kind           notebook.Kind
-		key            string
-		sulfate, model string
-		want           bool
-	}{
-		{notebook.KindApportionment, "d34s_river_permil", "gypsum", "inverse", true},
-		{notebook.KindApportionment, "d34s_river_permil", "isotope", "inverse", false},
-		{notebook.KindApportionment, "draws", "gypsum", "inverse", false},
-		{notebook.KindApportionment, "target_ess", "gypsum", "inverse", false},
-		{notebook.KindApportionment, "target_ess", "gypsum", "catchment", true},
-		{notebook.KindApportionment, "max_draws", "gypsum", "forward", true},
-		{notebook.KindApportionment, "tracers", "gypsum", "catchment", false},
-		{notebook.KindApportionment, "tracers", "gypsum", "forward", true},
-		{notebook.KindAtmosphere, "d34s_river_permil", "gypsum", "inverse", false},
-	}
-	for _, tt := range tests {
-		if got := idle(tt.kind, tt.key, params(tt.sulfate, tt.model)); got != tt.want {
-			t.Errorf("idle(%s, %s, sulfate %s, model %s): got %v, want %v", tt.kind, tt.key, tt.sulfate, tt.model, got, tt.want)
-		}
-	}
-}

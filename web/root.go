@@ -1,7 +1,6 @@
 package web
 
 import (
-	"context"
 	"encoding/json"
 	"fmt"
 	"strings"
@@ -37,23 +36,8 @@ type Root struct {
 	SavedOK   bool
 	Unsaved   bool // changed since the last download
 
-	charts   ChartCache
-	running  string
-	progress float64
-	busy     bool
-	cancel   context.CancelFunc
-	loopDone chan struct{}
-
-	editStart  float64 // when the edit now computing was made (ms)
-	painted    bool    // the page has repainted since that edit
-	stepMillis float64 // time in Step (including yields) since the edit
-
-	// The render loop holds the repaint after an edit until the quick pass
-	// (notebook.Document.Quick) has point values, for at most HoldMillis,
-	// so that a quick edit paints once, with its result.
-	quickDone  chan struct{} // closed when the quick pass of the run is done
-	holding    bool          // the render loop waits on quickDone
-	quickShown bool          // the quick pass's result has been painted
+	charts ChartCache
+	runner // the recompute in progress
 
 	verifyGen  int                // recompute the cached verification belongs to
 	verifyDoc  *notebook.Document // and its document
@@ -63,7 +47,6 @@ type Root struct {
 	savePending bool    // an edit waits to be saved to browser storage
 	docTitle    string  // the browser tab's title as last set
 	startMsg    string  // a problem met before the budget opened
-	gen         int     // completed recomputes
 	focusAfter  string  // a field to give the focus once the page has rendered
 	ready       bool
 	keys        js.Func
@@ -73,6 +56,15 @@ type Root struct {
 // Init loads the last autosaved budget, or the demo on a first visit.
 func (c *Root) Init(ctx vugu.InitCtx) {
 	c.env = ctx.EventEnv()
+	c.runner.env = c.env
+	c.runner.save = func() bool {
+		if !c.savePending {
+			return false
+		}
+		c.autosave()
+		return true
+	}
+	c.runner.fail = func(err error) { c.S.Message = "Recompute stopped: " + err.Error() }
 	c.AddKind = string(notebook.KindNote)
 	c.listenKeys()
 	if text, ok := storageGet(storageKey); ok && text != "" {
@@ -158,7 +150,7 @@ func (c *Root) changed() {
 	c.Unsaved = true
 	c.savePending = true // saved by the recompute at its first yield
 	c.editStart, c.painted = nowMillis(), false
-	c.recompute()
+	c.recompute(c.S.Doc)
 }
 
 // autosave writes the budget, and where it came from, to browser storage.
@@ -217,6 +209,16 @@ func (c *Root) Compute(ctx vugu.ComputeCtx) {
 	c.BannerV = c.bannerView()
 }
 
+// HoldMillis is the longest the render loop holds a repaint for the quick
+// pass of a recompute.
+const HoldMillis = 120
+
+// Hold returns a channel the render loop waits on, for at most HoldMillis,
+// before it renders: it is closed when the quick pass of the recompute
+// just started has its point values. It is nil when there is nothing to
+// wait for. Call it with the event lock held.
+func (c *Root) Hold() <-chan struct{} { return c.runner.hold(c.ready) }
+
 // EngineVersion is shown in the footer.
 func (c *Root) EngineVersion() string { return notebook.EngineVersion }
 
@@ -230,9 +232,6 @@ func (c *Root) Title() string {
 	}
 	return c.S.Doc.Title
 }
-
-// Busy reports a recompute in progress.
-func (c *Root) Busy() bool { return c.busy }
 
 // Kinds lists the kinds a user can add.
 func (c *Root) Kinds() []string {
@@ -260,8 +259,8 @@ func (c *Root) Rendered() {
 		js.Global().Get("document").Set("title", t)
 	}
 	ds := body.Get("dataset")
-	if c.buildStart > 0 { // for the timing harness: the cost of one full render
-		js.Global().Set("lixivLastRender", nowMillis()-c.buildStart)
+	if Probing && c.buildStart > 0 { // for the timing harness: the cost of one full render
+		Probe("lixivLastRender", nowMillis()-c.buildStart)
 	}
 	if c.focusAfter != "" {
 		if el := js.Global().Get("document").Call("querySelector", c.focusAfter); el.Truthy() {
@@ -282,16 +281,16 @@ func (c *Root) Rendered() {
 	}
 	if c.editStart > 0 && !c.painted {
 		c.painted = true
-		js.Global().Set("lixivLastFirstPaint", nowMillis()-c.editStart)
+		Probe("lixivLastFirstPaint", nowMillis()-c.editStart)
 	}
 	if c.editStart > 0 && !c.quickShown && c.quickDone != nil {
 		select {
 		case <-c.quickDone: // for the timing harness: point values painted
 			c.quickShown = true
-			js.Global().Set("lixivLastQuickPaint", nowMillis()-c.editStart)
-			g := js.Global()
-			js.Global().Set("lixivLastQuickRender", fmt.Sprintf("build %.0f ms, sync %.0f ms",
-				g.Get("lixivLastBuild").Float(), g.Get("lixivLastSync").Float()))
+			if Probing {
+				Probe("lixivLastQuickPaint", nowMillis()-c.editStart)
+				Probe("lixivLastQuickRender", fmt.Sprintf("build %.0f ms, sync %.0f ms", probed("lixivLastBuild"), probed("lixivLastSync")))
+			}
 		default:
 		}
 	}
@@ -303,217 +302,14 @@ func (c *Root) Rendered() {
 		ds.Set("busy", busy)
 		ds.Set("gen", fmt.Sprint(c.gen))
 		if !c.busy && c.editStart > 0 {
-			js.Global().Set("lixivLastRecompute", nowMillis()-c.editStart)
-			js.Global().Set("lixivLastStep", c.stepMillis)
-			js.Global().Set("lixivLastCharts", c.charts.Millis)
+			if Probing {
+				Probe("lixivLastRecompute", nowMillis()-c.editStart)
+				Probe("lixivLastStep", c.stepMillis)
+				Probe("lixivLastCharts", c.charts.Millis)
+			}
 			c.stepMillis, c.charts.Millis = 0, 0
 			c.editStart = 0
 		}
-	}
-}
-
-// recompute cancels a run in progress and starts computing the stale
-// cells. Call it with the event lock held.
-func (c *Root) recompute() {
-	if c.cancel != nil {
-		c.cancel()
-	}
-	ctx, cancel := context.WithCancel(context.Background())
-	c.cancel = cancel
-	prev, done := c.loopDone, make(chan struct{})
-	c.loopDone = done
-	c.busy = true
-	c.S.Doc.Quick = true
-	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
-	go c.run(ctx, c.S.Doc, prev, done, c.quickDone)
-}
-
-// HoldMillis is the longest the render loop holds a repaint for the quick
-// pass of a recompute.
-const HoldMillis = 120
-
-// Hold returns a channel the render loop waits on, for at most HoldMillis,
-// before it renders: it is closed when the quick pass of the recompute
-// just started has its point values. It is nil when there is nothing to
-// wait for. Call it with the event lock held.
-func (c *Root) Hold() <-chan struct{} {
-	if !c.ready || !c.busy || c.quickDone == nil || c.painted || c.editStart == 0 {
-		return nil
-	}
-	select {
-	case <-c.quickDone:
-		return nil
-	default:
-	}
-	c.holding = true
-	return c.quickDone
-}
-
-// Unhold tells the root the render loop stopped holding (the quick pass
-// took longer than HoldMillis, or was done). Call it with the event lock held.
-func (c *Root) Unhold() { c.holding = false }
-
-// quickPassDone closes done once and repaints: through the render loop
-// when it is holding for it, else by asking for a render. Call it with the
-// event lock held; it releases it.
-func (c *Root) quickPassDone(done chan struct{}) {
-	if done != c.quickDone { // a run cancelled by a later edit: nothing to show
-		c.env.UnlockOnly()
-		return
-	}
-	select {
-	case <-done:
-		c.env.UnlockOnly()
-		return
-	default:
-	}
-	close(done)
-	if c.editStart > 0 {
-		js.Global().Set("lixivLastQuick", nowMillis()-c.editStart)
-	}
-	if c.holding && done == c.quickDone {
-		c.holding = false
-		c.env.UnlockOnly() // the render loop renders as it wakes
-		return
-	}
-	c.env.UnlockRender()
-}
-
-// run computes the stale cells of doc one at a time, handing the main
-// thread back to the browser every few tens of milliseconds (also from
-// inside a long cell, through its progress reports) so that the page
-// scrolls and takes typing. The page repaints at most every paintEvery ms
-// while computing (each repaint rebuilds the page), and once at the end.
-func (c *Root) run(ctx context.Context, doc *notebook.Document, prev, done, quick chan struct{}) {
-	defer close(done)
-	defer func() { // cancelled or failed before the quick pass was over
-		c.env.Lock()
-		c.quickPassDone(quick)
-	}()
-	if prev != nil {
-		<-prev
-	}
-	// The edit is saved to browser storage at the first yield: after the
-	// quick pass has painted, or at the first hand-back of a long one.
-	saveIfPending := func() {
-		c.env.Lock()
-		if c.savePending {
-			c.autosave()
-		}
-		c.env.UnlockOnly()
-	}
-	defer func() { // a run without a yield saves at its end, and shows it
-		c.env.Lock()
-		if c.savePending {
-			c.autosave()
-			c.env.UnlockRender()
-			return
-		}
-		c.env.UnlockOnly()
-	}()
-	var stepped []string                             // for the timing harness: when each step began
-	const slice, paintEvery = 40, 250                // ms
-	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
-	longest, longestCell := 0.0, ""
-	breathe := func() {
-		if d := nowMillis() - lastYield; d > slice {
-			if d > longest {
-				longest, longestCell = d, c.running
-			}
-			// Save at this hand-back once the quick pass has painted, or
-			// when it runs long; a short quick pass saves after its paint.
-			select {
-			case <-quick:
-				saveIfPending()
-			default:
-				if nowMillis()-c.editStart > 250 {
-					saveIfPending()
-				}
-			}
-			yieldToBrowser()
-			lastYield = nowMillis()
-		}
-	}
-	publish := func(final bool) { // call with the lock held
-		if final || nowMillis()-lastPaint > paintEvery {
-			lastPaint = nowMillis()
-			c.env.UnlockRender()
-			return
-		}
-		c.env.UnlockOnly()
-	}
-	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice {
-			return
-		}
-		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
-			breathe()
-			return
-		}
-		c.env.Lock()
-		c.running = p.Cell
-		if p.Total > 0 {
-			c.progress = float64(p.Done) / float64(p.Total)
-		}
-		publish(false)
-		breathe()
-	}
-	for {
-		if ctx.Err() != nil {
-			return
-		}
-		if pending := doc.Pending(); len(pending) > 0 {
-			c.env.Lock()
-			c.running, c.progress = pending[0], 0
-			c.env.UnlockOnly()
-		}
-		t0 := nowMillis()
-		stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
-		more, err := func() (more bool, err error) {
-			defer func() {
-				if r := recover(); r != nil {
-					more, err = false, fmt.Errorf("internal error: %v", r)
-				}
-			}()
-			return doc.Step(ctx, progress)
-		}()
-		c.stepMillis += nowMillis() - t0
-		if ctx.Err() != nil {
-			return
-		}
-		c.env.Lock()
-		if err == nil && more && doc.QuickPassDone() {
-			select {
-			case <-quick:
-			default:
-				// The point values are in: paint them, then refine.
-				js.Global().Set("lixivQuickSteps", strings.Join(stepped, ", ")+fmt.Sprintf(", done %.0f", nowMillis()-c.editStart))
-				lastPaint = nowMillis()
-				c.quickPassDone(quick)
-				yieldToBrowser()
-				saveIfPending()
-				lastYield = nowMillis()
-				continue
-			}
-		}
-		if err != nil || !more {
-			// For the timing harness: the longest stretch without a yield.
-			js.Global().Set("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
-			c.running, c.busy = "", false
-			c.gen++
-			if err != nil {
-				c.S.Message = "Recompute stopped: " + err.Error()
-			}
-			select {
-			case <-quick:
-				publish(true)
-			default: // no refining: the quick pass was the whole run
-				c.quickPassDone(quick)
-			}
-			return
-		}
-		publish(false)
-		breathe()
 	}
 }
 

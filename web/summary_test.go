@@ -20,7 +20,7 @@ func TestState(t *testing.T) {
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			c := &Root{busy: tc.busy}
+			c := &Root{runner: runner{busy: tc.busy}}
 			for i, s := range tc.states {
 				c.Cells = append(c.Cells, CellView{ID: string(rune('a' + i)), State: s})
 			}

@@ -27,6 +27,7 @@ type CellView struct {
 	Params                     []ParamView
 	Roles                      []RoleView
 	HasTable                   bool
+	TableUnread                bool // an empty table the settings do not read
 	Table                      *notebook.Table
 	Notes                      []string // what an import or paste did
 	Warnings                   []string // the engine's warnings
@@ -90,41 +91,37 @@ type ChartView struct {
 	Wide                bool // wider than the page: it scrolls sideways
 }
 
-var kindLabels = map[notebook.Kind]string{
-	notebook.KindSite: "Site", notebook.KindSamples: "Samples", notebook.KindDischarge: "Discharge",
-	notebook.KindAtmosphere: "Atmospheric input", notebook.KindSources: "End-members",
-	notebook.KindApportionment: "Apportionment", notebook.KindFluxes: "Fluxes", notebook.KindCO2: "CO2 budget",
-	notebook.KindNote: "Note", notebook.KindChart: "Chart", notebook.KindBroken: "Unreadable cell",
-}
-
-// KindLabel is the page's name for a cell kind.
+// KindLabel is the page's name for a cell kind: its descriptor's label.
 func KindLabel(k notebook.Kind) string {
-	if l, ok := kindLabels[k]; ok {
-		return l
+	if d := notebook.DescriptorOf(k); d != nil && d.Label != "" {
+		return d.Label
+	}
+	if k == notebook.KindBroken {
+		return "Unreadable cell"
 	}
 	return string(k)
 }
 
-// choices lists the accepted values of settings that take one of a few words.
-var choices = map[string][]string{
-	"below_detection":       {"half-limit", "zero", "limit", "leave-out"},
-	"date_order":            {"auto", "day-first", "month-first"},
-	"unit":                  {"m3/s", "L/s", "m3/day", "mm/day"},
-	"method":                {"sea-salt", "rain"},
-	"excess_chloride":       {"halite", "human"},
-	"preset":                {"global", "granite", "basalt", "custom"},
-	"model":                 notebook.ApportionmentModels,
-	"sulfate":               {"gypsum", "sulfide", "isotope"},
-	"negative_residuals":    {"zero-and-flag", "keep"},
-	"estimator":             {"rating-curve", "discharge-weighted", "interpolation", "beale"},
-	"bias_correction":       {"smearing", "ferguson", "none"},
-	"time_scale":            {"short", "long"},
-	"sulfur_split":          {"proportional", "carbonate"},
-	"long_term_convention":  {"conventional", "alkalinity"},
-	"chart-style":           {"points", "line"},
-	"unapportioned_samples": {"leave-out", "fill-shares"},
-	// Calendar years first, then the water years that start in another month.
-	"water_year_start_month": {"1", "2", "3", "4", "5", "6", "7", "8", "9", "10", "11", "12"},
+// options returns the values a setting of kind k offers and, when any
+// differs from its value, what the page shows of each; nil for a setting
+// without choices.
+func options(k notebook.Kind, key string) (values, labels []string) {
+	d := notebook.DescriptorOf(k)
+	if d == nil {
+		return nil, nil
+	}
+	cs := d.Choices(key)
+	labelled := false
+	for _, c := range cs {
+		values = append(values, c.Value)
+		labelled = labelled || c.Label != ""
+	}
+	if labelled {
+		for _, c := range cs {
+			labels = append(labels, c.Text())
+		}
+	}
+	return values, labels
 }
 
 // FormatFigure formats a figure's median and its 95 % interval, the three
@@ -191,22 +188,18 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 					v.NoteText = p.Value
 					continue
 				}
-				if idle(c.Kind, p.Key, params) {
+				if notebook.Idle(c.Settings, p.Key) {
 					continue
 				}
-				pv := ParamView{Key: p.Key, Label: notebook.SettingLabel(p.Key), Value: p.Value, Type: p.Type, Options: choices[p.Key],
+				pv := ParamView{Key: p.Key, Label: notebook.SettingLabel(p.Key), Value: p.Value, Type: p.Type,
 					Blank: p.Blank, FromDemo: demo != nil && fromDemo(demo, c, p)}
-				if p.Key == "water_year_start_month" {
-					pv.OptionLabels = monthLabels()
-				}
+				pv.Options, pv.OptionLabels = options(c.Kind, p.Key)
 				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
 					pv.Options = columnRefs(d, c.ID, p.Value)
 					pv.OptionLabels = make([]string, len(pv.Options))
 					for i, r := range pv.Options {
 						pv.OptionLabels[i] = RefLabel(d, r)
 					}
-				} else if c.Kind == notebook.KindChart && p.Key == "style" {
-					pv.Options = choices["chart-style"]
 				}
 				v.Params = append(v.Params, pv)
 			}
@@ -222,6 +215,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		if c.Table != nil {
 			v.HasTable, v.Table = true, c.Table
+			v.TableUnread = len(c.Table.Rows) == 0 && c.Settings != nil && !c.Broken() && !notebook.ReadsTable(c.Settings)
 			switch {
 			case c.Kind == notebook.KindSources && notebook.PresetOf(c.Table) != "":
 				v.TableOrigin = "the " + notebook.PresetOf(c.Table) + " preset"
@@ -325,72 +319,41 @@ func fromDemo(demo, c *notebook.Cell, p notebook.Param) bool {
 	return p.Value == dv && dv != def
 }
 
-// monthLabels names the choices of the first month of the reporting year:
-// "January to December (calendar year)", then "February to January (water
-// year)" and so on.
-func monthLabels() []string {
-	out := []string{"January to December (calendar year)"}
-	for m := 2; m <= 12; m++ {
-		out = append(out, monthNames[m-1]+" to "+monthNames[m-2]+" (water year)")
-	}
-	return out
-}
-
-// monthNames are the months' names, January first.
-var monthNames = [...]string{"January", "February", "March", "April", "May", "June", "July", "August",
-	"September", "October", "November", "December"}
-
-// Headline picks the budget's headline figures for the summary strip: CO2
-// consumption, weathering rates and runoff first, then any others, at most max.
+// Headline picks the budget's headline figures for the summary strip, in
+// the rank the cells' descriptors give them (notebook.FigureRank: CO2
+// consumption, weathering rates and runoff first), then any others, at
+// most max.
 func Headline(cells []CellView, max int) []FigureView {
-	var all []FigureView
-	for _, c := range cells {
-		all = append(all, c.Figures...)
+	type ranked struct {
+		f    FigureView
+		rank int
 	}
-	rank := func(f FigureView) int {
-		n := strings.ToLower(f.Name)
-		perArea := strings.Contains(f.Unit, "km²")
-		carbon := strings.Contains(f.Unit, "C/")
-		switch {
-		case strings.Contains(n, "co2") && strings.Contains(n, "silicate") && perArea && !carbon:
-			return 0
-		case strings.Contains(n, "co2") && strings.Contains(n, "carbonate") && perArea && !carbon:
-			return 1
-		case strings.Contains(n, "silicate") && strings.Contains(n, "weathering rate"):
-			return 2
-		case strings.HasPrefix(n, "runoff over"):
-			return 3
-		case strings.Contains(n, "weathering rate"):
-			return 4
-		case strings.Contains(n, "co2") && perArea:
-			return 5
-		case strings.Contains(n, "co2"):
-			return 6
+	var all []ranked
+	for _, c := range cells {
+		for _, f := range c.Figures {
+			all = append(all, ranked{f, notebook.FigureRank(notebook.Kind(c.Kind), f.Name)})
 		}
-		return 10
 	}
 	// Within a rank, a figure with an interval comes first, and a name
 	// shown once (runoff is reported by more than one cell).
 	sort.SliceStable(all, func(i, j int) bool {
-		ri, rj := rank(all[i]), rank(all[j])
-		if ri != rj {
-			return ri < rj
+		if all[i].rank != all[j].rank {
+			return all[i].rank < all[j].rank
 		}
-		return all[i].Interval != "" && all[j].Interval == ""
+		return all[i].f.Interval != "" && all[j].f.Interval == ""
 	})
 	seen := map[string]bool{}
-	kept := all[:0]
-	for _, f := range all {
-		if !seen[f.Name] {
-			seen[f.Name] = true
-			kept = append(kept, f)
+	var kept []FigureView
+	for _, r := range all {
+		if !seen[r.f.Name] {
+			seen[r.f.Name] = true
+			kept = append(kept, r.f)
 		}
 	}
-	all = kept
-	if len(all) > max {
-		all = all[:max]
+	if len(kept) > max {
+		kept = kept[:max]
 	}
-	return all
+	return kept
 }
 
 // columnRefs lists every output column of the other cells as a chart

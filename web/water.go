@@ -14,10 +14,6 @@ import (
 // notebook.SettingLabel).
 
 func init() {
-	kindLabels[notebook.KindCarbonate] = "Carbonate system"
-	kindLabels[notebook.KindMinerals] = "Mineral balance"
-	choices["activity_model"] = []string{"davies", "extended-debye-huckel"}
-	choices["fit_components"] = []string{"all", "cations"}
 	for k, v := range map[string]string{
 		"carbonate.ionic_strength":  "ionic strength",
 		"carbonate.H2CO3":           "H2CO3*",
@@ -66,18 +62,18 @@ func carbonateSetting(c *notebook.Cell, key string) float64 {
 // discharge at sampling on a log axis, or, when no sample has one, the
 // sampling date.
 func carbonateX(t *notebook.ResultTable) (xs []float64, label string, time bool) {
-	q := exact(t, "discharge")
+	q := t.Column("discharge")
 	for _, v := range nums(q) {
 		if v > 0 {
 			return q.Num, labelWithUnit("discharge at sampling", q), false
 		}
 	}
-	return days(exact(t, "date")), "date (no discharge at sampling)", true
+	return days(t.Column("date")), "date (no discharge at sampling)", true
 }
 
 // hline is a horizontal line at y across the x range of xs.
 func hline(ch *plot.Chart, name string, s plot.Style, xs []float64, y float64, time bool) {
-	lo, hi := minMax(xs)
+	lo, hi := notebook.PositiveRange(xs)
 	if time {
 		lo, hi = math.Inf(1), math.Inf(-1)
 		for _, x := range xs {
@@ -102,13 +98,13 @@ func saturationChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Char
 	xs, xl, time := carbonateX(t)
 	ch := plot.New(id, "Saturation indices against discharge", xl, "saturation index (log10 IAP/K)")
 	ch.X.Log, ch.X.Time = !time, time
-	names := texts(exact(t, "sample"))
+	names := texts(t.Column("sample"))
 	hline(ch, "saturation (SI 0)", plot.Style{Colour: "#6b6b6b"}, xs, 0, time)
 	if f := carbonateSetting(c, "si_calcite_flag"); !math.IsNaN(f) {
 		hline(ch, "flag: SI of calcite "+plot.Number(f), plot.Style{Colour: "#a4262c", Dash: "6 3"}, xs, f, time)
 	}
 	for i, m := range []struct{ col, name string }{{"SI_calcite", "calcite"}, {"SI_aragonite", "aragonite"}, {"SI_dolomite", "dolomite"}} {
-		if col := exact(t, m.col); col != nil {
+		if col := t.Column(m.col); col != nil {
 			ch.Points(m.name, plot.StyleN(i), xs, col.Num, names)
 		}
 	}
@@ -119,7 +115,7 @@ func saturationChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Char
 // the air's pCO2 and the cell's flag.
 func pco2Chart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 	t := o.Table("carbonate")
-	p := exact(t, "pCO2")
+	p := t.Column("pCO2")
 	if p == nil || t.Len() == 0 {
 		return nil
 	}
@@ -133,7 +129,7 @@ func pco2Chart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 			hline(ch, "flag: "+plot.Number(f)+" × the air's", plot.Style{Colour: "#a4262c", Dash: "6 3"}, xs, air*f, time)
 		}
 	}
-	ch.Points("samples", plot.StyleN(0), xs, p.Num, texts(exact(t, "sample")))
+	ch.Points("samples", plot.StyleN(0), xs, p.Num, texts(t.Column("sample")))
 	return ch
 }
 
@@ -141,14 +137,14 @@ func pco2Chart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 // below.
 func mineralBars(id string, o *notebook.Output) *plot.Chart {
 	mt, at := o.Table("minerals"), o.Table("amounts")
-	keys := texts(exact(mt, "mineral"))
-	names := texts(exact(at, "sample"))
+	keys := texts(mt.Column("mineral"))
+	names := texts(at.Column("sample"))
 	if len(keys) == 0 || len(names) == 0 {
 		return nil
 	}
 	var segs []plot.Segment
 	for i, k := range keys {
-		if col := exact(at, k); col != nil && col.Num != nil {
+		if col := at.Column(k); col != nil && col.Num != nil {
 			segs = append(segs, plot.Segment{Name: k, Style: plot.StyleN(i), Value: col.Num})
 		}
 	}
@@ -163,7 +159,7 @@ func mineralBars(id string, o *notebook.Output) *plot.Chart {
 // with its 95 % interval.
 func mineralCO2Chart(id string, o *notebook.Output) *plot.Chart {
 	t := o.Table("period")
-	keys, v := texts(exact(t, "mineral")), exact(t, "CO2_consumed")
+	keys, v := texts(t.Column("mineral")), t.Column("CO2_consumed")
 	if len(keys) == 0 || v == nil {
 		return nil
 	}
@@ -171,6 +167,6 @@ func mineralCO2Chart(id string, o *notebook.Output) *plot.Chart {
 	ch.Height = 320
 	ch.StaggerLabels = true // mineral names are long
 	ch.DivergingBars(keys, []plot.Segment{{Name: "median with 95 % interval (below zero: released)", Style: plot.StyleN(1),
-		Value: v.Num, Lo: nums(exact(t, "CO2_consumed_low")), Hi: nums(exact(t, "CO2_consumed_high"))}})
+		Value: v.Num, Lo: nums(t.Column("CO2_consumed_low")), Hi: nums(t.Column("CO2_consumed_high"))}})
 	return ch
 }

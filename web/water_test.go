@@ -86,7 +86,7 @@ func TestWaterLabels(t *testing.T) {
 			t.Errorf("%s.%s: %q, want %q", c.table, c.col, got, c.want)
 		}
 	}
-	if got := choices["activity_model"]; len(got) != 2 {
+	if got, _ := options(notebook.KindCarbonate, "activity_model"); len(got) != 2 {
 		t.Errorf("activity model choices %v", got)
 	}
 }

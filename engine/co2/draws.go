@@ -2,18 +2,15 @@ package co2
 
 import (
 	"fmt"
-	"math"
 	"slices"
 
+	"lixiv/engine/internal/quantile"
 	"lixiv/engine/mix"
 )
 
-// Spread summarises one CO2 figure over Monte Carlo draws, µmol/L.
-type Spread struct {
-	Lo     float64 // 2.5 % quantile
-	Median float64 // 50 % quantile
-	Hi     float64 // 97.5 % quantile
-}
+// Spread summarises one CO2 figure over Monte Carlo draws, µmol/L: the
+// 2.5, 50 and 97.5 % quantiles.
+type Spread = quantile.Interval
 
 // Interval holds the spread of each CO2 figure of Result over draws.
 type Interval struct {
@@ -44,18 +41,7 @@ func OverDraws(draws []mix.Split, so4Sulf float64, opt *Options) (Interval, erro
 	out := []*Spread{&iv.PhiSil, &iv.PhiCarb, &iv.PhiTotal, &iv.NetLong, &iv.SinkSil}
 	for i, c := range cols {
 		slices.Sort(c)
-		*out[i] = Spread{Lo: quantile(c, 0.025), Median: quantile(c, 0.5), Hi: quantile(c, 0.975)}
+		*out[i] = quantile.SortedInterval(c)
 	}
 	return iv, nil
-}
-
-// quantile returns the p quantile of sorted x, interpolating linearly
-// between order statistics (type 7).
-func quantile(x []float64, p float64) float64 {
-	h := p * float64(len(x)-1)
-	lo := int(math.Floor(h))
-	if lo >= len(x)-1 {
-		return x[len(x)-1]
-	}
-	return x[lo] + (h-float64(lo))*(x[lo+1]-x[lo])
 }

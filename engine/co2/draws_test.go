@@ -73,7 +73,7 @@ func TestOverDrawsExact(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if iv.PhiSil != (Spread{238, 238, 238}) || iv.PhiCarb != (Spread{480, 480, 480}) {
+	if iv.PhiSil != (Spread{Lo: 238, Median: 238, Hi: 238}) || iv.PhiCarb != (Spread{Lo: 480, Median: 480, Hi: 480}) {
 		t.Errorf("got %+v, want phi_sil 238 and phi_carb 480 throughout", iv)
 	}
 	if _, err := OverDraws(nil, 0, nil); !errors.Is(err, ErrInput) {

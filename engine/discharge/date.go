@@ -3,6 +3,8 @@ package discharge
 import (
 	"strconv"
 	"strings"
+
+	"lixiv/engine/internal/dateorder"
 )
 
 // DateOrder settles dates written with the year last, such as 03/04/2021.
@@ -170,12 +172,8 @@ func (st stamp) day(o DateOrder) (Day, bool) {
 	case 'm':
 		m, d = st.a, st.b
 	case 'l':
-		switch o {
-		case DayFirst:
-			d, m = st.a, st.b
-		case MonthFirst:
-			m, d = st.a, st.b
-		default:
+		var ok bool
+		if d, m, ok = dateorder.DayMonth(st.a, st.b, o == DayFirst, o == MonthFirst); !ok {
 			return 0, false
 		}
 	}

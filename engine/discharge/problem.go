@@ -31,26 +31,20 @@ var (
 
 // effects gives the severity and effect of each kind of problem; kinds
 // not listed are errors whose value was left out.
-var effects = map[error]struct {
-	sev problem.Severity
-	eff problem.Effect
-}{
-	ErrNotTable: {problem.Error, problem.Unread}, ErrNoDateColumn: {problem.Error, problem.Unread},
-	ErrNoQColumn: {problem.Error, problem.Unread}, ErrNoUnit: {problem.Error, problem.Unread},
-	ErrAmbiguousDate: {problem.Error, problem.Refused}, ErrMixedUnits: {problem.Warning, problem.Inferred},
-	ErrUnsorted: {problem.Warning, problem.Inferred}, ErrMissingDay: {problem.Warning, problem.LeftOut},
-	ErrBadDays: {problem.Warning, problem.LeftOut}, ErrDateOrder: {problem.Note, problem.Inferred},
-	ErrDuplicateDay: {problem.Warning, problem.LeftOut},
+var effects = problem.Classes{
+	ErrNotTable: problem.ClassOf(problem.Error, problem.Unread), ErrNoDateColumn: problem.ClassOf(problem.Error, problem.Unread),
+	ErrNoQColumn: problem.ClassOf(problem.Error, problem.Unread), ErrNoUnit: problem.ClassOf(problem.Error, problem.Unread),
+	ErrAmbiguousDate: problem.ClassOf(problem.Error, problem.Refused), ErrMixedUnits: problem.ClassOf(problem.Warning, problem.Inferred),
+	ErrUnsorted: problem.ClassOf(problem.Warning, problem.Inferred), ErrMissingDay: problem.ClassOf(problem.Warning, problem.LeftOut),
+	ErrBadDays: problem.ClassOf(problem.Warning, problem.LeftOut), ErrDateOrder: problem.ClassOf(problem.Note, problem.Inferred),
+	ErrDuplicateDay: problem.ClassOf(problem.Warning, problem.LeftOut),
 }
 
 // classify sets p's severity and effect from its kind.
 func (p *Problem) classify() {
 	p.Severity, p.Effect = problem.Error, problem.LeftOut
-	for err, e := range effects {
-		if errors.Is(p.Err, err) {
-			p.Severity, p.Effect = e.sev, e.eff
-			return
-		}
+	if c, ok := effects.Of(p.Err); ok {
+		p.Severity, p.Effect = c.Severity, c.Effect
 	}
 }
 
@@ -76,20 +70,11 @@ type Problem struct {
 // without the kind for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
-	if p.File != "" {
-		b.WriteString(p.File)
-	} else {
-		b.WriteString("input")
+	file := p.File
+	if file == "" {
+		file = "input"
 	}
-	if p.Row > 0 {
-		fmt.Fprintf(&b, ":%d", p.Row)
-		if p.Col > 0 {
-			fmt.Fprintf(&b, ":%d", p.Col)
-		}
-	}
-	if p.Column != "" {
-		fmt.Fprintf(&b, " (%s)", p.Column)
-	}
+	problem.Place(&b, file, p.Row, p.Col, p.Column)
 	if p.Detail != "" && (errors.Is(p.Err, ErrMissingDay) || errors.Is(p.Err, ErrBadDays) || errors.Is(p.Err, ErrDateOrder)) {
 		b.WriteString(": " + p.Detail) // a notice says it all in its detail
 		return b.String()
@@ -106,43 +91,14 @@ func (p *Problem) Error() string {
 func (p *Problem) Unwrap() error { return p.Err }
 
 // Problems is a list of import problems. The zero value is an empty list.
-type Problems []*Problem
+type Problems = problem.Of[*Problem]
 
-// Err returns nil for an empty list and the list itself otherwise.
-func (ps Problems) Err() error {
-	if len(ps) == 0 {
-		return nil
-	}
-	return ps
-}
-
-// Error prints the first problem and how many more there are.
-func (ps Problems) Error() string {
-	switch len(ps) {
-	case 0:
-		return "no problems"
-	case 1:
-		return ps[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more problems)", ps[0].Error(), len(ps)-1)
-}
-
-// Sort orders the list by row, then column.
-func (ps Problems) Sort() {
+// sortProblems orders ps by row, then column.
+func sortProblems(ps Problems) {
 	sort.SliceStable(ps, func(i, j int) bool {
 		if ps[i].Row != ps[j].Row {
 			return ps[i].Row < ps[j].Row
 		}
 		return ps[i].Col < ps[j].Col
 	})
-}
-
-// Is reports whether any problem in the list is of kind target.
-func (ps Problems) Is(target error) bool {
-	for _, p := range ps {
-		if errors.Is(p, target) {
-			return true
-		}
-	}
-	return false
 }

@@ -11,6 +11,7 @@ import (
 	"strconv"
 	"strings"
 
+	"lixiv/engine/internal/dateorder"
 	"lixiv/engine/problem"
 )
 
@@ -89,70 +90,116 @@ type reading struct {
 // accepted forms). It never fails outright: what cannot be read is listed in
 // the returned Import's Problems with its row and column, and the rest loads.
 func Read(r io.Reader, opt Options) *Import {
-	imp := &Import{Record: &Record{Name: opt.File}}
-	perKind := map[error]int{}
-	var kinds []error
-	add := func(row, col int, column string, kind error, format string, args ...any) {
-		if perKind[kind]++; perKind[kind] > MaxProblems {
-			return
-		}
-		if perKind[kind] == 1 {
-			kinds = append(kinds, kind)
-		}
-		p := &Problem{File: opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)}
-		p.classify()
-		imp.Problems = append(imp.Problems, p)
+	rd := &reader{imp: &Import{Record: &Record{Name: opt.File}}, opt: opt, perKind: map[error]int{}}
+	defer rd.countRest()
+	if !rd.split(r) || !rd.columns() {
+		return rd.imp
 	}
-	// value sets the cell text of the problem just added.
-	value := func(v string) {
-		if n := len(imp.Problems); n > 0 {
-			imp.Problems[n-1].Value = strings.TrimSpace(v)
+	rd.decimal()
+	rd.dates()
+	build(rd.imp, rd.readings(), opt, rd.add, rd.dName)
+	rd.sortOut()
+	return rd.imp
+}
+
+// reader holds what Read has found so far, step by step.
+type reader struct {
+	imp     *Import
+	opt     Options
+	perKind map[error]int // problems of each kind
+	kinds   []error       // the kinds, in the order first met
+
+	rows  [][]string
+	lines []int // the line of each row, as the file counts it
+	cols  columns
+	start int // the first data row
+
+	qName, dName string // the discharge and date columns' headers
+	unit         Unit   // the file's unit (NoUnit: per row, or none)
+	comma        bool   // a decimal comma
+
+	stamps   []stamp // each row's date, before the order is settled
+	okStamp  []bool
+	reported []bool // the row's date or time was reported already
+	order    DateOrder
+}
+
+// add lists a problem of kind at row and column (at most MaxProblems of
+// each kind; countRest counts the rest).
+func (r *reader) add(row, col int, column string, kind error, format string, args ...any) {
+	if r.perKind[kind]++; r.perKind[kind] > MaxProblems {
+		return
+	}
+	if r.perKind[kind] == 1 {
+		r.kinds = append(r.kinds, kind)
+	}
+	p := &Problem{File: r.opt.File, Row: row, Col: col, Column: column, Err: kind, Detail: fmt.Sprintf(format, args...)}
+	p.classify()
+	r.imp.Problems = append(r.imp.Problems, p)
+}
+
+// value sets the cell text of the problem just added.
+func (r *reader) value(v string) {
+	if n := len(r.imp.Problems); n > 0 {
+		r.imp.Problems[n-1].Value = strings.TrimSpace(v)
+	}
+}
+
+// countRest closes the list with the count of the problems of each kind
+// beyond MaxProblems.
+func (r *reader) countRest() {
+	for _, k := range r.kinds {
+		if n := r.perKind[k] - MaxProblems; n > 0 {
+			p := &Problem{File: r.opt.File, Err: k, Detail: fmt.Sprintf("%d more rows like the above are not listed", n)}
+			p.classify()
+			r.imp.Problems = append(r.imp.Problems, p)
 		}
 	}
-	defer func() {
-		for _, k := range kinds {
-			if n := perKind[k] - MaxProblems; n > 0 {
-				p := &Problem{File: opt.File, Err: k, Detail: fmt.Sprintf("%d more rows like the above are not listed", n)}
-				p.classify()
-				imp.Problems = append(imp.Problems, p)
-			}
-		}
-	}()
-	data, err := io.ReadAll(r)
+}
+
+// split reads the input and splits it into rows; false when there are
+// none.
+func (r *reader) split(in io.Reader) bool {
+	data, err := io.ReadAll(in)
 	if err != nil {
-		add(0, 0, "", ErrNotTable, "reading failed: %v", err)
-		return imp
+		r.add(0, 0, "", ErrNotTable, "reading failed: %v", err)
+		return false
 	}
 	data = bytes.TrimPrefix(data, []byte("\ufeff"))
-	rows, lines := splitRows(data, opt, imp, add)
-	if opt.Line != nil {
-		for i, l := range lines {
-			lines[i] = opt.Line(l)
+	r.rows, r.lines = splitRows(data, r.opt, r.imp, r.add)
+	if r.opt.Line != nil {
+		for i, l := range r.lines {
+			r.lines[i] = r.opt.Line(l)
 		}
-		for _, p := range imp.Problems { // syntax errors, met while splitting
+		for _, p := range r.imp.Problems { // syntax errors, met while splitting
 			if p.Row > 0 {
-				p.Row = opt.Line(p.Row)
+				p.Row = r.opt.Line(p.Row)
 			}
 		}
 	}
-	if len(rows) == 0 {
-		add(0, 0, "", ErrNotTable, "no rows")
-		return imp
+	if len(r.rows) == 0 {
+		r.add(0, 0, "", ErrNotTable, "no rows")
+		return false
 	}
+	return true
+}
 
-	// Columns: header or none.
+// columns finds the date and discharge columns, a units row and the unit;
+// false when the table lacks one of them.
+func (r *reader) columns() bool {
+	rows, lines, opt := r.rows, r.lines, r.opt
 	cols := findColumns(rows[0])
 	start := 1
 	if cols.headerless {
 		start = 0
 	}
 	if cols.date < 0 {
-		add(lines[0], 0, "", ErrNoDateColumn, "the header names no date column (Date, Day, DateTime, Timestamp)")
-		return imp
+		r.add(lines[0], 0, "", ErrNoDateColumn, "the header names no date column (Date, Day, DateTime, Timestamp)")
+		return false
 	}
 	if cols.q < 0 {
-		add(lines[0], 0, "", ErrNoQColumn, "the header names no discharge column (Q, Discharge, Flow, Runoff, cms, cfs, L/s)")
-		return imp
+		r.add(lines[0], 0, "", ErrNoQColumn, "the header names no discharge column (Q, Discharge, Flow, Runoff, cms, cfs, L/s)")
+		return false
 	}
 	qName := cols.name(rows[0], cols.q)
 	// A units row under the names.
@@ -160,7 +207,7 @@ func Read(r io.Reader, opt Options) *Import {
 		if _, ok := parseStamp(cell(rows[1], cols.date)); !ok {
 			if u, err := ParseUnit(rows[1][cols.q]); err == nil {
 				if cols.unit != NoUnit && cols.unit != u {
-					add(lines[1], cols.q+1, qName, ErrMixedUnits, "units row says %s but the header says %s; the units row is used", u, cols.unit)
+					r.add(lines[1], cols.q+1, qName, ErrMixedUnits, "units row says %s but the header says %s; the units row is used", u, cols.unit)
 				}
 				cols.unit = u
 				start = 2
@@ -169,17 +216,23 @@ func Read(r io.Reader, opt Options) *Import {
 	}
 	fileUnit := cols.unit
 	if fileUnit != NoUnit && opt.Unit != NoUnit && opt.Unit != fileUnit {
-		add(lines[0], cols.q+1, qName, ErrMixedUnits, "the file says %s but the options say %s; the file's unit is used", fileUnit, opt.Unit)
+		r.add(lines[0], cols.q+1, qName, ErrMixedUnits, "the file says %s but the options say %s; the file's unit is used", fileUnit, opt.Unit)
 	}
 	if fileUnit == NoUnit {
 		fileUnit = opt.Unit
 	}
 	if fileUnit == NoUnit && cols.unitCol < 0 {
-		add(lines[0], cols.q+1, qName, ErrNoUnit, "state it in the header, as \"Q (m3/s)\", or in the options; nothing was loaded")
-		return imp
+		r.add(lines[0], cols.q+1, qName, ErrNoUnit, "state it in the header, as \"Q (m3/s)\", or in the options; nothing was loaded")
+		return false
 	}
+	r.cols, r.start, r.unit, r.qName = cols, start, fileUnit, qName
+	r.dName = cols.name(rows[0], cols.date)
+	return true
+}
 
-	// Decimal comma.
+// decimal settles the decimal mark from the discharge column.
+func (r *reader) decimal() {
+	rows, cols, start, imp, opt := r.rows, r.cols, r.start, r.imp, r.opt
 	delim := imp.Delimiter
 	comma := opt.Decimal == DecimalComma
 	if opt.Decimal == AutoDecimal && delim != ',' {
@@ -198,65 +251,72 @@ func Read(r io.Reader, opt Options) *Import {
 	if comma {
 		imp.Notes = append(imp.Notes, "numbers read with a decimal comma")
 	}
+	r.comma = comma
+}
 
-	// Dates: settle the order of year-last dates over the whole column.
+// dates reads every row's date and settles the order of dates written with
+// the year last over the whole column.
+func (r *reader) dates() {
+	rows, lines, cols, start, imp, opt := r.rows, r.lines, r.cols, r.start, r.imp, r.opt
 	stamps := make([]stamp, len(rows))
 	okStamp := make([]bool, len(rows))
 	reported := make([]bool, len(rows))
-	dayFirstRow, monthFirstRow, ambiguous := 0, 0, 0
-	dateAt := map[int]string{} // the date cells that decide the order, by line
+	var seen dateorder.Evidence // the dates written with the year last
 	for i := start; i < len(rows); i++ {
 		st, ok := parseStamp(cell(rows[i], cols.date))
 		if ok && cols.time >= 0 {
 			if sec, ok2 := parseClock(cell(rows[i], cols.time)); ok2 {
 				st.sec = sec
 			} else if strings.TrimSpace(cell(rows[i], cols.time)) != "" {
-				add(lines[i], cols.time+1, cols.name(rows[0], cols.time), ErrBadDate, "%q is not a time of day (hh:mm or hh:mm:ss); the row was left out", cell(rows[i], cols.time))
+				r.add(lines[i], cols.time+1, cols.name(rows[0], cols.time), ErrBadDate, "%q is not a time of day (hh:mm or hh:mm:ss); the row was left out", cell(rows[i], cols.time))
 				reported[i] = true
 				continue
 			}
 		}
 		stamps[i], okStamp[i] = st, ok
 		if ok && st.form == 'l' {
-			ambiguous++
-			if st.a > 12 && dayFirstRow == 0 {
-				dayFirstRow = lines[i]
-				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
-			}
-			if st.b > 12 && monthFirstRow == 0 {
-				monthFirstRow = lines[i]
-				dateAt[lines[i]] = strings.TrimSpace(cell(rows[i], cols.date))
-			}
+			seen.Add(dateorder.Witness{Line: lines[i], Raw: strings.TrimSpace(cell(rows[i], cols.date)), A: st.a, B: st.b})
 		}
 	}
 	order := opt.DateOrder
-	dName := cols.name(rows[0], cols.date)
-	if order == AutoOrder && ambiguous > 0 {
-		switch {
-		case dayFirstRow > 0 && monthFirstRow > 0:
-			add(max(dayFirstRow, monthFirstRow), cols.date+1, dName, ErrAmbiguousDate, "line %d %q reads only day-first but line %d %q only month-first; set \"date order\" to day-first or month-first; the %d dates written with the year last were not loaded",
-				dayFirstRow, dateAt[dayFirstRow], monthFirstRow, dateAt[monthFirstRow], ambiguous)
-			value(dateAt[max(dayFirstRow, monthFirstRow)])
-		case dayFirstRow > 0:
+	dName := r.dName
+	if order == AutoOrder {
+		df, mf := seen.DayFirst, seen.MonthFirst
+		switch seen.Verdict() {
+		case dateorder.Conflict:
+			last := df
+			if mf.Line > df.Line {
+				last = mf
+			}
+			r.add(last.Line, cols.date+1, dName, ErrAmbiguousDate, "line %d %q reads only day-first but line %d %q only month-first; set \"date order\" to day-first or month-first; the %d dates written with the year last were not loaded",
+				df.Line, df.Raw, mf.Line, mf.Raw, seen.N)
+			r.value(last.Raw)
+		case dateorder.DayFirst:
 			order = DayFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (line %d has a day above 12)", dayFirstRow))
-			add(dayFirstRow, cols.date+1, dName, ErrDateOrder, "dates read day-first, as this one shows (its first number cannot be a month)")
-			value(dateAt[dayFirstRow])
-		case monthFirstRow > 0:
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read day-first (line %d has a day above 12)", df.Line))
+			r.add(df.Line, cols.date+1, dName, ErrDateOrder, "dates read day-first, as this one shows (its first number cannot be a month)")
+			r.value(df.Raw)
+		case dateorder.MonthFirst:
 			order = MonthFirst
-			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (line %d has a day above 12)", monthFirstRow))
-			add(monthFirstRow, cols.date+1, dName, ErrDateOrder, "dates read month-first, as this one shows (its second number cannot be a month)")
-			value(dateAt[monthFirstRow])
-		default:
-			add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; %d rows were not loaded", ambiguous)
-			value(cell(rows[start], cols.date))
+			imp.Notes = append(imp.Notes, fmt.Sprintf("dates read month-first (line %d has a day above 12)", mf.Line))
+			r.add(mf.Line, cols.date+1, dName, ErrDateOrder, "dates read month-first, as this one shows (its second number cannot be a month)")
+			r.value(mf.Raw)
+		case dateorder.Either:
+			r.add(lines[start], cols.date+1, dName, ErrAmbiguousDate, "every date, such as this one, reads both day-first and month-first; set \"date order\" to day-first or month-first; %d rows were not loaded", seen.N)
+			r.value(cell(rows[start], cols.date))
 		}
 	}
 	imp.DateOrder = order
+	r.stamps, r.okStamp, r.reported, r.order = stamps, okStamp, reported, order
+}
 
-	// Rows.
+// readings reads each row's discharge, in m³/s, with its unit.
+func (r *reader) readings() []reading {
+	rows, lines, cols, start, imp := r.rows, r.lines, r.cols, r.start, r.imp
+	stamps, okStamp, reported, order := r.stamps, r.okStamp, r.reported, r.order
+	qName, dName, fileUnit := r.qName, r.dName, r.unit
 	rd := make([]reading, 0, len(rows))
-	var bad struct{ neg, code, empty, text int } // days (readings) left out, by reason
+	var bad leftOutCount
 	leftOut, what, whats := "the day is left out (a gap)", "day", "days"
 	if cols.time >= 0 {
 		leftOut, what, whats = "the reading is left out", "reading", "readings"
@@ -273,7 +333,7 @@ func Read(r io.Reader, opt Options) *Import {
 		}
 		if !okStamp[i] {
 			if !reported[i] {
-				add(line, cols.date+1, dName, ErrBadDate, "%q is not a date (use 2021-10-01, 01/10/2021 or 10/01/2021)", cell(row, cols.date))
+				r.add(line, cols.date+1, dName, ErrBadDate, "%q is not a date (use 2021-10-01, 01/10/2021 or 10/01/2021)", cell(row, cols.date))
 			}
 			continue
 		}
@@ -283,7 +343,7 @@ func Read(r io.Reader, opt Options) *Import {
 			if st.form == 'l' && order == AutoOrder {
 				continue // reported once above
 			}
-			add(line, cols.date+1, dName, ErrBadDate, "%q is not a valid %s date", cell(row, cols.date), orderOr(order, st))
+			r.add(line, cols.date+1, dName, ErrBadDate, "%q is not a valid %s date", cell(row, cols.date), orderOr(order, st))
 			continue
 		}
 		u := fileUnit
@@ -292,66 +352,32 @@ func Read(r io.Reader, opt Options) *Import {
 			if uc != "" {
 				ru, err := ParseUnit(uc)
 				if err != nil {
-					add(line, cols.unitCol+1, unitName, ErrUnknownUnit, "%q is not a discharge unit; the value was left out", uc)
+					r.add(line, cols.unitCol+1, unitName, ErrUnknownUnit, "%q is not a discharge unit; the value was left out", uc)
 					rd = append(rd, reading{d, st.sec, math.NaN(), line})
 					continue
 				}
 				u = ru
 			}
 			if u == NoUnit {
-				add(line, cols.unitCol+1, unitName, ErrNoUnit, "no unit for this row; the value was left out")
+				r.add(line, cols.unitCol+1, unitName, ErrNoUnit, "no unit for this row; the value was left out")
 				rd = append(rd, reading{d, st.sec, math.NaN(), line})
 				continue
 			}
 			if firstUnit < 0 {
 				firstUnit = u
 			} else if u != firstUnit {
-				add(line, cols.unitCol+1, unitName, ErrMixedUnits, "%s here but %s above; the value was converted with its own unit %s", u, firstUnit, u)
+				r.add(line, cols.unitCol+1, unitName, ErrMixedUnits, "%s here but %s above; the value was converted with its own unit %s", u, firstUnit, u)
 			}
 		} else if firstUnit < 0 {
 			firstUnit = u
 		}
 		raw := cell(row, cols.q)
 		if cols.q >= len(row) {
-			add(line, 0, "", ErrShortRow, "%d cells, but discharge is in column %d; the day is a gap", len(row), cols.q+1)
+			r.add(line, 0, "", ErrShortRow, "%d cells, but discharge is in column %d; the day is a gap", len(row), cols.q+1)
 			rd = append(rd, reading{d, st.sec, math.NaN(), line})
 			continue
 		}
-		v, perr := parseNumber(raw, comma)
-		switch {
-		case perr == errMissing:
-			v = math.NaN()
-			bad.empty++
-			what := "is empty"
-			if t := strings.TrimSpace(raw); t != "" {
-				what = fmt.Sprintf("holds %q, a no-data code read as missing", t)
-				bad.code++
-				bad.empty--
-			}
-			add(line, cols.q+1, qName, ErrMissingDay, "%s: the discharge %s; %s", d, what, leftOut)
-			value(raw)
-		case perr != nil:
-			add(line, cols.q+1, qName, ErrNotNumber, "%s: %q is not a number; %s", d, strings.TrimSpace(raw), leftOut)
-			value(raw)
-			v = math.NaN()
-			bad.text++
-		case v < 0:
-			add(line, cols.q+1, qName, ErrNegative, "%s: %s is below zero; %s", d, strings.TrimSpace(raw), leftOut)
-			value(raw)
-			v = math.NaN()
-			bad.neg++
-		default:
-			q, err := ToM3s(v, u, opt.AreaKm2)
-			if err != nil {
-				add(line, cols.q+1, qName, err, "%s: the value was left out", d)
-				value(raw)
-				v = math.NaN()
-				bad.text++
-			} else {
-				v = q
-			}
-		}
-		rd = append(rd, reading{d, st.sec, v, line})
+		rd = append(rd, reading{d, st.sec, r.discharge(raw, d, line, u, leftOut, &bad), line})
 	}
 	if n := bad.neg + bad.code + bad.empty + bad.text; n > 0 {
 		var parts []string
@@ -363,15 +389,57 @@ func Read(r io.Reader, opt Options) *Import {
 				parts = append(parts, fmt.Sprintf("%d %s", k.n, k.what))
 			}
 		}
-		add(0, cols.q+1, qName, ErrBadDays, "%d %s left out (%s), each named at its line", n, plural(n, what, whats), strings.Join(parts, ", "))
+		r.add(0, cols.q+1, qName, ErrBadDays, "%d %s left out (%s), each named at its line", n, plural(n, what, whats), strings.Join(parts, ", "))
 	}
 	if firstUnit >= 0 {
 		imp.Unit = firstUnit
 		imp.Notes = append(imp.Notes, "discharge unit "+firstUnit.String())
 	}
-	build(imp, rd, opt, add, dName)
-	// Inferences, days without a value and their count go to their own
-	// list: Problems.Err() stays nil for a table without a wrong cell.
+	return rd
+}
+
+// leftOutCount counts the days (readings) left out, by reason.
+type leftOutCount struct{ neg, code, empty, text int }
+
+// discharge reads the discharge cell raw of day d on line, in unit u, as
+// m³/s: NaN, reported and counted in bad, when it is missing, not a
+// number or below zero.
+func (r *reader) discharge(raw string, d Day, line int, u Unit, leftOut string, bad *leftOutCount) float64 {
+	col, qName := r.cols.q+1, r.qName
+	v, perr := parseNumber(raw, r.comma)
+	switch {
+	case perr == errMissing:
+		bad.empty++
+		what := "is empty"
+		if t := strings.TrimSpace(raw); t != "" {
+			what = fmt.Sprintf("holds %q, a no-data code read as missing", t)
+			bad.code++
+			bad.empty--
+		}
+		r.add(line, col, qName, ErrMissingDay, "%s: the discharge %s; %s", d, what, leftOut)
+	case perr != nil:
+		r.add(line, col, qName, ErrNotNumber, "%s: %q is not a number; %s", d, strings.TrimSpace(raw), leftOut)
+		bad.text++
+	case v < 0:
+		r.add(line, col, qName, ErrNegative, "%s: %s is below zero; %s", d, strings.TrimSpace(raw), leftOut)
+		bad.neg++
+	default:
+		q, err := ToM3s(v, u, r.opt.AreaKm2)
+		if err == nil {
+			return q
+		}
+		r.add(line, col, qName, err, "%s: the value was left out", d)
+		bad.text++
+	}
+	r.value(raw)
+	return math.NaN()
+}
+
+// sortOut moves inferences, days without a value and their count to their
+// own list, so that Problems.Err() stays nil for a table without a wrong
+// cell, and sorts both lists.
+func (r *reader) sortOut() {
+	imp := r.imp
 	kept := imp.Problems[:0]
 	for _, p := range imp.Problems {
 		if p.Severity == problem.Note || errors.Is(p, ErrMissingDay) || errors.Is(p, ErrBadDays) {
@@ -381,12 +449,11 @@ func Read(r io.Reader, opt Options) *Import {
 		kept = append(kept, p)
 	}
 	imp.Problems = kept
-	imp.Problems.Sort()
-	imp.Notices.Sort()
+	sortProblems(imp.Problems)
+	sortProblems(imp.Notices)
 	if n := len(imp.Notices); n > 0 && errors.Is(imp.Notices[0], ErrBadDays) {
 		imp.Notices = append(imp.Notices[1:], imp.Notices[0]) // the count closes the list
 	}
-	return imp
 }
 
 func orderOr(o DateOrder, st stamp) string {

@@ -6,10 +6,10 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"sort"
 	"strings"
 
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/quantile"
 )
 
 // DrawMode says how Bootstrap uses the Monte Carlo draws of a series.
@@ -141,12 +141,7 @@ func (b *BootstrapOptions) err() error {
 
 // Interval is a bootstrap summary: the median and the 2.5 % and 97.5 %
 // quantiles (type 7, linear between order statistics; common practice).
-type Interval struct {
-	Median, Lo, Hi float64
-}
-
-// Contains reports whether v lies within [Lo, Hi].
-func (iv Interval) Contains(v float64) bool { return v >= iv.Lo && v <= iv.Hi }
+type Interval = quantile.Interval
 
 // LoadInterval holds an Interval for each figure of a Load.
 type LoadInterval struct {
@@ -486,31 +481,4 @@ func factor(rng *rand.Rand, sd float64) float64 {
 func Summary(v []float64) Interval { return summary(v) }
 
 // summary returns the median and 95 % interval of the non-NaN values of v.
-func summary(v []float64) Interval {
-	s := make([]float64, 0, len(v))
-	for _, x := range v {
-		if !math.IsNaN(x) {
-			s = append(s, x)
-		}
-	}
-	if len(s) == 0 {
-		return Interval{math.NaN(), math.NaN(), math.NaN()}
-	}
-	sort.Float64s(s)
-	return Interval{Median: Quantile(s, 0.5), Lo: Quantile(s, 0.025), Hi: Quantile(s, 0.975)}
-}
-
-// Quantile returns the p-quantile of sorted values by linear interpolation
-// between order statistics (Hyndman & Fan 1996 type 7; common practice).
-func Quantile(sorted []float64, p float64) float64 {
-	n := len(sorted)
-	if n == 0 {
-		return math.NaN()
-	}
-	h := p * float64(n-1)
-	lo := int(math.Floor(h))
-	if lo >= n-1 {
-		return sorted[n-1]
-	}
-	return sorted[lo] + (h-float64(lo))*(sorted[lo+1]-sorted[lo])
-}
+func summary(v []float64) Interval { return quantile.NotNaN(v) }

@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/quantile"
 )
 
 // Method is a flux estimator.
@@ -232,19 +233,7 @@ func yearSD(ys []YearLoad) float64 {
 			v = append(v, y.Mol)
 		}
 	}
-	if len(v) < 2 {
-		return math.NaN()
-	}
-	m := 0.0
-	for _, x := range v {
-		m += x
-	}
-	m /= float64(len(v))
-	ss := 0.0
-	for _, x := range v {
-		ss += (x - m) * (x - m)
-	}
-	return math.Sqrt(ss / float64(len(v)-1))
+	return quantile.StdDev(v)
 }
 
 // coverage returns the share of discharge before the first and after the

@@ -64,141 +64,29 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit, out []floa
 	if e.opt.Seasonal {
 		m = 3
 	}
-	p := m + 1
-	// Reference: the first positive concentration; y = ln c − ln cpos.
-	cpos := math.NaN()
-	if cref > 0 {
-		cpos = cref
-	} else {
-		for i := range c {
-			if w[i] > 0 && c[i] > 0 && e.smp[i].q > 0 {
-				cpos = c[i]
-				break
-			}
-		}
-	}
+	cpos := e.ratingRef(w, c, cref)
 	if math.IsNaN(cpos) {
 		return false
 	}
-	lref := plog(cpos)
-	ok := func(i int) bool { return w[i] > 0 && c[i] > 0 && e.smp[i].q > 0 }
-	if len(e.ly) < len(c) {
-		e.ly = make([]float64, len(c))
-	}
-	ly := e.ly
-	for i := range c {
-		if ok(i) {
-			ly[i] = plog(c[i]) - lref
-		}
-	}
-	x := func(i, j int) float64 {
-		switch j {
-		case 0:
-			return e.lnQ[i]
-		case 1:
-			return e.sS[i]
-		}
-		return e.cS[i]
-	}
-	var sw, ybar float64
-	var xbar, x0 [3]float64
-	var varies [3]bool
-	distinct := 0
-	for i := range e.smp {
-		if !ok(i) {
-			continue
-		}
-		for j := 0; j < m; j++ {
-			if distinct == 0 {
-				x0[j] = x(i, j)
-			} else if x(i, j) != x0[j] {
-				varies[j] = true
-			}
-		}
-		distinct++
-		sw += w[i]
-		ybar += w[i] * ly[i]
-		for j := 0; j < m; j++ {
-			xbar[j] += w[i] * x(i, j)
-		}
-	}
-	if distinct < p || sw <= float64(p) {
+	ly := e.logConc(w, c, plog(cpos))
+	var t ratingSums
+	if !t.sum(e, w, c, ly, m) {
 		return false
 	}
-	ybar /= sw
-	for j := 0; j < m; j++ {
-		xbar[j] /= sw
-	}
-	var a [3][3]float64
-	var b [3]float64
-	var syy float64
-	for i := range e.smp {
-		if !ok(i) {
-			continue
-		}
-		dy := ly[i] - ybar
-		syy += w[i] * dy * dy
-		for j := 0; j < m; j++ {
-			dj := x(i, j) - xbar[j]
-			b[j] += w[i] * dj * dy
-			for l := 0; l <= j; l++ {
-				a[j][l] += w[i] * dj * (x(i, l) - xbar[l])
-			}
-		}
-	}
-	// A term that does not vary among the samples (all at one discharge,
-	// say) cannot be fitted: it is left out with coefficient 0.
-	var keep []int
-	for j := 0; j < m; j++ {
-		if varies[j] {
-			keep = append(keep, j)
-		}
-	}
-	var ak [3][3]float64
-	var bk [3]float64
-	for r, j := range keep {
-		bk[r] = b[j]
-		for q, l := range keep {
-			if l <= j {
-				ak[r][q] = a[j][l]
-			} else {
-				ak[r][q] = a[l][j]
-			}
-		}
-	}
-	sol, solved := cholSolve(ak, bk, len(keep))
-	if !solved {
+	beta, nkeep, solved := t.solve(m)
+	if !solved || t.sw <= float64(nkeep+1) {
 		return false
 	}
-	var beta [3]float64
-	for r, j := range keep {
-		beta[j] = sol[r]
-	}
-	p = len(keep) + 1
-	if sw <= float64(p) {
-		return false
-	}
-	b0 := ybar
+	b0 := t.ybar
 	for j := 0; j < m; j++ {
-		b0 -= beta[j] * xbar[j]
+		b0 -= beta[j] * t.xbar[j]
 	}
-	var ssr, smear float64
-	for i := range e.smp {
-		if !ok(i) {
-			continue
-		}
-		r := ly[i] - b0
-		for j := 0; j < m; j++ {
-			r -= beta[j] * x(i, j)
-		}
-		ssr += w[i] * r * r
-		smear += w[i] * pexp(r)
-	}
-	s := math.Sqrt(ssr / (sw - float64(p)))
+	ssr, smear := e.residuals(w, c, ly, m, b0, beta)
+	s := math.Sqrt(ssr / (t.sw - float64(nkeep+1)))
 	var bcf float64
 	switch e.opt.Bias {
 	case Duan:
-		bcf = smear / sw
+		bcf = smear / t.sw
 	case Ferguson:
 		bcf = FergusonFactor(s)
 	default:
@@ -221,15 +109,170 @@ func (e *engine) rating(w, c []float64, cref float64, fit *RatingFit, out []floa
 		e.cd[k] = cpos * pexp(pred) * bcf
 	}
 	if fit != nil {
-		*fit = RatingFit{A: cpos * pexp(b0), B: beta[0], S: s, N: sw, Bias: e.opt.Bias, Factor: bcf, R2: math.NaN(), Fitted: len(keep)}
+		*fit = RatingFit{A: cpos * pexp(b0), B: beta[0], S: s, N: t.sw, Bias: e.opt.Bias, Factor: bcf, R2: math.NaN(), Fitted: nkeep}
 		if m == 3 {
 			fit.Sin, fit.Cos = beta[1], beta[2]
 		}
-		if syy > 0 {
-			fit.R2 = 1 - ssr/syy
+		if t.syy > 0 {
+			fit.R2 = 1 - ssr/t.syy
 		}
 	}
 	return true
+}
+
+// ratingUsable reports whether sample i enters the fit: weighted, with
+// positive concentration and discharge.
+func (e *engine) ratingUsable(w, c []float64, i int) bool {
+	return w[i] > 0 && c[i] > 0 && e.smp[i].q > 0
+}
+
+// ratingX is the j-th regressor of sample i: ln Q, then the season's sine
+// and cosine.
+func (e *engine) ratingX(i, j int) float64 {
+	switch j {
+	case 0:
+		return e.lnQ[i]
+	case 1:
+		return e.sS[i]
+	}
+	return e.cS[i]
+}
+
+// ratingRef returns the reference concentration of the fit, y = ln c − ln
+// cref: cref when given, else the first usable concentration (NaN when
+// none).
+func (e *engine) ratingRef(w, c []float64, cref float64) float64 {
+	if cref > 0 {
+		return cref
+	}
+	for i := range c {
+		if e.ratingUsable(w, c, i) {
+			return c[i]
+		}
+	}
+	return math.NaN()
+}
+
+// logConc returns ln c − lref for each usable sample, in e's buffer.
+func (e *engine) logConc(w, c []float64, lref float64) []float64 {
+	if len(e.ly) < len(c) {
+		e.ly = make([]float64, len(c))
+	}
+	ly := e.ly
+	for i := range c {
+		if e.ratingUsable(w, c, i) {
+			ly[i] = plog(c[i]) - lref
+		}
+	}
+	return ly
+}
+
+// ratingSums are the weighted sums of the rating curve's normal
+// equations, about the weighted means.
+type ratingSums struct {
+	sw, ybar, syy float64
+	xbar          [3]float64
+	varies        [3]bool // the term varies among the samples
+	a             [3][3]float64
+	b             [3]float64
+}
+
+// sum forms the weighted means and the normal equations of m terms over
+// the usable samples; false when there are fewer samples, or less weight,
+// than coefficients.
+func (t *ratingSums) sum(e *engine, w, c, ly []float64, m int) bool {
+	var x0 [3]float64
+	distinct := 0
+	for i := range e.smp {
+		if !e.ratingUsable(w, c, i) {
+			continue
+		}
+		for j := 0; j < m; j++ {
+			if distinct == 0 {
+				x0[j] = e.ratingX(i, j)
+			} else if e.ratingX(i, j) != x0[j] {
+				t.varies[j] = true
+			}
+		}
+		distinct++
+		t.sw += w[i]
+		t.ybar += w[i] * ly[i]
+		for j := 0; j < m; j++ {
+			t.xbar[j] += w[i] * e.ratingX(i, j)
+		}
+	}
+	if p := m + 1; distinct < p || t.sw <= float64(p) {
+		return false
+	}
+	t.ybar /= t.sw
+	for j := 0; j < m; j++ {
+		t.xbar[j] /= t.sw
+	}
+	for i := range e.smp {
+		if !e.ratingUsable(w, c, i) {
+			continue
+		}
+		dy := ly[i] - t.ybar
+		t.syy += w[i] * dy * dy
+		for j := 0; j < m; j++ {
+			dj := e.ratingX(i, j) - t.xbar[j]
+			t.b[j] += w[i] * dj * dy
+			for l := 0; l <= j; l++ {
+				t.a[j][l] += w[i] * dj * (e.ratingX(i, l) - t.xbar[l])
+			}
+		}
+	}
+	return true
+}
+
+// solve returns the slopes of the m terms and how many were fitted: a term
+// that does not vary among the samples (all at one discharge, say) cannot
+// be fitted and is left out with coefficient 0. false when the system is
+// singular.
+func (t *ratingSums) solve(m int) (beta [3]float64, nkeep int, ok bool) {
+	var keep []int
+	for j := 0; j < m; j++ {
+		if t.varies[j] {
+			keep = append(keep, j)
+		}
+	}
+	var ak [3][3]float64
+	var bk [3]float64
+	for r, j := range keep {
+		bk[r] = t.b[j]
+		for q, l := range keep {
+			if l <= j {
+				ak[r][q] = t.a[j][l]
+			} else {
+				ak[r][q] = t.a[l][j]
+			}
+		}
+	}
+	sol, solved := cholSolve(ak, bk, len(keep))
+	if !solved {
+		return beta, 0, false
+	}
+	for r, j := range keep {
+		beta[j] = sol[r]
+	}
+	return beta, len(keep), true
+}
+
+// residuals returns the weighted sum of squared residuals of the fit and
+// the weighted sum of their exponentials (Duan's smearing).
+func (e *engine) residuals(w, c, ly []float64, m int, b0 float64, beta [3]float64) (ssr, smear float64) {
+	for i := range e.smp {
+		if !e.ratingUsable(w, c, i) {
+			continue
+		}
+		r := ly[i] - b0
+		for j := 0; j < m; j++ {
+			r -= beta[j] * e.ratingX(i, j)
+		}
+		ssr += w[i] * r * r
+		smear += w[i] * pexp(r)
+	}
+	return ssr, smear
 }
 
 // cholSolve solves the m×m symmetric positive-definite system a x = b, of

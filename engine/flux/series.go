@@ -8,6 +8,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/quantile"
 )
 
 // Series is a concentration series to be fluxed: one value per water sample,
@@ -136,13 +137,4 @@ func withValues(smp []sample) []sample {
 }
 
 // median returns the median of the non-NaN values of v (NaN if none).
-func median(v []float64) float64 {
-	s := make([]float64, 0, len(v))
-	for _, x := range v {
-		if !math.IsNaN(x) {
-			s = append(s, x)
-		}
-	}
-	sort.Float64s(s)
-	return Quantile(s, 0.5)
-}
+func median(v []float64) float64 { return quantile.Sorted(quantile.SortedNotNaN(v), 0.5) }

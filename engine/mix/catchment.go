@@ -514,7 +514,7 @@ func (c *CatchmentRun) summariseShared() {
 		}
 		rh, ess := c.diag(i)
 		lo, hi := pexp(s.fromLatent(-z975)), pexp(s.fromLatent(z975))
-		sr := SharedRatio{EndMember: d.em, Tracer: d.t, Prior: Interval{lo, pexp(s.fromLatent(0)), hi},
+		sr := SharedRatio{EndMember: d.em, Tracer: d.t, Prior: Interval{Lo: lo, Median: pexp(s.fromLatent(0)), Hi: hi},
 			Posterior: interval(col), RHat: rh, ESS: ess}
 		cat.Ratios = append(cat.Ratios, sr)
 		cat.MaxRHat, cat.MinESS = max(cat.MaxRHat, rh), min(cat.MinESS, ess)

@@ -6,7 +6,7 @@ import (
 	"slices"
 
 	"lixiv/engine/correct"
-	"lixiv/engine/internal/order"
+	"lixiv/engine/internal/quantile"
 )
 
 // fwdStream is the second PCG word of the forward Monte Carlo, so that
@@ -65,12 +65,12 @@ func (res *ForwardResult) monteCarlo(c *correct.Result, rat *SilicateRatios, opt
 			res.Sigma[s][i] = fwdStdDev(col)
 			if nan {
 				slices.Sort(col)
-				res.Lo[s][i] = fwdQuantile(col, 0.025)
-				res.Hi[s][i] = fwdQuantile(col, 0.975)
+				res.Lo[s][i] = quantile.Sorted(col, 0.025)
+				res.Hi[s][i] = quantile.Sorted(col, 0.975)
 				continue
 			}
-			res.Lo[s][i] = fwdQuantileUnsorted(col, 0.025)
-			res.Hi[s][i] = fwdQuantileUnsorted(col, 0.975)
+			res.Lo[s][i] = quantile.Select(col, 0.025)
+			res.Hi[s][i] = quantile.Select(col, 0.975)
 		}
 	}
 }
@@ -80,46 +80,5 @@ func fwdStdDev(x []float64) float64 {
 	if len(x) < 2 {
 		return 0
 	}
-	m := 0.0
-	for _, v := range x {
-		m += v
-	}
-	m /= float64(len(x))
-	ss := 0.0
-	for _, v := range x {
-		ss += (v - m) * (v - m)
-	}
-	return math.Sqrt(ss / float64(len(x)-1))
-}
-
-// fwdQuantileUnsorted returns fwdQuantile of x sorted, bit for bit,
-// without sorting: it selects the two order statistics it interpolates
-// between, reordering x, which must hold no NaN. Values that compare equal
-// have the same bits but for ±0, and the interpolation gives +0 from any
-// two zeros and the same result from one zero of either sign, so the
-// order in which equal values land does not show.
-func fwdQuantileUnsorted(x []float64, p float64) float64 {
-	h := p * float64(len(x)-1)
-	lo := int(math.Floor(h))
-	if len(x) == 0 || lo >= len(x)-1 {
-		slices.Sort(x)
-		return fwdQuantile(x, p)
-	}
-	a := order.Select(x, lo)
-	b := order.Min(x[lo+1:]) // the right of lo holds the larger ones
-	return a + (h-float64(lo))*(b-a)
-}
-
-// fwdQuantile returns the p quantile of sorted x by linear interpolation
-// between order statistics (type 7, common practice).
-func fwdQuantile(x []float64, p float64) float64 {
-	if len(x) == 0 {
-		return math.NaN()
-	}
-	h := p * float64(len(x)-1)
-	lo := int(math.Floor(h))
-	if lo >= len(x)-1 {
-		return x[len(x)-1]
-	}
-	return x[lo] + (h-float64(lo))*(x[lo+1]-x[lo])
+	return quantile.StdDev(x)
 }

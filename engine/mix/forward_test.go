@@ -324,17 +324,6 @@ func TestForwardErrors(t *testing.T) {
 	}
 }
 
-func TestFwdQuantile(t *testing.T) {
-	// Type-7 quantiles (Hyndman & Fan 1996, from memory): for 1..5,
-	// p = 0.025 -> 1.1, p = 0.975 -> 4.9, p = 0.5 -> 3.
-	x := []float64{1, 2, 3, 4, 5}
-	for _, tc := range []struct{ p, want float64 }{{0.025, 1.1}, {0.5, 3}, {0.975, 4.9}, {0, 1}, {1, 5}} {
-		if got := fwdQuantile(x, tc.p); math.Abs(got-tc.want) > 1e-12 {
-			t.Errorf("p %g: got %g, want %g", tc.p, got, tc.want)
-		}
-	}
-}
-
 func benchmarkForward(b *testing.B, opt *ForwardOptions) {
 	c := fwdSample(map[chem.Species]float64{
 		chem.Na: 125.7736, chem.K: 20.56099, chem.Ca: 435.56508, chem.Mg: 106.90273, chem.Cl: 30, chem.SO4: 1.551756,

@@ -135,48 +135,6 @@ func TestParseTracer(t *testing.T) {
 	}
 }
 
-func TestQuantilesAgainstSort(t *testing.T) {
-	rng := rand.New(rand.NewPCG(3, 3))
-	for _, n := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 39, 40, 41, 42, 80, 81, 1000, 1001} {
-		for _, dup := range []bool{false, true} {
-			v := make([]float64, n)
-			for i := range v {
-				v[i] = rng.NormFloat64()
-				if dup {
-					v[i] = math.Round(v[i]) // many ties, as with alphas clamped to 0
-				}
-			}
-			s := slices.Clone(v)
-			slices.Sort(s)
-			ref := func(p float64) float64 { // type 7, literal
-				h := p * float64(n-1)
-				i := int(math.Floor(h))
-				if i+1 >= n {
-					return s[n-1]
-				}
-				return s[i] + (h-float64(i))*(s[i+1]-s[i])
-			}
-			got := interval(slices.Clone(v))
-			want := Interval{ref(0.025), ref(0.5), ref(0.975)}
-			if math.Abs(got.Lo-want.Lo) > 1e-12 || math.Abs(got.Median-want.Median) > 1e-12 || math.Abs(got.Hi-want.Hi) > 1e-12 {
-				t.Errorf("n=%d dup=%v: got %v want %v", n, dup, got, want)
-			}
-			// Equal weights: the weighted quantile is the order statistic
-			// at ceil(pn).
-			w := make([]float64, n)
-			for i := range w {
-				w[i] = 1
-			}
-			var idx []wpair
-			wi := weightedInterval(v, w, &idx)
-			at := func(p float64) float64 { return s[max(0, int(math.Ceil(p*float64(n)-1e-9))-1)] }
-			if wi.Lo != at(0.025) || wi.Median != at(0.5) || wi.Hi != at(0.975) {
-				t.Errorf("n=%d dup=%v weighted: got %v want %v %v %v", n, dup, wi, at(0.025), at(0.5), at(0.975))
-			}
-		}
-	}
-}
-
 func TestStatusTable(t *testing.T) {
 	for s := NotRun; s <= Canceled; s++ {
 		if s.String() == "unknown status" {

@@ -4,10 +4,12 @@ import (
 	"encoding/binary"
 	"hash/fnv"
 	"math"
+
+	"lixiv/engine/internal/quantile"
 )
 
 // Interval is a posterior median with its 2.5 % and 97.5 % quantiles.
-type Interval struct{ Lo, Median, Hi float64 }
+type Interval = quantile.Interval
 
 // Quantiles holds a Split for each of the 2.5 %, 50 % and 97.5 % posterior
 // quantiles (taken cell by cell, so the three Splits need not add up like

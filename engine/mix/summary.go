@@ -33,7 +33,7 @@ func (r *Run) finish(w *sampleWork) {
 	for j := range n {
 		sr.PriorWidth[j] = nan
 		if sr.Active[j] {
-			sr.Alpha[j] = Interval{nan, nan, nan}
+			sr.Alpha[j] = Interval{Lo: nan, Median: nan, Hi: nan}
 		}
 	}
 	sr.ESS, sr.PPP = nan, nan
@@ -385,7 +385,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	for j := range sr.PriorWidth {
 		sr.PriorWidth[j] = math.NaN()
 		if sr.Active[j] {
-			sr.Alpha[j] = Interval{math.NaN(), math.NaN(), math.NaN()}
+			sr.Alpha[j] = Interval{Lo: math.NaN(), Median: math.NaN(), Hi: math.NaN()}
 		}
 	}
 	carb := -1

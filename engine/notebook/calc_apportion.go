@@ -12,6 +12,7 @@ import (
 	"lixiv/engine/chem"
 	"lixiv/engine/correct"
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/quantile"
 	"lixiv/engine/mix"
 )
 
@@ -36,7 +37,7 @@ type Apportioned struct {
 	// of its own, draw numbers 0 … Kept(i)−1; draws of different samples
 	// are unrelated).
 	Draws int
-	Model string // one of ApportionmentModels: the model that ran ("inverse" when the catchment-wide model fell back)
+	Model string // the model that ran: "inverse", "catchment" or "forward" ("inverse" when the catchment-wide model fell back)
 	// Joint is true when draw d of every sample belongs to the same draw of
 	// the shared end-member ratios (the catchment-wide model): fluxes then
 	// take one draw number for all samples in each bootstrap replicate
@@ -500,7 +501,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	var vals, ws []float64
 	var draws []mix.Split
-	var qb quantileBuf
+	var qb quantile.Buf
 	a.weights = make([][]float64, n)
 	a.kept = make([][]int32, n)
 	for i := 0; i < n; i++ {
@@ -536,7 +537,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 				for _, sp := range draws {
 					vals = append(vals, sp[src][k])
 				}
-				q := qb.quantiles(vals, ws, 0.025, 0.5, 0.975)
+				q := qb.Midpoints(vals, ws, 0.025, 0.5, 0.975)
 				a.Lo[i][src][k], a.Median[i][src][k], a.Hi[i][src][k] = q[0], q[1], q[2]
 			}
 		}

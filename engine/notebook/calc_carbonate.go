@@ -15,7 +15,7 @@ import (
 // CarbonateSettings choose the carbonate cell's activity model and when it
 // flags a sample.
 type CarbonateSettings struct {
-	ActivityModel string  `json:"activity_model"`        // "davies" or "extended-debye-huckel"
+	ActivityModel string  `json:"activity_model"`        // how activities are computed
 	SIFlag        float64 `json:"si_calcite_flag"`       // SI of calcite above this is flagged
 	AtmPCO2       float64 `json:"atmospheric_pco2_uatm"` // pCO2 of the air, µatm
 	PCO2Flag      float64 `json:"pco2_flag_factor"`      // pCO2 above this many times the air's is flagged
@@ -38,14 +38,11 @@ func (*CarbonateSettings) Kind() Kind { return KindCarbonate }
 // Validate implements Settings.
 func (s *CarbonateSettings) Validate() error {
 	return firstErr(
-		oneOf("activity_model", s.ActivityModel, "davies", "extended-debye-huckel"),
 		inRange("si_calcite_flag", s.SIFlag, -5, 5),
 		inRange("atmospheric_pco2_uatm", s.AtmPCO2, 1, 1e5),
 		inRange("pco2_flag_factor", s.PCO2Flag, 1, 1e4),
 	)
 }
-
-var carbonateRoles = []Role{{"samples", KindSamples, false}, {"discharge", KindDischarge, true}}
 
 // CarbonateSystem is the value a carbonate cell hands on: per computed
 // sample, its carbonate system, and the samples left out with why.

@@ -6,6 +6,7 @@ import (
 
 	"lixiv/engine/co2"
 	"lixiv/engine/flux"
+	"lixiv/engine/internal/quantile"
 	"lixiv/engine/mix"
 )
 
@@ -184,12 +185,6 @@ func computeCO2(e *Env) (*Output, error) {
 	}
 	other := map[string]string{"conventional": "alkalinity", "alkalinity": "conventional"}[scale]
 	n := len(a.Names)
-	// Per litre: quantiles over the kept draws of each sample.
-	var silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
-	var vs, vc, ws, va []float64
-	var alkMed []float64 // long term: the other convention's silicate figure per sample
-	var qb quantileBuf
-	pairs := make([][][2]float64, n) // silicate and carbonate of each kept draw, for the fluxes
 	// Progress: one unit per sample here, and n units for each of the two
 	// bootstraps below (when a fluxes cell is given), so that a page running
 	// on one goroutine can yield to the browser as the cell goes.
@@ -201,35 +196,12 @@ func computeCO2(e *Env) (*Output, error) {
 	if fi != nil {
 		total = 3 * n
 	}
-	for i := 0; i < n; i++ {
-		if err := e.Ctx.Err(); err != nil {
-			return nil, err
-		}
-		e.Report(i, total)
-		vs, vc, ws, va = vs[:0], vc[:0], ws[:0], va[:0]
-		pairs[i] = make([][2]float64, a.Kept(i))
-		var buf mix.Split
-		for k := range pairs[i] {
-			d, sp, w := a.keptSplit(i, k, &buf)
-			so4 := a.SO4Sulf(i, d)
-			x, y, err := co2Pair(sp, so4, opt, scale)
-			if err != nil {
-				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
-			}
-			pairs[i][k] = [2]float64{x, y}
-			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
-			if long {
-				va = append(va, otherLongSil(sp, so4, opt, scale))
-			}
-		}
-		q := qb.quantiles(vs, ws, 0.025, 0.5, 0.975)
-		silLo, silMed, silHi = append(silLo, q[0]), append(silMed, q[1]), append(silHi, q[2])
-		q = qb.quantiles(vc, ws, 0.025, 0.5, 0.975)
-		carbLo, carbMed, carbHi = append(carbLo, q[0]), append(carbMed, q[1]), append(carbHi, q[2])
-		if long {
-			alkMed = append(alkMed, qb.quantiles(va, ws, 0.5)[0])
-		}
+	pl, err := co2PerLitre(e, a, opt, scale, long, total)
+	if err != nil {
+		return nil, err
 	}
+	pairs := pl.pairs
+	silMed, silLo, silHi, carbMed, carbLo, carbHi, alkMed := pl.silMed, pl.silLo, pl.silHi, pl.carbMed, pl.carbLo, pl.carbHi, pl.alkMed
 	title := "short-term"
 	silName := "median silicate CO2 consumption per litre"
 	if long {
@@ -265,8 +237,7 @@ func computeCO2(e *Env) (*Output, error) {
 	out.Doubtful = fv.Doubtful
 	done := n // progress units: per litre, then each bootstrap
 	fv = fv.ticking(e.Ctx, func() { e.Report(done, total) })
-	var yName, yYear []string
-	var yMed, yLo, yHi, kMed, kLo, kHi []float64
+	var years co2Years
 	bySource := &sourceTable{unit: "mol/km²/yr", n: fv.breakdownReplicates()}
 	boot := !e.Rough() // the quick pass: point values now, intervals in the full pass
 	out.Rough = out.Rough || !boot
@@ -304,31 +275,9 @@ func computeCO2(e *Env) (*Output, error) {
 		out.Figures = append(out.Figures, mol, perKm2,
 			Figure{Name: name + " as carbon", Unit: "t C/km²/yr", Median: flux.CarbonMass(perKm2.Median),
 				Low: flux.CarbonMass(perKm2.Low), High: flux.CarbonMass(perKm2.High)})
-		intervals := map[int]*flux.YearInterval{}
-		if u != nil {
-			for i := range u.Years {
-				intervals[u.Years[i].Label] = &u.Years[i]
-			}
-		}
-		for _, y := range r.Years {
-			if !y.Complete() {
-				continue
-			}
-			// The bootstrap median and interval, or the point estimate alone.
-			mol := flux.Interval{Median: y.Mol, Lo: math.NaN(), Hi: math.NaN()}
-			km2 := flux.Interval{Median: y.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}
-			if in := intervals[y.Label]; in != nil {
-				mol, km2 = in.Mol, in.MolPerKm2
-			}
-			yName, yYear = append(yName, part.name), append(yYear, fmt.Sprint(y.Label))
-			yMed, yLo, yHi = append(yMed, mol.Median), append(yLo, mol.Lo), append(yHi, mol.Hi)
-			kMed, kLo, kHi = append(kMed, km2.Median), append(kLo, km2.Lo), append(kHi, km2.Hi)
-		}
+		years.add(part.name, r, u)
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "years", Title: "CO2 consumption by year (" + title + ")", Columns: []*Column{
-		TextColumn("source", yName), TextColumn("year", yYear), NumColumn("consumption", "mol/yr", yMed),
-		NumColumn("consumption_low", "mol/yr", yLo), NumColumn("consumption_high", "mol/yr", yHi),
-		NumColumn("per_km2", "mol/km²/yr", kMed), NumColumn("per_km2_low", "mol/km²/yr", kLo), NumColumn("per_km2_high", "mol/km²/yr", kHi)}})
+	out.Tables = append(out.Tables, years.table(title))
 	et, w := co2Estimators(fv, headline, opt, scale, !boot, pairs)
 	out.Tables = append(out.Tables, et)
 	out.Warnings = append(out.Warnings, w...)
@@ -346,6 +295,93 @@ func computeCO2(e *Env) (*Output, error) {
 	}
 	out.Warnings = groupSeries(out.Warnings, map[string]bool{"silicate CO2": true, "carbonate CO2": true})
 	return out, nil
+}
+
+// co2PerLitreResult holds the per-litre CO2 consumption of each sample
+// (quantiles over its kept draws) and the silicate and carbonate figures of
+// each kept draw, for the fluxes.
+type co2PerLitreResult struct {
+	silMed, silLo, silHi, carbMed, carbLo, carbHi []float64
+	alkMed                                        []float64 // long term: the other convention's silicate figure per sample
+	pairs                                         [][][2]float64
+}
+
+// co2PerLitre works out the CO2 consumption per litre of each sample of a,
+// reporting one unit of progress (of total) per sample.
+func co2PerLitre(e *Env, a *Apportioned, opt *co2.Options, scale string, long bool, total int) (*co2PerLitreResult, error) {
+	n := len(a.Names)
+	pl := &co2PerLitreResult{pairs: make([][][2]float64, n)}
+	var vs, vc, ws, va []float64
+	var qb quantile.Buf
+	for i := 0; i < n; i++ {
+		if err := e.Ctx.Err(); err != nil {
+			return nil, err
+		}
+		e.Report(i, total)
+		vs, vc, ws, va = vs[:0], vc[:0], ws[:0], va[:0]
+		pl.pairs[i] = make([][2]float64, a.Kept(i))
+		var buf mix.Split
+		for k := range pl.pairs[i] {
+			d, sp, w := a.keptSplit(i, k, &buf)
+			so4 := a.SO4Sulf(i, d)
+			x, y, err := co2Pair(sp, so4, opt, scale)
+			if err != nil {
+				return nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
+			}
+			pl.pairs[i][k] = [2]float64{x, y}
+			vs, vc, ws = append(vs, x), append(vc, y), append(ws, w)
+			if long {
+				va = append(va, otherLongSil(sp, so4, opt, scale))
+			}
+		}
+		q := qb.Midpoints(vs, ws, 0.025, 0.5, 0.975)
+		pl.silLo, pl.silMed, pl.silHi = append(pl.silLo, q[0]), append(pl.silMed, q[1]), append(pl.silHi, q[2])
+		q = qb.Midpoints(vc, ws, 0.025, 0.5, 0.975)
+		pl.carbLo, pl.carbMed, pl.carbHi = append(pl.carbLo, q[0]), append(pl.carbMed, q[1]), append(pl.carbHi, q[2])
+		if long {
+			pl.alkMed = append(pl.alkMed, qb.Midpoints(va, ws, 0.5)[0])
+		}
+	}
+	return pl, nil
+}
+
+// co2Years gathers the rows of the "years" table: each complete year's
+// CO2 consumption, with the bootstrap median and interval or the point
+// estimate alone.
+type co2Years struct {
+	name, year                  []string
+	med, lo, hi, kMed, kLo, kHi []float64
+}
+
+// add adds the complete years of r (source name), with u's intervals.
+func (t *co2Years) add(name string, r *flux.Result, u *flux.Uncertainty) {
+	intervals := map[int]*flux.YearInterval{}
+	if u != nil {
+		for i := range u.Years {
+			intervals[u.Years[i].Label] = &u.Years[i]
+		}
+	}
+	for _, y := range r.Years {
+		if !y.Complete() {
+			continue
+		}
+		mol := flux.Interval{Median: y.Mol, Lo: math.NaN(), Hi: math.NaN()}
+		km2 := flux.Interval{Median: y.MolPerKm2, Lo: math.NaN(), Hi: math.NaN()}
+		if in := intervals[y.Label]; in != nil {
+			mol, km2 = in.Mol, in.MolPerKm2
+		}
+		t.name, t.year = append(t.name, name), append(t.year, fmt.Sprint(y.Label))
+		t.med, t.lo, t.hi = append(t.med, mol.Median), append(t.lo, mol.Lo), append(t.hi, mol.Hi)
+		t.kMed, t.kLo, t.kHi = append(t.kMed, km2.Median), append(t.kLo, km2.Lo), append(t.kHi, km2.Hi)
+	}
+}
+
+// table gives the "years" table of the time scale title.
+func (t *co2Years) table(title string) *ResultTable {
+	return &ResultTable{Name: "years", Title: "CO2 consumption by year (" + title + ")", Columns: []*Column{
+		TextColumn("source", t.name), TextColumn("year", t.year), NumColumn("consumption", "mol/yr", t.med),
+		NumColumn("consumption_low", "mol/yr", t.lo), NumColumn("consumption_high", "mol/yr", t.hi),
+		NumColumn("per_km2", "mol/km²/yr", t.kMed), NumColumn("per_km2_low", "mol/km²/yr", t.kLo), NumColumn("per_km2_high", "mol/km²/yr", t.kHi)}}
 }
 
 // co2Pairs works out the silicate and carbonate CO2 figures of every kept
@@ -382,7 +418,7 @@ func co2Estimators(fv *Fluxes, headline map[string]fitted, opt *co2.Options, sca
 		warns = append(warns, w...)
 		for k, f := range fs {
 			row := sideRow(f)
-			name, method = append(name, part.name), append(method, estimatorName(allMethods[k]))
+			name, method = append(name, part.name), append(method, estimators[k].Value)
 			med, lo, hi, nrep = append(med, row[3]), append(lo, row[4]), append(hi, row[5]), append(nrep, row[6])
 		}
 	}

@@ -13,22 +13,6 @@ import (
 
 func init() { Register(KindFluxes, computeFluxes) }
 
-var methods = map[string]flux.Method{"discharge-weighted": flux.FlowWeighted, "interpolation": flux.PeriodWeighted,
-	"rating-curve": flux.Rating, "beale": flux.Beale}
-
-// estimatorName returns the settings word for a flux method.
-func estimatorName(m flux.Method) string {
-	for k, v := range methods {
-		if v == m {
-			return k
-		}
-	}
-	return m.String()
-}
-
-// allMethods lists the estimators in the order of the side-by-side tables.
-var allMethods = []flux.Method{flux.Rating, flux.FlowWeighted, flux.PeriodWeighted, flux.Beale}
-
 var biases = map[string]flux.Bias{"smearing": flux.Duan, "ferguson": flux.Ferguson, "none": flux.NoBias}
 
 // period cuts the record to the site's budget period.
@@ -80,7 +64,7 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 		mode = flux.JointDraw
 	}
 	return &Fluxes{Record: rec, Site: site, App: app,
-		Options: flux.Options{Method: methods[s.Estimator], AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
+		Options: flux.Options{Method: estimatorMethod(s.Estimator), AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
 		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed), Draws: mode,
 			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma, Cache: &flux.Cache{}},
@@ -162,35 +146,11 @@ func computeFluxes(e *Env) (*Output, error) {
 	// sequence), which keeps a recompute after an edit cheap. A job builds
 	// its quantity only when its turn comes: with many draws a quantity
 	// holds every draw of every sample.
-	type job struct {
-		series func() flux.Series      // a measured species, or
-		qty    func() flux.Apportioned // an apportioned quantity
-		sum    bool
-	}
-	var jobs []job
+	var jobs []fluxJob
 	cur := 0
 	tv := v.ticking(e.Ctx, func() { e.Report(cur, len(jobs)) })
-	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
-		if countFinite(v.measuredSeries(sp).C) == 0 {
-			continue
-		}
-		jobs = append(jobs, job{series: func() flux.Series { return v.measuredSeries(sp) }})
-	}
-	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
-		for k, sp := range mix.Cations {
-			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
-				continue
-			}
-			jobs = append(jobs, job{qty: func() flux.Apportioned {
-				return tv.quantity(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, []int{k}, cationsOf(src, k))
-			}})
-		}
-	}
-	for _, c := range cationSums {
-		jobs = append(jobs, job{qty: func() flux.Apportioned { return tv.quantity(c.name, 0, !rough, c.ks, cationsOf(c.src, c.ks...)) }, sum: true})
-	}
-	var rName, sName []string
-	var rA, rB, rR2, rS, rFactor, rN, sB []float64
+	jobs = v.fluxJobs(tv, rough)
+	var fits fitTables
 	bySource := &sourceTable{unit: "mol/km²/yr", n: v.breakdownReplicates()}
 	var figs, cover []Figure
 	var runoff Figure
@@ -231,14 +191,7 @@ func computeFluxes(e *Env) (*Output, error) {
 			out.Warnings = append(out.Warnings, err.Error())
 		}
 		add(r, u)
-		if f := r.Rating; f != nil {
-			rName = append(rName, r.Series)
-			rA, rB, rR2, rS = append(rA, f.A), append(rB, f.B), append(rR2, f.R2), append(rS, f.S)
-			rFactor, rN = append(rFactor, f.Factor), append(rN, f.N)
-		}
-		if jb.series != nil && r.Method == flux.PeriodWeighted {
-			sName, sB = append(sName, r.Series), append(sB, r.Slope)
-		}
+		fits.add(r, jb.series != nil)
 		if !jb.sum {
 			continue
 		}
@@ -274,18 +227,126 @@ func computeFluxes(e *Env) (*Output, error) {
 	out.Figures = append(out.Figures, cover...)
 	v.Doubtful = v.doubtfulReasons(share, first)
 	out.Doubtful = v.Doubtful
-	// Weathering rates in t/km²/yr (docs/methods.md §6.1), from the point
-	// fluxes, and their intervals from the series' replicates.
+	out.Figures = append(out.Figures, weatheringFigures(rows, reps, v.Site.AreaKm2)...)
+	out.Tables = append(out.Tables, meanTable(rows),
+		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
+			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
+	et, w := v.estimatorsTable(headline, rough)
+	out.Tables = append(out.Tables, et)
+	out.Warnings = append(out.Warnings, w...)
+	ct, w := v.closureTable()
+	out.Tables = append(out.Tables, ct)
+	out.Warnings = append(out.Warnings, w...)
+	out.Tables = append(out.Tables, fits.tables()...)
+	if t := bySource.table(); t != nil {
+		out.Tables = append(out.Tables, t)
+	}
+	if co, err := e.Input("carbonate"); err != nil {
+		return nil, err
+	} else if co != nil {
+		if w := supersaturationCaution(v, co); w != "" {
+			out.Warnings = append(out.Warnings, w)
+		}
+	}
+	series := map[string]bool{}
+	for _, r := range rows {
+		series[r.name] = true
+	}
+	out.Warnings = groupSeries(out.Warnings, series)
+	return out, nil
+}
+
+// fluxJob is one series the fluxes cell fluxes: a measured species or an
+// apportioned quantity, built only when its turn comes (with many draws a
+// quantity holds every draw of every sample).
+type fluxJob struct {
+	series func() flux.Series      // a measured species, or
+	qty    func() flux.Apportioned // an apportioned quantity
+	sum    bool                    // a cation sum, a headline figure
+}
+
+// fluxJobs lists the series in the order they are fluxed: the measured
+// species, each cation from each rock source, then the cation sums. tv
+// builds the quantities.
+func (v *Fluxes) fluxJobs(tv *Fluxes, rough bool) []fluxJob {
+	var jobs []fluxJob
+	for _, sp := range []chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg, chem.Cl, chem.SO4, chem.Alk, chem.SiO2} {
+		if countFinite(v.measuredSeries(sp).C) == 0 {
+			continue
+		}
+		jobs = append(jobs, fluxJob{series: func() flux.Series { return v.measuredSeries(sp) }})
+	}
+	for _, src := range []mix.Source{mix.Silicate, mix.Carbonate} {
+		for k, sp := range mix.Cations {
+			if src == mix.Carbonate && (sp == chem.Na || sp == chem.K) {
+				continue
+			}
+			jobs = append(jobs, fluxJob{qty: func() flux.Apportioned {
+				return tv.quantity(sp.Symbol()+"_"+src.String(), sp.MolarMass(), v.SeriesReplicates > 0 && !rough, []int{k}, cationsOf(src, k))
+			}})
+		}
+	}
+	for _, c := range cationSums {
+		jobs = append(jobs, fluxJob{qty: func() flux.Apportioned { return tv.quantity(c.name, 0, !rough, c.ks, cationsOf(c.src, c.ks...)) }, sum: true})
+	}
+	return jobs
+}
+
+// fitTables gathers the rating curves and the interpolation's flow
+// adjustments of the series fluxed.
+type fitTables struct {
+	rName, sName                     []string
+	rA, rB, rR2, rS, rFactor, rN, sB []float64
+}
+
+// add records r's rating curve, and a measured species' flow adjustment.
+func (t *fitTables) add(r *flux.Result, measured bool) {
+	if f := r.Rating; f != nil {
+		t.rName = append(t.rName, r.Series)
+		t.rA, t.rB, t.rR2, t.rS = append(t.rA, f.A), append(t.rB, f.B), append(t.rR2, f.R2), append(t.rS, f.S)
+		t.rFactor, t.rN = append(t.rFactor, f.Factor), append(t.rN, f.N)
+	}
+	if measured && r.Method == flux.PeriodWeighted {
+		t.sName, t.sB = append(t.sName, r.Series), append(t.sB, r.Slope)
+	}
+}
+
+// tables gives the "rating" and "interpolation" tables, each when it has
+// a row.
+func (t *fitTables) tables() []*ResultTable {
+	var out []*ResultTable
+	if len(t.rName) > 0 {
+		out = append(out, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q of the measured species (point fits)", Columns: []*Column{
+			TextColumn("series", t.rName), NumColumn("a", "µmol/L", t.rA), NumColumn("b", "", t.rB), NumColumn("R2", "", t.rR2),
+			NumColumn("s", "ln units", t.rS), NumColumn("bias_factor", "", t.rFactor), NumColumn("n", "samples", t.rN)}})
+	}
+	if len(t.sName) > 0 {
+		out = append(out, &ResultTable{Name: "interpolation", Title: "Flow adjustment of the interpolation: slope b of ln C on ln Q of each measured species (0: plain interpolation)", Columns: []*Column{
+			TextColumn("series", t.sName), NumColumn("b", "", t.sB)}})
+	}
+	return out
+}
+
+// weatheringFigures gives the weathering rates in t/km²/yr (docs/methods.md
+// §6.1) from the point fluxes of rows, with their intervals from the
+// series' replicates.
+func weatheringFigures(rows []meanRow, reps map[string]*flux.Uncertainty, areaKm2 float64) []Figure {
 	points := map[string]float64{}
 	for _, r := range rows {
 		points[r.name] = r.point
 	}
+	var out []Figure
 	for _, wr := range weatheringRates {
-		if f, ok := weatheringRate(wr.name, wr.parts, points, reps, v.Site.AreaKm2); ok {
-			out.Figures = append(out.Figures, f)
+		if f, ok := weatheringRate(wr.name, wr.parts, points, reps, areaKm2); ok {
+			out = append(out, f)
 		}
 	}
+	return out
+}
 
+// meanTable gives the "mean" table: each series' mean annual flux and
+// yield, in mol and tonnes, with their intervals.
+func meanTable(rows []meanRow) *ResultTable {
 	names := make([]string, len(rows))
 	for i, r := range rows {
 		names[i] = r.name
@@ -307,40 +368,7 @@ func computeFluxes(e *Env) (*Output, error) {
 		}
 		meanCols = append(meanCols, NumColumn(c.name, c.unit, med), NumColumn(c.name+"_low", c.unit, lo), NumColumn(c.name+"_high", c.unit, hi))
 	}
-	out.Tables = append(out.Tables, &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval); tonnes of each species, none for cation sums", Columns: meanCols},
-		&ResultTable{Name: "annual", Title: "Flux of each complete year", Columns: []*Column{TextColumn("series", yName), TextColumn("year", yYear),
-			NumColumn("flux", "mol/yr", yMol), NumColumn("yield", "mol/km²/yr", yYield), NumColumn("runoff", "mm", yRunoff)}})
-	et, w := v.estimatorsTable(headline, rough)
-	out.Tables = append(out.Tables, et)
-	out.Warnings = append(out.Warnings, w...)
-	ct, w := v.closureTable()
-	out.Tables = append(out.Tables, ct)
-	out.Warnings = append(out.Warnings, w...)
-	if len(rName) > 0 {
-		out.Tables = append(out.Tables, &ResultTable{Name: "rating", Title: "Rating curves ln C = ln a + b ln Q of the measured species (point fits)", Columns: []*Column{
-			TextColumn("series", rName), NumColumn("a", "µmol/L", rA), NumColumn("b", "", rB), NumColumn("R2", "", rR2),
-			NumColumn("s", "ln units", rS), NumColumn("bias_factor", "", rFactor), NumColumn("n", "samples", rN)}})
-	}
-	if len(sName) > 0 {
-		out.Tables = append(out.Tables, &ResultTable{Name: "interpolation", Title: "Flow adjustment of the interpolation: slope b of ln C on ln Q of each measured species (0: plain interpolation)", Columns: []*Column{
-			TextColumn("series", sName), NumColumn("b", "", sB)}})
-	}
-	if t := bySource.table(); t != nil {
-		out.Tables = append(out.Tables, t)
-	}
-	if co, err := e.Input("carbonate"); err != nil {
-		return nil, err
-	} else if co != nil {
-		if w := supersaturationCaution(v, co); w != "" {
-			out.Warnings = append(out.Warnings, w)
-		}
-	}
-	series := map[string]bool{}
-	for _, r := range rows {
-		series[r.name] = true
-	}
-	out.Warnings = groupSeries(out.Warnings, series)
-	return out, nil
+	return &ResultTable{Name: "mean", Title: "Mean annual flux (bootstrap median and 95 % interval); tonnes of each species, none for cation sums", Columns: meanCols}
 }
 
 // RunoffFigure names the fluxes cell's runoff: the discharge record's own
@@ -348,7 +376,7 @@ func computeFluxes(e *Env) (*Output, error) {
 // discharge and area errors.
 const RunoffFigure = "runoff over the complete years of the budget period"
 
-// sideBySide fluxes a quantity with each estimator of allMethods: the
+// sideBySide fluxes a quantity with each estimator of estimators: the
 // headline's own fit (when ok) for the estimator chosen, else the quantity
 // build makes, bootstrapped with series_bootstrap replicates of the same
 // seed (point values only in the quick pass). label names it in warnings.
@@ -363,7 +391,8 @@ func (v *Fluxes) sideBySide(label string, headline fitted, ok bool, build func(d
 	if ok && headline.a != nil && (n == 0 || headline.a.Weights != nil) {
 		q = headline.a // the headline's own quantity, with draws when they are needed
 	}
-	for _, m := range allMethods {
+	for _, e := range estimators {
+		m := e.Method
 		f := headline
 		if !ok || m != v.Options.Method {
 			if q == nil {
@@ -395,7 +424,7 @@ func (v *Fluxes) estimatorsTable(headline map[string]fitted, rough bool) (*Resul
 		}, rough)
 		warns = append(warns, w...)
 		for k, f := range fs {
-			name, method = append(name, c.name), append(method, estimatorName(allMethods[k]))
+			name, method = append(name, c.name), append(method, estimators[k].Value)
 			row := sideRow(f)
 			pt := math.NaN()
 			if f.r != nil {

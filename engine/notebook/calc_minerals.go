@@ -59,11 +59,8 @@ func (s *MineralSettings) Validate() error {
 	if n := len(s.Primary) + len(s.Secondary); n > MaxMinerals {
 		return settingErr("secondary_minerals", "%d primary and secondary minerals in all; at most %d", n, MaxMinerals)
 	}
-	return firstErr(oneOf("fit_components", s.Fit, "all", "cations"),
-		inRange("analytical_uncertainty_percent", s.Uncertainty, 0, 100))
+	return firstErr(inRange("analytical_uncertainty_percent", s.Uncertainty, 0, 100))
 }
-
-var mineralRoles = []Role{{"atmosphere", KindAtmosphere, false}, {"fluxes", KindFluxes, true}}
 
 // MineralBalance is the value a minerals cell hands on.
 type MineralBalance struct {

@@ -3,8 +3,6 @@ package notebook
 import (
 	"context"
 	"math"
-	"math/rand/v2"
-	"slices"
 	"strings"
 	"testing"
 
@@ -73,68 +71,6 @@ func TestSamplesCellNICB(t *testing.T) {
 				t.Errorf("flag %q, want %q", f, tt.flag)
 			}
 		})
-	}
-}
-
-func TestQuantiles(t *testing.T) {
-	tests := []struct {
-		name string
-		x, w []float64
-		p    float64
-		want float64
-	}{
-		// Midpoint interpolation (common practice): the median of 1..4 is 2.5.
-		{"median even", []float64{4, 1, 3, 2}, nil, 0.5, 2.5},
-		{"median odd", []float64{3, 1, 2}, nil, 0.5, 2},
-		{"low end holds", []float64{1, 2, 3}, nil, 0.01, 1},
-		{"high end holds", []float64{1, 2, 3}, nil, 0.99, 3},
-		{"NaN ignored", []float64{math.NaN(), 1, 3}, nil, 0.5, 2},
-		// Weights 3 and 1: midpoints of the cumulative weights at 1.5 and 3.5, so
-		// the 2-of-4 point lies a quarter of the way from 1 to 2.
-		{"weights interpolate", []float64{1, 2}, []float64{3, 1}, 0.5, 1.25},
-		{"equal weights as none", []float64{4, 1, 3, 2}, []float64{1, 1, 1, 1}, 0.5, 2.5},
-		{"zero weight ignored", []float64{1, 100, 3}, []float64{1, 0, 1}, 0.5, 2},
-	}
-	for _, tt := range tests {
-		t.Run(tt.name, func(t *testing.T) {
-			if got := quantiles(tt.x, tt.w, tt.p)[0]; math.Abs(got-tt.want) > 1e-12 {
-				t.Errorf("got %g, want %g", got, tt.want)
-			}
-		})
-	}
-	if got := quantiles(nil, nil, 0.5)[0]; !math.IsNaN(got) {
-		t.Errorf("empty: got %g, want NaN", got)
-	}
-	// The equal-weight path gives the same bits as the weighted one.
-	x := []float64{0.3, 0.1, 0.7, 0.2, 0.9, 0.4, 0.8}
-	w := []float64{1, 1, 1, 1, 1, 1, 1.0000000001}
-	a, b := quantiles(x, nil, 0.025, 0.5, 0.975), (&quantileBuf{}).weighted(x, w, 0.025, 0.5, 0.975)
-	for i := range a {
-		if math.Abs(a[i]-b[i]) > 1e-9 {
-			t.Errorf("quantile %d: equal %g, weighted %g", i, a[i], b[i])
-		}
-	}
-	// Selection (the equal-weight path) and sorting (the weighted path with
-	// weights of exactly 1) give identical bits, with ties and NaN, at
-	// every size up to a few thousand draws.
-	r := rand.New(rand.NewPCG(7, 8))
-	for _, n := range []int{1, 2, 3, 39, 40, 41, 200, 1999, 2000} {
-		x := make([]float64, n)
-		ones := make([]float64, n)
-		for i := range x {
-			x[i], ones[i] = math.Round(r.NormFloat64()*50)/10, 1
-			if i%11 == 5 {
-				x[i] = math.NaN()
-			}
-		}
-		ps := []float64{0, 0.025, 0.1, 0.5, 0.9, 0.975, 1}
-		a := (&quantileBuf{}).equal(slices.Clone(x), ps)
-		b := (&quantileBuf{}).weighted(x, ones, ps...)
-		for i := range a {
-			if a[i] != b[i] && !(math.IsNaN(a[i]) && math.IsNaN(b[i])) {
-				t.Errorf("n=%d p=%g: selection %v, sorting %v", n, ps[i], a[i], b[i])
-			}
-		}
 	}
 }
 

@@ -312,6 +312,9 @@ func (d *Document) computeCell(ctx context.Context, c *Cell, progress func(Progr
 		out = &Output{}
 	}
 	if out != nil {
+		for _, m := range out.Messages {
+			m.Cell = c.ID
+		}
 		for _, id := range without {
 			out.Warnings = append(out.Warnings, fmt.Sprintf("computed without cell %q, which waits for %s", id, d.whatLacks(id)))
 		}

@@ -187,7 +187,7 @@ func (d *Document) Insert(c *Cell, at int) error {
 	if c.Settings.Kind() != c.Kind {
 		return fmt.Errorf("cell %q: %s settings on a %s cell", c.ID, c.Settings.Kind(), c.Kind)
 	}
-	if err := c.Settings.Validate(); err != nil {
+	if err := validate(c.Settings); err != nil {
 		return fmt.Errorf("cell %q: %w", c.ID, err)
 	}
 	if d.Cell(c.ID) != nil {
@@ -271,7 +271,7 @@ func (d *Document) Edit(id string, f func(c *Cell) error) error {
 	if c.ID != id {
 		return fmt.Errorf("cell %q: use Rename to change an id", id)
 	}
-	if err := c.Settings.Validate(); err != nil {
+	if err := validate(c.Settings); err != nil {
 		return fmt.Errorf("cell %q: %w", id, err)
 	}
 	if err := c.Table.check(); err != nil {

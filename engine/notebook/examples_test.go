@@ -62,6 +62,18 @@ func TestStoredResultsReproduce(t *testing.T) {
 				t.Errorf("rerun does not match the stored results (stored %s, rerun %s):\n%v\nIf the engine changed on purpose, run: go run ./examples/gen && go test ./engine/cmd/lixiv -update",
 					v.Stored, v.Rerun, v.Differ)
 			}
+			// Every message names the cell whose output holds it, and every
+			// table is one its kind's descriptor describes.
+			for _, c := range d.Cells {
+				if o := d.Output(c.ID); o != nil {
+					describedTables(t, c.Kind, o)
+					for _, m := range o.Messages {
+						if m.Cell != c.ID {
+							t.Errorf("cell %s: message %q names cell %q", c.ID, m.Error(), m.Cell)
+						}
+					}
+				}
+			}
 		})
 	}
 }
@@ -166,5 +178,33 @@ func TestRainEditRerunsDownstreamOnly(t *testing.T) {
 	}
 	if v, _ := d.Verify(); v.Match {
 		t.Errorf("an edited budget still matches the stored snapshot")
+	}
+}
+
+// describedTables checks o's tables against the descriptor of kind k: each
+// is named there, with the described columns and units first (and only
+// those, unless the table is open).
+func describedTables(t *testing.T, k notebook.Kind, o *notebook.Output) {
+	t.Helper()
+	for _, tab := range o.Tables {
+		var info *notebook.TableInfo
+		for i, ti := range notebook.DescriptorOf(k).Tables {
+			if ti.Name == tab.Name {
+				info = &notebook.DescriptorOf(k).Tables[i]
+			}
+		}
+		if info == nil {
+			t.Errorf("%s table %q is not described", k, tab.Name)
+			continue
+		}
+		if len(tab.Columns) < len(info.Columns) || !info.Open && len(tab.Columns) != len(info.Columns) {
+			t.Errorf("%s table %q has %d columns, described %d (open %v)", k, tab.Name, len(tab.Columns), len(info.Columns), info.Open)
+			continue
+		}
+		for i, c := range info.Columns {
+			if got := tab.Columns[i]; got.Name != c.Name || got.Unit != c.Unit {
+				t.Errorf("%s table %q column %d is %q (%s), described %q (%s)", k, tab.Name, i, got.Name, got.Unit, c.Name, c.Unit)
+			}
+		}
 	}
 }

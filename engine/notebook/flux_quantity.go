@@ -280,19 +280,6 @@ func (v *Fluxes) howFluxed() string {
 	return note
 }
 
-// estimatorLabel names an estimator for readers, as the settings do.
-func estimatorLabel(m flux.Method) string {
-	switch m {
-	case flux.FlowWeighted:
-		return "discharge-weighted"
-	case flux.PeriodWeighted:
-		return "flow-adjusted interpolation"
-	case flux.Rating:
-		return "rating-curve"
-	}
-	return "Beale ratio"
-}
-
 // unapportionedShare returns the share of the flow-weighted cation load
 // (Σ Q_i TZ+_i over the samples the record covers, TZ+ = Na + K + 2Ca +
 // 2Mg in µeq/L) carried by samples without a usable apportionment.

@@ -209,7 +209,7 @@ func parseCell(raw json.RawMessage) (*Cell, error) {
 		}
 		c.SettingsExtra = extra
 	}
-	if err := c.Settings.Validate(); err != nil {
+	if err := validate(c.Settings); err != nil {
 		return nil, fmt.Errorf("settings: %s", fileText(err))
 	}
 	if v, ok := m["table"]; ok {

@@ -1,8 +1,6 @@
 package notebook
 
 import (
-	"errors"
-	"fmt"
 	"sort"
 	"strconv"
 	"strings"
@@ -12,95 +10,16 @@ import (
 	"lixiv/engine/sample"
 )
 
-// Message says how a cell read its input: a problem (something that could
-// not be read or was refused), a warning (a substitution, or a value, day
-// or sample left out) or a note (an inference), positioned at the file,
-// line, column and value it concerns. The page shows a cell's messages
-// beside its table, the command line lists them in its summary, and the
-// report writes them under "problems" (severity problem) and "warnings".
-type Message struct {
-	Severity problem.Severity
-	Effect   problem.Effect
-	File     string // the file the table was read from, else the id of the cell holding it
-	Line     int    // line as the file counts it (spreadsheet row for a workbook); 0 for none
-	Col      int    // column number from 1; 0 for none
-	Column   string // the column's header
-	Value    string // the cell as written
-	Sample   string // the water sample concerned, if any
-	Text     string // what was found, what was done and what to do next
-	// Row is the index in the cell's Table.Rows of the row concerned, or
-	// -1 (header, units row, the whole table, or another cell's table).
-	Row int
-	Err error // the sentinel of the package that found it, for errors.Is
-}
-
-// Error writes the message as "file:line:col (column): "value": text".
-func (m *Message) Error() string {
-	var b strings.Builder
-	b.WriteString(m.File)
-	if m.Line > 0 {
-		b.WriteString(":" + strconv.Itoa(m.Line))
-		if m.Col > 0 {
-			b.WriteString(":" + strconv.Itoa(m.Col))
-		}
-	}
-	if m.Column != "" {
-		fmt.Fprintf(&b, " (%s)", m.Column)
-	}
-	if b.Len() > 0 {
-		b.WriteString(": ")
-	}
-	if m.Value != "" {
-		fmt.Fprintf(&b, "%q: ", m.Value)
-	}
-	b.WriteString(m.Text)
-	return b.String()
-}
-
-// Unwrap returns the sentinel, so errors.Is(m, sample.ErrCensored) works.
-func (m *Message) Unwrap() error { return m.Err }
+// Message says how a cell read its input, positioned at the file, line,
+// column and value it concerns (problem.Problem, the engine's one problem
+// type; Cell is the id of the cell whose output holds it). The page shows a
+// cell's messages beside its table, the command line lists them in its
+// summary, and the report writes them under "problems" (severity problem)
+// and "warnings".
+type Message = problem.Problem
 
 // Messages is a cell's list of messages, in the order of the file.
-type Messages []*Message
-
-// Error returns the first message and how many more there are.
-func (l Messages) Error() string {
-	switch len(l) {
-	case 0:
-		return "no messages"
-	case 1:
-		return l[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more)", l[0], len(l)-1)
-}
-
-// Err returns nil for an empty list and the list otherwise.
-func (l Messages) Err() error {
-	if len(l) == 0 {
-		return nil
-	}
-	return l
-}
-
-// Unwrap returns the messages, so errors.Is finds a sentinel among them.
-func (l Messages) Unwrap() []error {
-	out := make([]error, len(l))
-	for i, m := range l {
-		out[i] = m
-	}
-	return out
-}
-
-// Count returns the number of messages that unwrap to target.
-func (l Messages) Count(target error) int {
-	n := 0
-	for _, m := range l {
-		if errors.Is(m, target) {
-			n++
-		}
-	}
-	return n
-}
+type Messages = problem.List
 
 // sortMessages orders messages by line, then column, keeping the order of
 // those at one place; messages with no line come last.

@@ -32,8 +32,8 @@ type SiteSettings struct {
 
 // SamplesSettings control how the sample table is read.
 type SamplesSettings struct {
-	BelowDetection string  `json:"below_detection"`     // "half-limit", "zero", "limit" or "leave-out"
-	DateOrder      string  `json:"date_order"`          // "auto", "day-first" or "month-first"
+	BelowDetection string  `json:"below_detection"`     // substitute for values below detection
+	DateOrder      string  `json:"date_order"`          // how dates such as 03/04/2021 are read
 	NICBFlag       float64 `json:"nicb_flag_percent"`   // |NICB| above this is flagged
 	NICBReject     float64 `json:"nicb_reject_percent"` // |NICB| above this leaves the sample out
 	DefaultUnit    string  `json:"default_unit"`        // unit of species columns that state none ("" = ask: such columns are kept as text)
@@ -51,14 +51,14 @@ type SamplesSettings struct {
 
 // DischargeSettings control how the daily record is read.
 type DischargeSettings struct {
-	Unit        string `json:"unit"`          // "m3/s", "L/s", "m3/day" or "mm/day"
+	Unit        string `json:"unit"`          // unit of the discharge column
 	GapFillDays int    `json:"gap_fill_days"` // fill gaps up to this many days linearly (0 = none)
-	DateOrder   string `json:"date_order"`    // "auto", "day-first" or "month-first", for dates such as 03/04/2021
+	DateOrder   string `json:"date_order"`    // how dates such as 03/04/2021 are read
 }
 
 // AtmosphereSettings choose the rain correction.
 type AtmosphereSettings struct {
-	Method           string  `json:"method"`                 // "sea-salt" (Cl-referenced) or "rain" (measured rain × P/(P−ET))
+	Method           string  `json:"method"`                 // Cl-referenced sea salt, or measured rain × P/(P−ET)
 	NaPerCl          float64 `json:"na_per_cl"`              // (Na/Cl) of rain, mol/mol
 	KPerCl           float64 `json:"k_per_cl"`               // (K/Cl) of rain
 	CaPerCl          float64 `json:"ca_per_cl"`              // (Ca/Cl) of rain
@@ -67,7 +67,7 @@ type AtmosphereSettings struct {
 	SrPerCl          float64 `json:"sr_per_cl"`              // (Sr/Cl) of rain
 	CriticalChloride float64 `json:"critical_chloride_umol"` // Cl*, µmol/L; 0 = from rain, or all Cl atmospheric
 	DryDeposition    float64 `json:"dry_deposition_factor"`  // f_dry ≥ 1 multiplying Cl*
-	ExcessChloride   string  `json:"excess_chloride"`        // "halite" or "human"
+	ExcessChloride   string  `json:"excess_chloride"`        // origin of chloride above Cl*
 	RatioSource      string  `json:"ratio_source,omitempty"` // where the ratios come from, shown to readers
 	// RatioUncertainty and FactorUncertainty are propagated through the
 	// apportionment's Monte Carlo draws (docs/methods.md §8.6); 0 makes the
@@ -78,35 +78,29 @@ type AtmosphereSettings struct {
 
 // SourcesSettings name the end-member preset the table started from.
 type SourcesSettings struct {
-	Preset string `json:"preset"` // "granite", "basalt", "global" or "custom"
+	Preset string `json:"preset"` // the end-member table the cell started from
 }
-
-// ApportionmentModels are the values of the apportionment cell's model
-// setting: "inverse" (each sample on its own, Monte Carlo), "catchment"
-// (every sample together, sharing the end-members' ratios) and "forward"
-// (sequential subtraction). The page's choice list reads them.
-var ApportionmentModels = []string{"inverse", "catchment", "forward"}
 
 // ApportionmentSettings choose the model.
 type ApportionmentSettings struct {
-	Model         string   `json:"model"`                 // one of ApportionmentModels
+	Model         string   `json:"model"`                 // the apportionment model: "inverse", "catchment" or "forward"
 	Tracers       []string `json:"tracers"`               // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
 	Draws         int      `json:"draws"`                 // prior draws of the first stage (the forward model: draws per sample)
 	TargetESS     int      `json:"target_ess"`            // effective sample size at which a sample's refinement stops
 	MaxDraws      int      `json:"max_draws"`             // cap of draws per sample over all stages
 	Seed          int64    `json:"seed"`                  // random seed; results depend on it only
-	Sulfate       string   `json:"sulfate"`               // "gypsum", "sulfide" or "isotope": origin of SO4 above the rain share
+	Sulfate       string   `json:"sulfate"`               // origin of SO4 above the rain share
 	D34SRiver     float64  `json:"d34s_river_permil"`     // δ34S of river sulfate, ‰, for samples without a d34S column
 	D34SEvaporite float64  `json:"d34s_evaporite_permil"` // δ34S of evaporite sulfate, ‰
 	D34SSulfide   float64  `json:"d34s_sulfide_permil"`   // δ34S of sulfide-derived sulfate, ‰
-	Negative      string   `json:"negative_residuals"`    // "zero-and-flag" or "keep"
+	Negative      string   `json:"negative_residuals"`    // what becomes of a source amount below zero
 }
 
 // FluxSettings choose the flux estimator and its uncertainty.
 type FluxSettings struct {
-	Estimator            string  `json:"estimator"`                     // "rating-curve", "discharge-weighted", "interpolation" or "beale"
+	Estimator            string  `json:"estimator"`                     // the flux estimator (estimators.go)
 	Seasonal             bool    `json:"seasonal_terms"`                // rating curve with sine and cosine terms
-	BiasCorrection       string  `json:"bias_correction"`               // "smearing", "ferguson" or "none"
+	BiasCorrection       string  `json:"bias_correction"`               // retransformation bias correction
 	Bootstrap            int     `json:"bootstrap"`                     // resamples for the interval of the cation sums
 	SeriesBootstrap      int     `json:"series_bootstrap"`              // resamples for the intervals of the other series (0 = point values only)
 	DischargeUncertainty float64 `json:"discharge_uncertainty_percent"` // 1σ systematic error of Q, %
@@ -126,8 +120,8 @@ type FluxSettings struct {
 
 // CO2Settings choose the CO2 accounting.
 type CO2Settings struct {
-	TimeScale   string `json:"time_scale"`   // "short" (years) or "long" (geological)
-	SulfurSplit string `json:"sulfur_split"` // "proportional" or "carbonate"
+	TimeScale   string `json:"time_scale"`   // years or geological time
+	SulfurSplit string `json:"sulfur_split"` // how sulfide-derived sulfate is shared
 	// LongTerm is the long-term silicate convention (docs/methods.md §9.2):
 	// "conventional", (Ca+Mg)_sil, or "alkalinity", ½ Alk_sil, which also
 	// counts ½(Na+K)_sil; both less the share of sulfuric acid.
@@ -144,7 +138,7 @@ type NoteSettings struct {
 type ChartSettings struct {
 	X     string `json:"x"`     // column on the horizontal axis
 	Y     string `json:"y"`     // column on the vertical axis
-	Style string `json:"style"` // "points" or "line"
+	Style string `json:"style"` // how the points are drawn
 	LogX  bool   `json:"log_x"` // logarithmic horizontal axis
 	LogY  bool   `json:"log_y"` // logarithmic vertical axis
 }
@@ -185,77 +179,13 @@ func (*ChartSettings) Kind() Kind { return KindChart }
 // Kind implements Settings.
 func (*BrokenSettings) Kind() Kind { return KindBroken }
 
-// DefaultSettings returns the documented defaults for a new cell of kind k.
+// DefaultSettings returns the documented defaults for a new cell of kind k
+// (its descriptor's New).
 func DefaultSettings(k Kind) Settings {
-	switch k {
-	case KindSite:
-		return &SiteSettings{AreaUncertainty: 2, WaterYearStart: 10} // 2 %: docs/methods.md §8.6, common practice
-	case KindSamples:
-		// NICB limits: common practice. Precision: 2-5 % relative for major
-		// ions by ion chromatography or ICP with a floor near the
-		// detection limit, common practice, no source (package mix).
-		return &SamplesSettings{BelowDetection: "half-limit", DateOrder: "auto", NICBFlag: 5, NICBReject: 10,
-			PrecisionPercent: 100 * mix.DefaultRelPrecision, PrecisionFloor: mix.DefaultFloor, AlkFloor: mix.DefaultAlkFloor,
-			SrFloor: mix.DefaultSrFloor, IsoPrecision: mix.DefaultIsoPrecision}
-	case KindDischarge:
-		return &DischargeSettings{Unit: "m3/s", GapFillDays: 0, DateOrder: "auto"}
-	case KindAtmosphere:
-		// Sea-salt ratios to Cl: Millero et al. (2008), Deep-Sea Res. I 55, reference composition.
-		return &AtmosphereSettings{Method: "sea-salt", NaPerCl: 0.859120, KPerCl: 0.0186998, CaPerCl: 0.0188361,
-			MgPerCl: 0.0967577, SO4PerCl: 0.0517252, SrPerCl: 0.000166147, DryDeposition: 1,
-			ExcessChloride: "halite", RatioSource: "seawater, Millero et al. 2008",
-			// The docs/methods.md §8.6 asks for user values and gives none.
-			// The default method takes the reference-seawater ratios, whose
-			// major-ion proportions are constant in the open ocean (common
-			// practice, from memory), so they start exact (0); a user who
-			// measures rain, or expects fractionated aerosol or dust, sets a
-			// spread (the rain cell warns when measured rain ratios are
-			// taken as exact). The ET factor starts at 10 % (1σ; common
-			// practice, no source); it matters only where Cl* comes from
-			// measured rain. SCHEMA.md states both (a test reads it).
-			RatioUncertainty: 0, FactorUncertainty: 10}
-	case KindSources:
-		return &SourcesSettings{Preset: "global"}
-	case KindApportionment:
-		return &ApportionmentSettings{Model: "inverse", Tracers: []string{"Ca/Na", "Mg/Na", "HCO3/Na"},
-			// Draws, target and cap: engineering choices (docs/methods.md).
-			Draws: 400, TargetESS: 1000, MaxDraws: 20000, Seed: 1, Sulfate: "gypsum", Negative: "zero-and-flag",
-			// δ34S end-members: evaporite sulfate about +10 to +35 ‰ (Claypool
-			// et al. 1980), sedimentary sulfide usually negative; both from
-			// memory (docs/methods.md §5.2). Users should set their own.
-			D34SRiver: 5, D34SEvaporite: 15, D34SSulfide: -10}
-	case KindFluxes:
-		// B = 1000 and σ_Q = 7 %: docs/methods.md §8.6 (Efron & Tibshirani 1993
-		// for B; σ_Q common practice).
-		// SeriesBootstrap = 200 keeps the intervals of the other series
-		// cheap enough for the page to recompute after an edit (an
-		// engineering choice, no source).
-		// A quarter of the load resting on unapportioned samples or
-		// unbracketed flow makes the fluxes doubtful (an engineering
-		// choice, no source).
-		return &FluxSettings{Estimator: "rating-curve", BiasCorrection: "smearing", Bootstrap: 1000, SeriesBootstrap: 200,
-			DischargeUncertainty: 7, Seed: 1, Unapportioned: "leave-out", DoubtfulPercent: 25}
-	case KindCO2:
-		return &CO2Settings{TimeScale: "short", SulfurSplit: "proportional", LongTerm: "conventional"}
-	case KindCarbonate:
-		return defaultCarbonateSettings()
-	case KindMinerals:
-		return defaultMineralSettings()
-	case KindNote:
-		return &NoteSettings{}
-	case KindChart:
-		return &ChartSettings{Style: "points"}
+	if d := descriptors[k]; d != nil {
+		return d.New()
 	}
 	return &BrokenSettings{}
-}
-
-func oneOf(key, v string, allowed ...string) error {
-	for _, a := range allowed {
-		if v == a {
-			return nil
-		}
-	}
-	return settingErr(key, "%q is not one of %q", v, allowed)
 }
 
 func inRange(key string, v, lo, hi float64) error {
@@ -289,8 +219,6 @@ func (s *SiteSettings) Validate() error {
 // Validate implements Settings.
 func (s *SamplesSettings) Validate() error {
 	return firstErr(
-		oneOf("below_detection", s.BelowDetection, "half-limit", "zero", "limit", "leave-out"),
-		oneOf("date_order", s.DateOrder, "auto", "day-first", "month-first"),
 		inRange("nicb_flag_percent", s.NICBFlag, 0, 100),
 		inRange("nicb_reject_percent", s.NICBReject, 0, 1000),
 		unitOK("default_unit", s.DefaultUnit),
@@ -315,17 +243,13 @@ func unitOK(key, u string) error {
 // Validate implements Settings.
 func (s *DischargeSettings) Validate() error {
 	return firstErr(
-		oneOf("unit", s.Unit, "m3/s", "L/s", "m3/day", "mm/day"),
 		inRange("gap_fill_days", float64(s.GapFillDays), 0, 366),
-		oneOf("date_order", s.DateOrder, "auto", "day-first", "month-first"),
 	)
 }
 
 // Validate implements Settings.
 func (s *AtmosphereSettings) Validate() error {
 	errs := []error{
-		oneOf("method", s.Method, "sea-salt", "rain"),
-		oneOf("excess_chloride", s.ExcessChloride, "halite", "human"),
 		inRange("critical_chloride_umol", s.CriticalChloride, 0, 1e7),
 		inRange("dry_deposition_factor", s.DryDeposition, 1, 100),
 		inRange("rain_ratio_uncertainty_percent", s.RatioUncertainty, 0, 100),
@@ -347,12 +271,9 @@ func (s *SourcesSettings) Validate() error { return nil }
 // Validate implements Settings.
 func (s *ApportionmentSettings) Validate() error {
 	err := firstErr(
-		oneOf("model", s.Model, ApportionmentModels...),
-		oneOf("sulfate", s.Sulfate, "gypsum", "sulfide", "isotope"),
 		inRange("d34s_river_permil", s.D34SRiver, -100, 100),
 		inRange("d34s_evaporite_permil", s.D34SEvaporite, -100, 100),
 		inRange("d34s_sulfide_permil", s.D34SSulfide, -100, 100),
-		oneOf("negative_residuals", s.Negative, "zero-and-flag", "keep"),
 		inRange("draws", float64(s.Draws), 1, MaxDraws),
 		inRange("target_ess", float64(s.TargetESS), 1, MaxDraws),
 		inRange("max_draws", float64(s.MaxDraws), 1, mix.MaxDraws),
@@ -369,23 +290,16 @@ func (s *ApportionmentSettings) Validate() error {
 // Validate implements Settings.
 func (s *FluxSettings) Validate() error {
 	return firstErr(
-		oneOf("estimator", s.Estimator, "rating-curve", "discharge-weighted", "interpolation", "beale"),
-		oneOf("bias_correction", s.BiasCorrection, "smearing", "ferguson", "none"),
 		inRange("bootstrap", float64(s.Bootstrap), 1, MaxBootstrap),
 		inRange("series_bootstrap", float64(s.SeriesBootstrap), 0, MaxBootstrap),
 		inRange("discharge_uncertainty_percent", s.DischargeUncertainty, 0, 100),
-		oneOf("unapportioned_samples", s.Unapportioned, "leave-out", "fill-shares"),
 		inRange("doubtful_above_percent", s.DoubtfulPercent, 0, 100),
 	)
 }
 
 // Validate implements Settings.
 func (s *CO2Settings) Validate() error {
-	return firstErr(
-		oneOf("time_scale", s.TimeScale, "short", "long"),
-		oneOf("sulfur_split", s.SulfurSplit, "proportional", "carbonate"),
-		oneOf("long_term_convention", s.LongTerm, "conventional", "alkalinity"),
-	)
+	return firstErr()
 }
 
 // Validate implements Settings.
@@ -393,7 +307,7 @@ func (s *NoteSettings) Validate() error { return nil }
 
 // Validate implements Settings.
 func (s *ChartSettings) Validate() error {
-	return oneOf("style", s.Style, "points", "line")
+	return nil
 }
 
 // Validate implements Settings.

@@ -5,6 +5,8 @@ import (
 	"math"
 	"strings"
 	"time"
+
+	"lixiv/engine/internal/dateorder"
 )
 
 // dateVal is a date cell as read, before the column's day/month order is
@@ -115,30 +117,17 @@ func parseDate(b []byte) (dateVal, bool) {
 			}
 			return d, parseClockZone(b[k:], &d)
 		case w1 <= 2 && sep == ' ': // 5 March 2024
-			j := i + 1
-			for j < len(b) && isLetter(b[j]) {
-				j++
-			}
-			mo, ok := monthNames[strings.ToLower(string(b[i+1:j]))]
-			if !ok || j >= len(b) || b[j] != ' ' {
+			mo, j, ok := monthAt(b, i+1)
+			if !ok {
 				return d, false
 			}
-			y, k, wy := digits(b, j+1)
-			if wy != 4 {
-				return d, false
-			}
-			d.y, d.a, d.b, d.named = y, n1, mo, true
-			return d, validYMD(y, mo, n1) && parseClockZone(b[k:], &d)
+			return namedDate(b, j+1, n1, mo, d)
 		}
 		return d, false
 	}
 	if isLetter(b[0]) { // Mar 5 2024, March 5, 2024
-		j := 0
-		for j < len(b) && isLetter(b[j]) {
-			j++
-		}
-		mo, ok := monthNames[strings.ToLower(string(b[:j]))]
-		if !ok || j >= len(b) || b[j] != ' ' {
+		mo, j, ok := monthAt(b, 0)
+		if !ok {
 			return d, false
 		}
 		day, k, wd := digits(b, j+1)
@@ -151,14 +140,31 @@ func parseDate(b []byte) (dateVal, bool) {
 		if k >= len(b) || b[k] != ' ' {
 			return d, false
 		}
-		y, k2, wy := digits(b, k+1)
-		if wy != 4 {
-			return d, false
-		}
-		d.y, d.a, d.b, d.named = y, day, mo, true
-		return d, validYMD(y, mo, day) && parseClockZone(b[k2:], &d)
+		return namedDate(b, k+1, day, mo, d)
 	}
 	return d, false
+}
+
+// monthAt reads the month name that starts at b[i] and is followed by a
+// space; j is the space's index.
+func monthAt(b []byte, i int) (mo, j int, ok bool) {
+	j = i
+	for j < len(b) && isLetter(b[j]) {
+		j++
+	}
+	mo, ok = monthNames[strings.ToLower(string(b[i:j]))]
+	return mo, j, ok && j < len(b) && b[j] == ' '
+}
+
+// namedDate ends a date written with a month name: the year, four digits
+// from b[at], then an optional time of day.
+func namedDate(b []byte, at, day, mo int, d dateVal) (dateVal, bool) {
+	y, k, wy := digits(b, at)
+	if wy != 4 {
+		return d, false
+	}
+	d.y, d.a, d.b, d.named = y, day, mo, true
+	return d, validYMD(y, mo, day) && parseClockZone(b[k:], &d)
 }
 
 func allSerial(b []byte) bool {
@@ -295,12 +301,7 @@ func (d dateVal) resolve(order DateOrder) (t time.Time, ok bool) {
 	case d.named:
 		m, day = d.b, d.a
 	case d.dmy:
-		switch order {
-		case DayFirst:
-			m, day = d.b, d.a
-		case MonthFirst:
-			m, day = d.a, d.b
-		default:
+		if day, m, ok = dateorder.DayMonth(d.a, d.b, order == DayFirst, order == MonthFirst); !ok {
 			return time.Time{}, false
 		}
 	}

@@ -43,25 +43,22 @@ var (
 )
 
 // effects gives the severity and effect of each problem sentinel.
-var effects = map[error]struct {
-	sev problem.Severity
-	eff problem.Effect
-}{
-	ErrNotTable: {problem.Error, problem.Unread}, ErrNoColumn: {problem.Error, problem.Unread},
-	ErrNotNumber: {problem.Error, problem.LeftOut}, ErrNegative: {problem.Error, problem.LeftOut},
-	ErrOutOfRange: {problem.Error, problem.LeftOut}, ErrDuplicateColumn: {problem.Error, problem.Refused},
-	ErrUnitConflict: {problem.Error, problem.Unread}, ErrUnknownUnit: {problem.Error, problem.Unread},
-	ErrNoUnit: {problem.Error, problem.Unread}, ErrUnitMismatch: {problem.Error, problem.Unread},
-	ErrBadDate: {problem.Error, problem.Unread}, ErrAmbiguousDate: {problem.Error, problem.Refused},
-	ErrFieldCount: {problem.Error, problem.Unread}, ErrQuote: {problem.Error, problem.Unread},
-	ErrTooMany:  {problem.Warning, problem.Unread},
-	ErrCensored: {problem.Warning, problem.Substituted}, ErrMissingValue: {problem.Warning, problem.LeftOut},
-	ErrDateOrder: {problem.Note, problem.Inferred}, ErrDecimalComma: {problem.Note, problem.Inferred},
-	ErrUnits: {problem.Note, problem.Inferred}, ErrDefaultUnit: {problem.Warning, problem.Substituted}, ErrCellUnit: {problem.Note, problem.Inferred},
-	ErrComment: {problem.Note, problem.LeftOut}, ErrChosenColumn: {problem.Note, problem.LeftOut},
-	ErrMergedHeader: {problem.Note, problem.Inferred}, ErrOtherSheets: {problem.Note, problem.LeftOut},
-	ErrNotWorkbook: {problem.Error, problem.Unread}, ErrNoSheet: {problem.Error, problem.Unread},
-	ErrBadRow: {problem.Error, problem.Unread},
+var effects = problem.Classes{
+	ErrNotTable: problem.ClassOf(problem.Error, problem.Unread), ErrNoColumn: problem.ClassOf(problem.Error, problem.Unread),
+	ErrNotNumber: problem.ClassOf(problem.Error, problem.LeftOut), ErrNegative: problem.ClassOf(problem.Error, problem.LeftOut),
+	ErrOutOfRange: problem.ClassOf(problem.Error, problem.LeftOut), ErrDuplicateColumn: problem.ClassOf(problem.Error, problem.Refused),
+	ErrUnitConflict: problem.ClassOf(problem.Error, problem.Unread), ErrUnknownUnit: problem.ClassOf(problem.Error, problem.Unread),
+	ErrNoUnit: problem.ClassOf(problem.Error, problem.Unread), ErrUnitMismatch: problem.ClassOf(problem.Error, problem.Unread),
+	ErrBadDate: problem.ClassOf(problem.Error, problem.Unread), ErrAmbiguousDate: problem.ClassOf(problem.Error, problem.Refused),
+	ErrFieldCount: problem.ClassOf(problem.Error, problem.Unread), ErrQuote: problem.ClassOf(problem.Error, problem.Unread),
+	ErrTooMany:  problem.ClassOf(problem.Warning, problem.Unread),
+	ErrCensored: problem.ClassOf(problem.Warning, problem.Substituted), ErrMissingValue: problem.ClassOf(problem.Warning, problem.LeftOut),
+	ErrDateOrder: problem.ClassOf(problem.Note, problem.Inferred), ErrDecimalComma: problem.ClassOf(problem.Note, problem.Inferred),
+	ErrUnits: problem.ClassOf(problem.Note, problem.Inferred), ErrDefaultUnit: problem.ClassOf(problem.Warning, problem.Substituted), ErrCellUnit: problem.ClassOf(problem.Note, problem.Inferred),
+	ErrComment: problem.ClassOf(problem.Note, problem.LeftOut), ErrChosenColumn: problem.ClassOf(problem.Note, problem.LeftOut),
+	ErrMergedHeader: problem.ClassOf(problem.Note, problem.Inferred), ErrOtherSheets: problem.ClassOf(problem.Note, problem.LeftOut),
+	ErrNotWorkbook: problem.ClassOf(problem.Error, problem.Unread), ErrNoSheet: problem.ClassOf(problem.Error, problem.Unread),
+	ErrBadRow: problem.ClassOf(problem.Error, problem.Unread),
 }
 
 // sentinelSeverity is the severity of p's sentinel (Error when unknown).
@@ -69,7 +66,7 @@ var effects = map[error]struct {
 func (p *Problem) sentinelSeverity() problem.Severity {
 	for _, err := range []error{ErrCensored, ErrMissingValue, ErrDateOrder, ErrDecimalComma, ErrUnits, ErrDefaultUnit, ErrCellUnit, ErrComment, ErrChosenColumn, ErrMergedHeader, ErrOtherSheets} {
 		if errors.Is(p.Err, err) {
-			return effects[err].sev
+			return effects[err].Severity
 		}
 	}
 	return problem.Error
@@ -77,11 +74,8 @@ func (p *Problem) sentinelSeverity() problem.Severity {
 
 // classify sets p's severity and effect from its sentinel.
 func (p *Problem) classify() {
-	for err, e := range effects {
-		if errors.Is(p.Err, err) {
-			p.Severity, p.Effect = e.sev, e.eff
-			return
-		}
+	if c, ok := effects.Of(p.Err); ok {
+		p.Severity, p.Effect = c.Severity, c.Effect
 	}
 }
 
@@ -120,16 +114,7 @@ type Problem struct {
 // for a warning or a note that has a detail.
 func (p *Problem) Error() string {
 	var b strings.Builder
-	b.WriteString(p.File)
-	if p.Line > 0 {
-		b.WriteString(":" + strconv.Itoa(p.Line))
-		if p.Col > 0 {
-			b.WriteString(":" + strconv.Itoa(p.Col))
-		}
-	}
-	if p.Header != "" {
-		fmt.Fprintf(&b, " (%s)", p.Header)
-	}
+	problem.Place(&b, p.File, p.Line, p.Col, p.Header)
 	b.WriteString(": ")
 	if p.Value != "" {
 		fmt.Fprintf(&b, "%q: ", p.Value)
@@ -152,43 +137,4 @@ func (p *Problem) Unwrap() error { return p.Err }
 
 // ProblemList is the list of problems met while reading a table, in the
 // order they were found (by line, then column). The zero value is empty.
-type ProblemList []*Problem
-
-// Error returns the first problem and how many more there are.
-func (l ProblemList) Error() string {
-	switch len(l) {
-	case 0:
-		return "no problems"
-	case 1:
-		return l[0].Error()
-	}
-	return fmt.Sprintf("%s (and %d more problems)", l[0], len(l)-1)
-}
-
-// Err returns nil for an empty list and the list itself otherwise.
-func (l ProblemList) Err() error {
-	if len(l) == 0 {
-		return nil
-	}
-	return l
-}
-
-// Unwrap returns the problems, so errors.Is finds any sentinel among them.
-func (l ProblemList) Unwrap() []error {
-	out := make([]error, len(l))
-	for i, p := range l {
-		out[i] = p
-	}
-	return out
-}
-
-// Count returns the number of problems that unwrap to target.
-func (l ProblemList) Count(target error) int {
-	n := 0
-	for _, p := range l {
-		if errors.Is(p, target) {
-			n++
-		}
-	}
-	return n
-}
+type ProblemList = problem.Of[*Problem]

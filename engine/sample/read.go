@@ -13,6 +13,7 @@ import (
 	"unicode/utf8"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/dateorder"
 )
 
 const peekSize = 64 << 10
@@ -146,18 +147,16 @@ type importer struct {
 	dateCol  int // index into cols of the date column, or -1
 	order    DateOrder
 	pending  []pendingDate
-	anyA13   bool // a three-number date with a first number above 12
-	anyB13   bool // a three-number date with a second number above 12
 	clocks   []pendingClock
 	nMapped  int
 	sizeHint int // expected number of rows, from the file size
 	header   int // header line
 	unitLine int
 
-	dayFirst, monthFirst *pendingDate // the first date that can only be read one way
-	censored, missing    []tally      // per column: cells below detection, cells read as missing
-	decAt                int          // line of the first number read with a decimal comma (detected)
-	decRaw               string
+	orderSeen         dateorder.Evidence // the dates written as three numbers
+	censored, missing []tally            // per column: cells below detection, cells read as missing
+	decAt             int                // line of the first number read with a decimal comma (detected)
+	decRaw            string
 }
 
 // tally counts cells of one kind in a column, with the first few as
@@ -1015,16 +1014,9 @@ func (im *importer) date(s *Sample, c *plan, f []byte, line int) {
 		return
 	}
 	if d.dmy && im.order == DateAuto {
-		im.anyA13 = im.anyA13 || d.a > 12
-		im.anyB13 = im.anyB13 || d.b > 12
 		p := pendingDate{s, d, string(f), line}
 		im.pending = append(im.pending, p)
-		if d.a > 12 && im.dayFirst == nil {
-			im.dayFirst = &p
-		}
-		if d.b > 12 && im.monthFirst == nil {
-			im.monthFirst = &p
-		}
+		im.orderSeen.Add(dateorder.Witness{Line: line, Raw: p.raw, A: d.a, B: d.b})
 		return
 	}
 	im.setTime(s, c, d, f, line)
@@ -1046,25 +1038,25 @@ func (im *importer) finish() {
 	if len(im.pending) > 0 {
 		c := &im.cols[im.dateCol]
 		choose := fmt.Sprintf("set %s to day-first or month-first", setting("date_order"))
-		df, mf := im.dayFirst, im.monthFirst
-		switch {
-		case df != nil && mf != nil:
-			last := max(df.line, mf.line)
-			raw := df.raw
-			if last == mf.line {
-				raw = mf.raw
+		df, mf := im.orderSeen.DayFirst, im.orderSeen.MonthFirst
+		switch im.orderSeen.Verdict() {
+		case dateorder.Conflict:
+			last := max(df.Line, mf.Line)
+			raw := df.Raw
+			if last == mf.Line {
+				raw = mf.Raw
 			}
 			im.add(&Problem{Line: last, Col: c.Index + 1, Header: c.Header, Value: raw, Err: ErrAmbiguousDate,
 				Detail: fmt.Sprintf("line %d %q reads only day-first but line %d %q only month-first; %s (the dates that disagree with it are then reported); the %d dates written as three numbers are kept as text until then",
-					df.line, df.raw, mf.line, mf.raw, choose, len(im.pending))})
-		case df != nil:
+					df.Line, df.Raw, mf.Line, mf.Raw, choose, len(im.pending))})
+		case dateorder.DayFirst:
 			im.order = DayFirst
-			im.note(&Problem{Line: df.line, Col: c.Index + 1, Header: c.Header, Value: df.raw, Err: ErrDateOrder,
-				Detail: fmt.Sprintf("dates read day-first, as this one shows (%d cannot be a month); %d dates read so", df.d.a, len(im.pending))})
-		case mf != nil:
+			im.note(&Problem{Line: df.Line, Col: c.Index + 1, Header: c.Header, Value: df.Raw, Err: ErrDateOrder,
+				Detail: fmt.Sprintf("dates read day-first, as this one shows (%d cannot be a month); %d dates read so", df.A, len(im.pending))})
+		case dateorder.MonthFirst:
 			im.order = MonthFirst
-			im.note(&Problem{Line: mf.line, Col: c.Index + 1, Header: c.Header, Value: mf.raw, Err: ErrDateOrder,
-				Detail: fmt.Sprintf("dates read month-first, as this one shows (%d cannot be a month); %d dates read so", mf.d.b, len(im.pending))})
+			im.note(&Problem{Line: mf.Line, Col: c.Index + 1, Header: c.Header, Value: mf.Raw, Err: ErrDateOrder,
+				Detail: fmt.Sprintf("dates read month-first, as this one shows (%d cannot be a month); %d dates read so", mf.B, len(im.pending))})
 		default:
 			p := im.pending[0]
 			im.add(&Problem{Line: p.line, Col: c.Index + 1, Header: c.Header, Value: p.raw, Err: ErrAmbiguousDate,

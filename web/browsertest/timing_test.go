@@ -19,7 +19,8 @@ import (
 // navigation to the first render of the demo (cold: empty profile; warm:
 // a reload served by the service worker) and the time from an edit of a
 // rain ratio to the repainted result, with the apportionment at 2,000
-// draws. Run it with `make browser-timing`.
+// draws. Run it with `make browser-timing`, which builds the page with the
+// timing probes (-tags timing).
 func TestTiming(t *testing.T) {
 	if os.Getenv("LIXIV_TIMING") == "" {
 		t.Skip("LIXIV_TIMING not set")
@@ -29,6 +30,9 @@ func TestTiming(t *testing.T) {
 	for i := 0; i < 4; i++ {
 		ctx := newBrowser(t, "")
 		open(t, ctx, srv.URL)
+		if eval[string](t, ctx, `typeof lixivLastBuild`) != "number" {
+			t.Fatal("the page has no timing probes: build it with LIXIV_TAGS=timing (make browser-timing does)")
+		}
 		cold = append(cold, eval[float64](t, ctx, `lixivBoot.firstRender`))
 		waitIdle(t, ctx)
 		computed = append(computed, eval[float64](t, ctx, `performance.now()`))

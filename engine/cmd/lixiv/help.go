@@ -23,6 +23,8 @@ Usage:
                                        "default unit" and "columns to use"
   lixiv batch [-j N] [-out DIR] [-check] FILE|DIR...
                                        run many budget files at once on all cores
+  lixiv kinds [KIND...]                the kinds of cell a budget may hold: inputs, settings with
+                                       their defaults and accepted values, output tables
   lixiv serve [-addr A] [-dir D]       serve the notebook page
   lixiv help                           this text
 

@@ -36,6 +36,8 @@ func run(args []string, stdout, stderr io.Writer) error {
 		return runQuick(args[1:], stdout, stderr)
 	case "batch":
 		return runBatch(args[1:], stdout, stderr)
+	case "kinds":
+		return runKinds(args[1:], stdout)
 	case "help", "-h", "-help", "--help":
 		return runHelp(args[1:], stdout)
 	}

@@ -84,6 +84,8 @@ func TestCommands(t *testing.T) {
 		{"quick-per-sample", []string{"quick", "-samples", "testdata/quick-samples.csv"}, 0, ""},
 		{"quick-no-area", []string{"quick", "-samples", "testdata/quick-samples.csv", "-discharge", "testdata/quick-discharge.csv"}, 2, "needs -area"},
 		{"quick-bad-area", []string{"quick", "-samples", "testdata/quick-samples.csv", "-area", "big"}, 2, "not a positive number"},
+		{"kinds", []string{"kinds"}, 0, ""},
+		{"kinds-unknown", []string{"kinds", "weather"}, 2, `no kind of cell "weather"`},
 		{"batch", []string{"batch", "-check", "../../../examples", "../../../testdata/budgets"}, 0, ""},
 	}
 	for _, tt := range tests {

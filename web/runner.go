@@ -1,0 +1,245 @@
+package web
+
+import (
+	"context"
+	"fmt"
+	"strings"
+
+	"github.com/vugu/vugu"
+
+	"lixiv/engine/notebook"
+)
+
+// runner computes the stale cells of the page's document off the event
+// handlers: a quick pass of point values first, then the refinement, with
+// the main thread handed back to the browser between slices. Root holds
+// one; it knows the page only through env (the event lock and the
+// repaint), save and fail.
+type runner struct {
+	env vugu.EventEnv
+	// save writes an edit still waiting to browser storage and reports
+	// whether there was one; fail shows why a run stopped. Both are
+	// called with the event lock held.
+	save func() bool
+	fail func(error)
+
+	running  string  // the cell computing
+	progress float64 // how far it is, 0 to 1
+	busy     bool
+	gen      int // completed recomputes
+	cancel   context.CancelFunc
+	loopDone chan struct{}
+
+	editStart  float64 // when the edit now computing was made (ms)
+	painted    bool    // the page has repainted since that edit
+	stepMillis float64 // time in Step (including yields) since the edit
+
+	// The render loop holds the repaint after an edit until the quick pass
+	// (notebook.Document.Quick) has point values, for at most HoldMillis,
+	// so that a quick edit paints once, with its result.
+	quickDone  chan struct{} // closed when the quick pass of the run is done
+	holding    bool          // the render loop waits on quickDone
+	quickShown bool          // the quick pass's result has been painted
+}
+
+// recompute cancels a run in progress and starts computing the stale
+// cells of doc. Call it with the event lock held.
+func (c *runner) recompute(doc *notebook.Document) {
+	if c.cancel != nil {
+		c.cancel()
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	c.cancel = cancel
+	prev, done := c.loopDone, make(chan struct{})
+	c.loopDone = done
+	c.busy = true
+	doc.Quick = true
+	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
+	go c.run(ctx, doc, prev, done, c.quickDone)
+}
+
+// hold returns a channel the render loop waits on (Root.Hold), nil when
+// the page is not ready or there is nothing to wait for.
+func (c *runner) hold(ready bool) <-chan struct{} {
+	if !ready || !c.busy || c.quickDone == nil || c.painted || c.editStart == 0 {
+		return nil
+	}
+	select {
+	case <-c.quickDone:
+		return nil
+	default:
+	}
+	c.holding = true
+	return c.quickDone
+}
+
+// Unhold tells the runner the render loop stopped holding (the quick pass
+// took longer than HoldMillis, or was done). Call it with the event lock held.
+func (c *runner) Unhold() { c.holding = false }
+
+// quickPassDone closes done once and repaints: through the render loop
+// when it is holding for it, else by asking for a render. Call it with the
+// event lock held; it releases it.
+func (c *runner) quickPassDone(done chan struct{}) {
+	if done != c.quickDone { // a run cancelled by a later edit: nothing to show
+		c.env.UnlockOnly()
+		return
+	}
+	select {
+	case <-done:
+		c.env.UnlockOnly()
+		return
+	default:
+	}
+	close(done)
+	if c.editStart > 0 {
+		Probe("lixivLastQuick", nowMillis()-c.editStart)
+	}
+	if c.holding && done == c.quickDone {
+		c.holding = false
+		c.env.UnlockOnly() // the render loop renders as it wakes
+		return
+	}
+	c.env.UnlockRender()
+}
+
+// run computes the stale cells of doc one at a time, handing the main
+// thread back to the browser every few tens of milliseconds (also from
+// inside a long cell, through its progress reports) so that the page
+// scrolls and takes typing. The page repaints at most every paintEvery ms
+// while computing (each repaint rebuilds the page), and once at the end.
+func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, quick chan struct{}) {
+	defer close(done)
+	defer func() { // cancelled or failed before the quick pass was over
+		c.env.Lock()
+		c.quickPassDone(quick)
+	}()
+	if prev != nil {
+		<-prev
+	}
+	// The edit is saved to browser storage at the first yield: after the
+	// quick pass has painted, or at the first hand-back of a long one.
+	saveIfPending := func() {
+		c.env.Lock()
+		c.save()
+		c.env.UnlockOnly()
+	}
+	defer func() { // a run without a yield saves at its end, and shows it
+		c.env.Lock()
+		if c.save() {
+			c.env.UnlockRender()
+			return
+		}
+		c.env.UnlockOnly()
+	}()
+	var stepped []string                             // for the timing harness: when each step began
+	const slice, paintEvery = 40, 250                // ms
+	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
+	longest, longestCell := 0.0, ""
+	breathe := func() {
+		if d := nowMillis() - lastYield; d > slice {
+			if d > longest {
+				longest, longestCell = d, c.running
+			}
+			// Save at this hand-back once the quick pass has painted, or
+			// when it runs long; a short quick pass saves after its paint.
+			select {
+			case <-quick:
+				saveIfPending()
+			default:
+				if nowMillis()-c.editStart > 250 {
+					saveIfPending()
+				}
+			}
+			yieldToBrowser()
+			lastYield = nowMillis()
+		}
+	}
+	publish := func(final bool) { // call with the lock held
+		if final || nowMillis()-lastPaint > paintEvery {
+			lastPaint = nowMillis()
+			c.env.UnlockRender()
+			return
+		}
+		c.env.UnlockOnly()
+	}
+	progress := func(p notebook.Progress) {
+		if nowMillis()-lastYield <= slice {
+			return
+		}
+		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
+			breathe()
+			return
+		}
+		c.env.Lock()
+		c.running = p.Cell
+		if p.Total > 0 {
+			c.progress = float64(p.Done) / float64(p.Total)
+		}
+		publish(false)
+		breathe()
+	}
+	for {
+		if ctx.Err() != nil {
+			return
+		}
+		if pending := doc.Pending(); len(pending) > 0 {
+			c.env.Lock()
+			c.running, c.progress = pending[0], 0
+			c.env.UnlockOnly()
+		}
+		t0 := nowMillis()
+		if Probing {
+			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
+		}
+		more, err := func() (more bool, err error) {
+			defer func() {
+				if r := recover(); r != nil {
+					more, err = false, fmt.Errorf("internal error: %v", r)
+				}
+			}()
+			return doc.Step(ctx, progress)
+		}()
+		c.stepMillis += nowMillis() - t0
+		if ctx.Err() != nil {
+			return
+		}
+		c.env.Lock()
+		if err == nil && more && doc.QuickPassDone() {
+			select {
+			case <-quick:
+			default:
+				// The point values are in: paint them, then refine.
+				if Probing {
+					Probe("lixivQuickSteps", strings.Join(stepped, ", ")+fmt.Sprintf(", done %.0f", nowMillis()-c.editStart))
+				}
+				lastPaint = nowMillis()
+				c.quickPassDone(quick)
+				yieldToBrowser()
+				saveIfPending()
+				lastYield = nowMillis()
+				continue
+			}
+		}
+		if err != nil || !more {
+			// For the timing harness: the longest stretch without a yield.
+			if Probing {
+				Probe("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+			}
+			c.running, c.busy = "", false
+			c.gen++
+			if err != nil {
+				c.fail(err)
+			}
+			select {
+			case <-quick:
+				publish(true)
+			default: // no refining: the quick pass was the whole run
+				c.quickPassDone(quick)
+			}
+			return
+		}
+		publish(false)
+		breathe()
+	}
+}
