@@ -61,8 +61,14 @@ func sharedDraws(d *Document, bs []compared) string {
 		if !ok {
 			return fmt.Sprintf("the %s budget's apportionment could not be traced", roleWords[c.role])
 		}
-		if ds.app.Model == "inverse" {
+		switch ds.app.Model {
+		case "forward":
+		case "inverse":
 			return fmt.Sprintf("the %s budget apportions with the inverse model, whose draws belong to their sample (each sample's weighted draws are its own; draw d of one sample is not draw d of another)", roleWords[c.role])
+		case "catchment":
+			return fmt.Sprintf("the %s budget apportions with the catchment-wide model, which learns its end-member ratios from its own samples (draw d of one budget is not draw d of another)", roleWords[c.role])
+		default:
+			return fmt.Sprintf("the %s budget apportions with the %s model, whose draws are not shared between budgets", roleWords[c.role], ds.app.Model)
 		}
 		if k == 0 {
 			first = ds
