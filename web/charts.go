@@ -96,6 +96,10 @@ func Charts(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []*plot.
 	case notebook.KindMinerals:
 		add(mineralBars(id+"-bars", o))
 		add(mineralCO2Chart(id+"-co2", o))
+	case notebook.KindCompare:
+		for _, ch := range compareCharts(id, c, o) {
+			add(ch)
+		}
 	case notebook.KindChart:
 		add(userChart(id, d, c))
 	}

@@ -22,6 +22,7 @@ const (
 	KindCO2           Kind = "co2"           // CO2 consumption budget
 	KindCarbonate     Kind = "carbonate"     // carbonate system: pCO2 and saturation indices
 	KindMinerals      Kind = "minerals"      // mineral mass balance
+	KindCompare       Kind = "comparison"    // treated against control: differences of budgets (calc_compare.go)
 	KindNote          Kind = "note"          // free text
 	KindChart         Kind = "chart"         // any output column against any other
 	KindBroken        Kind = "broken"        // a cell that failed to load; never written as such
@@ -244,6 +245,7 @@ var builtinKinds = []Descriptor{
 			{Name: "CO2 consumed by the minerals balanced, per km²", Prefix: false, Rank: 5},
 		},
 	},
+	compareDescriptor,
 	{Kind: KindNote, Label: "Note", New: newNote,
 		Notes: []SettingNote{
 			{Key: "text", Help: "plain text, shown as text"},

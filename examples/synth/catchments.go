@@ -69,6 +69,7 @@ var Examples = []Example{
 			"Sulfate here comes from both gypsum and pyrite. The budget takes it all as gypsum; the CO2 cell shows beside it the other end of the bracket, all from sulfide oxidation.")
 	}},
 	{"examples/greyhope-beck/greyhope-beck.lixiv.json", greyhopeBudget},
+	{"examples/lintmoor-whinlaw/lintmoor-whinlaw.lixiv.json", pairedBudget},
 	{"examples/scarrow-ghyll/scarrow-ghyll.lixiv.json", func() (*notebook.Document, error) {
 		return ScarrowGhyll().Budget("global", "catchment", 400, 500,
 			"Scarrow Ghyll is a fictional upland valley of granite and limestone. The samples and discharge are invented from a known truth (examples/synth), not measured.",
