@@ -197,7 +197,11 @@ func (c *CellCard) FillParam(el js.Value, p ParamView) {
 // FillRole fills the select of an input role with the cells it can read.
 func (c *CellCard) FillRole(el js.Value, r RoleView) {
 	choices := make([]Choice, 0, len(r.Choices)+1)
-	choices = append(choices, Choice{"", "nearest above"})
+	def := "nearest above"
+	if r.Default != "" {
+		def = r.Default
+	}
+	choices = append(choices, Choice{"", def})
 	for _, id := range r.Choices {
 		choices = append(choices, Choice{id, id})
 	}
@@ -218,6 +222,12 @@ func (c *CellCard) OnCheck(key string, e vugu.DOMEvent) {
 		v = "yes"
 	}
 	c.R.S.SetParam(c.V.ID, key, v)
+}
+
+// OnSection puts the cell in the section typed ("" makes it shared).
+func (c *CellCard) OnSection(e vugu.DOMEvent) {
+	defer c.R.guard()
+	c.R.S.SetSection(c.V.ID, strings.TrimSpace(e.PropString("target", "value")))
 }
 
 // OnTitle renames the cell.

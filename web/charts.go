@@ -96,6 +96,10 @@ func Charts(d *notebook.Document, c *notebook.Cell, o *notebook.Output) []*plot.
 	case notebook.KindMinerals:
 		add(mineralBars(id+"-bars", o))
 		add(mineralCO2Chart(id+"-co2", o))
+	case notebook.KindCompare:
+		for _, ch := range compareCharts(id, c, o) {
+			add(ch)
+		}
 	case notebook.KindChart:
 		add(userChart(id, d, c))
 	}
@@ -305,8 +309,10 @@ func hydrograph(id string, d *notebook.Document, o *notebook.Output) *plot.Chart
 // mixingChart draws Ca/Na against another ratio to Na on log axes: the
 // samples as points and each end-member's prior range as a hatched box.
 // Where an apportionment has run, the samples it could not fit are marked,
-// and the edges of the boxes that samples' posteriors press against are
-// drawn; which ones, the apportionment decides (notebook.Marks).
+// the edges of the boxes that samples' posteriors press against are
+// drawn, and, for the catchment-wide model, the shared ratios' posterior
+// as a solid box inside the prior's; which ones, the apportionment decides
+// (notebook.Marks).
 func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.Output, xRatio string) *plot.Chart {
 	ch := plot.New(id, "Mixing diagram: Ca/Na against "+xRatio, xRatio+" (mol/mol)", "Ca/Na (mol/mol)")
 	ch.X.Log, ch.Y.Log = true, true
@@ -322,6 +328,13 @@ func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.
 	}
 	if m := apportionmentMarks(d); m != nil {
 		markMisfits(ch, m, x, y, names)
+		for i, b := range boxes {
+			if sb, ok := sharedBox(m, b.name, xRatio); ok {
+				st := plot.StyleN(i + 1)
+				st.Hatch, st.Dash = "solid", ""
+				ch.Box(b.name+": shared ratios the samples taught (95 %)", st, sb.x0, sb.x1, sb.y0, sb.y1)
+			}
+		}
 		for i, b := range boxes {
 			for _, e := range m.Edges {
 				if e.EndMember != b.name {
@@ -347,6 +360,29 @@ func mixingChart(id string, d *notebook.Document, c *notebook.Cell, o *notebook.
 		return nil
 	}
 	return ch
+}
+
+// sharedBox returns the box of the catchment-wide model's posterior of
+// the end-member's Ca/Na and xRatio, drawn inside its prior box; false
+// when the model did not learn both (another model, or a fixed ratio).
+func sharedBox(m *notebook.Marks, em, xRatio string) (priorBox, bool) {
+	var b priorBox
+	got := 0
+	for _, s := range m.Shared {
+		if s.EndMember != em {
+			continue
+		}
+		switch s.Ratio {
+		case "Ca/Na":
+			b.y0, b.y1 = s.Lo, s.Hi
+			got |= 1
+		case xRatio:
+			b.x0, b.x1 = s.Lo, s.Hi
+			got |= 2
+		}
+	}
+	b.name = em
+	return b, got == 3
 }
 
 // apportionmentMarks returns the marks of the first computed

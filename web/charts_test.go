@@ -175,6 +175,7 @@ func TestMixingDiagramMarks(t *testing.T) {
 		Names:  []string{names[0]},
 		Misfit: []string{"Mg/Na"},
 		Edges:  []notebook.BoxEdge{{EndMember: "carbonate", Ratio: "Ca/Na", Upper: true, Value: 60, Samples: []string{names[0]}}},
+		Shared: []notebook.SharedMark{{EndMember: "carbonate", Ratio: "Ca/Na", Lo: 40, Median: 50, Hi: 60}, {EndMember: "carbonate", Ratio: "Mg/Na", Lo: 12, Median: 14, Hi: 16}},
 	}
 	ch := mixingChart("m", d, src, d.Output(src.ID), "Mg/Na")
 	if ch == nil {
@@ -185,6 +186,7 @@ func TestMixingDiagramMarks(t *testing.T) {
 		"samples the apportionment cannot fit",
 		names[0] + ": does not fit Mg/Na",
 		"carbonate Ca/Na: upper edge the fit presses against (1 sample)",
+		"carbonate: shared ratios the samples taught (95 %)",
 	} {
 		if !strings.Contains(svg, w) {
 			t.Errorf("the diagram lacks %q", w)

@@ -2,6 +2,7 @@ package web
 
 import (
 	"slices"
+	"strings"
 	"testing"
 
 	"lixiv/engine/notebook"
@@ -26,8 +27,9 @@ func TestChoicesOfferedAreAccepted(t *testing.T) {
 	for _, v := range s.Cells("", 0, nil) {
 		k := notebook.Kind(v.Kind)
 		for _, p := range v.Params {
-			if len(p.Options) == 0 || k == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
-				continue // free values; a chart's columns are those of the budget
+			if len(p.Options) == 0 || k == notebook.KindChart && (p.Key == "x" || p.Key == "y") ||
+				k == notebook.KindCompare && strings.HasSuffix(p.Key, "_section") {
+				continue // free values; a chart's columns and a comparison's sections are those of the budget
 			}
 			if p.OptionLabels != nil && len(p.OptionLabels) != len(p.Options) {
 				t.Errorf("%s %s: %d labels for %d choices", k, p.Key, len(p.OptionLabels), len(p.Options))

@@ -352,6 +352,11 @@ func (s *Session) Add(k notebook.Kind, after string) (string, error) {
 			return err
 		}
 		id = c.ID
+		if at > 0 && d.Cells[at-1].Section != "" { // a cell added in a section joins it
+			if err := d.SetSection(id, d.Cells[at-1].Section); err != nil {
+				return err
+			}
+		}
 		if k == notebook.KindSources { // start from the default preset's end-members
 			if t, err := notebook.SourcesTable("global"); err == nil {
 				return d.SetTable(id, t)

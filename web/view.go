@@ -40,6 +40,9 @@ type CellView struct {
 	Progress                   float64 // 0..1 while running
 	OldOutputs                 bool    // outputs shown are from before the last edit
 	YearStart                  int     // first month of the reporting years of its tables (1: calendar years)
+	Section                    string  // the cell's section ("" shared, or in a budget without sections)
+	Shared                     bool    // a cell shared by every section of a budget with sections
+	SectionHead                string  // the heading of the section this cell starts ("" when it starts none; compare.go)
 }
 
 // ParamView is one setting as a form field.
@@ -61,6 +64,7 @@ type NeedView struct {
 type RoleView struct {
 	Name, Current string
 	Choices       []string // ids of cells of the role's kind
+	Default       string   // what the empty choice reads ("" for "nearest above"; compare.go)
 }
 
 // FigureView is a headline figure formatted for the page.
@@ -194,6 +198,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 				pv := ParamView{Key: p.Key, Label: notebook.SettingLabel(p.Key), Value: p.Value, Type: p.Type,
 					Blank: p.Blank, FromDemo: demo != nil && fromDemo(demo, c, p)}
 				pv.Options, pv.OptionLabels = options(c.Kind, p.Key)
+				sectionChoices(d, c, &pv) // compare.go
 				if c.Kind == notebook.KindChart && (p.Key == "x" || p.Key == "y") {
 					pv.Options = columnRefs(d, c.ID, p.Value)
 					pv.OptionLabels = make([]string, len(pv.Options))
@@ -205,7 +210,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 			}
 		}
 		for _, r := range c.Kind.Roles() {
-			rv := RoleView{Name: r.Name, Current: c.Uses[r.Name]}
+			rv := RoleView{Name: r.Name, Current: c.Uses[r.Name], Default: roleDefault(d, c)}
 			for _, o := range d.Cells {
 				if o.Kind == r.Kind && o.ID != c.ID {
 					rv.Choices = append(rv.Choices, o.ID)
@@ -261,6 +266,7 @@ func (s *Session) Cells(running string, progress float64, charts *ChartCache) []
 		}
 		out = append(out, v)
 	}
+	markSections(out, d)
 	return out
 }
 

@@ -13,9 +13,8 @@ import (
 // labels the settings and columns, notebook.SettingLabel and
 // notebook.ColumnLabel).
 
-// carbonateSetting reads a numeric setting of a carbonate cell (NaN when
-// it has none).
-func carbonateSetting(c *notebook.Cell, key string) float64 {
+// numSetting reads a numeric setting of a cell (NaN when it has none).
+func numSetting(c *notebook.Cell, key string) float64 {
 	if c == nil || c.Settings == nil {
 		return math.NaN()
 	}
@@ -71,7 +70,7 @@ func saturationChart(id string, c *notebook.Cell, o *notebook.Output) *plot.Char
 	ch.X.Log, ch.X.Time = !time, time
 	names := texts(t.Column("sample"))
 	hline(ch, "saturation (SI 0)", plot.Style{Colour: "#6b6b6b"}, xs, 0, time)
-	if f := carbonateSetting(c, "si_calcite_flag"); !math.IsNaN(f) {
+	if f := numSetting(c, "si_calcite_flag"); !math.IsNaN(f) {
 		hline(ch, "flag: SI of calcite "+plot.Number(f), plot.Style{Colour: "#a4262c", Dash: "6 3"}, xs, f, time)
 	}
 	for i, m := range []struct{ col, name string }{{"SI_calcite", "calcite"}, {"SI_aragonite", "aragonite"}, {"SI_dolomite", "dolomite"}} {
@@ -93,7 +92,7 @@ func pco2Chart(id string, c *notebook.Cell, o *notebook.Output) *plot.Chart {
 	xs, xl, time := carbonateX(t)
 	ch := plot.New(id, "pCO2 against discharge", xl, labelWithUnit("pCO2", p))
 	ch.X.Log, ch.X.Time, ch.Y.Log = !time, time, true
-	air, f := carbonateSetting(c, "atmospheric_pco2_uatm"), carbonateSetting(c, "pco2_flag_factor")
+	air, f := numSetting(c, "atmospheric_pco2_uatm"), numSetting(c, "pco2_flag_factor")
 	if !math.IsNaN(air) {
 		hline(ch, "the air ("+plot.Number(air)+" µatm)", plot.Style{Colour: "#6b6b6b"}, xs, air, time)
 		if !math.IsNaN(f) {

@@ -234,7 +234,7 @@ func BootstrapApportioned(rec *discharge.Record, a Apportioned, opt Options, b B
 			return u, err
 		}
 	}
-	col := newCollector(u, years, rp.nrep, opt, a.MolarMass)
+	col := newCollector(u, years, rp.nrep, opt, a.MolarMass, b.KeepReplicates)
 	np := len(a.Parts)
 	x := make([][]float64, np) // measured values of each part, by matched sample
 	for p := range a.Parts {
@@ -374,7 +374,7 @@ type pickKey struct {
 // seed as Bootstrap would draw them.
 func (c *Cache) picks(a Apportioned, b BootstrapOptions, nrep int) ([][]int32, error) {
 	var key pickKey
-	if len(a.Weights) > 0 {
+	if len(a.Weights) > 0 && b.DrawNumbers == nil {
 		key = pickKey{w: &a.Weights[0], seed: b.Seed, mode: b.Draws, n: len(a.Days)}
 		c.mu.Lock()
 		got := c.pk[key]
@@ -394,11 +394,18 @@ func (c *Cache) picks(a Apportioned, b BootstrapOptions, nrep int) ([][]int32, e
 	if err != nil {
 		return nil, err
 	}
+	if err := pk.checkGiven(a.Name, b.DrawNumbers, nrep); err != nil {
+		return nil, err
+	}
 	rd := rand.New(rand.NewPCG(b.Seed, streamDraw))
 	idx := make([]int, len(a.Days))
 	out := make([][]int32, nrep)
 	for r := range out {
-		pk.pick(rd, idx)
+		if b.DrawNumbers != nil {
+			pk.given(b.DrawNumbers[r], idx)
+		} else {
+			pk.pick(rd, idx)
+		}
 		out[r] = make([]int32, len(idx))
 		for i, k := range idx {
 			out[r][i] = int32(k)

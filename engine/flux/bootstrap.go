@@ -119,6 +119,17 @@ type BootstrapOptions struct {
 	// its host. It must not change anything the bootstrap reads; results
 	// do not depend on it.
 	Tick func()
+	// DrawNumbers, when set, gives the draw number every sample with draws
+	// takes in each replicate (DrawNumbers[r] for replicate r), in place of
+	// the draw stream: for budgets whose draw d stands for the same shared
+	// values (end-member ratios, rain ratios) in every sample of every
+	// budget, so that a caller comparing them takes one draw per replicate
+	// for all (engine/compare). A sample must keep the draw it is given
+	// (a positive weight); Bootstrap and BootstrapApportioned return
+	// ErrDraws otherwise, and when there are fewer numbers than replicates.
+	DrawNumbers []int
+	// KeepReplicates keeps each replicate's loads in Uncertainty.Loads.
+	KeepReplicates bool
 	// Context, when set, cancels a long bootstrap: it is looked at before
 	// every replicate, and the bootstrap then returns its error.
 	Context context.Context
@@ -170,8 +181,20 @@ type Uncertainty struct {
 	// Area holds each replicate's catchment area (km², after its area
 	// error), the same in every series bootstrapped with the same seed, so
 	// that yields of combined replicates can be formed.
-	Area     []float64
+	Area []float64
+	// Loads holds each replicate's loads (its reporting years and its
+	// mean annual load, after the discharge and area errors), when
+	// BootstrapOptions.KeepReplicates is set; nil otherwise.
+	Loads    []ReplicateLoads
 	Warnings []error
+}
+
+// ReplicateLoads are the loads of one bootstrap replicate: each reporting
+// year's (the Uncertainty's Years, in order) and the mean annual load over
+// the complete years. A failed replicate holds NaN.
+type ReplicateLoads struct {
+	Years []Load
+	Mean  Load
 }
 
 // ErrDraws reports draws that Bootstrap cannot use.
@@ -211,7 +234,7 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 			return u, err
 		}
 		rp := newReplicates(smp, len(s.Days), years, b)
-		col := newCollector(u, years, rp.nrep, opt, s.MolarMass)
+		col := newCollector(u, years, rp.nrep, opt, s.MolarMass, b.KeepReplicates)
 		out := make([]float64, len(years))
 		for r := 0; r < rp.nrep; r++ {
 			if err := b.err(); err != nil {
@@ -233,10 +256,17 @@ func Bootstrap(rec *discharge.Record, s Series, opt Options, b BootstrapOptions)
 	if err != nil {
 		return u, err
 	}
+	nrep := b.Replicates
+	if nrep <= 0 {
+		nrep = 1000
+	}
+	if err := pk.checkGiven(ps.Name, b.DrawNumbers, nrep); err != nil {
+		return u, err
+	}
 	e := newEngine(rec, smp, years, opt)
 	e.replicate = true
 	rp := newReplicates(smp, len(s.Days), years, b)
-	col := newCollector(u, years, rp.nrep, opt, s.MolarMass)
+	col := newCollector(u, years, rp.nrep, opt, s.MolarMass, b.KeepReplicates)
 	c := make([]float64, len(smp))
 	idx := make([]int, len(s.Days))
 	out := make([]float64, len(years))
@@ -363,7 +393,10 @@ func (rp *replicates) next(pk *picker, idx []int) (fq, fa float64) {
 	if rp.b.Hold&Sampling != 0 {
 		rp.w = rp.ones
 	}
-	if pk != nil {
+	switch {
+	case pk != nil && rp.b.DrawNumbers != nil:
+		pk.given(rp.b.DrawNumbers[r], idx)
+	case pk != nil:
 		pk.pick(rp.rd, idx)
 	}
 	fq, fa = rp.set.fq[r], rp.set.fa[r]
@@ -386,12 +419,14 @@ type collector struct {
 	vals  [][]float64 // (year or mean) × figure, over replicates
 	sumQ  []float64
 	nrep  int
+	// keepAll keeps every replicate's loads (KeepReplicates).
+	keepAll bool
 }
 
 const figuresPerLoad = 5 // Mol, Tonnes, MolPerKm2, TonnesPerKm2, RunoffMM
 
-func newCollector(u *Uncertainty, years []discharge.Year, nrep int, opt Options, mass float64) *collector {
-	c := &collector{u: u, years: years, opt: opt, mass: mass, nrep: nrep, sumQ: make([]float64, len(years)),
+func newCollector(u *Uncertainty, years []discharge.Year, nrep int, opt Options, mass float64, keep bool) *collector {
+	c := &collector{u: u, years: years, opt: opt, mass: mass, nrep: nrep, sumQ: make([]float64, len(years)), keepAll: keep,
 		vals: make([][]float64, (len(years)+1)*figuresPerLoad)}
 	for i := range c.vals {
 		c.vals[i] = make([]float64, nrep)
@@ -399,6 +434,18 @@ func newCollector(u *Uncertainty, years []discharge.Year, nrep int, opt Options,
 	u.MeanMol = make([]float64, nrep)
 	u.Area = make([]float64, nrep)
 	return c
+}
+
+// keep records replicate r's loads in u.Loads when asked.
+func (c *collector) keep(r int, yl []YearLoad, mean Load) {
+	if c.u.Loads == nil {
+		c.u.Loads = make([]ReplicateLoads, c.nrep)
+	}
+	ys := make([]Load, len(yl))
+	for y := range yl {
+		ys[y] = yl[y].Load
+	}
+	c.u.Loads[r] = ReplicateLoads{Years: ys, Mean: mean}
 }
 
 // add records replicate r: out holds each year's load in mol before the
@@ -434,6 +481,9 @@ func (c *collector) add(r int, out, sumQ []float64, fq, fa float64, ok bool) {
 	}
 	c.u.MeanMol[r] = mean.Mol
 	c.u.Area[r] = ropt.AreaKm2
+	if c.keepAll {
+		c.keep(r, yl, mean)
+	}
 }
 
 // finish summarises the replicates into the Uncertainty.

@@ -160,3 +160,46 @@ func (pk *picker) pick(rng *rand.Rand, idx []int) {
 		}
 	}
 }
+
+// checkGiven checks draw numbers given for nrep replicates
+// (BootstrapOptions.DrawNumbers): one per replicate, and each kept (of
+// positive weight) by every sample with draws.
+func (pk *picker) checkGiven(name string, nums []int, nrep int) error {
+	if nums == nil {
+		return nil
+	}
+	if len(nums) < nrep {
+		return fmt.Errorf("%s: %w: %d draw numbers given for %d replicates", name, ErrDraws, len(nums), nrep)
+	}
+	for r, d := range nums[:nrep] {
+		for i, n := range pk.count {
+			if n == 0 {
+				continue
+			}
+			if d < 0 || d >= n {
+				return fmt.Errorf("%s: %w: replicate %d is given draw %d, but sample %d has %d draws", name, ErrDraws, r+1, d, i+1, n)
+			}
+			if pk.cum != nil {
+				w := pk.cum[i][d]
+				if d > 0 {
+					w -= pk.cum[i][d-1]
+				}
+				if !(w > 0) {
+					return fmt.Errorf("%s: %w: replicate %d is given draw %d, which sample %d rejected", name, ErrDraws, r+1, d, i+1)
+				}
+			}
+		}
+	}
+	return nil
+}
+
+// given fills idx with draw d for every sample with draws (-1 for the
+// others): a draw number chosen by the caller (checkGiven).
+func (pk *picker) given(d int, idx []int) {
+	for i := range idx {
+		idx[i] = -1
+		if i < pk.n && pk.count[i] > 0 {
+			idx[i] = d
+		}
+	}
+}

@@ -60,6 +60,20 @@
 // The draws of each sample, with their weights, are its posterior
 // (Result.Draw); draws of different samples are unrelated.
 //
+// # Catchment-wide model
+//
+// InvertCatchment (or NewCatchmentRun and CatchmentRun.Step) fits every
+// water of a Problem at once (catchment*.go, docs/methods.md §7.12): the
+// end-member ratios the likelihood reads are shared by all samples, with a
+// log-normal scatter per end-member about them, and each sample's amounts
+// are integrated out given the shared values. Four adaptive Metropolis
+// chains sample the shared latents and scatters; split R-hat and the
+// effective sample size of every shared ratio say whether they converged
+// (Catchment.Converged, Catchment.Message). A counting check runs first
+// (Identifiability); when it fails, the per-sample model runs and
+// Catchment.Fallback says why. Its draws are joint (Result.Joint): draw d
+// of every sample comes from the same shared ratios.
+//
 // The waters may be raw river chemistry, with the rain end-member in the
 // inversion (DefaultEndMembers(true)), or corrected by engine/correct, in
 // which case rain is left out (DefaultEndMembers(false)).

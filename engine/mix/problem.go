@@ -205,11 +205,12 @@ type setup struct {
 	act    []int // end-members taking part, in order
 	k      int   // len(act)
 
-	r      int              // data rows: row 0 is Na, then one per tracer
-	tr     [maxRows]Tracer  // tracer of each row (row 0: -1)
-	iso    int              // row of the Sr-weighted isotope datum, or -1
-	y      [maxRows]float64 // the data
-	sd     [maxRows]float64 // their marginal 1σ
+	r      int                       // data rows: row 0 is Na, then one per tracer
+	tr     [maxRows]Tracer           // tracer of each row (row 0: -1)
+	iso    int                       // row of the Sr-weighted isotope datum, or -1
+	y      [maxRows]float64          // the data
+	sd     [maxRows]float64          // their marginal 1σ
+	cov    [maxRows][maxRows]float64 // covariance of the rows (lower triangle)
 	linv   [maxRows][maxRows]float64
 	yt     [maxRows]float64         // whitened data L⁻¹ y
 	yy     float64                  // |yt|²
@@ -389,6 +390,7 @@ func (r *Run) prepare(w *Water) setup {
 		}
 		st.sd[i] = math.Sqrt(cov[i][i])
 	}
+	st.cov = cov
 	var l [maxRows][maxRows]float64
 	for j := 0; j < st.r; j++ {
 		d := cov[j][j]

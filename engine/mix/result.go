@@ -27,6 +27,14 @@ type Result struct {
 	// Confusions lists end-members the chosen tracers cannot tell from a
 	// mix of the others, found before the run from the priors alone.
 	Confusions []Confusion
+	// Joint is true when draw k of every sample belongs to the same draw
+	// of shared end-member ratios (the catchment-wide model): every sample
+	// with draws has the same number, all of equal weight, and a flux may
+	// take one draw number for all samples.
+	Joint bool
+	// Catchment is what the catchment-wide model learned about the shared
+	// end-members (nil for the per-sample model).
+	Catchment *Catchment
 }
 
 // SampleResult is the posterior of one water sample: a weighted sample of

@@ -251,26 +251,11 @@ func (r *Run) eval(w *sampleWork, k int) {
 	R, K := st.r, st.k
 	th := &w.theta
 	var A, At [maxRows][MaxEndMembers]float64
-	for jj, j := range st.act {
-		A[0][jj] = 1
-		for row := 1; row < R; row++ {
-			if t := st.tr[row]; t == Sr87Sr86 {
-				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
-			} else {
-				A[row][jj] = th[t][j]
-			}
-		}
-	}
-	for i := 0; i < R; i++ {
-		li := &st.linv[i]
-		for jj := 0; jj < K; jj++ {
-			s := 0.0
-			for p := 0; p <= i; p++ {
-				s += float64(li[p] * A[p][jj])
-			}
-			At[i][jj] = s
-		}
-	}
+	design(st, th, &A)
+	var H mat6
+	var b0, b1, n0, n1 vec6
+	whiten(R, K, &st.linv, &A, &At)
+	gram(R, K, &At, &st.yt, &H, &b0)
 	// Perturbation of the whitened data: ε̃ = L⁻¹ G z.
 	var eps [maxRows]float64
 	q := st.q
@@ -282,22 +267,12 @@ func (r *Run) eval(w *sampleWork, k int) {
 		}
 		eps[i] = s
 	}
-	var H mat6
-	var b0, b1, n0, n1 vec6
 	for i := 0; i < K; i++ {
-		for j := 0; j <= i; j++ {
-			s := 0.0
-			for p := 0; p < R; p++ {
-				s += float64(At[p][i] * At[p][j])
-			}
-			H[i][j], H[j][i] = s, s
-		}
-		s0, s1 := 0.0, 0.0
+		s1 := 0.0
 		for p := 0; p < R; p++ {
-			s0 += float64(At[p][i] * st.yt[p])
 			s1 += float64(At[p][i] * eps[p])
 		}
-		b0[i], b1[i] = s0, s0+s1
+		b1[i] = b0[i] + s1
 	}
 	var dd, logL float64
 	if r.opt.perturb {
@@ -347,6 +322,22 @@ func (r *Run) eval(w *sampleWork, k int) {
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
 	w.rec[o+oFrac+K+int(NSources)*NCations] = max(0, st.so4.At(w.z))
+}
+
+// design fills A with the design of st's rows for the ratios th: 1 in the
+// Na row, each end-member's ratio in a tracer's row, and Sr/Na × 87Sr/86Sr
+// in the isotope's.
+func design(st *setup, th *[NTracers][MaxEndMembers]float64, A *[maxRows][MaxEndMembers]float64) {
+	for jj, j := range st.act {
+		A[0][jj] = 1
+		for row := 1; row < st.r; row++ {
+			if t := st.tr[row]; t == Sr87Sr86 {
+				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
+			} else {
+				A[row][jj] = th[t][j]
+			}
+		}
+	}
 }
 
 // splitOf fills sp with the draw's amount of each cation from each source:

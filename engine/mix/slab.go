@@ -148,20 +148,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		}
 		var sd [MaxEndMembers]float64
 		for i := 0; i < m; i++ {
-			// (H⁻¹)_ii = sum over rows of (L⁻¹)²: column i of L⁻¹.
-			var col [MaxEndMembers]float64
-			v := 0.0
-			for a := i; a < m; a++ {
-				s := 0.0
-				if a == i {
-					s = 1
-				}
-				for p := i; p < a; p++ {
-					s -= f.l[a][p] * col[p]
-				}
-				col[a] = s / f.l[a][a]
-				v += col[a] * col[a]
-			}
+			v := invDiag(m, &f.l, i)
 			sd[i] = sqrt(v)
 			vt += c[f.idx[i]] * c[f.idx[i]] * v
 		}

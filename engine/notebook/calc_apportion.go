@@ -36,9 +36,17 @@ type Apportioned struct {
 	// (the inverse model's posterior of each sample is a weighted sample
 	// of its own, draw numbers 0 … Kept(i)−1; draws of different samples
 	// are unrelated).
-	Draws   int
-	Model   string // "inverse" or "forward"
-	Sulfate string // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
+	Draws int
+	Model string // the model that ran: "inverse", "catchment" or "forward" ("inverse" when the catchment-wide model fell back)
+	// Joint is true when draw d of every sample belongs to the same draw of
+	// the shared end-member ratios (the catchment-wide model): fluxes then
+	// take one draw number for all samples in each bootstrap replicate
+	// (flux.JointDraw).
+	Joint bool
+	// Catchment is what the catchment-wide model learned about the shared
+	// end-members (nil for the other models and after a fall back).
+	Catchment *mix.Catchment
+	Sulfate   string // origin of the sulfate above the rain share: "gypsum", "sulfide" or "isotope"
 	// Status, Verdict and ESS are each sample's fit as the inverse model
 	// judged it (the forward model has none to judge: Rule, and an ESS of
 	// its draw count).
@@ -55,6 +63,9 @@ type Apportioned struct {
 
 	// doubtful gives the reasons the apportionment is doubtful (Output.Doubtful).
 	doubtful []string
+	// doubtfulChains says why the catchment-wide model's chains are not to
+	// be trusted ("" when they converged).
+	doubtfulChains string
 	// kept lists, per sample, the draw numbers with a positive weight.
 	kept [][]int32
 	// kw holds the weights of the kept draws (keptWeights).
@@ -79,6 +90,17 @@ type Marks struct {
 	Names  []string  // the samples, in the order of Misfit
 	Misfit []string  // per sample: the tracer the fit cannot match ("" when it fits)
 	Edges  []BoxEdge // edges of prior boxes that some sample's posterior piles against
+	// Shared holds the catchment-wide model's posterior of each shared
+	// ratio, drawn as a box inside the end-member's prior box.
+	Shared []SharedMark
+}
+
+// SharedMark is the posterior 95 % interval of one shared end-member ratio
+// of the catchment-wide model.
+type SharedMark struct {
+	EndMember      string
+	Ratio          string // such as "Ca/Na"
+	Lo, Median, Hi float64
 }
 
 // BoxEdge is one edge of an end-member's prior box in a mixing diagram.
@@ -341,7 +363,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	switch s.Model {
 	case "forward":
 		err = apportionForward(ctx, report, a, s, atm, ems, n, warn)
-	case "inverse":
+	case "inverse", "catchment":
 		err = apportionInverse(ctx, workers, report, a, s, atm, ems, precs, n, rough, out, warn)
 	}
 	if err != nil {
@@ -448,9 +470,9 @@ func apportionForward(ctx context.Context, report func(done, total int), a *Appo
 	return nil
 }
 
-// apportionInverse fits the inverse model to the corrected samples of a,
-// with the precisions precs, counting its warnings in warn and saying in
-// out what the whole run found.
+// apportionInverse fits the inverse model, or the catchment-wide model,
+// to the corrected samples of a, with the precisions precs, counting its
+// warnings in warn and saying in out what the whole run found.
 func apportionInverse(ctx context.Context, workers int, report func(done, total int), a *Apportioned, s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, precs []*correct.Precision, n int, rough bool, out *Output, warn map[string]int) error {
 	var tracers []mix.Tracer
 	for _, t := range s.Tracers {
@@ -477,34 +499,27 @@ func apportionInverse(ctx context.Context, workers int, report func(done, total 
 		return err
 	}
 	mo.MaxKept = MaxSampleDraws
-	var res *mix.Result
-	if workers == 1 || runtime.GOOS == "js" {
-		// One goroutine, in chunks: the progress callback runs between
-		// chunks, so a page can yield to the browser there. The chunk
-		// size does not change the result.
-		run, err := mix.NewRun(p, mo)
-		if err != nil {
+	var co *mix.CatchmentOptions
+	if s.Model == "catchment" {
+		if err := checkCatchmentSamples(n); err != nil {
 			return err
 		}
-		for !run.Step(ctx, ChunkDraws) {
-			report(int(run.Progress()*1000), 1000)
+		co = &mix.CatchmentOptions{Keep: catchmentKeep}
+		if rough {
+			co = &mix.CatchmentOptions{Warmup: 600, Batch: 400, MaxSteps: 400, Keep: 200}
 		}
-		report(1000, 1000)
-		if err := run.Err(); err != nil {
-			return keptErr(err)
-		}
-		res = run.Result()
-	} else {
-		mo.Progress = func(done, total int) { report(done, total) }
-		var err error
-		if res, err = mix.Invert(ctx, p, mo); err != nil {
-			return keptErr(err)
-		}
+	}
+	res, err := invert(ctx, workers, report, p, mo, co)
+	if err != nil {
+		return err
 	}
 	if err := ctx.Err(); err != nil {
 		return err
 	}
 	a.inverse = res
+	if c := res.Catchment; c != nil {
+		a.catchment(c, ems, out)
+	}
 	a.Draws = 0
 	for i := range res.Samples {
 		a.Draws = max(a.Draws, res.Kept(i))
@@ -609,8 +624,103 @@ func conclude(a *Apportioned, s *ApportionmentSettings, n int, summary bool, out
 	if 4*doubt > n {
 		a.doubtful = append(a.doubtful, fmt.Sprintf("%s do not fit the end-members, fit them only with ratios beyond their ranges, or are poorly sampled (more than a quarter; see the status column)", countOf(doubt, n, "samples")))
 	}
+	if a.doubtfulChains != "" {
+		a.doubtful = append(a.doubtful, a.doubtfulChains)
+	}
 	out.Doubtful = a.doubtful
 	out.Value = a
+}
+
+// catchmentKeep is the number of joint draws the catchment-wide model
+// hands on (mix.CatchmentOptions.Keep).
+const catchmentKeep = 1000
+
+// invert runs the inverse model (or, with co, the catchment-wide model) on
+// the problem: on one goroutine in chunks, the progress callback between
+// them, in the browser or with one worker (the chunk size does not change
+// the result); otherwise on every worker. A run stopped at the draws it
+// may keep (mix.ErrTooManyKept) is an error that names the settings.
+func invert(ctx context.Context, workers int, report func(done, total int), p mix.Problem, mo *mix.Options, co *mix.CatchmentOptions) (*mix.Result, error) {
+	if workers == 1 || runtime.GOOS == "js" {
+		type stepper interface {
+			Step(context.Context, int) bool
+			Progress() float64
+			Result() *mix.Result
+			Err() error
+		}
+		var run stepper
+		var err error
+		if co != nil {
+			run, err = mix.NewCatchmentRun(p, mo, co)
+		} else {
+			run, err = mix.NewRun(p, mo)
+		}
+		if err != nil {
+			return nil, err
+		}
+		for !run.Step(ctx, ChunkDraws) {
+			report(int(run.Progress()*1000), 1000)
+		}
+		report(1000, 1000)
+		if err := run.Err(); err != nil {
+			return nil, keptErr(err)
+		}
+		return run.Result(), ctx.Err()
+	}
+	mo.Progress = func(done, total int) { report(done, total) }
+	var res *mix.Result
+	var err error
+	if co != nil {
+		res, err = mix.InvertCatchment(ctx, p, mo, co)
+	} else {
+		res, err = mix.Invert(ctx, p, mo)
+	}
+	if err != nil {
+		return nil, keptErr(err)
+	}
+	return res, ctx.Err()
+}
+
+// catchment hands on what the catchment-wide model learned: after a fall
+// back to the per-sample model, a warning that says why; otherwise the
+// joint draws, the shared ratios' table (prior and posterior side by
+// side) and their boxes on the mixing diagrams, and, when the chains have
+// not converged, a plain message that marks the result doubtful.
+func (a *Apportioned) catchment(c *mix.Catchment, ems []mix.EndMember, out *Output) {
+	if c.Fallback != "" {
+		a.Model = "inverse"
+		out.Warnings = append(out.Warnings, "catchment-wide model: "+c.Fallback)
+		return
+	}
+	a.Catchment, a.Joint = c, true
+	out.Warnings = append(out.Warnings, "catchment-wide model: "+c.Check.Text)
+	if !c.Converged {
+		a.doubtfulChains = c.Message
+	}
+	n := len(c.Ratios)
+	em, ratio := make([]string, n), make([]string, n)
+	col := func() []float64 { return make([]float64, n) }
+	plo, pmed, phi, lo, med, hi, rh, ess := col(), col(), col(), col(), col(), col(), col(), col()
+	for i, r := range c.Ratios {
+		em[i], ratio[i] = ems[r.EndMember].Name, r.Tracer.String()
+		plo[i], pmed[i], phi[i] = r.Prior.Lo, r.Prior.Median, r.Prior.Hi
+		lo[i], med[i], hi[i] = r.Posterior.Lo, r.Posterior.Median, r.Posterior.Hi
+		rh[i], ess[i] = r.RHat, r.ESS
+		a.Diagram.Shared = append(a.Diagram.Shared, SharedMark{EndMember: em[i], Ratio: ratio[i], Lo: lo[i], Median: med[i], Hi: hi[i]})
+	}
+	for _, sc := range c.Scatter {
+		em = append(em, ems[sc.EndMember].Name)
+		ratio = append(ratio, "scatter (σ of ln ratio)")
+		plo, pmed, phi = append(plo, 0.1*0.03133798202142), append(pmed, 0.1*0.6744897501960817), append(phi, 0.1*2.241402727604947)
+		lo, med, hi = append(lo, sc.Posterior.Lo), append(med, sc.Posterior.Median), append(hi, sc.Posterior.Hi)
+		rh, ess = append(rh, sc.RHat), append(ess, sc.ESS)
+	}
+	out.Tables = append(out.Tables, &ResultTable{Name: "shared", Title: fmt.Sprintf(
+		"Shared end-member ratios of the catchment-wide model: prior and posterior (median, 2.5 %% and 97.5 %%), with the chains' R-hat and effective sample size (%d chains, %d steps each after %d warm-up steps)",
+		c.Chains, c.Steps, c.Warmup), Columns: []*Column{TextColumn("end-member", em), TextColumn("ratio", ratio),
+		NumColumn("prior", "mol/mol", pmed), NumColumn("prior_low", "mol/mol", plo), NumColumn("prior_high", "mol/mol", phi),
+		NumColumn("posterior", "mol/mol", med), NumColumn("posterior_low", "mol/mol", lo), NumColumn("posterior_high", "mol/mol", hi),
+		NumColumn("R-hat", "", rh), NumColumn("ESS", "draws", ess)}})
 }
 
 // meanSplit returns the weighted mean of the splits with positive weight

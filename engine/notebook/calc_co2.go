@@ -221,6 +221,7 @@ func computeCO2(e *Env) (*Output, error) {
 	e.Report(n, total)
 	if fi == nil {
 		out.Doubtful = a.doubtful
+		out.Value = &CO2Budget{Settings: *s, App: a, Options: *opt, Scale: scale}
 		return out, nil
 	}
 	fv := fi.Value.(*Fluxes)
@@ -235,6 +236,7 @@ func computeCO2(e *Env) (*Output, error) {
 	}
 	out.Doubtful = fv.Doubtful
 	done := n // progress units: per litre, then each bootstrap
+	out.Value = &CO2Budget{Settings: *s, Fluxes: fv, App: a, Options: *opt, Scale: scale}
 	fv = fv.ticking(e.Ctx, func() { e.Report(done, total) })
 	var years co2Years
 	bySource := &sourceTable{unit: "mol/km²/yr", n: fv.breakdownReplicates()}

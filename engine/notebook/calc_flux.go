@@ -55,10 +55,16 @@ func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
 		checkBootstrapWork("series_bootstrap", s.SeriesBootstrap, len(app.Names), rec.Len())); err != nil {
 		return nil, err
 	}
+	// Joint draws (the catchment-wide model) are taken one draw number for
+	// every sample; the other models' draws are each sample's own.
+	mode := flux.PerSampleDraw
+	if app.Joint {
+		mode = flux.JointDraw
+	}
 	return &Fluxes{Record: rec, Site: site, App: app,
 		Options: flux.Options{Method: estimatorMethod(s.Estimator), AreaKm2: site.AreaKm2, FirstMonth: site.WaterYearStart,
 			Seasonal: s.Seasonal, Bias: biases[s.BiasCorrection]},
-		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed),
+		Bootstrap: flux.BootstrapOptions{Replicates: s.Bootstrap, Seed: uint64(s.Seed), Draws: mode,
 			DischargeError: s.DischargeUncertainty / 100, AreaError: site.AreaSigma, Cache: &flux.Cache{}},
 		SeriesReplicates: s.SeriesBootstrap, Policy: s.Unapportioned, DoubtfulAbove: s.DoubtfulPercent / 100,
 	}, nil

@@ -100,6 +100,10 @@ func TestIdleAndReadsTable(t *testing.T) {
 		{app("inverse", "gypsum"), "draws", false},
 		{app("forward", "gypsum"), "tracers", true},
 		{app("inverse", "gypsum"), "tracers", false},
+		{app("catchment", "gypsum"), "tracers", false},
+		{app("catchment", "gypsum"), "target_ess", true},
+		{app("inverse", "gypsum"), "target_ess", false},
+		{app("forward", "gypsum"), "max_draws", true},
 		{notebook.DefaultSettings(notebook.KindAtmosphere), "method", false},
 	}
 	for _, tt := range tests {

@@ -7,13 +7,28 @@
 //
 // A Document holds Cells in order. A cell has a Kind (site, samples,
 // discharge, carbonate, atmosphere, sources, apportionment, fluxes, co2,
-// minerals, note, chart),
+// minerals, comparison, note, chart),
 // an id that other cells name it by, a title the user chooses, Settings
 // (one struct per kind; every field has a JSON key), an optional data Table
-// kept as the text the user typed, and a "uses" map from input roles to cell
-// ids. A role missing from "uses" is filled by the nearest cell above of the
-// role's kind, so a plain top-to-bottom budget needs no "uses" at all. A
-// chart names the columns it plots as "cell.table.column".
+// kept as the text the user typed, an optional Section, and a "uses" map
+// from input roles to cell ids. A role missing from "uses" is filled by the
+// nearest cell above of the role's kind in the cell's own section, else by
+// the nearest shared (section-less) cell above, so a plain top-to-bottom
+// budget needs no "uses" at all. A chart names the columns it plots as
+// "cell.table.column".
+//
+// # Sections and comparisons
+//
+// Several catchments, or one catchment over several periods, share one
+// document through sections (section.go): each catchment's cells carry its
+// section's name, cells shared by every section (an end-member table,
+// notes) carry none. A comparison cell (calc_compare.go) reads the co2
+// cells of the sections its settings name — treated and control, and for a
+// before-after-control-impact design both before — and gives, through
+// engine/compare, the difference of their cation fluxes by source and CO2
+// consumption per km² and per mm of runoff with intervals from paired
+// replicates, the feedstock's CO2 potential and the share of it the extra
+// uptake represents, and the monitoring design.
 //
 // Edits go through the Document (SetParam, SetTable, SetValue, SetUses,
 // SetTitle, Add, Insert, Remove, Move, or Edit for anything else). Each
@@ -72,9 +87,11 @@
 //
 // A budget file (extension .lixiv.json) is one JSON object written with
 // two-space indentation and a stable key order: "format" ("lixiv-budget"),
-// "version" (1), "engine", "title", "cells" (in document order), the
+// "version" (2 when the budget has sections or a comparison, else 1),
+// "engine", "title", "cells" (in document order), the
 // optional "results" snapshot, then any unknown top-level fields in sorted
-// order. A cell is written as "id", "kind", "title", "uses", "settings"
+// order. A cell is written as "id", "kind", "title", "section" (when it
+// has one), "uses", "settings"
 // (fields in declaration order, then unknown settings), "table" and unknown
 // cell fields. A table is "columns" and "units" (one line each) and "rows",
 // one row per line, each cell a JSON number when its text is exactly one
@@ -86,7 +103,7 @@
 // and line: text that is not JSON, nesting deeper than MaxDepth, a missing
 // or foreign "format", a version newer than FormatVersion, cells that form a
 // loop (*CycleError). Older versions load through explicit migrations (v0,
-// the first draft layout, migrates to v1). A cell that cannot be read — an
+// the first draft layout, migrates to v1; v1 to v2, which adds sections). A cell that cannot be read — an
 // unknown kind, a value of the wrong type, a setting out of range, a
 // malformed table — loads as a broken cell that keeps its raw JSON and the
 // reason, is written back unchanged and computes to a Problem; the rest of

@@ -14,6 +14,7 @@ type Cell struct {
 	ID       string            // unique within the document: letters, digits, '-' and '_'
 	Kind     Kind              // what the cell does
 	Title    string            // the user's title
+	Section  string            // the section (catchment, period) it belongs to; "" for a cell shared by every section (section.go)
 	Uses     map[string]string // role → id of the cell it reads; a missing role means the nearest cell above of that kind
 	Settings Settings          // parameters of the kind
 	Table    *Table            // data table, for kinds that hold one; nil otherwise
@@ -92,6 +93,7 @@ type Document struct {
 	Quick bool
 
 	rev   uint64
+	part  bool // a section's view of a budget with sections, made for its report (report_compare.go)
 	state map[string]*cellState
 	funcs map[Kind]ComputeFunc // nil: the registered functions
 }

@@ -30,16 +30,7 @@ func (d *Document) resolve(c *Cell, r Role) (string, error) {
 		}
 		return id, nil
 	}
-	i := d.index(c.ID)
-	for j := i - 1; j >= 0; j-- {
-		if d.Cells[j].Kind == r.Kind {
-			return d.Cells[j].ID, nil
-		}
-	}
-	if r.Optional {
-		return "", nil
-	}
-	return "", fmt.Errorf("needs a %s cell above it", r.Kind)
+	return d.nearest(c, r) // section.go
 }
 
 // chartRefs returns the cell ids a chart's axes name.

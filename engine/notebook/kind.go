@@ -22,6 +22,7 @@ const (
 	KindCO2           Kind = "co2"           // CO2 consumption budget
 	KindCarbonate     Kind = "carbonate"     // carbonate system: pCO2 and saturation indices
 	KindMinerals      Kind = "minerals"      // mineral mass balance
+	KindCompare       Kind = "comparison"    // treated against control: differences of budgets (calc_compare.go)
 	KindNote          Kind = "note"          // free text
 	KindChart         Kind = "chart"         // any output column against any other
 	KindBroken        Kind = "broken"        // a cell that failed to load; never written as such
@@ -150,8 +151,9 @@ var builtinKinds = []Descriptor{
 	{Kind: KindApportionment, Label: "Apportionment", New: newApportionment, Idle: apportionmentIdle,
 		Inputs: []Role{{"atmosphere", KindAtmosphere, false}, {"sources", KindSources, false}},
 		Notes: []SettingNote{
-			{Key: "model", Help: "inverse: Monte Carlo fit of each sample; forward: the published ratios applied", Choices: []Choice{{Value: "inverse"}, {Value: "forward"}}},
-			{Key: "tracers", Help: "ratios to Na the inverse model fits"},
+			{Key: "model", Help: "inverse: Monte Carlo fit of each sample; catchment: every sample together, the end-members' ratios shared and learned from all; forward: the published ratios applied",
+				Choices: []Choice{{Value: "inverse"}, {Value: "catchment"}, {Value: "forward"}}},
+			{Key: "tracers", Help: "ratios to Na the inverse and catchment-wide models fit"},
 			{Key: "draws", Help: "prior draws of the inverse model's first stage; the forward model's draws per sample"},
 			{Key: "target_ess", Help: "effective sample size at which a sample's refinement stops"},
 			{Key: "max_draws", Help: "cap of draws per sample over all stages"},
@@ -165,6 +167,10 @@ var builtinKinds = []Descriptor{
 		Tables: []TableInfo{
 			{Name: "shares", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"status", ""}, {"ESS", "draws"}}, Open: true, Labels: []LabelInfo{{"ESS", "effective sample size"}}},
 			{Name: "amounts", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}}, Open: true, Labels: []LabelInfo{{"SO4_sulfide", "SO4 from sulfide"}}},
+			// The catchment-wide model's shared ratios and scatters.
+			{Name: "shared", Columns: []ColumnInfo{{"end-member", ""}, {"ratio", ""}, {"prior", "mol/mol"}, {"prior_low", "mol/mol"},
+				{"prior_high", "mol/mol"}, {"posterior", "mol/mol"}, {"posterior_low", "mol/mol"}, {"posterior_high", "mol/mol"},
+				{"R-hat", ""}, {"ESS", "draws"}}},
 		},
 	},
 	{Kind: KindFluxes, Label: "Fluxes", New: newFluxes,
@@ -239,6 +245,7 @@ var builtinKinds = []Descriptor{
 			{Name: "CO2 consumed by the minerals balanced, per km²", Prefix: false, Rank: 5},
 		},
 	},
+	compareDescriptor,
 	{Kind: KindNote, Label: "Note", New: newNote,
 		Notes: []SettingNote{
 			{Key: "text", Help: "plain text, shown as text"},
@@ -318,12 +325,15 @@ func newApportionment() Settings {
 }
 
 // apportionmentIdle: the δ34S values are read only when the sulfate source
-// is "isotope"; the tracers and the refinement only by the inverse model.
+// is "isotope"; the tracers only by the inverse and catchment-wide models,
+// and the refinement only by the inverse model.
 func apportionmentIdle(s Settings, key string) bool {
 	a := s.(*ApportionmentSettings)
 	switch key {
-	case "tracers", "target_ess", "max_draws":
+	case "tracers":
 		return a.Model == "forward"
+	case "target_ess", "max_draws":
+		return a.Model != "inverse"
 	}
 	return strings.HasPrefix(key, "d34s_") && a.Sulfate != "isotope"
 }

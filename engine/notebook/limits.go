@@ -107,6 +107,22 @@ func checkSampleDraws(model string, samples, draws int) error {
 	return nil
 }
 
+// MaxCatchmentSamples is the most samples the catchment-wide model takes:
+// its chains fit every sample at each step (4 chains × at most 23,000
+// steps × 1,000 samples is 92 million small fits, some minutes on one
+// core), and it keeps 1,000 joint draws of each.
+const MaxCatchmentSamples = 1000
+
+// checkCatchmentSamples refuses a catchment-wide model of more than
+// MaxCatchmentSamples samples.
+func checkCatchmentSamples(samples int) error {
+	if samples > MaxCatchmentSamples {
+		return settingErr("model", "the catchment-wide model takes at most %s samples (this budget apportions %s); use the per-sample model (inverse), or fewer samples",
+			grouped(MaxCatchmentSamples), grouped(samples))
+	}
+	return nil
+}
+
 // checkInverseDraws refuses an inverse model whose samples × target
 // effective sample size exceed MaxSampleDraws: each sample that reaches
 // its target keeps at least that many draws. The run itself stops where

@@ -85,6 +85,12 @@ func TestCheckSampleDraws(t *testing.T) {
 			t.Errorf("%s %d × %d: got %v, want ok %v", tt.model, tt.samples, tt.draws, err, tt.ok)
 		}
 	}
+	if err := checkCatchmentSamples(MaxCatchmentSamples); err != nil {
+		t.Errorf("the catchment-wide model at its limit of samples: %v", err)
+	}
+	if err := checkCatchmentSamples(MaxCatchmentSamples + 1); err == nil || !strings.Contains(err.Error(), "per-sample model") {
+		t.Errorf("one sample above the catchment-wide model's limit: %v, want a refusal that names the per-sample model", err)
+	}
 	if err := checkBootstrapWork("bootstrap", 1000, 50, MaxBootstrapWork/1000-50); err != nil {
 		t.Errorf("work at the limit: %v", err)
 	}

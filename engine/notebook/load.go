@@ -189,6 +189,12 @@ func parseCell(raw json.RawMessage) (*Cell, error) {
 	if err := want(m, "title", &c.Title, false); err != nil {
 		return nil, err
 	}
+	if err := want(m, "section", &c.Section, false); err != nil {
+		return nil, err
+	}
+	if err := validSection(c.Section); err != nil {
+		return nil, err
+	}
 	if err := want(m, "uses", &c.Uses, false); err != nil {
 		return nil, err
 	}
@@ -226,7 +232,7 @@ func parseCell(raw json.RawMessage) (*Cell, error) {
 	}
 	for k, v := range m {
 		switch k {
-		case "id", "kind", "title", "uses", "settings", "table":
+		case "id", "kind", "title", "section", "uses", "settings", "table":
 		default:
 			if c.Extra == nil {
 				c.Extra = map[string]json.RawMessage{}

@@ -10,7 +10,7 @@ import (
 // version to the next. migrations[v] turns version v into version v+1.
 type migration func(map[string]json.RawMessage) (map[string]json.RawMessage, error)
 
-var migrations = map[int]migration{0: migrate0to1}
+var migrations = map[int]migration{0: migrate0to1, 1: migrate1to2}
 
 // Version 0 was the first draft layout:
 //

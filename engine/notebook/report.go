@@ -154,6 +154,12 @@ type Report struct {
 	// cells; left out when the budget has none.
 	Carbonate *CarbonateReport `json:"carbonate_system,omitempty"`
 	Minerals  *MineralReport   `json:"mineral_balance,omitempty"`
+
+	// Sections reports each section of a budget with sections (the
+	// fields above then describe the first budget in the document), and
+	// Comparison its first comparison cell (report_compare.go).
+	Sections   []SectionReport   `json:"sections,omitempty"`
+	Comparison *ComparisonReport `json:"comparison,omitempty"`
 }
 
 // ReportFigure is a headline figure as the report writes it.
@@ -319,6 +325,7 @@ func (d *Document) Report() *Report {
 		}
 	}
 	r.Carbonate, r.Minerals = d.carbonateReport(), d.mineralReport()
+	r.Sections, r.Comparison = d.sectionReports(), d.comparisonReport()
 	if d.Stored != nil {
 		if v, err := d.Verify(); err == nil {
 			r.Snapshot = &SnapshotCheck{Stored: v.Stored, Rerun: v.Rerun, Match: v.Match}

@@ -12,8 +12,10 @@ import (
 // FormatName is the value of the "format" field that opens every budget file.
 const FormatName = "lixiv-budget"
 
-// FormatVersion is the version of the file layout this engine writes.
-const FormatVersion = 1
+// FormatVersion is the newest version of the file layout, which this
+// engine reads and writes; a budget that needs nothing of version 2 is
+// written as version 1 (Document.fileVersion).
+const FormatVersion = 2
 
 // Extension is the file-name ending of budget files.
 const Extension = ".lixiv.json"
@@ -23,7 +25,7 @@ const Extension = ".lixiv.json"
 func (d *Document) Marshal() []byte {
 	var top object
 	top.add("format", FormatName)
-	top.add("version", FormatVersion)
+	top.add("version", d.fileVersion())
 	top.add("engine", EngineVersion)
 	top.add("title", d.Title)
 	cells := array{}
@@ -55,6 +57,9 @@ func cellTree(c *Cell) any {
 	o.add("id", c.ID)
 	o.add("kind", string(c.Kind))
 	o.add("title", c.Title)
+	if c.Section != "" {
+		o.add("section", c.Section)
+	}
 	if len(c.Uses) > 0 {
 		keys := make([]string, 0, len(c.Uses))
 		for k := range c.Uses {

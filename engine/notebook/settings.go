@@ -83,7 +83,7 @@ type SourcesSettings struct {
 
 // ApportionmentSettings choose the model.
 type ApportionmentSettings struct {
-	Model         string   `json:"model"`                 // the apportionment model
+	Model         string   `json:"model"`                 // the apportionment model: "inverse", "catchment" or "forward"
 	Tracers       []string `json:"tracers"`               // ratios to Na fitted by the inverse model, e.g. "Ca/Na"
 	Draws         int      `json:"draws"`                 // prior draws of the first stage (the forward model: draws per sample)
 	TargetESS     int      `json:"target_ess"`            // effective sample size at which a sample's refinement stops
@@ -281,8 +281,8 @@ func (s *ApportionmentSettings) Validate() error {
 	if err != nil {
 		return err
 	}
-	if s.Model == "inverse" && len(s.Tracers) == 0 {
-		return settingErr("tracers", "the inverse model needs at least one tracer")
+	if s.Model != "forward" && len(s.Tracers) == 0 {
+		return settingErr("tracers", "the %s model needs at least one tracer", s.Model)
 	}
 	return nil
 }

@@ -40,6 +40,7 @@ type Truth struct {
 	NO3              float64 // µmol/L
 	SiPerNa          float64 // SiO2 per silicate Na
 	Slope            float64 // log C − log Q slope of the rock-derived solutes (dilution < 0)
+	CarbSlope        float64 // the carbonate's own slope, when not 0 (carbonate from deeper flow paths dilutes faster)
 	Noise            float64 // relative analytical noise (1σ)
 	// Water, when set, gives each sample a temperature and a pH (from its
 	// alkalinity and an invented pCO2); nil leaves both unmeasured.
@@ -113,7 +114,11 @@ func (t *Truth) Samples(q []float64) []Sample {
 		c := chem.NewComposition()
 		cl := t.Cl * math.Pow(f, -0.1)
 		naSil := t.NaSil * dil
-		ca, mg := t.CaCarb*dil, t.MgCarb*dil
+		dilCarb := dil
+		if t.CarbSlope != 0 {
+			dilCarb = math.Pow(f, t.CarbSlope)
+		}
+		ca, mg := t.CaCarb*dilCarb, t.MgCarb*dilCarb
 		c[chem.Cl] = cl
 		c[chem.Na] = cl*seaPerCl[chem.Na] + naSil
 		if t.CaNaCarb > 0 {

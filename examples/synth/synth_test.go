@@ -17,7 +17,8 @@ func TestExamplesRecoverTruth(t *testing.T) {
 	for _, c := range []struct {
 		file  string
 		truth *Truth
-	}{{"../corrie-vale/corrie-vale.lixiv.json", CorrieVale()}, {"../marlow-fen/marlow-fen.lixiv.json", MarlowFen()}} {
+	}{{"../corrie-vale/corrie-vale.lixiv.json", CorrieVale()}, {"../marlow-fen/marlow-fen.lixiv.json", MarlowFen()},
+		{"../scarrow-ghyll/scarrow-ghyll.lixiv.json", ScarrowGhyll()}} {
 		t.Run(c.truth.Name, func(t *testing.T) {
 			want := c.truth.TrueSilicateCO2(c.truth.Discharge())
 			f, err := os.Open(c.file)

@@ -73,7 +73,13 @@ func runOne(ctx context.Context, path, outDir string) outcome {
 		o.doubtful = true
 	}
 	r := d.Report()
-	if p, ok := r.CO2["silicate"]; ok {
+	if c := r.Comparison; c != nil { // a budget of sections: its comparison's headline
+		if q, ok := c.Differences["silicate CO2"]; ok {
+			m := q.PerKm2
+			f := notebook.Figure{Unit: "mol/km²/yr", Median: float64(m.Median), Low: float64(m.Low), High: float64(m.High)}
+			parts = append(parts, c.Formula+" in silicate CO2 "+fmtRange(f, "no difference could be formed"))
+		}
+	} else if p, ok := r.CO2["silicate"]; ok {
 		m := p.Mean.MolPerKm2PerY
 		f := notebook.Figure{Unit: "mol/km²/yr", Median: float64(m.Median), Low: float64(m.Low), High: float64(m.High)}
 		parts = append(parts, "silicate CO2 "+fmtRange(f, "no sample could be apportioned"))

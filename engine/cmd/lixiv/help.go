@@ -28,7 +28,9 @@ Usage:
   lixiv serve [-addr A] [-dir D]       serve the notebook page
   lixiv help                           this text
 
-Budget files end in .lixiv.json. Exit status: 0 ok; 1 error, or a budget with cells that did not
+Budget files end in .lixiv.json. A budget may hold several catchments (or periods) in sections and
+compare them in a comparison cell: rerun prints each section under its name, and the JSON report
+adds "sections" and "comparison". Exit status: 0 ok; 1 error, or a budget with cells that did not
 compute (rerun, quick and batch still print it); 2 usage; 3 results differ; 4 doubtful results
 (every cell computed, but some rest on failed fits or unbracketed flow; the summary says why).
 A figure without a value is printed as "no value" with the reason.

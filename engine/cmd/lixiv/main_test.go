@@ -61,6 +61,7 @@ const (
 	small  = "../../../testdata/budgets/small-forward.lixiv.json"
 	rain   = "../../../testdata/budgets/small-rain.lixiv.json"
 	grey   = "../../../examples/greyhope-beck/greyhope-beck.lixiv.json"
+	paired = "../../../examples/lintmoor-whinlaw/lintmoor-whinlaw.lixiv.json"
 )
 
 func TestCommands(t *testing.T) {
@@ -76,7 +77,8 @@ func TestCommands(t *testing.T) {
 		{"rerun-small", []string{"rerun", small}, 0, ""},
 		{"rerun-json", []string{"rerun", "-json", rain}, 0, ""},
 		{"rerun-water", []string{"rerun", grey}, 0, ""},
-		{"check-examples", []string{"check", corrie, marlow, small, rain}, 0, ""},
+		{"rerun-paired", []string{"rerun", paired}, 0, ""},
+		{"check-examples", []string{"check", corrie, marlow, small, rain, paired}, 0, ""},
 		{"check-missing", []string{"check", "testdata/no-such.lixiv.json"}, 1, "no such file"},
 		{"check-none", []string{"check"}, 2, "name at least one"},
 		{"quick", []string{"quick", "-samples", "testdata/quick-samples.csv", "-discharge", "testdata/quick-discharge.csv", "-area", "12.1"}, 0, ""},
@@ -164,6 +166,23 @@ func TestRerunReportsWaterCells(t *testing.T) {
 	}
 	for _, s := range []string{`"carbonate_system": {`, `"activity_model": "davies"`, `"si_calcite":`, `"left_out": [`,
 		`"mineral_balance": {`, `"reaction": "`, `"co2_mol_per_km2_per_yr": {`, `"residuals_umol_per_litre": {`} {
+		if !bytes.Contains(out, []byte(s)) {
+			t.Errorf("report lacks %s", s)
+		}
+	}
+}
+
+// TestRerunReportsComparison: the JSON report of a budget with sections
+// gives each section's budget and its comparison (notebook.SectionReport,
+// notebook.ComparisonReport; SCHEMA.md).
+func TestRerunReportsComparison(t *testing.T) {
+	out, code, err := runStatus([]string{"rerun", "-json", paired})
+	if code != 0 {
+		t.Fatalf("exit %d: %v", code, err)
+	}
+	for _, s := range []string{`"sections": [`, `"section": "Lintmoor Beck, after spreading"`, `"comparison": {`,
+		`"design": "before-after-control-impact"`, `"apportionment_draws": "once per replicate for every budget`,
+		`"silicate CO2": {`, `"p_above_zero":`, `"monitoring_design": [`, `"t_co2_per_t": 0.352`, `"cautions": [`} {
 		if !bytes.Contains(out, []byte(s)) {
 			t.Errorf("report lacks %s", s)
 		}

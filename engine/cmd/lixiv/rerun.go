@@ -131,7 +131,16 @@ func noValueReason(d *notebook.Document, c *notebook.Cell) string {
 // summary prints each cell's state, headline figures and warnings.
 func summary(w io.Writer, path string, d *notebook.Document) {
 	fmt.Fprintf(w, "%s: %s\n", filepath.Base(path), d.Title)
+	section := "\x00"
 	for _, c := range d.Cells {
+		if d.HasSections() && c.Section != section {
+			section = c.Section
+			if section == "" {
+				fmt.Fprintln(w, "  shared by every section:")
+			} else {
+				fmt.Fprintf(w, "  section %q:\n", section)
+			}
+		}
 		st, err := d.Status(c.ID)
 		line := fmt.Sprintf("  %s (%s): %s", c.ID, c.Kind, st)
 		if err != nil && st != notebook.Doubtful {

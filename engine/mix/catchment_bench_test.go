@@ -1,0 +1,46 @@
+package mix
+
+import (
+	"context"
+	"testing"
+)
+
+// benchmarkCatchment runs the catchment-wide model on a synthetic
+// catchment of n samples mixed from k sources, on one goroutine (as the
+// page's worker does), and reports the chains' outcome: kept steps per
+// chain, the largest split R-hat and the smallest ESS of the shared ratios
+// (the goal: R-hat below 1.01 and ESS of at least 400 for every
+// shared ratio).
+func benchmarkCatchment(b *testing.B, n, k int) {
+	sc := makeCatchment(n, k, 7)
+	var c *Catchment
+	for b.Loop() {
+		res, err := InvertCatchment(context.Background(), sc.prob, &Options{Seed: 1, Workers: 1}, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		c = res.Catchment
+	}
+	if c.Fallback != "" {
+		b.Fatal(c.Fallback)
+	}
+	b.ReportMetric(float64(c.Steps), "steps/chain")
+	b.ReportMetric(c.MaxRHat, "max-R-hat")
+	b.ReportMetric(c.MinESS, "min-ESS")
+	conv := 0.0
+	if c.Converged {
+		conv = 1
+	}
+	b.ReportMetric(conv, "converged")
+}
+
+// BenchmarkCatchment100x4 is the goal of the catchment-wide model: 100
+// samples and four end-members (two silicates, carbonate, evaporite).
+func BenchmarkCatchment100x4(b *testing.B) { benchmarkCatchment(b, 100, 4) }
+
+// BenchmarkCatchment100x3 is 100 samples of silicate, carbonate and
+// evaporite.
+func BenchmarkCatchment100x3(b *testing.B) { benchmarkCatchment(b, 100, 3) }
+
+// BenchmarkCatchment100x2 is 100 samples of silicate and carbonate.
+func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2) }

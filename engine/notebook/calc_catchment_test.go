@@ -1,0 +1,75 @@
+package notebook
+
+import (
+	"context"
+	"strings"
+	"testing"
+
+	"lixiv/engine/flux"
+)
+
+// TestCatchmentModelInTheBudget runs the demo budget under the
+// catchment-wide model: the apportionment hands on joint draws (the same
+// number for every sample with draws), the fluxes cell takes them one draw
+// number per replicate, the shared ratios come as a table with prior and
+// posterior side by side and as marks on the mixing diagrams, and the
+// counting check (or the fall back) is named among the warnings.
+func TestCatchmentModelInTheBudget(t *testing.T) {
+	d, err := loadFile("../../examples/corrie-vale/corrie-vale.lixiv.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.SetParam("apportionment", "model", "catchment"); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.SetParam("apportionment", "tracers", "Ca/Na, Mg/Na, HCO3/Na"); err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Recompute(context.Background(), nil); err != nil {
+		t.Fatal(err)
+	}
+	out := d.Output("apportionment")
+	a := out.Value.(*Apportioned)
+	named := func(prefix string) bool {
+		for _, w := range out.Warnings {
+			if strings.HasPrefix(w, prefix) {
+				return true
+			}
+		}
+		return false
+	}
+	if !named("catchment-wide model: ") {
+		t.Fatalf("the counting check is not named among the warnings: %q", out.Warnings)
+	}
+	if a.Catchment == nil {
+		t.Fatalf("fell back to the per-sample model (%q): the demo's samples should identify the shared ratios", out.Warnings)
+	}
+	if !a.Joint || a.Model != "catchment" {
+		t.Fatalf("Joint %v, model %q", a.Joint, a.Model)
+	}
+	nd := -1
+	for i := range a.Names {
+		if !a.Usable(i) {
+			continue
+		}
+		if nd >= 0 && a.Kept(i) != nd {
+			t.Fatalf("sample %d has %d joint draws, others %d", i, a.Kept(i), nd)
+		}
+		nd = a.Kept(i)
+	}
+	tab := out.Table("shared")
+	if tab == nil || len(tab.Columns[0].Text) != len(a.Catchment.Ratios)+len(a.Catchment.Scatter) {
+		t.Fatal("no table of the shared ratios")
+	}
+	if len(a.Diagram.Shared) != len(a.Catchment.Ratios) {
+		t.Fatalf("%d shared marks for %d ratios", len(a.Diagram.Shared), len(a.Catchment.Ratios))
+	}
+	doubt := strings.Join(out.Doubtful, "; ")
+	if a.Catchment.Converged == strings.Contains(doubt, "have not converged") {
+		t.Fatalf("converged %v, doubtful %q", a.Catchment.Converged, doubt)
+	}
+	fv := d.Output("fluxes").Value.(*Fluxes)
+	if fv.Bootstrap.Draws != flux.JointDraw {
+		t.Fatal("the fluxes cell does not take the joint draws together")
+	}
+}
