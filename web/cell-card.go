@@ -173,7 +173,7 @@ func (c *CellCard) FillResult(el js.Value, ti int) {
 			}
 		}
 	}
-	mountHTML(el, d.key(), func() string { return ResultHTML(c.V.ID, t, cols, c.ResultRows(ti)) })
+	mountHTML(el, d.key(), func() string { return ResultHTML(c.V.ID, notebook.Kind(c.V.Kind), t, cols, c.ResultRows(ti)) })
 }
 
 // FillTable mounts the input table into its element and takes its edits.
@@ -359,19 +359,11 @@ func ResultCSV(t *notebook.ResultTable) string {
 }
 
 // FoldMark is the fold button's sign.
-func (c *CellCard) FoldMark() string {
-	if c.V.Collapsed {
-		return "▸"
-	}
-	return "▾"
-}
+func (c *CellCard) FoldMark() string { return pick(c.V.Collapsed, "▸", "▾") }
 
 // FoldTitle is the fold button's tooltip.
 func (c *CellCard) FoldTitle() string {
-	if c.V.Collapsed {
-		return "Unfold this cell"
-	}
-	return "Fold this cell"
+	return pick(c.V.Collapsed, "Unfold this cell", "Fold this cell")
 }
 
 // TableLine sums up the input table.
@@ -474,36 +466,18 @@ func (c *CellCard) UnusedTableHint() string {
 }
 
 // CellClass marks a table cell that a problem names.
-func (c *CellCard) CellClass(row, col int) string {
-	if c.V.bad[[2]int{row, col}] {
-		return "bad"
-	}
-	return ""
-}
+func (c *CellCard) CellClass(row, col int) string { return pick(c.V.bad[[2]int{row, col}], "bad", "") }
 
 // HeadClass marks a column whose header (or unit) a problem names.
 func (c *CellCard) HeadClass(col int) string {
-	if c.V.bad[[2]int{-1, col}] {
-		return "colname bad"
-	}
-	return "colname"
+	return pick(c.V.bad[[2]int{-1, col}], "colname bad", "colname")
 }
 
 // OutputsClass dims outputs that are from before the last change.
-func (c *CellCard) OutputsClass() string {
-	if c.V.OldOutputs {
-		return "outputs old"
-	}
-	return "outputs"
-}
+func (c *CellCard) OutputsClass() string { return pick(c.V.OldOutputs, "outputs old", "outputs") }
 
 // Expanded is the fold button's aria-expanded value.
-func (c *CellCard) Expanded() string {
-	if c.V.Collapsed {
-		return "false"
-	}
-	return "true"
-}
+func (c *CellCard) Expanded() string { return pick(c.V.Collapsed, "false", "true") }
 
 // NeedHref links what the cell waits for: the field to fill, the paste
 // box of a table, or the cell that lacks it.
@@ -604,4 +578,13 @@ func (c *CellCard) DemoValues() bool {
 		}
 	}
 	return false
+}
+
+// pick returns yes when cond holds, else no: the two texts of a
+// template's getter.
+func pick(cond bool, yes, no string) string {
+	if cond {
+		return yes
+	}
+	return no
 }

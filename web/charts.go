@@ -464,9 +464,6 @@ func priorBoxes(t *notebook.ResultTable, xRatio string) []priorBox {
 	return out
 }
 
-// sourceNames are the sources of the apportionment in stacking order.
-var sourceNames = []string{"atmosphere", "evaporite", "silicate", "carbonate"}
-
 // sharesChart stacks each sample's source shares of one cation with their
 // 95 % intervals.
 func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
@@ -483,7 +480,7 @@ func sharesChart(id string, o *notebook.Output, cation string) *plot.Chart {
 	ch.MinStep = 18                             // bars wide enough for their hatching and interval whiskers; the page scrolls the rest
 	ch.Y.Min, ch.Y.Max, ch.Y.Fixed = 0, 1, true // shares
 	var segs []plot.Segment
-	for i, src := range sourceNames {
+	for i, src := range notebook.SourceNames() { // stacked in report order
 		v := t.Column(cation + "_" + src)
 		if v == nil || v.Num == nil {
 			continue
@@ -622,5 +619,9 @@ func lookupRef(d *notebook.Document, ref string) (*notebook.Column, string) {
 		return nil, ref
 	}
 	t := d.Output(parts[0]).Table(parts[1])
-	return t.Column(parts[2]), ColumnName(parts[1], parts[2])
+	kind := notebook.KindBroken
+	if c := d.Cell(parts[0]); c != nil {
+		kind = c.Kind
+	}
+	return t.Column(parts[2]), notebook.ColumnLabel(kind, parts[1], parts[2])
 }

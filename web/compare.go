@@ -14,41 +14,6 @@ import (
 // comparison's charts draw what its output tables hold (the engine
 // computes every number).
 
-func init() {
-	for k, v := range map[string]string{
-		"difference.difference":   "difference",
-		"per-mm.difference":       "difference",
-		"p_above_zero":            "P(difference > 0)",
-		"point":                   "point difference",
-		"treated_before":          "treated before",
-		"control_before":          "control before",
-		"co2_cell":                "co2 cell",
-		"complete_years":          "complete years",
-		"molar_mass":              "molar mass",
-		"per_mm":                  "per mm of runoff",
-		"extra_co2":               "extra CO2 over the treated catchment",
-		"share_of_potential":      "share of the CO2 potential",
-		"cumulative_share":        "share of the CO2 potential so far",
-		"samples_per_year":        "samples a year",
-		"detectable_increase":     "smallest detectable increase",
-		"detectable_yield":        "smallest detectable increase",
-		"null_sd":                 "spread of the null difference",
-		"design.design":           "design",
-		"shared.drawn":            "drawn",
-		"budgets.samples":         "samples",
-		"feedstock.charge":        "cation charge",
-		"feedstock.content":       "content",
-		"difference.Na_silicate":  "Na from silicate",
-		"difference.K_silicate":   "K from silicate",
-		"difference.Ca_silicate":  "Ca from silicate",
-		"difference.Mg_silicate":  "Mg from silicate",
-		"difference.Ca_carbonate": "Ca from carbonate",
-		"difference.Mg_carbonate": "Mg from carbonate",
-	} {
-		columnLabels[k] = v
-	}
-}
-
 // markSections sets the section heading of each cell that starts a run of
 // cells of another section than the cell above it, and marks the shared
 // cells of a budget with sections.
@@ -124,7 +89,7 @@ func differenceChart(id, title, unit string, o *notebook.Output, tableName strin
 	for _, n := range names {
 		for i, x := range q.Text {
 			if x == n {
-				cats = append(cats, ColumnName(tableName, x))
+				cats = append(cats, notebook.ColumnLabel(notebook.KindCompare, tableName, x))
 				m, l, h = append(m, med.Num[i]), append(l, at(lo, i)), append(h, at(hi, i))
 			}
 		}

@@ -191,11 +191,10 @@ func (c *Root) shownTable(cell, file, verb string) {
 // new budget's cells with the file in its cell, as one step of undo.
 func (c *Root) ChooseNew() {
 	defer c.guard()
-	p := c.Pending
+	p := c.takePending()
 	if p == nil {
 		return
 	}
-	c.Pending = nil
 	doc := notebook.NewBudget("Untitled budget")
 	target := firstOf(doc, p.Kind)
 	if err := doc.SetTable(target, p.Table); err != nil {
@@ -221,17 +220,24 @@ func firstOf(d *notebook.Document, k notebook.Kind) string {
 // page does not ask again for this budget.
 func (c *Root) ChooseDemo() {
 	defer c.guard()
-	p := c.Pending
+	p := c.takePending()
 	if p == nil {
 		return
 	}
-	c.Pending = nil
 	c.loadTable(p.Name, p.Table, p.Kind, p.Verb)
 	c.S.Origin.Mixed = true // after the edit: undo returns to the demo as it was, which asks again
 }
 
 // ChooseCancel drops the file waiting for a choice.
 func (c *Root) ChooseCancel() { c.Pending = nil }
+
+// takePending returns the file waiting for a choice (nil when none) and
+// clears it.
+func (c *Root) takePending() *PendingFile {
+	p := c.Pending
+	c.Pending = nil
+	return p
+}
 
 // ChoiceKind names the cell that takes the file waiting for a choice.
 func (c *Root) ChoiceKind() string { return strings.ToLower(KindLabel(c.Pending.Kind)) }

@@ -79,16 +79,17 @@ func htmlKey(text string) string {
 func esc(s string) string { return html.EscapeString(s) }
 
 // ResultHTML writes an output table as the HTML of
-// <table class="out" id="out-<cell>-<table>">, with one header row and the
-// given rows, every text escaped.
-func ResultHTML(cell string, t *notebook.ResultTable, cols []*notebook.Column, rows [][]string) string {
+// <table class="out" id="out-<cell>-<table>">, with one header row (the
+// labels of the columns of a cell of kind) and the given rows, every text
+// escaped.
+func ResultHTML(cell string, kind notebook.Kind, t *notebook.ResultTable, cols []*notebook.Column, rows [][]string) string {
 	var b strings.Builder
 	b.WriteString(`<table class="out" id="`)
 	b.WriteString(esc("out-" + cell + "-" + t.Name))
 	b.WriteString(`"><thead><tr>`)
 	for _, col := range cols {
 		b.WriteString("<th>")
-		b.WriteString(esc(ColumnLabel(t.Name, col)))
+		b.WriteString(esc(ColumnLabel(kind, t.Name, col)))
 		b.WriteString("</th>")
 	}
 	b.WriteString("</tr></thead><tbody>")

@@ -16,7 +16,7 @@ func TestResultHTML(t *testing.T) {
 	name := &notebook.Column{Name: "sample", Text: []string{`<b>CV-1</b>`, "CV-2 & 3"}}
 	na := &notebook.Column{Name: "Na", Unit: "µmol/L", Num: []float64{210, 195}}
 	tab := &notebook.ResultTable{Name: "samples", Columns: []*notebook.Column{name, na}}
-	got := ResultHTML("samples", tab, tab.Columns, [][]string{{`<b>CV-1</b>`, "210"}, {"CV-2 & 3", "195"}})
+	got := ResultHTML("samples", notebook.KindSamples, tab, tab.Columns, [][]string{{`<b>CV-1</b>`, "210"}, {"CV-2 & 3", "195"}})
 	tests := []struct{ name, want string }{
 		{"table", `<table class="out" id="out-samples-samples"><thead><tr>`},
 		{"headings", `<th>sample</th><th>Na (µmol/L)</th>`},

@@ -7,80 +7,15 @@ import (
 	"lixiv/engine/notebook"
 )
 
-// The page labels what the engine names: output columns ("Na_atm_share")
-// and chart references ("co2.per-litre.silicate"). The labels live here,
-// keyed by the engine's name; a name without a label is shown as it is.
-// Settings are labelled by the engine (notebook.SettingLabel), which names
-// them so in its messages too. Files written by the page (CSV, SVG) keep
-// the engine's names.
+// The page shows what the engine names by the engine's labels: settings by
+// notebook.SettingLabel, output columns by notebook.ColumnLabel (from the
+// kind's descriptor). Files written by the page (CSV, SVG) keep the
+// engine's names.
 
-// columnLabels labels output columns, by "table.column" first, then by
-// the column name alone.
-var columnLabels = map[string]string{
-	"per-litre.silicate":   "silicate CO2 consumption",
-	"per-litre.carbonate":  "carbonate CO2 consumption",
-	"years.consumption":    "CO2 consumption",
-	"years.per_km2":        "CO2 consumption per km²",
-	"years.days with data": "share of days with data",
-	"Cl_atm":               "atmospheric Cl",
-	"Na_atm":               "atmospheric Na",
-	"K_atm":                "atmospheric K",
-	"Ca_atm":               "atmospheric Ca",
-	"Mg_atm":               "atmospheric Mg",
-	"SO4_atm":              "atmospheric SO4",
-	"Cl_excess":            "Cl above the rain input",
-	"Na_atm_share":         "atmospheric share of Na",
-	"SO4_sulfide":          "SO4 from sulfide",
-	"shares.ESS":           "effective sample size",
-	"mass_flux":            "mass flux",
-	"mass_yield":           "mass yield",
-	"bias_factor":          "bias factor",
-	"R2":                   "R²",
-	"s":                    "s (residual)",
-	"relative_width":       "interval width ÷ median",
-}
-
-// sourceWords name the sources in column names such as "Na_silicate".
-var sourceWords = map[string]string{
-	"atmosphere": "from the atmosphere", "evaporite": "from evaporite",
-	"silicate": "from silicate", "carbonate": "from carbonate",
-}
-
-// boundWords name the interval bounds of "_low" and "_high" columns.
-var boundWords = []struct{ suffix, words string }{{"_low", ", 2.5 %"}, {"_high", ", 97.5 %"}}
-
-// ColumnName labels output column name of table (without its unit).
-func ColumnName(table, name string) string {
-	for _, b := range boundWords {
-		if base := strings.TrimSuffix(name, b.suffix); base != name && base != "" {
-			return ColumnName(table, base) + b.words
-		}
-	}
-	if l, ok := columnLabels[table+"."+name]; ok {
-		return l
-	}
-	if l, ok := columnLabels[name]; ok {
-		return l
-	}
-	if i := strings.IndexByte(name, '_'); i > 0 {
-		if w, ok := sourceWords[name[i+1:]]; ok {
-			return name[:i] + " " + w
-		}
-	}
-	if name == "per_km2" {
-		return "per km²"
-	}
-	return name
-}
-
-// ColumnLabel labels an output column of table with its unit:
-// "atmospheric share of Na (fraction)".
-func ColumnLabel(table string, col *notebook.Column) string {
-	l := ColumnName(table, col.Name)
-	if col.Unit != "" {
-		l += " (" + col.Unit + ")"
-	}
-	return l
+// ColumnLabel labels an output column of table, of a cell of kind k, with
+// its unit: "atmospheric share of Na (fraction)".
+func ColumnLabel(k notebook.Kind, table string, col *notebook.Column) string {
+	return notebook.ColumnUnitLabel(k, table, col)
 }
 
 // RefLabel labels a chart reference "cell.table.column" with the title of
@@ -99,7 +34,7 @@ func RefLabel(d *notebook.Document, ref string) string {
 	if title == "" {
 		title = KindLabel(c.Kind)
 	}
-	return title + ": " + ColumnLabel(parts[1], col)
+	return title + ": " + ColumnLabel(c.Kind, parts[1], col)
 }
 
 // months are the short names of the months, January first.

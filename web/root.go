@@ -22,35 +22,52 @@ type Root struct {
 
 	Cells    []CellView
 	Headline []FigureView
-	Verify   string // whether stored results match the rerun
 	Seeds    string
 	Loading  string // what the page is loading, "" when idle
 	AddKind  string // kind chosen in the "add a cell" list
+	startMsg string // a problem met before the budget opened
+	keys     js.Func
+
+	incoming     // files opened, dropped or pasted
+	saving       // the saved state
+	verification // the stored results against the rerun
+	rendering    // what one render leaves for the next
+	charts       ChartCache
+	runner       // the recompute in progress
+}
+
+// incoming is what the page holds of the files opened, dropped or pasted.
+type incoming struct {
 	Dragging bool
+	Pending  *PendingFile // a table opened over the demo, waiting for the user's choice
+	Banner   *Banner      // the import report of the last open, drop or paste
+	BannerV  *BannerView  // what it shows
+}
 
-	Pending *PendingFile // a table opened over the demo, waiting for the user's choice
-	Banner  *Banner      // the import report of the last open, drop or paste
-	BannerV *BannerView  // what it shows
+// saving is the budget's saved state: in browser storage and downloaded.
+type saving struct {
+	SavedText   string // the visible saved state
+	SavedOK     bool
+	Unsaved     bool // changed since the last download
+	savePending bool // an edit waits to be saved to browser storage
+}
 
-	SavedText string // the visible saved state
-	SavedOK   bool
-	Unsaved   bool // changed since the last download
-
-	charts ChartCache
-	runner // the recompute in progress
-
+// verification compares the stored results of a budget with the rerun,
+// for the footer.
+type verification struct {
+	Verify     string             // whether stored results match the rerun
 	verifyGen  int                // recompute the cached verification belongs to
 	verifyDoc  *notebook.Document // and its document
 	verifyText string
+}
 
-	buildStart  float64 // when the render now running began (ms)
-	savePending bool    // an edit waits to be saved to browser storage
-	docTitle    string  // the browser tab's title as last set
-	startMsg    string  // a problem met before the budget opened
-	focusAfter  string  // a field to give the focus once the page has rendered
-	ready       bool
-	keys        js.Func
-	rows        map[string]int // rows shown per input table
+// rendering is what one render of the page leaves for the next.
+type rendering struct {
+	buildStart float64        // when the render now running began (ms)
+	docTitle   string         // the browser tab's title as last set
+	focusAfter string         // a field to give the focus once the page has rendered
+	ready      bool           // the first budget has rendered
+	rows       map[string]int // rows shown per input table
 }
 
 // Init loads the last autosaved budget, or the demo on a first visit.

@@ -8,39 +8,10 @@ import (
 	"lixiv/web/plot"
 )
 
-// The carbonate and minerals cells on the page: their labels, the choices
-// of their settings and their charts, which draw what the cells' output
-// tables hold (the engine computes every number and labels the settings,
-// notebook.SettingLabel).
-
-func init() {
-	for k, v := range map[string]string{
-		"carbonate.ionic_strength":  "ionic strength",
-		"carbonate.H2CO3":           "H2CO3*",
-		"carbonate.pCO2_excess":     "pCO2 over the air's",
-		"carbonate.SI_calcite":      "SI of calcite",
-		"carbonate.SI_aragonite":    "SI of aragonite",
-		"carbonate.SI_dolomite":     "SI of dolomite",
-		"CO2_per_mol":               "CO2 per mole",
-		"CO2_consumed":              "CO2 consumed",
-		"period.flux_weighted_mean": "flux-weighted mean",
-		"period.yield":              "yield",
-		"catalogue.usual_role":      "usual role",
-		"minerals.role":             "role",
-		"minerals.reaction":         "balanced reaction with carbonic acid",
-		"amounts.fit":               "fit",
-		"residuals.HCO3":            "HCO3 left",
-		"residuals.SiO2":            "SiO2 left",
-		"residuals.Na":              "Na left",
-		"residuals.K":               "K left",
-		"residuals.Ca":              "Ca left",
-		"residuals.Mg":              "Mg left",
-		"residuals.Cl":              "Cl left",
-		"residuals.SO4":             "SO4 left",
-	} {
-		columnLabels[k] = v
-	}
-}
+// The carbonate and minerals cells on the page: their charts, which draw
+// what the cells' output tables hold (the engine computes every number and
+// labels the settings and columns, notebook.SettingLabel and
+// notebook.ColumnLabel).
 
 // numSetting reads a numeric setting of a cell (NaN when it has none).
 func numSetting(c *notebook.Cell, key string) float64 {

@@ -78,11 +78,14 @@ func TestWaterLabels(t *testing.T) {
 			t.Errorf("%s: %q", key, got)
 		}
 	}
-	for _, c := range []struct{ table, col, want string }{
-		{"carbonate", "SI_calcite", "SI of calcite"}, {"period", "CO2_consumed_low", "CO2 consumed, 2.5 %"},
-		{"residuals", "SiO2", "SiO2 left"}, {"carbonate", "H2CO3", "H2CO3*"},
+	for _, c := range []struct {
+		kind             notebook.Kind
+		table, col, want string
+	}{
+		{notebook.KindCarbonate, "carbonate", "SI_calcite", "SI of calcite"}, {notebook.KindMinerals, "period", "CO2_consumed_low", "CO2 consumed, 2.5 %"},
+		{notebook.KindMinerals, "residuals", "SiO2", "SiO2 left"}, {notebook.KindCarbonate, "carbonate", "H2CO3", "H2CO3*"},
 	} {
-		if got := ColumnName(c.table, c.col); got != c.want {
+		if got := notebook.ColumnLabel(c.kind, c.table, c.col); got != c.want {
 			t.Errorf("%s.%s: %q, want %q", c.table, c.col, got, c.want)
 		}
 	}

@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"lixiv/engine/internal/dateorder"
+	"lixiv/engine/internal/enum"
 )
 
 // DateOrder settles dates written with the year last, such as 03/04/2021.
@@ -23,12 +24,7 @@ const (
 var orderNames = [...]string{"auto", "day-first", "month-first"}
 
 // String names the order.
-func (o DateOrder) String() string {
-	if o < 0 || int(o) >= len(orderNames) {
-		return "?"
-	}
-	return orderNames[o]
-}
+func (o DateOrder) String() string { return enum.Name(o, orderNames[:], "?") }
 
 // stamp is a parsed date cell before the order of a year-last date is known.
 type stamp struct {

@@ -13,7 +13,10 @@
 // # Pipeline
 //
 //  1. Read detects the UTF-8 byte-order mark, the delimiter (tab, semicolon or
-//     comma) and a decimal comma, finds the date, time, discharge and unit
+//     comma, judged as the sample importer judges it by engine/internal/
+//     delimiter, never a comma when Options.Decimal sets a decimal comma;
+//     spaces when none of them splits the lines) and a decimal comma, finds
+//     the date, time, discharge and unit
 //     columns from the header (or takes date, discharge for a table with no
 //     header), and settles the date order (ISO, day-first or month-first)
 //     over the whole column. An order the column cannot settle is reported,

@@ -12,6 +12,7 @@ import (
 	"strings"
 
 	"lixiv/engine/internal/dateorder"
+	"lixiv/engine/internal/delimiter"
 	"lixiv/engine/problem"
 )
 
@@ -621,7 +622,7 @@ func blankRow(row []string) bool {
 func splitRows(data []byte, opt Options, imp *Import, add func(int, int, string, error, string, ...any)) ([][]string, []int) {
 	delim := opt.Delimiter
 	if delim == 0 {
-		delim = detectDelimiter(data)
+		delim = detectDelimiter(data, opt.Decimal)
 	}
 	imp.Delimiter = delim
 	var rows [][]string
@@ -673,36 +674,35 @@ func splitRows(data []byte, opt Options, imp *Import, add func(int, int, string,
 	return rows, lines
 }
 
-func detectDelimiter(data []byte) rune {
-	n := 0
-	var tabs, semis, commas int
-	head := data
-	for i, k := 0, 0; i < len(data); i++ {
-		if data[i] == '\n' {
-			if k++; k == 50 {
-				head = data[:i]
-				break
-			}
+// detectDelimiter returns the delimiter of data's first lines
+// (engine/internal/delimiter), a space when none of tab, semicolon and
+// comma splits them; a decimal comma set in the options rules out the
+// comma.
+func detectDelimiter(data []byte, dec DecimalMark) rune {
+	var lines [][]byte
+	for rest := data; len(lines) < headLines && len(rest) > 0; {
+		ln := rest
+		if i := bytes.IndexByte(rest, '\n'); i >= 0 {
+			ln, rest = rest[:i], rest[i+1:]
+		} else {
+			rest = nil
+		}
+		if ln = bytes.TrimSuffix(ln, []byte{'\r'}); len(bytes.TrimSpace(ln)) > 0 {
+			lines = append(lines, ln)
 		}
 	}
-	for _, ln := range strings.Split(string(head), "\n") {
-		if strings.TrimSpace(ln) == "" {
-			continue
-		}
-		tabs += strings.Count(ln, "\t")
-		semis += strings.Count(ln, ";")
-		commas += strings.Count(ln, ",")
-		if n++; n == 10 {
-			break
-		}
+	mark := delimiter.AnyMark
+	switch dec {
+	case DecimalComma:
+		mark = delimiter.CommaMark
+	case DecimalPoint:
+		mark = delimiter.PointMark
 	}
-	switch {
-	case tabs > 0:
-		return '\t'
-	case semis > 0:
-		return ';'
-	case commas > 0:
-		return ','
+	if d, ok := delimiter.Detect(lines, mark); ok {
+		return rune(d)
 	}
 	return ' '
 }
+
+// headLines is how many non-blank lines the delimiter is judged on.
+const headLines = 50

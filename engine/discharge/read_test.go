@@ -30,6 +30,9 @@ func TestReadForms(t *testing.T) {
 		{"sub-daily averaged", "Date,Time,Q (m3/s)\n2021-01-01,00:00,1\n2021-01-01,12:00,3\n2021-01-02,00:00,4\n2021-01-02,12:00,6\n", Options{}, Date(2021, 1, 1), []float64{2, 5}, ',', false, "2 readings per day"},
 		{"sub-daily iso timestamps", "Timestamp,Q (m3/s)\n2021-01-01T00:00,1\n2021-01-01T06:00,2\n2021-01-01T12:00,3\n2021-01-02T00:00:00Z,4\n", Options{}, Date(2021, 1, 1), []float64{2, 4}, ',', false, "1 to 3 readings per day (fewest on 2021-01-02)"},
 		{"month names", "Date,Q (m3/s)\n30-Sep-2021,1\n1-Oct-2021,2\n", Options{}, Date(2021, 9, 30), []float64{1, 2}, ',', false, ""},
+		{"semicolon, decimal comma, no header", "2021-01-01;1,5\n2021-01-02;2,25\n", Options{Unit: M3PerS}, Date(2021, 1, 1), []float64{1.5, 2.25}, ';', true, "semicolons"},
+		{"semicolon, decimal comma set", "2021-01-01;1,5\n2021-01-02;2,25\n", Options{Unit: M3PerS, Decimal: DecimalComma}, Date(2021, 1, 1), []float64{1.5, 2.25}, ';', true, "semicolons"},
+		{"spaces, decimal comma set", "2021-01-01 1,5\n2021-01-02 2,25\n", Options{Unit: M3PerS, Decimal: DecimalComma}, Date(2021, 1, 1), []float64{1.5, 2.25}, ' ', true, "spaces"},
 		{"space separated", "2021-01-01 1\n2021-01-02 2\n", Options{Unit: M3PerS}, Date(2021, 1, 1), []float64{1, 2}, ' ', false, "spaces"},
 		{"unit column", "Date,Q,Unit\n2021-01-01,1,m3/s\n2021-01-02,2,m3/s\n", Options{}, Date(2021, 1, 1), []float64{1, 2}, ',', false, ""},
 	}

@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"lixiv/engine/discharge"
+	"lixiv/engine/internal/enum"
 	"lixiv/engine/internal/quantile"
 )
 
@@ -42,12 +43,7 @@ const (
 var methodNames = [NMethods]string{"discharge-weighted", "flow-adjusted interpolation", "rating curve", "Beale ratio"}
 
 // String names the method.
-func (m Method) String() string {
-	if m < 0 || m >= NMethods {
-		return "?"
-	}
-	return methodNames[m]
-}
+func (m Method) String() string { return enum.Name(m, methodNames[:], "?") }
 
 // Options control Estimate and Bootstrap. The zero value is the
 // flow-weighted estimator over calendar years with no area (yields NaN).

@@ -1,6 +1,10 @@
 package flux
 
-import "math"
+import (
+	"math"
+
+	"lixiv/engine/internal/enum"
+)
 
 // Bias is the retransformation bias correction of the rating curve. The
 // zero value is Duan's smearing estimator.
@@ -17,12 +21,7 @@ const (
 var biasNames = [...]string{"Duan smearing", "Ferguson exp(s²/2)", "none"}
 
 // String names the correction.
-func (b Bias) String() string {
-	if b < 0 || int(b) >= len(biasNames) {
-		return "?"
-	}
-	return biasNames[b]
-}
+func (b Bias) String() string { return enum.Name(b, biasNames[:], "?") }
 
 // RatingFit is a fitted concentration-discharge rating curve
 //

@@ -3,6 +3,8 @@ package mineral
 import (
 	"math"
 	"strings"
+
+	"lixiv/engine/internal/enum"
 )
 
 // Component is a row of the mass balance: what a water holds (Na, K, Ca,
@@ -27,12 +29,7 @@ const (
 var componentNames = [NComponents]string{"Na", "K", "Ca", "Mg", "Cl", "SO4", "HCO3", "SiO2", "Al"}
 
 // String returns the component's symbol.
-func (c Component) String() string {
-	if c < 0 || c >= NComponents {
-		return "?"
-	}
-	return componentNames[c]
-}
+func (c Component) String() string { return enum.Name(c, componentNames[:], "?") }
 
 // Column is what one mole of a mineral gives the water when it weathers
 // with carbonic acid, by component (mol per mol):

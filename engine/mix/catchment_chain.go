@@ -269,7 +269,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	var dg vec6
 	tot := 0.0
 	for c, f := range [NCations]float64{1, 1, 2, 2} {
-		if v := st.x[c].v; v > 0 {
+		if v := st.x[c].Value; v > 0 {
 			tot += f * v
 		}
 	}

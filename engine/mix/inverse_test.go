@@ -54,7 +54,7 @@ func TestEdgeWaters(t *testing.T) {
 	for s := range 2 {
 		sr := &res.Samples[s]
 		for c, sp := range Cations {
-			meas := res.Samples[s].setup.x[c].v + res.Samples[s].setup.atm[c].v
+			meas := res.Samples[s].setup.x[c].Value + res.Samples[s].setup.atm[c].Value
 			rock := cat(s, Silicate, c) + cat(s, Carbonate, c) + cat(s, Evaporite, c)
 			if rock > 0.01*meas {
 				t.Errorf("%s: rock-derived %s %.4g µmol/L, over 1 %% of %.4g", sr.Name, sp, rock, meas)

@@ -3,6 +3,8 @@ package mix
 import (
 	"fmt"
 	"math"
+
+	"lixiv/engine/internal/enum"
 )
 
 // Dist is the shape of an end-member ratio prior.
@@ -18,12 +20,7 @@ const (
 var distNames = [...]string{"fixed", "log-uniform", "log-normal"}
 
 // String returns the name of the shape.
-func (d Dist) String() string {
-	if d < 0 || int(d) >= len(distNames) {
-		return "unknown"
-	}
-	return distNames[d]
-}
+func (d Dist) String() string { return enum.Name(d, distNames[:], "unknown") }
 
 // z975 is the 97.5 % standard normal quantile (common practice).
 const z975 = 1.959963984540054

@@ -197,21 +197,6 @@ const MaxEndMembers = 6
 // maxRows is the largest number of data rows: Na and one per tracer.
 const maxRows = int(NTracers) + 1
 
-// affine is a datum to first order in a water's error sources (see
-// correct.Affine); g has one entry per source.
-type affine struct {
-	v float64
-	g []float64
-}
-
-func (a *affine) at(z []float64) float64 {
-	v := a.v
-	for i, g := range a.g {
-		v += float64(g * z[i])
-	}
-	return v
-}
-
 // setup is what one water contributes to every draw: its data rows with
 // their error model, whitened, and the amounts the split is made of.
 type setup struct {
@@ -227,18 +212,18 @@ type setup struct {
 	sd     [maxRows]float64          // their marginal 1σ
 	cov    [maxRows][maxRows]float64 // covariance of the rows (lower triangle)
 	linv   [maxRows][maxRows]float64
-	yt     [maxRows]float64  // whitened data L⁻¹ y
-	yy     float64           // |yt|²
-	q      int               // error sources
-	m      []float64         // whitened error gradients L⁻¹ G, r × q
-	x      [NCations]affine  // corrected concentration of each cation (the data)
-	in     [NCations]float64 // measured concentration of each cation, which the split adds up to
-	has    [NCations]bool    // the cation is measured
-	atm    [NCations]affine  // removed by the correction, booked to the atmosphere
-	evap   [NCations]affine  // removed by the correction, booked to evaporite
-	so4    affine            // sulfide-derived sulfate
-	dims   []int             // the run's latent dimensions that are this sample's (end-members taking part)
-	halite bool              // the correction's halite is left in the data
+	yt     [maxRows]float64         // whitened data L⁻¹ y
+	yy     float64                  // |yt|²
+	q      int                      // error sources
+	m      []float64                // whitened error gradients L⁻¹ G, r × q
+	x      [NCations]correct.Affine // corrected concentration of each cation (the data)
+	in     [NCations]float64        // measured concentration of each cation, which the split adds up to
+	has    [NCations]bool           // the cation is measured
+	atm    [NCations]correct.Affine // removed by the correction, booked to the atmosphere
+	evap   [NCations]correct.Affine // removed by the correction, booked to evaporite
+	so4    correct.Affine           // sulfide-derived sulfate
+	dims   []int                    // the run's latent dimensions that are this sample's (end-members taking part)
+	halite bool                     // the correction's halite is left in the data
 
 	warnings []error
 }
@@ -374,17 +359,17 @@ func (r *Run) prepare(w *Water) setup {
 	// evaporite.
 	for c, sp := range Cations {
 		x := data(sp)
-		st.x[c] = affine{x.Value, padded(x.Grad, q)}
+		st.x[c] = correct.Affine{Value: x.Value, Grad: padded(x.Grad, q)}
 		st.in[c] = lin.Input[sp].Value
 		st.has[c] = !math.IsNaN(x.Value)
-		st.atm[c] = affine{lin.Atm[sp].Value, padded(lin.Atm[sp].Grad, q)}
+		st.atm[c] = correct.Affine{Value: lin.Atm[sp].Value, Grad: padded(lin.Atm[sp].Grad, q)}
 		ev := lin.Evap(sp)
 		if st.halite && sp == chem.Na {
 			ev = correct.Affine{}
 		}
-		st.evap[c] = affine{ev.Value, padded(ev.Grad, q)}
+		st.evap[c] = correct.Affine{Value: ev.Value, Grad: padded(ev.Grad, q)}
 	}
-	st.so4 = affine{lin.SO4Sulf.Value, padded(lin.SO4Sulf.Grad, q)}
+	st.so4 = correct.Affine{Value: lin.SO4Sulf.Value, Grad: padded(lin.SO4Sulf.Grad, q)}
 	st.naFree = !(na.Value > 0)
 	if st.r < st.k {
 		st.warnings = append(st.warnings, fmt.Errorf("%w: sample %q has %d data (Na and %d tracers) for %d end-members; the split follows the end-member ranges",

@@ -321,7 +321,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
-	w.rec[o+oFrac+K+int(NSources)*NCations] = max(0, st.so4.at(w.z))
+	w.rec[o+oFrac+K+int(NSources)*NCations] = max(0, st.so4.At(w.z))
 }
 
 // design fills A with the design of st's rows for the ratios th: 1 in the
@@ -358,7 +358,7 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
-		atm, evap := max(0, st.atm[c].at(w.z)), max(0, st.evap[c].at(w.z))
+		atm, evap := max(0, st.atm[c].At(w.z)), max(0, st.evap[c].At(w.z))
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
 		x := max(0, st.in[c]-atm-evap)
 		for src := range NSources {

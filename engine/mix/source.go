@@ -1,6 +1,9 @@
 package mix
 
-import "lixiv/engine/chem"
+import (
+	"lixiv/engine/chem"
+	"lixiv/engine/internal/enum"
+)
 
 // Source is a reservoir that supplies dissolved cations to a river.
 type Source int
@@ -17,12 +20,7 @@ const (
 var sourceNames = [NSources]string{"atmosphere", "evaporite", "silicate", "carbonate"}
 
 // String returns the lower-case English name of the source.
-func (s Source) String() string {
-	if s < 0 || s >= NSources {
-		return "unknown"
-	}
-	return sourceNames[s]
-}
+func (s Source) String() string { return enum.Name(s, sourceNames[:], "unknown") }
 
 // Cations are the apportioned cations, in the order Split indexes them.
 var Cations = [NCations]chem.Species{chem.Na, chem.K, chem.Ca, chem.Mg}

@@ -1,6 +1,10 @@
 package mix
 
-import "errors"
+import (
+	"errors"
+
+	"lixiv/engine/internal/enum"
+)
 
 // Status says how the inversion of a sample, or of a whole run, ended: a
 // small enum backed by a table of names and errors. A sample's full verdict,
@@ -32,12 +36,7 @@ const (
 var stopNames = [...]string{"no draws", "target ESS reached", "stopped at the cap of draws"}
 
 // String names the reason.
-func (s Stop) String() string {
-	if s < 0 || int(s) >= len(stopNames) {
-		return "unknown"
-	}
-	return stopNames[s]
-}
+func (s Stop) String() string { return enum.Name(s, stopNames[:], "unknown") }
 
 // Sentinel errors returned by Status.Err and wrapped by sample warnings.
 var (

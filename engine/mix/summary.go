@@ -126,8 +126,8 @@ func (r *Run) finish(w *sampleWork) {
 		present[r.prob.EndMembers[j].Source] = true
 	}
 	for c := range NCations {
-		present[Atmosphere] = present[Atmosphere] || st.atm[c].v != 0 || st.atm[c].g != nil
-		present[Evaporite] = present[Evaporite] || st.evap[c].v != 0 || st.evap[c].g != nil
+		present[Atmosphere] = present[Atmosphere] || st.atm[c].Value != 0 || st.atm[c].Grad != nil
+		present[Evaporite] = present[Evaporite] || st.evap[c].Value != 0 || st.evap[c].Grad != nil
 	}
 	shr := make([]float64, len(keep))
 	splits := make([]Split, len(keep))
@@ -395,7 +395,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 			break
 		}
 	}
-	sr.Warnings = append(sr.Warnings, fmt.Errorf("%w: sample %q, Na* = %.4g µmol/L", ErrNaFree, sr.Name, st.x[0].v))
+	sr.Warnings = append(sr.Warnings, fmt.Errorf("%w: sample %q, Na* = %.4g µmol/L", ErrNaFree, sr.Name, st.x[0].Value))
 	if carb < 0 {
 		sr.Status = Skipped
 		sr.Verdict = "skipped: Na* ≤ 0 after the corrections and no carbonate end-member to take Ca* and Mg*"
@@ -410,15 +410,15 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 		}
 		var sp Split
 		for c := range NCations {
-			sp[Atmosphere][c] = max(0, st.atm[c].at(w.z))
-			sp[Evaporite][c] = max(0, st.evap[c].at(w.z))
+			sp[Atmosphere][c] = max(0, st.atm[c].At(w.z))
+			sp[Evaporite][c] = max(0, st.evap[c].At(w.z))
 		}
 		// What is left of the measured cation after the draw's atmospheric
 		// and evaporite amounts, as in splitOf.
 		x := func(c int) float64 { return max(0, st.in[c]-sp[Atmosphere][c]-sp[Evaporite][c]) }
 		sp[Carbonate][2], sp[Carbonate][3] = x(2), x(3)
 		sp[Silicate][1] = x(1)
-		sr.draws[k] = kept{split: sp, so4: max(0, st.so4.at(w.z)), w: 1}
+		sr.draws[k] = kept{split: sp, so4: max(0, st.so4.At(w.z)), w: 1}
 	}
 	ones := make([]float64, nd)
 	col, shr := make([]float64, nd), make([]float64, nd)
@@ -444,7 +444,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	}
 	sr.Status, sr.WellSampled = Rule, true
 	sr.ESS, sr.Draws = float64(nd), w.n+nd
-	x := func(c int) float64 { return max(0, st.x[c].v) }
+	x := func(c int) float64 { return max(0, st.x[c].Value) }
 	switch {
 	case x(1) == 0 && x(2) == 0 && x(3) == 0:
 		sr.Verdict = "rain only: no rock-derived cations (Na*, K*, Ca* and Mg* ≤ 0 after the corrections)"

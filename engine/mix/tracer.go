@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/enum"
 )
 
 // Tracer is a quantity the inverse model matches: a molar ratio to Na, or
@@ -30,12 +31,7 @@ var tracerNames = [NTracers]string{"Ca/Na", "Mg/Na", "K/Na", "HCO3/Na", "Cl/Na",
 var tracerSpecies = [NTracers]chem.Species{chem.Ca, chem.Mg, chem.K, chem.HCO3, chem.Cl, chem.Sr, chem.Sr}
 
 // String returns the tracer's name, such as "Ca/Na".
-func (t Tracer) String() string {
-	if t < 0 || t >= NTracers {
-		return "unknown tracer"
-	}
-	return tracerNames[t]
-}
+func (t Tracer) String() string { return enum.Name(t, tracerNames[:], "unknown tracer") }
 
 // Species returns the numerator species of a ratio tracer (Sr for 87Sr/86Sr).
 func (t Tracer) Species() chem.Species { return tracerSpecies[t] }

@@ -310,16 +310,14 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 
 func computeApportionment(e *Env) (*Output, error) {
 	s := *e.Cell.Settings.(*ApportionmentSettings)
-	ai, err := e.Input("atmosphere")
+	atm, err := inputOf[*Atmosphere](e, "atmosphere")
 	if err != nil {
 		return nil, err
 	}
-	si, err := e.Input("sources")
+	ems, err := inputOf[[]mix.EndMember](e, "sources")
 	if err != nil {
 		return nil, err
 	}
-	atm := ai.Value.(*Atmosphere)
-	ems := si.Value.([]mix.EndMember)
 	workers := e.Workers()
 	rough := e.Rough()
 	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true, rough)
@@ -342,13 +340,52 @@ func computeApportionment(e *Env) (*Output, error) {
 // per-sample quantiles Median, Lo and Hi, and the tables): the draws,
 // their weights and each sample's mean split are all fluxes need.
 func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary, rough bool) (*Apportioned, *Output, error) {
+	opt, err := correctOptions(s, atm)
+	if err != nil {
+		return nil, nil, err
+	}
+	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
+	out := &Output{}
+	warn := map[string]int{}
+	precs, err := correctSamples(a, atm, opt, s, out, warn)
+	if err != nil {
+		return nil, nil, err
+	}
+	n := len(a.Index)
+	if n == 0 {
+		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+	}
+	if err := atm.Uncertainty.Check(); err != nil {
+		return nil, nil, err
+	}
+	a.Status, a.Verdict, a.ESS = make([]mix.Status, n), make([]string, n), make([]float64, n)
+	a.doubtfulSample = make([]bool, n)
+	switch s.Model {
+	case "forward":
+		err = apportionForward(ctx, report, a, s, atm, ems, n, warn)
+	case "inverse", "catchment":
+		err = apportionInverse(ctx, workers, report, a, s, atm, ems, precs, n, rough, out, warn)
+	}
+	if err != nil {
+		return nil, nil, err
+	}
+	if err := summariseDraws(ctx, a, n, summary); err != nil {
+		return nil, nil, err
+	}
+	conclude(a, s, n, summary, out, warn)
+	return a, out, nil
+}
+
+// correctOptions are the corrections' options under the settings s:
+// the sulfate origin, with the δ34S end-members, and negative residuals.
+func correctOptions(s *ApportionmentSettings, atm *Atmosphere) (correct.Options, error) {
 	opt := atm.Options
 	switch s.Sulfate {
 	case "sulfide":
 		opt.Sulfate = correct.Sulfide
 	case "isotope":
 		if s.D34SEvaporite == s.D34SSulfide {
-			return nil, nil, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
+			return opt, settingErr("d34s_sulfide_permil", "must differ from the %s", SettingLabel("d34s_evaporite_permil"))
 		}
 		opt.Sulfate = correct.Isotope
 		opt.Delta34S = correct.Delta34S{River: s.D34SRiver, Evaporite: s.D34SEvaporite, Sulfide: s.D34SSulfide}
@@ -356,9 +393,14 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	if s.Negative == "keep" {
 		opt.Negative = correct.Keep
 	}
-	a := &Apportioned{Samples: atm.Samples, Model: s.Model, Draws: s.Draws}
-	out := &Output{}
-	warn := map[string]int{}
+	return opt, nil
+}
+
+// correctSamples corrects each sample the rain cell uses into a, leaving
+// out (with a message in out) those without the Ca the sulfate split
+// needs, counts the corrections' warnings in warn, and returns each kept
+// sample's precision.
+func correctSamples(a *Apportioned, atm *Atmosphere, opt correct.Options, s *ApportionmentSettings, out *Output, warn map[string]int) ([]*correct.Precision, error) {
 	var precs []*correct.Precision
 	for _, i := range atm.Use {
 		sm := atm.Samples.Table.Samples[i]
@@ -376,7 +418,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			continue
 		}
 		if err != nil {
-			return nil, nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
+			return nil, fmt.Errorf("sample %s (line %d): %v", sm.ID, sm.Line, err)
 		}
 		for _, w := range r.Warnings {
 			warn[w.Error()]++
@@ -388,115 +430,121 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 		a.Corrected = append(a.Corrected, r)
 		precs = append(precs, atm.Samples.SamplePrecision(i))
 	}
-	n := len(a.Index)
-	if n == 0 {
-		return nil, out, fmt.Errorf("no sample can be apportioned: %v", out.Messages.Err())
+	return precs, nil
+}
+
+// apportionForward splits each corrected sample of a by the forward
+// model, s.Draws draws each, counting its warnings in warn.
+func apportionForward(ctx context.Context, report func(done, total int), a *Apportioned, s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, n int, warn map[string]int) error {
+	if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
+		return err
 	}
-	if err := atm.Uncertainty.Check(); err != nil {
-		return nil, nil, err
+	if !atm.Uncertainty.Zero() {
+		// The rain ratios (and the ET factor) are drawn with the
+		// silicate ratios, draw by draw.
+		a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
 	}
-	a.Status, a.Verdict, a.ESS = make([]mix.Status, n), make([]string, n), make([]float64, n)
-	a.doubtfulSample = make([]bool, n)
-	switch s.Model {
-	case "forward":
-		if err := checkSampleDraws(s.Model, n, s.Draws); err != nil {
-			return nil, nil, err
-		}
-		if !atm.Uncertainty.Zero() {
-			// The rain ratios (and the ET factor) are drawn with the
-			// silicate ratios, draw by draw.
-			a.scales = mix.RainScales(s.Draws, uint64(s.Seed), atm.Uncertainty, atm.ScaleCl)
-		}
-		fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
-		a.forward = make([][]mix.Split, n)
-		for i := range a.Corrected {
-			if err := ctx.Err(); err != nil {
-				return nil, nil, err
-			}
-			if a.scales != nil {
-				fo.Vary = func(k int) (v correct.Result) {
-					a.Corrected[i].VaryInto(&v, &a.scales[k])
-					return v
-				}
-			}
-			fr, err := mix.Forward(&a.Corrected[i], fo)
-			if err != nil {
-				return nil, nil, fmt.Errorf("sample %s: %v", a.Names[i], err)
-			}
-			for _, w := range fr.Warnings {
-				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
-			}
-			a.forward[i] = fr.Draws
-			a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
-			report(i+1, n)
-		}
-	case "inverse", "catchment":
-		var tracers []mix.Tracer
-		for _, t := range s.Tracers {
-			tr, err := mix.ParseTracer(t)
-			if err != nil {
-				return nil, nil, settingErr("tracers", "%v", err)
-			}
-			tracers = append(tracers, tr)
-		}
-		p := mix.Problem{EndMembers: ems, Tracers: tracers}
-		for i := range a.Corrected {
-			p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Correction: &a.Corrected[i],
-				Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86, Precision: precs[i]})
-		}
-		prec := atm.Samples.Precision
-		mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
-			Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: workers}
-		if rough {
-			// The quick pass: a rough posterior now, refined in the full pass.
-			mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
-			out.Rough = true
-		}
-		if err := checkInverseDraws(n, mo); err != nil {
-			return nil, nil, err
-		}
-		mo.MaxKept = MaxSampleDraws
-		var co *mix.CatchmentOptions
-		if s.Model == "catchment" {
-			if err := checkCatchmentSamples(n); err != nil {
-				return nil, nil, err
-			}
-			co = &mix.CatchmentOptions{Keep: catchmentKeep}
-			if rough {
-				co = &mix.CatchmentOptions{Warmup: 600, Batch: 400, MaxSteps: 400, Keep: 200}
-			}
-		}
-		res, err := invert(ctx, workers, report, p, mo, co)
-		if err != nil {
-			return nil, nil, err
-		}
+	fo := &mix.ForwardOptions{Silicate: forwardRatios(ems), Draws: s.Draws, Seed: uint64(s.Seed)}
+	a.forward = make([][]mix.Split, n)
+	for i := range a.Corrected {
 		if err := ctx.Err(); err != nil {
-			return nil, nil, err
+			return err
 		}
-		a.inverse = res
-		if c := res.Catchment; c != nil {
-			a.catchment(c, ems, out)
-		}
-		a.Draws = 0
-		for i := range res.Samples {
-			a.Draws = max(a.Draws, res.Kept(i))
-		}
-		a.diagram(res, ems)
-		for _, c := range res.Confusions {
-			out.Warnings = append(out.Warnings, "identifiability: "+c.Text)
-		}
-		for i := range res.Samples {
-			sr := &res.Samples[i]
-			a.Status[i], a.Verdict[i], a.ESS[i], a.doubtfulSample[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
-			for _, w := range sr.Warnings {
-				// Grouped by kind: "end-member left out, no tracer sees it: …".
-				warn[strings.TrimPrefix(w.Error(), "mix: ")]++
+		if a.scales != nil {
+			fo.Vary = func(k int) (v correct.Result) {
+				a.Corrected[i].VaryInto(&v, &a.scales[k])
+				return v
 			}
 		}
-		if res.Status != mix.Fits && res.Status != mix.Rule {
-			out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for "+howMany(res.Samples)+" (see the status column)")
+		fr, err := mix.Forward(&a.Corrected[i], fo)
+		if err != nil {
+			return fmt.Errorf("sample %s: %v", a.Names[i], err)
+		}
+		for _, w := range fr.Warnings {
+			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
+		}
+		a.forward[i] = fr.Draws
+		a.Status[i], a.Verdict[i], a.ESS[i] = mix.Rule, "forward model (sequential subtraction)", float64(s.Draws)
+		report(i+1, n)
+	}
+	return nil
+}
+
+// apportionInverse fits the inverse model, or the catchment-wide model,
+// to the corrected samples of a, with the precisions precs, counting its
+// warnings in warn and saying in out what the whole run found.
+func apportionInverse(ctx context.Context, workers int, report func(done, total int), a *Apportioned, s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, precs []*correct.Precision, n int, rough bool, out *Output, warn map[string]int) error {
+	var tracers []mix.Tracer
+	for _, t := range s.Tracers {
+		tr, err := mix.ParseTracer(t)
+		if err != nil {
+			return settingErr("tracers", "%v", err)
+		}
+		tracers = append(tracers, tr)
+	}
+	p := mix.Problem{EndMembers: ems, Tracers: tracers}
+	for i := range a.Corrected {
+		p.Waters = append(p.Waters, mix.Water{Name: a.Names[i], Correction: &a.Corrected[i],
+			Sr87Sr86: atm.Samples.Table.Samples[a.Index[i]].Sr87Sr86, Precision: precs[i]})
+	}
+	prec := atm.Samples.Precision
+	mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
+		Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: workers}
+	if rough {
+		// The quick pass: a rough posterior now, refined in the full pass.
+		mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
+		out.Rough = true
+	}
+	if err := checkInverseDraws(n, mo); err != nil {
+		return err
+	}
+	mo.MaxKept = MaxSampleDraws
+	var co *mix.CatchmentOptions
+	if s.Model == "catchment" {
+		if err := checkCatchmentSamples(n); err != nil {
+			return err
+		}
+		co = &mix.CatchmentOptions{Keep: catchmentKeep}
+		if rough {
+			co = &mix.CatchmentOptions{Warmup: 600, Batch: 400, MaxSteps: 400, Keep: 200}
 		}
 	}
+	res, err := invert(ctx, workers, report, p, mo, co)
+	if err != nil {
+		return err
+	}
+	if err := ctx.Err(); err != nil {
+		return err
+	}
+	a.inverse = res
+	if c := res.Catchment; c != nil {
+		a.catchment(c, ems, out)
+	}
+	a.Draws = 0
+	for i := range res.Samples {
+		a.Draws = max(a.Draws, res.Kept(i))
+	}
+	a.diagram(res, ems)
+	for _, c := range res.Confusions {
+		out.Warnings = append(out.Warnings, "identifiability: "+c.Text)
+	}
+	for i := range res.Samples {
+		sr := &res.Samples[i]
+		a.Status[i], a.Verdict[i], a.ESS[i], a.doubtfulSample[i] = sr.Status, sr.Verdict, sr.ESS, sr.Doubtful()
+		for _, w := range sr.Warnings {
+			// Grouped by kind: "end-member left out, no tracer sees it: …".
+			warn[strings.TrimPrefix(w.Error(), "mix: ")]++
+		}
+	}
+	if res.Status != mix.Fits && res.Status != mix.Rule {
+		out.Warnings = append(out.Warnings, "inversion: "+res.Status.String()+" for "+howMany(res.Samples)+" (see the status column)")
+	}
+	return nil
+}
+
+// summariseDraws keeps each sample's draws, their weights and mean split
+// in a, and with summary its medians and 95 % bounds, cell by cell.
+func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool) error {
 	// Medians and bounds, cell by cell, from each sample's weighted draws.
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	var vals, ws []float64
@@ -506,7 +554,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	a.kept = make([][]int32, n)
 	for i := 0; i < n; i++ {
 		if err := ctx.Err(); err != nil {
-			return nil, nil, err
+			return err
 		}
 		nd := a.Draws
 		if a.inverse != nil {
@@ -542,6 +590,12 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 			}
 		}
 	}
+	return nil
+}
+
+// conclude adds to out the warnings counted in warn, the tables (with
+// summary), the figures and the reasons a is doubtful.
+func conclude(a *Apportioned, s *ApportionmentSettings, n int, summary bool, out *Output, warn map[string]int) {
 	out.Warnings = append(out.Warnings, countedWarnings(warn)...)
 	if summary {
 		out.Tables = append(out.Tables, a.shareTable(), a.amountTable())
@@ -575,7 +629,6 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	}
 	out.Doubtful = a.doubtful
 	out.Value = a
-	return a, out, nil
 }
 
 // catchmentKeep is the number of joint draws the catchment-wide model

@@ -76,11 +76,10 @@ func rainVWM(t *Table) (chem.Composition, error) {
 
 func computeAtmosphere(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*AtmosphereSettings)
-	in, err := e.Input("samples")
+	smp, err := inputOf[*Samples](e, "samples")
 	if err != nil {
 		return nil, err
 	}
-	smp := in.Value.(*Samples)
 	site, err := e.Input("site")
 	if err != nil {
 		return nil, err

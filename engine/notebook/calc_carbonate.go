@@ -85,11 +85,10 @@ func computeCarbonate(e *Env) (*Output, error) {
 	if err != nil {
 		return nil, settingErr("activity_model", "%v", err)
 	}
-	si, err := e.Input("samples")
+	smp, err := inputOf[*Samples](e, "samples")
 	if err != nil {
 		return nil, err
 	}
-	smp := si.Value.(*Samples)
 	var flow *Flow
 	if fo, err := e.Input("discharge"); err != nil {
 		return nil, err

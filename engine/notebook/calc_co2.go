@@ -166,11 +166,10 @@ func otherOrigins(chosen string) []string {
 
 func computeCO2(e *Env) (*Output, error) {
 	s := e.Cell.Settings.(*CO2Settings)
-	ai, err := e.Input("apportionment")
+	a, err := inputOf[*Apportioned](e, "apportionment")
 	if err != nil {
 		return nil, err
 	}
-	a := ai.Value.(*Apportioned)
 	opt := &co2.Options{}
 	if s.SulfurSplit == "carbonate" {
 		opt.Sulfur = co2.AllCarbonate

@@ -90,6 +90,15 @@ func (s *CompareSettings) oxides() compare.Oxides {
 }
 
 // compareDescriptor describes the comparison cell (package describe.go).
+// compareLabels label the columns the comparison's open tables may hold.
+var compareLabels = []LabelInfo{
+	{"p_above_zero", "P(difference > 0)"}, {"point", "point difference"}, {"treated_before", "treated before"},
+	{"control_before", "control before"}, {"per_mm", "per mm of runoff"}, {"extra_co2", "extra CO2 over the treated catchment"},
+	{"share_of_potential", "share of the CO2 potential"}, {"cumulative_share", "share of the CO2 potential so far"},
+	{"samples_per_year", "samples a year"}, {"detectable_increase", "smallest detectable increase"},
+	{"detectable_yield", "smallest detectable increase"}, {"null_sd", "spread of the null difference"},
+}
+
 var compareDescriptor = Descriptor{Kind: KindCompare, Label: "Comparison", New: func() Settings { return defaultCompareSettings() },
 	Inputs: compareRoles,
 	Notes: []SettingNote{
@@ -99,13 +108,13 @@ var compareDescriptor = Descriptor{Kind: KindCompare, Label: "Comparison", New: 
 			Choices: []Choice{{Value: "silicate"}, {Value: "total"}}},
 	},
 	Tables: []TableInfo{
-		{Name: "difference", Columns: []ColumnInfo{{"quantity", ""}}, Open: true},
-		{Name: "per-mm", Columns: []ColumnInfo{{"quantity", ""}}, Open: true},
-		{Name: "budgets", Columns: []ColumnInfo{{"budget", ""}, {"section", ""}, {"co2_cell", ""}, {"estimator", ""}, {"area", "km²"}, {"runoff", "mm/yr"}, {"complete_years", ""}, {"samples", "apportioned"}}},
+		{Name: "difference", Columns: []ColumnInfo{{"quantity", ""}}, Open: true, Labels: compareLabels},
+		{Name: "per-mm", Columns: []ColumnInfo{{"quantity", ""}}, Open: true, Labels: compareLabels},
+		{Name: "budgets", Columns: []ColumnInfo{{"budget", ""}, {"section", ""}, {"co2_cell", ""}, {"estimator", ""}, {"area", "km²"}, {"runoff", "mm/yr"}, {"complete_years", ""}, {"samples", "apportioned"}}, Labels: []LabelInfo{{"co2_cell", "co2 cell"}, {"complete_years", "complete years"}}},
 		{Name: "shared", Columns: []ColumnInfo{{"part", ""}, {"drawn", ""}}},
-		{Name: "feedstock", Columns: []ColumnInfo{{"oxide", ""}, {"content", "wt %"}, {"molar_mass", "g/mol"}, {"charge", "mol/kg"}}},
-		{Name: "years", Columns: []ColumnInfo{{"year", ""}}, Open: true},
-		{Name: "design", Columns: []ColumnInfo{{"samples_per_year", "samples/yr"}}, Open: true},
+		{Name: "feedstock", Columns: []ColumnInfo{{"oxide", ""}, {"content", "wt %"}, {"molar_mass", "g/mol"}, {"charge", "mol/kg"}}, Labels: []LabelInfo{{"molar_mass", "molar mass"}, {"charge", "cation charge"}}},
+		{Name: "years", Columns: []ColumnInfo{{"year", ""}}, Open: true, Labels: compareLabels},
+		{Name: "design", Columns: []ColumnInfo{{"samples_per_year", "samples/yr"}}, Open: true, Labels: compareLabels},
 	},
 	// A comparison's differences per km² lead the summary strip.
 	Headline: []FigureInfo{

@@ -35,24 +35,22 @@ func period(rec *discharge.Record, site *Site) (*discharge.Record, error) {
 }
 
 func fluxSetup(e *Env, s *FluxSettings) (*Fluxes, error) {
-	ai, err := e.Input("apportionment")
+	app, err := inputOf[*Apportioned](e, "apportionment")
 	if err != nil {
 		return nil, err
 	}
-	di, err := e.Input("discharge")
+	flow, err := inputOf[*Flow](e, "discharge")
 	if err != nil {
 		return nil, err
 	}
-	si, err := e.Input("site")
+	site, err := inputOf[*Site](e, "site")
 	if err != nil {
 		return nil, err
 	}
-	site := si.Value.(*Site)
-	rec, err := period(di.Value.(*Flow).Record, site)
+	rec, err := period(flow.Record, site)
 	if err != nil {
 		return nil, err
 	}
-	app := ai.Value.(*Apportioned)
 	if err := firstErr(checkBootstrapWork("bootstrap", s.Bootstrap, len(app.Names), rec.Len()),
 		checkBootstrapWork("series_bootstrap", s.SeriesBootstrap, len(app.Names), rec.Len())); err != nil {
 		return nil, err

@@ -194,11 +194,10 @@ func computeMinerals(e *Env) (*Output, error) {
 		return nil, err
 	}
 	b.Relative, b.Floor = s.Uncertainty/100, MineralFloor
-	ai, err := e.Input("atmosphere")
+	atm, err := inputOf[*Atmosphere](e, "atmosphere")
 	if err != nil {
 		return nil, err
 	}
-	atm := ai.Value.(*Atmosphere)
 	v := &MineralBalance{Balance: b}
 	out := &Output{Value: v, Warnings: warns}
 	opt := atm.Options

@@ -41,7 +41,19 @@ func SourcesTable(preset string) (*Table, error) {
 func EndMemberTable(ems []mix.EndMember) *Table {
 	t := &Table{Columns: append([]string(nil), sourcesColumns...), Units: []string{"", "", "", "mol/mol", "mol/mol", "mol/mol", "", ""}}
 	f := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
-	for _, em := range ems {
+	eachPrior(ems, func(em *mix.EndMember, tr mix.Tracer, lo, hi float64) {
+		p := em.Ratio[tr]
+		t.Rows = append(t.Rows, []string{em.Name, em.Source.String(), tr.String(), f(lo), f(p.Value), f(hi), p.Dist.String(), em.Ref})
+	})
+	return t
+}
+
+// eachPrior calls f for each ratio prior of ems that is not a fixed zero,
+// in order of end-member then tracer, with the prior's range (a fixed
+// value's range is the value).
+func eachPrior(ems []mix.EndMember, f func(em *mix.EndMember, tr mix.Tracer, lo, hi float64)) {
+	for i := range ems {
+		em := &ems[i]
 		for tr := mix.Tracer(0); tr < mix.NTracers; tr++ {
 			p := em.Ratio[tr]
 			if p.Dist == mix.Fixed && p.Value == 0 {
@@ -51,10 +63,9 @@ func EndMemberTable(ems []mix.EndMember) *Table {
 			if p.Dist == mix.Fixed {
 				lo, hi = p.Value, p.Value
 			}
-			t.Rows = append(t.Rows, []string{em.Name, em.Source.String(), tr.String(), f(lo), f(p.Value), f(hi), p.Dist.String(), em.Ref})
+			f(em, tr, lo, hi)
 		}
 	}
-	return t
 }
 
 var sourceByName = map[string]mix.Source{"atmosphere": mix.Atmosphere, "evaporite": mix.Evaporite, "silicate": mix.Silicate, "carbonate": mix.Carbonate}
@@ -140,20 +151,10 @@ func computeSources(e *Env) (*Output, error) {
 	}
 	var name, src, ratio []string
 	var lo, mid, hi []float64
-	for _, em := range ems {
-		for tr := mix.Tracer(0); tr < mix.NTracers; tr++ {
-			p := em.Ratio[tr]
-			if p.Dist == mix.Fixed && p.Value == 0 {
-				continue
-			}
-			l, h := p.Lo, p.Hi
-			if p.Dist == mix.Fixed {
-				l, h = p.Value, p.Value
-			}
-			name, src, ratio = append(name, em.Name), append(src, em.Source.String()), append(ratio, tr.String())
-			lo, mid, hi = append(lo, l), append(mid, p.Value), append(hi, h)
-		}
-	}
+	eachPrior(ems, func(em *mix.EndMember, tr mix.Tracer, l, h float64) {
+		name, src, ratio = append(name, em.Name), append(src, em.Source.String()), append(ratio, tr.String())
+		lo, mid, hi = append(lo, l), append(mid, em.Ratio[tr].Value), append(hi, h)
+	})
 	return &Output{Value: ems, Tables: []*ResultTable{{Name: "priors", Title: "End-member priors", Columns: []*Column{
 		TextColumn("end-member", name), TextColumn("source", src), TextColumn("ratio", ratio),
 		NumColumn("low", "mol/mol", lo), NumColumn("central", "mol/mol", mid), NumColumn("high", "mol/mol", hi)}}}}, nil

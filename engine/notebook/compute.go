@@ -61,6 +61,17 @@ func (e *Env) Input(role string) (*Output, error) {
 	return nil, fmt.Errorf("notebook: %s cell has no role %q", e.Cell.Kind, role)
 }
 
+// inputOf returns the value of the output that feeds role, a required
+// input whose kind's value is a T.
+func inputOf[T any](e *Env, role string) (T, error) {
+	o, err := e.Input(role)
+	if err != nil {
+		var none T
+		return none, err
+	}
+	return o.Value.(T), nil
+}
+
 // OutputOf returns the output of any cell by id (for charts).
 func (e *Env) OutputOf(id string) (*Output, error) { return e.doc.outputOf(id) }
 

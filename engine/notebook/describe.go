@@ -73,6 +73,27 @@ type TableInfo struct {
 	// Open says that the table has further columns named by the data (one
 	// per mineral, one per source and cation, …).
 	Open bool
+	// Labels are the page's labels, without unit, of the columns whose
+	// name does not read well ("Na_atm_share": "atmospheric share of Na");
+	// ColumnLabel labels the others by rule. A list, not a map, so that it
+	// costs the page no start-up code.
+	Labels []LabelInfo
+}
+
+// LabelInfo is the page's label of one output column.
+type LabelInfo struct {
+	Column string // the column's name
+	Label  string // its label, without unit
+}
+
+// Label returns the label of column name, "" when the table gives none.
+func (t *TableInfo) Label(name string) string {
+	for _, l := range t.Labels {
+		if l.Column == name {
+			return l.Label
+		}
+	}
+	return ""
 }
 
 // ColumnInfo describes a column of an output table.

@@ -129,19 +129,11 @@ func writeValue(b *bytes.Buffer, v any, indent string) {
 			b.WriteString("{}")
 			return
 		}
-		b.WriteString("{\n")
-		in := indent + "  "
-		for i, f := range x {
-			b.WriteString(in)
-			writeString(b, f.k)
+		writeBlock(b, indent, '{', '}', len(x), func(i int, in string) {
+			writeString(b, x[i].k)
 			b.WriteString(": ")
-			writeValue(b, f.v, in)
-			if i < len(x)-1 {
-				b.WriteByte(',')
-			}
-			b.WriteByte('\n')
-		}
-		b.WriteString(indent + "}")
+			writeValue(b, x[i].v, in)
+		})
 	case array:
 		if len(x) == 0 {
 			b.WriteString("[]")
@@ -162,20 +154,29 @@ func writeValue(b *bytes.Buffer, v any, indent string) {
 			b.WriteByte(']')
 			return
 		}
-		b.WriteString("[\n")
-		in := indent + "  "
-		for i, e := range x {
-			b.WriteString(in)
-			writeValue(b, e, in)
-			if i < len(x)-1 {
-				b.WriteByte(',')
-			}
-			b.WriteByte('\n')
-		}
-		b.WriteString(indent + "]")
+		writeBlock(b, indent, '[', ']', len(x), func(i int, in string) { writeValue(b, x[i], in) })
 	default:
 		panic(fmt.Sprintf("notebook: cannot write a %T", v))
 	}
+}
+
+// writeBlock writes n members between open and close, one a line, each
+// indented one step further than indent and written by member, which gets
+// its index and that indent.
+func writeBlock(b *bytes.Buffer, indent string, open, close byte, n int, member func(i int, in string)) {
+	b.WriteByte(open)
+	b.WriteByte('\n')
+	in := indent + "  "
+	for i := 0; i < n; i++ {
+		b.WriteString(in)
+		member(i, in)
+		if i < n-1 {
+			b.WriteByte(',')
+		}
+		b.WriteByte('\n')
+	}
+	b.WriteString(indent)
+	b.WriteByte(close)
 }
 
 // writeFloat writes the shortest text that reads back as the same float64;

@@ -103,7 +103,7 @@ var builtinKinds = []Descriptor{
 		},
 		Tables: []TableInfo{
 			{Name: "daily", Columns: []ColumnInfo{{"date", ""}, {"discharge", "m³/s"}}},
-			{Name: "years", Columns: []ColumnInfo{{"year", ""}, {"runoff", "mm"}, {"days with data", "fraction"}}},
+			{Name: "years", Columns: []ColumnInfo{{"year", ""}, {"runoff", "mm"}, {"days with data", "fraction"}}, Labels: []LabelInfo{{"days with data", "share of days with data"}}},
 		},
 	},
 	{Kind: KindCarbonate, Label: "Carbonate system", New: newCarbonate,
@@ -115,7 +115,7 @@ var builtinKinds = []Descriptor{
 			{Key: "pco2_flag_factor", Help: "pCO2 above this many times the air's is flagged"},
 		},
 		Tables: []TableInfo{
-			{Name: "carbonate", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"discharge", "m³/s"}, {"temperature", "°C"}, {"pH", ""}, {"ionic_strength", "mol/L"}, {"HCO3", "µmol/L"}, {"CO3", "µmol/L"}, {"H2CO3", "µmol/L"}, {"DIC", "µmol/L"}, {"pCO2", "µatm"}, {"pCO2_excess", "× air"}, {"SI_calcite", ""}, {"SI_aragonite", ""}, {"SI_dolomite", ""}, {"flag", ""}}},
+			{Name: "carbonate", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"discharge", "m³/s"}, {"temperature", "°C"}, {"pH", ""}, {"ionic_strength", "mol/L"}, {"HCO3", "µmol/L"}, {"CO3", "µmol/L"}, {"H2CO3", "µmol/L"}, {"DIC", "µmol/L"}, {"pCO2", "µatm"}, {"pCO2_excess", "× air"}, {"SI_calcite", ""}, {"SI_aragonite", ""}, {"SI_dolomite", ""}, {"flag", ""}}, Labels: []LabelInfo{{"ionic_strength", "ionic strength"}, {"H2CO3", "H2CO3*"}, {"pCO2_excess", "pCO2 over the air's"}, {"SI_calcite", "SI of calcite"}, {"SI_aragonite", "SI of aragonite"}, {"SI_dolomite", "SI of dolomite"}}},
 		},
 	},
 	{Kind: KindAtmosphere, Label: "Atmospheric input", Table: true, New: newAtmosphere, ReadsTable: atmosphereReadsTable,
@@ -136,7 +136,7 @@ var builtinKinds = []Descriptor{
 			{Key: "et_factor_uncertainty_percent", Help: "1σ of P/(P−ET), used by the rain method when Cl* comes from rain"},
 		},
 		Tables: []TableInfo{
-			{Name: "rain", Columns: []ColumnInfo{{"sample", ""}, {"Cl_atm", "µmol/L"}, {"Na_atm", "µmol/L"}, {"K_atm", "µmol/L"}, {"Ca_atm", "µmol/L"}, {"Mg_atm", "µmol/L"}, {"SO4_atm", "µmol/L"}, {"Cl_excess", "µmol/L"}, {"Na_evaporite", "µmol/L"}, {"Na_atm_share", "fraction"}}},
+			{Name: "rain", Columns: []ColumnInfo{{"sample", ""}, {"Cl_atm", "µmol/L"}, {"Na_atm", "µmol/L"}, {"K_atm", "µmol/L"}, {"Ca_atm", "µmol/L"}, {"Mg_atm", "µmol/L"}, {"SO4_atm", "µmol/L"}, {"Cl_excess", "µmol/L"}, {"Na_evaporite", "µmol/L"}, {"Na_atm_share", "fraction"}}, Labels: []LabelInfo{{"Cl_atm", "atmospheric Cl"}, {"Na_atm", "atmospheric Na"}, {"K_atm", "atmospheric K"}, {"Ca_atm", "atmospheric Ca"}, {"Mg_atm", "atmospheric Mg"}, {"SO4_atm", "atmospheric SO4"}, {"Cl_excess", "Cl above the rain input"}, {"Na_atm_share", "atmospheric share of Na"}}},
 			{Name: "ratios", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"Ca/Na", "mol/mol"}, {"Mg/Na", "mol/mol"}, {"HCO3/Na", "mol/mol"}, {"K/Na", "mol/mol"}}},
 		},
 	},
@@ -165,8 +165,8 @@ var builtinKinds = []Descriptor{
 			{Key: "negative_residuals", Help: "what becomes of a source amount below zero", Choices: []Choice{{Value: "zero-and-flag"}, {Value: "keep"}}},
 		},
 		Tables: []TableInfo{
-			{Name: "shares", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"status", ""}, {"ESS", "draws"}}, Open: true},
-			{Name: "amounts", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}}, Open: true},
+			{Name: "shares", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"status", ""}, {"ESS", "draws"}}, Open: true, Labels: []LabelInfo{{"ESS", "effective sample size"}}},
+			{Name: "amounts", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}}, Open: true, Labels: []LabelInfo{{"SO4_sulfide", "SO4 from sulfide"}}},
 			// The catchment-wide model's shared ratios and scatters.
 			{Name: "shared", Columns: []ColumnInfo{{"end-member", ""}, {"ratio", ""}, {"prior", "mol/mol"}, {"prior_low", "mol/mol"},
 				{"prior_high", "mol/mol"}, {"posterior", "mol/mol"}, {"posterior_low", "mol/mol"}, {"posterior_high", "mol/mol"},
@@ -187,12 +187,12 @@ var builtinKinds = []Descriptor{
 			{Key: "doubtful_above_percent", Help: "share of the load or flow the samples do not support above which the results are doubtful"},
 		},
 		Tables: []TableInfo{
-			{Name: "mean", Columns: []ColumnInfo{{"series", ""}, {"flux", "mol/yr"}, {"flux_low", "mol/yr"}, {"flux_high", "mol/yr"}, {"yield", "mol/km²/yr"}, {"yield_low", "mol/km²/yr"}, {"yield_high", "mol/km²/yr"}, {"mass_flux", "t/yr"}, {"mass_flux_low", "t/yr"}, {"mass_flux_high", "t/yr"}, {"mass_yield", "t/km²/yr"}, {"mass_yield_low", "t/km²/yr"}, {"mass_yield_high", "t/km²/yr"}}},
+			{Name: "mean", Columns: []ColumnInfo{{"series", ""}, {"flux", "mol/yr"}, {"flux_low", "mol/yr"}, {"flux_high", "mol/yr"}, {"yield", "mol/km²/yr"}, {"yield_low", "mol/km²/yr"}, {"yield_high", "mol/km²/yr"}, {"mass_flux", "t/yr"}, {"mass_flux_low", "t/yr"}, {"mass_flux_high", "t/yr"}, {"mass_yield", "t/km²/yr"}, {"mass_yield_low", "t/km²/yr"}, {"mass_yield_high", "t/km²/yr"}}, Labels: []LabelInfo{{"mass_flux", "mass flux"}, {"mass_yield", "mass yield"}}},
 			{Name: "annual", Columns: []ColumnInfo{{"series", ""}, {"year", ""}, {"flux", "mol/yr"}, {"yield", "mol/km²/yr"}, {"runoff", "mm"}}},
 			{Name: "estimators", Columns: []ColumnInfo{{"series", ""}, {"estimator", ""}, {"point", "mol/yr"}, {"flux", "mol/yr"}, {"flux_low", "mol/yr"}, {"flux_high", "mol/yr"}, {"yield", "mol/km²/yr"}, {"yield_low", "mol/km²/yr"}, {"yield_high", "mol/km²/yr"}, {"replicates", ""}}},
 			{Name: "closure", Columns: []ColumnInfo{{"cation", ""}, {"atmosphere", "mol/yr"}, {"evaporite", "mol/yr"}, {"silicate", "mol/yr"}, {"carbonate", "mol/yr"}, {"human_input", "mol/yr"}, {"sum_of_sources", "mol/yr"}, {"measured", "mol/yr"}, {"difference", "fraction of measured"}}},
-			{Name: "rating", Columns: []ColumnInfo{{"series", ""}, {"a", "µmol/L"}, {"b", ""}, {"R2", ""}, {"s", "ln units"}, {"bias_factor", ""}, {"n", "samples"}}},
-			{Name: "by-source", Columns: []ColumnInfo{{"figure", ""}, {"source", ""}, {"median", "mol/km²/yr"}, {"low", "mol/km²/yr"}, {"high", "mol/km²/yr"}, {"relative_width", "fraction of the median"}, {"replicates", ""}}},
+			{Name: "rating", Columns: []ColumnInfo{{"series", ""}, {"a", "µmol/L"}, {"b", ""}, {"R2", ""}, {"s", "ln units"}, {"bias_factor", ""}, {"n", "samples"}}, Labels: []LabelInfo{{"R2", "R²"}, {"s", "s (residual)"}, {"bias_factor", "bias factor"}}},
+			{Name: "by-source", Columns: []ColumnInfo{{"figure", ""}, {"source", ""}, {"median", "mol/km²/yr"}, {"low", "mol/km²/yr"}, {"high", "mol/km²/yr"}, {"relative_width", "fraction of the median"}, {"replicates", ""}}, Labels: []LabelInfo{{"relative_width", "interval width ÷ median"}}},
 			{Name: "interpolation", Columns: []ColumnInfo{{"series", ""}, {"b", ""}}},
 		},
 		Headline: []FigureInfo{
@@ -209,11 +209,11 @@ var builtinKinds = []Descriptor{
 			{Key: "long_term_convention", Help: "the long-term silicate sink (docs/methods.md §9.2), used only with the long time scale", Choices: []Choice{{Value: "conventional"}, {Value: "alkalinity"}}},
 		},
 		Tables: []TableInfo{
-			{Name: "per-litre", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"silicate", "µmol/L"}, {"silicate_low", "µmol/L"}, {"silicate_high", "µmol/L"}, {"carbonate", "µmol/L"}, {"carbonate_low", "µmol/L"}, {"carbonate_high", "µmol/L"}}},
-			{Name: "years", Columns: []ColumnInfo{{"source", ""}, {"year", ""}, {"consumption", "mol/yr"}, {"consumption_low", "mol/yr"}, {"consumption_high", "mol/yr"}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}}},
-			{Name: "estimators", Columns: []ColumnInfo{{"source", ""}, {"estimator", ""}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}, {"replicates", ""}}},
-			{Name: "sulfate", Columns: []ColumnInfo{{"origin", ""}, {"source", ""}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}}},
-			{Name: "by-source", Columns: []ColumnInfo{{"figure", ""}, {"source", ""}, {"median", "mol/km²/yr"}, {"low", "mol/km²/yr"}, {"high", "mol/km²/yr"}, {"relative_width", "fraction of the median"}, {"replicates", ""}}},
+			{Name: "per-litre", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"silicate", "µmol/L"}, {"silicate_low", "µmol/L"}, {"silicate_high", "µmol/L"}, {"carbonate", "µmol/L"}, {"carbonate_low", "µmol/L"}, {"carbonate_high", "µmol/L"}}, Labels: []LabelInfo{{"silicate", "silicate CO2 consumption"}, {"carbonate", "carbonate CO2 consumption"}}},
+			{Name: "years", Columns: []ColumnInfo{{"source", ""}, {"year", ""}, {"consumption", "mol/yr"}, {"consumption_low", "mol/yr"}, {"consumption_high", "mol/yr"}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}}, Labels: []LabelInfo{{"consumption", "CO2 consumption"}, {"per_km2", "CO2 consumption per km²"}}},
+			{Name: "estimators", Columns: []ColumnInfo{{"source", ""}, {"estimator", ""}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}, {"replicates", ""}}, Labels: []LabelInfo{{"per_km2", "per km²"}}},
+			{Name: "sulfate", Columns: []ColumnInfo{{"origin", ""}, {"source", ""}, {"per_km2", "mol/km²/yr"}, {"per_km2_low", "mol/km²/yr"}, {"per_km2_high", "mol/km²/yr"}}, Labels: []LabelInfo{{"per_km2", "per km²"}}},
+			{Name: "by-source", Columns: []ColumnInfo{{"figure", ""}, {"source", ""}, {"median", "mol/km²/yr"}, {"low", "mol/km²/yr"}, {"high", "mol/km²/yr"}, {"relative_width", "fraction of the median"}, {"replicates", ""}}, Labels: []LabelInfo{{"relative_width", "interval width ÷ median"}}},
 		},
 		Headline: []FigureInfo{
 			{Name: "silicate CO2 consumption per km²", Prefix: true, Rank: 0},
@@ -235,11 +235,11 @@ var builtinKinds = []Descriptor{
 			{Key: "analytical_uncertainty_percent", Help: "relative 1σ weighting each fitted component; 0 weights all alike"},
 		},
 		Tables: []TableInfo{
-			{Name: "minerals", Columns: []ColumnInfo{{"mineral", ""}, {"name", ""}, {"formula", ""}, {"role", ""}, {"CO2_per_mol", "mol/mol"}, {"reaction", ""}, {"source", ""}}},
-			{Name: "amounts", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"fit", ""}}, Open: true},
-			{Name: "residuals", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"Na", "µmol/L"}, {"K", "µmol/L"}, {"Ca", "µmol/L"}, {"Mg", "µmol/L"}, {"Cl", "µmol/L"}, {"SO4", "µmol/L"}, {"HCO3", "µeq/L"}, {"SiO2", "µmol/L"}}},
-			{Name: "period", Columns: []ColumnInfo{{"mineral", ""}, {"flux", "mol/yr"}, {"yield", "mol/km²/yr"}, {"yield_low", "mol/km²/yr"}, {"yield_high", "mol/km²/yr"}, {"flux_weighted_mean", "µmol/L"}, {"CO2_per_mol", "mol/mol"}, {"CO2_consumed", "mol/km²/yr"}, {"CO2_consumed_low", "mol/km²/yr"}, {"CO2_consumed_high", "mol/km²/yr"}}},
-			{Name: "catalogue", Columns: []ColumnInfo{{"mineral", ""}, {"name", ""}, {"formula", ""}, {"usual_role", ""}, {"CO2_per_mol", "mol/mol"}, {"source", ""}}},
+			{Name: "minerals", Columns: []ColumnInfo{{"mineral", ""}, {"name", ""}, {"formula", ""}, {"role", ""}, {"CO2_per_mol", "mol/mol"}, {"reaction", ""}, {"source", ""}}, Labels: []LabelInfo{{"CO2_per_mol", "CO2 per mole"}, {"reaction", "balanced reaction with carbonic acid"}}},
+			{Name: "amounts", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"fit", ""}}, Open: true, Labels: []LabelInfo{{"CO2_consumed", "CO2 consumed"}}},
+			{Name: "residuals", Columns: []ColumnInfo{{"sample", ""}, {"date", ""}, {"Na", "µmol/L"}, {"K", "µmol/L"}, {"Ca", "µmol/L"}, {"Mg", "µmol/L"}, {"Cl", "µmol/L"}, {"SO4", "µmol/L"}, {"HCO3", "µeq/L"}, {"SiO2", "µmol/L"}}, Labels: []LabelInfo{{"Na", "Na left"}, {"K", "K left"}, {"Ca", "Ca left"}, {"Mg", "Mg left"}, {"Cl", "Cl left"}, {"SO4", "SO4 left"}, {"HCO3", "HCO3 left"}, {"SiO2", "SiO2 left"}}},
+			{Name: "period", Columns: []ColumnInfo{{"mineral", ""}, {"flux", "mol/yr"}, {"yield", "mol/km²/yr"}, {"yield_low", "mol/km²/yr"}, {"yield_high", "mol/km²/yr"}, {"flux_weighted_mean", "µmol/L"}, {"CO2_per_mol", "mol/mol"}, {"CO2_consumed", "mol/km²/yr"}, {"CO2_consumed_low", "mol/km²/yr"}, {"CO2_consumed_high", "mol/km²/yr"}}, Labels: []LabelInfo{{"flux_weighted_mean", "flux-weighted mean"}, {"CO2_per_mol", "CO2 per mole"}, {"CO2_consumed", "CO2 consumed"}}},
+			{Name: "catalogue", Columns: []ColumnInfo{{"mineral", ""}, {"name", ""}, {"formula", ""}, {"usual_role", ""}, {"CO2_per_mol", "mol/mol"}, {"source", ""}}, Labels: []LabelInfo{{"usual_role", "usual role"}, {"CO2_per_mol", "CO2 per mole"}}},
 		},
 		Headline: []FigureInfo{
 			{Name: "CO2 consumed by the minerals balanced, per km²", Prefix: false, Rank: 5},

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"strings"
 
+	"lixiv/engine/mix"
 	"lixiv/engine/sample"
 )
 
@@ -91,6 +92,64 @@ func SettingLabel(key string) string {
 	}
 	if unit != "" {
 		l += " (" + unit + ")"
+	}
+	return l
+}
+
+// Output columns are named in files by their name ("Na_atm_share") and on
+// the page by a label (ColumnLabel): the one the kind's descriptor gives
+// (TableInfo.Labels), else one made by rule from the name.
+
+// boundWords name the interval bounds of "_low" and "_high" columns.
+var boundWords = []struct{ suffix, words string }{{"_low", ", 2.5 %"}, {"_high", ", 97.5 %"}}
+
+// sourceWords name the sources in column names such as "Na_silicate".
+var sourceWords = map[string]string{
+	"atmosphere": "from the atmosphere", "evaporite": "from evaporite",
+	"silicate": "from silicate", "carbonate": "from carbonate",
+}
+
+// SourceNames names the sources of the apportionment in report order, as
+// output columns write them after a cation ("Na_silicate").
+func SourceNames() []string {
+	out := make([]string, mix.NSources)
+	for s := range out {
+		out[s] = mix.Source(s).String()
+	}
+	return out
+}
+
+// ColumnLabel labels column name of output table of a cell of kind k,
+// without its unit: the label the descriptor gives; a bound's, its base's
+// label with the bound ("CO2 consumption, 97.5 %"); a cation and a source,
+// "Ca from silicate"; else the name itself.
+func ColumnLabel(k Kind, table, name string) string {
+	for _, b := range boundWords {
+		if base := strings.TrimSuffix(name, b.suffix); base != name && base != "" {
+			return ColumnLabel(k, table, base) + b.words
+		}
+	}
+	if d := descriptors[k]; d != nil {
+		for i := range d.Tables {
+			if l := d.Tables[i].Label(name); l != "" && d.Tables[i].Name == table {
+				return l
+			}
+		}
+	}
+	if i := strings.IndexByte(name, '_'); i > 0 {
+		if w, ok := sourceWords[name[i+1:]]; ok {
+			return name[:i] + " " + w
+		}
+	}
+	return name
+}
+
+// ColumnUnitLabel is ColumnLabel with the column's unit, when it has one:
+// "atmospheric share of Na (fraction)".
+func ColumnUnitLabel(k Kind, table string, col *Column) string {
+	l := ColumnLabel(k, table, col.Name)
+	if col.Unit != "" {
+		l += " (" + col.Unit + ")"
 	}
 	return l
 }

@@ -1,6 +1,9 @@
 package notebook
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // Output is what a computed cell shows and hands to the cells below it.
 type Output struct {
@@ -33,10 +36,13 @@ func (o *Output) Table(name string) *ResultTable {
 	if o == nil {
 		return nil
 	}
-	for _, t := range o.Tables {
-		if t.Name == name {
-			return t
-		}
+	return named(o.Tables, func(t *ResultTable) bool { return t.Name == name })
+}
+
+// named returns the first element of list for which is holds, or nil.
+func named[T any](list []*T, is func(*T) bool) *T {
+	if i := slices.IndexFunc(list, is); i >= 0 {
+		return list[i]
 	}
 	return nil
 }
@@ -66,12 +72,7 @@ func (t *ResultTable) Column(name string) *Column {
 	if t == nil {
 		return nil
 	}
-	for _, c := range t.Columns {
-		if c.Name == name {
-			return c
-		}
-	}
-	return nil
+	return named(t.Columns, func(c *Column) bool { return c.Name == name })
 }
 
 // Len returns the number of rows.

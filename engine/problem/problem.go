@@ -6,6 +6,8 @@
 // their text.
 package problem
 
+import "lixiv/engine/internal/enum"
+
 // Severity says how much a message matters to the results.
 type Severity int
 
@@ -28,12 +30,7 @@ var severityNames = [...]string{"warning", "problem", "note"}
 
 // String names the severity as the page and the report write it:
 // "problem", "warning" or "note".
-func (s Severity) String() string {
-	if s < 0 || int(s) >= len(severityNames) {
-		return "warning"
-	}
-	return severityNames[s]
-}
+func (s Severity) String() string { return enum.Name(s, severityNames[:], "warning") }
 
 // MarshalText writes the severity's name.
 func (s Severity) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
@@ -64,12 +61,7 @@ const (
 var effectNames = [...]string{"unread", "substituted", "left out", "inferred", "refused", "flagged"}
 
 // String names the effect.
-func (e Effect) String() string {
-	if e < 0 || int(e) >= len(effectNames) {
-		return "unread"
-	}
-	return effectNames[e]
-}
+func (e Effect) String() string { return enum.Name(e, effectNames[:], "unread") }
 
 // MarshalText writes the effect's name.
 func (e Effect) MarshalText() ([]byte, error) { return []byte(e.String()), nil }

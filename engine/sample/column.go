@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"lixiv/engine/chem"
+	"lixiv/engine/internal/enum"
 )
 
 // Kind is what a column of the file was read as.
@@ -29,12 +30,7 @@ const (
 var kindNames = [...]string{"metadata", "id", "site", "date", "time", "discharge", "concentration", "87Sr/86Sr", "pH", "temperature", "conductivity"}
 
 // String names the kind.
-func (k Kind) String() string {
-	if k < 0 || int(k) >= len(kindNames) {
-		return "unknown"
-	}
-	return kindNames[k]
-}
+func (k Kind) String() string { return enum.Name(k, kindNames[:], "unknown") }
 
 // Column records how one column of the file was read.
 type Column struct {

@@ -22,8 +22,10 @@
 //     records (lines, joined where a quoted field holds a line break) with
 //     the same number of fields in the first 64 KiB, among those that leave
 //     the fewest quotes inside unquoted fields, unless Options.Comma sets
-//     it. Fields may be quoted ("a, b"), with "" for a quote and line
-//     breaks inside quotes.
+//     it; a comma is not a candidate when Options.Decimal is a comma
+//     (engine/internal/delimiter, shared with the discharge importer).
+//     Fields may be quoted ("a, b"), with "" for a quote and line breaks
+//     inside quotes.
 //  3. Header: the first line with at least half as many non-empty fields
 //     (trailing empty fields and white space are not counted) as the
 //     typical record that does not start with "#"; lines above it are kept

@@ -6,6 +6,8 @@ import (
 	"io"
 	"unicode/utf16"
 	"unicode/utf8"
+
+	"lixiv/engine/internal/delimiter"
 )
 
 // lineReader splits its input into records of fields. Fields are slices of
@@ -69,7 +71,7 @@ func (lr *lineReader) next() (fields [][]byte, line int, ok bool) {
 	line = lr.line
 	lr.badQ = false
 	if bytes.IndexByte(b, '"') >= 0 {
-		if q, _ := scanQuote(b, lr.comma, false, true); q {
+		if q, _ := delimiter.ScanQuote(b, lr.comma, false, true); q {
 			// A quoted field runs onto the next lines.
 			lr.rec = append(lr.rec[:0], b...)
 			for q {
@@ -80,108 +82,17 @@ func (lr *lineReader) next() (fields [][]byte, line int, ok bool) {
 				}
 				lr.rec = append(lr.rec, '\n')
 				lr.rec = append(lr.rec, nb...)
-				q, _ = scanQuote(nb, lr.comma, true, false)
+				q, _ = delimiter.ScanQuote(nb, lr.comma, true, false)
 			}
 			b = lr.rec
 		}
 	}
-	lr.fields = split(b, lr.comma, lr.fields[:0], &lr.scratch)
+	lr.fields = delimiter.Split(b, lr.comma, lr.fields[:0], &lr.scratch)
 	return lr.fields, line, true
 }
 
 // unclosedQuote reports whether the last record ended inside quotes.
 func (lr *lineReader) unclosedQuote() bool { return lr.badQ }
-
-// scanQuote follows the quoting through b, starting inside a quoted field
-// when q is true and at the start of a field when start is true, and
-// returns whether b ends inside quotes, and whether a quote stands inside
-// an unquoted field (bare). A quote opens a quoted field only at the start
-// of a field.
-func scanQuote(b []byte, comma byte, q, start bool) (quoted, bare bool) {
-	for i := 0; i < len(b); i++ {
-		c := b[i]
-		switch {
-		case q:
-			if c == '"' {
-				if i+1 < len(b) && b[i+1] == '"' {
-					i++
-				} else {
-					q = false
-				}
-			}
-		case c == comma:
-			start = true
-		case c == '"' && start:
-			q, start = true, false
-		case c == '"':
-			bare = true
-		case c != ' ':
-			start = false
-		}
-	}
-	return q, bare
-}
-
-// split cuts a record into fields. Quoted fields are unquoted into scratch.
-func split(b []byte, comma byte, dst [][]byte, scratch *[]byte) [][]byte {
-	if bytes.IndexByte(b, '"') < 0 {
-		for {
-			i := bytes.IndexByte(b, comma)
-			if i < 0 {
-				return append(dst, b)
-			}
-			dst = append(dst, b[:i])
-			b = b[i+1:]
-		}
-	}
-	if cap(*scratch) < len(b) {
-		*scratch = make([]byte, 0, 2*len(b))
-	}
-	s := (*scratch)[:0]
-	for {
-		// Skip spaces before an opening quote.
-		j := 0
-		for j < len(b) && b[j] == ' ' {
-			j++
-		}
-		if j < len(b) && b[j] == '"' {
-			start := len(s)
-			i := j + 1
-			for i < len(b) {
-				if b[i] == '"' {
-					if i+1 < len(b) && b[i+1] == '"' {
-						s = append(s, '"')
-						i += 2
-						continue
-					}
-					i++
-					break
-				}
-				s = append(s, b[i])
-				i++
-			}
-			// Text after the closing quote, up to the delimiter, is kept.
-			k := bytes.IndexByte(b[i:], comma)
-			if k < 0 {
-				s = append(s, b[i:]...)
-				dst = append(dst, s[start:len(s):len(s)])
-				*scratch = s
-				return dst
-			}
-			s = append(s, b[i:i+k]...)
-			dst = append(dst, s[start:len(s):len(s)])
-			b = b[i+k+1:]
-			continue
-		}
-		i := bytes.IndexByte(b, comma)
-		if i < 0 {
-			*scratch = s
-			return append(dst, b)
-		}
-		dst = append(dst, b[:i])
-		b = b[i+1:]
-	}
-}
 
 // decodeUTF16 turns UTF-16 text (after its byte order mark) into UTF-8.
 func decodeUTF16(b []byte, bigEndian bool) []byte {
@@ -214,98 +125,12 @@ func (c crReader) Read(p []byte) (int, error) {
 	return n, err
 }
 
-// detectComma picks the delimiter that gives the most lines with the same
-// number (at least two) of fields in the sample text, among those that
-// leave the fewest quotes inside unquoted fields (a delimiter that cuts
-// through quoted fields leaves such quotes); ties go to the larger number
-// of fields, then to tab, then semicolon, then comma.
-func detectComma(lines [][]byte) byte {
-	best, bestN, bestModal, bestBare := byte(','), -1, 1, 0
-	for _, c := range []byte{'\t', ';', ','} {
-		m, n := modalFields(lines, c)
-		if m < 2 {
-			continue
-		}
-		bare := bareQuotes(lines, c)
-		if bestN < 0 || bare < bestBare || bare == bestBare && (n > bestN || n == bestN && m > bestModal) {
-			best, bestN, bestModal, bestBare = c, n, m, bare
-		}
-	}
-	return best
-}
-
-// bareQuotes counts the records in which, split at comma, a quote stands
-// inside an unquoted field.
-func bareQuotes(lines [][]byte, comma byte) int {
-	n := 0
-	for _, l := range joinRecords(lines, comma) {
-		if _, bare := scanQuote(l, comma, false, true); bare {
-			n++
-		}
-	}
-	return n
-}
-
-// modalFields returns the most common number of fields (at least two) of
-// the lines, joined into records and split at comma, and how many records
-// have it; 1, 0 when none has two fields.
-func modalFields(lines [][]byte, comma byte) (modal, count int) {
-	return modalWidth(lines, comma, func(fs [][]byte) int { return len(fs) })
-}
-
-// typicalWidth is modalFields not counting trailing empty fields, as the
-// header row is judged (importer.run): the width the header row must
-// reach about half of.
+// typicalWidth is the most common width of the records (at least two),
+// not counting trailing empty fields, as the header row is judged
+// (importer.run): the width the header row must reach about half of.
 func typicalWidth(lines [][]byte, comma byte) int {
-	m, _ := modalWidth(lines, comma, trimmedLen)
+	m, _ := delimiter.ModalWidth(lines, comma, trimmedLen)
 	return m
-}
-
-// modalWidth returns the most common width (at least two) of the records of
-// lines split at comma, and how many records have it; 1, 0 when none is
-// two wide.
-func modalWidth(lines [][]byte, comma byte, width func([][]byte) int) (modal, count int) {
-	var scratch []byte
-	var fs [][]byte
-	counts := map[int]int{}
-	for _, l := range joinRecords(lines, comma) {
-		fs = split(l, comma, fs[:0], &scratch)
-		counts[width(fs)]++
-	}
-	m, n := 0, 0
-	for k, v := range counts {
-		if k >= 2 && (v > n || v == n && k > m) {
-			m, n = k, v
-		}
-	}
-	if m < 2 {
-		return 1, 0
-	}
-	return m, n
-}
-
-// joinRecords joins the lines of a quoted field that holds line breaks
-// into one record, as the line reader does (lineReader.next), so that the
-// delimiter and the typical number of fields are judged on records, not
-// on the pieces of one.
-func joinRecords(lines [][]byte, comma byte) [][]byte {
-	out := make([][]byte, 0, len(lines))
-	for i := 0; i < len(lines); i++ {
-		l := lines[i]
-		if bytes.IndexByte(l, '"') >= 0 {
-			if q, _ := scanQuote(l, comma, false, true); q {
-				rec := append([]byte(nil), l...)
-				for q && i+1 < len(lines) {
-					i++
-					rec = append(append(rec, '\n'), lines[i]...)
-					q, _ = scanQuote(lines[i], comma, true, false)
-				}
-				l = rec
-			}
-		}
-		out = append(out, l)
-	}
-	return out
 }
 
 // trimmedLen is the number of fields without trailing empty ones. A field

@@ -14,6 +14,7 @@ import (
 
 	"lixiv/engine/chem"
 	"lixiv/engine/internal/dateorder"
+	"lixiv/engine/internal/delimiter"
 )
 
 const peekSize = 64 << 10
@@ -78,7 +79,10 @@ func (im *importer) read(r io.Reader) error {
 		im.fileProblem(ErrNotTable, "the file is empty")
 		return lr.err
 	}
-	comma := detectComma(sample)
+	comma, ok := delimiter.Detect(sample, decimalMark(opt.Decimal))
+	if !ok {
+		comma = ',' // one column: the delimiter does not matter
+	}
 	switch opt.Comma {
 	case ',', ';', '\t', '|':
 		comma = byte(opt.Comma)
@@ -92,6 +96,18 @@ func (im *importer) read(r io.Reader) error {
 	}
 	im.run(lr, comma, splitLines(sample, comma), modal)
 	return lr.err
+}
+
+// decimalMark says what Options.Decimal tells the delimiter detector: a
+// decimal comma rules out the comma as the delimiter.
+func decimalMark(d rune) delimiter.Mark {
+	switch d {
+	case ',':
+		return delimiter.CommaMark
+	case '.':
+		return delimiter.PointMark
+	}
+	return delimiter.AnyMark
 }
 
 // newImporter starts an import into t.
@@ -116,11 +132,11 @@ type records interface {
 // splitLines cuts sample lines, joined into records, into fields, each line with its own scratch
 // so that unquoted fields stay valid.
 func splitLines(lines [][]byte, comma byte) [][][]byte {
-	lines = joinRecords(lines, comma)
+	lines = delimiter.JoinRecords(lines, comma)
 	out := make([][][]byte, len(lines))
 	for i, l := range lines {
 		var scratch []byte
-		out[i] = split(l, comma, nil, &scratch)
+		out[i] = delimiter.Split(l, comma, nil, &scratch)
 	}
 	return out
 }

@@ -19,27 +19,29 @@ func TestReadDelimiters(t *testing.T) {
 		name       string
 		text       string
 		comma, dec rune
+		opt        Options
 	}{
-		{"comma", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1\n", ',', '.'},
-		{"semicolon", "Site;Ca (mg/L);Na (mg/L)\nA;40.078;1\n", ';', '.'},
-		{"semicolon, decimal comma", "Site;Ca (mg/L);Na (mg/L)\nA;40,078;1\n", ';', ','},
-		{"tab (pasted cells)", "Site\tCa (mg/L)\tNa (mg/L)\t\nA\t40.078\t1\t\n", '\t', '.'},
-		{"tab, decimal comma", "Site\tCa (mg/L)\tNa (mg/L)\nA\t40,078\t1\n", '\t', ','},
-		{"CRLF", "Site,Ca (mg/L),Na (mg/L)\r\nA,40.078,1\r\n", ',', '.'},
-		{"CR only (old exports)", "Site,Ca (mg/L),Na (mg/L)\rA,40.078,1\r", ',', '.'},
-		{"UTF-8 BOM", "\ufeffSite,Ca (mg/L),Na (mg/L)\nA,40.078,1\n", ',', '.'},
-		{"quoted fields", "\"Site\",\"Ca (mg/L)\",\"Na (mg/L)\"\n\"A\",\"40.078\",\"1\"\n", ',', '.'},
-		{"no final newline", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1", ',', '.'},
-		{"blank lines", "\n\nSite,Ca (mg/L),Na (mg/L)\n\nA,40.078,1\n\n", ',', '.'},
-		{"semicolon, decimal comma, trailing empty cells", "Site;Ca;Na;Remark\n;mg/L;mg/L;\nA;40,078;1,5;\nB;40,078;1,25;\nC;40,078;n.a.;dry\nD;40,078;2,5;\n", ';', ','},
+		{"comma", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1\n", ',', '.', Options{}},
+		{"semicolon", "Site;Ca (mg/L);Na (mg/L)\nA;40.078;1\n", ';', '.', Options{}},
+		{"semicolon, decimal comma", "Site;Ca (mg/L);Na (mg/L)\nA;40,078;1\n", ';', ',', Options{}},
+		{"tab (pasted cells)", "Site\tCa (mg/L)\tNa (mg/L)\t\nA\t40.078\t1\t\n", '\t', '.', Options{}},
+		{"tab, decimal comma", "Site\tCa (mg/L)\tNa (mg/L)\nA\t40,078\t1\n", '\t', ',', Options{}},
+		{"CRLF", "Site,Ca (mg/L),Na (mg/L)\r\nA,40.078,1\r\n", ',', '.', Options{}},
+		{"CR only (old exports)", "Site,Ca (mg/L),Na (mg/L)\rA,40.078,1\r", ',', '.', Options{}},
+		{"UTF-8 BOM", "\ufeffSite,Ca (mg/L),Na (mg/L)\nA,40.078,1\n", ',', '.', Options{}},
+		{"quoted fields", "\"Site\",\"Ca (mg/L)\",\"Na (mg/L)\"\n\"A\",\"40.078\",\"1\"\n", ',', '.', Options{}},
+		{"no final newline", "Site,Ca (mg/L),Na (mg/L)\nA,40.078,1", ',', '.', Options{}},
+		{"blank lines", "\n\nSite,Ca (mg/L),Na (mg/L)\n\nA,40.078,1\n\n", ',', '.', Options{}},
+		{"semicolon, decimal comma, trailing empty cells", "Site;Ca;Na;Remark\n;mg/L;mg/L;\nA;40,078;1,5;\nB;40,078;1,25;\nC;40,078;n.a.;dry\nD;40,078;2,5;\n", ';', ',', Options{}},
 		// A quoted note holding line breaks and the other delimiters: the
 		// delimiter is judged on records, not on the pieces of one.
-		{"quoted line breaks and commas in a tab table", "Site\tCa (mg/L)\tNote\nA\t40.078\t\"wet,\nwindy,\ncold,\"\n", '\t', '.'},
-		{"tab with ragged trailing tabs", "Site\tCa (mg/L)\tNa (mg/L)\tNote\nA\t40.078\t1\t\nB\t40.078\t2\nC\t40.078\t3\tx\n", '\t', '.'},
+		{"quoted line breaks and commas in a tab table", "Site\tCa (mg/L)\tNote\nA\t40.078\t\"wet,\nwindy,\ncold,\"\n", '\t', '.', Options{}},
+		{"semicolon, decimal comma set", "Site;Ca (mg/L);Na (mg/L)\nA;40,078;1\n", ';', ',', Options{Decimal: ','}},
+		{"tab with ragged trailing tabs", "Site\tCa (mg/L)\tNa (mg/L)\tNote\nA\t40.078\t1\t\nB\t40.078\t2\nC\t40.078\t3\tx\n", '\t', '.', Options{}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			tb := ParseText(tc.text, "t.csv", Options{})
+			tb := ParseText(tc.text, "t.csv", tc.opt)
 			if err := tb.Problems.Err(); err != nil {
 				t.Fatalf("problems: %v", err)
 			}

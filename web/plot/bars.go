@@ -57,6 +57,22 @@ func (br *bars) base(v float64, up, down *float64) float64 {
 	return b
 }
 
+// stacked calls f for each segment of category i that is drawn, with its
+// value and the base it stands on: positive values stack up from zero,
+// negative ones down from it where the bars allow them (others are left
+// out). zeros says whether segments of value zero are passed too.
+func (br *bars) stacked(i int, zeros bool, f func(s *Segment, v, base float64)) {
+	up, down := 0.0, 0.0
+	for k := range br.segs {
+		s := &br.segs[k]
+		v := at(s.Value, i)
+		if !finite(v) || v == 0 && !zeros || v < 0 && !br.below {
+			continue
+		}
+		f(s, v, br.base(v, &up, &down))
+	}
+}
+
 func at(v []float64, i int) float64 {
 	if i < len(v) {
 		return v[i]
@@ -75,34 +91,22 @@ func (br *bars) extend(c *Chart) {
 	c.Y.include(0)
 	top, bottom := 0.0, 0.0
 	for i := range br.cats {
-		up, down := 0.0, 0.0
-		for _, s := range br.segs {
-			v := at(s.Value, i)
-			if !finite(v) || v < 0 && !br.below {
-				continue
-			}
-			br.base(v, &up, &down)
-			top, bottom = max(top, up), min(bottom, down)
-		}
+		br.stacked(i, true, func(_ *Segment, v, base float64) {
+			top, bottom = max(top, base+v), min(bottom, base+v)
+		})
 	}
 	c.Y.include(top)
 	c.Y.include(bottom)
 	span := top - bottom
 	for i := range br.cats {
-		up, down := 0.0, 0.0
-		for _, s := range br.segs {
-			v := at(s.Value, i)
-			if !finite(v) || v < 0 && !br.below {
-				continue
-			}
-			b := br.base(v, &up, &down)
+		br.stacked(i, true, func(s *Segment, _, b float64) {
 			if hi := at(s.Hi, i); finite(hi) && (span <= 0 || b+hi <= bottom+wideInterval*span) {
 				c.Y.include(b + hi)
 			}
 			if lo := at(s.Lo, i); br.below && finite(lo) && (span <= 0 || b+lo >= top-wideInterval*span) {
 				c.Y.include(b + lo)
 			}
-		}
+		})
 	}
 }
 
@@ -118,26 +122,14 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 	}
 	for i := range br.cats {
 		x := c.X.Map(float64(i))
-		up, down := 0.0, 0.0
-		for _, s := range br.segs {
-			v := at(s.Value, i)
-			if !finite(v) || v == 0 || v < 0 && !br.below {
-				continue
-			}
-			base := br.base(v, &up, &down)
+		br.stacked(i, false, func(s *Segment, v, base float64) {
 			y0, y1 := c.Y.Map(base), c.Y.Map(base+v)
 			if finite(y0, y1) {
 				fmt.Fprintf(b, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1"><title>%s: %s</title></rect>`,
 					x-bw/2, math.Min(y0, y1), bw, math.Abs(y0-y1), c.hatchURL(s.Style), s.Style.Colour, esc(br.cats[i]+" "+s.Name), Number(v))
 			}
-		}
-		up, down = 0, 0
-		for _, s := range br.segs {
-			v := at(s.Value, i)
-			if !finite(v) || v == 0 || v < 0 && !br.below {
-				continue
-			}
-			base := br.base(v, &up, &down)
+		})
+		br.stacked(i, false, func(s *Segment, _, base float64) {
 			lo, hi := at(s.Lo, i), at(s.Hi, i)
 			if finite(lo, hi) {
 				ylo, yhi := c.Y.Map(base+lo), c.Y.Map(base+hi)
@@ -156,6 +148,6 @@ func (br *bars) draw(b *strings.Builder, c *Chart) {
 						xw, ylo, yhi, xw-4, ylo, xw-4, yhi)
 				}
 			}
-		}
+		})
 	}
 }

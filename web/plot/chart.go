@@ -173,16 +173,13 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 	}
 	for i, t := range xt {
 		px := c.X.Map(t.Value)
-		if math.IsNaN(px) || px < x0-0.5 || px > x1+0.5 {
+		if offSpan(px, x0, x1) {
 			continue
 		}
-		l := 5.0
-		if t.Minor {
-			l = 3
-		} else {
+		if !t.Minor {
 			fmt.Fprintf(b, `<line x1="%.1f" y1="%g" x2="%.1f" y2="%g" stroke="#ddd" stroke-width="0.6"/>`, px, y0, px, y1)
 		}
-		fmt.Fprintf(b, `<line x1="%.1f" y1="%g" x2="%.1f" y2="%g" stroke="#444"/>`, px, y1, px, y1+l)
+		fmt.Fprintf(b, `<line x1="%.1f" y1="%g" x2="%.1f" y2="%g" stroke="#444"/>`, px, y1, px, y1+t.markLength())
 		if t.Label != "" {
 			y := y1 + 18
 			if stagger && i%2 == 1 {
@@ -193,22 +190,31 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 	}
 	for _, t := range c.Y.Ticks() {
 		py := c.Y.Map(t.Value)
-		if math.IsNaN(py) || py < y0-0.5 || py > y1+0.5 {
+		if offSpan(py, y0, y1) {
 			continue
 		}
-		l := 5.0
-		if t.Minor {
-			l = 3
-		} else {
+		if !t.Minor {
 			fmt.Fprintf(b, `<line x1="%g" y1="%.1f" x2="%g" y2="%.1f" stroke="#ddd" stroke-width="0.6"/>`, x0, py, x1, py)
 		}
-		fmt.Fprintf(b, `<line x1="%g" y1="%.1f" x2="%g" y2="%.1f" stroke="#444"/>`, x0-l, py, x0, py)
+		fmt.Fprintf(b, `<line x1="%g" y1="%.1f" x2="%g" y2="%.1f" stroke="#444"/>`, x0-t.markLength(), py, x0, py)
 		if t.Label != "" {
 			fmt.Fprintf(b, `<text x="%g" y="%.1f" text-anchor="end" fill="#222">%s</text>`, x0-8, py+4, esc(t.Label))
 		}
 	}
 	fmt.Fprintf(b, `<text x="%g" y="%g" text-anchor="middle" fill="#111">%s</text>`, (x0+x1)/2, bottom+38, esc(c.X.Label))
 	fmt.Fprintf(b, `<text transform="translate(14 %g) rotate(-90)" text-anchor="middle" fill="#111">%s</text>`, (y0+y1)/2, esc(c.Y.Label))
+}
+
+// offSpan reports whether the position p falls outside the plotted span
+// [lo, hi] (half a pixel of slack) or is not a number.
+func offSpan(p, lo, hi float64) bool { return math.IsNaN(p) || p < lo-0.5 || p > hi+0.5 }
+
+// markLength is the length of t's mark on the axis: shorter for a minor tick.
+func (t Tick) markLength() float64 {
+	if t.Minor {
+		return 3
+	}
+	return 5
 }
 
 func (c *Chart) legendRows(w float64) int {

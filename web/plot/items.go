@@ -51,11 +51,14 @@ type points struct {
 	names  []string
 }
 
-func (p *points) extend(c *Chart) {
-	for i := range p.xs {
-		if i < len(p.ys) && finite(p.xs[i], p.ys[i]) {
-			c.X.include(p.xs[i])
-			c.Y.include(p.ys[i])
+func (p *points) extend(c *Chart) { c.includeXY(p.xs, p.ys) }
+
+// includeXY widens the axes to the finite pairs of xs and ys.
+func (c *Chart) includeXY(xs, ys []float64) {
+	for i := range xs {
+		if i < len(ys) && finite(xs[i], ys[i]) {
+			c.X.include(xs[i])
+			c.Y.include(ys[i])
 		}
 	}
 }
@@ -84,14 +87,7 @@ type line struct {
 	xs, ys []float64
 }
 
-func (l *line) extend(c *Chart) {
-	for i := range l.xs {
-		if i < len(l.ys) && finite(l.xs[i], l.ys[i]) {
-			c.X.include(l.xs[i])
-			c.Y.include(l.ys[i])
-		}
-	}
-}
+func (l *line) extend(c *Chart) { c.includeXY(l.xs, l.ys) }
 
 func (l *line) draw(b *strings.Builder, c *Chart) {
 	var d strings.Builder

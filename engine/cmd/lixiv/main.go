@@ -23,25 +23,21 @@ func run(args []string, stdout, stderr io.Writer) error {
 	if len(args) == 0 {
 		return usageError("no sub-command; run lixiv help")
 	}
+	if cmd, ok := commands[args[0]]; ok {
+		return cmd(args[1:], stdout, stderr)
+	}
 	switch args[0] {
-	case "serve":
-		return runServe(args[1:], stdout, stderr)
-	case "rerun":
-		return runRerun(args[1:], stdout, stderr)
-	case "check":
-		return runCheck(args[1:], stdout, stderr)
-	case "tables":
-		return runTables(args[1:], stdout, stderr)
-	case "quick":
-		return runQuick(args[1:], stdout, stderr)
-	case "batch":
-		return runBatch(args[1:], stdout, stderr)
 	case "kinds":
 		return runKinds(args[1:], stdout)
 	case "help", "-h", "-help", "--help":
 		return runHelp(args[1:], stdout)
 	}
 	return usageError(fmt.Sprintf("unknown sub-command %q; run lixiv help", args[0]))
+}
+
+// commands are the sub-commands that write to both outputs, by name.
+var commands = map[string]func(args []string, stdout, stderr io.Writer) error{
+	"serve": runServe, "rerun": runRerun, "check": runCheck, "tables": runTables, "quick": runQuick, "batch": runBatch,
 }
 
 // statusError carries an exit status other than 1.

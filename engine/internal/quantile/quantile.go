@@ -74,13 +74,12 @@ func Select(x []float64, p float64) float64 {
 	if n == 0 {
 		return math.NaN()
 	}
-	i, f := position(n, p)
-	if i >= n-1 {
-		slices.Sort(x) // the last of equal values as a sort leaves them
-		return x[n-1]
+	if i, f := position(n, p); i < n-1 {
+		a := order.Select(x, i)
+		return between(a, order.Min(x[i+1:]), f) // the right of i holds the larger ones
 	}
-	a := order.Select(x, i)
-	return between(a, order.Min(x[i+1:]), f) // the right of i holds the larger ones
+	slices.Sort(x) // the last of equal values as a sort leaves them
+	return x[n-1]
 }
 
 // SortedInterval returns the type-7 median and 95 % bounds of sorted x.
