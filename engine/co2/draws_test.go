@@ -20,6 +20,8 @@ func TestOverDraws(t *testing.T) {
 	// Mg* − Na_sil (Ca/Na + Mg/Na) = 599 − phi_sil/2 then has 473.08,
 	// 478.91 and 485.04. Tolerances are about 4
 	// Monte Carlo standard errors for 20000 draws.
+	// The concentrations are the invented sample of science brief §13 item 8
+	// (project test data, no published source).
 	c := chem.NewComposition()
 	c[chem.Na], c[chem.K], c[chem.Ca], c[chem.Mg] = 125.7736, 20.56099, 435.56508, 106.90273
 	c[chem.Cl], c[chem.SO4] = 30, 1.551756

@@ -14,6 +14,7 @@ import (
 // practice: a correction only moves amounts between reservoirs).
 func FuzzApply(f *testing.F) {
 	f.Add(100.0, 120.0, 10.0, 300.0, 80.0, 60.0, 0.0, uint8(0))
+	// Seed inputs are invented µmol/L values (no source; any values do for a fuzz seed).
 	f.Add(565.7647, 486.0597, 10.5797, 10.6568, 54.7421, 29.2643, 0.0, uint8(1))
 	f.Add(80.0, 200.0, 20.0, 100.0, 40.0, 30.0, 50.0, uint8(2))
 	f.Add(0.0, 0.0, 0.0, 1000.0, 0.0, 500.0, 1e-300, uint8(5))

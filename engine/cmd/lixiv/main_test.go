@@ -125,7 +125,9 @@ func TestCheckMismatch(t *testing.T) {
 	if !strings.Contains(stdout.String(), "DIFFERS") {
 		t.Errorf("stdout %q does not say the results differ", stdout.String())
 	}
-	// A changed setting (rain Na/Cl) changes the rerun as well.
+	// A changed setting (rain Na/Cl) changes the rerun as well. 0.85912 is the
+	// seawater Na/Cl molar ratio the file stores (Millero et al. 2008, reference composition; table number from memory,
+	// as the sea-salt preset cites it); 0.95 is an arbitrary edit.
 	edited = bytes.Replace(data, []byte(`"na_per_cl": 0.85912`), []byte(`"na_per_cl": 0.95`), 1)
 	os.WriteFile(path, edited, 0o644)
 	stdout.Reset()
@@ -182,7 +184,7 @@ func TestRerunReportsComparison(t *testing.T) {
 	}
 	for _, s := range []string{`"sections": [`, `"section": "Lintmoor Beck, after spreading"`, `"comparison": {`,
 		`"design": "before-after-control-impact"`, `"apportionment_draws": "once per replicate for every budget`,
-		`"silicate CO2": {`, `"p_above_zero":`, `"monitoring_design": [`, `"t_co2_per_t": 0.352`, `"cautions": [`} {
+		`"silicate CO2": {`, `"p_above_zero":`, `"monitoring_design": [`, `"t_co2_per_t": 0.352`, `"cautions": [`} { // 0.352: the example basalt's CO2 potential by the oxide form of Renforth (2012), computed (engine/compare potential_test)
 		if !bytes.Contains(out, []byte(s)) {
 			t.Errorf("report lacks %s", s)
 		}
