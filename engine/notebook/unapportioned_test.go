@@ -27,6 +27,14 @@ func unfittable(t *testing.T, n int, high bool) *Document {
 	if err != nil {
 		t.Fatal(err)
 	}
+	// Fewer draws than the demo's: the unfittable samples run to the draw
+	// cap, and what is checked here (counts, shares, statuses) does not
+	// depend on how many draws the fitting samples keep.
+	for _, p := range [][3]string{{"apportionment", "target_ess", "300"}, {"apportionment", "max_draws", "3000"}, {"fluxes", "bootstrap", "200"}} {
+		if err := d.SetParam(p[0], p[1], p[2]); err != nil {
+			t.Fatal(err)
+		}
+	}
 	if err := d.Recompute(context.Background(), nil); err != nil {
 		t.Fatal(err)
 	}

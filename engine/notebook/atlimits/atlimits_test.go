@@ -24,9 +24,9 @@ func TestAtTheLimits(t *testing.T) {
 		want       string
 	}{
 		{"one more effective draw", "apportionment", [][3]string{{"apportionment", "target_ess", strconv.Itoa(Draws + 1)}}, "above the limit of 4,000,000"},
-		{"one replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"fluxes", "bootstrap", strconv.Itoa(Replicates + 1)}},
+		{"one replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"apportionment", "target_ess", "1"}, {"apportionment", "max_draws", "1"}, {"fluxes", "bootstrap", strconv.Itoa(Replicates + 1)}},
 			"bootstrap replicates (bootstrap): 648 replicates × (4,000 samples + 73,200 days of discharge)"},
-		{"one series replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"fluxes", "series_bootstrap", strconv.Itoa(Replicates + 1)}},
+		{"one series replicate more", "fluxes", [][3]string{{"apportionment", "draws", "1"}, {"apportionment", "target_ess", "1"}, {"apportionment", "max_draws", "1"}, {"fluxes", "series_bootstrap", strconv.Itoa(Replicates + 1)}},
 			"series bootstrap replicates (series_bootstrap): 648 replicates"},
 	}
 	for _, tt := range tests {
