@@ -27,7 +27,7 @@ func TestTiming(t *testing.T) {
 		t.Skip("LIXIV_TIMING not set")
 	}
 	srv := startServer(t)
-	var cold, warm, computed, sent []float64
+	var cold, warm, computed, sent, coldCompile, warmCompile []float64
 	for i := 0; i < loadRuns; i++ {
 		ctx := newBrowser(t, "")
 		open(t, ctx, srv.URL)
@@ -35,6 +35,7 @@ func TestTiming(t *testing.T) {
 			t.Fatal("the page has no timing probes: build it with LIXIV_TAGS=timing (make browser-timing does)")
 		}
 		cold = append(cold, eval[float64](t, ctx, `lixivBoot.firstRender`))
+		coldCompile = append(coldCompile, eval[float64](t, ctx, compileTime))
 		waitIdle(t, ctx)
 		computed = append(computed, eval[float64](t, ctx, `performance.now()`))
 		if i == 0 {
@@ -47,10 +48,13 @@ func TestTiming(t *testing.T) {
 		}
 		waitReady(t, ctx)
 		warm = append(warm, eval[float64](t, ctx, `lixivBoot.firstRender`))
+		warmCompile = append(warmCompile, eval[float64](t, ctx, compileTime))
 	}
 	t.Logf("timing: first load, bytes transferred (every file the page fetched, headers included): median %.0f", median(sent))
 	t.Logf("timing: first render, cold (empty profile): %s", stats(cold))
+	t.Logf("timing: of which fetching and compiling the module: %s", stats(coldCompile))
 	t.Logf("timing: first render, reload from the service worker: %s", stats(warm))
+	t.Logf("timing: of which fetching and compiling the module: %s", stats(warmCompile))
 	t.Logf("timing: demo fully computed after navigation (cold): %s", stats(computed))
 
 	ctx := newBrowser(t, "")
@@ -114,6 +118,9 @@ func TestTiming(t *testing.T) {
 // loadRuns is the number of cold and warm loads TestTiming takes the
 // medians of.
 const loadRuns = 8
+
+// compileTime is the time from the start of boot.js to the module compiled.
+const compileTime = `lixivBoot.compiled - lixivBoot.start`
 
 // transferred lists, as text, each file the page fetched with the bytes
 // that came over the wire for it and its size decoded.
