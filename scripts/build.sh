@@ -6,7 +6,10 @@
 #  3. wasm_exec.js from the Go that built them, vugu's renderer helper, the
 #     static files of web/static and the demo budget from examples/;
 #  4. sw.js stamped with a hash of everything, so a new build refreshes the
-#     offline cache; the wasm files gzipped for the server.
+#     offline cache;
+#  5. every file's brotli and gzip twins for the server (web/cmd/compress),
+#     which then prints the page's first-load weight and fails the build when
+#     it passes 2 MB.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 out=${1:-web/dist}
@@ -38,11 +41,8 @@ fi
 
 version=$(cd "$out.tmp" && cat $(ls | sort) | sha256sum | cut -c1-16)
 sed -i "s/^const VERSION = \".*\";/const VERSION = \"$version\";/" "$out.tmp/sw.js"
-gzip -9 -k -f "$out.tmp"/*.wasm
+"$GO" run ./web/cmd/compress "$out.tmp"
 
 rm -rf "$out"
 mv "$out.tmp" "$out"
 printf 'build: %s (version %s)\n' "$out" "$version"
-for f in main.wasm; do
-	printf '  %-12s %8d bytes raw, %8d bytes gzip\n' "$f" "$(stat -c %s "$out/$f")" "$(stat -c %s "$out/$f.gz")"
-done

@@ -18,6 +18,9 @@ func pexp(x float64) float64 { return portable.Exp(x) }
 // plog is portable.Log.
 func plog(x float64) float64 { return portable.Log(x) }
 
+// fmax is the built-in max of two float64, inlined (portable.Max).
+func fmax(x, y float64) float64 { return portable.Max(x, y) }
+
 // normQuantile returns the standard normal quantile of p in (0, 1), by
 // Acklam's rational approximation (relative error below 1.15e-9; P. J.
 // Acklam 2003, "An algorithm for computing the inverse normal cumulative
@@ -52,23 +55,29 @@ func normQuantile(p float64) float64 {
 	switch {
 	case p < pLow:
 		q := math.Sqrt(-2 * plog(p))
-		return horner(q, c1, c2, c3, c4, c5, c6) / horner(q, d1, d2, d3, d4, 1)
+		return horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
 	case p > 1-pLow:
 		q := math.Sqrt(-2 * plog(1-p))
-		return -horner(q, c1, c2, c3, c4, c5, c6) / horner(q, d1, d2, d3, d4, 1)
+		return -horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
 	}
 	q := p - 0.5
 	r := q * q
-	return horner(r, a1, a2, a3, a4, a5, a6) * q / horner(r, b1, b2, b3, b4, b5, 1)
+	return horner6(r, a1, a2, a3, a4, a5, a6) * q / horner6(r, b1, b2, b3, b4, b5, 1)
 }
 
-// horner evaluates c[0] x^(n-1) + ... + c[n-1], rounding every product.
-func horner(x float64, c ...float64) float64 {
-	v := c[0]
-	for _, ci := range c[1:] {
-		v = float64(v*x) + ci
-	}
-	return v
+// horner5 evaluates c0 x⁴ + c1 x³ + ... + c4 by Horner's rule, rounding
+// every product (written out rather than over a slice, so that it inlines
+// with its coefficients in registers).
+func horner5(x, c0, c1, c2, c3, c4 float64) float64 {
+	v := float64(c0*x) + c1
+	v = float64(v*x) + c2
+	v = float64(v*x) + c3
+	return float64(v*x) + c4
+}
+
+// horner6 is horner5 with one more coefficient: c0 x⁵ + ... + c5.
+func horner6(x, c0, c1, c2, c3, c4, c5 float64) float64 {
+	return float64(horner5(x, c0, c1, c2, c3, c4)*x) + c5
 }
 
 // sqrt is math.Sqrt, which is exactly rounded (IEEE 754) on every target.
@@ -82,8 +91,9 @@ func sqrt(x float64) float64 { return math.Sqrt(x) }
 func perfc(x float64) float64 {
 	z := abs(x)
 	t := 1 / (1 + 0.5*z)
-	p := horner(t, 0.17087277, -0.82215223, 1.48851587, -1.13520398, 0.27886807,
-		-0.18628806, 0.09678418, 0.37409196, 1.00002368, -1.26551223)
+	p := horner5(t, 0.17087277, -0.82215223, 1.48851587, -1.13520398, 0.27886807)
+	p = horner5(t, p, -0.18628806, 0.09678418, 0.37409196, 1.00002368)
+	p = float64(p*t) + -1.26551223
 	v := t * pexp(float64(-z*z)+p)
 	if x < 0 {
 		return 2 - v

@@ -50,6 +50,7 @@ type proposal struct {
 	comp []component
 	cum  []float64 // cumulative π, for choosing a component
 	lpi  []float64 // log π
+	lc   []float64 // ell's working space, one per component
 }
 
 // draws is what fitProposal reads of the draws so far.
@@ -261,25 +262,31 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 // N(eta; 0, I). u is working space of length d.
 func (p *proposal) ell(eta, u []float64) float64 {
 	d := p.d
+	eta, u = eta[:d], u[:d]
 	e := 0.0
 	for i := range d {
 		e += eta[i] * eta[i]
 	}
 	top, sum := math.Inf(-1), 0.0
-	var lc [1 << MaxEndMembers]float64
+	if len(p.lc) < len(p.comp) {
+		p.lc = make([]float64, len(p.comp))
+	}
+	lc := p.lc
 	for ci := range p.comp {
 		c := &p.comp[ci]
+		mu := c.mu[:d]
 		q := 0.0
 		for i := range d {
-			v := eta[i] - c.mu[i]
-			for k := range i {
-				v -= c.l[i*d+k] * u[k]
+			v := eta[i] - mu[i]
+			row := c.l[i*d : i*d+i+1]
+			for k, lk := range row[:i] {
+				v -= lk * u[k]
 			}
-			u[i] = v / c.l[i*d+i]
+			u[i] = v / row[i]
 			q += u[i] * u[i]
 		}
 		lc[ci] = p.lpi[ci] - 0.5*q - c.halfDet
-		top = max(top, lc[ci])
+		top = fmax(top, lc[ci])
 	}
 	for ci := range p.comp {
 		sum += pexp(lc[ci] - top)

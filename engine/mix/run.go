@@ -49,6 +49,9 @@ type Run struct {
 	over     atomic.Int64 // 1 + the sample whose draws passed Options.MaxKept, or 0
 	shown    float64      // Progress: the largest fraction reported so far
 	mu       sync.Mutex   // serialises Options.Progress
+
+	spare   []*sampleWork // finished samples' buffers, for the next ones begun
+	spareMu sync.Mutex
 }
 
 // NewRun checks the problem, draws the first-stage end-member ratios and
@@ -191,8 +194,10 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 		n -= k
 		r.report()
 		if r.work.finished {
+			s := r.work.s
 			r.finish(r.work)
-			if r.keep(r.work.s) {
+			r.release(r.work)
+			if r.keep(s) {
 				r.cancel()
 				return true
 			}
@@ -203,6 +208,9 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 		}
 	}
 	r.res.Status = r.res.worst()
+	if r.Done() {
+		r.dropSpares()
+	}
 	return r.Done()
 }
 
@@ -214,6 +222,7 @@ func (r *Run) cancel() {
 	r.work = nil
 	r.cur = len(r.prob.Waters)
 	r.res.Status = r.res.worst()
+	r.dropSpares()
 }
 
 // report calls Options.Progress.
@@ -266,9 +275,11 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 				if !w.finished {
 					r.res.Samples[s].Status = Canceled
 					r.res.Samples[s].Verdict = Canceled.String()
+					r.release(w)
 					continue
 				}
 				r.finish(w)
+				r.release(w)
 				if r.keep(s) {
 					r.res.Samples[s].Status = Canceled
 					r.res.Samples[s].Verdict = Canceled.String()
@@ -280,6 +291,7 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 		}()
 	}
 	wg.Wait()
+	r.dropSpares()
 	r.cur = ns
 	r.res.Status = r.res.worst()
 	return r.res, r.Err()

@@ -33,24 +33,41 @@ type sampleWork struct {
 	zrng     *rand.Rand // errors of the data
 	d, k     int        // latent dimensions and end-members taking part
 	stride   int        // floats per draw record
-	rec      []float64
-	stageOf  []int8
-	ell      [][]float64 // ell[s-1][draw]: log of stage s's Gaussian over the prior density
 	props    []proposal
-	nStage   []int // draws taken in each stage
-	size     int   // draws planned for the current stage
-	planned  int   // draws planned so far, over all stages (for progress)
-	n        int   // draws so far
+	size     int // draws planned for the current stage
+	planned  int // draws planned so far, over all stages (for progress)
+	n        int // draws so far
 	eff      float64
-	lq       []float64  // log mixture density over the prior density, per draw
 	essStart float64    // ESS of all draws when the current stage began
 	own      [3]float64 // the current stage's own weights: log scale, sum, sum of squares
 	stop     Stop
 	finished bool
 
+	theta [NTracers][MaxEndMembers]float64
+	fits  [1 << MaxEndMembers]faceFit // slabDraw's working space
+
+	workBufs
+}
+
+// workBufs are a sample's growing records and working space. A Run hands
+// them from a finished sample to the next (Run.begin, Run.release), so that
+// a run allocates them once per goroutine rather than once per sample;
+// every element is written before it is read.
+type workBufs struct {
+	rec     []float64
+	stageOf []int8
+	ell     [][]float64 // ell[s-1][draw]: log of stage s's Gaussian over the prior density
+	nStage  []int       // draws taken in each stage
+	lq      []float64   // log mixture density over the prior density, per draw
+
 	z, eta, u []float64
-	theta     [NTracers][MaxEndMembers]float64
-	fits      [1 << MaxEndMembers]faceFit // slabDraw's working space
+
+	ellFree      [][]float64 // ell rows of earlier samples, for reuse
+	wt, lw, lc   []float64   // endStage's, mixture's and finish's working space
+	kw, col, shr []float64
+	keep         []int
+	splits       []Split
+	idx          []wpair
 }
 
 // Offsets in a draw record (after the d latents).
@@ -110,11 +127,14 @@ func (w *sampleWork) latents(k int) []float64 { return w.rec[k*w.stride : k*w.st
 
 func (w *sampleWork) at(k, off int) float64 { return w.rec[k*w.stride+w.d+off] }
 
-// begin starts sample s.
+// begin starts sample s, on the buffers of a finished sample when the run
+// has one spare.
 func (r *Run) begin(s int) *sampleWork {
 	sr := &r.res.Samples[s]
 	st := &sr.setup
-	w := &sampleWork{s: s, st: st, d: len(st.dims), k: st.k, eff: 0.3}
+	w := r.spareWork()
+	bufs := w.workBufs
+	*w = sampleWork{s: s, st: st, d: len(st.dims), k: st.k, eff: 0.3, workBufs: bufs}
 	if st.skip {
 		w.finished = true
 		return w
@@ -127,13 +147,56 @@ func (r *Run) begin(s int) *sampleWork {
 	w.stride = w.d + oFrac + w.k + int(NSources)*NCations + 1 + st.r
 	w.size = min(r.opt.Draws, r.opt.MaxDraws)
 	w.planned = w.size
-	w.nStage = []int{0}
-	w.rec = make([]float64, 0, w.size*w.stride)
-	w.z = make([]float64, st.q)
-	w.eta = make([]float64, w.d)
-	w.u = make([]float64, w.d)
+	w.nStage = append(w.nStage[:0], 0)
+	w.rec = slices.Grow(w.rec[:0], w.size*w.stride)
+	w.stageOf = w.stageOf[:0]
+	w.z = zeroed(w.z, st.q)
+	w.eta = zeroed(w.eta, w.d)
+	w.u = zeroed(w.u, w.d)
 	return w
 }
+
+// spareWork returns the sample work a finished sample left, or a new one.
+func (r *Run) spareWork() *sampleWork {
+	r.spareMu.Lock()
+	defer r.spareMu.Unlock()
+	if n := len(r.spare); n > 0 {
+		w := r.spare[n-1]
+		r.spare = r.spare[:n-1]
+		return w
+	}
+	return new(sampleWork)
+}
+
+// release hands a finished sample's buffers to the next sample begun.
+func (r *Run) release(w *sampleWork) {
+	w.ellFree = append(w.ellFree, w.ell...)
+	clear(w.ell)
+	w.ell = w.ell[:0]
+	clear(w.props)
+	w.props = w.props[:0]
+	r.spareMu.Lock()
+	defer r.spareMu.Unlock()
+	r.spare = append(r.spare, w)
+}
+
+// dropSpares lets the buffers of a finished run go.
+func (r *Run) dropSpares() {
+	r.spareMu.Lock()
+	defer r.spareMu.Unlock()
+	clear(r.spare)
+	r.spare = nil
+}
+
+// zeroed returns buf resized to n, every element 0.
+func zeroed(buf []float64, n int) []float64 {
+	buf = slices.Grow(buf[:0], n)[:n]
+	clear(buf)
+	return buf
+}
+
+// sized returns buf resized to n; its elements are left as they were.
+func sized[T any](buf []T, n int) []T { return slices.Grow(buf[:0], n)[:n] }
 
 // advance takes up to budget more draws of the sample, ending stages and
 // starting new ones as it goes, and returns the draws taken.
@@ -226,7 +289,7 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	r.eval(w, k)
 	if s > 0 {
 		e := w.ell[s-1][k]
-		big := max(plog(defensive), plog(1-defensive)+e)
+		big := fmax(plog(defensive), plog(1-defensive)+e)
 		lw := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
 		if o := &w.own; !math.IsInf(lw, -1) {
 			if o[1] == 0 {
@@ -278,13 +341,13 @@ func (r *Run) eval(w *sampleWork, k int) {
 	if r.opt.perturb {
 		nnls(K, &H, &b0, &n0)
 		nnls(K, &H, &b1, &n1)
-		chi2 := max(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
-		dd = max(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		chi2 := fmax(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
+		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
 		logL = -0.5 * chi2
 		if !r.opt.noVolume && R >= K {
 			hd, ok := logDetChol(K, &H)
 			if !ok {
-				hd = 0.5 * float64(K) * plog(1e-13*max(H[0][0], 1e-300))
+				hd = 0.5 * float64(K) * plog(1e-13*fmax(H[0][0], 1e-300))
 			}
 			logL -= hd
 		}
@@ -297,7 +360,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 		if logL != logL {
 			logL = math.Inf(-1)
 		}
-		dd = max(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
 		n0 = n1
 	}
 	o := k*w.stride + w.d
@@ -321,7 +384,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
-	w.rec[o+oFrac+K+int(NSources)*NCations] = max(0, st.so4.At(w.z))
+	w.rec[o+oFrac+K+int(NSources)*NCations] = fmax(0, st.so4.At(w.z))
 }
 
 // design fills A with the design of st's rows for the ratios th: 1 in the
@@ -358,9 +421,9 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
-		atm, evap := max(0, st.atm[c].At(w.z)), max(0, st.evap[c].At(w.z))
+		atm, evap := fmax(0, st.atm[c].At(w.z)), fmax(0, st.evap[c].At(w.z))
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		x := max(0, st.in[c]-atm-evap)
+		x := fmax(0, st.in[c]-atm-evap)
 		for src := range NSources {
 			v := m[src][c]
 			if st.has[c] {
@@ -415,7 +478,8 @@ func (w *sampleWork) mixture() {
 		c0 += defensive * float64(w.nStage[s])
 	}
 	lc0 := plog(c0 / nTot)
-	lc := make([]float64, len(w.props))
+	w.lc = sized(w.lc, len(w.props))
+	lc := w.lc
 	for s := range w.props {
 		lc[s] = plog((1 - defensive) * float64(w.nStage[s+1]) / nTot)
 	}
@@ -423,7 +487,7 @@ func (w *sampleWork) mixture() {
 	for k := 0; k < w.n; k++ {
 		big := lc0
 		for s := range w.props {
-			big = max(big, lc[s]+w.ell[s][k])
+			big = fmax(big, lc[s]+w.ell[s][k])
 		}
 		sum := pexp(lc0 - big)
 		for s := range w.props {
@@ -440,7 +504,7 @@ func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
 	top := math.Inf(-1)
 	for k := 0; k < w.n; k++ {
 		wt[k] = beta*w.at(k, oLogL) - w.lq[k]
-		top = max(top, wt[k])
+		top = fmax(top, wt[k])
 	}
 	if math.IsInf(top, -1) || top != top {
 		clear(wt[:w.n]) // no draw has a finite weight
@@ -463,25 +527,27 @@ func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
 // reaches the target or its draws the cap; otherwise a new stage is fitted
 // to the weighted draws so far.
 func (w *sampleWork) endStage(r *Run) {
-	wt := make([]float64, w.n)
+	w.wt = sized(w.wt, w.n)
+	wt := w.wt
 	ess := w.weights(wt)
 	last := len(w.nStage) - 1
 	if last >= 1 {
 		// Efficiency of the last stage on its own: its draws weighted
 		// against its own proposal only.
 		var sw, sw2 float64
-		lw := make([]float64, 0, w.nStage[last])
+		lw := w.lw[:0]
 		top := math.Inf(-1)
 		for k := 0; k < w.n; k++ {
 			if int(w.stageOf[k]) != min(last, 127) {
 				continue
 			}
 			e := w.ell[last-1][k]
-			big := max(plog(defensive), plog(1-defensive)+e)
+			big := fmax(plog(defensive), plog(1-defensive)+e)
 			v := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
 			lw = append(lw, v)
-			top = max(top, v)
+			top = fmax(top, v)
 		}
+		w.lw = lw
 		for _, v := range lw {
 			x := pexp(v - top)
 			sw += x
@@ -528,7 +594,12 @@ func (w *sampleWork) endStage(r *Run) {
 	if debugStages {
 		println("   beta", beta, "fitESS", int(fitESS))
 	}
-	ell := make([]float64, w.n, w.n+w.size)
+	var ell []float64
+	if n := len(w.ellFree); n > 0 {
+		ell = w.ellFree[n-1]
+		w.ellFree = w.ellFree[:n-1]
+	}
+	ell = slices.Grow(ell[:0], w.n+w.size)[:w.n]
 	for k := 0; k < w.n; k++ {
 		ell[k] = p.ell(w.latents(k), w.u)
 	}

@@ -139,7 +139,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		t, chi2, jac, vt := 0.0, yy, 0.0, 0.0
 		for i := 0; i < m; i++ {
 			ci := c[f.idx[i]]
-			t += ci * max(f.mu[i], 0)
+			t += ci * fmax(f.mu[i], 0)
 			jac += logc[f.idx[i]]
 			chi2 -= 2 * b[f.idx[i]] * f.mu[i]
 			for p := 0; p < m; p++ {
@@ -156,15 +156,15 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		// (the log-uniform density is steep near zero; a point value
 		// there would overstate the face).
 		te := sqrt(t*t + vt)
-		lz := logPrior + logSlab(m, max(te, slabLo)) + jac - 0.5*max(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
+		lz := logPrior + logSlab(m, fmax(te, slabLo)) + jac - 0.5*fmax(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
 		for i := 0; i < m; i++ {
-			lz += plog(max(normCDF(f.mu[i]/sd[i]), 1e-300))
+			lz += plog(fmax(normCDF(f.mu[i]/sd[i]), 1e-300))
 		}
 		if lz != lz {
 			continue
 		}
 		f.logZ = lz
-		top = max(top, lz)
+		top = fmax(top, lz)
 	}
 	// Choose a face in proportion to the estimates.
 	sum := 0.0
@@ -221,7 +221,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	if math.IsInf(lp, -1) {
 		return math.Inf(-1)
 	}
-	chi2 := max(0, yy-2*dot(K, b, n)+quad(K, H, n))
+	chi2 := fmax(0, yy-2*dot(K, b, n)+quad(K, H, n))
 	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }

@@ -43,23 +43,27 @@ func (r *Run) finish(w *sampleWork) {
 		sr.setQuantilesNaN()
 		return
 	}
-	wt := make([]float64, w.n)
+	w.wt = sized(w.wt, w.n)
+	wt := w.wt
 	ess := w.weights(wt)
 	sr.ESS, sr.Draws, sr.Stages, sr.Stop = ess, w.n, len(w.nStage), w.stop
-	var idx []wpair
+	idx := &w.idx
 	// Summaries over the draws that carry weight (lighter than 1e-12 of
 	// the largest, a draw adds nothing measurable).
-	keep := make([]int, 0, w.n)
+	keep := w.keep[:0]
 	for i := range w.n {
 		if wt[i] > keepRelWeight {
 			keep = append(keep, i)
 		}
 	}
-	kw := make([]float64, len(keep))
+	w.keep = keep
+	w.kw = sized(w.kw, len(keep))
+	kw := w.kw
 	for a, i := range keep {
 		kw[a] = wt[i]
 	}
-	col := make([]float64, max(len(keep), w.nStage[0]))
+	w.col = sized(w.col, max(len(keep), w.nStage[0]))
+	col := w.col
 	// Na fractions of the end-members taking part, their prior widths and
 	// correlations.
 	k := w.k
@@ -68,7 +72,7 @@ func (r *Run) finish(w *sampleWork) {
 		for a, i := range keep {
 			col[a] = w.frac(i, jj)
 		}
-		iv := weightedInterval(col[:len(keep)], kw, &idx)
+		iv := weightedInterval(col[:len(keep)], kw, idx)
 		sr.Alpha[j] = iv
 		for i := range n0 {
 			col[i] = w.frac(i, jj)
@@ -129,8 +133,10 @@ func (r *Run) finish(w *sampleWork) {
 		present[Atmosphere] = present[Atmosphere] || st.atm[c].Value != 0 || st.atm[c].Grad != nil
 		present[Evaporite] = present[Evaporite] || st.evap[c].Value != 0 || st.evap[c].Grad != nil
 	}
-	shr := make([]float64, len(keep))
-	splits := make([]Split, len(keep))
+	w.shr = sized(w.shr, len(keep))
+	shr := w.shr
+	w.splits = sized(w.splits, len(keep))
+	splits := w.splits
 	for a, i := range keep {
 		splits[a] = w.split(i)
 	}
@@ -148,9 +154,9 @@ func (r *Run) finish(w *sampleWork) {
 					shr[a] = sp[src][c] / tot
 				}
 			}
-			iv := weightedInterval(col[:len(keep)], kw, &idx)
+			iv := weightedInterval(col[:len(keep)], kw, idx)
 			sr.Amount.Lo[src][c], sr.Amount.Median[src][c], sr.Amount.Hi[src][c] = iv.Lo, iv.Median, iv.Hi
-			iv = weightedInterval(shr, kw, &idx)
+			iv = weightedInterval(shr, kw, idx)
 			sr.Share.Lo[src][c], sr.Share.Median[src][c], sr.Share.Hi[src][c] = iv.Lo, iv.Median, iv.Hi
 			if c != 1 && (src == Silicate || src == Carbonate || src == Evaporite) && iv.Hi-iv.Lo >= wideSplit {
 				// The same share under the prior draws alone, unweighted:
@@ -175,8 +181,8 @@ func (r *Run) finish(w *sampleWork) {
 		sp += kw[a] * chi2Survival(st.r, w.at(i, oD))
 	}
 	sr.PPP = sp / sw
-	sr.Misfit = r.misfit(w, keep, kw, col, &idx)
-	sr.Bounds = r.bounds(w, keep, kw, col, &idx)
+	sr.Misfit = r.misfit(w, keep, kw, col, idx)
+	sr.Bounds = r.bounds(w, keep, kw, col, idx)
 	sr.Status = Fits
 	if sr.PPP < fitLevel {
 		sr.Status = NoFit

@@ -17,34 +17,44 @@ import (
 
 // TestTiming measures, without asserting anything, the time from
 // navigation to the first render of the demo (cold: empty profile; warm:
-// a reload served by the service worker) and the time from an edit of a
-// rain ratio to the repainted result, with the apportionment at 2,000
-// draws. Run it with `make browser-timing`, which builds the page with the
-// timing probes (-tags timing).
+// a reload served by the service worker), medians of loadRuns loads, the
+// bytes the first load transferred, and the time from an edit of a rain
+// ratio to the repainted result, with the apportionment at 2,000 draws.
+// Run it with `make browser-timing`, which builds the page with the timing
+// probes (-tags timing).
 func TestTiming(t *testing.T) {
 	if os.Getenv("LIXIV_TIMING") == "" {
 		t.Skip("LIXIV_TIMING not set")
 	}
 	srv := startServer(t)
-	var cold, warm, computed []float64
-	for i := 0; i < 4; i++ {
+	var cold, warm, computed, sent, coldCompile, warmCompile []float64
+	for i := 0; i < loadRuns; i++ {
 		ctx := newBrowser(t, "")
 		open(t, ctx, srv.URL)
 		if eval[string](t, ctx, `typeof lixivLastBuild`) != "number" {
 			t.Fatal("the page has no timing probes: build it with LIXIV_TAGS=timing (make browser-timing does)")
 		}
 		cold = append(cold, eval[float64](t, ctx, `lixivBoot.firstRender`))
+		coldCompile = append(coldCompile, eval[float64](t, ctx, compileTime))
 		waitIdle(t, ctx)
 		computed = append(computed, eval[float64](t, ctx, `performance.now()`))
+		if i == 0 {
+			t.Logf("timing: first load transferred (bytes, headers included): %s", eval[string](t, ctx, transferred))
+		}
+		sent = append(sent, eval[float64](t, ctx, `performance.getEntriesByType("navigation").concat(performance.getEntriesByType("resource")).reduce((s, e) => s + e.transferSize, 0)`))
 		time.Sleep(1500 * time.Millisecond) // let the service worker install
 		if err := chromedp.Do(ctx, chromedp.Reload()); err != nil {
 			t.Fatal(err)
 		}
 		waitReady(t, ctx)
 		warm = append(warm, eval[float64](t, ctx, `lixivBoot.firstRender`))
+		warmCompile = append(warmCompile, eval[float64](t, ctx, compileTime))
 	}
+	t.Logf("timing: first load, bytes transferred (every file the page fetched, headers included): median %.0f", median(sent))
 	t.Logf("timing: first render, cold (empty profile): %s", stats(cold))
+	t.Logf("timing: of which fetching and compiling the module: %s", stats(coldCompile))
 	t.Logf("timing: first render, reload from the service worker: %s", stats(warm))
+	t.Logf("timing: of which fetching and compiling the module: %s", stats(warmCompile))
 	t.Logf("timing: demo fully computed after navigation (cold): %s", stats(computed))
 
 	ctx := newBrowser(t, "")
@@ -103,6 +113,27 @@ func TestTiming(t *testing.T) {
 	}
 	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
 	t.Logf("timing: (demo shows %d sample rows)", samples)
+}
+
+// loadRuns is the number of cold and warm loads TestTiming takes the
+// medians of.
+const loadRuns = 8
+
+// compileTime is the time from the start of boot.js to the module compiled.
+const compileTime = `lixivBoot.compiled - lixivBoot.start`
+
+// transferred lists, as text, each file the page fetched with the bytes
+// that came over the wire for it and its size decoded.
+const transferred = `performance.getEntriesByType("navigation").concat(performance.getEntriesByType("resource"))
+	.map(e => e.name.replace(location.origin, "") + " " + e.transferSize + " (" + e.decodedBodySize + " decoded)").join("; ")`
+
+func median(v []float64) float64 {
+	s := append([]float64(nil), v...)
+	sort.Float64s(s)
+	if len(s) == 0 {
+		return 0
+	}
+	return s[len(s)/2]
 }
 
 func stats(v []float64) string {

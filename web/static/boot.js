@@ -17,8 +17,14 @@
     if (el) { el.textContent = "The notebook could not start: " + e; }
     console.error(e);
   }
+  // The module is compiled once, while it streams in, and kept as
+  // lixivBoot.module (a promise of a WebAssembly.Module) for anything else
+  // that runs it. Compiled from the response the service worker keeps, a
+  // second visit reuses the browser's cache of the compiled code.
+  window.lixivBoot.module = WebAssembly.compileStreaming(fetch("main.wasm"));
   var go = new Go();
-  WebAssembly.instantiateStreaming(fetch("main.wasm"), go.importObject)
-    .then(function (r) { return go.run(r.instance); })
+  window.lixivBoot.module
+    .then(function (m) { window.lixivBoot.compiled = performance.now(); return WebAssembly.instantiate(m, go.importObject); })
+    .then(function (instance) { return go.run(instance); })
     .catch(fail);
 })();

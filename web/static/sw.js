@@ -21,7 +21,7 @@ self.addEventListener("fetch", function (e) {
   const req = e.request;
   if (req.method !== "GET" || new URL(req.url).origin !== self.location.origin) { return; }
   e.respondWith(caches.open(CACHE).then(function (c) {
-    return c.match(req, { ignoreSearch: true }).then(function (hit) {
+    return c.match(req, { ignoreSearch: true, ignoreVary: true }).then(function (hit) {
       return hit || fetch(req).then(function (resp) {
         if (resp.ok) { c.put(req, resp.clone()); }
         return resp;

@@ -11,6 +11,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"time"
 )
@@ -65,8 +66,9 @@ func checkLoopback(addr string) error {
 }
 
 // pageHandler serves the files of dir: WebAssembly with its own mime type,
-// the gzip-compressed twin of a file when the browser accepts it, no caching
-// by the browser (the service worker caches), and the content security policy.
+// the brotli- or gzip-compressed twin of a file (name.br, name.gz, written
+// by the build) when the browser accepts that encoding, no caching by the
+// browser (the service worker caches), and the content security policy.
 func pageHandler(dir string) http.Handler {
 	// A system mime.types may map .wasm elsewhere; instantiateStreaming
 	// accepts only application/wasm.
@@ -85,19 +87,62 @@ func pageHandler(dir string) http.Handler {
 			http.Error(w, "method not allowed", http.StatusMethodNotAllowed)
 			return
 		}
+		// What a file is sent as depends on Accept-Encoding, for every
+		// file, so that no cache hands one browser another's encoding.
+		h.Add("Vary", "Accept-Encoding")
 		name := path.Clean("/" + r.URL.Path)
-		if strings.Contains(r.Header.Get("Accept-Encoding"), "gzip") && !strings.HasSuffix(name, "/") {
-			gz := filepath.Join(dir, filepath.FromSlash(name)+".gz")
-			if st, err := os.Stat(gz); err == nil && !st.IsDir() {
-				if ct := mime.TypeByExtension(path.Ext(name)); ct != "" {
-					h.Set("Content-Type", ct)
-				}
-				h.Set("Content-Encoding", "gzip")
-				h.Add("Vary", "Accept-Encoding")
-				http.ServeFile(w, r, gz)
-				return
+		if strings.HasSuffix(r.URL.Path, "/") {
+			name = path.Join(name, "index.html")
+		}
+		for _, enc := range twins {
+			// .../index.html is redirected to .../ by the file server.
+			if strings.HasSuffix(r.URL.Path, "/index.html") || !accepts(r.Header.Get("Accept-Encoding"), enc.coding) {
+				continue
 			}
+			file := filepath.Join(dir, filepath.FromSlash(name)+enc.suffix)
+			if st, err := os.Stat(file); err != nil || st.IsDir() {
+				continue
+			}
+			if ct := mime.TypeByExtension(path.Ext(name)); ct != "" {
+				h.Set("Content-Type", ct)
+			}
+			h.Set("Content-Encoding", enc.coding)
+			http.ServeFile(w, r, file)
+			return
 		}
 		files.ServeHTTP(w, r)
 	})
+}
+
+// twins are the compressed copies the build writes beside a file, in the
+// order the server prefers them.
+var twins = []struct{ coding, suffix string }{
+	{"br", ".br"},
+	{"gzip", ".gz"},
+}
+
+// accepts reports whether an Accept-Encoding header allows coding: named
+// (or "*") with a weight above zero.
+func accepts(header, coding string) bool {
+	ok := false
+	for _, item := range strings.Split(header, ",") {
+		name, params, _ := strings.Cut(item, ";")
+		name = strings.ToLower(strings.TrimSpace(name))
+		if name != coding && name != "*" {
+			continue
+		}
+		allowed := true
+		for _, p := range strings.Split(params, ";") {
+			k, v, _ := strings.Cut(p, "=")
+			if strings.EqualFold(strings.TrimSpace(k), "q") {
+				q, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+				allowed = err == nil && q > 0
+			}
+		}
+		if name == coding {
+			return allowed // the coding's own entry rules over "*"
+		}
+		ok = allowed
+	}
+	return ok
 }

@@ -131,3 +131,29 @@ func Normal(rng *rand.Rand) float64 {
 		}
 	}
 }
+
+// Max is Go's built-in max of two float64 (NaN if either is NaN, +0 over
+// −0), written out so that the compiler inlines it: compiled to
+// WebAssembly the built-in is a call into the runtime, which the hot loops
+// of the inverse model and the quantiles felt.
+func Max(x, y float64) float64 {
+	if y != y || y > x {
+		return y
+	}
+	if x != x || x > y || x != 0 {
+		return x
+	}
+	return math.Float64frombits(math.Float64bits(x) & math.Float64bits(y)) // ±0: −0 only if both are
+}
+
+// Min is Go's built-in min of two float64 (NaN if either is NaN, −0 under
+// +0), written out so that the compiler inlines it (see Max).
+func Min(x, y float64) float64 {
+	if y != y || y < x {
+		return y
+	}
+	if x != x || x < y || x != 0 {
+		return x
+	}
+	return math.Float64frombits(math.Float64bits(x) | math.Float64bits(y)) // ±0: −0 if either is
+}

@@ -75,3 +75,26 @@ func TestChecksum(t *testing.T) {
 		t.Errorf("checksum %#x, want %#x", got, want)
 	}
 }
+
+// TestMaxMin checks Max and Min against the built-ins bit for bit,
+// infinities and signed zeros included; a NaN only as NaN (the built-ins'
+// NaN payload differs between targets).
+func TestMaxMin(t *testing.T) {
+	nan, inf := math.NaN(), math.Inf(1)
+	vals := []float64{nan, -inf, -1e300, -1, -5e-324, math.Copysign(0, -1), 0, 5e-324, 1, 2, 1e300, inf}
+	for _, x := range vals {
+		for _, y := range vals {
+			if got, want := Max(x, y), max(x, y); !same(got, want) {
+				t.Errorf("Max(%v, %v) = %v (bits %x), the built-in gives %v (bits %x)", x, y, got, math.Float64bits(got), want, math.Float64bits(want))
+			}
+			if got, want := Min(x, y), min(x, y); !same(got, want) {
+				t.Errorf("Min(%v, %v) = %v (bits %x), the built-in gives %v (bits %x)", x, y, got, math.Float64bits(got), want, math.Float64bits(want))
+			}
+		}
+	}
+}
+
+// same reports whether a and b have the same bits, or are both NaN.
+func same(a, b float64) bool {
+	return math.Float64bits(a) == math.Float64bits(b) || a != a && b != b
+}

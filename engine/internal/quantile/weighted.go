@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"lixiv/engine/internal/order"
+	"lixiv/engine/internal/portable"
 )
 
 // Pair is a value with its weight.
@@ -46,20 +47,22 @@ func lowerSelect(ps []Pair, target float64) float64 {
 	base := 0.0
 	for hi-lo > 12 {
 		a, b, c := ps[lo].V, ps[lo+(hi-lo)/2].V, ps[hi-1].V
-		p := max(min(a, b), min(max(a, b), c))
+		p := portable.Max(portable.Min(a, b), portable.Min(portable.Max(a, b), c))
 		// [lo, lt) < p, [lt, gt) == p, [gt, hi) > p.
 		lt, i, gt := lo, lo, hi
 		wl, we := 0.0, 0.0
 		for i < gt {
 			switch x := ps[i]; {
 			case x.V < p:
-				ps[lt], ps[i] = ps[i], ps[lt]
+				ps[i] = ps[lt]
+				ps[lt] = x
 				wl += x.W
 				lt++
 				i++
 			case x.V > p:
 				gt--
-				ps[gt], ps[i] = ps[i], ps[gt]
+				ps[i] = ps[gt]
+				ps[gt] = x
 			default:
 				we += x.W
 				i++
