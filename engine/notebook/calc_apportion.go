@@ -308,13 +308,20 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 	return nil
 }
 
-func computeApportionment(e *Env) (*Output, error) {
-	s := *e.Cell.Settings.(*ApportionmentSettings)
+// apportionInputs returns the rain cell's and the sources cell's outputs
+// the apportionment cell of e reads.
+func apportionInputs(e *Env) (*Atmosphere, []mix.EndMember, error) {
 	atm, err := inputOf[*Atmosphere](e, "atmosphere")
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	ems, err := inputOf[[]mix.EndMember](e, "sources")
+	return atm, ems, err
+}
+
+func computeApportionment(e *Env) (*Output, error) {
+	s := *e.Cell.Settings.(*ApportionmentSettings)
+	atm, ems, err := apportionInputs(e)
 	if err != nil {
 		return nil, err
 	}

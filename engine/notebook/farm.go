@@ -126,11 +126,7 @@ func NewFarmWork(ctx context.Context, job FarmJob) (*FarmWork, error) {
 		s.Sulfate = job.Sulfate
 	}
 	e := &Env{Ctx: ctx, Cell: c, doc: d, rough: job.Rough}
-	atm, err := inputOf[*Atmosphere](e, "atmosphere")
-	if err != nil {
-		return nil, err
-	}
-	ems, err := inputOf[[]mix.EndMember](e, "sources")
+	atm, ems, err := apportionInputs(e)
 	if err != nil {
 		return nil, err
 	}
