@@ -48,8 +48,9 @@ func ServeWorker() {
 				}
 			}()
 			if work == nil || !work.Same(job) {
+				prev := work
 				work = nil
-				if work, err = notebook.NewFarmWork(context.Background(), job); err != nil {
+				if work, err = notebook.NewFarmWork(context.Background(), job, prev); err != nil {
 					return nil, err
 				}
 			}

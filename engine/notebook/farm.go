@@ -97,15 +97,23 @@ func budgetOnly(d *Document) []byte {
 // samples of the same job.
 type FarmWork struct {
 	job FarmJob
+	doc *Document
 	run *mix.Run
 }
 
 // NewFarmWork reads the job's budget, computes the cells the
-// apportionment cell reads and sets up its inversion.
-func NewFarmWork(ctx context.Context, job FarmJob) (*FarmWork, error) {
-	d, err := Parse(job.Doc, "budget")
-	if err != nil {
-		return nil, err
+// apportionment cell reads and sets up its inversion. With prev, the
+// FarmWork of an earlier job, it reuses prev's budget and computed cells
+// when the job's budget is the same.
+func NewFarmWork(ctx context.Context, job FarmJob, prev *FarmWork) (*FarmWork, error) {
+	var d *Document
+	if prev != nil && bytes.Equal(prev.job.Doc, job.Doc) {
+		d = prev.doc
+	} else {
+		var err error
+		if d, err = Parse(job.Doc, "budget"); err != nil {
+			return nil, err
+		}
 	}
 	d.Workers = 1
 	c := d.Cell(job.Cell)
@@ -141,7 +149,7 @@ func NewFarmWork(ctx context.Context, job FarmJob) (*FarmWork, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &FarmWork{job: job, run: run}, nil
+	return &FarmWork{job: job, doc: d, run: run}, nil
 }
 
 // Same reports whether w is set up for job.

@@ -43,7 +43,7 @@ func (f *copies) Work(ctx context.Context, job FarmJob, n int, put func(int, []b
 				}
 				if w == nil || !w.Same(job) {
 					var err error
-					if w, err = NewFarmWork(ctx, job); err != nil {
+					if w, err = NewFarmWork(ctx, job, w); err != nil {
 						errs[c] = err
 						return
 					}

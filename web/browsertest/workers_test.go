@@ -51,3 +51,33 @@ func TestWorkersSameResults(t *testing.T) {
 		})
 	}
 }
+
+// TestLostWorkerIsNamed stops a worker as it is handed a sample: the
+// apportionment cell shows a problem naming the worker (never a silent
+// hang), and the next edit computes again on fresh workers.
+func TestLostWorkerIsNamed(t *testing.T) {
+	ctx := openDemo(t)
+	if eval[int](t, ctx, `lixivPool.size`) < 1 {
+		t.Skip("the page has no workers")
+	}
+	ap := cellOf(t, ctx, "apportionment")
+	eval[bool](t, ctx, `(() => { const post = Worker.prototype.postMessage;
+		Worker.prototype.postMessage = function (m, tr) {
+			if (m && m.sample === 0 && !window.lixivStopped) {
+				window.lixivStopped = true;
+				this.terminate();
+				this.onerror({message: "stopped from outside", preventDefault() {}});
+				return;
+			}
+			return post.call(this, m, tr);
+		};
+		return true })()`)
+	edit(t, ctx, "#p-"+ap+"-draws", "2000")
+	if msg := text(t, ctx, "#cell-"+ap+" .problem"); !strings.Contains(msg, "worker 1 of") || !strings.Contains(msg, "stopped from outside") {
+		t.Errorf("apportionment after a worker stopped: %q, want the worker named", msg)
+	}
+	edit(t, ctx, "#p-"+ap+"-draws", "2001")
+	if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
+		t.Errorf("after the next edit: cells with problems %q", bad)
+	}
+}
