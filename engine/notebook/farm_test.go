@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"runtime"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -73,6 +74,9 @@ func (f *copies) Work(ctx context.Context, job FarmJob, n int, put func(int, []b
 // origin both went through the farm. A copy that fails is named in the
 // cell.
 func TestFarmedSameResults(t *testing.T) {
+	if runtime.GOOS == "js" {
+		t.Skip("one thread: in WebAssembly the page's workers are checked by the browser test TestWorkersSameResults")
+	}
 	data, err := os.ReadFile(filepath.Join("..", "..", "examples", "corrie-vale", "corrie-vale.lixiv.json"))
 	if err != nil {
 		t.Fatal(err)
