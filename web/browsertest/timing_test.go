@@ -53,7 +53,7 @@ func TestTiming(t *testing.T) {
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)
-	t.Logf("timing: computed by: %s", eval[string](t, ctx, `(document.getElementById("compute-note") || {textContent: "the page's own thread"}).textContent`))
+	t.Logf("timing: computed with %d Web Workers (0: on the page's own thread; %d cores)", eval[int](t, ctx, `window.lixivPool ? lixivPool.size : 0`), eval[int](t, ctx, `navigator.hardwareConcurrency`))
 	if ap := eval[string](t, ctx, `(document.querySelector("section.kind-apportionment") || {id: ""}).id`); ap != "" {
 		setField(t, ctx, "#p-"+ap[len("cell-"):]+"-draws", "2000")
 	}
@@ -111,7 +111,7 @@ func TestTiming(t *testing.T) {
 		}
 		t.Logf("timing: a 40000-draw run (40,000 and 40,001 in turn) took %s", stats(runs))
 		t.Logf("timing: longest main-thread stall during it (10 ms heartbeat gap): %s", stats(gaps))
-		t.Logf("timing: longest main-thread task during it (longtask observer; 0: none over 50 ms): %s (longest engine slice on the page's thread: %s)",
+		t.Logf("timing: longest main-thread task during it (longtask observer; 0: none over 50 ms): %s (longest engine slice between the runner's hand-backs, not counting waits for the workers: %s)",
 			stats(longs), eval[string](t, ctx, `window.lixivLongestSlice || ""`))
 	}
 	samples := eval[int](t, ctx, `document.querySelectorAll("section.kind-samples table.out tbody tr").length`)
