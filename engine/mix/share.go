@@ -3,9 +3,11 @@ package mix
 import (
 	"bytes"
 	"context"
+	"encoding/binary"
 	"encoding/gob"
 	"errors"
 	"fmt"
+	"math"
 )
 
 // A run's samples may be worked apart from the run that gathers them: in
@@ -54,10 +56,15 @@ func (r *Run) PutSample(s int, b []byte) error {
 	if s < 0 || s >= len(r.res.Samples) {
 		return fmt.Errorf("mix: no sample %d", s)
 	}
+	head, k := binary.Uvarint(b)
+	if k <= 0 || head > uint64(len(b)-k) {
+		return fmt.Errorf("mix: sample %d: not a sample's bytes", s)
+	}
 	var m sampleWire
-	if err := gob.NewDecoder(bytes.NewReader(b)).Decode(&m); err != nil {
+	if err := gob.NewDecoder(bytes.NewReader(b[k : k+int(head)])).Decode(&m); err != nil {
 		return fmt.Errorf("mix: sample %d: %v", s, err)
 	}
+	raw := b[k+int(head):]
 	sr := &r.res.Samples[s]
 	if m.Result.Name != sr.Name {
 		return fmt.Errorf("mix: sample %d is %q, not %q", s, sr.Name, m.Result.Name)
@@ -68,18 +75,23 @@ func (r *Run) PutSample(s int, b []byte) error {
 	for _, w := range m.Warnings {
 		sr.Warnings = append(sr.Warnings, w.err())
 	}
-	const per = int(NSources)*NCations + 2
-	if len(m.Draws)%per != 0 {
-		return fmt.Errorf("mix: sample %d: %d draw values", s, len(m.Draws))
+	if len(raw)%drawBytes != 0 {
+		return fmt.Errorf("mix: sample %d: %d bytes of draws", s, len(raw))
 	}
-	sr.draws = make([]kept, len(m.Draws)/per)
+	sr.draws = make([]kept, len(raw)/drawBytes)
+	next := func() float64 {
+		x := math.Float64frombits(binary.LittleEndian.Uint64(raw))
+		raw = raw[8:]
+		return x
+	}
 	for k := range sr.draws {
-		v := m.Draws[k*per : (k+1)*per]
 		d := &sr.draws[k]
 		for src := range NSources {
-			copy(d.split[src][:], v[int(src)*NCations:])
+			for c := range d.split[src] {
+				d.split[src][c] = next()
+			}
 		}
-		d.so4, d.w = v[per-2], v[per-1]
+		d.so4, d.w = next(), next()
 	}
 	return nil
 }
@@ -114,13 +126,12 @@ func (r *Run) Gather(ctx context.Context) {
 }
 
 // sampleWire is a SampleResult as it travels between runs: its exported
-// fields, its warnings as text with the sentinel each wraps, and its kept
-// draws as flat numbers (the split, the sulfide sulfate and the weight of
-// each).
+// fields and its warnings as text with the sentinel each wraps, gob
+// encoded, its length first; its kept draws follow as raw bits
+// (drawBytes each), which gob would decode ten times slower.
 type sampleWire struct {
 	Result   SampleResult
 	Warnings []wireError
-	Draws    []float64
 }
 
 // wireError is an error that travelled: its text, and the index in
@@ -164,18 +175,25 @@ func encodeSample(sr *SampleResult) ([]byte, error) {
 		}
 		m.Warnings = append(m.Warnings, we)
 	}
-	const per = int(NSources)*NCations + 2
-	m.Draws = make([]float64, 0, len(sr.draws)*per)
+	var g bytes.Buffer
+	if err := gob.NewEncoder(&g).Encode(&m); err != nil {
+		return nil, fmt.Errorf("mix: sample %q: %v", sr.Name, err)
+	}
+	b := binary.AppendUvarint(make([]byte, 0, 10+g.Len()+len(sr.draws)*drawBytes), uint64(g.Len()))
+	b = append(b, g.Bytes()...)
 	for k := range sr.draws {
 		d := &sr.draws[k]
 		for src := range NSources {
-			m.Draws = append(m.Draws, d.split[src][:]...)
+			for _, x := range d.split[src] {
+				b = binary.LittleEndian.AppendUint64(b, math.Float64bits(x))
+			}
 		}
-		m.Draws = append(m.Draws, d.so4, d.w)
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(d.so4))
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(d.w))
 	}
-	var b bytes.Buffer
-	if err := gob.NewEncoder(&b).Encode(&m); err != nil {
-		return nil, fmt.Errorf("mix: sample %q: %v", sr.Name, err)
-	}
-	return b.Bytes(), nil
+	return b, nil
 }
+
+// drawBytes is the size of a kept draw as it travels: its split, the
+// sulfide sulfate and the weight, each as the 8 bytes of its bits.
+const drawBytes = (int(NSources)*NCations + 2) * 8
