@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # Builds the Lixiv notebook page into a folder (default web/dist):
 #  1. vugugen turns web/*.vugu into web/*_gen.go (committed, refreshed here);
-#  2. the page wasm (wasm/), engine and page together; long runs are
-#     computed in slices between frames, so no worker is needed;
+#  2. the page wasm (wasm/), engine and page together; the same module runs
+#     on the page's Web Workers (web/static/worker.js), which compute;
 #  3. wasm_exec.js from the Go that built them, vugu's renderer helper, the
 #     static files of web/static and the demo budget from examples/;
 #  4. sw.js stamped with a hash of everything, so a new build refreshes the

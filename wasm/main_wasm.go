@@ -1,7 +1,9 @@
 //go:build js && wasm
 
 // Command wasm is the browser entry of the Lixiv notebook page: it mounts the
-// Root component of package web and runs vugu's render loop.
+// Root component of package web and runs vugu's render loop. The same
+// module runs on the page's Web Workers (worker.js), where there is no
+// document: there it serves the page as a copy of the engine.
 package main
 
 import (
@@ -26,6 +28,10 @@ const memoryLimit = 1 << 30
 
 func main() {
 	debug.SetMemoryLimit(memoryLimit)
+	if js.Global().Get("document").IsUndefined() {
+		web.ServeWorker()
+		return
+	}
 	renderer, err := domrender.New("#lixiv")
 	if err != nil {
 		log.Fatal(err)

@@ -54,6 +54,7 @@ func (c *runner) recompute(doc *notebook.Document) {
 	c.loopDone = done
 	c.busy = true
 	doc.Quick = true
+	doc.Farm = pageFarm() // the inversions' samples on the page's workers, if any
 	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
 	go c.run(ctx, doc, prev, done, c.quickDone)
 }

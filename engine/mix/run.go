@@ -58,7 +58,11 @@ type Run struct {
 // sets up every water. It returns an error for a problem that cannot be run
 // at all (no end-members, an invalid prior); problems of single samples
 // become warnings on their results.
-func NewRun(p Problem, o *Options) (*Run, error) {
+func NewRun(p Problem, o *Options) (*Run, error) { return newRun(p, o, true) }
+
+// newRun is NewRun; without table it draws no first-stage table (a run
+// that only gathers samples worked elsewhere, NewGather).
+func newRun(p Problem, o *Options, table bool) (*Run, error) {
 	opt := o.withDefaults()
 	if err := p.validate(&opt); err != nil {
 		return nil, err
@@ -91,7 +95,9 @@ func NewRun(p Problem, o *Options) (*Run, error) {
 			}
 		}
 	}
-	r.drawTable()
+	if table {
+		r.drawTable()
+	}
 	r.res = &Result{
 		Seed:       opt.Seed,
 		Options:    opt,

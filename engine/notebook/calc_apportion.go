@@ -308,26 +308,35 @@ func forwardRatios(ems []mix.EndMember) *mix.SilicateRatios {
 	return nil
 }
 
-func computeApportionment(e *Env) (*Output, error) {
-	s := *e.Cell.Settings.(*ApportionmentSettings)
+// apportionInputs returns the rain cell's and the sources cell's outputs
+// the apportionment cell of e reads.
+func apportionInputs(e *Env) (*Atmosphere, []mix.EndMember, error) {
 	atm, err := inputOf[*Atmosphere](e, "atmosphere")
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	ems, err := inputOf[[]mix.EndMember](e, "sources")
+	return atm, ems, err
+}
+
+func computeApportionment(e *Env) (*Output, error) {
+	s := *e.Cell.Settings.(*ApportionmentSettings)
+	atm, ems, err := apportionInputs(e)
 	if err != nil {
 		return nil, err
 	}
-	workers := e.Workers()
+	iv := e.inverter()
 	rough := e.Rough()
-	a, out, err := apportion(e.Ctx, workers, e.Report, &s, atm, ems, true, rough)
+	a, out, err := apportion(e.Ctx, iv, e.Report, &s, atm, ems, true, rough)
 	if err != nil {
 		return out, err // out, when not nil, says which samples it could not take
 	}
 	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 		o := s
 		o.Sulfate = sulfate
-		b, _, err := apportion(ctx, workers, report, &o, atm, ems, false, rough)
+		ov := iv
+		ov.job.Sulfate = sulfate
+		b, _, err := apportion(ctx, ov, report, &o, atm, ems, false, rough)
 		return b, err
 	}
 	return out, nil
@@ -339,7 +348,7 @@ func computeApportionment(e *Env) (*Output, error) {
 // origin. Without summary it leaves out what only the cell shows (the
 // per-sample quantiles Median, Lo and Hi, and the tables): the draws,
 // their weights and each sample's mean split are all fluxes need.
-func apportion(ctx context.Context, workers int, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary, rough bool) (*Apportioned, *Output, error) {
+func apportion(ctx context.Context, iv inverter, report func(done, total int), s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, summary, rough bool) (*Apportioned, *Output, error) {
 	opt, err := correctOptions(s, atm)
 	if err != nil {
 		return nil, nil, err
@@ -364,7 +373,7 @@ func apportion(ctx context.Context, workers int, report func(done, total int), s
 	case "forward":
 		err = apportionForward(ctx, report, a, s, atm, ems, n, warn)
 	case "inverse", "catchment":
-		err = apportionInverse(ctx, workers, report, a, s, atm, ems, precs, n, rough, out, warn)
+		err = apportionInverse(ctx, iv, report, a, s, atm, ems, precs, n, rough, out, warn)
 	}
 	if err != nil {
 		return nil, nil, err
@@ -473,7 +482,7 @@ func apportionForward(ctx context.Context, report func(done, total int), a *Appo
 // apportionInverse fits the inverse model, or the catchment-wide model,
 // to the corrected samples of a, with the precisions precs, counting its
 // warnings in warn and saying in out what the whole run found.
-func apportionInverse(ctx context.Context, workers int, report func(done, total int), a *Apportioned, s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, precs []*correct.Precision, n int, rough bool, out *Output, warn map[string]int) error {
+func apportionInverse(ctx context.Context, iv inverter, report func(done, total int), a *Apportioned, s *ApportionmentSettings, atm *Atmosphere, ems []mix.EndMember, precs []*correct.Precision, n int, rough bool, out *Output, warn map[string]int) error {
 	var tracers []mix.Tracer
 	for _, t := range s.Tracers {
 		tr, err := mix.ParseTracer(t)
@@ -489,7 +498,7 @@ func apportionInverse(ctx context.Context, workers int, report func(done, total 
 	}
 	prec := atm.Samples.Precision
 	mo := &mix.Options{Draws: s.Draws, TargetESS: s.TargetESS, MaxDraws: s.MaxDraws, Seed: uint64(s.Seed),
-		Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: workers}
+		Precision: &prec, IsoErr: atm.Samples.IsoPrecision, Rain: atm.Uncertainty, ScaleCl: atm.ScaleCl, Workers: iv.workers}
 	if rough {
 		// The quick pass: a rough posterior now, refined in the full pass.
 		mo.Draws, mo.TargetESS, mo.MaxDraws = min(mo.Draws, roughDraws), min(mo.TargetESS, roughESS), min(mo.MaxDraws, roughMax)
@@ -509,7 +518,7 @@ func apportionInverse(ctx context.Context, workers int, report func(done, total 
 			co = &mix.CatchmentOptions{Warmup: 600, Batch: 400, MaxSteps: 400, Keep: 200}
 		}
 	}
-	res, err := invert(ctx, workers, report, p, mo, co)
+	res, err := invert(ctx, iv, report, p, mo, co)
 	if err != nil {
 		return err
 	}
@@ -638,10 +647,20 @@ const catchmentKeep = 1000
 // invert runs the inverse model (or, with co, the catchment-wide model) on
 // the problem: on one goroutine in chunks, the progress callback between
 // them, in the browser or with one worker (the chunk size does not change
-// the result); otherwise on every worker. A run stopped at the draws it
+// the result); through the document's Farm when it has one (per-sample
+// model only); otherwise on every worker. A run stopped at the draws it
 // may keep (mix.ErrTooManyKept) is an error that names the settings.
-func invert(ctx context.Context, workers int, report func(done, total int), p mix.Problem, mo *mix.Options, co *mix.CatchmentOptions) (*mix.Result, error) {
-	if workers == 1 || runtime.GOOS == "js" {
+func invert(ctx context.Context, iv inverter, report func(done, total int), p mix.Problem, mo *mix.Options, co *mix.CatchmentOptions) (*mix.Result, error) {
+	switch {
+	case iv.capture != nil && co == nil: // FarmWork takes the problem
+		*iv.capture, *iv.problem = *mo, p
+		return nil, errCaptured
+	case iv.capture != nil:
+		return nil, errors.New("the catchment-wide model is not worked sample by sample")
+	case iv.farm != nil && co == nil:
+		return iv.farmed(ctx, report, p, mo)
+	}
+	if iv.workers == 1 || runtime.GOOS == "js" {
 		type stepper interface {
 			Step(context.Context, int) bool
 			Progress() float64

@@ -85,6 +85,10 @@ type Document struct {
 	// Workers is the number of goroutines a long computation may use; 0
 	// means all cores. Results do not depend on it.
 	Workers int
+	// Farm, when set, works the samples of the per-sample inverse model
+	// elsewhere (the page's Web Workers); see Farm. Results do not depend
+	// on it.
+	Farm Farm
 	// Quick makes Step compute stale cells first without their intervals
 	// (the bootstraps of fluxes and CO2), so that a page can show the new
 	// point values at once, and then refine those cells in order. The
@@ -383,7 +387,7 @@ func (d *Document) Repair(id string, raw []byte) error {
 // Clone returns a deep copy of the document's cells, title and fields,
 // without computed results (for undo stacks and what-if copies).
 func (d *Document) Clone() *Document {
-	n := &Document{Title: d.Title, Engine: d.Engine, Extra: cloneRaw(d.Extra), Stored: d.Stored, Workers: d.Workers, Quick: d.Quick, rev: d.rev, funcs: d.funcs}
+	n := &Document{Title: d.Title, Engine: d.Engine, Extra: cloneRaw(d.Extra), Stored: d.Stored, Workers: d.Workers, Farm: d.Farm, Quick: d.Quick, rev: d.rev, funcs: d.funcs}
 	for _, c := range d.Cells {
 		n.Cells = append(n.Cells, c.clone())
 	}

@@ -1,5 +1,7 @@
-// Starts the Lixiv page: registers the offline service worker and runs the
-// page's WebAssembly. The page's content security policy forbids eval; the
+// Starts the Lixiv page: registers the offline service worker, compiles the
+// page's WebAssembly once, starts the Web Workers that compute (each an
+// instance of the same compiled module) and runs the page's own instance,
+// which draws. The page's content security policy forbids eval; the
 // renderer's helper script is loaded from vugu-render.js instead, so the
 // renderer's own eval of it is answered here without evaluating anything.
 "use strict";
@@ -17,14 +19,123 @@
     if (el) { el.textContent = "The notebook could not start: " + e; }
     console.error(e);
   }
+
+  // How many workers: one per core, at most the setting "workers" (the
+  // page's address, ?workers=N, else browser storage "lixiv.workers",
+  // else 4); 0 computes on the page's own thread.
+  function wanted() {
+    var v = new URLSearchParams(location.search).get("workers");
+    if (v === null) {
+      try { v = localStorage.getItem("lixiv.workers"); } catch (e) { v = null; }
+    }
+    var cap = (v === null || v === "" || isNaN(Number(v))) ? 4 : Math.max(0, Math.floor(Number(v)));
+    return Math.min(cap, navigator.hardwareConcurrency || 1);
+  }
+
+  // note says in the page, small, that it computes on its own thread.
+  function note(text) {
+    var p = document.createElement("p");
+    p.id = "compute-note";
+    p.className = "compute-note";
+    p.textContent = text;
+    document.body.appendChild(p);
+  }
+
+  // pool hands the samples of an inversion to the workers, one at a time
+  // to each, and reports each sample's bytes, the progress, or the first
+  // error, naming the worker. Cancelling a job, or a job's error, ends the
+  // workers still busy with it and starts fresh ones from the module.
+  function pool(module, size) {
+    var p = { size: 0, jobs: 0, run: null };
+    if (size < 1) {
+      note("Computing on the page's own thread (workers=0).");
+      return p;
+    }
+    if (typeof Worker === "undefined") {
+      note("This browser offers no Web Workers: the notebook computes on the page's own thread, so the page may pause during long runs.");
+      return p;
+    }
+    var slots = [], job = null, seq = 0;
+    function spawn(i) {
+      var w = new Worker("worker.js");
+      var slot = { n: i + 1, worker: w, busy: null, job: 0 };
+      w.onmessage = function (ev) { message(slot, ev.data); };
+      w.onerror = function (ev) { ev.preventDefault(); lost(slot, ev.message || "a script error"); };
+      w.postMessage({ module: module });
+      slots[i] = slot;
+    }
+    function respawn(slot) {
+      slot.worker.terminate();
+      spawn(slot.n - 1);
+    }
+    function stop() {
+      var id = job && job.id;
+      job = null;
+      slots.forEach(function (s) { if (s.busy !== null && s.busy === id) { respawn(s); } });
+    }
+    function failed(text) {
+      var j = job;
+      stop();
+      j.onError(text);
+    }
+    function lost(slot, why) {
+      var had = job && slot.busy === job.id;
+      respawn(slot);
+      if (had) { failed("worker " + slot.n + " of " + slots.length + " stopped: " + why); }
+    }
+    function feed(slot) {
+      if (!job || slot.busy !== null || job.next >= job.n) { return; }
+      var s = job.next++, m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
+      if (slot.job !== job.id) { m.doc = job.doc; slot.job = job.id; }
+      slot.busy = job.id;
+      slot.worker.postMessage(m);
+    }
+    function report() {
+      var f = 0;
+      for (var k in job.frac) { f += job.frac[k]; }
+      job.onProgress(f / job.n);
+    }
+    function message(slot, m) {
+      if (m.fatal) { lost(slot, m.fatal); return; }
+      if (!job || m.id !== job.id) { return; }
+      if (m.bytes === undefined && !m.error) { job.frac[m.sample] = m.progress; report(); return; }
+      slot.busy = null;
+      if (m.error) { failed("worker " + slot.n + " of " + slots.length + ": " + m.error); return; }
+      job.frac[m.sample] = 1;
+      job.got++;
+      var j = job;
+      if (j.got === j.n) { job = null; }
+      j.onSample(m.sample, m.bytes);
+      if (job) { report(); feed(slot); }
+    }
+    for (var i = 0; i < size; i++) { spawn(i); }
+    p.size = size;
+    // run starts a job (ending the one before) and returns its cancel.
+    p.run = function (doc, cell, sulfate, rough, n, onSample, onProgress, onError) {
+      if (job) { stop(); }
+      var id = ++seq;
+      p.jobs++;
+      job = { id: id, doc: doc, cell: cell, sulfate: sulfate, rough: rough, n: n, next: 0, got: 0, frac: {},
+        onSample: onSample, onProgress: onProgress, onError: onError };
+      slots.forEach(feed);
+      return function () { if (job && job.id === id) { stop(); } };
+    };
+    return p;
+  }
+
   // The module is compiled once, while it streams in, and kept as
-  // lixivBoot.module (a promise of a WebAssembly.Module) for anything else
-  // that runs it. Compiled from the response the service worker keeps, a
-  // second visit reuses the browser's cache of the compiled code.
+  // lixivBoot.module (a promise of a WebAssembly.Module) for the workers
+  // and anything else that runs it. Compiled from the response the service
+  // worker keeps, a second visit reuses the browser's cache of the compiled
+  // code.
   window.lixivBoot.module = WebAssembly.compileStreaming(fetch("main.wasm"));
   var go = new Go();
   window.lixivBoot.module
-    .then(function (m) { window.lixivBoot.compiled = performance.now(); return WebAssembly.instantiate(m, go.importObject); })
+    .then(function (module) {
+      window.lixivBoot.compiled = performance.now();
+      window.lixivPool = pool(module, wanted());
+      return WebAssembly.instantiate(module, go.importObject);
+    })
     .then(function (instance) { return go.run(instance); })
     .catch(fail);
 })();

@@ -1,0 +1,167 @@
+package notebook
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"fmt"
+
+	"lixiv/engine/mix"
+)
+
+// Farm works the samples of the per-sample inverse model apart from the
+// document that asks for them: in the page, on Web Workers, each holding
+// a copy of the engine. Document.Farm sets one; without it the samples
+// are worked in-process (on Document.Workers goroutines, or in chunks on
+// one in the browser).
+//
+// Results do not depend on it: every sample draws from its own random
+// streams, and every copy of the engine draws the seed's first-stage
+// table alike (mix.Run.WorkSample), so a sample worked anywhere gives the
+// same bits. The catchment-wide model (whose chains are shared by all
+// samples), the forward model and the bootstraps of fluxes and CO2 (whose
+// replicates take their draws from one stream in turn) stay in-process.
+type Farm interface {
+	// Work works samples 0 to n−1 of job, each through WorkSamples in a
+	// copy of the engine, and hands each sample's bytes to put (never
+	// concurrently), calling progress with the fraction done. It returns
+	// put's first error, the context's error when cancelled, or an error
+	// that names the copy of the engine that failed.
+	Work(ctx context.Context, job FarmJob, n int, put func(s int, b []byte) error, progress func(done float64)) error
+}
+
+// FarmJob says which inversion a copy of the engine is to work: the
+// budget (Document.Marshal, without stored results), the apportionment
+// cell, the sulfate origin when another than the cell's (the CO2 cell's
+// comparison of origins) and whether it is the quick pass.
+type FarmJob struct {
+	Doc     []byte
+	Cell    string
+	Sulfate string
+	Rough   bool
+}
+
+// inverter is how a cell runs the inverse model: on how many goroutines,
+// or through a Farm, and which job it is.
+type inverter struct {
+	workers int
+	farm    Farm
+	job     FarmJob
+	doc     *Document    // marshalled into job.Doc when the farm first needs it
+	capture *mix.Options // WorkSamples: set to the options instead of running
+	problem *mix.Problem
+}
+
+// inverter returns how this cell runs the inverse model.
+func (e *Env) inverter() inverter {
+	return inverter{workers: e.Workers(), farm: e.doc.Farm, job: FarmJob{Cell: e.Cell.ID, Rough: e.rough}, doc: e.doc}
+}
+
+// errCaptured stops an apportionment whose problem WorkSamples took.
+var errCaptured = errors.New("notebook: inversion problem captured")
+
+// farmed runs the per-sample inverse model of p through the farm.
+func (iv *inverter) farmed(ctx context.Context, report func(done, total int), p mix.Problem, mo *mix.Options) (*mix.Result, error) {
+	g, err := mix.NewGather(p, mo)
+	if err != nil {
+		return nil, err
+	}
+	job := iv.job
+	if job.Doc == nil {
+		job.Doc = budgetOnly(iv.doc)
+	}
+	err = iv.farm.Work(ctx, job, g.Samples(), g.PutSample, func(f float64) { report(int(f*1000), 1000) })
+	if ctx.Err() != nil {
+		return nil, ctx.Err()
+	}
+	if err != nil {
+		return nil, err
+	}
+	g.Gather(ctx)
+	report(1000, 1000)
+	if err := g.Err(); err != nil {
+		return nil, keptErr(err)
+	}
+	return g.Result(), nil
+}
+
+// budgetOnly is the budget file of d without its stored results.
+func budgetOnly(d *Document) []byte {
+	b := &Document{Title: d.Title, Cells: d.Cells, Extra: d.Extra}
+	return b.Marshal()
+}
+
+// FarmWork is one copy of the engine's share of a FarmJob: the problem
+// of the job's inversion, built from the budget as the document that
+// asked built it, ready to work samples. A copy keeps it for the next
+// samples of the same job.
+type FarmWork struct {
+	job FarmJob
+	doc *Document
+	run *mix.Run
+}
+
+// NewFarmWork reads the job's budget, computes the cells the
+// apportionment cell reads and sets up its inversion. With prev, the
+// FarmWork of an earlier job, it reuses prev's budget and computed cells
+// when the job's budget is the same.
+func NewFarmWork(ctx context.Context, job FarmJob, prev *FarmWork) (*FarmWork, error) {
+	var d *Document
+	if prev != nil && bytes.Equal(prev.job.Doc, job.Doc) {
+		d = prev.doc
+	} else {
+		var err error
+		if d, err = Parse(job.Doc, "budget"); err != nil {
+			return nil, err
+		}
+	}
+	d.Workers = 1
+	c := d.Cell(job.Cell)
+	if c == nil || c.Kind != KindApportionment {
+		return nil, fmt.Errorf("no apportionment cell %q in the budget", job.Cell)
+	}
+	for {
+		pending := d.Pending()
+		if len(pending) == 0 || pending[0] == job.Cell {
+			break
+		}
+		if _, err := d.Step(ctx, nil); err != nil {
+			return nil, err
+		}
+	}
+	s := *c.Settings.(*ApportionmentSettings)
+	if job.Sulfate != "" {
+		s.Sulfate = job.Sulfate
+	}
+	e := &Env{Ctx: ctx, Cell: c, doc: d, rough: job.Rough}
+	atm, ems, err := apportionInputs(e)
+	if err != nil {
+		return nil, err
+	}
+	iv := inverter{workers: 1, capture: &mix.Options{}, problem: &mix.Problem{}}
+	if _, _, err := apportion(ctx, iv, func(int, int) {}, &s, atm, ems, false, job.Rough); !errors.Is(err, errCaptured) {
+		if err == nil {
+			err = errors.New("the apportionment runs no per-sample inverse model")
+		}
+		return nil, err
+	}
+	run, err := mix.NewRun(*iv.problem, iv.capture)
+	if err != nil {
+		return nil, err
+	}
+	return &FarmWork{job: job, doc: d, run: run}, nil
+}
+
+// Same reports whether w is set up for job.
+func (w *FarmWork) Same(job FarmJob) bool {
+	return w.job.Cell == job.Cell && w.job.Sulfate == job.Sulfate && w.job.Rough == job.Rough && bytes.Equal(w.job.Doc, job.Doc)
+}
+
+// Sample works sample s and returns its bytes for the Farm's put,
+// calling progress with the fraction of the sample done.
+func (w *FarmWork) Sample(ctx context.Context, s int, progress func(float64)) ([]byte, error) {
+	if s < 0 || s >= w.run.Samples() {
+		return nil, fmt.Errorf("no sample %d in the inversion (%d samples)", s, w.run.Samples())
+	}
+	return w.run.WorkSample(ctx, s, progress)
+}

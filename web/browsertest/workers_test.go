@@ -1,0 +1,83 @@
+//go:build browser
+
+package browsertest
+
+import (
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/chromedp/chromedp"
+)
+
+// TestWorkersSameResults opens the demo budget file, whose stored results
+// were computed natively, on the page computing with its Web Workers and
+// on the page forced onto its own thread (?workers=0, which the page says
+// in a note): both reruns match the stored results checksum, so the
+// workers give the single-threaded page's results.
+func TestWorkersSameResults(t *testing.T) {
+	demo := filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json")
+	srv := startServer(t)
+	for _, c := range []struct {
+		query   string
+		workers bool
+	}{{"", true}, {"?workers=1", true}, {"?workers=0", false}} {
+		t.Run("page"+c.query, func(t *testing.T) {
+			ctx := newBrowser(t, "")
+			open(t, ctx, srv.URL+c.query)
+			waitIdle(t, ctx)
+			size := eval[int](t, ctx, `window.lixivPool ? lixivPool.size : -1`)
+			note := eval[string](t, ctx, `(document.getElementById("compute-note") || {textContent: ""}).textContent`)
+			switch {
+			case c.workers && (size < 1 || note != ""):
+				t.Fatalf("%d workers, note %q: want workers and no note", size, note)
+			case !c.workers && (size != 0 || !strings.Contains(note, "own thread")):
+				t.Fatalf("%d workers, note %q: want none and a note saying so", size, note)
+			}
+			gen := eval[string](t, ctx, `document.body.dataset.gen`)
+			if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{demo})); err != nil {
+				t.Fatal(err)
+			}
+			waitGen(t, ctx, gen)
+			if v := text(t, ctx, "#verify"); v != "stored results match the rerun" {
+				t.Errorf("%d workers: footer %q, want the stored results checksum matched", size, v)
+			}
+			if jobs := eval[int](t, ctx, `lixivPool.jobs`); (jobs > 0) != c.workers {
+				t.Errorf("%d workers: %d inversions handed to them", size, jobs)
+			}
+			if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
+				t.Errorf("%d workers: cells with problems %q", size, bad)
+			}
+		})
+	}
+}
+
+// TestLostWorkerIsNamed stops a worker as it is handed a sample: the
+// apportionment cell shows a problem naming the worker (never a silent
+// hang), and the next edit computes again on fresh workers.
+func TestLostWorkerIsNamed(t *testing.T) {
+	ctx := openDemo(t)
+	if eval[int](t, ctx, `lixivPool.size`) < 1 {
+		t.Skip("the page has no workers")
+	}
+	ap := cellOf(t, ctx, "apportionment")
+	eval[bool](t, ctx, `(() => { const post = Worker.prototype.postMessage;
+		Worker.prototype.postMessage = function (m, tr) {
+			if (m && m.sample === 0 && !window.lixivStopped) {
+				window.lixivStopped = true;
+				this.terminate();
+				this.onerror({message: "stopped from outside", preventDefault() {}});
+				return;
+			}
+			return post.call(this, m, tr);
+		};
+		return true })()`)
+	edit(t, ctx, "#p-"+ap+"-draws", "2000")
+	if msg := text(t, ctx, "#cell-"+ap+" .problem"); !strings.Contains(msg, "worker 1 of") || !strings.Contains(msg, "stopped from outside") {
+		t.Errorf("apportionment after a worker stopped: %q, want the worker named", msg)
+	}
+	edit(t, ctx, "#p-"+ap+"-draws", "2001")
+	if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
+		t.Errorf("after the next edit: cells with problems %q", bad)
+	}
+}
