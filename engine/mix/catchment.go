@@ -22,7 +22,7 @@ import (
 // solution, the volume ½ log det ÃᵀÃ of the amounts, and the scatter
 // integrated out to first order as a variance added to each tracer row
 // (Σ_j (τ_j X_j n_j)², with the amounts of the fit without scatter). The
-// shared latents and log scatters are sampled by several Metropolis–Hastings
+// shared latents and scatter parameters are sampled by several Metropolis–Hastings
 // chains from dispersed starts: each first climbs to a mode from its own
 // draw of the priors (catchment_mode.go), the modes make a mixture of t
 // distributions (catchment_proposal.go), refitted to the posterior during
@@ -43,8 +43,8 @@ type CatchmentOptions struct {
 	// Chains is the number of Markov chains; 0 means 4.
 	Chains int
 	// Warmup is the steps of each chain, after its mode search, during
-	// which the proposal is refitted (four times, the last at its end), not
-	// kept; 0 means 400.
+	// which the proposal is refitted (eight times, the last at its end), not
+	// kept; 0 means 800.
 	Warmup int
 	// Batch is the steps of each chain between two convergence checks; 0
 	// means 100.
@@ -80,7 +80,7 @@ func (c *CatchmentOptions) withDefaults() CatchmentOptions {
 		d.Chains = 4
 	}
 	if d.Warmup <= 0 {
-		d.Warmup = 400
+		d.Warmup = 800
 	}
 	if d.Batch <= 0 {
 		d.Batch = 100
@@ -171,7 +171,7 @@ type CatchmentRun struct {
 	used   []int               // samples in the joint likelihood
 	seen   [MaxEndMembers]bool // end-members that take part in some used sample
 	ems    []int               // end-members with a scatter (some ratio of theirs is random)
-	nd, np int                 // shared latents; all parameters (latents and log scatters)
+	nd, np int                 // shared latents; all parameters (latents and scatter parameters)
 	chains []*chain
 	keep   [][]float64 // the kept states, one per joint draw
 	extra  []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
@@ -592,7 +592,7 @@ func (c *CatchmentRun) summariseShared() {
 	}
 	for e, j := range c.ems {
 		for k, x := range c.keep {
-			col[k] = pexp(x[c.nd+e])
+			col[k] = c.scatterOf(x[c.nd+e])
 		}
 		rh, ess := c.diag(c.nd + e)
 		cat.Scatter = append(cat.Scatter, Scatter{EndMember: j, Posterior: interval(col), RHat: rh, ESS: ess})

@@ -3,7 +3,7 @@ package mix
 import "math/rand/v2"
 
 // Block steps of the catchment-wide chains: the parameters of one
-// end-member (its shared latents and its log scatter) are proposed from
+// end-member (its shared latents and its scatter parameter) are proposed from
 // the conditional, given the others, of the proposal's heaviest component
 // (as a Gaussian of the same centre and scale; Metropolis within Gibbs).
 // In a few dimensions such a proposal fits the target far better than one
@@ -95,7 +95,7 @@ func (b *block) logQ(x, m []float64) float64 {
 		}
 		q += v * v
 	}
-	return -0.5 * float64(tDegrees+nb) * plog(1+q/tDegrees)
+	return -0.5 * float64(tDegrees+nb) * plog(1+q/float64(tDegrees))
 }
 
 // propose sets the block's values in y (a copy of x) to a draw of the
@@ -107,7 +107,7 @@ func (b *block) propose(rng *rand.Rand, y, m, z []float64) {
 		v := normQuantile(uniform(rng))
 		g += v * v
 	}
-	s := sqrt(tDegrees / g)
+	s := sqrt(float64(tDegrees) / g)
 	for a := range nb {
 		z[a] = normQuantile(uniform(rng))
 	}

@@ -7,7 +7,7 @@ import (
 
 // chain is one Markov chain of the catchment-wide model over the shared
 // latents (standard normal under the priors, as in the per-sample model)
-// and the log scatters.
+// and the scatters' parameters v (scatterOf).
 type chain struct {
 	rng      *rand.Rand
 	x, prop  []float64 // current state and proposal
@@ -28,8 +28,8 @@ type chain struct {
 }
 
 // newChain draws chain k's start from the priors (dispersed: the posterior
-// is narrower), with the scatters about their prior's scale, and readies
-// its mode search.
+// is narrower), the scatters' parameters too, and readies its mode
+// search.
 func (c *CatchmentRun) newChain(k int) *chain {
 	r := c.base
 	ch := &chain{rng: rand.New(rand.NewPCG(r.opt.Seed^chainStream, uint64(k))), goal: c.co.Batch}
@@ -40,13 +40,12 @@ func (c *CatchmentRun) newChain(k int) *chain {
 			ch.th[t][j] = r.smp[t][j].v
 		}
 	}
-	ls := plog(c.co.Scatter)
 	for try := 0; try < 100; try++ {
 		for i := range c.nd {
 			ch.x[i] = normQuantile(uniform(ch.rng))
 		}
 		for e := range c.ems {
-			ch.x[c.nd+e] = ls + 0.5*normQuantile(uniform(ch.rng))
+			ch.x[c.nd+e] = math.Abs(normQuantile(uniform(ch.rng)))
 		}
 		if ch.lp = c.logPost(ch, ch.x); !math.IsInf(ch.lp, -1) {
 			break
@@ -137,7 +136,7 @@ func (c *CatchmentRun) step(ch *chain) {
 
 // refits is the number of refits of the proposal during the warm-up, evenly
 // spaced, the last at its end.
-const refits = 4
+const refits = 8
 
 // stopAt returns the step at which ch waits for the other chains: the next
 // refit of the proposal, or the end of its current goal.
@@ -219,15 +218,13 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 		lp -= 0.5 * x[i] * x[i]
 		ch.th[d.t][d.em] = pexp(r.smp[d.t][d.em].fromLatent(x[i]))
 	}
-	s2 := 2 * c.co.Scatter * c.co.Scatter
 	for e, j := range c.ems {
-		u := x[c.nd+e]
-		if u < -30 || u > 3 {
+		v := x[c.nd+e]
+		if !(v > 0) || v > 50 {
 			return math.Inf(-1)
 		}
-		tau := pexp(u)
-		ch.tau[j] = tau
-		lp += u - tau*tau/s2
+		ch.tau[j] = c.scatterOf(v)
+		lp -= 0.5 * v * v // τ = s v half-normal: v half standard normal
 	}
 	for _, s := range c.used {
 		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau)
@@ -265,11 +262,13 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 	}
 	tot = max(tot, 1)
-	ld := 0.0
+	// Logs are taken of products (one log where there were many: the
+	// chains spend much of their time here).
+	pc := 1.0
 	for jj, j := range st.act {
 		cj := (1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]) / tot
 		dg[jj] = cj * cj
-		ld += plog(cj)
+		pc *= cj
 	}
 	var H mat6
 	var b, n vec6
@@ -289,7 +288,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 		C[row][row] += v
 	}
-	logDet := 0.0
+	pl := 1.0
 	for j := 0; j < R; j++ {
 		d := C[j][j]
 		for p := 0; p < j; p++ {
@@ -297,7 +296,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 		d = math.Max(d, 1e-18*(1+C[j][j])+1e-30)
 		L[j][j] = sqrt(d)
-		logDet += plog(L[j][j])
+		pl *= L[j][j]
 		for i := j + 1; i < R; i++ {
 			s := C[i][j]
 			for p := 0; p < j; p++ {
@@ -329,7 +328,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	for jj := 0; jj < K; jj++ {
 		H[jj][jj] += dg[jj]
 	}
-	return gaussOrthant(K, &H, &b, yy) - logDet + ld
+	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
 }
 
 // gaussOrthant returns the log of the integral over n >= 0 of
@@ -340,7 +339,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 // per-sample model, slab.go). −Inf when H is singular.
 func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	var L [MaxEndMembers][MaxEndMembers]float64
-	hd := 0.0
+	hd := 1.0
 	for j := 0; j < K; j++ {
 		d := H[j][j]
 		for p := 0; p < j; p++ {
@@ -351,7 +350,7 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		}
 		d = sqrt(d)
 		L[j][j] = d
-		hd += plog(d)
+		hd *= d
 		for i := j + 1; i < K; i++ {
 			s := H[i][j]
 			for p := 0; p < j; p++ {
@@ -377,11 +376,16 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		mu[i] = s / L[i][i]
 		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
 	}
-	l := -0.5*max(0, yy-fit) - hd
+	l := -0.5 * max(0, yy-fit)
+	pr := 1 / hd
 	for i := 0; i < K; i++ {
-		l += plog(max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300))
+		pr *= max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300)
+		if pr < 1e-200 {
+			l += plog(pr)
+			pr = 1
+		}
 	}
-	return l
+	return l + plog(pr)
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
@@ -457,3 +461,13 @@ func (c *CatchmentRun) setShares(rate float64) {
 		c.full, c.block = 0.1, 0.8
 	}
 }
+
+// scatterOf returns the scatter τ = s v of the chains' parameter v > 0, s
+// the scale of τ's half-normal prior, so that v is half standard normal
+// under the prior (as the shared latents are standard normal). The chains
+// move v rather than ln τ: where the samples cannot tell a small scatter
+// from none, the posterior of ln τ has a long tail towards −∞ (its prior
+// density there falls only as τ), which no proposal centred on the bulk
+// covers; v's posterior is then the half-normal prior, which the folded
+// proposal fits (chainProposal).
+func (c *CatchmentRun) scatterOf(v float64) float64 { return c.co.Scatter * v }

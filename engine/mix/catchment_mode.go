@@ -7,7 +7,7 @@ import (
 
 // The mode search of the catchment-wide chains: each chain, from its own
 // draw of the priors, climbs to a mode of the posterior of the shared
-// latents and log scatters by quasi-Newton steps (BFGS with a backtracking
+// latents and scatter parameters by quasi-Newton steps (BFGS with a backtracking
 // line search; Nocedal & Wright 2006, Numerical Optimization, ch. 6 and 3,
 // from memory) on gradients by finite differences. The modes the chains
 // reach, told apart and each given the covariance of its curvature, make
@@ -19,18 +19,19 @@ type search struct {
 	f     float64
 	binv  []float64 // the inverse Hessian's estimate
 	iter  int
-	calm  int // iterations in a row that gained little
+	calm  int // iterations in a row after which little is left to gain
 	done  bool
 	evals int // log posterior evaluations so far
 }
 
 // Limits of the mode search (engineering choices, no source): the most
-// quasi-Newton iterations, the gain in log posterior below which an
-// iteration counts as calm (two calm iterations in a row end the search),
+// quasi-Newton iterations, the gain in log posterior a Newton step would
+// make below which an iteration counts as calm (two calm iterations in a
+// row end the search),
 // the finite-difference step, and the longest step in each parameter.
 const (
 	searchIters = 80
-	searchCalm  = 0.05
+	searchCalm  = 0.5
 	searchH     = 1e-5
 	searchStep  = 1.0
 )
@@ -177,12 +178,22 @@ func (c *CatchmentRun) iterate(ch *chain) int {
 			}
 		}
 	}
-	if s.f-fn < searchCalm {
+	s.x, s.g, s.f = xn, gn, fn
+	// The gain a Newton step would make, ½ gᵀ B⁻¹ g, by the updated
+	// estimate.
+	dec := 0.0
+	for i := range np {
+		v := 0.0
+		for j := range np {
+			v += float64(s.binv[i*np+j] * s.g[j])
+		}
+		dec += 0.5 * v * s.g[i]
+	}
+	if dec < searchCalm {
 		s.calm++
 	} else {
 		s.calm = 0
 	}
-	s.x, s.g, s.f = xn, gn, fn
 	if s.calm >= 2 || s.iter >= searchIters {
 		s.done = true
 	}
@@ -200,6 +211,9 @@ func (c *CatchmentRun) curvature(ch *chain, s *search) ([]float64, int) {
 	h := make([]float64, np)
 	for i := range np {
 		h[i] = min(0.5, max(1e-3, 0.5*sqrt(math.Abs(s.binv[i*np+i]))))
+		if i >= c.nd {
+			h[i] = 0.5 // a scatter's parameter: often at its edge, 0, where the prior alone shapes it
+		}
 	}
 	y := make([]float64, np)
 	at := func(di, dj int, si, sj float64) float64 {
@@ -219,9 +233,14 @@ func (c *CatchmentRun) curvature(ch *chain, s *search) ([]float64, int) {
 	ev := 0
 	for i := range np {
 		plus[i] = at(i, -1, 1, 0)
-		minus := at(i, -1, -1, 0)
 		ev += 2
-		H[i*np+i] = (plus[i] - 2*f + minus) / (h[i] * h[i])
+		if x[i]-h[i] > 0 || i < c.nd {
+			minus := at(i, -1, -1, 0)
+			H[i*np+i] = (plus[i] - 2*f + minus) / (h[i] * h[i])
+		} else {
+			// At the edge of a positive parameter: one-sided.
+			H[i*np+i] = (at(i, -1, 2, 0) - 2*plus[i] + f) / (h[i] * h[i])
+		}
 		if !(H[i*np+i] > 0) {
 			H[i*np+i] = 1 / (h[i] * h[i])
 		}
@@ -286,12 +305,36 @@ func invertChol(n int, l []float64) []float64 {
 // engineering choice, no source).
 func modeSame(np int) float64 { return float64(3*np + 10) }
 
+// valleyDepth is how far −log posterior must rise, on the straight line
+// between two points the searches reached, above the higher of the two for
+// them to count as distinct modes (an engineering choice, no source).
+const valleyDepth = 2.0
+
+// valley reports whether −log posterior rises by valleyDepth or more above
+// the higher of its values fa at a and fb at b somewhere on the segment
+// between them (probed at a quarter, half and three quarters of the way),
+// and the evaluations made. Searches that stopped at different places of
+// one long ridge find no valley between them, and count as one mode.
+func (c *CatchmentRun) valley(ch *chain, a, b []float64, fa, fb float64) (int, bool) {
+	y := make([]float64, len(a))
+	top := max(fa, fb) + valleyDepth
+	for q, t := range [3]float64{0.25, 0.5, 0.75} {
+		for i := range y {
+			y[i] = a[i] + t*(b[i]-a[i])
+		}
+		if c.negLogPost(ch, y) > top {
+			return q + 1, true
+		}
+	}
+	return 3, false
+}
+
 // maxModes is the most components the proposal takes.
 const maxModes = 8
 
 // buildProposal makes the chains' proposal from the modes their searches
-// reached: the modes, best first, are told apart by their scaled
-// distance; each distinct one gets a t component of its curvature's
+// reached: the modes, best first, are told apart by their scaled distance
+// and by a valley between them (valley); each distinct one gets a t component of its curvature's
 // covariance, weighted by its Laplace mass (modes of less than e⁻¹² of
 // the best left out, none below a twentieth of its fair share). Each chain
 // then starts from its own draw of the proposal (dispersed: the t's tails
@@ -303,8 +346,8 @@ func (c *CatchmentRun) buildProposal() int {
 		order[i] = i
 	}
 	sort.SliceStable(order, func(a, b int) bool { return c.chains[order[a]].search.f < c.chains[order[b]].search.f })
-	q := &chainProposal{np: np}
-	var mass []float64
+	q := &chainProposal{np: np, fold: c.nd}
+	var mass, tops []float64
 	ev := 0
 	ch0 := c.chains[0]
 	for _, k := range order {
@@ -314,7 +357,13 @@ func (c *CatchmentRun) buildProposal() int {
 		}
 		same := false
 		for i := range q.comps {
-			if d := q.comps[i].dist2(s.x); d < modeSame(np) {
+			if q.comps[i].dist2(s.x) < modeSame(np) {
+				same = true
+				break
+			}
+			e, valley := c.valley(ch0, q.comps[i].mu, s.x, tops[i], s.f)
+			ev += e
+			if !valley {
 				same = true
 				break
 			}
@@ -334,6 +383,7 @@ func (c *CatchmentRun) buildProposal() int {
 		}
 		q.comps = append(q.comps, comp)
 		mass = append(mass, m)
+		tops = append(tops, s.f)
 	}
 	if len(q.comps) == 0 {
 		// No search found a point of the support: the prior.

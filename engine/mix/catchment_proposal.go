@@ -7,7 +7,7 @@ import (
 
 // The independence proposal of the catchment-wide chains: a mixture of
 // multivariate Student t distributions, one per mode of the posterior of the
-// shared latents and log scatters, fitted before the chains are kept and
+// shared latents and scatter parameters, fitted before the chains are kept and
 // fixed after (so that the chains are valid Metropolis–Hastings chains).
 
 // tDegrees is the degrees of freedom of the proposal's components: heavy
@@ -28,9 +28,13 @@ type tComp struct {
 	logDet float64 // log det M
 }
 
-// chainProposal is a mixture of t components over np parameters.
+// chainProposal is a mixture of t components over np parameters, folded
+// at zero in the last ones (the scatters' parameters, which are positive):
+// a draw's negative values there are made positive, and the density sums
+// over the signs.
 type chainProposal struct {
 	np    int
+	fold  int // parameters from fold on are positive: each draw is folded there
 	comps []tComp
 }
 
@@ -51,7 +55,10 @@ func (q *chainProposal) draw(rng *rand.Rand, y, z []float64) {
 		v := normQuantile(uniform(rng))
 		g += v * v
 	}
-	s := sqrt(tDegrees / g)
+	s := sqrt(float64(tDegrees) / g)
+	if uniform(rng) < defensiveShare {
+		s *= defensiveScale
+	}
 	for i := range q.np {
 		z[i] = normQuantile(uniform(rng))
 	}
@@ -63,31 +70,59 @@ func (q *chainProposal) draw(rng *rand.Rand, y, z []float64) {
 		}
 		y[i] = c.mu[i] + float64(s*v)
 	}
+	for i := q.fold; i < q.np; i++ {
+		y[i] = math.Abs(y[i])
+	}
 }
 
 // logDensity returns the log density of the proposal at y, up to a
 // constant shared by every y.
 func (q *chainProposal) logDensity(y []float64) float64 {
+	// The folded density: the sum over the sign patterns of the folded
+	// parameters.
+	var ls []float64
+	var buf [64]float64
+	g := buf[:q.np]
 	best := math.Inf(-1)
-	var ls [16]float64
-	for k := range q.comps {
-		ls[k] = q.comps[k].logW + q.comps[k].logT(y)
-		best = max(best, ls[k])
-	}
-	if len(q.comps) == 1 {
-		return best
+	wide := float64(q.np) * plog(defensiveScale)
+	for pat := range 1 << (q.np - q.fold) {
+		copy(g, y)
+		for i := q.fold; i < q.np; i++ {
+			if pat>>(i-q.fold)&1 == 1 {
+				g[i] = -g[i]
+			}
+		}
+		for k := range q.comps {
+			c := &q.comps[k]
+			d := c.dist2(g)
+			a := c.logW + plog(1-defensiveShare) + c.logT(d)
+			b := c.logW + plog(defensiveShare) - wide + c.logT(d/(defensiveScale*defensiveScale))
+			ls = append(ls, a, b)
+			best = max(best, a, b)
+		}
 	}
 	s := 0.0
-	for k := range q.comps {
-		s += pexp(ls[k] - best)
+	for _, v := range ls {
+		s += pexp(v - best)
 	}
 	return best + plog(s)
 }
 
-// logT returns the log density of component c at y, up to the constant
-// shared by every component.
-func (c *tComp) logT(y []float64) float64 {
-	return -c.logDet - 0.5*float64(tDegrees+len(c.mu))*plog(1+c.dist2(y)/tDegrees)
+// defensiveShare and defensiveScale make the proposal defensive (Hesterberg
+// 1995, Technometrics 37, from memory): a share of its draws come from each
+// component widened by the scale, so that its density over the target's
+// stays bounded where the fitted components fall short, and no chain
+// sticks there (an engineering choice, no source).
+const (
+	defensiveShare = 0.1
+	defensiveScale = 2.5
+)
+
+// logT returns the log density of component c at a point of squared
+// scaled distance d (dist2), up to the constant shared by every
+// component.
+func (c *tComp) logT(d float64) float64 {
+	return -c.logDet - 0.5*float64(tDegrees+len(c.mu))*plog(1+d/float64(tDegrees))
 }
 
 // dist2 returns the squared distance of y from c's centre in units of its
@@ -136,9 +171,10 @@ func (q *chainProposal) normalise(w []float64) {
 // draws ys (importance weights lw in logs, the target's density over the
 // proposal's), the draws shared among the components by their
 // responsibilities, and reweighs the components by their shares of the
-// weight. When a few draws would carry the weight, the weights are
-// tempered (raised to the power temper finds), so that the proposal moves
-// part of the way towards the target rather than collapse on them. A component whose draws are too few to estimate a covariance
+// weight. When a few draws would carry the weight, the weights of the
+// moments are tempered (raised to the power temper finds), so that the
+// components move part of the way towards the target rather than collapse
+// on those draws; the shares take the weights as they are. A component whose draws are too few to estimate a covariance
 // (an effective number below four per parameter) keeps its place and
 // shape. The weighted covariance is taken as the scale matrix, so that the
 // t's own covariance is ν/(ν−2) times wider: the proposal is wider than the
@@ -156,6 +192,7 @@ func (q *chainProposal) refit(ys [][]float64, lw []float64) {
 	nk := len(q.comps)
 	resp := make([]float64, nk)
 	wsum := make([]float64, nk)
+	mass := make([]float64, nk) // untempered: the components' shares of the target
 	w2 := make([]float64, nk)
 	mean := make([][]float64, nk)
 	cov := make([][]float64, nk)
@@ -165,10 +202,11 @@ func (q *chainProposal) refit(ys [][]float64, lw []float64) {
 	wt := make([][]float64, len(ys))
 	for n, y := range ys {
 		w := pexp(beta * (lw[n] - top))
+		w1 := pexp(lw[n] - top)
 		wt[n] = make([]float64, nk)
 		best := math.Inf(-1)
 		for k := range q.comps {
-			resp[k] = q.comps[k].logW + q.comps[k].logT(y)
+			resp[k] = q.comps[k].logW + q.comps[k].logT(q.comps[k].dist2(y))
 			best = max(best, resp[k])
 		}
 		s := 0.0
@@ -178,6 +216,7 @@ func (q *chainProposal) refit(ys [][]float64, lw []float64) {
 		}
 		for k := range nk {
 			v := w * resp[k] / s
+			mass[k] += w1 * resp[k] / s
 			wt[n][k] = v
 			wsum[k] += v
 			w2[k] += v * v
@@ -218,12 +257,12 @@ func (q *chainProposal) refit(ys [][]float64, lw []float64) {
 	share := make([]float64, nk)
 	total := 0.0
 	for k := range nk {
-		total += wsum[k]
+		total += mass[k]
 	}
 	for k := range nk {
 		// No component falls below a twentieth of its fair share: a mode
 		// the warm-up's draws missed stays reachable.
-		share[k] = max(wsum[k]/total, 0.05/float64(nk))
+		share[k] = max(mass[k]/total, 0.05/float64(nk))
 	}
 	q.normalise(share)
 }
