@@ -80,8 +80,9 @@ func (q *chainProposal) draw(rng *rand.Rand, y, z []float64) {
 func (q *chainProposal) logDensity(y []float64) float64 {
 	// The folded density: the sum over the sign patterns of the folded
 	// parameters.
-	var ls []float64
 	var buf [64]float64
+	var lbuf [2 * maxModes * 64]float64 // sign patterns × components × 2
+	ls := lbuf[:0]
 	g := buf[:q.np]
 	best := math.Inf(-1)
 	wide := float64(q.np) * plog(defensiveScale)
