@@ -78,8 +78,10 @@ func TestStoredResultsReproduce(t *testing.T) {
 	}
 }
 
-// TestRoundTripExamples loads, saves and loads again: the file is
-// unchanged and the results are bit-identical.
+// TestRoundTripExamples loads, saves and loads again: the file and its
+// stored results are unchanged. That the same bytes compute the same
+// results is TestStoredResultsReproduce's check (the rerun against the
+// snapshot stored by another process), so nothing is computed here.
 func TestRoundTripExamples(t *testing.T) {
 	for _, path := range budgetFiles(t) {
 		t.Run(filepath.Base(path), func(t *testing.T) {
@@ -95,20 +97,8 @@ func TestRoundTripExamples(t *testing.T) {
 			if !bytes.Equal(d2.Marshal(), saved) {
 				t.Errorf("second save differs from the first")
 			}
-			for _, d := range []*notebook.Document{d1, d2} {
-				if err := d.Recompute(context.Background(), nil); err != nil {
-					t.Fatal(err)
-				}
-			}
-			for _, c := range d1.Cells {
-				o1, o2 := d1.Output(c.ID), d2.Output(c.ID)
-				if (o1 == nil) != (o2 == nil) {
-					t.Fatalf("cell %s computed in one load only", c.ID)
-				}
-				if o1 == nil {
-					continue
-				}
-				sameOutputs(t, c.ID, o1, o2)
+			if d1.Stored == nil || d2.Stored == nil || d1.Stored.Checksum != d2.Stored.Checksum || d1.Stored.Engine != d2.Stored.Engine || len(d1.Stored.Figures) != len(d2.Stored.Figures) {
+				t.Errorf("the stored results did not survive the round trip")
 			}
 		})
 	}

@@ -36,6 +36,13 @@ func TestProblemsExitStatus(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	// Fewer draws than the demo's: why the fluxes are doubtful (flow
+	// before the first sample) does not depend on the draws.
+	for _, p := range [][3]string{{"apportionment", "target_ess", "300"}, {"fluxes", "bootstrap", "100"}, {"fluxes", "series_bootstrap", "50"}} {
+		if err := d.SetParam(p[0], p[1], p[2]); err != nil {
+			t.Fatal(err)
+		}
+	}
 	if err := os.WriteFile(doubtful, d.Marshal(), 0o644); err != nil {
 		t.Fatal(err)
 	}
