@@ -22,9 +22,14 @@ import (
 // solution, the volume ½ log det ÃᵀÃ of the amounts, and the scatter
 // integrated out to first order as a variance added to each tracer row
 // (Σ_j (τ_j X_j n_j)², with the amounts of the fit without scatter). The
-// shared latents and log scatters are sampled by adaptive random-walk
-// Metropolis, several chains from dispersed starts; split R-hat and the
-// effective sample size of each shared ratio say whether they agree.
+// shared latents and scatter parameters are sampled by several Metropolis–Hastings
+// chains from dispersed starts: each first climbs to a mode from its own
+// draw of the priors (catchment_mode.go), the modes make a mixture of t
+// distributions (catchment_proposal.go), refitted to the posterior during
+// a short warm-up and then fixed, from which the chains propose
+// independently, with random-walk steps between. Split R-hat and the
+// effective sample size of each shared ratio say whether the chains agree,
+// and the chains run until they do (or reach a cap).
 //
 // Every kept draw of the chains is one joint draw: for draw d, every
 // sample's split comes from the same shared ratios (each sample's own
@@ -37,10 +42,12 @@ import (
 type CatchmentOptions struct {
 	// Chains is the number of Markov chains; 0 means 4.
 	Chains int
-	// Warmup is the adaptation steps of each chain, not kept; 0 means 3000.
+	// Warmup is the steps of each chain, after its mode search, during
+	// which the proposal is refitted (eight times, the last at its end), not
+	// kept; 0 means 800.
 	Warmup int
 	// Batch is the steps of each chain between two convergence checks; 0
-	// means 500.
+	// means 100.
 	Batch int
 	// MaxSteps caps the kept steps of each chain; 0 means 20000.
 	MaxSteps int
@@ -73,10 +80,10 @@ func (c *CatchmentOptions) withDefaults() CatchmentOptions {
 		d.Chains = 4
 	}
 	if d.Warmup <= 0 {
-		d.Warmup = 3000
+		d.Warmup = 800
 	}
 	if d.Batch <= 0 {
-		d.Batch = 500
+		d.Batch = 100
 	}
 	if d.MaxSteps <= 0 {
 		d.MaxSteps = 20000
@@ -114,6 +121,13 @@ type Catchment struct {
 	// Chains, Warmup and Steps are the chains, the adaptation steps and the
 	// kept steps of each chain.
 	Chains, Warmup, Steps int
+	// Search is the log posterior evaluations of the chains' mode searches
+	// and of the curvature at the modes, all chains together.
+	Search int
+	// Modes is the number of distinct modes the searches reached (the
+	// components of the chains' proposal).
+	Modes int
+
 	// Acceptance is the share of proposals accepted after warm-up.
 	Acceptance float64
 	// MaxRHat and MinESS are the worst split R-hat and effective sample
@@ -157,14 +171,19 @@ type CatchmentRun struct {
 	used   []int               // samples in the joint likelihood
 	seen   [MaxEndMembers]bool // end-members that take part in some used sample
 	ems    []int               // end-members with a scatter (some ratio of theirs is random)
-	nd, np int                 // shared latents; all parameters (latents and log scatters)
+	nd, np int                 // shared latents; all parameters (latents and scatter parameters)
 	chains []*chain
 	keep   [][]float64 // the kept states, one per joint draw
 	extra  []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
 
-	refitted int // the last warm-up step at which the proposals were refitted
-	phase    int // 0: chains; 1: samples; 2: done
-	next     int // phase 1: next sample
+	prop     *chainProposal // the chains' independence proposal, once the searches are done
+	heavy    int            // the proposal's heaviest component, for the random-walk steps
+	full     float64        // the share of independence steps
+	block    float64        // the share of block steps
+	blocks   []block        // the end-members' blocks
+	refitted int            // the last warm-up step at which the proposal was refitted
+	phase    int            // 0: chains; 1: samples; 2: done
+	next     int            // phase 1: next sample
 	shown    float64
 	mu       sync.Mutex
 }
@@ -215,6 +234,7 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 	}
 	c.np = c.nd + len(c.ems)
 	c.cat.Samples, c.cat.Chains, c.cat.Warmup = len(c.used), c.co.Chains, c.co.Warmup
+	c.full, c.block = warmFull, warmBlock
 	for k := range c.co.Chains {
 		c.chains = append(c.chains, c.newChain(k))
 	}
@@ -247,8 +267,12 @@ func (c *CatchmentRun) Done() bool {
 func (c *CatchmentRun) work() (done, total float64) {
 	s := float64(max(len(c.used), 1))
 	for _, ch := range c.chains {
-		done += float64(ch.t) * s
-		total += float64(c.co.Warmup+max(ch.goal, c.co.Batch)) * s
+		found := float64(c.cat.Search) / float64(len(c.chains))
+		if ch.search != nil {
+			found = float64(ch.search.evals)
+		}
+		done += (found + float64(ch.t)) * s
+		total += (max(found, plannedSearch*float64(c.np)) + float64(c.co.Warmup+max(ch.goal, c.co.Batch))) * s
 	}
 	// Summarising a sample costs about its prior and joint draws.
 	per := float64(c.base.opt.Draws + c.co.Keep)
@@ -299,6 +323,24 @@ func (c *CatchmentRun) Step(ctx context.Context, n int) (done bool) {
 			c.cancel()
 			return true
 		}
+		if c.phase == 0 && c.prop == nil {
+			// The mode searches, an iteration at a time, chain by chain;
+			// then the proposal.
+			var ch *chain
+			for _, x := range c.chains {
+				if !x.search.done {
+					ch = x
+					break
+				}
+			}
+			if ch != nil {
+				n -= per * c.iterate(ch)
+				c.report()
+				continue
+			}
+			n -= per * c.propose()
+			continue
+		}
 		if c.phase == 0 {
 			// The chain with the fewest steps moves; at a check point
 			// shared by all, the check.
@@ -330,13 +372,31 @@ func (c *CatchmentRun) Step(ctx context.Context, n int) (done bool) {
 	return c.Done()
 }
 
+// plannedSearch is the log posterior evaluations a chain's mode search is
+// expected to take per parameter, for the progress (its iterations take
+// one gradient each).
+const plannedSearch = 25
+
+// propose makes the chains' proposal once every mode search is done and
+// returns the evaluations made.
+func (c *CatchmentRun) propose() int {
+	for _, ch := range c.chains {
+		c.cat.Search += ch.search.evals
+	}
+	ev := c.buildProposal()
+	c.cat.Search += ev
+	c.cat.Modes = len(c.prop.comps)
+	c.heavy = c.prop.heaviest()
+	c.makeBlocks()
+	return ev
+}
+
 // sync is called when every chain has reached its stop: it refits the
-// proposals during the warm-up, and after it checks convergence.
+// proposal during the warm-up, and after it checks convergence.
 func (c *CatchmentRun) sync() {
-	if t := c.chains[0].t; t < c.co.Warmup {
-		if c.refitAt(t) {
-			c.refit()
-		}
+	if t := c.chains[0].t; t <= c.co.Warmup && t > c.refitted {
+		c.refit(t == c.co.Warmup)
+		c.refitted = t
 		return
 	}
 	c.checkpoint()
@@ -457,6 +517,17 @@ func InvertCatchment(ctx context.Context, p Problem, o *Options, co *CatchmentOp
 		}
 		wg.Wait()
 	}
+	parallel(len(c.chains), func(i int) {
+		for ch := c.chains[i]; !ch.search.done && ctx.Err() == nil; {
+			c.iterate(ch)
+			c.report()
+		}
+	})
+	if ctx.Err() != nil {
+		c.cancel()
+		return c.base.res, nil
+	}
+	c.propose()
 	for c.phase == 0 {
 		parallel(len(c.chains), func(i int) {
 			ch := c.chains[i]
@@ -521,7 +592,7 @@ func (c *CatchmentRun) summariseShared() {
 	}
 	for e, j := range c.ems {
 		for k, x := range c.keep {
-			col[k] = pexp(x[c.nd+e])
+			col[k] = c.scatterOf(x[c.nd+e])
 		}
 		rh, ess := c.diag(c.nd + e)
 		cat.Scatter = append(cat.Scatter, Scatter{EndMember: j, Posterior: interval(col), RHat: rh, ESS: ess})
@@ -531,7 +602,7 @@ func (c *CatchmentRun) summariseShared() {
 	}
 	cat.Converged = cat.MaxRHat < RHatLimit && cat.MinESS >= float64(c.co.TargetESS)
 	if !cat.Converged {
-		cat.Message = fmt.Sprintf("the %d chains have not converged after %d steps each (largest R-hat %.3f, want below %.2f; smallest effective sample size %.0f, want %d): the shared end-member ratios and every split that rests on them are doubtful",
+		cat.Message = fmt.Sprintf("the %d chains have not converged within the cap of %d steps each (largest R-hat %.3f, want below %.2f; smallest effective sample size %.0f, want %d): the shared end-member ratios and every split that rests on them are doubtful",
 			c.co.Chains, cat.Steps, cat.MaxRHat, RHatLimit, cat.MinESS, c.co.TargetESS)
 	}
 }

@@ -25,6 +25,9 @@ func benchmarkCatchment(b *testing.B, n, k int) {
 		b.Fatal(c.Fallback)
 	}
 	b.ReportMetric(float64(c.Steps), "steps/chain")
+	b.ReportMetric(float64(c.Search), "search-evals")
+	b.ReportMetric(float64(c.Modes), "modes")
+	b.ReportMetric(c.Acceptance, "acceptance")
 	b.ReportMetric(c.MaxRHat, "max-R-hat")
 	b.ReportMetric(c.MinESS, "min-ESS")
 	conv := 0.0

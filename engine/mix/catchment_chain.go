@@ -7,95 +7,125 @@ import (
 
 // chain is one Markov chain of the catchment-wide model over the shared
 // latents (standard normal under the priors, as in the per-sample model)
-// and the log scatters.
+// and the scatters' parameters v (scatterOf).
 type chain struct {
 	rng      *rand.Rand
 	x, prop  []float64 // current state and proposal
 	z        []float64
-	lp       float64 // log posterior at x
-	t        int     // steps taken, warm-up included
-	goal     int     // kept steps to reach before the next check
-	accepted int     // accepted proposals after warm-up
-	window   int     // accepted proposals in the current adaptation window
-	logScale float64 // log of the proposal's scale
-	chol     []float64
-	warm     []float64 // warm-up states, for the proposal's covariance
+	lp, lq   float64   // log posterior and log proposal density at x
+	t        int       // steps taken, warm-up included
+	goal     int       // kept steps to reach before the next check
+	accepted int       // accepted proposals after warm-up
+	search   *search   // the mode search, before the proposal is made
+	indTried int       // independence proposals made in the warm-up
+	indTaken int       // and accepted
+	warmY    []float64 // the warm-up's independence proposals, [draw][parameter]
+	warmW    []float64 // and their log importance weights
+	bm       []float64 // a block's conditional centre
 	hist     []float64 // kept states, [step][parameter]
 	th       [NTracers][MaxEndMembers]float64
 	tau      [MaxEndMembers]float64
 }
 
-// adaptEvery is the length of a warm-up adaptation window, in steps: the
-// proposal's scale is tuned after every window (towards 23 % acceptance, the
-// optimum of random-walk Metropolis in many dimensions: Roberts, Gelman &
-// Gilks 1997, Ann. Appl. Probab. 7, from memory).
-const (
-	adaptEvery = 50
-	acceptGoal = 0.234
-)
-
-// newChain starts chain k from a draw of the priors (dispersed: the
-// posterior is narrower), with the scatters at their prior's scale.
+// newChain draws chain k's start from the priors (dispersed: the posterior
+// is narrower), the scatters' parameters too, and readies its mode
+// search.
 func (c *CatchmentRun) newChain(k int) *chain {
 	r := c.base
 	ch := &chain{rng: rand.New(rand.NewPCG(r.opt.Seed^chainStream, uint64(k))), goal: c.co.Batch}
 	ch.x, ch.prop, ch.z = make([]float64, c.np), make([]float64, c.np), make([]float64, c.np)
+	ch.bm = make([]float64, c.np)
 	for t := range NTracers {
 		for j := range r.n {
 			ch.th[t][j] = r.smp[t][j].v
 		}
 	}
-	ch.chol = make([]float64, c.np*c.np)
-	for i := range c.np {
-		ch.chol[i*c.np+i] = 0.1
-	}
-	ch.logScale = 0
-	ls := plog(c.co.Scatter)
 	for try := 0; try < 100; try++ {
 		for i := range c.nd {
 			ch.x[i] = normQuantile(uniform(ch.rng))
 		}
 		for e := range c.ems {
-			ch.x[c.nd+e] = ls + 0.5*normQuantile(uniform(ch.rng))
+			ch.x[c.nd+e] = math.Abs(normQuantile(uniform(ch.rng)))
 		}
 		if ch.lp = c.logPost(ch, ch.x); !math.IsInf(ch.lp, -1) {
 			break
 		}
 	}
+	c.startSearch(ch)
 	return ch
 }
 
-// step takes one Metropolis step of chain ch, adapting its proposal during
-// warm-up and keeping the state after it.
+// The shares of the kinds of step during the warm-up: independence steps
+// from the whole proposal (whose draws refit it), block steps, and random
+// walks; after the warm-up the first two are set from the independence
+// steps' acceptance (setShares).
+const (
+	warmFull  = 0.5
+	warmBlock = 0.4
+)
+
+// step takes one Metropolis–Hastings step of chain ch, of one of three
+// kinds: an independence step from the fitted proposal (share c.full), a
+// block step for one end-member's parameters (share c.block), or a random
+// walk of covariance 2.38²/d times the heaviest component's scale (Gelman,
+// Roberts & Gilks 1996, from memory). During the warm-up the independence
+// proposals are kept, with their importance weights, for the refits; after
+// it the state is kept.
 func (c *CatchmentRun) step(ch *chain) {
 	np := c.np
-	s := pexp(ch.logScale)
-	for i := range np {
-		ch.z[i] = normQuantile(uniform(ch.rng))
-	}
-	for i := range np {
-		v := 0.0
-		for k := 0; k <= i; k++ {
-			v += float64(ch.chol[i*np+k] * ch.z[k])
+	q := c.prop
+	warm := ch.t < c.co.Warmup
+	var lp, lq float64
+	ok := false
+	switch u := uniform(ch.rng); {
+	case u < c.full:
+		q.draw(ch.rng, ch.prop, ch.z)
+		lp = c.logPost(ch, ch.prop)
+		lq = q.logDensity(ch.prop)
+		ok = plog(uniform(ch.rng)) < (lp-lq)-(ch.lp-ch.lq)
+		if warm {
+			ch.indTried++
+			if ok {
+				ch.indTaken++
+			}
+			if !math.IsInf(lp, -1) {
+				ch.warmY = append(ch.warmY, ch.prop...)
+				ch.warmW = append(ch.warmW, lp-lq)
+			}
 		}
-		ch.prop[i] = ch.x[i] + float64(s*v)
+	case u < c.full+c.block && len(c.blocks) > 0:
+		b := &c.blocks[min(int(uniform(ch.rng)*float64(len(c.blocks))), len(c.blocks)-1)]
+		m := ch.bm[:len(b.idx)]
+		b.mean(ch.x, m)
+		copy(ch.prop, ch.x)
+		b.propose(ch.rng, ch.prop, m, ch.z)
+		lp = c.logPost(ch, ch.prop)
+		ok = plog(uniform(ch.rng)) < (lp+b.logQ(ch.x, m))-(ch.lp+b.logQ(ch.prop, m))
+	default:
+		m := q.comps[c.heavy].m
+		s := 2.38 / sqrt(float64(np))
+		for i := range np {
+			ch.z[i] = normQuantile(uniform(ch.rng))
+		}
+		for i := range np {
+			v := 0.0
+			for k := 0; k <= i; k++ {
+				v += float64(m[i*np+k] * ch.z[k])
+			}
+			ch.prop[i] = ch.x[i] + float64(s*v)
+		}
+		lp = c.logPost(ch, ch.prop)
+		ok = plog(uniform(ch.rng)) < lp-ch.lp
 	}
-	lp := c.logPost(ch, ch.prop)
-	ok := plog(uniform(ch.rng)) < lp-ch.lp
+	if ok && lq == 0 {
+		lq = q.logDensity(ch.prop)
+	}
 	if ok {
 		ch.x, ch.prop = ch.prop, ch.x
-		ch.lp = lp
+		ch.lp, ch.lq = lp, lq
 	}
 	ch.t++
-	if ch.t <= c.co.Warmup {
-		if ok {
-			ch.window++
-		}
-		ch.warm = append(ch.warm, ch.x...)
-		c.adapt(ch)
-		if ch.t == c.co.Warmup {
-			ch.warm = nil
-		}
+	if warm {
 		return
 	}
 	if ok {
@@ -104,92 +134,52 @@ func (c *CatchmentRun) step(ch *chain) {
 	ch.hist = append(ch.hist, ch.x...)
 }
 
-// adapt tunes the scale of ch's proposal at the end of each warm-up
-// window, towards the goal acceptance.
-func (c *CatchmentRun) adapt(ch *chain) {
-	if ch.t%adaptEvery != 0 {
-		return
-	}
-	rate := float64(ch.window) / adaptEvery
-	ch.window = 0
-	ch.logScale += 1.5 * (rate - acceptGoal)
-	ch.logScale = max(-12, min(3, ch.logScale))
-}
-
-// refitAt reports whether the chains' proposals are refitted at step t:
-// at 200, 400, 800, … steps and at three quarters of the warm-up, never
-// after.
-func (c *CatchmentRun) refitAt(t int) bool {
-	last := 3 * c.co.Warmup / 4
-	if t == last {
-		return true
-	}
-	for p := 200; p < last; p *= 2 {
-		if t == p {
-			return true
-		}
-	}
-	return false
-}
+// refits is the number of refits of the proposal during the warm-up, evenly
+// spaced, the last at its end.
+const refits = 8
 
 // stopAt returns the step at which ch waits for the other chains: the next
-// refit, or the end of its current goal.
+// refit of the proposal, or the end of its current goal.
 func (c *CatchmentRun) stopAt(ch *chain) int {
-	for t := max(ch.t, c.refitted+1); t < c.co.Warmup; t++ {
-		if c.refitAt(t) {
-			return t
+	for q := 1; q <= refits; q++ {
+		if s := q * c.co.Warmup / refits; s > c.refitted {
+			return s
 		}
 	}
 	return c.co.Warmup + ch.goal
 }
 
-// refit sets every chain's proposal covariance to that of the second half
-// of the warm-up so far, pooled over the chains (which, started apart, see
-// more of the posterior than any one of them), scaled by 2.38²/dimensions
-// (Gelman, Roberts & Gilks 1996, from memory).
-func (c *CatchmentRun) refit() {
+// refit moves the proposal to the importance-weighted moments of every
+// independence proposal of the warm-up so far, pooled over the chains in
+// their order (each weighted by the target's density over the proposal it
+// came from), and re-evaluates the chains' proposal densities. At the end
+// of the warm-up it also sets the shares of the kinds of step (setShares).
+// Nothing changes after the warm-up, so the kept steps form valid chains.
+func (c *CatchmentRun) refit(end bool) {
 	np := c.np
-	to := c.chains[0].t
-	c.refitted = to
-	from := to / 2
-	n := 0.0
-	mean := make([]float64, np)
+	var ys [][]float64
+	var lw []float64
+	tried, taken := 0, 0
 	for _, ch := range c.chains {
-		for k := from; k < to; k++ {
-			for i := range np {
-				mean[i] += ch.warm[k*np+i]
-			}
-			n++
+		for k := range ch.warmW {
+			ys = append(ys, ch.warmY[k*np:(k+1)*np])
 		}
+		lw = append(lw, ch.warmW...)
+		tried += ch.indTried
+		taken += ch.indTaken
 	}
-	for i := range mean {
-		mean[i] /= n
-	}
-	cov := make([]float64, np*np)
+	c.prop.refit(ys, lw)
+	c.heavy = c.prop.heaviest()
+	c.makeBlocks()
 	for _, ch := range c.chains {
-		for k := from; k < to; k++ {
-			x := ch.warm[k*np : (k+1)*np]
-			for i := range np {
-				for j := 0; j <= i; j++ {
-					cov[i*np+j] += float64((x[i] - mean[i]) * (x[j] - mean[j]))
-				}
-			}
-		}
+		ch.lq = c.prop.logDensity(ch.x)
 	}
-	f := 2.38 * 2.38 / float64(np) / (n - 1)
-	for i := range np {
-		for j := 0; j <= i; j++ {
-			cov[i*np+j] *= f
-		}
-		cov[i*np+i] += 1e-8
-	}
-	l, ok := cholesky(np, cov)
-	if !ok {
+	if !end {
 		return
 	}
+	c.setShares(float64(taken) / float64(max(tried, 1)))
 	for _, ch := range c.chains {
-		ch.chol = append([]float64(nil), l...)
-		ch.logScale = 0
+		ch.warmY, ch.warmW = nil, nil
 	}
 }
 
@@ -228,15 +218,13 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 		lp -= 0.5 * x[i] * x[i]
 		ch.th[d.t][d.em] = pexp(r.smp[d.t][d.em].fromLatent(x[i]))
 	}
-	s2 := 2 * c.co.Scatter * c.co.Scatter
 	for e, j := range c.ems {
-		u := x[c.nd+e]
-		if u < -30 || u > 3 {
+		v := x[c.nd+e]
+		if !(v > 0) || v > 50 {
 			return math.Inf(-1)
 		}
-		tau := pexp(u)
-		ch.tau[j] = tau
-		lp += u - tau*tau/s2
+		ch.tau[j] = c.scatterOf(v)
+		lp -= 0.5 * v * v // τ = s v half-normal: v half standard normal
 	}
 	for _, s := range c.used {
 		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau)
@@ -274,11 +262,13 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 	}
 	tot = max(tot, 1)
-	ld := 0.0
+	// Logs are taken of products (one log where there were many: the
+	// chains spend much of their time here).
+	pc := 1.0
 	for jj, j := range st.act {
 		cj := (1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]) / tot
 		dg[jj] = cj * cj
-		ld += plog(cj)
+		pc *= cj
 	}
 	var H mat6
 	var b, n vec6
@@ -298,7 +288,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 		C[row][row] += v
 	}
-	logDet := 0.0
+	pl := 1.0
 	for j := 0; j < R; j++ {
 		d := C[j][j]
 		for p := 0; p < j; p++ {
@@ -306,7 +296,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 		d = math.Max(d, 1e-18*(1+C[j][j])+1e-30)
 		L[j][j] = sqrt(d)
-		logDet += plog(L[j][j])
+		pl *= L[j][j]
 		for i := j + 1; i < R; i++ {
 			s := C[i][j]
 			for p := 0; p < j; p++ {
@@ -338,7 +328,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	for jj := 0; jj < K; jj++ {
 		H[jj][jj] += dg[jj]
 	}
-	return gaussOrthant(K, &H, &b, yy) - logDet + ld
+	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
 }
 
 // gaussOrthant returns the log of the integral over n >= 0 of
@@ -349,7 +339,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 // per-sample model, slab.go). −Inf when H is singular.
 func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	var L [MaxEndMembers][MaxEndMembers]float64
-	hd := 0.0
+	hd := 1.0
 	for j := 0; j < K; j++ {
 		d := H[j][j]
 		for p := 0; p < j; p++ {
@@ -360,7 +350,7 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		}
 		d = sqrt(d)
 		L[j][j] = d
-		hd += plog(d)
+		hd *= d
 		for i := j + 1; i < K; i++ {
 			s := H[i][j]
 			for p := 0; p < j; p++ {
@@ -386,11 +376,16 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		mu[i] = s / L[i][i]
 		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
 	}
-	l := -0.5*max(0, yy-fit) - hd
+	l := -0.5 * max(0, yy-fit)
+	pr := 1 / hd
 	for i := 0; i < K; i++ {
-		l += plog(max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300))
+		pr *= max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300)
+		if pr < 1e-200 {
+			l += plog(pr)
+			pr = 1
+		}
 	}
-	return l
+	return l + plog(pr)
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
@@ -451,3 +446,28 @@ func invDiag(m int, l *[MaxEndMembers][MaxEndMembers]float64, i int) float64 {
 	}
 	return v
 }
+
+// setShares sets the shares of independence and block steps after the
+// warm-up from the independence steps' acceptance there: most steps while
+// the whole proposal fits, block steps as it fits worse (an engineering
+// choice, no source); a tenth or less are random walks.
+func (c *CatchmentRun) setShares(rate float64) {
+	switch {
+	case rate >= 0.2:
+		c.full, c.block = 0.8, 0.15
+	case rate >= 0.05:
+		c.full, c.block = 0.4, 0.5
+	default:
+		c.full, c.block = 0.1, 0.8
+	}
+}
+
+// scatterOf returns the scatter τ = s v of the chains' parameter v > 0, s
+// the scale of τ's half-normal prior, so that v is half standard normal
+// under the prior (as the shared latents are standard normal). The chains
+// move v rather than ln τ: where the samples cannot tell a small scatter
+// from none, the posterior of ln τ has a long tail towards −∞ (its prior
+// density there falls only as τ), which no proposal centred on the bulk
+// covers; v's posterior is then the half-normal prior, which the folded
+// proposal fits (chainProposal).
+func (c *CatchmentRun) scatterOf(v float64) float64 { return c.co.Scatter * v }

@@ -71,7 +71,7 @@ func (c *CatchmentRun) summarise(s int) {
 		}
 		var tau [MaxEndMembers]float64
 		for e, j := range c.ems {
-			tau[j] = pexp(x[c.nd+e])
+			tau[j] = c.scatterOf(x[c.nd+e])
 		}
 		for t := range NTracers {
 			for _, j := range st.act {

@@ -66,10 +66,14 @@
 // water of a Problem at once (catchment*.go, docs/methods.md §7.12): the
 // end-member ratios the likelihood reads are shared by all samples, with a
 // log-normal scatter per end-member about them, and each sample's amounts
-// are integrated out given the shared values. Four adaptive Metropolis
-// chains sample the shared latents and scatters; split R-hat and the
-// effective sample size of every shared ratio say whether they converged
-// (Catchment.Converged, Catchment.Message). A counting check runs first
+// are integrated out given the shared values. Four Metropolis–Hastings
+// chains sample the shared latents and scatters: each climbs to a mode from
+// its own draw of the priors, the modes make a mixture of t distributions
+// that a short warm-up refits to the posterior by importance weights, and
+// the chains then propose from it (whole or one end-member at a time) with
+// random-walk steps between, the proposal fixed. They run until split R-hat
+// and the effective sample size of every shared ratio say they converged,
+// or to a cap (Catchment.Converged, Catchment.Message). A counting check runs first
 // (Identifiability); when it fails, the per-sample model runs and
 // Catchment.Fallback says why. Its draws are joint (Result.Joint): draw d
 // of every sample comes from the same shared ratios.
