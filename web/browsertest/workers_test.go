@@ -72,11 +72,11 @@ func TestLostWorkerIsNamed(t *testing.T) {
 			return post.call(this, m, tr);
 		};
 		return true })()`)
-	edit(t, ctx, "#p-"+ap+"-draws", "2000")
+	edit(t, ctx, "#p-"+ap+"-draws", "2100")
 	if msg := text(t, ctx, "#cell-"+ap+" .problem"); !strings.Contains(msg, "worker 1 of") || !strings.Contains(msg, "stopped from outside") {
 		t.Errorf("apportionment after a worker stopped: %q, want the worker named", msg)
 	}
-	edit(t, ctx, "#p-"+ap+"-draws", "2001")
+	edit(t, ctx, "#p-"+ap+"-draws", "2200")
 	if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
 		t.Errorf("after the next edit: cells with problems %q", bad)
 	}
