@@ -1,10 +1,8 @@
 package mix
 
 import (
-	"bytes"
 	"context"
 	"encoding/binary"
-	"encoding/gob"
 	"errors"
 	"fmt"
 	"math"
@@ -61,7 +59,7 @@ func (r *Run) PutSample(s int, b []byte) error {
 		return fmt.Errorf("mix: sample %d: not a sample's bytes", s)
 	}
 	var m sampleWire
-	if err := gob.NewDecoder(bytes.NewReader(b[k : k+int(head)])).Decode(&m); err != nil {
+	if err := readSummary(&wireReader{b: b[k : k+int(head)]}, &m); err != nil {
 		return fmt.Errorf("mix: sample %d: %v", s, err)
 	}
 	raw := b[k+int(head):]
@@ -126,9 +124,9 @@ func (r *Run) Gather(ctx context.Context) {
 }
 
 // sampleWire is a SampleResult as it travels between runs: its exported
-// fields and its warnings as text with the sentinel each wraps, gob
-// encoded, its length first; its kept draws follow as raw bits
-// (drawBytes each), which gob would decode ten times slower.
+// fields and its warnings as text with the sentinel each wraps, in the
+// binary form of wire.go, its length first; its kept draws follow as raw
+// bits (drawBytes each).
 type sampleWire struct {
 	Result   SampleResult
 	Warnings []wireError
@@ -175,12 +173,10 @@ func encodeSample(sr *SampleResult) ([]byte, error) {
 		}
 		m.Warnings = append(m.Warnings, we)
 	}
-	var g bytes.Buffer
-	if err := gob.NewEncoder(&g).Encode(&m); err != nil {
-		return nil, fmt.Errorf("mix: sample %q: %v", sr.Name, err)
-	}
-	b := binary.AppendUvarint(make([]byte, 0, 10+g.Len()+len(sr.draws)*drawBytes), uint64(g.Len()))
-	b = append(b, g.Bytes()...)
+	var g wireWriter
+	writeSummary(&g, &m)
+	b := binary.AppendUvarint(make([]byte, 0, 10+len(g.b)+len(sr.draws)*drawBytes), uint64(len(g.b)))
+	b = append(b, g.b...)
 	for k := range sr.draws {
 		d := &sr.draws[k]
 		for src := range NSources {

@@ -369,16 +369,21 @@ func apportion(ctx context.Context, iv inverter, report func(done, total int), s
 	}
 	a.Status, a.Verdict, a.ESS = make([]mix.Status, n), make([]string, n), make([]float64, n)
 	a.doubtfulSample = make([]bool, n)
+	last := [2]int{0, 1} // the progress last reported
+	rep := func(done, total int) { last = [2]int{done, total}; report(done, total) }
 	switch s.Model {
 	case "forward":
-		err = apportionForward(ctx, report, a, s, atm, ems, n, warn)
+		err = apportionForward(ctx, rep, a, s, atm, ems, n, warn)
 	case "inverse", "catchment":
-		err = apportionInverse(ctx, iv, report, a, s, atm, ems, precs, n, rough, out, warn)
+		err = apportionInverse(ctx, iv, rep, a, s, atm, ems, precs, n, rough, out, warn)
 	}
 	if err != nil {
 		return nil, nil, err
 	}
-	if err := summariseDraws(ctx, a, n, summary); err != nil {
+	// The summaries take a while over many draws: each sample reports the
+	// last progress again, so that the page hands its thread back to the
+	// browser between samples.
+	if err := summariseDraws(ctx, a, n, summary, func() { report(last[0], last[1]) }); err != nil {
 		return nil, nil, err
 	}
 	conclude(a, s, n, summary, out, warn)
@@ -553,7 +558,7 @@ func apportionInverse(ctx context.Context, iv inverter, report func(done, total 
 
 // summariseDraws keeps each sample's draws, their weights and mean split
 // in a, and with summary its medians and 95 % bounds, cell by cell.
-func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool) error {
+func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool, tick func()) error {
 	// Medians and bounds, cell by cell, from each sample's weighted draws.
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
 	var vals, ws []float64
@@ -565,6 +570,7 @@ func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool) er
 		if err := ctx.Err(); err != nil {
 			return err
 		}
+		tick()
 		nd := a.Draws
 		if a.inverse != nil {
 			nd = a.inverse.Kept(i)

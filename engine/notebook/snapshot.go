@@ -1,13 +1,14 @@
 package notebook
 
 import (
-	"crypto/sha256"
 	"encoding/hex"
 	"errors"
 	"fmt"
 	"math"
 	"strconv"
 	"strings"
+
+	"lixiv/engine/internal/digest"
 )
 
 // Snapshot is a stored copy of a budget's results: the headline figures,
@@ -172,7 +173,7 @@ func maxAbs(xs ...float64) float64 {
 
 // checksum hashes the canonical text of every cell's outputs.
 func (d *Document) checksum() string {
-	h := sha256.New()
+	h := digest.New()
 	var b strings.Builder
 	for _, c := range d.Cells {
 		b.Reset()
@@ -212,5 +213,6 @@ func (d *Document) checksum() string {
 		}
 		h.Write([]byte(b.String()))
 	}
-	return hex.EncodeToString(h.Sum(nil))
+	sum := h.Sum()
+	return hex.EncodeToString(sum[:])
 }
