@@ -5,7 +5,6 @@ import (
 	"encoding/binary"
 	"errors"
 	"fmt"
-	"math"
 )
 
 // A run's samples may be worked apart from the run that gathers them: in
@@ -77,19 +76,11 @@ func (r *Run) PutSample(s int, b []byte) error {
 		return fmt.Errorf("mix: sample %d: %d bytes of draws", s, len(raw))
 	}
 	sr.draws = make([]kept, len(raw)/drawBytes)
-	next := func() float64 {
-		x := math.Float64frombits(binary.LittleEndian.Uint64(raw))
-		raw = raw[8:]
-		return x
-	}
+	dr := wireReader{b: raw}
 	for k := range sr.draws {
 		d := &sr.draws[k]
-		for src := range NSources {
-			for c := range d.split[src] {
-				d.split[src][c] = next()
-			}
-		}
-		d.so4, d.w = next(), next()
+		dr.split(&d.split)
+		d.so4, d.w = dr.float(), dr.float()
 	}
 	return nil
 }
@@ -175,18 +166,14 @@ func encodeSample(sr *SampleResult) ([]byte, error) {
 	}
 	var g wireWriter
 	writeSummary(&g, &m)
-	b := binary.AppendUvarint(make([]byte, 0, 10+len(g.b)+len(sr.draws)*drawBytes), uint64(len(g.b)))
-	b = append(b, g.b...)
+	d := wireWriter{b: binary.AppendUvarint(make([]byte, 0, 10+len(g.b)+len(sr.draws)*drawBytes), uint64(len(g.b)))}
+	d.b = append(d.b, g.b...)
 	for k := range sr.draws {
-		d := &sr.draws[k]
-		for src := range NSources {
-			for _, x := range d.split[src] {
-				b = binary.LittleEndian.AppendUint64(b, math.Float64bits(x))
-			}
-		}
-		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(d.so4))
-		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(d.w))
+		d.split(&sr.draws[k].split)
+		d.float(sr.draws[k].so4)
+		d.float(sr.draws[k].w)
 	}
+	b := d.b
 	return b, nil
 }
 
