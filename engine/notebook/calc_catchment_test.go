@@ -72,4 +72,41 @@ func TestCatchmentModelInTheBudget(t *testing.T) {
 	if fv.Bootstrap.Draws != flux.JointDraw {
 		t.Fatal("the fluxes cell does not take the joint draws together")
 	}
+	for _, c := range []string{"fluxes", "co2"} {
+		if w := strings.Join(d.Output(c).Warnings, "; "); strings.Contains(w, "averaged away") {
+			t.Errorf("%s: joint draws, yet the caution on per-sample draws: %q", c, w)
+		}
+	}
+}
+
+// TestPerSampleDrawsCautioned: with draws that are each sample's own (the
+// forward and per-sample inverse models) the fluxes and CO2 cells say that
+// their intervals leave out an end-member error the samples share; with
+// no draws (draws 0 is refused, so the quick pass's point values stand in)
+// there is nothing to say.
+func TestPerSampleDrawsCautioned(t *testing.T) {
+	for _, model := range []string{"inverse", "forward"} {
+		t.Run(model, func(t *testing.T) {
+			d := demoDocument(t)
+			for _, p := range [][2]string{{"model", model}, {"draws", "100"}, {"target_ess", "50"}} {
+				if err := d.SetParam("apportionment", p[0], p[1]); err != nil {
+					t.Fatal(err)
+				}
+			}
+			if err := d.SetParam("fluxes", "bootstrap", "20"); err != nil {
+				t.Fatal(err)
+			}
+			if err := d.Recompute(context.Background(), nil); err != nil {
+				t.Fatal(err)
+			}
+			for _, c := range []string{"fluxes", "co2"} {
+				if w := strings.Join(d.Output(c).Warnings, "; "); !strings.Contains(w, "averaged away") || !strings.Contains(w, "catchment-wide") {
+					t.Errorf("%s: no caution on per-sample draws among %q", c, w)
+				}
+			}
+		})
+	}
+	if w := sharedEndMemberCaution(&Apportioned{}, "x"); w != "" {
+		t.Errorf("no draws: %q, want no caution", w)
+	}
 }

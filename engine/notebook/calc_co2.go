@@ -294,6 +294,9 @@ func computeCO2(e *Env) (*Output, error) {
 	if t := bySource.table(); t != nil {
 		out.Tables = append(out.Tables, t)
 	}
+	if w := sharedEndMemberCaution(a, "CO2 consumption"); w != "" {
+		out.Warnings = append(out.Warnings, w)
+	}
 	out.Warnings = groupSeries(out.Warnings, map[string]bool{"silicate CO2": true, "carbonate CO2": true})
 	return out, nil
 }

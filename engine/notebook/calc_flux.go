@@ -246,6 +246,9 @@ func computeFluxes(e *Env) (*Output, error) {
 			out.Warnings = append(out.Warnings, w)
 		}
 	}
+	if w := sharedEndMemberCaution(a, "the source fluxes"); w != "" {
+		out.Warnings = append(out.Warnings, w)
+	}
 	series := map[string]bool{}
 	for _, r := range rows {
 		series[r.name] = true
@@ -755,4 +758,19 @@ func (t *sourceTable) table() *ResultTable {
 		Columns: []*Column{TextColumn("figure", t.figure), TextColumn("source", t.source),
 			NumColumn("median", t.unit, t.med), NumColumn("low", t.unit, t.lo), NumColumn("high", t.unit, t.hi),
 			NumColumn("relative_width", "fraction of the median", t.rel), NumColumn("replicates", "", t.reps)}}
+}
+
+// sharedEndMemberCaution says, for an apportionment whose draws are each
+// sample's own (the forward and per-sample inverse models), that the
+// source fluxes' intervals leave out an end-member error every sample
+// shares: drawn independently per sample, it averages away over the
+// samples (docs/methods.md §8.6; docs/validation.md measures how far such
+// intervals fall short). Joint draws (the catchment-wide model) carry it.
+func sharedEndMemberCaution(a *Apportioned, what string) string {
+	if a == nil || a.Joint || a.Draws == 0 {
+		return ""
+	}
+	return "the intervals of " + what + " take each sample's end-member draws as its own: an end-member composition " +
+		"shared by every sample is averaged away, so they are too narrow when the samples share their end-members, as one " +
+		"catchment's usually do (docs/validation.md); the catchment-wide apportionment model carries that shared uncertainty"
 }
