@@ -10,8 +10,13 @@ import (
 // TestCatchmentCountingCheck: too few samples for the shared ratios, or
 // samples of one water type, fall back to the per-sample model with the
 // reason named; a catchment that spreads along its mixing space passes.
+// Four end-members read by four tracers (one equation to spare per sample,
+// MinSpare) fall back; with K/Na as a fifth tracer they pass.
 func TestCatchmentCountingCheck(t *testing.T) {
 	spread := makeCatchment(40, 2, 1)
+	four := makeCatchment(60, 4, 4)
+	fourK := makeCatchment(60, 4, 4)
+	fourK.prob.Tracers = append(fourK.prob.Tracers, KNa)
 	few := makeCatchment(2, 3, 2)
 	one := makeCatchment(40, 2, 3)
 	for i := range one.prob.Waters {
@@ -26,6 +31,8 @@ func TestCatchmentCountingCheck(t *testing.T) {
 		{"spread", spread.prob, true, ""},
 		{"too few samples", few.prob, false, "fewer than the 10 shared ratios"},
 		{"one water type", one.prob, false, "samples of one water type"},
+		{"four end-members, four tracers", four.prob, false, "60 of 60 samples give fewer than two equations beyond their own amounts"},
+		{"four end-members, five tracers", fourK.prob, true, ""},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			c, err := NewCatchmentRun(tc.p, &Options{Seed: 1}, nil)
