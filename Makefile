@@ -70,7 +70,7 @@ chromium:
 # cores finishes in about two thirds of the time one after the other takes;
 # BROWSER_HALF names the slower tests that make one half.
 BROWSERTEST = /tmp/lixiv-browsertest.test
-BROWSER_HALF = ^(TestAwkwardFilesOpenAndPaste|TestUndoInTableField|TestNoFalseDifference|TestLongRunStaysResponsive|TestFileOverTheDemoAsks|TestSavedBudgetReopens|TestOfflineReload|TestUndoRedoKeys)$$
+BROWSER_HALF = ^(TestAwkwardFilesOpenAndPaste|TestUndoInTableField|TestNoFalseDifference|TestLongRunStaysResponsive|TestFileOverTheDemoAsks|TestSavedBudgetReopens|TestOfflineReload|TestUndoRedoKeys|TestEveryExampleOpens)$$
 
 browser: chromium build
 	$(GO) vet -tags browser ./web/browsertest/

@@ -34,6 +34,11 @@ type farmNote struct {
 	err      string
 }
 
+// waited, while the page's runner computes, tells it that the page's
+// thread was handed back to the browser while waiting for the workers;
+// the runner and Work run on one goroutine.
+var waited func()
+
 // Work hands the job to the pool and waits, handing each sample to put.
 // Waiting on a channel hands the page's thread back to the browser.
 func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func(int, []byte) error, progress func(float64)) error {
@@ -73,6 +78,9 @@ func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func
 			cancel.Invoke()
 			return ctx.Err()
 		case m := <-ch:
+			if waited != nil {
+				waited()
+			}
 			switch {
 			case m.err != "":
 				return errors.New(m.err)

@@ -137,6 +137,10 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
+	// Waiting for the workers hands the thread back to the browser: the
+	// engine's slice starts again after each wait.
+	waited = func() { lastYield = nowMillis() }
+	defer func() { waited = nil }()
 	breathe := func() {
 		if d := nowMillis() - lastYield; d > slice {
 			if d > longest {

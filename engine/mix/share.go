@@ -44,7 +44,7 @@ func (r *Run) WorkSample(ctx context.Context, s int, progress func(float64)) ([]
 		}
 	}
 	r.finish(w)
-	return encodeSample(&r.res.Samples[s])
+	return encodeSample(&r.res.Samples[s]), nil
 }
 
 // PutSample sets the result of sample s from what WorkSample returned for
@@ -151,7 +151,9 @@ type carried struct {
 func (c *carried) Error() string { return c.text }
 func (c *carried) Unwrap() error { return c.wrapped }
 
-func encodeSample(sr *SampleResult) ([]byte, error) {
+// encodeSample writes a sample's result in the wire form: the summary's
+// length, the summary, then every kept draw.
+func encodeSample(sr *SampleResult) []byte {
 	m := sampleWire{Result: *sr}
 	m.Result.Warnings = nil
 	for _, w := range sr.Warnings {
@@ -173,8 +175,7 @@ func encodeSample(sr *SampleResult) ([]byte, error) {
 		d.float(sr.draws[k].so4)
 		d.float(sr.draws[k].w)
 	}
-	b := d.b
-	return b, nil
+	return d.b
 }
 
 // drawBytes is the size of a kept draw as it travels: its split, the

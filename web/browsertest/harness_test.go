@@ -20,8 +20,9 @@ import (
 )
 
 // repo is the repository root, dist the built page, lixivBin the native
-// command built once for every test.
-var repo, dist, lixivBin string
+// command built once for every test. light is the built page with a light
+// demo in place of the demo (lightDemo), which most tests open.
+var repo, dist, light, lixivBin string
 
 // patience is how long a test waits for the page (a render, a recompute,
 // a download, the service worker) before it fails: far beyond the seconds
@@ -61,6 +62,11 @@ func setup(m *testing.M) int {
 		fmt.Fprintf(os.Stderr, "browsertest: building lixiv: %v\n%s", err, out)
 		return 1
 	}
+	light = filepath.Join(tmp, "light")
+	if err := lightDemo(dist, light); err != nil {
+		fmt.Fprintln(os.Stderr, "browsertest: the light demo:", err)
+		return 1
+	}
 	return m.Run()
 }
 
@@ -71,8 +77,18 @@ type server struct {
 }
 
 // startServer runs the real page server, as `make serve` does, on a port
-// of its own. Stop ends it; the test cleanup stops it too.
-func startServer(t testing.TB) *server {
+// of its own, serving the page with the light demo (lightDemo): for tests
+// of the page's controls, which do not depend on how many draws the demo
+// keeps. Stop ends it; the test cleanup stops it too.
+func startServer(t testing.TB) *server { return serveDir(t, light) }
+
+// startDemoServer is startServer serving the page as built, with the demo
+// itself: for what depends on the demo's own settings (the timing
+// harness, the screenshots, the demo's stored results).
+func startDemoServer(t testing.TB) *server { return serveDir(t, dist) }
+
+// serveDir runs `lixiv serve` on the files of dir.
+func serveDir(t testing.TB, dir string) *server {
 	t.Helper()
 	ln, err := net.Listen("tcp", "127.0.0.1:0")
 	if err != nil {
@@ -80,7 +96,7 @@ func startServer(t testing.TB) *server {
 	}
 	addr := ln.Addr().String()
 	ln.Close()
-	cmd := exec.Command(lixivBin, "serve", "-addr", addr, "-dir", dist)
+	cmd := exec.Command(lixivBin, "serve", "-addr", addr, "-dir", dir)
 	cmd.Stdout, cmd.Stderr = os.Stderr, os.Stderr
 	if err := cmd.Start(); err != nil {
 		t.Fatal(err)

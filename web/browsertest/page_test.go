@@ -113,11 +113,11 @@ func TestDemoShowsCO2(t *testing.T) {
 		t.Errorf("summary strip: got %q, want a CO2 figure", summary)
 	}
 	t.Logf("%s = %s", name, value)
-	// The demo file carries the results computed natively; opened as a
-	// budget file of one's own, the page's rerun in WebAssembly must
-	// reproduce them.
+	// The (light) demo file carries the results computed natively; opened
+	// as a budget file of one's own, the page's rerun in WebAssembly must
+	// reproduce them (TestWorkersSameResults does so with the demo itself).
 	gen := eval[string](t, ctx, `document.body.dataset.gen`)
-	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json")})); err != nil {
+	if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{filepath.Join(light, "demo.lixiv.json")})); err != nil {
 		t.Fatal(err)
 	}
 	waitGen(t, ctx, gen)
@@ -501,7 +501,8 @@ func TestDropSamplesFile(t *testing.T) {
 }
 
 // TestLongRunStaysResponsive starts a long Monte Carlo run and checks that
-// the page shows its progress and still handles a click while it computes.
+// the page shows its progress and still handles a click while it computes,
+// and that another edit cancels the run and computes in its place.
 func TestLongRunStaysResponsive(t *testing.T) {
 	srv := startServer(t)
 	ctx := newBrowser(t, "")
@@ -525,7 +526,16 @@ func TestLongRunStaysResponsive(t *testing.T) {
 	if busy := eval[string](t, ctx, `document.body.dataset.busy`); busy != "1" {
 		t.Logf("the run ended before the click was checked (busy %q); the click still went through", busy)
 	}
+	// Another edit cancels the long run, and the page computes the new one.
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { const el = document.getElementById("p-%s-draws");
+		el.value = "200"; el.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, ap))
 	waitGen(t, ctx, gen)
+	if v := eval[string](t, ctx, fmt.Sprintf(`document.getElementById("p-%s-draws").value`, ap)); v != "200" {
+		t.Errorf("draws after the second edit: %q, want 200", v)
+	}
+	if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting, section.state-running")].map(s => s.id)`); len(bad) > 0 {
+		t.Errorf("after the cancelled run, cells not computed: %q", bad)
+	}
 }
 
 func TestImportProblemBesideTable(t *testing.T) {
@@ -626,9 +636,9 @@ func TestBadBudgetFileKeepsTheOpenOne(t *testing.T) {
 }
 
 func TestRerunThatDiffersIsFlagged(t *testing.T) {
-	data, err := os.ReadFile(filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json"))
+	data, err := os.ReadFile(filepath.Join(light, "demo.lixiv.json"))
 	if err != nil {
-		t.Skip("no demo budget")
+		t.Fatal(err)
 	}
 	re := regexp.MustCompile(`"sha256": "[0-9a-f]+"`)
 	if !re.Match(data) {

@@ -24,7 +24,7 @@ func TestShots(t *testing.T) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		t.Fatal(err)
 	}
-	srv := startServer(t)
+	srv := startDemoServer(t)
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)

@@ -8,6 +8,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"testing"
 	"time"
 
@@ -27,8 +28,8 @@ func TestTiming(t *testing.T) {
 	if os.Getenv("LIXIV_TIMING") == "" {
 		t.Skip("LIXIV_TIMING not set")
 	}
-	srv := startServer(t)
-	var cold, warm, computed, after, sent, coldCompile, warmCompile []float64
+	srv := startDemoServer(t)
+	var cold, warm, computed, after, sent, coldCompile, warmCompile, demoSteps, demoCharts []float64
 	for i := 0; i < timingRuns; i++ {
 		ctx := newBrowser(t, "")
 		open(t, ctx, srv.URL)
@@ -40,6 +41,8 @@ func TestTiming(t *testing.T) {
 		waitIdle(t, ctx)
 		computed = append(computed, eval[float64](t, ctx, `performance.now()`))
 		after = append(after, computed[len(computed)-1]-cold[len(cold)-1])
+		demoSteps = append(demoSteps, eval[float64](t, ctx, `lixivLastStep`))
+		demoCharts = append(demoCharts, eval[float64](t, ctx, `lixivLastCharts`))
 		if i == 0 {
 			t.Logf("timing: first load transferred (bytes, headers included): %s", eval[string](t, ctx, transferred))
 		}
@@ -59,6 +62,7 @@ func TestTiming(t *testing.T) {
 	t.Logf("timing: of which fetching and compiling the module: %s", stats(warmCompile))
 	t.Logf("timing: demo fully computed after navigation (cold): %s", stats(computed))
 	t.Logf("timing: demo fully computed after first render (cold): %s", stats(after))
+	t.Logf("timing: of which computing (engine steps on the page's thread, with their waits for the workers and yields): %s; drawing the charts: %s", stats(demoSteps), stats(demoCharts))
 
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
@@ -69,7 +73,7 @@ func TestTiming(t *testing.T) {
 	}
 	atm := cellOf(t, ctx, "atmosphere")
 	var edits, first, quick, quickDone, steps, charts []float64
-	for i := 0; i < 8; i++ {
+	for i := 0; i < timingRuns; i++ {
 		edit(t, ctx, "#p-"+atm+"-na_per_cl", fmt.Sprintf("%.3f", 0.80+0.01*float64(i%5)))
 		edits = append(edits, eval[float64](t, ctx, `lixivLastRecompute`))
 		first = append(first, eval[float64](t, ctx, `lixivLastFirstPaint`))
@@ -87,13 +91,13 @@ func TestTiming(t *testing.T) {
 	t.Logf("timing: of which drawing the charts again: %s", stats(charts))
 	note := cellOf(t, ctx, "note")
 	var notes []float64
-	for i := 0; i < 8; i++ {
+	for i := 0; i < timingRuns; i++ {
 		edit(t, ctx, "#note-"+note, fmt.Sprintf("Field note %d", i))
 		notes = append(notes, eval[float64](t, ctx, `lixivLastRecompute`))
 	}
 	t.Logf("timing: edit of a note (no science downstream) to repainted page: %s", stats(notes))
 	var renders, builds, syncs []float64
-	for i := 0; i < 8; i++ {
+	for i := 0; i < timingRuns; i++ {
 		eval[bool](t, ctx, `document.querySelector("section.cell .fold").click() || true`)
 		time.Sleep(150 * time.Millisecond)
 		renders = append(renders, eval[float64](t, ctx, `lixivLastRender`))
@@ -153,9 +157,14 @@ func setField(t *testing.T, ctx context.Context, selector, value string) {
 	}
 }
 
-// timingRuns is how many times each figure is measured; stats reports
-// their median.
-const timingRuns = 8
+// timingRuns is how many times each figure is measured (8, or
+// LIXIV_TIMING_RUNS for a quick look); stats reports their median.
+var timingRuns = func() int {
+	if n, err := strconv.Atoi(os.Getenv("LIXIV_TIMING_RUNS")); err == nil && n > 0 {
+		return n
+	}
+	return 8
+}()
 
 func stats(v []float64) string {
 	s := append([]float64(nil), v...)
@@ -188,7 +197,7 @@ func TestTimingAtLimits(t *testing.T) {
 	if err := os.WriteFile(file, d.Marshal(), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	srv := startServer(t)
+	srv := startDemoServer(t)
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
 	waitIdle(t, ctx)

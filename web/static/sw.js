@@ -5,7 +5,7 @@
 const VERSION = "dev";
 const CACHE = "lixiv-" + VERSION;
 const FILES = ["./", "index.html", "app.css", "boot.js", "vugu-render.js", "wasm_exec.js",
-  "main.wasm", "demo.lixiv.json", "worker.js"];
+  "main.wasm", "demo.lixiv.json", "worker.js", "icon.svg"];
 
 self.addEventListener("install", function (e) {
   e.waitUntil(caches.open(CACHE).then(function (c) { return c.addAll(FILES); }).then(function () { return self.skipWaiting(); }));
