@@ -61,6 +61,11 @@ type CatchmentOptions struct {
 	// scatter of ln ratio per end-member; 0 means 0.1 (common practice, no
 	// source; docs/methods.md §7.12).
 	Scatter float64
+
+	// thinAllowed lets the model run where most samples give fewer than
+	// MinSpare equations beyond their own amounts (the simulation study
+	// measures what it would do there).
+	thinAllowed bool
 }
 
 // RHatLimit is the split R-hat below which the chains agree (Vehtari et al.

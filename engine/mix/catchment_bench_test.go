@@ -11,11 +11,12 @@ import (
 // chain, the largest split R-hat and the smallest ESS of the shared ratios
 // (the goal: R-hat below 1.01 and ESS of at least 400 for every
 // shared ratio).
-func benchmarkCatchment(b *testing.B, n, k int) {
+func benchmarkCatchment(b *testing.B, n, k int, extra []Tracer, co *CatchmentOptions) {
 	sc := makeCatchment(n, k, 7)
+	sc.prob.Tracers = append(sc.prob.Tracers, extra...)
 	var c *Catchment
 	for b.Loop() {
-		res, err := InvertCatchment(context.Background(), sc.prob, &Options{Seed: 1, Workers: 1}, nil)
+		res, err := InvertCatchment(context.Background(), sc.prob, &Options{Seed: 1, Workers: 1}, co)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -38,12 +39,21 @@ func benchmarkCatchment(b *testing.B, n, k int) {
 }
 
 // BenchmarkCatchment100x4 is the goal of the catchment-wide model: 100
-// samples and four end-members (two silicates, carbonate, evaporite).
-func BenchmarkCatchment100x4(b *testing.B) { benchmarkCatchment(b, 100, 4) }
+// samples and four end-members (two silicates, carbonate, evaporite), read
+// by five tracers (K/Na added: with four, each sample gives one equation
+// beyond its amounts and the counting check sends the catchment to the
+// per-sample model, MinSpare).
+func BenchmarkCatchment100x4(b *testing.B) { benchmarkCatchment(b, 100, 4, []Tracer{KNa}, nil) }
+
+// BenchmarkCatchment100x4Thin is four end-members read by four tracers,
+// run past the counting check, as the simulation study does.
+func BenchmarkCatchment100x4Thin(b *testing.B) {
+	benchmarkCatchment(b, 100, 4, nil, &CatchmentOptions{thinAllowed: true})
+}
 
 // BenchmarkCatchment100x3 is 100 samples of silicate, carbonate and
 // evaporite.
-func BenchmarkCatchment100x3(b *testing.B) { benchmarkCatchment(b, 100, 3) }
+func BenchmarkCatchment100x3(b *testing.B) { benchmarkCatchment(b, 100, 3, nil, nil) }
 
 // BenchmarkCatchment100x2 is 100 samples of silicate and carbonate.
-func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2) }
+func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2, nil, nil) }

@@ -15,11 +15,16 @@ import (
 // number of sources.
 type catchmentStudy struct {
 	samples, sources, catchments int
+	extra                        []Tracer // tracers beyond catchmentEndMembers'
+	thin                         bool     // run past the counting check's MinSpare (CatchmentOptions.thinAllowed)
+	seed                         uint64   // the study's seed; 0 means 100 plus its row
 }
 
 // catchmentScore accumulates a study's outcomes.
 type catchmentScore struct {
 	ratios, covered   int     // shared ratios, and those whose 95 % interval holds the truth
+	convRatios        int     // shared ratios of the catchments whose chains converged
+	convCovered       int     // and those whose 95 % interval holds the truth
 	width             float64 // sum of posterior over prior 95 % widths (of ln ratio)
 	converged         int     // catchments whose chains converged
 	fallbacks         int     // catchments the counting check sent to the per-sample model
@@ -36,7 +41,8 @@ func runCatchmentStudy(t testing.TB, st catchmentStudy, seed uint64, perSample b
 	rng := rand.New(rand.NewPCG(seed, 5))
 	for k := range st.catchments {
 		syn := makeCatchment(st.samples, st.sources, seed*1000+uint64(k))
-		res, err := InvertCatchment(context.Background(), syn.prob, &Options{Seed: seed + uint64(k)}, nil)
+		syn.prob.Tracers = append(syn.prob.Tracers, st.extra...)
+		res, err := InvertCatchment(context.Background(), syn.prob, &Options{Seed: seed + uint64(k)}, &CatchmentOptions{thinAllowed: st.thin})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -51,8 +57,15 @@ func runCatchmentStudy(t testing.TB, st catchmentStudy, seed uint64, perSample b
 		for _, r := range c.Ratios {
 			v := syn.theta[r.Tracer][r.EndMember]
 			sc.ratios++
-			if v >= r.Posterior.Lo && v <= r.Posterior.Hi {
+			in := v >= r.Posterior.Lo && v <= r.Posterior.Hi
+			if in {
 				sc.covered++
+			}
+			if c.Converged {
+				sc.convRatios++
+				if in {
+					sc.convCovered++
+				}
 			}
 			sc.width += plog(r.Posterior.Hi/r.Posterior.Lo) / plog(r.Prior.Hi/r.Prior.Lo)
 		}
@@ -84,8 +97,10 @@ func runCatchmentStudy(t testing.TB, st catchmentStudy, seed uint64, perSample b
 // catchmentStudies are the rows of the full study (LIXIV_VALIDATION) and
 // of the reduced replay of every test run.
 var (
-	catchmentStudies = []catchmentStudy{{20, 2, 40}, {60, 2, 40}, {150, 2, 20}, {20, 3, 30}, {60, 3, 30}, {150, 3, 15}, {100, 4, 10}}
-	catchmentReplay  = []catchmentStudy{{20, 2, 6}}
+	catchmentStudies = []catchmentStudy{{20, 2, 40, nil, false, 0}, {60, 2, 40, nil, false, 0}, {150, 2, 20, nil, false, 0},
+		{20, 3, 30, nil, false, 0}, {60, 3, 30, nil, false, 0}, {150, 3, 15, nil, false, 0},
+		{100, 4, 10, nil, true, 0}, {100, 4, 10, nil, false, 106}, {100, 4, 10, []Tracer{KNa}, false, 106}}
+	catchmentReplay = []catchmentStudy{{20, 2, 6, nil, false, 0}}
 )
 
 // TestValidationCatchment is the simulation-based calibration of the
@@ -102,20 +117,45 @@ func TestValidationCatchment(t *testing.T) {
 		studies, per = catchmentStudies, true
 	}
 	var b strings.Builder
-	b.WriteString("| samples | sources | catchments | converged | shared ratios | 95 % intervals holding the truth | posterior / prior width (ln) | silicate charge: intervals holding the truth | relative width | per-sample model: holding | relative width |\n")
-	b.WriteString("|---|---|---|---|---|---|---|---|---|---|---|\n")
+	b.WriteString("| samples | sources | tracers | catchments | sent to the per-sample model | converged | shared ratios | 95 % intervals holding the truth: all catchments | converged catchments only | posterior / prior width (ln) | silicate charge: intervals holding the truth | relative width | per-sample model: holding | relative width |\n")
+	b.WriteString("|---|---|---|---|---|---|---|---|---|---|---|---|---|---|\n")
+	pct := func(k, n int) string {
+		if n == 0 {
+			return "–"
+		}
+		return fmt.Sprintf("%.1f %%", 100*float64(k)/float64(n))
+	}
 	var all catchmentScore
 	for i, st := range studies {
-		sc := runCatchmentStudy(t, st, uint64(100+i), per)
+		seed := st.seed
+		if seed == 0 {
+			seed = uint64(100 + i)
+		}
+		sc := runCatchmentStudy(t, st, seed, per)
 		perCol := "– | –"
 		if per && sc.silN > 0 {
 			perCol = fmt.Sprintf("%d of %d | %.2f", sc.silPer, sc.silN, sc.silPerW/float64(sc.silN))
 		}
-		fmt.Fprintf(&b, "| %d | %d | %d | %d | %d | %.1f %% | %.2f | %d of %d | %.2f | %s |\n", st.samples, st.sources, st.catchments, sc.converged,
-			sc.ratios, 100*float64(sc.covered)/float64(max(sc.ratios, 1)), sc.width/float64(max(sc.ratios, 1)), sc.silCover, sc.silN,
-			sc.silWidth/float64(max(sc.silN, 1)), perCol)
+		_, trs := catchmentEndMembers(st.sources)
+		var names []string
+		for _, tr := range append(trs, st.extra...) {
+			names = append(names, tr.String())
+		}
+		tracers := strings.Join(names, ", ")
+		if st.thin {
+			tracers += " (past the counting check)"
+		}
+		width, sil := "–", "– | –"
+		if sc.ratios > 0 {
+			width = fmt.Sprintf("%.2f", sc.width/float64(sc.ratios))
+		}
+		if sc.silN > 0 {
+			sil = fmt.Sprintf("%d of %d | %.2f", sc.silCover, sc.silN, sc.silWidth/float64(sc.silN))
+		}
+		fmt.Fprintf(&b, "| %d | %d | %s | %d | %d | %d | %d | %s | %s | %s | %s | %s |\n", st.samples, st.sources, tracers, st.catchments, sc.fallbacks, sc.converged,
+			sc.ratios, pct(sc.covered, sc.ratios), pct(sc.convCovered, sc.convRatios), width, sil, perCol)
 		t.Logf("%+v: %+v", st, sc)
-		if st.sources < 4 {
+		if !st.thin {
 			all.ratios += sc.ratios
 			all.covered += sc.covered
 			all.width += sc.width

@@ -2,6 +2,7 @@ package mix
 
 import (
 	"context"
+	"errors"
 	"math/rand/v2"
 	"strings"
 	"testing"
@@ -10,8 +11,13 @@ import (
 // TestCatchmentCountingCheck: too few samples for the shared ratios, or
 // samples of one water type, fall back to the per-sample model with the
 // reason named; a catchment that spreads along its mixing space passes.
+// Four end-members read by four tracers (one equation to spare per sample,
+// MinSpare) fall back; with K/Na as a fifth tracer they pass.
 func TestCatchmentCountingCheck(t *testing.T) {
 	spread := makeCatchment(40, 2, 1)
+	four := makeCatchment(60, 4, 4)
+	fourK := makeCatchment(60, 4, 4)
+	fourK.prob.Tracers = append(fourK.prob.Tracers, KNa)
 	few := makeCatchment(2, 3, 2)
 	one := makeCatchment(40, 2, 3)
 	for i := range one.prob.Waters {
@@ -26,6 +32,8 @@ func TestCatchmentCountingCheck(t *testing.T) {
 		{"spread", spread.prob, true, ""},
 		{"too few samples", few.prob, false, "fewer than the 10 shared ratios"},
 		{"one water type", one.prob, false, "samples of one water type"},
+		{"four end-members, four tracers", four.prob, false, "60 of 60 samples give fewer than two equations beyond their own amounts"},
+		{"four end-members, five tracers", fourK.prob, true, ""},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			c, err := NewCatchmentRun(tc.p, &Options{Seed: 1}, nil)
@@ -204,6 +212,34 @@ func TestTemper(t *testing.T) {
 		goal := min(tc.want, float64(len(tc.lw)))
 		if e := ess(tc.lw, beta); !(beta < 1) || e < goal*(1-1e-6) || ess(tc.lw, beta*1.01) >= goal {
 			t.Errorf("%s: power %g gives %.1f effective draws; want the largest power reaching %g", tc.name, beta, e, goal)
+		}
+	}
+}
+
+// TestCatchmentNotConvergedIsDoubtful: chains stopped by their cap before
+// they agree leave a plain message on the catchment, and every sample that
+// rests on them is not well sampled and carries the warning.
+func TestCatchmentNotConvergedIsDoubtful(t *testing.T) {
+	p, o, co := quickCatchment()
+	co.TargetESS = 100_000 // more than the capped chains can reach
+	res, err := InvertCatchment(context.Background(), p, o, co)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := res.Catchment
+	if c.Converged || !strings.Contains(c.Message, "have not converged") || !strings.Contains(c.Message, "doubtful") {
+		t.Fatalf("converged %v, message %q", c.Converged, c.Message)
+	}
+	for _, s := range res.Samples {
+		if s.Status == Rule || s.Status == Skipped {
+			continue
+		}
+		warned := false
+		for _, w := range s.Warnings {
+			warned = warned || errors.Is(w, ErrPoorlySampled)
+		}
+		if s.WellSampled || !warned {
+			t.Errorf("sample %q: well sampled %v, warned %v, after chains that have not converged", s.Name, s.WellSampled, warned)
 		}
 	}
 }

@@ -74,8 +74,9 @@
 // random-walk steps between, the proposal fixed. They run until split R-hat
 // and the effective sample size of every shared ratio say they converged,
 // or to a cap (Catchment.Converged, Catchment.Message). A counting check runs first
-// (Identifiability); when it fails, the per-sample model runs and
-// Catchment.Fallback says why. Its draws are joint (Result.Joint): draw d
+// (Identifiability: enough equations beyond the samples' own amounts, at
+// least MinSpare in most samples, and spread along the mixing space); when
+// it fails, the per-sample model runs and Catchment.Fallback says why. Its draws are joint (Result.Joint): draw d
 // of every sample comes from the same shared ratios.
 //
 // The waters may be raw river chemistry, with the rain end-member in the
