@@ -31,6 +31,7 @@ func (t *Table) WriteCSV(w io.Writer) error {
 	type col struct {
 		head string
 		cell func(b []byte, s *Sample) []byte
+		unit string // the unit the head names, for a units row
 	}
 	num := func(get func(*Sample) float64) func([]byte, *Sample) []byte {
 		return func(b []byte, s *Sample) []byte {
@@ -41,9 +42,9 @@ func (t *Table) WriteCSV(w io.Writer) error {
 		}
 	}
 	cols := []col{
-		{"Sample", func(b []byte, s *Sample) []byte { return appendField(b, s.ID) }},
-		{"Site", func(b []byte, s *Sample) []byte { return appendField(b, s.Site) }},
-		{"Date", func(b []byte, s *Sample) []byte {
+		{head: "Sample", cell: func(b []byte, s *Sample) []byte { return appendField(b, s.ID) }},
+		{head: "Site", cell: func(b []byte, s *Sample) []byte { return appendField(b, s.Site) }},
+		{head: "Date", cell: func(b []byte, s *Sample) []byte {
 			switch {
 			case !s.HasTime:
 			case s.DateOnly:
@@ -55,17 +56,17 @@ func (t *Table) WriteCSV(w io.Writer) error {
 		}},
 	}
 	for _, q := range []struct {
-		head string
-		get  func(*Sample) float64
+		head, unit string
+		get        func(*Sample) float64
 	}{
-		{"Q (m3/s)", func(s *Sample) float64 { return s.Q }},
-		{"pH", func(s *Sample) float64 { return s.PH }},
-		{"Temperature (°C)", func(s *Sample) float64 { return s.Temp }},
-		{"EC (µS/cm)", func(s *Sample) float64 { return s.Cond }},
-		{"87Sr/86Sr", func(s *Sample) float64 { return s.Sr87Sr86 }},
+		{"Q (m3/s)", "m3/s", func(s *Sample) float64 { return s.Q }},
+		{"pH", "", func(s *Sample) float64 { return s.PH }},
+		{"Temperature (°C)", "°C", func(s *Sample) float64 { return s.Temp }},
+		{"EC (µS/cm)", "µS/cm", func(s *Sample) float64 { return s.Cond }},
+		{"87Sr/86Sr", "", func(s *Sample) float64 { return s.Sr87Sr86 }},
 	} {
 		if has(q.get) {
-			cols = append(cols, col{q.head, num(q.get)})
+			cols = append(cols, col{q.head, num(q.get), q.unit})
 		}
 	}
 	var want [chem.NSpecies]bool
@@ -84,11 +85,11 @@ func (t *Table) WriteCSV(w io.Writer) error {
 			continue
 		}
 		sp := chem.Species(i)
-		unit := " (µmol/L)"
+		unit := "µmol/L"
 		if sp == chem.Alk {
-			unit = " (µeq/L)"
+			unit = "µeq/L"
 		}
-		cols = append(cols, col{sp.Symbol() + unit, func(b []byte, s *Sample) []byte {
+		cols = append(cols, col{head: sp.Symbol() + " (" + unit + ")", unit: unit, cell: func(b []byte, s *Sample) []byte {
 			if lim, ok := s.Censored[sp]; ok {
 				if math.IsNaN(lim) {
 					return append(b, "<DL"...)
@@ -110,7 +111,7 @@ func (t *Table) WriteCSV(w io.Writer) error {
 		if fixed[strings.ToLower(k)] {
 			head = k + " (text)" // an unread date kept as text, say
 		}
-		cols = append(cols, col{head, func(b []byte, s *Sample) []byte { return appendField(b, s.Meta[k]) }})
+		cols = append(cols, col{head: head, cell: func(b []byte, s *Sample) []byte { return appendField(b, s.Meta[k]) }})
 	}
 	var line []byte
 	for i, c := range cols {
@@ -122,6 +123,28 @@ func (t *Table) WriteCSV(w io.Writer) error {
 	line = append(line, '\n')
 	if _, err := bw.Write(line); err != nil {
 		return err
+	}
+	if len(t.Samples) > 0 {
+		// A first sample that would be read back as a units row (units in
+		// its text columns, no number under a numeric column) gets a units
+		// row of the header's own units before it.
+		heads, first, units := make([]string, len(cols)), make([]string, len(cols)), make([]string, len(cols))
+		for i, c := range cols {
+			heads[i], first[i], units[i] = c.head, string(c.cell(nil, t.Samples[0])), c.unit
+		}
+		if IsUnitsRow(heads, first) {
+			line = line[:0]
+			for i, u := range units {
+				if i > 0 {
+					line = append(line, ',')
+				}
+				line = appendField(line, u)
+			}
+			line = append(line, '\n')
+			if _, err := bw.Write(line); err != nil {
+				return err
+			}
+		}
 	}
 	for _, s := range t.Samples {
 		line = line[:0]
