@@ -570,13 +570,20 @@ func figureBars(id, title string, o *notebook.Output, unit, words string) *plot.
 		if f.Unit != unit || !strings.Contains(f.Name, words) {
 			continue
 		}
-		cats = append(cats, strings.TrimSpace(strings.Replace(f.Name, words, "", 1)))
+		cat := strings.Join(strings.Fields(strings.Replace(f.Name, words, "", 1)), " ")
+		// The CO2 cell's other sulfate origin: "silicate with the sulfate
+		// from sulfide oxidation" is labelled "silicate, SO4 from sulfide".
+		if src, origin, ok := strings.Cut(cat, " with the sulfate from "); ok {
+			cat = src + ", SO4 from " + strings.Fields(origin + " ?")[0]
+		}
+		cats = append(cats, cat)
 		mid, lo, hi = append(mid, f.Median), append(lo, f.Low), append(hi, f.High)
 	}
 	if len(cats) == 0 {
 		return nil
 	}
 	ch := plot.New(id, title, "source", words+" ("+unit+")")
+	ch.StaggerLabels = true // the other sulfate origin's labels are long
 	ch.Height = 300
 	ch.Bars(cats, []plot.Segment{{Name: "median with 95 % interval", Style: plot.StyleN(1), Value: mid, Lo: lo, Hi: hi}})
 	return ch

@@ -193,3 +193,30 @@ func TestMixingDiagramMarks(t *testing.T) {
 		}
 	}
 }
+
+// TestCO2BarsNameEveryBar: the CO2 cell's bars, the chosen sulfate origin's
+// and the other's, each carry a label of their own in the drawn chart.
+func TestCO2BarsNameEveryBar(t *testing.T) {
+	d := demoBudget(t)
+	for _, c := range d.Cells {
+		if c.Kind != notebook.KindCO2 {
+			continue
+		}
+		ch := figureBars("co2-bars", "CO2 consumption by source", d.Output(c.ID), "mol/km²/yr", "CO2 consumption per km²")
+		if ch == nil {
+			t.Fatal("no CO2 bars")
+		}
+		want := []string{"silicate", "carbonate", "silicate, SO4 from sulfide", "carbonate, SO4 from sulfide"}
+		if strings.Join(ch.X.Names, "|") != strings.Join(want, "|") {
+			t.Fatalf("bars %q, want %q", ch.X.Names, want)
+		}
+		svg := ch.SVG()
+		for _, w := range want {
+			if !strings.Contains(svg, ">"+w+"</text>") {
+				t.Errorf("the chart does not label the bar %q", w)
+			}
+		}
+		return
+	}
+	t.Fatal("the demo has no CO2 cell")
+}
