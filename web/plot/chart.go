@@ -16,10 +16,11 @@ type Chart struct {
 	X, Y   Axis
 	Note   string // a line under the chart, such as a fit equation
 	// StaggerLabels lets the labels of a category axis alternate between
-	// two rows, when that gives each its room, rather than showing only
-	// every other one. The second row takes the place of the axis title:
-	// leave X.Label empty.
+	// two rows when one row would thin them and two give every label
+	// room; the plot then gives up a row of height to the second row, and
+	// the axis title moves below it.
 	StaggerLabels bool
+	stagger       bool // the labels take two rows (set as the chart is drawn)
 	// MinStep is the least room, in pixels, for each category of a
 	// category axis: with many categories the chart grows wider than
 	// Width (and is marked "wide", for the page to scroll it sideways)
@@ -96,6 +97,10 @@ func (c *Chart) SVG() string {
 		plotBottom -= legendRow
 	}
 	c.X.lo, c.X.hi = marginLeft, w-marginRight
+	c.stagger = c.staggered()
+	if c.stagger {
+		plotBottom -= staggerRow // the second row of labels
+	}
 	c.Y.lo, c.Y.hi = plotBottom, marginTop
 
 	var b strings.Builder
@@ -113,7 +118,11 @@ func (c *Chart) SVG() string {
 		it.draw(&b, c)
 	}
 	b.WriteString(`</g>`)
-	c.drawLegend(&b, plotBottom+marginBottom+6, w)
+	legendTop := plotBottom + marginBottom + 6
+	if c.stagger {
+		legendTop += staggerRow
+	}
+	c.drawLegend(&b, legendTop, w)
 	if c.Note != "" {
 		fmt.Fprintf(&b, `<text x="%g" y="%g" fill="#333">%s</text>`, marginLeft, h-8, esc(c.Note))
 	}
@@ -156,20 +165,33 @@ func (c *Chart) hatchURL(s Style) string {
 	return s.Colour
 }
 
+// staggerRow is the height of the second row of staggered labels.
+const staggerRow = 15.0
+
+// labelRoom is the width each category label of the x axis has.
+func (c *Chart) labelRoom(xt []Tick) float64 {
+	return (c.X.hi - c.X.lo) / float64(len(xt)+1)
+}
+
+// staggered reports whether the category labels of the x axis take two
+// rows: one row would thin them and two give every label room
+// (StaggerLabels). Call it once the x axis spans the plot.
+func (c *Chart) staggered() bool {
+	if c.X.Names == nil || !c.StaggerLabels {
+		return false
+	}
+	xt := c.X.Ticks()
+	room := c.labelRoom(xt)
+	return thinned(xt, room) && !thinned(xt, 2*room)
+}
+
 func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 	x0, x1, y0, y1 := c.X.lo, c.X.hi, c.Y.hi, c.Y.lo
 	fmt.Fprintf(b, `<rect x="%g" y="%g" width="%g" height="%g" fill="none" stroke="#444" stroke-width="1"/>`, x0, y0, x1-x0, y1-y0)
 	xt := c.X.Ticks()
-	stagger := false
-	if c.X.Names != nil {
-		room := (x1 - x0) / float64(len(xt)+1)
-		switch {
-		case !thinned(xt, room):
-		case c.StaggerLabels && !thinned(xt, 2*room):
-			stagger = true // two rows give every label room
-		default:
-			xt = thinLabels(xt, room)
-		}
+	stagger := c.stagger
+	if c.X.Names != nil && !stagger {
+		xt = thinLabels(xt, c.labelRoom(xt))
 	}
 	for i, t := range xt {
 		px := c.X.Map(t.Value)
@@ -183,7 +205,7 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 		if t.Label != "" {
 			y := y1 + 18
 			if stagger && i%2 == 1 {
-				y += 15
+				y += staggerRow
 			}
 			fmt.Fprintf(b, `<text x="%.1f" y="%g" text-anchor="middle" fill="#222">%s</text>`, px, y, esc(t.Label))
 		}
@@ -201,7 +223,11 @@ func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
 			fmt.Fprintf(b, `<text x="%g" y="%.1f" text-anchor="end" fill="#222">%s</text>`, x0-8, py+4, esc(t.Label))
 		}
 	}
-	fmt.Fprintf(b, `<text x="%g" y="%g" text-anchor="middle" fill="#111">%s</text>`, (x0+x1)/2, bottom+38, esc(c.X.Label))
+	titleY := bottom + 38
+	if stagger {
+		titleY += staggerRow
+	}
+	fmt.Fprintf(b, `<text x="%g" y="%g" text-anchor="middle" fill="#111">%s</text>`, (x0+x1)/2, titleY, esc(c.X.Label))
 	fmt.Fprintf(b, `<text transform="translate(14 %g) rotate(-90)" text-anchor="middle" fill="#111">%s</text>`, (y0+y1)/2, esc(c.Y.Label))
 }
 
