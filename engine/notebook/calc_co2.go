@@ -464,7 +464,13 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 	for _, o := range otherOrigins(a.Sulfate) {
 		fo := *fv
 		if a.SulfateAboveRain() {
-			b, err := a.Under(e.Ctx, o, func(int, int) {})
+			// The cell's progress stays where it is; reporting it again
+			// lets the page hand its thread back during the rerun.
+			b, err := a.Under(e.Ctx, o, func(int, int) {
+				if fv.Bootstrap.Tick != nil {
+					fv.Bootstrap.Tick()
+				}
+			})
 			if err != nil {
 				return nil, nil, nil, fmt.Errorf("sulfate from %s: %v", sulfateOrigins[o], err)
 			}

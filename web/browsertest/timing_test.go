@@ -45,6 +45,8 @@ func TestTiming(t *testing.T) {
 		demoCharts = append(demoCharts, eval[float64](t, ctx, `lixivLastCharts`))
 		if i == 0 {
 			t.Logf("timing: first load transferred (bytes, headers included): %s", eval[string](t, ctx, transferred))
+			t.Logf("timing: the first load's marks (ms after navigation): boot.js %.0f, module compiled %.0f, %s; first render %.0f",
+				eval[float64](t, ctx, `lixivBoot.start`), eval[float64](t, ctx, `lixivBoot.compiled`), eval[string](t, ctx, `window.lixivMarks || ""`), cold[0])
 		}
 		sent = append(sent, eval[float64](t, ctx, `performance.getEntriesByType("navigation").concat(performance.getEntriesByType("resource")).reduce((s, e) => s + e.transferSize, 0)`))
 		time.Sleep(1500 * time.Millisecond) // let the service worker install
