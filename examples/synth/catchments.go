@@ -78,7 +78,7 @@ var Examples = []Example{
 	{"examples/scarrow-ghyll/scarrow-ghyll.lixiv.json", func() (*notebook.Document, error) {
 		return ScarrowGhyll().Budget("global", "catchment", 400, 500,
 			"Scarrow Ghyll is a fictional upland valley of granite and limestone. The samples and discharge are invented from a known truth (examples/synth), not measured.",
-			"The apportionment uses the catchment-wide model: the silicate and carbonate ratios are learned once from all 105 samples together, and the fluxes take its joint draws.")
+			"The apportionment uses the catchment-wide model: the silicate and carbonate ratios are learned once from all 104 samples together, and the fluxes take its joint draws.")
 	}},
 }
 
