@@ -764,7 +764,7 @@ func (t *sourceTable) table() *ResultTable {
 // sample's own (the forward and per-sample inverse models), that the
 // source fluxes' intervals leave out an end-member error every sample
 // shares: drawn independently per sample, it averages away over the
-// samples (docs/methods.md §8.6; docs/validation.md measures how far such
+// samples (docs/methods.md §7.6; docs/validation.md measures how far such
 // intervals fall short). Joint draws (the catchment-wide model) carry it.
 func sharedEndMemberCaution(a *Apportioned, what string) string {
 	if a == nil || a.Joint || a.Draws == 0 {

@@ -20,7 +20,6 @@ type Chart struct {
 	// room; the plot then gives up a row of height to the second row, and
 	// the axis title moves below it.
 	StaggerLabels bool
-	stagger       bool // the labels take two rows (set as the chart is drawn)
 	// MinStep is the least room, in pixels, for each category of a
 	// category axis: with many categories the chart grows wider than
 	// Width (and is marked "wide", for the page to scroll it sideways)
@@ -97,8 +96,8 @@ func (c *Chart) SVG() string {
 		plotBottom -= legendRow
 	}
 	c.X.lo, c.X.hi = marginLeft, w-marginRight
-	c.stagger = c.staggered()
-	if c.stagger {
+	stagger := c.staggered()
+	if stagger {
 		plotBottom -= staggerRow // the second row of labels
 	}
 	c.Y.lo, c.Y.hi = plotBottom, marginTop
@@ -110,7 +109,7 @@ func (c *Chart) SVG() string {
 	c.defs(&b)
 	fmt.Fprintf(&b, `<rect x="0" y="0" width="%g" height="%g" fill="#ffffff"/>`, w, h)
 	fmt.Fprintf(&b, `<text x="%g" y="20" font-size="14" font-weight="bold" fill="#111">%s</text>`, marginLeft, esc(c.Title))
-	c.drawAxes(&b, plotBottom)
+	c.drawAxes(&b, plotBottom, stagger)
 	fmt.Fprintf(&b, `<clipPath id="%s-clip"><rect x="%g" y="%g" width="%g" height="%g"/></clipPath>`,
 		c.ID, c.X.lo, c.Y.hi, c.X.hi-c.X.lo, c.Y.lo-c.Y.hi)
 	fmt.Fprintf(&b, `<g clip-path="url(#%s-clip)">`, c.ID)
@@ -119,7 +118,7 @@ func (c *Chart) SVG() string {
 	}
 	b.WriteString(`</g>`)
 	legendTop := plotBottom + marginBottom + 6
-	if c.stagger {
+	if stagger {
 		legendTop += staggerRow
 	}
 	c.drawLegend(&b, legendTop, w)
@@ -185,11 +184,12 @@ func (c *Chart) staggered() bool {
 	return thinned(xt, room) && !thinned(xt, 2*room)
 }
 
-func (c *Chart) drawAxes(b *strings.Builder, bottom float64) {
+// drawAxes draws the frame, ticks, labels and axis titles; stagger puts
+// the category labels in two rows (staggered).
+func (c *Chart) drawAxes(b *strings.Builder, bottom float64, stagger bool) {
 	x0, x1, y0, y1 := c.X.lo, c.X.hi, c.Y.hi, c.Y.lo
 	fmt.Fprintf(b, `<rect x="%g" y="%g" width="%g" height="%g" fill="none" stroke="#444" stroke-width="1"/>`, x0, y0, x1-x0, y1-y0)
 	xt := c.X.Ticks()
-	stagger := c.stagger
 	if c.X.Names != nil && !stagger {
 		xt = thinLabels(xt, c.labelRoom(xt))
 	}
