@@ -129,10 +129,18 @@
   // worker keeps, a second visit reuses the browser's cache of the compiled
   // code.
   window.lixivBoot.module = WebAssembly.compileStreaming(fetch("main.wasm"));
+  window.lixivBoot.module.then(function () { window.lixivBoot.compiled = performance.now(); }, function () {});
   var go = new Go();
-  window.lixivBoot.module
-    .then(function (module) {
-      window.lixivBoot.compiled = performance.now();
+  // The script runs in the head, so the module can be ready (from the
+  // service worker's cache) before the body that holds the mount point is
+  // parsed: the page waits for the document before it runs.
+  var parsed = new Promise(function (resolve) {
+    if (document.readyState !== "loading") { resolve(); return; }
+    document.addEventListener("DOMContentLoaded", function () { resolve(); }, { once: true });
+  });
+  Promise.all([window.lixivBoot.module, parsed])
+    .then(function (got) {
+      var module = got[0];
       window.lixivPool = pool(module, wanted());
       return WebAssembly.instantiate(module, go.importObject);
     })
