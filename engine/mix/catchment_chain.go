@@ -376,16 +376,7 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		mu[i] = s / L[i][i]
 		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
 	}
-	l := -0.5 * max(0, yy-fit)
-	pr := 1 / hd
-	for i := 0; i < K; i++ {
-		pr *= max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300)
-		if pr < 1e-200 {
-			l += plog(pr)
-			pr = 1
-		}
-	}
-	return l + plog(pr)
+	return -0.5*max(0, yy-fit) - plog(hd) + logOrthant(K, &L, &mu)
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
