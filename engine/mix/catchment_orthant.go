@@ -55,6 +55,9 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 				k, zk = i, z
 			}
 		}
+		if zk > farInside {
+			break // every component left is non-negative but for a chance below 1e-11
+		}
 		done[k] = true
 		lc, lam := logPhiMills(zk)
 		lp += lc
@@ -89,6 +92,10 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 	}
 	return lp
 }
+
+// farInside is the μ_i/σ_i beyond which a component counts as surely
+// non-negative (Φ(7) = 1 − 1.3e-12).
+const farInside = 7
 
 // logPhiMills returns log Φ(z) and the ratio λ = φ(z)/Φ(z) of the
 // standard normal density to its distribution function, computed from the
