@@ -302,3 +302,17 @@ func TestLogOrthant(t *testing.T) {
 		}
 	}
 }
+
+// TestLogPhiMills: the tail series of log Φ and φ/Φ meets the direct
+// computation where the orthant's chance switches to it (z = −8) and beyond,
+// while Φ is still representable.
+func TestLogPhiMills(t *testing.T) {
+	for _, z := range []float64{-8, -10, -20, -30} {
+		lp, lam := logPhiMills(z)
+		p := normCDF(z)
+		wantLam := math.Exp(-0.5*z*z) / math.Sqrt(2*math.Pi) / p
+		if math.Abs(lp-math.Log(p)) > 1e-6 || math.Abs(lam/wantLam-1) > 1e-6 {
+			t.Errorf("z %g: log Φ %.9g want %.9g, λ %.9g want %.9g", z, lp, math.Log(p), lam, wantLam)
+		}
+	}
+}

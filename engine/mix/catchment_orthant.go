@@ -42,7 +42,7 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 	}
 	m := *mu
 	var done [MaxEndMembers]bool
-	lp := 0.0
+	lp, pr := 0.0, 1.0
 	for range K {
 		// The most constraining component left.
 		k, zk := -1, 0.0
@@ -59,8 +59,17 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 			break // every component left is non-negative but for a chance below 1e-11
 		}
 		done[k] = true
-		lc, lam := logPhiMills(zk)
-		lp += lc
+		var lam float64
+		if zk > -8 {
+			// One log of the product at the end, where there were several.
+			p := normCDF(zk)
+			lam = 0.3989422804014327 * pexp(-0.5*float64(zk*zk)) / p
+			pr *= p
+		} else {
+			var lc float64
+			lc, lam = logPhiMills(zk)
+			lp += lc
+		}
 		// The truncated component: mean shifted by σ λ, variance scaled by
 		// v = 1 − z λ − λ².
 		sk := sqrt(S[k][k])
@@ -90,7 +99,7 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 			S[i][i] = max(S[i][i], 1e-300)
 		}
 	}
-	return lp
+	return lp + plog(pr)
 }
 
 // farInside is the μ_i/σ_i beyond which a component counts as surely
@@ -98,15 +107,10 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 const farInside = 7
 
 // logPhiMills returns log Φ(z) and the ratio λ = φ(z)/Φ(z) of the
-// standard normal density to its distribution function, computed from the
-// asymptotic series of Mills' ratio far in the lower tail (Abramowitz &
-// Stegun 1964, 26.2.12, from memory), where Φ underflows.
+// standard normal density to its distribution function far in the lower
+// tail (z <= −8), where Φ underflows, from the asymptotic series of Mills'
+// ratio (Abramowitz & Stegun 1964, 26.2.12, from memory).
 func logPhiMills(z float64) (logP, lam float64) {
-	if z > -8 {
-		p := normCDF(z)
-		phi := 0.3989422804014327 * pexp(-0.5*float64(z*z))
-		return plog(p), phi / p
-	}
 	x := -z
 	x2 := float64(x * x)
 	// R(x) = (1 − Φ(x))/φ(x) ≈ (1 − 1/x² + 3/x⁴ − 15/x⁶ + 105/x⁸)/x.
