@@ -18,8 +18,9 @@ import (
 //
 // Given the shared ratios and scatters, a sample's amounts are solved
 // exactly by the constrained least squares of the per-sample model, and
-// its likelihood is that fit's Gaussian marginal: the misfit at the
-// solution, the volume ½ log det ÃᵀÃ of the amounts, and the scatter
+// its likelihood is the Gaussian integral over the amounts: the misfit at
+// the optimum, the volume ½ log det ÃᵀÃ of the amounts, the chance that
+// they are all non-negative from their joint Gaussian, and the scatter
 // integrated out to first order as a variance added to each tracer row
 // (Σ_j (τ_j X_j n_j)², with the amounts of the fit without scatter). The
 // shared latents and scatter parameters are sampled by several Metropolis–Hastings
@@ -46,7 +47,8 @@ type CatchmentOptions struct {
 	// which the proposal is refitted (eight times, the last at its end), not
 	// kept; 0 means 800.
 	Warmup int
-	// Batch is the steps of each chain between two convergence checks; 0
+	// Batch is the fewest steps of each chain between two convergence
+	// checks, and their unit (later checks are further apart, nextCheck); 0
 	// means 100.
 	Batch int
 	// MaxSteps caps the kept steps of each chain; 0 means 20000.

@@ -246,10 +246,13 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // Na (carbonate) cannot trade its ratios against its amount. With D =
 // diag(c_j/T)², the integral over n >= 0 of the Gaussian likelihood times
 // that prior is taken in closed form but for the orthant, whose chance is
-// the product of the marginal chances (gaussOrthant): without it, the
-// marginal would favour end-members that sit inside the cloud of samples.
-// The scatter is added to each tracer row's variance at the exact
-// non-negative fit without it.
+// taken from the amounts' joint Gaussian (gaussOrthant, logOrthant):
+// without it, the marginal would favour end-members that sit inside the
+// cloud of samples, and with the product of the marginal chances in its
+// place it favoured, by tens of log units over a catchment, end-members
+// for which the amounts' optimum lies beyond a face (docs/methods.md
+// §7.12). The scatter is added to each tracer row's variance at the exact
+// non-negative fit without it (to first order).
 func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
@@ -389,9 +392,8 @@ func whitenWide(R, K int, st *setup, wide *[maxRows]float64, A, At *[maxRows][Ma
 // gaussOrthant returns the log of the integral over n >= 0 of
 // exp(−½ (yy − 2 bᵀn + nᵀHn)) (up to the constant (2π)^(k/2)): the Gaussian
 // integral at the unconstrained optimum μ = H⁻¹b, −½ (yy − bᵀμ) − ½ log det H,
-// times the chance that a draw of N(μ, H⁻¹) is non-negative, taken as the
-// product of the marginal chances Φ(μ_j/σ_j) (as the face estimates of the
-// per-sample model, slab.go). −Inf when H is singular.
+// times the chance that a draw of N(μ, H⁻¹) is non-negative (logOrthant).
+// −Inf when H is singular.
 func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	var L [MaxEndMembers][MaxEndMembers]float64
 	hd := 1.0
