@@ -648,7 +648,7 @@ func notConverged(cat *Catchment, target int) string {
 	case cat.Converged:
 		return ""
 	case cat.Modes > 1 && cat.MaxRHat > apartRHat:
-		return fmt.Sprintf("the %d chains disagree: the posterior of the shared end-member ratios has %d separate peaks and the chains, which seldom cross between them, give different answers (largest R-hat %.3f, want below %.2f, after %d steps each): the shared end-member ratios and every split that rests on them are doubtful; the data may fit more than one set of end-members (more samples, a further tracer or narrower priors can tell them apart)",
+		return fmt.Sprintf("the %d chains have not converged: they disagree, because the posterior of the shared end-member ratios has %d separate peaks and the chains, which seldom cross between them, give different answers (largest R-hat %.3f, want below %.2f, after %d steps each): the shared end-member ratios and every split that rests on them are doubtful; the data may fit more than one set of end-members (more samples, a further tracer or narrower priors can tell them apart)",
 			cat.Chains, cat.Modes, cat.MaxRHat, RHatLimit, cat.Steps)
 	}
 	return fmt.Sprintf("the %d chains have not converged within the cap of %d steps each (largest R-hat %.3f, want below %.2f; smallest effective sample size %.0f, want %d): the shared end-member ratios and every split that rests on them are doubtful",
