@@ -40,10 +40,9 @@ type runner struct {
 	quickDone  chan struct{} // closed when the quick pass of the run is done
 	holding    bool          // the render loop waits on quickDone
 	quickShown bool          // the quick pass's result has been painted
-}
 
-// markedSteps counts the steps marked for the timing harness (Mark).
-var markedSteps int
+	marked int // the steps marked for the timing harness (Mark)
+}
 
 // recompute cancels a run in progress and starts computing the stale
 // cells of doc. Call it with the event lock held.
@@ -57,7 +56,6 @@ func (c *runner) recompute(doc *notebook.Document) {
 	c.loopDone = done
 	c.busy = true
 	doc.Quick = true
-	doc.Farm = pageFarm() // the inversions' samples on the page's workers, if any
 	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
 	go c.run(ctx, doc, prev, done, c.quickDone)
 }
@@ -140,10 +138,10 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
-	// Waiting for the workers hands the thread back to the browser: the
-	// engine's slice starts again after each wait.
-	waited = func() { lastYield = nowMillis() }
-	defer func() { waited = nil }()
+	// The inversions' samples go to the page's workers, if any. Waiting
+	// for them hands the thread back to the browser: the engine's slice
+	// starts again after each wait.
+	doc.Farm = pageFarm(func() { lastYield = nowMillis() })
 	breathe := func() {
 		if d := nowMillis() - lastYield; d > slice {
 			if d > longest {
@@ -199,9 +197,9 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		t0 := nowMillis()
 		if Probing {
 			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
-			if markedSteps < 12 { // the first load's steps
+			if c.marked < 12 { // the first load's steps
 				Mark("step " + doc.Pending()[0])
-				markedSteps++
+				c.marked++
 			}
 		}
 		more, err := func() (more bool, err error) {
