@@ -142,8 +142,22 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	// for them hands the thread back to the browser: the engine's slice
 	// starts again after each wait.
 	doc.Farm = pageFarm(func() { lastYield = nowMillis() })
+	// The render loop holds the edit's first repaint for the quick pass
+	// at most HoldMillis; the first hand-back after that lets it paint,
+	// so the run hands back then rather than at the end of its slice.
+	c.env.Lock()
+	holdDue := 0.0
+	if c.editStart > 0 && !c.painted {
+		holdDue = c.editStart + HoldMillis
+	}
+	c.env.UnlockOnly()
+	due := func() bool {
+		now := nowMillis()
+		return now-lastYield > slice || (holdDue > 0 && now >= holdDue)
+	}
 	breathe := func() {
-		if d := nowMillis() - lastYield; d > slice {
+		if d := nowMillis() - lastYield; due() {
+			holdDue = 0
 			if d > longest {
 				longest, longestCell = d, c.running
 			}
@@ -170,7 +184,7 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		c.env.UnlockOnly()
 	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice {
+		if !due() {
 			return
 		}
 		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
