@@ -211,7 +211,7 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		t0 := nowMillis()
 		if Probing {
 			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
-			if c.marked < 12 { // the first load's steps
+			if c.marked < 24 { // the first load's steps, quick and refining
 				Mark("step " + doc.Pending()[0])
 				c.marked++
 			}
@@ -249,6 +249,10 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 			// For the timing harness: the longest stretch without a yield.
 			if Probing {
 				Probe("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+				if c.marked < 25 { // the end of the first load's run
+					Mark("all computed")
+					c.marked = 25
+				}
 			}
 			c.running, c.busy = "", false
 			c.gen++
