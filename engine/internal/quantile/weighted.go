@@ -141,23 +141,13 @@ func lowerCut(ps []Pair, target float64) cut {
 
 func byValue(a, b Pair) int { return cmp.Compare(a.V, b.V) }
 
-// byFiniteValue orders as byValue does, for values that are not NaN,
-// without byValue's tests for NaN.
-func byFiniteValue(a, b Pair) int {
-	switch {
-	case a.V < b.V:
-		return -1
-	case a.V > b.V:
-		return 1
-	}
-	return 0
-}
-
 // Buf computes mid-point quantiles, reusing its buffers across calls. The
 // zero value is ready to use.
 type Buf struct {
-	s []Pair
-	f []float64
+	s    []Pair
+	f    []float64
+	keys []uint64 // sortByRadix's working space
+	tmp  []Pair
 }
 
 // Midpoints returns the quantiles ps of the finite values of x with weights
@@ -244,7 +234,7 @@ func (b *Buf) weighted(x, w []float64, ps []float64) []float64 {
 		}
 		return out
 	}
-	slices.SortFunc(s, byFiniteValue)
+	b.sortByRadix(s)
 	for k, p := range ps {
 		target := p * total
 		cum := 0.0
