@@ -3,6 +3,8 @@ package quantile
 import (
 	"math"
 	"slices"
+
+	"lixiv/engine/internal/portable"
 )
 
 // radixFrom is the length from which sortPairsWith sorts by radix.
@@ -78,25 +80,7 @@ func quickPairs(ps []Pair, depth int) {
 		}
 		depth--
 		n := len(ps)
-		a, b, c := ps[0].V, ps[n/2].V, ps[n-1].V
-		p := max(min(a, b), min(max(a, b), c))
-		// [0, lt) < p, [lt, gt) == p, [gt, n) > p.
-		lt, i, gt := 0, 0, n
-		for i < gt {
-			switch x := ps[i]; {
-			case x.V < p:
-				ps[i] = ps[lt]
-				ps[lt] = x
-				lt++
-				i++
-			case x.V > p:
-				gt--
-				ps[i] = ps[gt]
-				ps[gt] = x
-			default:
-				i++
-			}
-		}
+		lt, gt, _, _ := partition3(ps, medianOf3(ps[0].V, ps[n/2].V, ps[n-1].V))
 		// Recurse into the shorter side, loop on the longer.
 		if lt < n-gt {
 			quickPairs(ps[:lt], depth)
@@ -142,4 +126,34 @@ func siftPairs(ps []Pair, root, end int) {
 		ps[root], ps[child] = ps[child], ps[root]
 		root = child
 	}
+}
+
+// medianOf3 is the median of three values, none NaN.
+func medianOf3(a, b, c float64) float64 {
+	return portable.Max(portable.Min(a, b), portable.Min(portable.Max(a, b), c))
+}
+
+// partition3 reorders ps around p: ps[:lt] < p, ps[lt:gt] == p and
+// ps[gt:] > p, and returns lt, gt and the weights below p and equal to it.
+func partition3(ps []Pair, p float64) (lt, gt int, wl, we float64) {
+	i := 0
+	gt = len(ps)
+	for i < gt {
+		switch x := ps[i]; {
+		case x.V < p:
+			ps[i] = ps[lt]
+			ps[lt] = x
+			wl += x.W
+			lt++
+			i++
+		case x.V > p:
+			gt--
+			ps[i] = ps[gt]
+			ps[gt] = x
+		default:
+			we += x.W
+			i++
+		}
+	}
+	return lt, gt, wl, we
 }

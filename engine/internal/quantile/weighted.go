@@ -6,7 +6,6 @@ import (
 	"slices"
 
 	"lixiv/engine/internal/order"
-	"lixiv/engine/internal/portable"
 )
 
 // Pair is a value with its weight.
@@ -70,28 +69,10 @@ func lowerCut(ps []Pair, target float64) cut {
 	lo, hi := 0, len(ps)
 	base := 0.0
 	for hi-lo > 12 {
-		a, b, c := ps[lo].V, ps[lo+(hi-lo)/2].V, ps[hi-1].V
-		p := portable.Max(portable.Min(a, b), portable.Min(portable.Max(a, b), c))
+		p := medianOf3(ps[lo].V, ps[lo+(hi-lo)/2].V, ps[hi-1].V)
 		// [lo, lt) < p, [lt, gt) == p, [gt, hi) > p.
-		lt, i, gt := lo, lo, hi
-		wl, we := 0.0, 0.0
-		for i < gt {
-			switch x := ps[i]; {
-			case x.V < p:
-				ps[i] = ps[lt]
-				ps[lt] = x
-				wl += x.W
-				lt++
-				i++
-			case x.V > p:
-				gt--
-				ps[i] = ps[gt]
-				ps[gt] = x
-			default:
-				we += x.W
-				i++
-			}
-		}
+		lt, gt, wl, we := partition3(ps[lo:hi], p)
+		lt, gt = lo+lt, lo+gt
 		switch {
 		case base+wl >= target:
 			hi = lt
