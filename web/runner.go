@@ -42,6 +42,12 @@ type runner struct {
 	quickShown bool          // the quick pass's result has been painted
 
 	marked int // the steps marked for the timing harness (Mark)
+
+	// renderedAt is when the last render ended (Rendered). The run's
+	// repaints are spaced from it as well as from when they were asked
+	// for, so that where a render takes long (a slow machine, a large
+	// page) the run does not repaint after every step.
+	renderedAt float64
 }
 
 // recompute cancels a run in progress and starts computing the stale
@@ -181,7 +187,7 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	// only, and the page repaints at most every progressEvery ms for it.
 	shown := ""
 	publish := func(final bool) { // call with the lock held
-		if final || nowMillis()-lastPaint > paintEvery {
+		if final || nowMillis()-max(lastPaint, c.renderedAt) > paintEvery {
 			lastPaint = nowMillis()
 			shown = c.running
 			c.env.UnlockRender()
