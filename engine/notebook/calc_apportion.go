@@ -565,7 +565,8 @@ func apportionInverse(ctx context.Context, iv inverter, report func(done, total 
 }
 
 // summariseDraws keeps each sample's draws, their weights and mean split
-// in a, and with summary its medians and 95 % bounds, cell by cell.
+// in a, and with summary its medians and 95 % bounds, cell by cell,
+// calling tick before each sample and each cell's quantiles.
 func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool, tick func()) error {
 	// Medians and bounds, cell by cell, from each sample's weighted draws.
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
@@ -604,6 +605,7 @@ func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool, ti
 		a.Mean[i] = meanSplit(draws, ws)
 		for src := mix.Source(0); src < mix.NSources && summary; src++ {
 			for k := 0; k < mix.NCations; k++ {
+				tick() // each quantile sorts every draw of the sample
 				vals = vals[:0]
 				for _, sp := range draws {
 					vals = append(vals, sp[src][k])
