@@ -185,7 +185,7 @@ func (b *Buf) weighted(x, w []float64, ps []float64) []float64 {
 		}
 		return out
 	}
-	slices.SortFunc(s, byValue)
+	sortPairs(s) // as slices.SortFunc(s, byValue), faster: the values are finite
 	for k, p := range ps {
 		target := p * total
 		cum := 0.0
