@@ -12,17 +12,22 @@ import (
 // workers is the page's Web Workers (boot.js's lixivPool) as the
 // document's notebook.Farm: the samples of each per-sample inversion are
 // worked there, so the page's own thread only draws while they compute.
-type workers struct{ pool js.Value }
+// waited is called after each wait for them: waiting hands the page's
+// thread back to the browser, which the page's runner counts as a yield.
+type workers struct {
+	pool   js.Value
+	waited func()
+}
 
-// pageFarm returns the page's workers, or nil when the page computes on
-// its own thread (workers=0, or a browser without Web Workers; boot.js
-// says so in the page).
-func pageFarm() notebook.Farm {
+// pageFarm returns the page's workers, calling waited after each wait for
+// them, or nil when the page computes on its own thread (workers=0, or a
+// browser without Web Workers; boot.js says so in the page).
+func pageFarm(waited func()) notebook.Farm {
 	p := js.Global().Get("lixivPool")
 	if p.IsUndefined() || p.IsNull() || p.Get("size").Int() < 1 {
 		return nil
 	}
-	return workers{pool: p}
+	return workers{pool: p, waited: waited}
 }
 
 // farmNote is one message from the pool: a sample's bytes, the progress,
@@ -33,11 +38,6 @@ type farmNote struct {
 	progress float64
 	err      string
 }
-
-// waited, while the page's runner computes, tells it that the page's
-// thread was handed back to the browser while waiting for the workers;
-// the runner and Work run on one goroutine.
-var waited func()
 
 // Work hands the job to the pool and waits, handing each sample to put.
 // Waiting on a channel hands the page's thread back to the browser.
@@ -83,8 +83,8 @@ func (w workers) Work(ctx context.Context, job notebook.FarmJob, samples []int, 
 			cancel.Invoke()
 			return ctx.Err()
 		case m := <-ch:
-			if waited != nil {
-				waited()
+			if w.waited != nil {
+				w.waited()
 			}
 			switch {
 			case m.err != "":

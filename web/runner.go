@@ -40,10 +40,9 @@ type runner struct {
 	quickDone  chan struct{} // closed when the quick pass of the run is done
 	holding    bool          // the render loop waits on quickDone
 	quickShown bool          // the quick pass's result has been painted
-}
 
-// markedSteps counts the steps marked for the timing harness (Mark).
-var markedSteps int
+	marked int // the steps marked for the timing harness (Mark)
+}
 
 // recompute cancels a run in progress and starts computing the stale
 // cells of doc. Call it with the event lock held.
@@ -57,7 +56,6 @@ func (c *runner) recompute(doc *notebook.Document) {
 	c.loopDone = done
 	c.busy = true
 	doc.Quick = true
-	doc.Farm = pageFarm() // the inversions' samples on the page's workers, if any
 	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
 	go c.run(ctx, doc, prev, done, c.quickDone)
 }
@@ -140,12 +138,26 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	const slice, paintEvery = 40, 250                // ms
 	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
-	// Waiting for the workers hands the thread back to the browser: the
-	// engine's slice starts again after each wait.
-	waited = func() { lastYield = nowMillis() }
-	defer func() { waited = nil }()
+	// The inversions' samples go to the page's workers, if any. Waiting
+	// for them hands the thread back to the browser: the engine's slice
+	// starts again after each wait.
+	doc.Farm = pageFarm(func() { lastYield = nowMillis() })
+	// The render loop holds the edit's first repaint for the quick pass
+	// at most HoldMillis; the first hand-back after that lets it paint,
+	// so the run hands back then rather than at the end of its slice.
+	c.env.Lock()
+	holdDue := 0.0
+	if c.editStart > 0 && !c.painted {
+		holdDue = c.editStart + HoldMillis
+	}
+	c.env.UnlockOnly()
+	due := func() bool {
+		now := nowMillis()
+		return now-lastYield > slice || (holdDue > 0 && now >= holdDue)
+	}
 	breathe := func() {
-		if d := nowMillis() - lastYield; d > slice {
+		if d := nowMillis() - lastYield; due() {
+			holdDue = 0
 			if d > longest {
 				longest, longestCell = d, c.running
 			}
@@ -172,7 +184,7 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		c.env.UnlockOnly()
 	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice {
+		if !due() {
 			return
 		}
 		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
@@ -199,9 +211,9 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		t0 := nowMillis()
 		if Probing {
 			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
-			if markedSteps < 12 { // the first load's steps
+			if c.marked < 24 { // the first load's steps, quick and refining
 				Mark("step " + doc.Pending()[0])
-				markedSteps++
+				c.marked++
 			}
 		}
 		more, err := func() (more bool, err error) {
@@ -237,6 +249,10 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 			// For the timing harness: the longest stretch without a yield.
 			if Probing {
 				Probe("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+				if c.marked < 25 { // the end of the first load's run
+					Mark("all computed")
+					c.marked = 25
+				}
 			}
 			c.running, c.busy = "", false
 			c.gen++

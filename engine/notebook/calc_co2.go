@@ -151,6 +151,13 @@ var co2Parts = []struct {
 // sulfateOrigins names the sulfate origins as figure names give them.
 var sulfateOrigins = map[string]string{"gypsum": "gypsum", "sulfide": "sulfide oxidation", "isotope": "the δ34S split"}
 
+// otherOriginWords join a CO2 figure's source and the other sulfate
+// origin it was computed with; shortOrigins are the origins' short names
+// for chart labels (FigureBars).
+const otherOriginWords = " with the sulfate from "
+
+var shortOrigins = map[string]string{"gypsum": "gypsum", "sulfide oxidation": "sulfide", "the δ34S split": "δ34S"}
+
 // otherOrigins returns the sulfate origins that bracket the chosen one
 // (docs/methods.md §5.2: all from gypsum and all from sulfide bracket the CO2
 // consumption).
@@ -490,7 +497,7 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 				warns = append(warns, fmt.Sprintf("%s CO2 with the sulfate from %s: %v", p.name, sulfateOrigins[o], err))
 				continue
 			}
-			fig := withInterval(fmt.Sprintf("%s CO2 consumption per km² with the sulfate from %s", p.name, sulfateOrigins[o]), "mol/km²/yr",
+			fig := withInterval(p.name+" CO2 consumption per km²"+otherOriginWords+sulfateOrigins[o], "mol/km²/yr",
 				f.r.Mean.MolPerKm2, f.u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
 			row(o, p.name, flux.Interval{Median: fig.Median, Lo: fig.Low, Hi: fig.High})
 			widen(p.name, fig.Median)
