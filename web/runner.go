@@ -134,9 +134,9 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		}
 		c.env.UnlockOnly()
 	}()
-	var stepped []string                             // for the timing harness: when each step began
-	const slice, paintEvery = 40, 250                // ms
-	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
+	var stepped []string                                   // for the timing harness: when each step began
+	const slice, paintEvery, progressEvery = 40, 250, 1000 // ms
+	lastYield, lastPaint := nowMillis(), nowMillis()       // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
 	// The inversions' samples go to the page's workers, if any. Waiting
 	// for them hands the thread back to the browser: the engine's slice
@@ -175,9 +175,15 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 			lastYield = nowMillis()
 		}
 	}
+	// shown is the running cell the last repaint from here showed, whose
+	// progress bar is therefore on the page. A repaint rebuilds the whole
+	// page, so between repaints the progress of that cell moves its bar
+	// only, and the page repaints at most every progressEvery ms for it.
+	shown := ""
 	publish := func(final bool) { // call with the lock held
 		if final || nowMillis()-lastPaint > paintEvery {
 			lastPaint = nowMillis()
+			shown = c.running
 			c.env.UnlockRender()
 			return
 		}
@@ -196,7 +202,13 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		if p.Total > 0 {
 			c.progress = float64(p.Done) / float64(p.Total)
 		}
-		publish(false)
+		if p.Cell == shown && nowMillis()-lastPaint <= progressEvery {
+			at := c.progress
+			c.env.UnlockOnly()
+			showProgress(p.Cell, at)
+		} else {
+			publish(false)
+		}
 		breathe()
 	}
 	for {
