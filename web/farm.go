@@ -41,7 +41,8 @@ type farmNote struct {
 
 // Work hands the job to the pool and waits, handing each sample to put.
 // Waiting on a channel hands the page's thread back to the browser.
-func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func(int, []byte) error, progress func(float64)) error {
+func (w workers) Work(ctx context.Context, job notebook.FarmJob, samples []int, put func(int, []byte) error, progress func(float64)) error {
+	n := len(samples)
 	if n == 0 {
 		return nil
 	}
@@ -71,7 +72,11 @@ func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func
 	defer onError.Release()
 	doc := js.Global().Get("Uint8Array").New(len(job.Doc))
 	js.CopyBytesToJS(doc, job.Doc)
-	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, n, onSample, onProgress, onError)
+	list := make([]any, n)
+	for i, s := range samples {
+		list[i] = s
+	}
+	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, list, onSample, onProgress, onError)
 	for got := 0; got < n; {
 		select {
 		case <-ctx.Done():
