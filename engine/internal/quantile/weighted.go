@@ -227,6 +227,10 @@ func (b *Buf) weighted(x, w []float64, ps []float64) []float64 {
 					out[k] = s[0].V
 				} else {
 					prevMid := cum - s[i-1].W/2
+					if mid <= prevMid { // weights too small to part the mid-points
+						out[k] = s[i].V
+						break
+					}
 					f := (target - prevMid) / (mid - prevMid)
 					out[k] = s[i-1].V + f*(s[i].V-s[i-1].V)
 				}

@@ -121,3 +121,24 @@ func TestLower95UnequalWeights(t *testing.T) {
 		}
 	}
 }
+
+// TestMidpointsTinyWeights: weights too small beside the others to part
+// their mid-points in floating point give a value between the draws, never
+// NaN (a 0/0 in the interpolation).
+func TestMidpointsTinyWeights(t *testing.T) {
+	x := []float64{0, 1, 2, 3, 4, 5}
+	w := []float64{1, 1e-300, 1e-300, 1e-300, 1e-300, 1}
+	for i := 0; i <= 1000; i++ {
+		p := float64(i) / 1000
+		got := (&Buf{}).Midpoints(x, w, p)[0]
+		if math.IsNaN(got) || got < 0 || got > 5 {
+			t.Fatalf("p=%g: %g", p, got)
+		}
+	}
+	// Beside a cumulative weight of 1e16 (spacing 2), weights of 1.5 move
+	// the cumulative sum but not their own mid-points: at the median the
+	// mid-points of the second and third draws are the same number.
+	if got := (&Buf{}).Midpoints([]float64{0, 1, 2, 3}, []float64{1e16, 1.5, 1.5, 1e16}, 0.5)[0]; got != 2 {
+		t.Errorf("mid-points that coincide: got %g, want 2", got)
+	}
+}
