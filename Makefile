@@ -8,7 +8,7 @@ ADDR    ?= 127.0.0.1:8080
 DIST    := web/dist
 ENGINE_PKGS = $$($(GO) list ./engine/... | grep -v /cmd/)
 
-.PHONY: all build serve test vet unit wasmtest fuzz browser browser-timing shots chromium bench deps-check validation clean
+.PHONY: all build serve test vet unit wasmtest fuzz browser browser-timing browser-profile shots chromium bench deps-check validation clean
 
 all: build
 
@@ -104,3 +104,11 @@ bench:
 
 clean:
 	rm -rf $(DIST)
+
+# browser-profile: a CPU profile of the page's own thread while the demo
+# loads and computes, its heaviest functions printed; the page is built with
+# its function names kept (heavier than the page users get).
+browser-profile: chromium
+	LIXIV_NAMES=1 LIXIV_TAGS=timing bash scripts/build.sh $(DIST)
+	LIXIV_PROFILE=/tmp/lixiv-page.cpuprofile $(GO) test -count=1 -tags browser -timeout 20m -run TestProfileDemo -v ./web/browsertest/ | grep -E 'profile:|ok|FAIL'
+	bash scripts/build.sh $(DIST)

@@ -20,8 +20,12 @@ gofmt -w web/*_gen.go
 
 rm -rf "$out.tmp"
 mkdir -p "$out.tmp"
-# LIXIV_TAGS=timing builds the page with the timing harness's probes (make browser-timing).
-GOOS=js GOARCH=wasm "$GO" build -trimpath -tags "${LIXIV_TAGS:-}" -ldflags="-s -w" -o "$out.tmp/main.wasm" ./wasm
+# LIXIV_TAGS=timing builds the page with the timing harness's probes (make browser-timing);
+# LIXIV_NAMES=1 keeps the module's function names, for a profile (make browser-profile;
+# the module is then over the weight limit, so such a page is for measuring only).
+ldflags="-s -w"
+if [ -n "${LIXIV_NAMES:-}" ]; then ldflags=""; fi
+GOOS=js GOARCH=wasm "$GO" build -trimpath -tags "${LIXIV_TAGS:-}" -ldflags="$ldflags" -o "$out.tmp/main.wasm" ./wasm
 
 cp "$("$GO" env GOROOT)/lib/wasm/wasm_exec.js" "$out.tmp/"
 vugu=$("$GO" list -m -f '{{.Dir}}' github.com/vugu/vugu)
@@ -41,7 +45,9 @@ fi
 
 version=$(cd "$out.tmp" && cat $(ls | sort) | sha256sum | cut -c1-16)
 sed -i "s/^const VERSION = \".*\";/const VERSION = \"$version\";/" "$out.tmp/sw.js"
-"$GO" run ./web/cmd/compress "$out.tmp"
+limit=2000000
+if [ -n "${LIXIV_NAMES:-}" ]; then limit=100000000; fi
+"$GO" run ./web/cmd/compress -limit "$limit" "$out.tmp"
 
 rm -rf "$out"
 mv "$out.tmp" "$out"

@@ -29,6 +29,18 @@ func yieldToBrowser() {
 	<-ch
 }
 
+// showProgress moves the progress bar of a running cell to v (0..1),
+// without a repaint of the page; nothing when the bar is not on the page.
+func showProgress(cell string, v float64) {
+	el := js.Global().Get("document").Call("getElementById", "cell-"+cell)
+	if el.IsNull() || el.IsUndefined() {
+		return
+	}
+	if bar := el.Call("querySelector", "progress"); !bar.IsNull() && !bar.IsUndefined() {
+		bar.Set("value", v)
+	}
+}
+
 // await waits for a JavaScript promise. Call it from a goroutine, never
 // from an event handler.
 func await(p js.Value) (js.Value, error) {

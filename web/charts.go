@@ -561,22 +561,11 @@ func sourceYieldChart(id string, o *notebook.Output) *plot.Chart {
 // figureBars draws the cell's headline figures in the given unit whose
 // names hold the given words, as bars with their 95 % intervals.
 func figureBars(id, title string, o *notebook.Output, unit, words string) *plot.Chart {
-	if o == nil {
-		return nil
-	}
 	var cats []string
 	var mid, lo, hi []float64
-	for _, f := range o.Figures {
-		if f.Unit != unit || !strings.Contains(f.Name, words) {
-			continue
-		}
-		cat := strings.Join(strings.Fields(strings.Replace(f.Name, words, "", 1)), " ")
-		// The CO2 cell's other sulfate origin: "silicate with the sulfate
-		// from sulfide oxidation" is labelled "silicate, SO4 from sulfide".
-		if src, origin, ok := strings.Cut(cat, " with the sulfate from "); ok {
-			cat = src + ", SO4 from " + strings.Fields(origin + " ?")[0]
-		}
-		cats = append(cats, cat)
+	for _, b := range notebook.FigureBars(o, unit, words) {
+		f := b.Figure
+		cats = append(cats, b.Label)
 		mid, lo, hi = append(mid, f.Median), append(lo, f.Low), append(hi, f.High)
 	}
 	if len(cats) == 0 {

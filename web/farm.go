@@ -12,17 +12,22 @@ import (
 // workers is the page's Web Workers (boot.js's lixivPool) as the
 // document's notebook.Farm: the samples of each per-sample inversion are
 // worked there, so the page's own thread only draws while they compute.
-type workers struct{ pool js.Value }
+// waited is called after each wait for them: waiting hands the page's
+// thread back to the browser, which the page's runner counts as a yield.
+type workers struct {
+	pool   js.Value
+	waited func()
+}
 
-// pageFarm returns the page's workers, or nil when the page computes on
-// its own thread (workers=0, or a browser without Web Workers; boot.js
-// says so in the page).
-func pageFarm() notebook.Farm {
+// pageFarm returns the page's workers, calling waited after each wait for
+// them, or nil when the page computes on its own thread (workers=0, or a
+// browser without Web Workers; boot.js says so in the page).
+func pageFarm(waited func()) notebook.Farm {
 	p := js.Global().Get("lixivPool")
 	if p.IsUndefined() || p.IsNull() || p.Get("size").Int() < 1 {
 		return nil
 	}
-	return workers{pool: p}
+	return workers{pool: p, waited: waited}
 }
 
 // farmNote is one message from the pool: a sample's bytes, the progress,
@@ -34,14 +39,10 @@ type farmNote struct {
 	err      string
 }
 
-// waited, while the page's runner computes, tells it that the page's
-// thread was handed back to the browser while waiting for the workers;
-// the runner and Work run on one goroutine.
-var waited func()
-
 // Work hands the job to the pool and waits, handing each sample to put.
 // Waiting on a channel hands the page's thread back to the browser.
-func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func(int, []byte) error, progress func(float64)) error {
+func (w workers) Work(ctx context.Context, job notebook.FarmJob, samples []int, put func(int, []byte) error, progress func(float64)) error {
+	n := len(samples)
 	if n == 0 {
 		return nil
 	}
@@ -71,15 +72,19 @@ func (w workers) Work(ctx context.Context, job notebook.FarmJob, n int, put func
 	defer onError.Release()
 	doc := js.Global().Get("Uint8Array").New(len(job.Doc))
 	js.CopyBytesToJS(doc, job.Doc)
-	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, n, onSample, onProgress, onError)
+	list := make([]any, n)
+	for i, s := range samples {
+		list[i] = s
+	}
+	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, list, onSample, onProgress, onError)
 	for got := 0; got < n; {
 		select {
 		case <-ctx.Done():
 			cancel.Invoke()
 			return ctx.Err()
 		case m := <-ch:
-			if waited != nil {
-				waited()
+			if w.waited != nil {
+				w.waited()
 			}
 			switch {
 			case m.err != "":

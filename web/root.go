@@ -278,6 +278,7 @@ func (c *Root) Rendered() {
 		c.docTitle = t
 		js.Global().Get("document").Set("title", t)
 	}
+	c.renderedAt = nowMillis()
 	ds := body.Get("dataset")
 	if Probing && c.buildStart > 0 { // for the timing harness: the cost of one full render
 		Probe("lixivLastRender", nowMillis()-c.buildStart)

@@ -40,10 +40,15 @@ type runner struct {
 	quickDone  chan struct{} // closed when the quick pass of the run is done
 	holding    bool          // the render loop waits on quickDone
 	quickShown bool          // the quick pass's result has been painted
-}
 
-// markedSteps counts the steps marked for the timing harness (Mark).
-var markedSteps int
+	marked int // the steps marked for the timing harness (Mark)
+
+	// renderedAt is when the last render ended (Rendered). The run's
+	// repaints are spaced from it as well as from when they were asked
+	// for, so that where a render takes long (a slow machine, a large
+	// page) the run does not repaint after every step.
+	renderedAt float64
+}
 
 // recompute cancels a run in progress and starts computing the stale
 // cells of doc. Call it with the event lock held.
@@ -57,7 +62,6 @@ func (c *runner) recompute(doc *notebook.Document) {
 	c.loopDone = done
 	c.busy = true
 	doc.Quick = true
-	doc.Farm = pageFarm() // the inversions' samples on the page's workers, if any
 	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
 	go c.run(ctx, doc, prev, done, c.quickDone)
 }
@@ -136,16 +140,30 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		}
 		c.env.UnlockOnly()
 	}()
-	var stepped []string                             // for the timing harness: when each step began
-	const slice, paintEvery = 40, 250                // ms
-	lastYield, lastPaint := nowMillis(), nowMillis() // the edit's handler has just painted
+	var stepped []string                                   // for the timing harness: when each step began
+	const slice, paintEvery, progressEvery = 40, 250, 1000 // ms
+	lastYield, lastPaint := nowMillis(), nowMillis()       // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
-	// Waiting for the workers hands the thread back to the browser: the
-	// engine's slice starts again after each wait.
-	waited = func() { lastYield = nowMillis() }
-	defer func() { waited = nil }()
+	// The inversions' samples go to the page's workers, if any. Waiting
+	// for them hands the thread back to the browser: the engine's slice
+	// starts again after each wait.
+	doc.Farm = pageFarm(func() { lastYield = nowMillis() })
+	// The render loop holds the edit's first repaint for the quick pass
+	// at most HoldMillis; the first hand-back after that lets it paint,
+	// so the run hands back then rather than at the end of its slice.
+	c.env.Lock()
+	holdDue := 0.0
+	if c.editStart > 0 && !c.painted {
+		holdDue = c.editStart + HoldMillis
+	}
+	c.env.UnlockOnly()
+	due := func() bool {
+		now := nowMillis()
+		return now-lastYield > slice || (holdDue > 0 && now >= holdDue)
+	}
 	breathe := func() {
-		if d := nowMillis() - lastYield; d > slice {
+		if d := nowMillis() - lastYield; due() {
+			holdDue = 0
 			if d > longest {
 				longest, longestCell = d, c.running
 			}
@@ -163,16 +181,22 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 			lastYield = nowMillis()
 		}
 	}
+	// shown is the running cell the last repaint from here showed, whose
+	// progress bar is therefore on the page. A repaint rebuilds the whole
+	// page, so between repaints the progress of that cell moves its bar
+	// only, and the page repaints at most every progressEvery ms for it.
+	shown := ""
 	publish := func(final bool) { // call with the lock held
-		if final || nowMillis()-lastPaint > paintEvery {
+		if final || nowMillis()-max(lastPaint, c.renderedAt) > paintEvery {
 			lastPaint = nowMillis()
+			shown = c.running
 			c.env.UnlockRender()
 			return
 		}
 		c.env.UnlockOnly()
 	}
 	progress := func(p notebook.Progress) {
-		if nowMillis()-lastYield <= slice {
+		if !due() {
 			return
 		}
 		if ctx.Err() != nil { // cancelled: keep the page live until the cell gives up
@@ -184,7 +208,13 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		if p.Total > 0 {
 			c.progress = float64(p.Done) / float64(p.Total)
 		}
-		publish(false)
+		if p.Cell == shown && nowMillis()-lastPaint <= progressEvery {
+			at := c.progress
+			c.env.UnlockOnly()
+			showProgress(p.Cell, at)
+		} else {
+			publish(false)
+		}
 		breathe()
 	}
 	for {
@@ -199,9 +229,9 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		t0 := nowMillis()
 		if Probing {
 			stepped = append(stepped, fmt.Sprintf("%s %.0f", doc.Pending()[0], t0-c.editStart))
-			if markedSteps < 12 { // the first load's steps
+			if c.marked < 24 { // the first load's steps, quick and refining
 				Mark("step " + doc.Pending()[0])
-				markedSteps++
+				c.marked++
 			}
 		}
 		more, err := func() (more bool, err error) {
@@ -237,6 +267,10 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 			// For the timing harness: the longest stretch without a yield.
 			if Probing {
 				Probe("lixivLongestSlice", fmt.Sprintf("%.0f ms in %s", longest, longestCell))
+				if c.marked < 25 { // the end of the first load's run
+					Mark("all computed")
+					c.marked = 25
+				}
 			}
 			c.running, c.busy = "", false
 			c.gen++

@@ -401,6 +401,7 @@ func (c *Cache) picks(a Apportioned, b BootstrapOptions, nrep int) ([][]int32, e
 	idx := make([]int, len(a.Days))
 	out := make([][]int32, nrep)
 	for r := range out {
+		b.tick()
 		if b.DrawNumbers != nil {
 			pk.given(b.DrawNumbers[r], idx)
 		} else {

@@ -52,6 +52,8 @@ type Run struct {
 
 	spare   []*sampleWork // finished samples' buffers, for the next ones begun
 	spareMu sync.Mutex
+
+	reused []bool // samples taken over from an earlier run (Reuse); nil for none
 }
 
 // NewRun checks the problem, draws the first-stage end-member ratios and
@@ -193,25 +195,26 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 			r.cancel()
 			return true
 		}
-		if r.work == nil {
+		if r.work == nil && !r.Reused(r.cur) {
 			r.work = r.begin(r.cur)
 		}
-		k := r.work.advance(r, n)
-		n -= k
-		r.report()
-		if r.work.finished {
-			s := r.work.s
-			r.finish(r.work)
-			r.release(r.work)
-			if r.keep(s) {
-				r.cancel()
-				return true
-			}
-			r.work = nil
-			r.cur++
-			r.finished.Add(1)
+		if w := r.work; w != nil {
+			n -= w.advance(r, n)
 			r.report()
+			if !w.finished {
+				continue
+			}
+			r.finish(w)
+			r.release(w)
 		}
+		if r.keep(r.cur) {
+			r.stopAt(r.cur)
+			return true
+		}
+		r.work = nil
+		r.cur++
+		r.finished.Add(1)
+		r.report()
 	}
 	r.res.Status = r.res.worst()
 	if r.Done() {
@@ -220,8 +223,24 @@ func (r *Run) Step(ctx context.Context, n int) (done bool) {
 	return r.Done()
 }
 
+// stopAt ends the run at sample s, whose draws passed Options.MaxKept:
+// s keeps its result, marked Canceled, and the samples after it are
+// cancelled.
+func (r *Run) stopAt(s int) {
+	if r.reused != nil {
+		r.reused[s] = false // it keeps its draws, as a sample worked does
+	}
+	r.cur = s
+	r.cancel()
+}
+
+// cancel marks the samples from r.cur on Canceled; those taken over
+// from an earlier run (Reuse) are left as a sample not begun is.
 func (r *Run) cancel() {
 	for s := r.cur; s < len(r.prob.Waters); s++ {
+		if r.Reused(s) {
+			r.unreuse(s)
+		}
 		r.res.Samples[s].Status = Canceled
 		r.res.Samples[s].Verdict = Canceled.String()
 	}
@@ -252,10 +271,17 @@ func (r *Run) Result() *Result { return r.res }
 // problem that cannot be run at all, or a run stopped at Options.MaxKept; how the inversion went is in
 // Result.Status and each sample's Status, Verdict and Warnings.
 func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
+	return InvertReusing(ctx, p, o, nil)
+}
+
+// InvertReusing is Invert that first takes over from prev, an earlier
+// run's result, the samples whose results would not change (Run.Reuse).
+func InvertReusing(ctx context.Context, p Problem, o *Options, prev *Result) (*Result, error) {
 	r, err := NewRun(p, o)
 	if err != nil {
 		return nil, err
 	}
+	r.Reuse(prev)
 	ns := len(p.Waters)
 	workers := r.opt.Workers
 	if workers <= 0 {
@@ -274,18 +300,23 @@ func Invert(ctx context.Context, p Problem, o *Options) (*Result, error) {
 				if s >= ns {
 					return
 				}
-				w := r.begin(s)
-				for !w.finished && ctx.Err() == nil && r.over.Load() == 0 {
-					w.advance(r, chunk)
+				if r.Reused(s) && (ctx.Err() != nil || r.over.Load() != 0) {
+					r.unreuse(s) // as a sample begun but not worked
 				}
-				if !w.finished {
-					r.res.Samples[s].Status = Canceled
-					r.res.Samples[s].Verdict = Canceled.String()
+				if !r.Reused(s) {
+					w := r.begin(s)
+					for !w.finished && ctx.Err() == nil && r.over.Load() == 0 {
+						w.advance(r, chunk)
+					}
+					if !w.finished {
+						r.res.Samples[s].Status = Canceled
+						r.res.Samples[s].Verdict = Canceled.String()
+						r.release(w)
+						continue
+					}
+					r.finish(w)
 					r.release(w)
-					continue
 				}
-				r.finish(w)
-				r.release(w)
 				if r.keep(s) {
 					r.res.Samples[s].Status = Canceled
 					r.res.Samples[s].Verdict = Canceled.String()

@@ -101,11 +101,9 @@ func (r *Run) Gather(ctx context.Context) {
 		if r.keep(s) {
 			// As Step leaves them: the samples after s not begun.
 			for t := s + 1; t < len(r.res.Samples); t++ {
-				st := &r.res.Samples[t]
-				*st = SampleResult{Name: st.Name, setup: st.setup, Warnings: append([]error(nil), st.setup.warnings...)}
+				r.res.Samples[t].notBegun()
 			}
-			r.cur = s
-			r.cancel()
+			r.stopAt(s)
 			return
 		}
 		r.finished.Add(1)

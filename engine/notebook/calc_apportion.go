@@ -72,8 +72,9 @@ type Apportioned struct {
 	kw     [][]float64
 	kwOnce sync.Once
 	// redo apportions the samples again with another sulfate origin
-	// (Under).
-	redo func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error)
+	// (Under); with reuse, the per-sample inverse model takes over the
+	// samples whose draws the origin does not change (mix.Run.Reuse).
+	redo func(ctx context.Context, sulfate string, reuse bool, report func(done, total int)) (*Apportioned, error)
 
 	// scales holds each draw's multipliers of the rain correction's
 	// inputs; nil when the correction is exact (no rain uncertainty).
@@ -202,12 +203,16 @@ func (a *Apportioned) Unusable() int {
 
 // Under returns the samples apportioned again with the sulfate above the
 // rain share from another origin ("gypsum" or "sulfide"), every other
-// setting unchanged, for the CO2 cell's sulfate bracket (docs/methods.md §5.2).
+// setting unchanged, for the CO2 cell's sulfate bracket (docs/methods.md
+// §5.2). The per-sample inverse model works again only the samples whose
+// data the origin changes (those with sulfate above their rain share) and
+// takes the others over from a, bit for bit what working them again gives
+// (every sample draws from its own streams; mix.Run.Reuse).
 func (a *Apportioned) Under(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
 	if a.redo == nil {
 		return nil, fmt.Errorf("this apportionment cannot be repeated with another sulfate origin")
 	}
-	return a.redo(ctx, sulfate, report)
+	return a.redo(ctx, sulfate, true, report)
 }
 
 // SulfateAboveRain reports whether any sample has sulfate above its rain
@@ -331,11 +336,14 @@ func computeApportionment(e *Env) (*Output, error) {
 	if err != nil {
 		return out, err // out, when not nil, says which samples it could not take
 	}
-	a.redo = func(ctx context.Context, sulfate string, report func(done, total int)) (*Apportioned, error) {
+	a.redo = func(ctx context.Context, sulfate string, reuse bool, report func(done, total int)) (*Apportioned, error) {
 		o := s
 		o.Sulfate = sulfate
 		ov := iv
 		ov.job.Sulfate = sulfate
+		if reuse {
+			ov.reuse = a.inverse
+		}
 		b, _, err := apportion(ctx, ov, report, &o, atm, ems, false, rough)
 		return b, err
 	}
@@ -557,7 +565,8 @@ func apportionInverse(ctx context.Context, iv inverter, report func(done, total 
 }
 
 // summariseDraws keeps each sample's draws, their weights and mean split
-// in a, and with summary its medians and 95 % bounds, cell by cell.
+// in a, and with summary its medians and 95 % bounds, cell by cell,
+// calling tick before each sample and each cell's quantiles.
 func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool, tick func()) error {
 	// Medians and bounds, cell by cell, from each sample's weighted draws.
 	a.Median, a.Lo, a.Hi, a.Mean = make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n), make([]mix.Split, n)
@@ -596,6 +605,7 @@ func summariseDraws(ctx context.Context, a *Apportioned, n int, summary bool, ti
 		a.Mean[i] = meanSplit(draws, ws)
 		for src := mix.Source(0); src < mix.NSources && summary; src++ {
 			for k := 0; k < mix.NCations; k++ {
+				tick() // each quantile sorts every draw of the sample
 				vals = vals[:0]
 				for _, sp := range draws {
 					vals = append(vals, sp[src][k])
@@ -678,7 +688,11 @@ func invert(ctx context.Context, iv inverter, report func(done, total int), p mi
 		if co != nil {
 			run, err = mix.NewCatchmentRun(p, mo, co)
 		} else {
-			run, err = mix.NewRun(p, mo)
+			var r *mix.Run
+			if r, err = mix.NewRun(p, mo); err == nil {
+				r.Reuse(iv.reuse)
+				run = r
+			}
 		}
 		if err != nil {
 			return nil, err
@@ -698,7 +712,7 @@ func invert(ctx context.Context, iv inverter, report func(done, total int), p mi
 	if co != nil {
 		res, err = mix.InvertCatchment(ctx, p, mo, co)
 	} else {
-		res, err = mix.Invert(ctx, p, mo)
+		res, err = mix.InvertReusing(ctx, p, mo, iv.reuse)
 	}
 	if err != nil {
 		return nil, keptErr(err)

@@ -151,6 +151,13 @@ var co2Parts = []struct {
 // sulfateOrigins names the sulfate origins as figure names give them.
 var sulfateOrigins = map[string]string{"gypsum": "gypsum", "sulfide": "sulfide oxidation", "isotope": "the δ34S split"}
 
+// otherOriginWords join a CO2 figure's source and the other sulfate
+// origin it was computed with; shortOrigins are the origins' short names
+// for chart labels (FigureBars).
+const otherOriginWords = " with the sulfate from "
+
+var shortOrigins = map[string]string{"gypsum": "gypsum", "sulfide oxidation": "sulfide", "the δ34S split": "δ34S"}
+
 // otherOrigins returns the sulfate origins that bracket the chosen one
 // (docs/methods.md §5.2: all from gypsum and all from sulfide bracket the CO2
 // consumption).
@@ -338,8 +345,10 @@ func co2PerLitre(e *Env, a *Apportioned, opt *co2.Options, scale string, long bo
 				va = append(va, otherLongSil(sp, so4, opt, scale))
 			}
 		}
+		e.Report(i, total) // again: over many draws a sample takes a while
 		q := qb.Midpoints(vs, ws, 0.025, 0.5, 0.975)
 		pl.silLo, pl.silMed, pl.silHi = append(pl.silLo, q[0]), append(pl.silMed, q[1]), append(pl.silHi, q[2])
+		e.Report(i, total)
 		q = qb.Midpoints(vc, ws, 0.025, 0.5, 0.975)
 		pl.carbLo, pl.carbMed, pl.carbHi = append(pl.carbLo, q[0]), append(pl.carbMed, q[1]), append(pl.carbHi, q[2])
 		if long {
@@ -389,11 +398,14 @@ func (t *co2Years) table(title string) *ResultTable {
 }
 
 // co2Pairs works out the silicate and carbonate CO2 figures of every kept
-// draw of every sample of a (NaN where co2Pair fails).
-func co2Pairs(a *Apportioned, opt *co2.Options, scale string) [][][2]float64 {
+// draw of every sample of a (NaN where co2Pair fails), calling tick
+// before each sample so that a page running on one goroutine can hand
+// its thread back.
+func co2Pairs(a *Apportioned, opt *co2.Options, scale string, tick func()) [][][2]float64 {
 	out := make([][][2]float64, len(a.Names))
 	var buf mix.Split
 	for i := range out {
+		tick()
 		out[i] = make([][2]float64, a.Kept(i))
 		for k := range out[i] {
 			d, sp, _ := a.keptSplit(i, k, &buf)
@@ -461,22 +473,23 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 		row(a.Sulfate+" (chosen)", p.name, in)
 		widen(p.name, in.Median)
 	}
+	// The cell's progress stays where it is; reporting it again lets the
+	// page hand its thread back during the rerun.
+	tick := func() {
+		if fv.Bootstrap.Tick != nil {
+			fv.Bootstrap.Tick()
+		}
+	}
 	for _, o := range otherOrigins(a.Sulfate) {
 		fo := *fv
 		if a.SulfateAboveRain() {
-			// The cell's progress stays where it is; reporting it again
-			// lets the page hand its thread back during the rerun.
-			b, err := a.Under(e.Ctx, o, func(int, int) {
-				if fv.Bootstrap.Tick != nil {
-					fv.Bootstrap.Tick()
-				}
-			})
+			b, err := a.Under(e.Ctx, o, func(int, int) { tick() })
 			if err != nil {
 				return nil, nil, nil, fmt.Errorf("sulfate from %s: %v", sulfateOrigins[o], err)
 			}
 			fo.App = b
 		}
-		pairs := co2Pairs(fo.App, opt, scale)
+		pairs := co2Pairs(fo.App, opt, scale, tick)
 		for _, p := range co2Parts {
 			q := fo.quantity(p.name+" CO2", 0, true, []int{0, 1, 2, 3}, co2Amounts(fo.App, opt, scale, p.carb, pairs))
 			f, _, err := fo.fitQuantity(q, fv.sideBySideReplicates(), fv.Options)
@@ -484,7 +497,7 @@ func sulfateBracket(e *Env, fv *Fluxes, headline map[string]fitted, opt *co2.Opt
 				warns = append(warns, fmt.Sprintf("%s CO2 with the sulfate from %s: %v", p.name, sulfateOrigins[o], err))
 				continue
 			}
-			fig := withInterval(fmt.Sprintf("%s CO2 consumption per km² with the sulfate from %s", p.name, sulfateOrigins[o]), "mol/km²/yr",
+			fig := withInterval(p.name+" CO2 consumption per km²"+otherOriginWords+sulfateOrigins[o], "mol/km²/yr",
 				f.r.Mean.MolPerKm2, f.u, func(l *flux.LoadInterval) flux.Interval { return l.MolPerKm2 })
 			row(o, p.name, flux.Interval{Median: fig.Median, Lo: fig.Low, Hi: fig.High})
 			widen(p.name, fig.Median)

@@ -131,3 +131,42 @@ func textOf(c *Column) []string {
 	}
 	return c.Text
 }
+
+// FigureBar is one bar of a chart of a cell's headline figures: the
+// figure and the short label its bar carries.
+type FigureBar struct {
+	Label  string
+	Figure Figure
+}
+
+// FigureBars returns the headline figures of o in unit whose names hold
+// words, each labelled by the rest of its name ("silicate" for "silicate
+// CO2 consumption per km²"). A CO2 figure computed with another origin of
+// the sulfate above the rain share is labelled with the origin's short
+// name: "silicate, SO4 from sulfide".
+func FigureBars(o *Output, unit, words string) []FigureBar {
+	if o == nil {
+		return nil
+	}
+	var bars []FigureBar
+	for _, f := range o.Figures {
+		if f.Unit != unit || !strings.Contains(f.Name, words) {
+			continue
+		}
+		name := f.Name
+		origin := ""
+		if src, other, ok := strings.Cut(name, otherOriginWords); ok {
+			name, origin = src, other
+		}
+		label := strings.Join(strings.Fields(strings.Replace(name, words, "", 1)), " ")
+		if origin != "" {
+			short, ok := shortOrigins[origin]
+			if !ok {
+				short = origin
+			}
+			label += ", SO4 from " + short
+		}
+		bars = append(bars, FigureBar{Label: label, Figure: f})
+	}
+	return bars
+}

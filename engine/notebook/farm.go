@@ -22,12 +22,13 @@ import (
 // samples), the forward model and the bootstraps of fluxes and CO2 (whose
 // replicates take their draws from one stream in turn) stay in-process.
 type Farm interface {
-	// Work works samples 0 to n−1 of job, each through WorkSamples in a
-	// copy of the engine, and hands each sample's bytes to put (never
-	// concurrently), calling progress with the fraction done. It returns
-	// put's first error, the context's error when cancelled, or an error
-	// that names the copy of the engine that failed.
-	Work(ctx context.Context, job FarmJob, n int, put func(s int, b []byte) error, progress func(done float64)) error
+	// Work works the given samples of job (their numbers, in order),
+	// each through FarmWork.Sample in a copy of the engine, and hands
+	// each sample's bytes to put (never concurrently), calling progress
+	// with the fraction done. It returns put's first error, the context's
+	// error when cancelled, or an error that names the copy of the engine
+	// that failed.
+	Work(ctx context.Context, job FarmJob, samples []int, put func(s int, b []byte) error, progress func(done float64)) error
 }
 
 // FarmJob says which inversion a copy of the engine is to work: the
@@ -50,6 +51,11 @@ type inverter struct {
 	doc     *Document    // marshalled into job.Doc when the farm first needs it
 	capture *mix.Options // WorkSamples: set to the options instead of running
 	problem *mix.Problem
+	// reuse is an earlier run of the per-sample model whose samples are
+	// taken over where they would not change (mix.Run.Reuse): the
+	// apportionment's own run, when the CO2 cell runs it again with
+	// another sulfate origin.
+	reuse *mix.Result
 }
 
 // inverter returns how this cell runs the inverse model.
@@ -70,7 +76,8 @@ func (iv *inverter) farmed(ctx context.Context, report func(done, total int), p 
 	if job.Doc == nil {
 		job.Doc = budgetOnly(iv.doc)
 	}
-	err = iv.farm.Work(ctx, job, g.Samples(), g.PutSample, func(f float64) { report(int(f*1000), 1000) })
+	todo := g.Reuse(iv.reuse)
+	err = iv.farm.Work(ctx, job, todo, g.PutSample, func(f float64) { report(int(f*1000), 1000) })
 	if ctx.Err() != nil {
 		return nil, ctx.Err()
 	}

@@ -22,7 +22,7 @@ type copies struct {
 	jobs atomic.Int64
 }
 
-func (f *copies) Work(ctx context.Context, job FarmJob, n int, put func(int, []byte) error, progress func(float64)) error {
+func (f *copies) Work(ctx context.Context, job FarmJob, samples []int, put func(int, []byte) error, progress func(float64)) error {
 	f.jobs.Add(1)
 	var next atomic.Int64
 	var mu sync.Mutex
@@ -34,10 +34,11 @@ func (f *copies) Work(ctx context.Context, job FarmJob, n int, put func(int, []b
 			defer wg.Done()
 			var w *FarmWork
 			for {
-				s := int(next.Add(1)) - 1
-				if s >= n {
+				i := int(next.Add(1)) - 1
+				if i >= len(samples) {
 					return
 				}
+				s := samples[i]
 				if s == f.fail {
 					errs[c] = fmt.Errorf("engine copy %d stopped", c+1)
 					return
@@ -53,7 +54,7 @@ func (f *copies) Work(ctx context.Context, job FarmJob, n int, put func(int, []b
 				if err == nil {
 					mu.Lock()
 					err = put(s, b)
-					progress(float64(s+1) / float64(n))
+					progress(float64(i+1) / float64(len(samples)))
 					mu.Unlock()
 				}
 				if err != nil {

@@ -516,6 +516,13 @@ func TestLongRunStaysResponsive(t *testing.T) {
 		chromedp.WithPollingTimeout(patience), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
 		t.Fatalf("no progress bar while computing: %v", err)
 	}
+	// The bar moves as the run goes on (the quick pass's, then the full
+	// pass's from its start).
+	first := eval[float64](t, ctx, `document.querySelector("section.state-running progress").value`)
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](fmt.Sprintf(`(() => { const p = document.querySelector("section.state-running progress"); return !!p && p.value != %g })()`, first),
+		chromedp.WithPollingTimeout(patience), chromedp.WithPollingInterval(20*time.Millisecond))); err != nil {
+		t.Fatalf("the progress bar stayed at %g: %v", first, err)
+	}
 	// A click on the note's fold button is handled while the run goes on.
 	note := cellOf(t, ctx, "note")
 	eval[bool](t, ctx, fmt.Sprintf(`document.querySelector("#cell-%s .fold").click() || true`, note))

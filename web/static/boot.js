@@ -85,7 +85,7 @@
     }
     function feed(slot) {
       if (!job || slot.busy !== null || job.next >= job.n) { return; }
-      var s = job.next++, m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
+      var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
       if (slot.job !== job.id) { m.doc = job.doc; slot.job = job.id; }
       slot.busy = job.id;
       slot.worker.postMessage(m);
@@ -110,12 +110,13 @@
     }
     for (var i = 0; i < size; i++) { spawn(i); }
     p.size = size;
-    // run starts a job (ending the one before) and returns its cancel.
-    p.run = function (doc, cell, sulfate, rough, n, onSample, onProgress, onError) {
+    // run starts a job (ending the one before) for the samples listed
+    // (their numbers) and returns its cancel.
+    p.run = function (doc, cell, sulfate, rough, samples, onSample, onProgress, onError) {
       if (job) { stop(); }
       var id = ++seq;
       p.jobs++;
-      job = { id: id, doc: doc, cell: cell, sulfate: sulfate, rough: rough, n: n, next: 0, got: 0, frac: {},
+      job = { id: id, doc: doc, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {},
         onSample: onSample, onProgress: onProgress, onError: onError };
       slots.forEach(feed);
       return function () { if (job && job.id === id) { stop(); } };

@@ -6,7 +6,6 @@ import (
 	"slices"
 
 	"lixiv/engine/internal/order"
-	"lixiv/engine/internal/portable"
 )
 
 // Pair is a value with its weight.
@@ -35,44 +34,50 @@ func Lower95(v, w []float64, buf *[]Pair) Interval {
 	if k == 0 {
 		return NaN()
 	}
-	return Interval{lowerSelect(ps, 0.025*tot), lowerSelect(ps, 0.5*tot), lowerSelect(ps, 0.975*tot)}
+	// The median first: the 2.5 % quantile then lies among the values
+	// below it and the 97.5 % one among those above, so each tail is
+	// selected within its own part.
+	m := lowerCut(ps, 0.5*tot)
+	lo, hi := m.v, m.v
+	if t := 0.025 * tot; m.below >= t {
+		lo = lowerCut(ps[:m.lt], t).v
+	}
+	if t := 0.975 * tot; m.upto < t && m.gt < len(ps) {
+		hi = lowerCut(ps[m.gt:], t-m.upto).v
+	}
+	return Interval{lo, m.v, hi}
+}
+
+// cut is where lowerCut found its value v: ps[:lt] holds the values below
+// v, of weight below; ps[gt:] those above; upto is the weight of the
+// values up to and including v.
+type cut struct {
+	v           float64
+	lt, gt      int
+	below, upto float64
 }
 
 // lowerSelect returns the smallest value of ps whose cumulative weight, in
 // increasing order of the values, reaches target (the largest value when
-// rounding leaves the total short of it). It reorders ps: a weighted
-// quickselect with a three-way partition around the median of three.
-func lowerSelect(ps []Pair, target float64) float64 {
+// rounding leaves the total short of it). It reorders ps.
+func lowerSelect(ps []Pair, target float64) float64 { return lowerCut(ps, target).v }
+
+// lowerCut is lowerSelect, telling also where the value lies in the
+// reordered ps: a weighted quickselect with a three-way partition around
+// the median of three.
+func lowerCut(ps []Pair, target float64) cut {
 	lo, hi := 0, len(ps)
 	base := 0.0
 	for hi-lo > 12 {
-		a, b, c := ps[lo].V, ps[lo+(hi-lo)/2].V, ps[hi-1].V
-		p := portable.Max(portable.Min(a, b), portable.Min(portable.Max(a, b), c))
+		p := medianOf3(ps[lo].V, ps[lo+(hi-lo)/2].V, ps[hi-1].V)
 		// [lo, lt) < p, [lt, gt) == p, [gt, hi) > p.
-		lt, i, gt := lo, lo, hi
-		wl, we := 0.0, 0.0
-		for i < gt {
-			switch x := ps[i]; {
-			case x.V < p:
-				ps[i] = ps[lt]
-				ps[lt] = x
-				wl += x.W
-				lt++
-				i++
-			case x.V > p:
-				gt--
-				ps[i] = ps[gt]
-				ps[gt] = x
-			default:
-				we += x.W
-				i++
-			}
-		}
+		lt, gt, wl, we := partition3(ps[lo:hi], p)
+		lt, gt = lo+lt, lo+gt
 		switch {
 		case base+wl >= target:
 			hi = lt
 		case base+wl+we >= target:
-			return p
+			return cut{v: p, lt: lt, gt: gt, below: base + wl, upto: base + wl + we}
 		default:
 			base += wl + we
 			lo = gt
@@ -80,16 +85,39 @@ func lowerSelect(ps []Pair, target float64) float64 {
 	}
 	part := ps[lo:hi]
 	slices.SortFunc(part, byValue)
-	for _, x := range part {
-		base += x.W
-		if base >= target {
-			return x.V
+	if len(part) == 0 { // a target not above the weight below lo (zero, or rounding)
+		if hi == 0 { // nothing is below ps[0]: the smallest value
+			return cut{v: ps[0].V, lt: 0, gt: 1, below: 0, upto: ps[0].W}
+		}
+		return cut{v: ps[hi-1].V, lt: hi - 1, gt: hi, below: base, upto: base}
+	}
+	j, cum := len(part)-1, base
+	for k, x := range part {
+		cum += x.W
+		if cum >= target {
+			j = k
+			break
 		}
 	}
-	if len(part) > 0 {
-		return part[len(part)-1].V
+	// The run of values equal to part[j] around it, and the weights below
+	// it and up to its end.
+	v := part[j].V
+	a, b := j, j+1
+	for a > 0 && part[a-1].V == v {
+		a--
 	}
-	return ps[hi-1].V
+	for b < len(part) && part[b].V == v {
+		b++
+	}
+	below := base
+	for _, x := range part[:a] {
+		below += x.W
+	}
+	upto := below
+	for _, x := range part[a:b] {
+		upto += x.W
+	}
+	return cut{v: v, lt: lo + a, gt: lo + b, below: below, upto: upto}
 }
 
 func byValue(a, b Pair) int { return cmp.Compare(a.V, b.V) }
@@ -97,8 +125,10 @@ func byValue(a, b Pair) int { return cmp.Compare(a.V, b.V) }
 // Buf computes mid-point quantiles, reusing its buffers across calls. The
 // zero value is ready to use.
 type Buf struct {
-	s []Pair
-	f []float64
+	s    []Pair
+	f    []float64
+	keys []uint64 // sortByRadix's working space
+	tmp  []Pair
 }
 
 // Midpoints returns the quantiles ps of the finite values of x with weights
@@ -185,7 +215,7 @@ func (b *Buf) weighted(x, w []float64, ps []float64) []float64 {
 		}
 		return out
 	}
-	slices.SortFunc(s, byValue)
+	b.sortByRadix(s)
 	for k, p := range ps {
 		target := p * total
 		cum := 0.0
@@ -197,6 +227,10 @@ func (b *Buf) weighted(x, w []float64, ps []float64) []float64 {
 					out[k] = s[0].V
 				} else {
 					prevMid := cum - s[i-1].W/2
+					if mid <= prevMid { // weights too small to part the mid-points
+						out[k] = s[i].V
+						break
+					}
 					f := (target - prevMid) / (mid - prevMid)
 					out[k] = s[i-1].V + f*(s[i].V-s[i-1].V)
 				}

@@ -68,3 +68,77 @@ func TestMidpoints(t *testing.T) {
 		}
 	}
 }
+
+// TestLower95UnequalWeights checks Lower95 against its definition worked
+// by sorting: for each p, the smallest value whose cumulative weight, in
+// increasing order, reaches p of the total; with ties, zero weights and
+// every size around the selection's cut-over to sorting.
+func TestLower95UnequalWeights(t *testing.T) {
+	r := rand.New(rand.NewPCG(11, 12))
+	var buf []Pair
+	for _, n := range []int{1, 2, 3, 12, 13, 14, 25, 100, 1001, 4000} {
+		for _, ties := range []bool{false, true} {
+			v, w := make([]float64, n), make([]float64, n)
+			for i := range v {
+				v[i], w[i] = r.NormFloat64(), r.Float64()
+				if ties {
+					v[i] = math.Max(0, math.Round(v[i]*3)) // many at zero, as clamped amounts are
+				}
+				if i%7 == 3 {
+					w[i] = 0
+				}
+			}
+			ps := make([]Pair, 0, n)
+			tot := 0.0
+			for i := range v {
+				if w[i] > 0 {
+					ps = append(ps, Pair{v[i], w[i]})
+					tot += w[i]
+				}
+			}
+			slices.SortStableFunc(ps, byValue)
+			ref := func(p float64) float64 {
+				cum := 0.0
+				for _, x := range ps {
+					cum += x.W
+					if cum >= p*tot*(1-1e-12) {
+						return x.V
+					}
+				}
+				return ps[len(ps)-1].V
+			}
+			vc, wc := slices.Clone(v), slices.Clone(w)
+			got := Lower95(v, w, &buf)
+			if !slices.Equal(v, vc) || !slices.Equal(w, wc) {
+				t.Fatalf("n=%d: Lower95 changed its input", n)
+			}
+			if len(ps) == 0 {
+				continue
+			}
+			if want := (Interval{ref(0.025), ref(0.5), ref(0.975)}); got != want {
+				t.Errorf("n=%d ties=%v: got %v, want %v", n, ties, got, want)
+			}
+		}
+	}
+}
+
+// TestMidpointsTinyWeights: weights too small beside the others to part
+// their mid-points in floating point give a value between the draws, never
+// NaN (a 0/0 in the interpolation).
+func TestMidpointsTinyWeights(t *testing.T) {
+	x := []float64{0, 1, 2, 3, 4, 5}
+	w := []float64{1, 1e-300, 1e-300, 1e-300, 1e-300, 1}
+	for i := 0; i <= 1000; i++ {
+		p := float64(i) / 1000
+		got := (&Buf{}).Midpoints(x, w, p)[0]
+		if math.IsNaN(got) || got < 0 || got > 5 {
+			t.Fatalf("p=%g: %g", p, got)
+		}
+	}
+	// Beside a cumulative weight of 1e16 (spacing 2), weights of 1.5 move
+	// the cumulative sum but not their own mid-points: at the median the
+	// mid-points of the second and third draws are the same number.
+	if got := (&Buf{}).Midpoints([]float64{0, 1, 2, 3}, []float64{1e16, 1.5, 1.5, 1e16}, 0.5)[0]; got != 2 {
+		t.Errorf("mid-points that coincide: got %g, want 2", got)
+	}
+}
