@@ -18,8 +18,9 @@ import (
 //
 // Given the shared ratios and scatters, a sample's amounts are solved
 // exactly by the constrained least squares of the per-sample model, and
-// its likelihood is that fit's Gaussian marginal: the misfit at the
-// solution, the volume ½ log det ÃᵀÃ of the amounts, and the scatter
+// its likelihood is the Gaussian integral over the amounts: the misfit at
+// the optimum, the volume ½ log det ÃᵀÃ of the amounts, the chance that
+// they are all non-negative from their joint Gaussian, and the scatter
 // integrated out to first order as a variance added to each tracer row
 // (Σ_j (τ_j X_j n_j)², with the amounts of the fit without scatter). The
 // shared latents and scatter parameters are sampled by several Metropolis–Hastings
@@ -46,7 +47,8 @@ type CatchmentOptions struct {
 	// which the proposal is refitted (eight times, the last at its end), not
 	// kept; 0 means 800.
 	Warmup int
-	// Batch is the steps of each chain between two convergence checks; 0
+	// Batch is the fewest steps of each chain between two convergence
+	// checks, and their unit (later checks are further apart, nextCheck); 0
 	// means 100.
 	Batch int
 	// MaxSteps caps the kept steps of each chain; 0 means 20000.
@@ -411,13 +413,34 @@ func (c *CatchmentRun) sync() {
 // convergence and either sets a new goal or ends the chains.
 func (c *CatchmentRun) checkpoint() {
 	steps := c.chains[0].t - c.co.Warmup
-	if c.diagnose() || steps >= c.co.MaxSteps {
+	ok, ess := c.diagnose()
+	if ok || steps >= c.co.MaxSteps {
 		c.endChains()
 		return
 	}
+	goal := c.nextCheck(steps, ess)
 	for _, ch := range c.chains {
-		ch.goal = min(c.co.MaxSteps, steps+c.co.Batch)
+		ch.goal = goal
 	}
+}
+
+// nextCheck returns the kept steps at which the chains are checked next,
+// after a check at steps that found them not converged, the smallest ESS
+// then being ess (0 when R-hat failed): a batch later, or, when the ESS
+// says many more steps are needed, half way to the steps it asks for, or a
+// tenth more steps, whichever is furthest, in whole batches, so that the
+// checks (whose autocorrelations cost as much as many steps) are a few,
+// and the chains stop within a few batches or a twentieth of their
+// length of where they first could.
+func (c *CatchmentRun) nextCheck(steps int, ess float64) int {
+	b := c.co.Batch
+	next := max(steps+b, steps+steps/20)
+	if ess > 0 {
+		need := float64(steps) * float64(c.co.TargetESS) / ess
+		next = max(next, steps+int((need-float64(steps))/2))
+	}
+	next = (next + b - 1) / b * b
+	return min(c.co.MaxSteps, next)
 }
 
 func (c *CatchmentRun) cancel() {
@@ -606,8 +629,28 @@ func (c *CatchmentRun) summariseShared() {
 		cat.MinESS = float64(c.co.Keep)
 	}
 	cat.Converged = cat.MaxRHat < RHatLimit && cat.MinESS >= float64(c.co.TargetESS)
-	if !cat.Converged {
-		cat.Message = fmt.Sprintf("the %d chains have not converged within the cap of %d steps each (largest R-hat %.3f, want below %.2f; smallest effective sample size %.0f, want %d): the shared end-member ratios and every split that rests on them are doubtful",
-			c.co.Chains, cat.Steps, cat.MaxRHat, RHatLimit, cat.MinESS, c.co.TargetESS)
+	cat.Message = notConverged(cat, c.co.TargetESS)
+}
+
+// apartRHat is the split R-hat above which chains that found more than one
+// peak are said to sit in different peaks rather than to mix slowly (an
+// engineering choice, no source: chains that share a peak but mix slowly
+// reach 1.02-1.1 at the cap in the simulation study, docs/methods.md
+// §7.12).
+const apartRHat = 1.2
+
+// notConverged returns the plain message of chains that have not
+// converged ("" when they have): that they sit in separate peaks, when the
+// mode searches found more than one and R-hat is far above its limit, or
+// that they have not converged within the cap.
+func notConverged(cat *Catchment, target int) string {
+	switch {
+	case cat.Converged:
+		return ""
+	case cat.Modes > 1 && cat.MaxRHat > apartRHat:
+		return fmt.Sprintf("the %d chains have not converged: they disagree, because the posterior of the shared end-member ratios has %d separate peaks and the chains, which seldom cross between them, give different answers (largest R-hat %.3f, want below %.2f, after %d steps each): the shared end-member ratios and every split that rests on them are doubtful; the data may fit more than one set of end-members (more samples, a further tracer or narrower priors can tell them apart)",
+			cat.Chains, cat.Modes, cat.MaxRHat, RHatLimit, cat.Steps)
 	}
+	return fmt.Sprintf("the %d chains have not converged within the cap of %d steps each (largest R-hat %.3f, want below %.2f; smallest effective sample size %.0f, want %d): the shared end-member ratios and every split that rests on them are doubtful",
+		cat.Chains, cat.Steps, cat.MaxRHat, RHatLimit, cat.MinESS, target)
 }

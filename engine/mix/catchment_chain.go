@@ -246,10 +246,13 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // Na (carbonate) cannot trade its ratios against its amount. With D =
 // diag(c_j/T)², the integral over n >= 0 of the Gaussian likelihood times
 // that prior is taken in closed form but for the orthant, whose chance is
-// the product of the marginal chances (gaussOrthant): without it, the
-// marginal would favour end-members that sit inside the cloud of samples.
-// The scatter is added to each tracer row's variance at the exact
-// non-negative fit without it.
+// taken from the amounts' joint Gaussian (gaussOrthant, logOrthant):
+// without it, the marginal would favour end-members that sit inside the
+// cloud of samples, and with the product of the marginal chances in its
+// place it favoured, by tens of log units over a catchment, end-members
+// for which the amounts' optimum lies beyond a face (docs/methods.md
+// §7.12). The scatter is added to each tracer row's variance at the exact
+// non-negative fit without it (to first order).
 func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
@@ -272,23 +275,86 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	}
 	var H mat6
 	var b, n vec6
-	normal(R, K, &st.linv, &A, &st.yt, &H, &b)
+	var At [maxRows][MaxEndMembers]float64
+	// Raw waters' rows have errors of their own (a diagonal covariance):
+	// whitening is then a division by each row's σ, and gives the same bits
+	// as the general triangular solve, whose terms beside the diagonal are
+	// zeros.
+	diag := diagonal(R, &st.cov)
+	if diag {
+		for i := 0; i < R; i++ {
+			w := st.linv[i][i]
+			for jj := 0; jj < K; jj++ {
+				At[i][jj] = float64(w * A[i][jj])
+			}
+		}
+		gram(R, K, &At, &st.yt, &H, &b)
+	} else {
+		normal(R, K, &st.linv, &A, &st.yt, &H, &b)
+	}
 	for jj := 0; jj < K; jj++ {
 		H[jj][jj] += dg[jj]
 	}
 	nnls(K, &H, &b, &n)
-	// The covariance with the scatter, and its factor.
+	// The covariance with the scatter: each tracer row's variance widened by
+	// what the scatter of the end-members' ratios brings at the amounts n.
+	var wide [maxRows]float64
+	for row := 0; row < R; row++ {
+		v := 0.0
+		if row > 0 {
+			for jj, j := range st.act {
+				a := float64(tau[j]*A[row][jj]) * n[jj]
+				v += a * a
+			}
+		}
+		wide[row] = st.cov[row][row] + v
+	}
+	var yt [maxRows]float64
+	yy := 0.0
+	pl := 1.0
+	if diag {
+		for i := 0; i < R; i++ {
+			l := sqrt(math.Max(wide[i], 1e-18*(1+wide[i])+1e-30))
+			pl *= l
+			yt[i] = st.y[i] / l
+			yy += yt[i] * yt[i]
+			for jj := 0; jj < K; jj++ {
+				At[i][jj] = A[i][jj] / l
+			}
+		}
+	} else {
+		pl, yy = whitenWide(R, K, st, &wide, &A, &At, &yt)
+	}
+	gram(R, K, &At, &yt, &H, &b)
+	for jj := 0; jj < K; jj++ {
+		H[jj][jj] += dg[jj]
+	}
+	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
+}
+
+// diagonal reports whether the covariance c of r rows (lower triangle
+// read) is diagonal.
+func diagonal(r int, c *[maxRows][maxRows]float64) bool {
+	for i := 1; i < r; i++ {
+		for j := 0; j < i; j++ {
+			if c[i][j] != 0 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// whitenWide factors the setup's covariance with its diagonal set to wide,
+// C = L Lᵀ, and sets the whitened data and design L ỹ = y, L Ã = A; it
+// returns det L and |ỹ|².
+func whitenWide(R, K int, st *setup, wide *[maxRows]float64, A, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64) (pl, yy float64) {
 	var C, L [maxRows][maxRows]float64
 	C = st.cov
-	for row := 1; row < R; row++ {
-		v := 0.0
-		for jj, j := range st.act {
-			a := float64(tau[j]*A[row][jj]) * n[jj]
-			v += a * a
-		}
-		C[row][row] += v
+	for i := 0; i < R; i++ {
+		C[i][i] = wide[i]
 	}
-	pl := 1.0
+	pl = 1.0
 	for j := 0; j < R; j++ {
 		d := C[j][j]
 		for p := 0; p < j; p++ {
@@ -305,10 +371,6 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 			L[i][j] = s / L[j][j]
 		}
 	}
-	// Whitened data and design: L ỹ = y, L Ã = A.
-	var yt [maxRows]float64
-	var At [maxRows][MaxEndMembers]float64
-	yy := 0.0
 	for i := 0; i < R; i++ {
 		s := st.y[i]
 		for p := 0; p < i; p++ {
@@ -324,19 +386,14 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 			At[i][jj] = s / L[i][i]
 		}
 	}
-	gram(R, K, &At, &yt, &H, &b)
-	for jj := 0; jj < K; jj++ {
-		H[jj][jj] += dg[jj]
-	}
-	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
+	return pl, yy
 }
 
 // gaussOrthant returns the log of the integral over n >= 0 of
 // exp(−½ (yy − 2 bᵀn + nᵀHn)) (up to the constant (2π)^(k/2)): the Gaussian
 // integral at the unconstrained optimum μ = H⁻¹b, −½ (yy − bᵀμ) − ½ log det H,
-// times the chance that a draw of N(μ, H⁻¹) is non-negative, taken as the
-// product of the marginal chances Φ(μ_j/σ_j) (as the face estimates of the
-// per-sample model, slab.go). −Inf when H is singular.
+// times the chance that a draw of N(μ, H⁻¹) is non-negative (logOrthant).
+// −Inf when H is singular.
 func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	var L [MaxEndMembers][MaxEndMembers]float64
 	hd := 1.0
@@ -376,16 +433,7 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 		mu[i] = s / L[i][i]
 		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
 	}
-	l := -0.5 * max(0, yy-fit)
-	pr := 1 / hd
-	for i := 0; i < K; i++ {
-		pr *= max(normCDF(mu[i]/sqrt(invDiag(K, &L, i))), 1e-300)
-		if pr < 1e-200 {
-			l += plog(pr)
-			pr = 1
-		}
-	}
-	return l + plog(pr)
+	return -0.5*max(0, yy-fit) - plog(hd) + logOrthant(K, &L, &mu)
 }
 
 // normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A

@@ -33,11 +33,10 @@ type Identifiability struct {
 // MinSpare is the equations beyond its own amounts that a sample must
 // give, in most samples, for the catchment-wide model to run. With one
 // (four end-members read by four tracers), each sample's amounts absorb
-// nearly all of its own scatter, the approximate marginal likelihood
-// (catchment.go, sampleLogL) is then too sure of itself, and in the
-// simulation study the chains often fail to converge and the shared
-// ratios' 95 % intervals hold the truth too seldom (docs/validation.md,
-// catchment-wide, four sources and four tracers); with two (two or three
+// nearly all of its own scatter, and in the simulation study the shared
+// ratios' 95 % intervals hold the truth somewhat too seldom and the chains
+// do not always converge (docs/validation.md, catchment-wide, four sources
+// and four tracers, past the counting check); with two (two or three
 // end-members read by one tracer more) they are calibrated.
 const MinSpare = 2
 

@@ -1,5 +1,7 @@
 package mix
 
+import "math"
+
 // Convergence of the chains: split R-hat and the multi-chain effective
 // sample size (Gelman et al. 2013, Bayesian Data Analysis, 3rd ed., §11.4
 // and §11.5; Vehtari et al. 2021, Bayesian Analysis 16, for the split chains
@@ -8,23 +10,43 @@ package mix
 // map of its log).
 
 // diagnose reports whether every shared latent has R-hat below RHatLimit
-// and an ESS of at least the target, over the kept steps so far.
-func (c *CatchmentRun) diagnose() bool {
+// and an ESS of at least the target, over the kept steps so far, and the
+// smallest ESS (0 when some R-hat is too large: the effective sample
+// sizes, whose autocorrelations cost most, are then not computed).
+func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
 	for i, d := range c.base.dims {
 		if !c.seen[d.em] {
 			continue
 		}
-		rh, ess := c.diag(i)
-		if !(rh < RHatLimit) || !(ess >= float64(c.co.TargetESS)) {
-			return false
+		if !(c.rhat(i) < RHatLimit) {
+			return false, 0
 		}
 	}
-	return true
+	minESS = math.Inf(1)
+	for i, d := range c.base.dims {
+		if !c.seen[d.em] {
+			continue
+		}
+		_, ess := c.diag(i)
+		minESS = min(minESS, ess)
+	}
+	return minESS >= float64(c.co.TargetESS), minESS
+}
+
+// rhat returns the split R-hat of parameter i over every chain's kept
+// steps.
+func (c *CatchmentRun) rhat(i int) float64 {
+	rh, _ := c.split(i, false)
+	return rh
 }
 
 // diag returns the split R-hat and the effective sample size of parameter
 // i over every chain's kept steps.
-func (c *CatchmentRun) diag(i int) (rhat, ess float64) {
+func (c *CatchmentRun) diag(i int) (rhat, ess float64) { return c.split(i, true) }
+
+// split returns the split R-hat of parameter i and, when withESS, its
+// effective sample size.
+func (c *CatchmentRun) split(i int, withESS bool) (rhat, ess float64) {
 	steps := c.chains[0].t - c.co.Warmup
 	half := steps / 2
 	if half < 4 {
@@ -40,12 +62,12 @@ func (c *CatchmentRun) diag(i int) (rhat, ess float64) {
 			seqs = append(seqs, s)
 		}
 	}
-	return splitDiag(seqs)
+	return splitDiag(seqs, withESS)
 }
 
-// splitDiag returns R-hat and the effective sample size of m sequences of
-// equal length n (the halves of the chains).
-func splitDiag(seqs [][]float64) (rhat, ess float64) {
+// splitDiag returns R-hat and (when withESS) the effective sample size of
+// m sequences of equal length n (the halves of the chains).
+func splitDiag(seqs [][]float64, withESS bool) (rhat, ess float64) {
 	m, n := len(seqs), len(seqs[0])
 	fn := float64(n)
 	means := make([]float64, m)
@@ -77,6 +99,9 @@ func splitDiag(seqs [][]float64) (rhat, ess float64) {
 		return 1, float64(m * n) // a constant parameter: nothing to mix
 	}
 	rhat = sqrt(vplus / W)
+	if !withESS {
+		return rhat, 0
+	}
 	// Autocorrelations, lag by lag, summed in pairs while positive and
 	// made monotone (Geyer's initial monotone sequence).
 	rho := func(t int) float64 {
