@@ -3,10 +3,12 @@ package sample
 import (
 	"archive/zip"
 	"bytes"
+	"encoding/binary"
 	"encoding/csv"
 	"encoding/xml"
 	"errors"
 	"fmt"
+	"hash/crc32"
 	"io"
 	"math"
 	"strconv"
@@ -166,17 +168,68 @@ func (r *rowSource) unclosedQuote() bool { return false }
 // emptyStyles stands in for the workbook's styles when reading raw cell
 // values, so that date cells come as the serial numbers stored.
 var emptyStyles = func() *zip.File {
-	var buf bytes.Buffer
-	w := zip.NewWriter(&buf)
-	f, _ := w.Create("xl/styles.xml")
-	f.Write([]byte(`<?xml version="1.0" encoding="UTF-8"?><styleSheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"></styleSheet>`))
-	w.Close()
-	r, err := zip.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
+	b := storedZip("xl/styles.xml", []byte(`<?xml version="1.0" encoding="UTF-8"?><styleSheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"></styleSheet>`))
+	r, err := zip.NewReader(bytes.NewReader(b), int64(len(b)))
 	if err != nil {
 		panic(err) // written just above
 	}
 	return r.File[0]
 }()
+
+// storedZip is a zip archive of one file, stored uncompressed, dated
+// 1980-01-01 (the format's first day). It is written here, as the
+// format's specification lays it out, rather than with archive/zip's
+// writer, which the page would otherwise carry for this alone.
+func storedZip(name string, data []byte) []byte {
+	le := binary.LittleEndian
+	crc := crc32.ChecksumIEEE(data)
+	var b []byte
+	// The local file header, then the data.
+	b = le.AppendUint32(b, 0x04034b50)
+	b = le.AppendUint16(b, 20) // version needed: 2.0
+	b = le.AppendUint16(b, 0)  // flags
+	b = le.AppendUint16(b, 0)  // method: stored
+	b = le.AppendUint16(b, 0)  // time
+	b = le.AppendUint16(b, 0x21)
+	b = le.AppendUint32(b, crc)
+	b = le.AppendUint32(b, uint32(len(data)))
+	b = le.AppendUint32(b, uint32(len(data)))
+	b = le.AppendUint16(b, uint16(len(name)))
+	b = le.AppendUint16(b, 0) // extra
+	b = append(b, name...)
+	b = append(b, data...)
+	// The central directory's one entry.
+	dir := len(b)
+	b = le.AppendUint32(b, 0x02014b50)
+	b = le.AppendUint16(b, 20) // version made by
+	b = le.AppendUint16(b, 20) // version needed
+	b = le.AppendUint16(b, 0)
+	b = le.AppendUint16(b, 0)
+	b = le.AppendUint16(b, 0)
+	b = le.AppendUint16(b, 0x21)
+	b = le.AppendUint32(b, crc)
+	b = le.AppendUint32(b, uint32(len(data)))
+	b = le.AppendUint32(b, uint32(len(data)))
+	b = le.AppendUint16(b, uint16(len(name)))
+	b = le.AppendUint16(b, 0) // extra
+	b = le.AppendUint16(b, 0) // comment
+	b = le.AppendUint16(b, 0) // disk
+	b = le.AppendUint16(b, 0) // internal attributes
+	b = le.AppendUint32(b, 0) // external attributes
+	b = le.AppendUint32(b, 0) // offset of the local header
+	b = append(b, name...)
+	// The end of the central directory.
+	end := len(b)
+	b = le.AppendUint32(b, 0x06054b50)
+	b = le.AppendUint16(b, 0)
+	b = le.AppendUint16(b, 0)
+	b = le.AppendUint16(b, 1)
+	b = le.AppendUint16(b, 1)
+	b = le.AppendUint32(b, uint32(end-dir))
+	b = le.AppendUint32(b, uint32(dir))
+	b = le.AppendUint16(b, 0) // comment
+	return b
+}
 
 // openWorkbook opens b, with its own styles when styled is true (cells
 // formatted as dates are then marked as such) or without them (every cell
