@@ -183,35 +183,30 @@ var emptyStyles = func() *zip.File {
 func storedZip(name string, data []byte) []byte {
 	le := binary.LittleEndian
 	crc := crc32.ChecksumIEEE(data)
-	var b []byte
+	// entry is what the local header and the central directory's entry
+	// share: from the version needed to the length of the extra field.
+	entry := func(b []byte) []byte {
+		b = le.AppendUint16(b, 20) // version needed: 2.0
+		b = le.AppendUint16(b, 0)  // flags
+		b = le.AppendUint16(b, 0)  // method: stored
+		b = le.AppendUint16(b, 0)  // time
+		b = le.AppendUint16(b, 0x21)
+		b = le.AppendUint32(b, crc)
+		b = le.AppendUint32(b, uint32(len(data))) // compressed
+		b = le.AppendUint32(b, uint32(len(data)))
+		b = le.AppendUint16(b, uint16(len(name)))
+		return le.AppendUint16(b, 0) // extra
+	}
 	// The local file header, then the data.
-	b = le.AppendUint32(b, 0x04034b50)
-	b = le.AppendUint16(b, 20) // version needed: 2.0
-	b = le.AppendUint16(b, 0)  // flags
-	b = le.AppendUint16(b, 0)  // method: stored
-	b = le.AppendUint16(b, 0)  // time
-	b = le.AppendUint16(b, 0x21)
-	b = le.AppendUint32(b, crc)
-	b = le.AppendUint32(b, uint32(len(data)))
-	b = le.AppendUint32(b, uint32(len(data)))
-	b = le.AppendUint16(b, uint16(len(name)))
-	b = le.AppendUint16(b, 0) // extra
+	b := le.AppendUint32(nil, 0x04034b50)
+	b = entry(b)
 	b = append(b, name...)
 	b = append(b, data...)
 	// The central directory's one entry.
 	dir := len(b)
 	b = le.AppendUint32(b, 0x02014b50)
 	b = le.AppendUint16(b, 20) // version made by
-	b = le.AppendUint16(b, 20) // version needed
-	b = le.AppendUint16(b, 0)
-	b = le.AppendUint16(b, 0)
-	b = le.AppendUint16(b, 0)
-	b = le.AppendUint16(b, 0x21)
-	b = le.AppendUint32(b, crc)
-	b = le.AppendUint32(b, uint32(len(data)))
-	b = le.AppendUint32(b, uint32(len(data)))
-	b = le.AppendUint16(b, uint16(len(name)))
-	b = le.AppendUint16(b, 0) // extra
+	b = entry(b)
 	b = le.AppendUint16(b, 0) // comment
 	b = le.AppendUint16(b, 0) // disk
 	b = le.AppendUint16(b, 0) // internal attributes
@@ -227,8 +222,7 @@ func storedZip(name string, data []byte) []byte {
 	b = le.AppendUint16(b, 1)
 	b = le.AppendUint32(b, uint32(end-dir))
 	b = le.AppendUint32(b, uint32(dir))
-	b = le.AppendUint16(b, 0) // comment
-	return b
+	return le.AppendUint16(b, 0) // comment
 }
 
 // openWorkbook opens b, with its own styles when styled is true (cells
