@@ -229,9 +229,9 @@ func (c *Root) Compute(ctx vugu.ComputeCtx) {
 }
 
 // HoldMillis is the longest the render loop holds a repaint for the quick
-// pass of a recompute: short enough that, with a render of some 20–40 ms,
+// pass of a recompute: short enough that, with a render of some 20–40 ms and the edit's own handling,
 // an edit repaints within about 100 ms even when its quick pass is slow.
-const HoldMillis = 60
+const HoldMillis = 50
 
 // Hold returns a channel the render loop waits on, for at most HoldMillis,
 // before it renders: it is closed when the quick pass of the recompute
