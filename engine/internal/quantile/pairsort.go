@@ -7,18 +7,18 @@ import (
 	"lixiv/engine/internal/portable"
 )
 
-// radixFrom is the length from which sortPairsWith sorts by radix.
+// radixFrom is the length from which sortByRadix sorts by radix.
 const radixFrom = 256
 
 // sortByRadix sorts ps by value, for values that are not NaN, with the
 // buffer's working space. Long slices are sorted by radix, eight bits at a
 // time, which keeps equal values in their order and runs as plain loops
 // (in WebAssembly a sort by a comparison function pays a call for every
-// comparison); short ones by sortPairs.
+// comparison); short ones by the library's sort.
 func (b *Buf) sortByRadix(ps []Pair) {
 	n := len(ps)
 	if n < radixFrom {
-		sortPairs(ps)
+		slices.SortFunc(ps, byValue)
 		return
 	}
 	b.keys = slices.Grow(b.keys[:0], 2*n)[:2*n]
@@ -56,75 +56,6 @@ func (b *Buf) sortByRadix(ps []Pair) {
 	}
 	if &src[0] != &ps[0] {
 		copy(ps, src)
-	}
-}
-
-// sortPairs sorts ps by value, for values that are not NaN. It is a
-// quicksort with a three-way partition around the median of three, an
-// insertion sort for short runs and a heapsort when the partitions run
-// unbalanced; it compares values in place, without a comparison function.
-// Equal values keep no particular order.
-func sortPairs(ps []Pair) {
-	depth := 0
-	for n := len(ps); n > 0; n >>= 1 {
-		depth += 2
-	}
-	quickPairs(ps, depth)
-}
-
-func quickPairs(ps []Pair, depth int) {
-	for len(ps) > 12 {
-		if depth == 0 {
-			heapPairs(ps)
-			return
-		}
-		depth--
-		n := len(ps)
-		lt, gt, _, _ := partition3(ps, medianOf3(ps[0].V, ps[n/2].V, ps[n-1].V))
-		// Recurse into the shorter side, loop on the longer.
-		if lt < n-gt {
-			quickPairs(ps[:lt], depth)
-			ps = ps[gt:]
-		} else {
-			quickPairs(ps[gt:], depth)
-			ps = ps[:lt]
-		}
-	}
-	for i := 1; i < len(ps); i++ {
-		x := ps[i]
-		j := i
-		for ; j > 0 && ps[j-1].V > x.V; j-- {
-			ps[j] = ps[j-1]
-		}
-		ps[j] = x
-	}
-}
-
-func heapPairs(ps []Pair) {
-	n := len(ps)
-	for i := n/2 - 1; i >= 0; i-- {
-		siftPairs(ps, i, n)
-	}
-	for end := n - 1; end > 0; end-- {
-		ps[0], ps[end] = ps[end], ps[0]
-		siftPairs(ps, 0, end)
-	}
-}
-
-func siftPairs(ps []Pair, root, end int) {
-	for {
-		child := 2*root + 1
-		if child >= end {
-			return
-		}
-		if child+1 < end && ps[child].V < ps[child+1].V {
-			child++
-		}
-		if ps[root].V >= ps[child].V {
-			return
-		}
-		ps[root], ps[child] = ps[child], ps[root]
-		root = child
 	}
 }
 

@@ -7,11 +7,11 @@ import (
 	"testing"
 )
 
-// TestSortPairs: sortPairs leaves the values in increasing order and each
-// with its own weight, for sizes around its cut-overs, with many ties, with
-// sorted and reversed input, and with a pattern that unbalances the
-// partitions (the heapsort's case).
-func TestSortPairs(t *testing.T) {
+// TestSortByRadix: sortByRadix leaves the values in increasing order and
+// each with its own weight, for sizes around its cut-over to the library's
+// sort, with many ties, with sorted and reversed input, and with an organ
+// pipe.
+func TestSortByRadix(t *testing.T) {
 	r := rand.New(rand.NewPCG(21, 22))
 	inputs := map[string]func(n int) []Pair{
 		"random": func(n int) []Pair {
@@ -59,11 +59,7 @@ func TestSortPairs(t *testing.T) {
 			}
 			want := slices.Clone(ps)
 			slices.SortStableFunc(want, byValue)
-			if n%2 == 0 {
-				sortPairs(ps)
-			} else {
-				(&Buf{}).sortByRadix(ps)
-			}
+			(&Buf{}).sortByRadix(ps)
 			for i := range ps {
 				if ps[i].V != want[i].V {
 					t.Fatalf("%s n=%d: value %d is %g, want %g", name, n, i, ps[i].V, want[i].V)
@@ -79,17 +75,10 @@ func TestSortPairs(t *testing.T) {
 			}
 		}
 	}
-	// The heapsort on its own.
-	ps := inputs["random"](777)
-	heapPairs(ps)
-	if !slices.IsSortedFunc(ps, byValue) {
-		t.Error("heapPairs left the pairs out of order")
-	}
 }
 
-// BenchmarkSortPairs and BenchmarkSortPairsFunc compare sortPairs with the
-// library's sort by a comparison function on 4,000 weighted draws.
-func BenchmarkSortPairs(b *testing.B) { benchmarkSort(b, sortPairs) }
+// BenchmarkSortPairsFunc is the library's sort by a comparison function
+// on 4,000 weighted draws, beside BenchmarkSortByRadix.
 func BenchmarkSortPairsFunc(b *testing.B) {
 	benchmarkSort(b, func(ps []Pair) { slices.SortFunc(ps, byValue) })
 }
