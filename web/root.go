@@ -318,9 +318,7 @@ func (c *Root) Rendered() {
 		if b := js.Global().Get("lixivBoot"); b.Truthy() {
 			b.Set("firstRender", nowMillis())
 		}
-		if c.deferred {
-			go c.drawRest()
-		}
+		go c.afterFirstPaint(c.deferred)
 	}
 	if c.ready && !c.deferred && !c.drawn {
 		c.drawn = true
@@ -363,12 +361,20 @@ func (c *Root) Rendered() {
 	}
 }
 
-// drawRest renders the page again, with every cell's body, once the
-// browser has painted its first render.
-func (c *Root) drawRest() {
+// afterFirstPaint starts the page's workers and its service worker
+// (boot.js) once the browser has painted the page's first render of a
+// budget, and, when that render left cells
+// for the next (rest), renders the page again, whole.
+func (c *Root) afterFirstPaint(rest bool) {
 	afterPaint()
-	c.env.Lock()
-	c.env.UnlockRender()
+	Mark("painted")
+	if b := js.Global().Get("lixivBoot"); b.Truthy() && b.Get("painted").Truthy() {
+		b.Call("painted") // the service worker and the workers start
+	}
+	if rest {
+		c.env.Lock()
+		c.env.UnlockRender()
+	}
 }
 
 // OnBudgetTitle renames the budget.

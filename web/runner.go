@@ -172,7 +172,7 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		c.env.UnlockOnly()
 	}()
 	var stepped []string                                   // for the timing harness: when each step began
-	const slice, paintEvery, progressEvery = 40, 250, 1000 // ms
+	const slice, paintEvery, progressEvery = 30, 250, 1000 // ms
 	lastYield, lastPaint := nowMillis(), nowMillis()       // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
 	// The inversions' samples go to the page's workers, if any. Waiting
