@@ -52,7 +52,14 @@ func (d Day) Civil() (year, month, day int) {
 // String formats d as an ISO 8601 date, such as "2021-10-01".
 func (d Day) String() string {
 	y, m, dd := d.Civil()
-	return fmt.Sprintf("%04d-%02d-%02d", y, m, dd)
+	if y < 0 || y > 9999 {
+		return fmt.Sprintf("%04d-%02d-%02d", y, m, dd)
+	}
+	// A record of many years formats tens of thousands of days: without
+	// fmt, as "%04d-%02d-%02d" would.
+	b := [10]byte{byte('0' + y/1000), byte('0' + y/100%10), byte('0' + y/10%10), byte('0' + y%10), '-',
+		byte('0' + m/10), byte('0' + m%10), '-', byte('0' + dd/10), byte('0' + dd%10)}
+	return string(b[:])
 }
 
 // YearFraction returns the decimal year of the middle of d (for example

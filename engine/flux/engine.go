@@ -49,6 +49,8 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 	if opt.Seasonal {
 		e.sn, e.cs = make([]float64, n), make([]float64, n)
 	}
+	e.flow = make([]int, 0, n)
+	var yf yearFractions
 	y := 0
 	for k, d := range rec.Days {
 		for y < len(years)-1 && d > years[y].End {
@@ -66,7 +68,7 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 			}
 		}
 		if opt.Seasonal {
-			e.sn[k], e.cs[k] = seasonal(d.YearFraction())
+			e.sn[k], e.cs[k] = seasonal(yf.of(d))
 		}
 	}
 	e.lnQ = make([]float64, len(smp))
@@ -80,6 +82,23 @@ func newEngine(rec *discharge.Record, smp []sample, years []discharge.Year, opt 
 		}
 	}
 	return e
+}
+
+// yearFractions gives discharge.Day.YearFraction for days in any order,
+// finding the calendar year anew only when a day leaves the last one: a
+// record of many years asks for it every day.
+type yearFractions struct {
+	year        int
+	start, next discharge.Day
+}
+
+// of returns d.YearFraction(), to the bit.
+func (f *yearFractions) of(d discharge.Day) float64 {
+	if d < f.start || d >= f.next || f.next == f.start {
+		f.year, _, _ = d.Civil()
+		f.start, f.next = discharge.Date(f.year, 1, 1), discharge.Date(f.year+1, 1, 1)
+	}
+	return float64(f.year) + (float64(d-f.start)+0.5)/float64(f.next-f.start)
 }
 
 // seasonal returns sin(2πt) and cos(2πt) of the fractional part of the

@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/profiler"
@@ -23,7 +24,9 @@ import (
 // developer tools. LIXIV_PROFILE_OF says what is profiled: "demo" (the
 // default) from navigation until the demo is computed, "edit" an edit of a
 // rain ratio with the apportionment at 2,000 draws, until it is computed,
-// "draws" a run of the demo at 40,000 draws. The Web Workers are other
+// "draws" a run of the demo at 40,000 draws, "open" the opening of the
+// budget at the engine's limits (engine/notebook/atlimits) through the
+// file picker, for 20 s. The Web Workers are other
 // threads and are not in it.
 func TestProfileDemo(t *testing.T) {
 	out := os.Getenv("LIXIV_PROFILE")
@@ -65,8 +68,18 @@ func TestProfileDemo(t *testing.T) {
 			start()
 			edit(t, ctx, "#p-"+ap+"-draws", "40000")
 		}
+	case "open":
+		file := atLimitsFile(t)
+		open(t, ctx, srv.URL)
+		waitIdle(t, ctx)
+		what = "the budget at the limits opened, its first 20 s"
+		start()
+		if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
+			t.Fatal(err)
+		}
+		time.Sleep(20 * time.Second)
 	default:
-		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit or draws", of)
+		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit, draws or open", of)
 	}
 	res, err := chromedp.Call(ctx, profiler.Stop, cdp.Empty{})
 	if err != nil {

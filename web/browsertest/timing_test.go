@@ -177,18 +177,10 @@ func stats(v []float64) string {
 	return fmt.Sprintf("median %.0f ms (min %.0f, max %.0f, n=%d)", s[len(s)/2], s[0], s[len(s)-1], len(s))
 }
 
-// TestTimingAtLimits opens the costliest budget the engine's limits allow
-// (engine/notebook/atlimits: 4,000 samples × 1,000 draws, 200 years of
-// daily discharge, every series bootstrapped at the limit) through the file
-// picker and reports, without asserting anything, how long the page takes
-// to compute it and the longest stretch the main thread went without
-// handing back to the browser meanwhile, or, when it is not done within
-// the browser's session, how far each cell got. Run it with `make
-// browser-timing`.
-func TestTimingAtLimits(t *testing.T) {
-	if os.Getenv("LIXIV_TIMING") == "" {
-		t.Skip("LIXIV_TIMING not set")
-	}
+// atLimitsFile writes the budget at the engine's limits
+// (engine/notebook/atlimits) to a file for the file picker.
+func atLimitsFile(t *testing.T) string {
+	t.Helper()
 	demo, err := os.ReadFile(filepath.Join(repo, "examples", "corrie-vale", "corrie-vale.lixiv.json"))
 	if err != nil {
 		t.Fatal(err)
@@ -201,6 +193,22 @@ func TestTimingAtLimits(t *testing.T) {
 	if err := os.WriteFile(file, d.Marshal(), 0o644); err != nil {
 		t.Fatal(err)
 	}
+	return file
+}
+
+// TestTimingAtLimits opens the costliest budget the engine's limits allow
+// (engine/notebook/atlimits: 4,000 samples × 1,000 draws, 200 years of
+// daily discharge, every series bootstrapped at the limit) through the file
+// picker and reports, without asserting anything, how long the page takes
+// to compute it and the longest stretch the main thread went without
+// handing back to the browser meanwhile, or, when it is not done within
+// the browser's session, how far each cell got. Run it with `make
+// browser-timing`.
+func TestTimingAtLimits(t *testing.T) {
+	if os.Getenv("LIXIV_TIMING") == "" {
+		t.Skip("LIXIV_TIMING not set")
+	}
+	file := atLimitsFile(t)
 	srv := startDemoServer(t)
 	ctx := newBrowser(t, "")
 	open(t, ctx, srv.URL)
