@@ -193,6 +193,14 @@ type CatchmentRun struct {
 	next     int            // phase 1: next sample
 	shown    float64
 	mu       sync.Mutex
+
+	// Rounds shared out (catchment_farm.go): the round's kind and state as
+	// last set by WorkUnit, the driving run's progress at the round's start
+	// and its planned work, and the samples put in the summaries' round.
+	kind                 int
+	applied              []byte
+	roundDone, roundWork float64
+	putSeen              []bool
 }
 
 // catchmentStream, drawStream and scatterStream are the second PCG words of
