@@ -70,32 +70,50 @@ func workersSameResults(t *testing.T, example string) {
 	}
 }
 
-// TestLostWorkerIsNamed stops a worker as it is handed a sample: the
-// apportionment cell shows a problem naming the worker (never a silent
-// hang), and the next edit computes again on fresh workers.
+// TestLostWorkerIsNamed stops a worker as it is handed a sample (in the
+// catchment-wide example, the first chain of a round): the apportionment
+// cell shows a problem naming the worker (never a silent hang), and the
+// next edit computes again on fresh workers.
 func TestLostWorkerIsNamed(t *testing.T) {
-	ctx := openDemo(t)
-	if eval[int](t, ctx, `lixivPool.size`) < 1 {
-		t.Skip("the page has no workers")
-	}
-	ap := cellOf(t, ctx, "apportionment")
-	eval[bool](t, ctx, `(() => { const post = Worker.prototype.postMessage;
-		Worker.prototype.postMessage = function (m, tr) {
-			if (m && m.sample === 0 && !window.lixivStopped) {
-				window.lixivStopped = true;
-				this.terminate();
-				this.onerror({message: "stopped from outside", preventDefault() {}});
-				return;
+	for _, c := range []struct {
+		example, when, setting, first, next string
+	}{
+		{"", "m.sample === 0", "draws", "2100", "2200"},
+		{"scarrow-ghyll", "m.sample === 0 && m.state", "seed", "21", "22"},
+	} {
+		t.Run("demo"+c.example, func(t *testing.T) {
+			ctx := openDemo(t)
+			if eval[int](t, ctx, `lixivPool.size`) < 1 {
+				t.Skip("the page has no workers")
 			}
-			return post.call(this, m, tr);
-		};
-		return true })()`)
-	edit(t, ctx, "#p-"+ap+"-draws", "2100")
-	if msg := text(t, ctx, "#cell-"+ap+" .problem"); !strings.Contains(msg, "worker 1 of") || !strings.Contains(msg, "stopped from outside") {
-		t.Errorf("apportionment after a worker stopped: %q, want the worker named", msg)
-	}
-	edit(t, ctx, "#p-"+ap+"-draws", "2200")
-	if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
-		t.Errorf("after the next edit: cells with problems %q", bad)
+			if c.example != "" {
+				gen := eval[string](t, ctx, `document.body.dataset.gen`)
+				file := filepath.Join(repo, "examples", c.example, c.example+".lixiv.json")
+				if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
+					t.Fatal(err)
+				}
+				waitGen(t, ctx, gen)
+			}
+			ap := cellOf(t, ctx, "apportionment")
+			eval[bool](t, ctx, `(() => { const post = Worker.prototype.postMessage;
+				Worker.prototype.postMessage = function (m, tr) {
+					if (m && `+c.when+` && !window.lixivStopped) {
+						window.lixivStopped = true;
+						this.terminate();
+						this.onerror({message: "stopped from outside", preventDefault() {}});
+						return;
+					}
+					return post.call(this, m, tr);
+				};
+				return true })()`)
+			edit(t, ctx, "#p-"+ap+"-"+c.setting, c.first)
+			if msg := text(t, ctx, "#cell-"+ap+" .problem"); !strings.Contains(msg, "worker 1 of") || !strings.Contains(msg, "stopped from outside") {
+				t.Errorf("apportionment after a worker stopped: %q, want the worker named", msg)
+			}
+			edit(t, ctx, "#p-"+ap+"-"+c.setting, c.next)
+			if bad := eval[[]string](t, ctx, `[...document.querySelectorAll("section.state-problem, section.state-waiting")].map(s => s.id)`); len(bad) > 0 {
+				t.Errorf("after the next edit: cells with problems %q", bad)
+			}
+		})
 	}
 }
