@@ -100,100 +100,141 @@ func (c *CatchmentRun) RoundProgress(f float64) float64 {
 	return c.Progress()
 }
 
+// A round's state travels as its kind (one byte), the chains' streams as
+// their bytes, and the rest as numbers (wire.go's floats; counts are exact
+// in a float64); a unit's result likewise: few lines of code, for a small
+// module.
+
+// numbers reads a list of numbers in order; reading past its end, or a
+// count out of range, sets bad.
+type numbers struct {
+	v   []float64
+	bad bool
+}
+
+// take returns the next k numbers, a copy (not inlined: it is called in
+// many places, and each inlined copy weighs on the page's module).
+//
+//go:noinline
+func (n *numbers) take(k int) []float64 {
+	if k < 0 || k > len(n.v) {
+		n.bad, n.v = true, nil
+		return make([]float64, max(k, 0))
+	}
+	out := append([]float64(nil), n.v[:k]...)
+	n.v = n.v[k:]
+	return out
+}
+
+// next returns the next number.
+//
+//go:noinline
+func (n *numbers) next() float64 {
+	if len(n.v) == 0 {
+		n.bad = true
+		return 0
+	}
+	x := n.v[0]
+	n.v = n.v[1:]
+	return x
+}
+
+// int returns the next number as an int.
+func (n *numbers) int() int { return int(n.next()) }
+
+// count reads a count of at most most.
+//
+//go:noinline
+func (n *numbers) count(most int) int {
+	x := n.next()
+	if !(x >= 0 && x <= float64(most)) || x != float64(int(x)) {
+		n.bad = true
+		return 0
+	}
+	return int(x)
+}
+
 // chainState encodes a round of the chains: its kind, the proposal and
 // every chain's state.
 func (c *CatchmentRun) chainState(kind int) []byte {
-	w := &wireWriter{}
-	w.int(kind)
-	w.bool(c.prop != nil)
+	v := []float64{float64(len(c.chains))}
 	if q := c.prop; q != nil {
-		w.int(len(q.comps))
-		for k := range q.comps {
-			m := &q.comps[k]
-			w.floats(m.mu)
-			w.floats(m.m)
-			w.float(m.logW)
-			w.float(m.logDet)
+		v = append(v, float64(len(q.comps)), float64(c.heavy), c.full, c.block, float64(c.refitted))
+		for _, m := range q.comps {
+			v = append(v, m.logW, m.logDet)
+			v = append(v, m.mu...)
+			v = append(v, m.m...)
 		}
-		w.int(c.heavy)
-		w.float(c.full)
-		w.float(c.block)
-		w.int(c.refitted)
+	} else {
+		v = append(v, 0)
 	}
-	w.int(len(c.chains))
+	w := wireWriter{b: []byte{byte(kind)}}
 	for _, ch := range c.chains {
-		writeChain(w, ch)
+		v = chainNumbers(v, ch)
+		b, _ := ch.src.MarshalBinary()
+		w.string(string(b))
 	}
+	w.floats(v)
 	return w.b
 }
 
-// writeChain writes a chain's state: its stream, point, counters and mode
-// search (not its kept steps or warm-up draws).
-func writeChain(w *wireWriter, ch *chain) {
-	b, _ := ch.src.MarshalBinary()
-	w.string(string(b))
-	w.floats(ch.x)
-	w.float(ch.lp)
-	w.float(ch.lq)
-	w.int(ch.t)
-	w.int(ch.goal)
-	w.int(ch.accepted)
-	w.int(ch.indTried)
-	w.int(ch.indTaken)
-	w.bool(ch.search != nil)
-	if s := ch.search; s != nil {
-		w.floats(s.x)
-		w.floats(s.g)
-		w.float(s.f)
-		w.floats(s.binv)
-		w.int(s.iter)
-		w.int(s.calm)
-		w.bool(s.done)
-		w.int(s.evals)
+// chainNumbers appends a chain's state to v: its counters, point and mode
+// search (not its stream, kept steps or warm-up draws).
+func chainNumbers(v []float64, ch *chain) []float64 {
+	v = append(v, float64(ch.t), float64(ch.goal), float64(ch.accepted), float64(ch.indTried), float64(ch.indTaken), ch.lp, ch.lq)
+	v = append(v, ch.x...)
+	s := ch.search
+	if s == nil {
+		return append(v, 0)
 	}
+	done := 0.0
+	if s.done {
+		done = 1
+	}
+	v = append(v, 1, s.f, float64(s.iter), float64(s.calm), done, float64(s.evals))
+	v = append(v, s.x...)
+	v = append(v, s.g...)
+	return append(v, s.binv...)
 }
 
-// readChain reads what writeChain wrote into ch, whose slices have the
-// run's sizes.
-func (c *CatchmentRun) readChain(r *wireReader, ch *chain) error {
-	if err := ch.src.UnmarshalBinary([]byte(r.string())); err != nil && r.err == nil {
+// readChain sets ch from what chainNumbers wrote and from its stream's
+// bytes.
+func (c *CatchmentRun) readChain(n *numbers, stream string, ch *chain) error {
+	if err := ch.src.UnmarshalBinary([]byte(stream)); err != nil {
 		return err
 	}
-	x := r.floats()
-	ch.lp, ch.lq = r.float(), r.float()
-	ch.t, ch.goal, ch.accepted, ch.indTried, ch.indTaken = r.int(), r.int(), r.int(), r.int(), r.int()
-	if len(x) != c.np {
-		r.fail()
-	}
-	copy(ch.x, x)
+	ch.t, ch.goal, ch.accepted, ch.indTried, ch.indTaken = n.int(), n.int(), n.int(), n.int(), n.int()
+	ch.lp, ch.lq = n.next(), n.next()
+	copy(ch.x, n.take(c.np))
 	ch.search = nil
-	if r.bool() {
-		s := &search{x: r.floats(), g: r.floats(), f: r.float(), binv: r.floats()}
-		s.iter, s.calm, s.done, s.evals = r.int(), r.int(), r.bool(), r.int()
-		if len(s.x) != c.np || len(s.g) != c.np || len(s.binv) != c.np*c.np {
-			r.fail()
-		}
+	if n.count(1) == 1 {
+		s := &search{f: n.next(), iter: n.int(), calm: n.int(), done: n.next() == 1, evals: n.int()}
+		s.x = n.take(c.np)
+		s.g = n.take(c.np)
+		s.binv = n.take(c.np * c.np)
 		ch.search = s
 	}
-	return r.err
+	if n.bad {
+		return errWire
+	}
+	return nil
 }
 
 // sampleState encodes the round of the samples' summaries: the joint
 // draws, the ratios drawn from the prior per joint draw and the chains'
 // convergence.
 func (c *CatchmentRun) sampleState() []byte {
-	w := &wireWriter{}
-	w.int(roundSamples)
-	w.int(len(c.keep))
-	for _, x := range c.keep {
-		for _, v := range x {
-			w.float(v)
-		}
+	conv := 0.0
+	if c.cat.Converged {
+		conv = 1
 	}
-	w.floats(c.extra)
-	w.bool(c.cat.Converged)
-	w.float(c.cat.MinESS)
-	w.float(c.cat.MaxRHat)
+	v := []float64{float64(len(c.keep)), conv, c.cat.MinESS, c.cat.MaxRHat}
+	for _, x := range c.keep {
+		v = append(v, x...)
+	}
+	v = append(v, c.extra...)
+	w := wireWriter{b: []byte{roundSamples}}
+	w.floats(v)
 	return w.b
 }
 
@@ -210,58 +251,66 @@ func (c *CatchmentRun) setState(state []byte) error {
 		return nil
 	}
 	c.applied = nil
-	r := &wireReader{b: state}
-	kind := r.int()
+	kind := int(state[0])
+	r := &wireReader{b: state[1:]}
+	var streams []string
+	if kind != roundSamples { // a chains' round: the streams first
+		for range c.chains {
+			streams = append(streams, r.string())
+		}
+	}
+	n := &numbers{v: r.floats()}
+	if r.err != nil || len(r.b) != 0 {
+		return errWire
+	}
 	switch kind {
 	case roundSearch, roundChains:
+		if n.count(len(c.chains)) != len(c.chains) || len(streams) != len(c.chains) {
+			return errWire
+		}
 		c.prop = nil
-		if r.bool() {
-			q := &chainProposal{np: c.np, fold: c.nd}
-			q.comps = make([]tComp, max(0, min(r.int(), maxModes)))
-			for k := range q.comps {
-				m := &q.comps[k]
-				m.mu, m.m, m.logW, m.logDet = r.floats(), r.floats(), r.float(), r.float()
-				if len(m.mu) != c.np || len(m.m) != c.np*c.np {
-					r.fail()
-				}
+		if k := n.count(maxModes); k > 0 {
+			q := &chainProposal{np: c.np, fold: c.nd, comps: make([]tComp, k)}
+			c.heavy, c.full, c.block, c.refitted = n.int(), n.next(), n.next(), n.int()
+			for i := range q.comps {
+				m := &q.comps[i]
+				m.logW, m.logDet = n.next(), n.next()
+				m.mu = n.take(c.np)
+				m.m = n.take(c.np * c.np)
 			}
-			c.heavy, c.full, c.block, c.refitted = r.int(), r.float(), r.float(), r.int()
-			if r.err != nil || len(q.comps) == 0 || c.heavy < 0 || c.heavy >= len(q.comps) {
+			if n.bad || c.heavy < 0 || c.heavy >= k {
 				return errWire
 			}
 			c.prop = q
 			c.makeBlocks()
 		}
-		if r.int() != len(c.chains) || (kind == roundChains) != (c.prop != nil) {
+		if (kind == roundChains) != (c.prop != nil) {
 			return errWire
 		}
-		for _, ch := range c.chains {
-			if err := c.readChain(r, ch); err != nil {
+		for i, ch := range c.chains {
+			if err := c.readChain(n, streams[i], ch); err != nil {
 				return err
 			}
 			ch.hist, ch.warmY, ch.warmW = nil, nil, nil
 		}
 		c.phase = 0
 	case roundSamples:
-		n := r.int()
-		if n < 0 || n*c.np*8 > len(r.b) {
-			return errWire
-		}
-		flat := make([]float64, n*c.np)
-		for i := range flat {
-			flat[i] = r.float()
-		}
-		c.keep = make([][]float64, n)
+		keep := n.count(c.co.Keep)
+		c.cat.Converged, c.cat.MinESS, c.cat.MaxRHat = n.next() == 1, n.next(), n.next()
+		flat := n.take(keep * c.np)
+		c.keep = make([][]float64, keep)
 		for d := range c.keep {
 			c.keep[d] = flat[d*c.np : (d+1)*c.np]
 		}
-		c.extra = r.floats()
-		c.cat.Converged, c.cat.MinESS, c.cat.MaxRHat = r.bool(), r.float(), r.float()
-		if r.err != nil || n != c.co.Keep || len(c.extra) != c.co.Keep*int(NTracers)*c.base.n {
+		c.extra = n.take(c.co.Keep * int(NTracers) * c.base.n)
+		if n.bad || keep != c.co.Keep {
 			return errWire
 		}
 		c.phase = 1
 	default:
+		return errWire
+	}
+	if n.bad || len(n.v) != 0 {
 		return errWire
 	}
 	c.kind = kind
@@ -313,7 +362,9 @@ func (c *CatchmentRun) WorkUnit(ctx context.Context, state []byte, unit int, pro
 				c.step(ch)
 			}
 		}
-		writeChain(w, ch)
+		b, _ := ch.src.MarshalBinary()
+		w.string(string(b))
+		w.floats(chainNumbers(nil, ch))
 		w.floats(ch.hist)
 		w.floats(ch.warmY)
 		w.floats(ch.warmW)
@@ -340,11 +391,13 @@ func (c *CatchmentRun) PutUnit(unit int, b []byte) error {
 	case c.phase == 0 && unit >= 0 && unit < len(c.chains):
 		ch := c.chains[unit]
 		r := &wireReader{b: b}
-		if err := c.readChain(r, ch); err != nil {
-			return fmt.Errorf("mix: chain %d: %v", unit+1, err)
-		}
+		stream := r.string()
+		n := &numbers{v: r.floats()}
 		hist, wy, ww := r.floats(), r.floats(), r.floats()
 		if r.err != nil || len(hist)%c.np != 0 || len(wy) != len(ww)*c.np {
+			return fmt.Errorf("mix: chain %d: %v", unit+1, errWire)
+		}
+		if err := c.readChain(n, stream, ch); err != nil || len(n.v) != 0 {
 			return fmt.Errorf("mix: chain %d: %v", unit+1, errWire)
 		}
 		ch.hist = append(ch.hist, hist...)
