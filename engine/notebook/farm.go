@@ -219,13 +219,8 @@ func (w *FarmWork) Same(job FarmJob) bool {
 	return w.job.Cell == job.Cell && w.job.Sulfate == job.Sulfate && w.job.Rough == job.Rough && bytes.Equal(w.job.Doc, job.Doc)
 }
 
-// Sample works sample s of the per-sample model and returns its bytes
-// for the Farm's put, calling progress with the fraction of it done.
-func (w *FarmWork) Sample(ctx context.Context, s int, progress func(float64)) ([]byte, error) {
-	return w.Unit(ctx, nil, s, progress)
-}
-
-// Unit works unit s of a job whose State is state, as Sample does: with
+// Unit works unit s of a job whose State is state and returns its bytes
+// for the Farm's put, calling progress with the fraction of it done: with
 // a state, chain or sample s of a round of the catchment-wide model
 // (mix.CatchmentRun.WorkUnit); with none, the per-sample model's sample s.
 func (w *FarmWork) Unit(ctx context.Context, state []byte, s int, progress func(float64)) ([]byte, error) {
