@@ -201,6 +201,12 @@ type CatchmentRun struct {
 	applied              []byte
 	roundDone, roundWork float64
 	putSeen              []bool
+
+	// The convergence figures of the kept steps so far (diags), and the
+	// goroutines that compute them.
+	diagAt  int
+	diagOf  map[int][2]float64
+	workers int
 }
 
 // catchmentStream, drawStream and scatterStream are the second PCG words of
@@ -531,6 +537,7 @@ func InvertCatchment(ctx context.Context, p Problem, o *Options, co *CatchmentOp
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
+	c.workers = workers
 	parallel := func(n int, f func(i int)) {
 		var wg sync.WaitGroup
 		var mu sync.Mutex
@@ -611,15 +618,27 @@ func (c *CatchmentRun) summariseShared() {
 	col := make([]float64, len(c.keep))
 	cat := c.cat
 	cat.MaxRHat, cat.MinESS = 0, math.Inf(1)
+	var idx []int
+	for i, d := range r.dims {
+		if c.seen[d.em] {
+			idx = append(idx, i)
+		}
+	}
+	for e := range c.ems {
+		idx = append(idx, c.nd+e)
+	}
+	figs := c.diags(idx)
+	k := 0
 	for i, d := range r.dims {
 		if !c.seen[d.em] {
 			continue // no sample sees it: its prior, untouched
 		}
 		s := &r.smp[d.t][d.em]
-		for k, x := range c.keep {
-			col[k] = pexp(s.fromLatent(x[i]))
+		for q, x := range c.keep {
+			col[q] = pexp(s.fromLatent(x[i]))
 		}
-		rh, ess := c.diag(i)
+		rh, ess := figs[k][0], figs[k][1]
+		k++
 		lo, hi := pexp(s.fromLatent(-z975)), pexp(s.fromLatent(z975))
 		sr := SharedRatio{EndMember: d.em, Tracer: d.t, Prior: Interval{Lo: lo, Median: pexp(s.fromLatent(0)), Hi: hi},
 			Posterior: interval(col), RHat: rh, ESS: ess}
@@ -627,10 +646,11 @@ func (c *CatchmentRun) summariseShared() {
 		cat.MaxRHat, cat.MinESS = max(cat.MaxRHat, rh), min(cat.MinESS, ess)
 	}
 	for e, j := range c.ems {
-		for k, x := range c.keep {
-			col[k] = c.scatterOf(x[c.nd+e])
+		for q, x := range c.keep {
+			col[q] = c.scatterOf(x[c.nd+e])
 		}
-		rh, ess := c.diag(c.nd + e)
+		rh, ess := figs[k][0], figs[k][1]
+		k++
 		cat.Scatter = append(cat.Scatter, Scatter{EndMember: j, Posterior: interval(col), RHat: rh, ESS: ess})
 	}
 	if len(r.dims) == 0 {

@@ -1,6 +1,10 @@
 package mix
 
-import "math"
+import (
+	"math"
+	"sync"
+	"sync/atomic"
+)
 
 // Convergence of the chains: split R-hat and the multi-chain effective
 // sample size (Gelman et al. 2013, Bayesian Data Analysis, 3rd ed., §11.4
@@ -14,6 +18,7 @@ import "math"
 // smallest ESS (0 when some R-hat is too large: the effective sample
 // sizes, whose autocorrelations cost most, are then not computed).
 func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
+	var ratios []int
 	for i, d := range c.base.dims {
 		if !c.seen[d.em] {
 			continue
@@ -21,16 +26,52 @@ func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
 		if !(c.rhat(i) < RHatLimit) {
 			return false, 0
 		}
+		ratios = append(ratios, i)
 	}
 	minESS = math.Inf(1)
-	for i, d := range c.base.dims {
-		if !c.seen[d.em] {
-			continue
-		}
-		_, ess := c.diag(i)
-		minESS = min(minESS, ess)
+	for _, v := range c.diags(ratios) {
+		minESS = min(minESS, v[1])
 	}
 	return minESS >= float64(c.co.TargetESS), minESS
+}
+
+// diags returns the split R-hat and the effective sample size of each
+// parameter of idx over every chain's kept steps (diag), computed on up to
+// c.workers goroutines (each parameter's figures are the same however
+// many), and keeps them for the kept steps so far: the summary of the
+// shared ratios takes up those of the last convergence check.
+func (c *CatchmentRun) diags(idx []int) [][2]float64 {
+	steps := c.chains[0].t - c.co.Warmup
+	if c.diagAt != steps || c.diagOf == nil {
+		c.diagAt, c.diagOf = steps, map[int][2]float64{}
+	}
+	out := make([][2]float64, len(idx))
+	var todo []int
+	for k, i := range idx {
+		if v, ok := c.diagOf[i]; ok {
+			out[k] = v
+		} else {
+			todo = append(todo, k)
+		}
+	}
+	var wg sync.WaitGroup
+	var next atomic.Int64
+	for range max(1, min(c.workers, len(todo))) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for q := int(next.Add(1)) - 1; q < len(todo); q = int(next.Add(1)) - 1 {
+				k := todo[q]
+				rh, ess := c.diag(idx[k])
+				out[k] = [2]float64{rh, ess}
+			}
+		}()
+	}
+	wg.Wait()
+	for _, k := range todo {
+		c.diagOf[idx[k]] = out[k]
+	}
+	return out
 }
 
 // rhat returns the split R-hat of parameter i over every chain's kept
