@@ -17,7 +17,18 @@ import (
 // yieldToBrowser lets the browser run (paint, handle input) before the
 // calling goroutine continues. time.Sleep does not do this in Go's
 // WebAssembly; waiting on a JavaScript timer does.
-func yieldToBrowser() {
+func yieldToBrowser() { waitFor("setTimeout", 0) }
+
+// afterPaint returns once the browser has painted (the next animation
+// frame) and then handed its thread back to the caller in a task of its own.
+func afterPaint() {
+	waitFor("requestAnimationFrame")
+	yieldToBrowser()
+}
+
+// waitFor calls the global function fn with a callback, and the args
+// after it, and returns once the callback has run.
+func waitFor(fn string, args ...any) {
 	ch := make(chan struct{})
 	var f js.Func
 	f = js.FuncOf(func(js.Value, []js.Value) any {
@@ -25,7 +36,7 @@ func yieldToBrowser() {
 		f.Release()
 		return nil
 	})
-	js.Global().Call("setTimeout", f, 0)
+	js.Global().Call(fn, append([]any{f}, args...)...)
 	<-ch
 }
 

@@ -67,6 +67,8 @@ type rendering struct {
 	docTitle   string         // the browser tab's title as last set
 	focusAfter string         // a field to give the focus once the page has rendered
 	ready      bool           // the first budget has rendered
+	deferred   bool           // the render now running leaves the bodies of cells below the first few for the next (firstDrawn)
+	drawn      bool           // the first budget has rendered whole
 	rows       map[string]int // rows shown per input table
 }
 
@@ -169,6 +171,7 @@ func (c *Root) changed() {
 	c.Unsaved = true
 	c.savePending = true // saved by the recompute at its first yield
 	c.editStart, c.painted = nowMillis(), false
+	c.paintFirst = !c.ready // a budget just opened is drawn before it computes
 	c.recompute(c.S.Doc)
 }
 
@@ -223,9 +226,26 @@ func (c *Root) Compute(ctx vugu.ComputeCtx) {
 		return
 	}
 	c.Cells = c.S.Cells(c.running, c.progress, &c.charts)
+	// The page's first render of a budget draws the bodies of its first
+	// cells only, which fill the screen; the others follow in the next
+	// render, once the browser has painted (Rendered).
+	n := firstDrawn()
+	c.deferred = !c.ready && len(c.Cells) > n
+	if c.deferred {
+		for i := n; i < len(c.Cells); i++ {
+			c.Cells[i].Deferred = true
+		}
+	}
 	c.Headline = Headline(c.Cells, 6)
 	c.Verify, c.Seeds = c.footer()
 	c.BannerV = c.bannerView()
+}
+
+// firstDrawn is how many cells the page's first render of a budget draws
+// whole: with the header and the summary strip, more than the window
+// shows (a cell takes some 200 px or more, the header and strip 250).
+func firstDrawn() int {
+	return max(3, js.Global().Get("innerHeight").Int()/200)
 }
 
 // HoldMillis is the longest the render loop holds a repaint for the quick
@@ -295,9 +315,16 @@ func (c *Root) Rendered() {
 	}
 	if !c.ready && c.S != nil && c.Loading == "" {
 		c.ready = true
-		ds.Set("ready", "1")
 		if b := js.Global().Get("lixivBoot"); b.Truthy() {
 			b.Set("firstRender", nowMillis())
+		}
+		go c.afterFirstPaint(c.deferred)
+	}
+	if c.ready && !c.deferred && !c.drawn {
+		c.drawn = true
+		ds.Set("ready", "1") // every cell is drawn
+		if b := js.Global().Get("lixivBoot"); b.Truthy() {
+			b.Set("allDrawn", nowMillis())
 		}
 	}
 	if c.editStart > 0 && !c.painted {
@@ -331,6 +358,22 @@ func (c *Root) Rendered() {
 			c.stepMillis, c.charts.Millis = 0, 0
 			c.editStart = 0
 		}
+	}
+}
+
+// afterFirstPaint starts the page's workers and its service worker
+// (boot.js) once the browser has painted the page's first render of a
+// budget, and, when that render left cells
+// for the next (rest), renders the page again, whole.
+func (c *Root) afterFirstPaint(rest bool) {
+	afterPaint()
+	Mark("painted")
+	if b := js.Global().Get("lixivBoot"); b.Truthy() && b.Get("painted").Truthy() {
+		b.Call("painted") // the service worker and the workers start
+	}
+	if rest {
+		c.env.Lock()
+		c.env.UnlockRender()
 	}
 }
 

@@ -38,10 +38,12 @@ type runner struct {
 	// (notebook.Document.Quick) has point values, for at most HoldMillis,
 	// so that a quick edit paints once, with its result.
 	quickDone  chan struct{} // closed when the quick pass of the run is done
-	holding    bool          // the render loop waits on quickDone
+	holdDone   chan struct{} // closed when the render loop is to stop holding: the quick pass is done, or the run handed the thread back
+	holding    bool          // the render loop waits on holdDone
 	quickShown bool          // the quick pass's result has been painted
 
-	marked int // the steps marked for the timing harness (Mark)
+	marked     int  // the steps marked for the timing harness (Mark)
+	paintFirst bool // the run lets the page render before it computes (a budget just opened)
 
 	// renderedAt is when the last render ended (Rendered). The run's
 	// repaints are spaced from it as well as from when they were asked
@@ -62,7 +64,7 @@ func (c *runner) recompute(doc *notebook.Document) {
 	c.loopDone = done
 	c.busy = true
 	doc.Quick = true
-	c.quickDone, c.holding, c.quickShown = make(chan struct{}), false, false
+	c.quickDone, c.holdDone, c.holding, c.quickShown = make(chan struct{}), make(chan struct{}), false, false
 	go c.run(ctx, doc, prev, done, c.quickDone)
 }
 
@@ -73,12 +75,28 @@ func (c *runner) hold(ready bool) <-chan struct{} {
 		return nil
 	}
 	select {
-	case <-c.quickDone:
+	case <-c.holdDone:
 		return nil
 	default:
 	}
 	c.holding = true
-	return c.quickDone
+	return c.holdDone
+}
+
+// release ends the render loop's hold for the run whose quick pass is
+// done: the quick pass has its point values, or it hands the thread back
+// to the browser (a slice ran out, or it waits for the workers), so the
+// page repaints now rather than when HoldMillis is up. Call it with the
+// event lock held.
+func (c *runner) release(done chan struct{}) {
+	if done != c.quickDone {
+		return
+	}
+	select {
+	case <-c.holdDone:
+	default:
+		close(c.holdDone)
+	}
 }
 
 // Unhold tells the runner the render loop stopped holding (the quick pass
@@ -103,11 +121,17 @@ func (c *runner) quickPassDone(done chan struct{}) {
 	if c.editStart > 0 {
 		Probe("lixivLastQuick", nowMillis()-c.editStart)
 	}
-	if c.holding && done == c.quickDone {
-		c.holding = false
-		c.env.UnlockOnly() // the render loop renders as it wakes
-		return
+	if c.holding {
+		select {
+		case <-c.holdDone: // released: the render loop has rendered, or renders as it wakes
+		default:
+			c.holding = false
+			close(c.holdDone)
+			c.env.UnlockOnly() // the render loop renders as it wakes
+			return
+		}
 	}
+	c.release(done)
 	c.env.UnlockRender()
 }
 
@@ -125,6 +149,13 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	if prev != nil {
 		<-prev
 	}
+	c.env.Lock()
+	first := c.paintFirst
+	c.paintFirst = false
+	c.env.UnlockOnly()
+	if first { // let the page draw the budget just opened before computing it
+		yieldToBrowser()
+	}
 	// The edit is saved to browser storage at the first yield: after the
 	// quick pass has painted, or at the first hand-back of a long one.
 	saveIfPending := func() {
@@ -141,13 +172,22 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		c.env.UnlockOnly()
 	}()
 	var stepped []string                                   // for the timing harness: when each step began
-	const slice, paintEvery, progressEvery = 40, 250, 1000 // ms
+	const slice, paintEvery, progressEvery = 30, 250, 1000 // ms
 	lastYield, lastPaint := nowMillis(), nowMillis()       // the edit's handler has just painted
 	longest, longestCell := 0.0, ""
 	// The inversions' samples go to the page's workers, if any. Waiting
 	// for them hands the thread back to the browser: the engine's slice
 	// starts again after each wait.
-	doc.Farm = pageFarm(func() { lastYield = nowMillis() })
+	// A quick pass that waits for them is not done within the render
+	// loop's hold, so the page repaints as the wait begins.
+	doc.Farm = nil
+	if f := pageFarm(func() { lastYield = nowMillis() }); f != nil {
+		doc.Farm = releasing{Farm: f, release: func() {
+			c.env.Lock()
+			c.release(quick)
+			c.env.UnlockOnly()
+		}}
+	}
 	// The render loop holds the edit's first repaint for the quick pass
 	// at most HoldMillis; the first hand-back after that lets it paint,
 	// so the run hands back then rather than at the end of its slice.
@@ -161,24 +201,31 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		now := nowMillis()
 		return now-lastYield > slice || (holdDue > 0 && now >= holdDue)
 	}
-	breathe := func() {
-		if d := nowMillis() - lastYield; due() {
-			holdDue = 0
-			if d > longest {
-				longest, longestCell = d, c.running
-			}
-			// Save at this hand-back once the quick pass has painted, or
-			// when it runs long; a short quick pass saves after its paint.
-			select {
-			case <-quick:
+	handBack := func() {
+		holdDue = 0
+		if d := nowMillis() - lastYield; d > longest {
+			longest, longestCell = d, c.running
+		}
+		// Save at this hand-back once the quick pass has painted, or
+		// when it runs long; a short quick pass saves after its paint.
+		// A quick pass that hands back is not done within the hold.
+		select {
+		case <-quick:
+			saveIfPending()
+		default:
+			c.env.Lock()
+			c.release(quick)
+			c.env.UnlockOnly()
+			if nowMillis()-c.editStart > 250 {
 				saveIfPending()
-			default:
-				if nowMillis()-c.editStart > 250 {
-					saveIfPending()
-				}
 			}
-			yieldToBrowser()
-			lastYield = nowMillis()
+		}
+		yieldToBrowser()
+		lastYield = nowMillis()
+	}
+	breathe := func() {
+		if due() {
+			handBack()
 		}
 	}
 	// shown is the running cell the last repaint from here showed, whose
@@ -186,11 +233,23 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 	// page, so between repaints the progress of that cell moves its bar
 	// only, and the page repaints at most every progressEvery ms for it.
 	shown := ""
-	publish := func(final bool) { // call with the lock held
+	publish := func(final bool) { // call with the lock held; it releases it
 		if final || nowMillis()-max(lastPaint, c.renderedAt) > paintEvery {
 			lastPaint = nowMillis()
 			shown = c.running
+			if final {
+				c.env.UnlockRender()
+				return
+			}
+			// The repaint takes a task of its own, so that the browser's
+			// thread is never held for a slice and a render together: the
+			// engine's slice ends, the page renders, the engine goes on.
+			c.env.UnlockOnly()
+			handBack()
+			c.env.Lock()
 			c.env.UnlockRender()
+			yieldToBrowser()
+			lastYield = nowMillis()
 			return
 		}
 		c.env.UnlockOnly()
@@ -288,4 +347,17 @@ func (c *runner) run(ctx context.Context, doc *notebook.Document, prev, done, qu
 		publish(false)
 		breathe()
 	}
+}
+
+// releasing is the page's farm for one run: it ends the render loop's
+// hold (release) before each wait for the workers.
+type releasing struct {
+	notebook.Farm
+	release func()
+}
+
+// Work releases the hold, then hands the job to the workers.
+func (r releasing) Work(ctx context.Context, job notebook.FarmJob, samples []int, put func(int, []byte) error, progress func(float64)) error {
+	r.release()
+	return r.Farm.Work(ctx, job, samples, put, progress)
 }

@@ -40,7 +40,11 @@ type Session struct {
 
 	changed func() // called after every change of the document
 	current []byte // the budget file of the document as it is, or nil
-	opened  []byte // the budget file as it was opened (without results)
+	opened  []byte // the budget file as it was opened (without results), or nil until asked for
+	// openedDoc is a copy of the budget as it was opened, until opened is
+	// first asked for: writing the file takes a while, and a budget just
+	// opened is drawn first.
+	openedDoc *notebook.Document
 }
 
 // Origin says where the open budget came from, as far as the page must
@@ -67,7 +71,15 @@ type entry struct {
 
 // Edited reports whether the document differs from the file as it was
 // opened, so that its stored results no longer describe it.
-func (s *Session) Edited() bool { return !bytes.Equal(s.Current(), s.opened) }
+func (s *Session) Edited() bool { return !bytes.Equal(s.Current(), s.openedFile()) }
+
+// openedFile returns the budget file as it was opened (without results).
+func (s *Session) openedFile() []byte {
+	if s.opened == nil && s.openedDoc != nil {
+		s.opened, s.openedDoc = s.openedDoc.Marshal(), nil
+	}
+	return s.opened
+}
 
 // Current returns the budget file of the document as it stands (without
 // results), kept between edits so that undo and autosave share one copy.
@@ -87,7 +99,7 @@ func NewSession(doc *notebook.Document, fileName string, o Origin) *Session {
 
 func (s *Session) reset(doc *notebook.Document, fileName string, o Origin) {
 	s.Doc, s.FileName, s.Origin = doc, fileName, o
-	s.opened = doc.Marshal()
+	s.opened, s.openedDoc = nil, doc.Clone()
 	s.CellErr = map[string]string{}
 	s.Notes = map[string][]string{}
 	s.lastOut = map[string]*notebook.Output{}
@@ -198,7 +210,7 @@ func (s *Session) SetDemo(d *notebook.Document) { s.Demo, s.demoText = d, nil }
 func (s *Session) Saved() {
 	s.Origin.Checked = true
 	s.current = nil
-	s.opened = s.Current()
+	s.opened, s.openedDoc = s.Current(), nil
 }
 
 // SetParam sets one setting of a cell from text. Text that is the

@@ -24,6 +24,7 @@ type CellView struct {
 	TableOrigin                string     // where the input table's values come from when not the user ("the demo", "the global preset")
 	EditErr                    string     // last rejected edit
 	Collapsed                  bool
+	Deferred                   bool // its body is drawn in the render after the page's first (Root.Compute)
 	Params                     []ParamView
 	Roles                      []RoleView
 	HasTable                   bool

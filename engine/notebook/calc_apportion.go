@@ -152,13 +152,17 @@ func (a *Apportioned) keptSplit(i, k int, buf *mix.Split) (d int, split *mix.Spl
 
 // keptWeights returns the weights of each sample's kept draws, one slice
 // for every caller (flux.Cache shares the draws taken among the quantities
-// built on it).
-func (a *Apportioned) keptWeights() [][]float64 {
+// built on it). tick, when not nil, is called before each sample's, so
+// that a caller on one goroutine can hand control back to its host.
+func (a *Apportioned) keptWeights(tick func()) [][]float64 {
 	a.kwOnce.Do(func() {
 		a.kw = make([][]float64, len(a.kept))
 		for i, ks := range a.kept {
 			if len(ks) == 0 {
 				continue
+			}
+			if tick != nil {
+				tick()
 			}
 			a.kw[i] = make([]float64, len(ks))
 			for k, d := range ks {

@@ -98,7 +98,7 @@ func (v *Fluxes) quantity(name string, mass float64, withDraws bool, parts []int
 		q.Parts = append(q.Parts, p)
 	}
 	if draws {
-		q.Weights = a.keptWeights()
+		q.Weights = a.keptWeights(v.tick)
 	}
 	var out [mix.NCations]float64
 	var buf mix.Split

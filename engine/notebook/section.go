@@ -1,6 +1,7 @@
 package notebook
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"strings"
@@ -148,6 +149,9 @@ func migrate1to2(old map[string]json.RawMessage) (map[string]json.RawMessage, er
 	}
 	changed := false
 	for i, raw := range cells {
+		if !bytes.Contains(raw, []byte("section")) && !bytes.Contains(raw, []byte(`\u`)) {
+			continue // no key of that name, even escaped: nothing to move (and no second parse)
+		}
 		var m map[string]json.RawMessage
 		if json.Unmarshal(raw, &m) != nil || m == nil {
 			continue // a broken cell stays as it is

@@ -4,8 +4,10 @@ package browsertest
 
 import (
 	"encoding/json"
+	"fmt"
 	"os"
 	"sort"
+	"strings"
 	"testing"
 
 	"github.com/chromedp/cdproto/cdp"
@@ -14,16 +16,21 @@ import (
 )
 
 // TestProfileDemo records, without asserting anything, a CPU profile of
-// the page's own thread from navigation until the demo is computed, and
-// logs the functions that take the most of it (self time). Set
-// LIXIV_PROFILE to a file to run it (`make browser-profile`); the profile
-// is written there, for Chromium's developer tools. The Web Workers are
-// other threads and are not in it.
+// the page's own thread and logs the functions that take the most of it
+// (self time), and those of its longest stretch without an idle moment
+// (self and total time). Set LIXIV_PROFILE to a file to run it (`make
+// browser-profile`); the profile is written there, for Chromium's
+// developer tools. LIXIV_PROFILE_OF says what is profiled: "demo" (the
+// default) from navigation until the demo is computed, "edit" an edit of a
+// rain ratio with the apportionment at 2,000 draws, until it is computed,
+// "draws" a run of the demo at 40,000 draws. The Web Workers are other
+// threads and are not in it.
 func TestProfileDemo(t *testing.T) {
 	out := os.Getenv("LIXIV_PROFILE")
 	if out == "" {
 		t.Skip("LIXIV_PROFILE not set")
 	}
+	of := os.Getenv("LIXIV_PROFILE_OF")
 	srv := startDemoServer(t)
 	ctx := newBrowser(t, "")
 	if _, err := chromedp.Call(ctx, profiler.Enable, cdp.Empty{}); err != nil {
@@ -32,11 +39,35 @@ func TestProfileDemo(t *testing.T) {
 	if _, err := chromedp.Call(ctx, profiler.SetSamplingInterval, profiler.SetSamplingIntervalParams{Interval: 200}); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := chromedp.Call(ctx, profiler.Start, cdp.Empty{}); err != nil {
-		t.Fatal(err)
+	start := func() {
+		if _, err := chromedp.Call(ctx, profiler.Start, cdp.Empty{}); err != nil {
+			t.Fatal(err)
+		}
 	}
-	open(t, ctx, srv.URL)
-	waitIdle(t, ctx)
+	var what string
+	switch of {
+	case "", "demo":
+		what = "from navigation to the demo computed"
+		start()
+		open(t, ctx, srv.URL)
+		waitIdle(t, ctx)
+	case "edit", "draws":
+		open(t, ctx, srv.URL)
+		waitIdle(t, ctx)
+		ap := eval[string](t, ctx, `document.querySelector("section.kind-apportionment").id`)[len("cell-"):]
+		if of == "edit" {
+			setField(t, ctx, "#p-"+ap+"-draws", "2000")
+			what = "an edit of a rain ratio at 2,000 draws, until computed"
+			start()
+			edit(t, ctx, "#p-"+cellOf(t, ctx, "atmosphere")+"-na_per_cl", "0.811")
+		} else {
+			what = "a run at 40,000 draws"
+			start()
+			edit(t, ctx, "#p-"+ap+"-draws", "40000")
+		}
+	default:
+		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit or draws", of)
+	}
 	res, err := chromedp.Call(ctx, profiler.Stop, cdp.Empty{})
 	if err != nil {
 		t.Fatal(err)
@@ -50,36 +81,85 @@ func TestProfileDemo(t *testing.T) {
 		t.Fatal(err)
 	}
 	t.Logf("profile: wrote %s", out)
+	logProfile(t, p, what)
+}
+
+// logProfile logs the heaviest functions of a profile by self time, then
+// its longest busy stretch (no idle or garbage-collector-free sample
+// between) with its heaviest functions by self and by total time.
+func logProfile(t *testing.T, p *profiler.Profile, what string) {
 	name := map[int64]string{}
+	parent := map[int64]int64{}
 	for _, n := range p.Nodes {
 		name[n.ID] = n.CallFrame.FunctionName
 		if name[n.ID] == "" {
 			name[n.ID] = "(anonymous " + n.CallFrame.URL + ")"
 		}
-	}
-	self := map[string]float64{}
-	total := 0.0
-	for i, id := range p.Samples {
-		if i < len(p.TimeDeltas) {
-			d := float64(p.TimeDeltas[i]) / 1000
-			self[name[id]] += d
-			total += d
+		for _, c := range n.Children {
+			parent[c] = n.ID
 		}
 	}
 	type fn struct {
 		name string
 		ms   float64
 	}
-	var fs []fn
-	for n, ms := range self {
-		fs = append(fs, fn{n, ms})
+	top := func(m map[string]float64, n int) []fn {
+		var fs []fn
+		for k, ms := range m {
+			fs = append(fs, fn{k, ms})
+		}
+		sort.Slice(fs, func(i, j int) bool { return fs[i].ms > fs[j].ms })
+		if len(fs) > n {
+			fs = fs[:n]
+		}
+		return fs
 	}
-	sort.Slice(fs, func(i, j int) bool { return fs[i].ms > fs[j].ms })
-	t.Logf("profile: the page's thread, %.0f ms from navigation to the demo computed", total)
-	for i, f := range fs {
-		if i == 40 {
+	self := map[string]float64{}
+	total := 0.0
+	// The longest stretch of samples none of which is idle.
+	bestFrom, bestTo, bestMs, from, run := 0, 0, 0.0, 0, 0.0
+	for i, id := range p.Samples {
+		if i >= len(p.TimeDeltas) {
 			break
 		}
+		d := float64(p.TimeDeltas[i]) / 1000
+		self[name[id]] += d
+		total += d
+		if name[id] == "(idle)" {
+			from, run = i+1, 0
+			continue
+		}
+		run += d
+		if run > bestMs {
+			bestFrom, bestTo, bestMs = from, i+1, run
+		}
+	}
+	t.Logf("profile: the page's thread, %.0f ms, %s", total, what)
+	for _, f := range top(self, 40) {
 		t.Logf("profile: %7.0f ms %5.1f %%  %s", f.ms, 100*f.ms/total, f.name)
 	}
+	self, incl := map[string]float64{}, map[string]float64{}
+	for i := bestFrom; i < bestTo; i++ {
+		d := float64(p.TimeDeltas[i]) / 1000
+		id := p.Samples[i]
+		self[name[id]] += d
+		seen := map[string]bool{}
+		for n, ok := id, true; ok; n, ok = parent[n] {
+			if !seen[name[n]] {
+				seen[name[n]] = true
+				incl[name[n]] += d
+			}
+		}
+	}
+	t.Logf("profile: the longest busy stretch, %.0f ms:", bestMs)
+	var line []string
+	for _, f := range top(self, 25) {
+		line = append(line, fmt.Sprintf("%s %.1f", f.name, f.ms))
+	}
+	t.Logf("profile: self (ms): %s", strings.Join(line, "; "))
+	line = line[:0]
+	for _, f := range top(incl, 60) {
+		line = append(line, fmt.Sprintf("%s %.1f", f.name, f.ms))
+	}
+	t.Logf("profile: total (ms): %s", strings.Join(line, "; "))
 }

@@ -11,9 +11,24 @@
     throw new Error("eval is disabled on this page");
   };
   window.lixivBoot = { start: performance.now() };
-  if ("serviceWorker" in navigator && (location.protocol === "https:" || location.hostname === "127.0.0.1" || location.hostname === "localhost")) {
-    navigator.serviceWorker.register("sw.js").catch(function (e) { console.warn("service worker:", e); });
+  // The offline service worker is registered, and the workers started,
+  // once the page has painted its first render (lixivBoot.painted, which
+  // the page calls), or a few seconds after the load: on a first visit the
+  // service worker fetches and stores every file, which would take the
+  // cores the first render draws with.
+  var registered = false;
+  function register() {
+    if (registered) { return; }
+    registered = true;
+    if ("serviceWorker" in navigator && (location.protocol === "https:" || location.hostname === "127.0.0.1" || location.hostname === "localhost")) {
+      navigator.serviceWorker.register("sw.js").catch(function (e) { console.warn("service worker:", e); });
+    }
   }
+  window.lixivBoot.painted = function () {
+    register();
+    if (window.lixivPool && window.lixivPool.start) { window.lixivPool.start(); }
+  };
+  window.addEventListener("load", function () { setTimeout(register, 3000); });
   function fail(e) {
     var el = document.getElementById("lixiv");
     if (el) { el.textContent = "The notebook could not start: " + e; }
@@ -108,13 +123,22 @@
       j.onSample(m.sample, m.bytes);
       if (job) { report(); feed(slot); }
     }
-    for (var i = 0; i < size; i++) { spawn(i); }
+    // The workers start once the page has painted its first render
+    // (lixivBoot.painted), or with the first job: started with the page,
+    // they would take the cores it draws with.
+    var started = false;
+    p.start = function () {
+      if (started) { return; }
+      started = true;
+      for (var i = 0; i < size; i++) { spawn(i); }
+    };
     p.size = size;
     // run starts a job (ending the one before) for the samples listed
     // (their numbers; or the chains or samples of a round of the
     // catchment-wide model, whose state each worker gets with the budget)
     // and returns its cancel.
     p.run = function (doc, cell, sulfate, rough, samples, onSample, onProgress, onError, state) {
+      p.start();
       if (job) { stop(); }
       var id = ++seq;
       p.jobs++;
