@@ -215,11 +215,9 @@ type CatchmentRun struct {
 	roundDone, roundWork float64
 	putSeen              []bool
 
-	// The convergence figures of the kept steps so far (diags), and the
-	// goroutines that compute them.
-	diagAt  int
-	diagOf  map[int][2]float64
-	workers int
+	// The convergence figures of the kept steps so far (diags).
+	diagAt int
+	diagOf map[int][2]float64
 }
 
 // catchmentStream, drawStream and scatterStream are the second PCG words of
@@ -553,7 +551,6 @@ func InvertCatchment(ctx context.Context, p Problem, o *Options, co *CatchmentOp
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	c.workers = workers
 	parallel := func(n int, f func(i int)) {
 		var wg sync.WaitGroup
 		var mu sync.Mutex

@@ -1,10 +1,6 @@
 package mix
 
-import (
-	"math"
-	"sync"
-	"sync/atomic"
-)
+import "math"
 
 // Convergence of the chains: split R-hat and the multi-chain effective
 // sample size (Gelman et al. 2013, Bayesian Data Analysis, 3rd ed., §11.4
@@ -36,40 +32,22 @@ func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
 }
 
 // diags returns the split R-hat and the effective sample size of each
-// parameter of idx over every chain's kept steps (diag), computed on up to
-// c.workers goroutines (each parameter's figures are the same however
-// many), and keeps them for the kept steps so far: the summary of the
-// shared ratios takes up those of the last convergence check.
+// parameter of idx over every chain's kept steps (diag), and keeps them for
+// the kept steps so far: the summary of the shared ratios takes up those
+// of the last convergence check.
 func (c *CatchmentRun) diags(idx []int) [][2]float64 {
 	steps := c.chains[0].t - c.co.Warmup
 	if c.diagAt != steps || c.diagOf == nil {
 		c.diagAt, c.diagOf = steps, map[int][2]float64{}
 	}
 	out := make([][2]float64, len(idx))
-	var todo []int
 	for k, i := range idx {
-		if v, ok := c.diagOf[i]; ok {
-			out[k] = v
-		} else {
-			todo = append(todo, k)
+		v, ok := c.diagOf[i]
+		if !ok {
+			v[0], v[1] = c.diag(i)
+			c.diagOf[i] = v
 		}
-	}
-	var wg sync.WaitGroup
-	var next atomic.Int64
-	for range max(1, min(c.workers, len(todo))) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for q := int(next.Add(1)) - 1; q < len(todo); q = int(next.Add(1)) - 1 {
-				k := todo[q]
-				rh, ess := c.diag(idx[k])
-				out[k] = [2]float64{rh, ess}
-			}
-		}()
-	}
-	wg.Wait()
-	for _, k := range todo {
-		c.diagOf[idx[k]] = out[k]
+		out[k] = v
 	}
 	return out
 }
