@@ -10,7 +10,8 @@ import (
 )
 
 // workers is the page's Web Workers (boot.js's lixivPool) as the
-// document's notebook.Farm: the samples of each per-sample inversion are
+// document's notebook.Farm: the samples of each per-sample inversion, and
+// the chains and samples of each round of the catchment-wide model, are
 // worked there, so the page's own thread only draws while they compute.
 // waited is called after each wait for them: waiting hands the page's
 // thread back to the browser, which the page's runner counts as a yield.
@@ -76,7 +77,12 @@ func (w workers) Work(ctx context.Context, job notebook.FarmJob, samples []int, 
 	for i, s := range samples {
 		list[i] = s
 	}
-	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, list, onSample, onProgress, onError)
+	state := js.Null()
+	if job.State != nil {
+		state = js.Global().Get("Uint8Array").New(len(job.State))
+		js.CopyBytesToJS(state, job.State)
+	}
+	cancel := w.pool.Call("run", doc, job.Cell, job.Sulfate, job.Rough, list, onSample, onProgress, onError, state)
 	for got := 0; got < n; {
 		select {
 		case <-ctx.Done():

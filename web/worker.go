@@ -12,7 +12,8 @@ import (
 
 // ServeWorker makes this instance of the page's module a copy of the
 // engine on a Web Worker (worker.js): it works one sample of an inversion
-// per request, in order, keeping the job's budget and inversion for its
+// (or one chain or sample of a round of the catchment-wide model) per
+// request, in order, keeping the job's budget and inversion for its
 // next samples, and posts back the sample's bytes, its progress every
 // tenth of a second, or the error, never a silent stop. It does not
 // return.
@@ -25,6 +26,7 @@ func ServeWorker() {
 	var (
 		work  *notebook.FarmWork
 		doc   []byte
+		state []byte // the catchment-wide model's round, nil for the per-sample model
 		docOf int
 	)
 	post := js.Global().Get("lixivPost")
@@ -34,12 +36,17 @@ func ServeWorker() {
 			doc = make([]byte, d.Length())
 			js.CopyBytesToGo(doc, d)
 			docOf = id
+			state = nil
+			if st := m.Get("state"); !st.IsUndefined() && !st.IsNull() {
+				state = make([]byte, st.Length())
+				js.CopyBytesToGo(state, st)
+			}
 		}
 		if docOf != id {
 			post.Invoke(id, s, js.Null(), fmt.Sprintf("no budget for job %d", id), 0)
 			continue
 		}
-		job := notebook.FarmJob{Doc: doc, Cell: m.Get("cell").String(), Sulfate: m.Get("sulfate").String(), Rough: m.Get("rough").Bool()}
+		job := notebook.FarmJob{Doc: doc, Cell: m.Get("cell").String(), Sulfate: m.Get("sulfate").String(), Rough: m.Get("rough").Bool(), State: state}
 		last := time.Now()
 		b, err := func() (b []byte, err error) {
 			defer func() {
@@ -54,7 +61,7 @@ func ServeWorker() {
 					return nil, err
 				}
 			}
-			return work.Sample(context.Background(), s, func(f float64) {
+			return work.Unit(context.Background(), job.State, s, func(f float64) {
 				if time.Since(last) > 100*time.Millisecond {
 					last = time.Now()
 					post.Invoke(id, s, js.Null(), "", f)
@@ -62,7 +69,11 @@ func ServeWorker() {
 			})
 		}()
 		if err != nil {
-			post.Invoke(id, s, js.Null(), "sample "+fmt.Sprint(s+1)+": "+err.Error(), 0)
+			what := "sample "
+			if state != nil {
+				what = "part " // a chain or a sample of the catchment-wide model's round
+			}
+			post.Invoke(id, s, js.Null(), what+fmt.Sprint(s+1)+": "+err.Error(), 0)
 			continue
 		}
 		out := js.Global().Get("Uint8Array").New(len(b))

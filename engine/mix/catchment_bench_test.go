@@ -7,16 +7,20 @@ import (
 
 // benchmarkCatchment runs the catchment-wide model on a synthetic
 // catchment of n samples mixed from k sources, on one goroutine (as the
-// page's worker does), and reports the chains' outcome: kept steps per
+// page does without workers) or, with workers, on as many, and reports the chains' outcome: kept steps per
 // chain, the largest split R-hat and the smallest ESS of the shared ratios
 // (the goal: R-hat below 1.01 and ESS of at least 400 for every
 // shared ratio).
-func benchmarkCatchment(b *testing.B, n, k int, extra []Tracer, co *CatchmentOptions) {
+func benchmarkCatchment(b *testing.B, n, k int, extra []Tracer, co *CatchmentOptions, workers ...int) {
+	w := 1
+	if len(workers) > 0 {
+		w = workers[0]
+	}
 	sc := makeCatchment(n, k, 7)
 	sc.prob.Tracers = append(sc.prob.Tracers, extra...)
 	var c *Catchment
 	for b.Loop() {
-		res, err := InvertCatchment(context.Background(), sc.prob, &Options{Seed: 1, Workers: 1}, co)
+		res, err := InvertCatchment(context.Background(), sc.prob, &Options{Seed: 1, Workers: w}, co)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -45,10 +49,20 @@ func benchmarkCatchment(b *testing.B, n, k int, extra []Tracer, co *CatchmentOpt
 // per-sample model, MinSpare).
 func BenchmarkCatchment100x4(b *testing.B) { benchmarkCatchment(b, 100, 4, []Tracer{KNa}, nil) }
 
+// BenchmarkCatchment100x4Two is BenchmarkCatchment100x4 on two goroutines
+// (the chains, then the samples, shared among them; the same result).
+func BenchmarkCatchment100x4Two(b *testing.B) { benchmarkCatchment(b, 100, 4, []Tracer{KNa}, nil, 2) }
+
 // BenchmarkCatchment100x4Thin is four end-members read by four tracers,
 // run past the counting check, as the simulation study does.
 func BenchmarkCatchment100x4Thin(b *testing.B) {
 	benchmarkCatchment(b, 100, 4, nil, &CatchmentOptions{thinAllowed: true})
+}
+
+// BenchmarkCatchment100x4ThinTwo is BenchmarkCatchment100x4Thin on two
+// goroutines.
+func BenchmarkCatchment100x4ThinTwo(b *testing.B) {
+	benchmarkCatchment(b, 100, 4, nil, &CatchmentOptions{thinAllowed: true}, 2)
 }
 
 // BenchmarkCatchment100x3 is 100 samples of silicate, carbonate and

@@ -10,6 +10,7 @@ import (
 // and the scatters' parameters v (scatterOf).
 type chain struct {
 	rng      *rand.Rand
+	src      *rand.PCG // rng's source, whose state travels with the chain (catchment_farm.go)
 	x, prop  []float64 // current state and proposal
 	z        []float64
 	lp, lq   float64   // log posterior and log proposal density at x
@@ -32,7 +33,8 @@ type chain struct {
 // search.
 func (c *CatchmentRun) newChain(k int) *chain {
 	r := c.base
-	ch := &chain{rng: rand.New(rand.NewPCG(r.opt.Seed^chainStream, uint64(k))), goal: c.co.Batch}
+	src := rand.NewPCG(r.opt.Seed^chainStream, uint64(k))
+	ch := &chain{rng: rand.New(src), src: src, goal: c.co.Batch}
 	ch.x, ch.prop, ch.z = make([]float64, c.np), make([]float64, c.np), make([]float64, c.np)
 	ch.bm = make([]float64, c.np)
 	for t := range NTracers {

@@ -14,6 +14,7 @@ import "math"
 // smallest ESS (0 when some R-hat is too large: the effective sample
 // sizes, whose autocorrelations cost most, are then not computed).
 func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
+	var ratios []int
 	for i, d := range c.base.dims {
 		if !c.seen[d.em] {
 			continue
@@ -21,16 +22,34 @@ func (c *CatchmentRun) diagnose() (ok bool, minESS float64) {
 		if !(c.rhat(i) < RHatLimit) {
 			return false, 0
 		}
+		ratios = append(ratios, i)
 	}
 	minESS = math.Inf(1)
-	for i, d := range c.base.dims {
-		if !c.seen[d.em] {
-			continue
-		}
-		_, ess := c.diag(i)
-		minESS = min(minESS, ess)
+	for _, v := range c.diags(ratios) {
+		minESS = min(minESS, v[1])
 	}
 	return minESS >= float64(c.co.TargetESS), minESS
+}
+
+// diags returns the split R-hat and the effective sample size of each
+// parameter of idx over every chain's kept steps (diag), and keeps them for
+// the kept steps so far: the summary of the shared ratios takes up those
+// of the last convergence check.
+func (c *CatchmentRun) diags(idx []int) [][2]float64 {
+	steps := c.chains[0].t - c.co.Warmup
+	if c.diagAt != steps || c.diagOf == nil {
+		c.diagAt, c.diagOf = steps, map[int][2]float64{}
+	}
+	out := make([][2]float64, len(idx))
+	for k, i := range idx {
+		v, ok := c.diagOf[i]
+		if !ok {
+			v[0], v[1] = c.diag(i)
+			c.diagOf[i] = v
+		}
+		out[k] = v
+	}
+	return out
 }
 
 // rhat returns the split R-hat of parameter i over every chain's kept

@@ -79,6 +79,14 @@
 // it fails, the per-sample model runs and Catchment.Fallback says why. Its draws are joint (Result.Joint): draw d
 // of every sample comes from the same shared ratios.
 //
+// A catchment-wide run can share its work with other copies of the engine
+// (the page's Web Workers) round by round (catchment_farm.go): Round
+// returns the next round's state and units (the chains' mode searches; the
+// chains' steps between two points at which they wait for each other; the
+// samples' summaries), WorkUnit works a unit in another run of the same
+// problem, options and seed, and PutUnit takes its result in, bit for bit
+// what the run would have computed itself.
+//
 // The waters may be raw river chemistry, with the rain end-member in the
 // inversion (DefaultEndMembers(true)), or corrected by engine/correct, in
 // which case rain is left out (DefaultEndMembers(false)).

@@ -665,20 +665,23 @@ func conclude(a *Apportioned, s *ApportionmentSettings, n int, summary bool, out
 const catchmentKeep = 1000
 
 // invert runs the inverse model (or, with co, the catchment-wide model) on
-// the problem: on one goroutine in chunks, the progress callback between
-// them, in the browser or with one worker (the chunk size does not change
-// the result); through the document's Farm when it has one (per-sample
-// model only); otherwise on every worker. A run stopped at the draws it
+// the problem: through the document's Farm when it has one; otherwise on
+// one goroutine in chunks, the progress callback between them, in the
+// browser or with one worker (the chunk size does not change the result);
+// otherwise on every worker. A run stopped at the draws it
 // may keep (mix.ErrTooManyKept) is an error that names the settings.
 func invert(ctx context.Context, iv inverter, report func(done, total int), p mix.Problem, mo *mix.Options, co *mix.CatchmentOptions) (*mix.Result, error) {
 	switch {
-	case iv.capture != nil && co == nil: // FarmWork takes the problem
+	case iv.capture != nil: // FarmWork takes the problem
 		*iv.capture, *iv.problem = *mo, p
+		if co != nil {
+			*iv.catchment = *co
+		}
 		return nil, errCaptured
-	case iv.capture != nil:
-		return nil, errors.New("the catchment-wide model is not worked sample by sample")
 	case iv.farm != nil && co == nil:
 		return iv.farmed(ctx, report, p, mo)
+	case iv.farm != nil:
+		return iv.farmedCatchment(ctx, report, p, mo, co)
 	}
 	if iv.workers == 1 || runtime.GOOS == "js" {
 		type stepper interface {

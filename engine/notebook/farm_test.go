@@ -20,10 +20,15 @@ type copies struct {
 	n    int
 	fail int // sample whose copy fails, or -1
 	jobs atomic.Int64
+	// rounds counts the jobs that are rounds of the catchment-wide model.
+	rounds atomic.Int64
 }
 
 func (f *copies) Work(ctx context.Context, job FarmJob, samples []int, put func(int, []byte) error, progress func(float64)) error {
 	f.jobs.Add(1)
+	if job.State != nil {
+		f.rounds.Add(1)
+	}
 	var next atomic.Int64
 	var mu sync.Mutex
 	errs := make([]error, f.n)
@@ -50,7 +55,7 @@ func (f *copies) Work(ctx context.Context, job FarmJob, samples []int, put func(
 						return
 					}
 				}
-				b, err := w.Sample(ctx, s, nil)
+				b, err := w.Unit(ctx, job.State, s, nil)
 				if err == nil {
 					mu.Lock()
 					err = put(s, b)
@@ -68,48 +73,63 @@ func (f *copies) Work(ctx context.Context, job FarmJob, samples []int, put func(
 	return errors.Join(errs...)
 }
 
-// TestFarmedSameResults computes the demo budget, quick pass first as the
-// page does, with its samples worked by three copies of the engine: the
+// TestFarmedSameResults computes example budgets, quick pass first as
+// the page does, with their inversions worked by copies of the engine: the
 // results checksum equals the one stored in the file (computed
-// in-process), and the apportionment and the CO2 cell's second sulfate
-// origin both went through the farm. A copy that fails is named in the
-// cell.
+// in-process). In the demo the apportionment and the CO2 cell's second
+// sulfate origin both go through the farm; in the catchment-wide example
+// the chains and samples of its model, round by round. A copy that fails
+// is named in the cell.
 func TestFarmedSameResults(t *testing.T) {
 	if runtime.GOOS == "js" {
-		t.Skip("one thread: in WebAssembly the page's workers are checked by the browser test TestWorkersSameResults")
+		t.Skip("one thread: in WebAssembly the page's workers are checked by the browser tests TestWorkersSameResults and TestWorkersCatchmentSameResults")
 	}
-	data, err := os.ReadFile(filepath.Join("..", "..", "examples", "corrie-vale", "corrie-vale.lixiv.json"))
-	if err != nil {
-		t.Fatal(err)
+	cases := []struct {
+		example      string
+		copies, fail int   // the copies, and the unit of the copy that fails
+		jobs, rounds int64 // the fewest jobs, and of them rounds of the catchment-wide model
+		why          string
+	}{
+		{"corrie-vale", 3, 3, 3, 0, "the quick and full apportionment and the CO2 cell's second origin"},
+		{"scarrow-ghyll", 2, 1, 6, 6, "the searches, the chains' rounds and the samples of the quick and the full pass"},
 	}
-	d, err := Parse(data, "corrie-vale.lixiv.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	f := &copies{n: 3, fail: -1}
-	d.Farm, d.Quick = f, true
-	if err := d.Recompute(context.Background(), nil); err != nil {
-		t.Fatal(err)
-	}
-	if v, err := d.Verify(); err != nil || !v.Match {
-		t.Errorf("farmed results: %+v %v, want the stored checksum", v, err)
-	}
-	if got := f.jobs.Load(); got < 3 {
-		t.Errorf("%d inversions farmed, want at least the quick and full apportionment and the CO2 cell's second origin", got)
-	}
+	for _, tc := range cases {
+		t.Run(tc.example, func(t *testing.T) {
+			name := tc.example + ".lixiv.json"
+			data, err := os.ReadFile(filepath.Join("..", "..", "examples", tc.example, name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			d, err := Parse(data, name)
+			if err != nil {
+				t.Fatal(err)
+			}
+			f := &copies{n: tc.copies, fail: -1}
+			d.Farm, d.Quick = f, true
+			if err := d.Recompute(context.Background(), nil); err != nil {
+				t.Fatal(err)
+			}
+			if v, err := d.Verify(); err != nil || !v.Match {
+				t.Errorf("farmed results: %+v %v, want the stored checksum", v, err)
+			}
+			if jobs, rounds := f.jobs.Load(), f.rounds.Load(); jobs < tc.jobs || rounds < tc.rounds {
+				t.Errorf("%d jobs farmed, %d of them rounds of the catchment-wide model; want at least %d and %d: %s", jobs, rounds, tc.jobs, tc.rounds, tc.why)
+			}
 
-	d, _ = Parse(data, "corrie-vale.lixiv.json")
-	d.Farm = &copies{n: 2, fail: 3}
-	if err := d.Recompute(context.Background(), nil); err != nil {
-		t.Fatal(err)
-	}
-	ap := ""
-	for _, c := range d.Cells {
-		if c.Kind == KindApportionment {
-			ap = c.ID
-		}
-	}
-	if st, err := d.Status(ap); st != Problem || err == nil || !strings.Contains(err.Error(), "engine copy") {
-		t.Errorf("apportionment with a failed copy: %v %v, want a problem naming the copy", st, err)
+			d, _ = Parse(data, name)
+			d.Farm = &copies{n: 2, fail: tc.fail}
+			if err := d.Recompute(context.Background(), nil); err != nil {
+				t.Fatal(err)
+			}
+			ap := ""
+			for _, c := range d.Cells {
+				if c.Kind == KindApportionment {
+					ap = c.ID
+				}
+			}
+			if st, err := d.Status(ap); st != Problem || err == nil || !strings.Contains(err.Error(), "engine copy") {
+				t.Errorf("apportionment with a failed copy: %v %v, want a problem naming the copy", st, err)
+			}
+		})
 	}
 }

@@ -101,7 +101,7 @@
     function feed(slot) {
       if (!job || slot.busy !== null || job.next >= job.n) { return; }
       var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
-      if (slot.job !== job.id) { m.doc = job.doc; slot.job = job.id; }
+      if (slot.job !== job.id) { m.doc = job.doc; m.state = job.state; slot.job = job.id; }
       slot.busy = job.id;
       slot.worker.postMessage(m);
     }
@@ -134,13 +134,15 @@
     };
     p.size = size;
     // run starts a job (ending the one before) for the samples listed
-    // (their numbers) and returns its cancel.
-    p.run = function (doc, cell, sulfate, rough, samples, onSample, onProgress, onError) {
+    // (their numbers; or the chains or samples of a round of the
+    // catchment-wide model, whose state each worker gets with the budget)
+    // and returns its cancel.
+    p.run = function (doc, cell, sulfate, rough, samples, onSample, onProgress, onError, state) {
       p.start();
       if (job) { stop(); }
       var id = ++seq;
       p.jobs++;
-      job = { id: id, doc: doc, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {},
+      job = { id: id, doc: doc, state: state || null, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {},
         onSample: onSample, onProgress: onProgress, onError: onError };
       slots.forEach(feed);
       return function () { if (job && job.id === id) { stop(); } };
