@@ -3,9 +3,9 @@ package mineral
 import (
 	"fmt"
 	"math"
-	"regexp"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // Mineral is a phase of the mass balance: a formula with a name and where
@@ -103,10 +103,64 @@ func (f Formula) without(el string) Formula {
 	return out
 }
 
-var (
-	plagPattern = regexp.MustCompile(`(?i)^plagioclase\s*an\s*([0-9]+(?:\.[0-9]+)?)$`)
-	hydrateDot  = regexp.MustCompile(`\.[0-9]+H2O`)
-)
+// plagioclaseAn returns NN of "plagioclase AnNN" (letter case ignored,
+// spaces optional, NN a number with an optional decimal part), or false.
+func plagioclaseAn(e string) (string, bool) {
+	rest, ok := foldPrefix(e, "plagioclase")
+	if !ok {
+		return "", false
+	}
+	if rest, ok = foldPrefix(strings.TrimLeft(rest, asciiSpace), "an"); !ok {
+		return "", false
+	}
+	num := strings.TrimLeft(rest, asciiSpace)
+	whole, frac, dot := strings.Cut(num, ".")
+	if !allDigits(whole) || dot && !allDigits(frac) {
+		return "", false
+	}
+	return num, true
+}
+
+// asciiSpace is what a regular expression's \s matches.
+const asciiSpace = "\t\n\f\r "
+
+// foldPrefix removes prefix p from s, matching letters under Unicode's
+// simple case folding (as strings.EqualFold does), rune by rune.
+func foldPrefix(s, p string) (string, bool) {
+	for _, pr := range p {
+		r, n := utf8.DecodeRuneInString(s)
+		if n == 0 || !strings.EqualFold(string(r), string(pr)) {
+			return "", false
+		}
+		s = s[n:]
+	}
+	return s, true
+}
+
+// allDigits reports whether s is one or more ASCII digits.
+func allDigits(s string) bool {
+	return s != "" && strings.Trim(s, "0123456789") == ""
+}
+
+// hydrateDot reports whether text holds "." followed by digits and "H2O",
+// a decimal point where water of hydration was meant.
+func hydrateDot(text string) bool {
+	for i := strings.IndexByte(text, '.'); i >= 0; {
+		j := i + 1
+		for j < len(text) && text[j] >= '0' && text[j] <= '9' {
+			j++
+		}
+		if j > i+1 && strings.HasPrefix(text[j:], "H2O") {
+			return true
+		}
+		k := strings.IndexByte(text[i+1:], '.')
+		if k < 0 {
+			break
+		}
+		i += 1 + k
+	}
+	return false
+}
 
 // Lookup finds a mineral by what a user typed: the key or name of a
 // mineral of the Catalogue (letter case and spaces ignored), "plagioclase
@@ -125,8 +179,8 @@ func Lookup(entry string) (m Mineral, warnings []string, err error) {
 			return c, nil, nil
 		}
 	}
-	if g := plagPattern.FindStringSubmatch(e); g != nil {
-		an, _ := strconv.ParseFloat(g[1], 64)
+	if g, ok := plagioclaseAn(e); ok {
+		an, _ := strconv.ParseFloat(g, 64)
 		m, err := Plagioclase(an)
 		return m, nil, err
 	}
@@ -151,7 +205,7 @@ func Lookup(entry string) (m Mineral, warnings []string, err error) {
 	if q := m.Charge(); math.Abs(q) > 1e-6 {
 		w := fmt.Sprintf("%s: the formula %s does not balance charge with the usual oxidation states (Fe and Mn 2+, S 6+, C 4+): off by %s; check it",
 			label, text, Number(q))
-		if hydrateDot.MatchString(text) {
+		if hydrateDot(text) {
 			w += ` (a "." before water of hydration reads as a decimal point: write "·" or "*")`
 		}
 		warnings = append(warnings, w)

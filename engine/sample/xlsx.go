@@ -15,7 +15,7 @@ import (
 	"strings"
 	"time"
 
-	"github.com/thedatashed/xlsxreader"
+	"lixiv/engine/internal/xlsxreader"
 )
 
 // Errors of workbook import. Test for them with errors.Is.
