@@ -202,10 +202,13 @@ type CatchmentRun struct {
 	block    float64        // the share of block steps
 	blocks   []block        // the end-members' blocks
 	refitted int            // the last warm-up step at which the proposal was refitted
-	phase    int            // 0: chains; 1: samples; 2: done
-	next     int            // phase 1: next sample
-	shown    float64
-	mu       sync.Mutex
+	// ahead is the kept steps a round of the farmed chains runs past their
+	// next check (Round), and checkAt that check; 0 in-process.
+	ahead, checkAt int
+	phase          int // 0: chains; 1: samples; 2: done
+	next           int // phase 1: next sample
+	shown          float64
+	mu             sync.Mutex
 
 	// Rounds shared out (catchment_farm.go): the round's kind and state as
 	// last set by WorkUnit, the driving run's progress at the round's start
@@ -439,16 +442,75 @@ func (c *CatchmentRun) sync() {
 
 // checkpoint is called when every chain has reached its goal: it checks
 // convergence and either sets a new goal or ends the chains.
+//
+// Chains worked in rounds (Round) may have run past the check: their steps
+// after the warm-up do not depend on the checks, so the checks due within
+// the steps taken are made one after the other on the steps up to each,
+// and the chains are cut back to the check that ends them, as if they had
+// stopped there.
 func (c *CatchmentRun) checkpoint() {
-	steps := c.chains[0].t - c.co.Warmup
-	ok, ess := c.diagnose()
-	if ok || steps >= c.co.MaxSteps {
-		c.endChains()
-		return
+	avail := c.chains[0].t - c.co.Warmup
+	steps := avail
+	if c.checkAt > 0 {
+		steps = c.checkAt
 	}
-	goal := c.nextCheck(steps, ess)
+	for {
+		ok, ess := c.diagnoseAt(steps)
+		if ok || steps >= c.co.MaxSteps {
+			c.cutTo(steps)
+			c.endChains()
+			return
+		}
+		goal := c.nextCheck(steps, ess)
+		if c.checkAt > 0 {
+			c.checkAt = goal
+		}
+		if c.checkAt == 0 || goal > avail {
+			if c.checkAt > 0 {
+				goal = min(c.co.MaxSteps, max(goal, avail+c.ahead))
+			}
+			for _, ch := range c.chains {
+				ch.goal = goal
+			}
+			return
+		}
+		steps = goal
+	}
+}
+
+// diagnoseAt is diagnose on each chain's first steps kept steps.
+func (c *CatchmentRun) diagnoseAt(steps int) (bool, float64) {
+	if steps == c.chains[0].t-c.co.Warmup {
+		return c.diagnose()
+	}
+	type saved struct {
+		t    int
+		hist []float64
+	}
+	was := make([]saved, len(c.chains))
+	for i, ch := range c.chains {
+		was[i] = saved{ch.t, ch.hist}
+		ch.t, ch.hist = c.co.Warmup+steps, ch.hist[:steps*c.np]
+	}
+	ok, ess := c.diagnose()
+	for i, ch := range c.chains {
+		ch.t, ch.hist = was[i].t, was[i].hist
+	}
+	return ok, ess
+}
+
+// cutTo cuts every chain back to its first steps kept steps.
+func (c *CatchmentRun) cutTo(steps int) {
 	for _, ch := range c.chains {
-		ch.goal = goal
+		if ch.t-c.co.Warmup == steps {
+			continue
+		}
+		ch.t, ch.hist = c.co.Warmup+steps, ch.hist[:steps*c.np]
+		ch.accepted = 0
+		if steps > 0 {
+			ch.accepted = int(ch.acc[steps-1])
+		}
+		ch.acc = ch.acc[:steps]
 	}
 }
 
@@ -524,7 +586,7 @@ func (c *CatchmentRun) finishAll() {
 	c.phase = 2
 	c.keep, c.extra = nil, nil
 	for _, ch := range c.chains {
-		ch.hist = nil
+		ch.hist, ch.acc = nil, nil
 	}
 	c.base.cur = len(c.base.prob.Waters)
 	c.base.res.Status = c.base.res.worst()

@@ -24,6 +24,7 @@ type chain struct {
 	warmW    []float64 // and their log importance weights
 	bm       []float64 // a block's conditional centre
 	hist     []float64 // kept states, [step][parameter]
+	acc      []float64 // accepted after each kept step (a count), to cut a chain back to a check
 	th       [NTracers][MaxEndMembers]float64
 	tau      [MaxEndMembers]float64
 }
@@ -134,6 +135,7 @@ func (c *CatchmentRun) step(ch *chain) {
 		ch.accepted++
 	}
 	ch.hist = append(ch.hist, ch.x...)
+	ch.acc = append(ch.acc, float64(ch.accepted))
 }
 
 // refits is the number of refits of the proposal during the warm-up, evenly

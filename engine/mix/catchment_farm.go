@@ -59,6 +59,9 @@ func (c *CatchmentRun) Round() (state []byte, units []int) {
 			}
 			c.propose()
 		case c.phase == 0:
+			if c.checkAt == 0 && c.refitted >= c.co.Warmup && c.chains[0].t == c.co.Warmup {
+				c.runAhead()
+			}
 			d0, _ := c.work()
 			per := float64(max(len(c.used), 1))
 			for i, ch := range c.chains {
@@ -87,6 +90,22 @@ func (c *CatchmentRun) Round() (state []byte, units []int) {
 			}
 			return c.sampleState(), units
 		}
+	}
+}
+
+// aheadChecks is how many convergence checks' worth of steps (Batch
+// each) a round of the chains runs past the next check: a round costs the
+// page a message to each worker and back, far more than a check.
+const aheadChecks = 5
+
+// runAhead sets the chains' goal, at the end of the warm-up, past their
+// first check (checkpoint makes the checks within, and sets the goals
+// after).
+func (c *CatchmentRun) runAhead() {
+	c.ahead, c.checkAt = aheadChecks*c.co.Batch, c.chains[0].goal
+	goal := min(c.co.MaxSteps, max(c.checkAt, c.ahead))
+	for _, ch := range c.chains {
+		ch.goal = goal
 	}
 }
 
@@ -337,7 +356,7 @@ func (c *CatchmentRun) WorkUnit(ctx context.Context, state []byte, unit int, pro
 			return nil, errUnit
 		}
 		ch := c.chains[unit]
-		ch.hist, ch.warmY, ch.warmW = nil, nil, nil
+		ch.hist, ch.acc, ch.warmY, ch.warmW = nil, nil, nil, nil
 		if c.kind == roundSearch {
 			for ch.search != nil && !ch.search.done {
 				if err := ctx.Err(); err != nil {
@@ -368,7 +387,8 @@ func (c *CatchmentRun) WorkUnit(ctx context.Context, state []byte, unit int, pro
 		w.floats(ch.hist)
 		w.floats(ch.warmY)
 		w.floats(ch.warmW)
-		ch.hist, ch.warmY, ch.warmW = nil, nil, nil
+		w.floats(ch.acc)
+		ch.hist, ch.acc, ch.warmY, ch.warmW = nil, nil, nil, nil
 		// The next round's state sets this chain anew.
 		c.applied = nil
 	case roundSamples:
@@ -393,14 +413,15 @@ func (c *CatchmentRun) PutUnit(unit int, b []byte) error {
 		r := &wireReader{b: b}
 		stream := r.string()
 		n := &numbers{v: r.floats()}
-		hist, wy, ww := r.floats(), r.floats(), r.floats()
-		if r.err != nil || len(hist)%c.np != 0 || len(wy) != len(ww)*c.np {
+		hist, wy, ww, acc := r.floats(), r.floats(), r.floats(), r.floats()
+		if r.err != nil || len(hist)%c.np != 0 || len(wy) != len(ww)*c.np || len(acc)*c.np != len(hist) {
 			return fmt.Errorf("mix: chain %d: %v", unit+1, errWire)
 		}
 		if err := c.readChain(n, stream, ch); err != nil || len(n.v) != 0 {
 			return fmt.Errorf("mix: chain %d: %v", unit+1, errWire)
 		}
 		ch.hist = append(ch.hist, hist...)
+		ch.acc = append(ch.acc, acc...)
 		ch.warmY = append(ch.warmY, wy...)
 		ch.warmW = append(ch.warmW, ww...)
 		return nil

@@ -68,6 +68,9 @@ func TestCatchmentRoundsSameBits(t *testing.T) {
 	}{
 		{"quick", p, o, co},
 		{"30x3", sc.prob, &Options{Seed: 3, Draws: 200}, &CatchmentOptions{Keep: 200}},
+		// checks every 25 steps: a round of the chains runs past several
+		// (aheadChecks), which the driving run then makes one by one
+		{"30x3 close checks", sc.prob, &Options{Seed: 4, Draws: 200}, &CatchmentOptions{Keep: 200, Batch: 25}},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
@@ -83,6 +86,12 @@ func TestCatchmentRoundsSameBits(t *testing.T) {
 				if got, want := res.Checksum(), ref.Checksum(); got != want {
 					t.Errorf("%d copies, %d rounds: checksum %#x, want %#x", copies, rounds, got, want)
 				}
+				g, w := res.Catchment, ref.Catchment
+				if g.Steps != w.Steps || g.Acceptance != w.Acceptance || g.MaxRHat != w.MaxRHat || g.MinESS != w.MinESS || g.Converged != w.Converged {
+					t.Errorf("%d copies: steps %d, acceptance %v, R-hat %v, ESS %v, converged %v; want %d, %v, %v, %v, %v",
+						copies, g.Steps, g.Acceptance, g.MaxRHat, g.MinESS, g.Converged, w.Steps, w.Acceptance, w.MaxRHat, w.MinESS, w.Converged)
+				}
+				t.Logf("%d copies: %d rounds, %d kept steps per chain", copies, rounds, g.Steps)
 				if rounds < 3 {
 					t.Errorf("%d rounds, want the searches, chains and samples apart", rounds)
 				}
