@@ -51,7 +51,10 @@ func (lr *lineReader) readLine(into []byte) ([]byte, bool) {
 	}
 	lr.line++
 	b = bytes.TrimSuffix(b, []byte{'\n'})
-	b = bytes.TrimSuffix(b, []byte{'\r'})
+	// Every carriage return before the line's end goes, not only a CRLF's:
+	// one left at the end of a line inside a quoted field would be taken
+	// for the line end when the table is written out and read again.
+	b = bytes.TrimRight(b, "\r")
 	if lr.latin1 && !utf8.Valid(b) {
 		lr.conv = lr.conv[:0]
 		for _, c := range b {
