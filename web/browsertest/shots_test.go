@@ -3,6 +3,7 @@
 package browsertest
 
 import (
+	"context"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -48,7 +49,7 @@ func TestShots(t *testing.T) {
 	save(t, filepath.Join(dir, "top.png"), top)
 	ids := eval[[]string](t, ctx, `[...document.querySelectorAll("section.cell")].map(e => e.id)`)
 	for _, id := range ids {
-		png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
+		png, err := shotOf(t, ctx, id)
 		if err != nil {
 			t.Errorf("%s: %v", id, err)
 			continue
@@ -57,7 +58,7 @@ func TestShots(t *testing.T) {
 	}
 	charts := eval[[]string](t, ctx, `[...document.querySelectorAll(".svg-mount")].map(e => e.id)`)
 	for _, id := range charts {
-		png, err := chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
+		png, err := shotOf(t, ctx, id)
 		if err != nil {
 			t.Errorf("%s: %v", id, err)
 			continue
@@ -101,4 +102,15 @@ func save(t *testing.T, path string, data []byte) {
 		t.Fatal(err)
 	}
 	t.Logf("wrote %s", path)
+}
+
+// shotOf takes a picture of the element with the given id once it is on
+// the screen and painted: the page lays out results only near the screen
+// (content-visibility), so a picture taken as the element scrolls in would
+// show them blank.
+func shotOf(t *testing.T, ctx context.Context, id string) ([]byte, error) {
+	t.Helper()
+	eval[bool](t, ctx, fmt.Sprintf(`(() => { document.getElementById(%q).scrollIntoView(); return true })()`, id))
+	time.Sleep(150 * time.Millisecond)
+	return chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
 }
