@@ -26,7 +26,8 @@ import (
 // rain ratio with the apportionment at 2,000 draws, until it is computed,
 // "draws" a run of the demo at 40,000 draws, "open" the opening of the
 // budget at the engine's limits (engine/notebook/atlimits) through the
-// file picker, for 20 s. The Web Workers are other
+// file picker, for 20 s, "catchment" the opening of the 100-sample,
+// four-source catchment-wide budget of TestTimingCatchment, for 12 s. The Web Workers are other
 // threads and are not in it.
 func TestProfileDemo(t *testing.T) {
 	out := os.Getenv("LIXIV_PROFILE")
@@ -78,8 +79,18 @@ func TestProfileDemo(t *testing.T) {
 			t.Fatal(err)
 		}
 		time.Sleep(20 * time.Second)
+	case "catchment":
+		file := catchmentBudget100x4(t)
+		open(t, ctx, srv.URL)
+		waitIdle(t, ctx)
+		what = "the 100-sample, four-source catchment-wide budget opened, its first 12 s"
+		start()
+		if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
+			t.Fatal(err)
+		}
+		time.Sleep(12 * time.Second)
 	default:
-		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit, draws or open", of)
+		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit, draws, open or catchment", of)
 	}
 	res, err := chromedp.Call(ctx, profiler.Stop, cdp.Empty{})
 	if err != nil {
