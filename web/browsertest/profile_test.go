@@ -69,26 +69,19 @@ func TestProfileDemo(t *testing.T) {
 			start()
 			edit(t, ctx, "#p-"+ap+"-draws", "40000")
 		}
-	case "open":
-		file := atLimitsFile(t)
+	case "open", "catchment":
+		var file string
+		var span time.Duration
+		if of == "open" {
+			file, what, span = atLimitsFile(t), "the budget at the limits opened, its first 20 s", 20*time.Second
+		} else {
+			file, what, span = catchmentBudget100x4(t), "the 100-sample, four-source catchment-wide budget opened, its first 12 s", 12*time.Second
+		}
 		open(t, ctx, srv.URL)
 		waitIdle(t, ctx)
-		what = "the budget at the limits opened, its first 20 s"
 		start()
-		if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
-			t.Fatal(err)
-		}
-		time.Sleep(20 * time.Second)
-	case "catchment":
-		file := catchmentBudget100x4(t)
-		open(t, ctx, srv.URL)
-		waitIdle(t, ctx)
-		what = "the 100-sample, four-source catchment-wide budget opened, its first 12 s"
-		start()
-		if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
-			t.Fatal(err)
-		}
-		time.Sleep(12 * time.Second)
+		openFile(t, ctx, file)
+		time.Sleep(span)
 	default:
 		t.Fatalf("LIXIV_PROFILE_OF %q: demo, edit, draws, open or catchment", of)
 	}
