@@ -42,6 +42,11 @@ type component struct {
 	mu      []float64
 	l       []float64 // lower triangle of L, row-major d×d
 	halfDet float64   // ½ log det Σ = sum log L_ii
+
+	// μ and L again, zero-padded to smallDim, when d <= smallDim: the
+	// unrolled kernels (proposal_small.go) read these.
+	mu8 [smallDim]float64
+	l8  [smallDim][smallDim]float64
 }
 
 // proposal is the Gaussian mixture of a refinement stage.
@@ -135,6 +140,10 @@ type gaussian struct {
 // total weight, and false when they carry none.
 func moments(d int, ds *draws, w []float64, in []bool) (gaussian, float64, bool) {
 	g := gaussian{mu: make([]float64, d), cov: make([]float64, d*d)}
+	if d <= smallDim && ds.stride >= smallDim {
+		tw, ok := momentsSmall(d, ds, w, in, g)
+		return g, tw, ok
+	}
 	tw := 0.0
 	for k := range ds.n {
 		if !in[k] {
@@ -195,6 +204,7 @@ func (p *proposal) add(pi float64, g gaussian) {
 	c := component{pi: pi, mu: g.mu, l: make([]float64, d*d)}
 	for jit := 0.0; jit < 1e3; jit = max(1e-9, 10*jit) {
 		if c.cholesky(d, g.cov, jit) {
+			c.pad(d)
 			p.comp = append(p.comp, c)
 			return
 		}
@@ -208,6 +218,7 @@ func priorProposal(d int) proposal {
 	for i := range d {
 		c.l[i*d+i] = 1
 	}
+	c.pad(d)
 	return proposal{d: d, comp: []component{c}, cum: []float64{1}, lpi: []float64{0}}
 }
 
@@ -249,6 +260,13 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 	}
 	c := &p.comp[ci]
 	d := p.d
+	if d <= smallDim {
+		var zs, ys [smallDim]float64
+		copy(zs[:], z[:d])
+		c.affine(&zs, &ys)
+		copy(eta[:d], ys[:d])
+		return
+	}
 	for i := range d {
 		v := c.mu[i]
 		for k := 0; k <= i; k++ {
@@ -261,6 +279,14 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 // ell returns log of the mixture density at eta over the prior density
 // N(eta; 0, I). u is working space of length d.
 func (p *proposal) ell(eta, u []float64) float64 {
+	if p.d <= smallDim {
+		return p.ellSmall(eta)
+	}
+	return p.ellLoop(eta, u)
+}
+
+// ellLoop is ell for any d, by loops.
+func (p *proposal) ellLoop(eta, u []float64) float64 {
 	d := p.d
 	eta, u = eta[:d], u[:d]
 	e := 0.0

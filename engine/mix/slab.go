@@ -45,6 +45,22 @@ func logSlab(m int, t float64) float64 {
 
 const log2Pi = 1.8378770664093453
 
+// faceMembers[mask] lists the end-members of the face mask in order (the
+// first faceSize[mask] entries).
+var faceMembers, faceSize = faceTables()
+
+func faceTables() (members [1 << MaxEndMembers][MaxEndMembers]int, size [1 << MaxEndMembers]int) {
+	for mask := range members {
+		for j := range MaxEndMembers {
+			if mask&(1<<j) != 0 {
+				members[mask][size[mask]] = j
+				size[mask]++
+			}
+		}
+	}
+	return members, size
+}
+
 // faceFit is the least-squares problem of one face: the Cholesky factor of
 // the (lightly regularised) normal matrix, the solution and the Laplace
 // estimate of the face's evidence.
@@ -68,7 +84,10 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	// The regularisation λ I, a Gaussian of sd 10 T_ref on each amount,
 	// keeps faces with more members than data solvable; it shapes the
 	// proposal only (the weight is exact).
-	tref := max(st.y[0], 1)
+	tref := st.y[0] // max(st.y[0], 1), without the runtime call WebAssembly makes of max
+	if tref < 1 {
+		tref = 1
+	}
 	lambda := 1 / (100 * tref * tref)
 	logPrior := -float64(K) * math.Ln2
 	fits := &w.fits // working space: each entry is written before it is read (m is reset below)
@@ -82,70 +101,28 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	for mask := 1; mask < nf; mask++ {
 		f := &fits[mask]
 		f.logZ = math.Inf(-1)
-		f.m = 0
-		for j := 0; j < K; j++ {
-			if mask&(1<<j) != 0 {
-				f.idx[f.m] = j
-				f.m++
-			}
-		}
+		f.idx, f.m = faceMembers[mask], faceSize[mask]
 		m := f.m
-		ok := true
-		halfDet := 0.0
-		for c := 0; c < m && ok; c++ {
-			d := H[f.idx[c]][f.idx[c]] + lambda
-			for p := 0; p < c; p++ {
-				d -= f.l[c][p] * f.l[c][p]
-			}
-			if !(d > 0) {
-				ok = false
-				break
-			}
-			d = sqrt(d)
-			f.l[c][c] = d
-			halfDet += plog(d)
-			for i := c + 1; i < m; i++ {
-				s := H[f.idx[i]][f.idx[c]]
-				for p := 0; p < c; p++ {
-					s -= f.l[i][p] * f.l[c][p]
-				}
-				f.l[i][c] = s / d
-			}
+		var t, chi2, jac float64
+		var ok bool
+		switch m {
+		case 1:
+			t, chi2, jac, ok = f.solve1(H, b, c, &logc, yy, lambda)
+		case 2:
+			t, chi2, jac, ok = f.solve2(H, b, c, &logc, yy, lambda)
+		case 3:
+			t, chi2, jac, ok = f.solve3(H, b, c, &logc, yy, lambda)
+		case 4:
+			t, chi2, jac, ok = f.solve4(H, b, c, &logc, yy, lambda)
+		case 5:
+			t, chi2, jac, ok = f.solve5(H, b, c, &logc, yy, lambda)
+		default:
+			t, chi2, jac, ok = f.solve6(H, b, c, &logc, yy, lambda)
 		}
 		if !ok {
 			continue
 		}
-		f.hd = halfDet
-		// μ = (H_F + λI)⁻¹ b_F, and the diagonal of the inverse.
-		var y [MaxEndMembers]float64
-		for i := 0; i < m; i++ {
-			s := b[f.idx[i]]
-			for p := 0; p < i; p++ {
-				s -= f.l[i][p] * y[p]
-			}
-			y[i] = s / f.l[i][i]
-		}
-		for i := m - 1; i >= 0; i-- {
-			s := y[i]
-			for p := i + 1; p < m; p++ {
-				s -= f.l[p][i] * f.mu[p]
-			}
-			f.mu[i] = s / f.l[i][i]
-		}
-		// Laplace estimate: prior at the (non-negative part of the)
-		// solution, likelihood at it, the Gaussian volume, and the
-		// chance that a proposal is non-negative (each amount on its
-		// own, from the marginal sd).
-		t, chi2, jac, vt := 0.0, yy, 0.0, 0.0
-		for i := 0; i < m; i++ {
-			ci := c[f.idx[i]]
-			t += ci * fmax(f.mu[i], 0)
-			jac += logc[f.idx[i]]
-			chi2 -= 2 * b[f.idx[i]] * f.mu[i]
-			for p := 0; p < m; p++ {
-				chi2 += f.mu[i] * H[f.idx[i]][f.idx[p]] * f.mu[p]
-			}
-		}
+		halfDet, vt := f.hd, 0.0
 		var sd [MaxEndMembers]float64
 		for i := 0; i < m; i++ {
 			v := invDiag(m, &f.l, i)
