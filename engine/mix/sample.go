@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+
+	"lixiv/engine/internal/portable"
 )
 
 // sampleStream and errorStream are the second PCG words of a sample's own
@@ -31,6 +33,8 @@ type sampleWork struct {
 	st       *setup
 	rng      *rand.Rand // end-member ratios, faces and amounts
 	zrng     *rand.Rand // errors of the data
+	src      *rand.PCG  // rng's source, for pcgUniform and normals
+	zsrc     *rand.PCG  // zrng's
 	d, k     int        // latent dimensions and end-members taking part
 	stride   int        // floats per draw record
 	props    []proposal
@@ -44,7 +48,11 @@ type sampleWork struct {
 	finished bool
 
 	theta [NTracers][MaxEndMembers]float64
-	fits  [1 << MaxEndMembers]faceFit // slabDraw's working space
+	srcOf [MaxEndMembers]Source // the source of each end-member taking part
+
+	lanes  bool                        // linearAt may use zg (lanes.go)
+	z0, zl [nLanes]float64             // the lanes' values at z = 0 and at the draw's errors
+	fits   [1 << MaxEndMembers]faceFit // slabDraw's working space
 
 	workBufs
 }
@@ -61,9 +69,11 @@ type workBufs struct {
 	lq      []float64   // log mixture density over the prior density, per draw
 
 	z, eta, u []float64
+	zg        []float64 // the gradients of the lanes (lanes.go), error source by source
 
 	ellFree      [][]float64 // ell rows of earlier samples, for reuse
 	wt, lw, lc   []float64   // endStage's, mixture's and finish's working space
+	msum, mterm  []float64   // mixture's
 	kw, col, shr []float64
 	keep         []int
 	splits       []Split
@@ -109,9 +119,12 @@ func (w *sampleWork) split(k int) (sp Split) {
 
 func (w *sampleWork) setSplit(k int, sp *Split) {
 	o := k*w.stride + w.d + oFrac + w.k
-	for src := range NSources {
-		copy(w.rec[o+int(src)*NCations:o+int(src+1)*NCations], sp[src][:])
-	}
+	rec := w.rec[o : o+int(NSources)*NCations]
+	// Source by source, as array assignments rather than copy calls.
+	*(*[NCations]float64)(rec[0*NCations:]) = sp[0]
+	*(*[NCations]float64)(rec[1*NCations:]) = sp[1]
+	*(*[NCations]float64)(rec[2*NCations:]) = sp[2]
+	*(*[NCations]float64)(rec[3*NCations:]) = sp[3]
 }
 
 func (w *sampleWork) so4(k int) float64 {
@@ -139,11 +152,13 @@ func (r *Run) begin(s int) *sampleWork {
 		w.finished = true
 		return w
 	}
-	w.rng = rand.New(rand.NewPCG(r.opt.Seed^sampleStream, uint64(s)))
+	w.src = rand.NewPCG(r.opt.Seed^sampleStream, uint64(s))
+	w.rng = rand.New(w.src)
 	// The data perturbations come from a stream of their own, so that an
 	// error source of no effect (a spread of 0 against one too small to
 	// move a value) leaves the other draws unchanged.
-	w.zrng = rand.New(rand.NewPCG(r.opt.Seed^errorStream, uint64(s)))
+	w.zsrc = rand.NewPCG(r.opt.Seed^errorStream, uint64(s))
+	w.zrng = rand.New(w.zsrc)
 	w.stride = w.d + oFrac + w.k + int(NSources)*NCations + 1 + st.r
 	w.size = min(r.opt.Draws, r.opt.MaxDraws)
 	w.planned = w.size
@@ -153,6 +168,10 @@ func (r *Run) begin(s int) *sampleWork {
 	w.z = zeroed(w.z, st.q)
 	w.eta = zeroed(w.eta, w.d)
 	w.u = zeroed(w.u, w.d)
+	w.setLanes()
+	for jj, j := range st.act {
+		w.srcOf[jj] = r.prob.EndMembers[j].Source
+	}
 	return w
 }
 
@@ -243,11 +262,9 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			w.eta[a] = r.eta[i*len(r.dims)+k]
 		}
 	} else {
-		prior := uniform(w.rng) < defensive
-		uc := uniform(w.rng)
-		for a := range w.eta {
-			w.u[a] = normQuantile(uniform(w.rng))
-		}
+		prior := pcgUniform(w.src) < defensive
+		uc := pcgUniform(w.src)
+		normals(w.u[:len(w.eta)], w.src)
 		if prior {
 			copy(w.eta, w.u)
 		} else {
@@ -267,14 +284,12 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 				case sm.constant:
 					w.theta[t][j] = sm.v
 				case !r.lik[t]:
-					w.theta[t][j] = sm.draw(uniform(w.rng))
+					w.theta[t][j] = sm.draw(pcgUniform(w.src))
 				}
 			}
 		}
 	}
-	for i := range w.z {
-		w.z[i] = normQuantile(uniform(w.zrng))
-	}
+	normals(w.z, w.zsrc)
 	k := len(w.stageOf)
 	w.stageOf = append(w.stageOf, int8(min(s, 127)))
 	if len(w.rec)+w.stride > cap(w.rec) {
@@ -288,9 +303,7 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	}
 	r.eval(w, k)
 	if s > 0 {
-		e := w.ell[s-1][k]
-		big := fmax(plog(defensive), plog(1-defensive)+e)
-		lw := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
+		lw := ownWeight(w.at(k, oLogL), w.ell[s-1][k])
 		if o := &w.own; !math.IsInf(lw, -1) {
 			if o[1] == 0 {
 				o[0] = lw
@@ -303,6 +316,17 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			o[2] += v * v
 		}
 	}
+}
+
+// logDefensive and logFitted are the logs of a refinement stage's shares
+// of prior and fitted draws.
+var logDefensive, logFitted = plog(defensive), plog(1 - defensive)
+
+// ownWeight returns the log weight of a draw of log likelihood logL against
+// its own stage's proposal alone, e its ell there.
+func ownWeight(logL, e float64) float64 {
+	big := fmax(logDefensive, logFitted+e)
+	return logL - (big + plog(pexp(logDefensive-big)+pexp(logFitted+e-big)))
 }
 
 // eval solves draw k: the whitened design Ã = L⁻¹A of the draw's ratios,
@@ -320,16 +344,8 @@ func (r *Run) eval(w *sampleWork, k int) {
 	whiten(R, K, &st.linv, &A, &At)
 	gram(R, K, &At, &st.yt, &H, &b0)
 	// Perturbation of the whitened data: ε̃ = L⁻¹ G z.
-	var eps [maxRows]float64
-	q := st.q
-	for i := 0; i < R; i++ {
-		s := 0.0
-		mi := st.m[i*q : (i+1)*q]
-		for c, zc := range w.z {
-			s += float64(mi[c] * zc)
-		}
-		eps[i] = s
-	}
+	w.linearAt()
+	eps := (*[maxRows]float64)(w.zl[laneEps : laneEps+maxRows])
 	for i := 0; i < K; i++ {
 		s1 := 0.0
 		for p := 0; p < R; p++ {
@@ -384,7 +400,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
-	w.rec[o+oFrac+K+int(NSources)*NCations] = fmax(0, st.so4.At(w.z))
+	w.rec[o+oFrac+K+int(NSources)*NCations] = fmax(0, w.zl[laneSO4])
 }
 
 // design fills A with the design of st's rows for the ratios th: 1 in the
@@ -414,25 +430,24 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 	st := w.st
 	var m Split
 	for jj, j := range st.act {
-		src := r.prob.EndMembers[j].Source
+		src := w.srcOf[jj]
 		m[src][0] += n[jj]
 		m[src][1] += float64(w.theta[KNa][j] * n[jj])
 		m[src][2] += float64(w.theta[CaNa][j] * n[jj])
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
-		atm, evap := fmax(0, st.atm[c].At(w.z)), fmax(0, st.evap[c].At(w.z))
+		atm, evap := fmax(0, w.zl[laneAtm+c]), fmax(0, w.zl[laneEvap+c])
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
 		x := fmax(0, st.in[c]-atm-evap)
-		for src := range NSources {
-			v := m[src][c]
-			if st.has[c] {
-				v = 0
-				if tot > 0 {
-					v = m[src][c] / tot * x
-				}
-			}
-			sp[src][c] = v
+		// The four sources written out (NSources is 4).
+		switch {
+		case !st.has[c]:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = m[0][c], m[1][c], m[2][c], m[3][c]
+		case tot > 0:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = m[0][c]/tot*x, m[1][c]/tot*x, m[2][c]/tot*x, m[3][c]/tot*x
+		default:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = 0, 0, 0, 0
 		}
 		sp[Atmosphere][c] += atm
 		sp[Evaporite][c] += evap
@@ -483,17 +498,39 @@ func (w *sampleWork) mixture() {
 	for s := range w.props {
 		lc[s] = plog((1 - defensive) * float64(w.nStage[s+1]) / nTot)
 	}
-	w.lq = slices.Grow(w.lq[:0], w.n)[:w.n]
-	for k := 0; k < w.n; k++ {
-		big := lc0
-		for s := range w.props {
-			big = fmax(big, lc[s]+w.ell[s][k])
+	// Stage by stage over all draws rather than draw by draw, so that the
+	// exponentials go in batches (portable.ExpAll); each draw's largest
+	// term and sum are formed in the same order as draw by draw.
+	n := w.n
+	w.lq = sized(w.lq, n)
+	big := w.lq // the largest term of each draw, until the end
+	for k := range big {
+		big[k] = lc0
+	}
+	for s := range w.props {
+		e := w.ell[s][:n]
+		for k, v := range e {
+			big[k] = fmax(big[k], lc[s]+v)
 		}
-		sum := pexp(lc0 - big)
-		for s := range w.props {
-			sum += pexp(lc[s] + w.ell[s][k] - big)
+	}
+	w.msum, w.mterm = sized(w.msum, n), sized(w.mterm, n)
+	sum, term := w.msum, w.mterm
+	for k, b := range big {
+		sum[k] = lc0 - b
+	}
+	portable.ExpAll(sum)
+	for s := range w.props {
+		e := w.ell[s][:n]
+		for k, b := range big {
+			term[k] = lc[s] + e[k] - b
 		}
-		w.lq[k] = big + plog(sum)
+		portable.ExpAll(term)
+		for k, v := range term {
+			sum[k] += v
+		}
+	}
+	for k, v := range sum {
+		w.lq[k] = big[k] + plog(v)
 	}
 }
 
@@ -511,9 +548,12 @@ func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
 		return 0
 	}
 	sw, sw2 := 0.0, 0.0
-	for k := 0; k < w.n; k++ {
-		v := pexp(wt[k] - top)
-		wt[k] = v
+	wt = wt[:w.n]
+	for k := range wt {
+		wt[k] -= top
+	}
+	portable.ExpAll(wt) // the exponentials in one call (see mixture)
+	for _, v := range wt {
 		sw += v
 		sw2 += v * v
 	}
@@ -541,9 +581,7 @@ func (w *sampleWork) endStage(r *Run) {
 			if int(w.stageOf[k]) != min(last, 127) {
 				continue
 			}
-			e := w.ell[last-1][k]
-			big := fmax(plog(defensive), plog(1-defensive)+e)
-			v := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
+			v := ownWeight(w.at(k, oLogL), w.ell[last-1][k])
 			lw = append(lw, v)
 			top = fmax(top, v)
 		}

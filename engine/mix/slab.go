@@ -149,7 +149,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		fits[mask].p = pexp(fits[mask].logZ - top)
 		sum += fits[mask].p
 	}
-	u := uniform(w.rng) * sum
+	u := pcgUniform(w.src) * sum
 	pick, acc := -1, 0.0
 	for mask := 0; mask < nf; mask++ {
 		p := fits[mask].p
@@ -172,8 +172,8 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	// n_F = μ + L⁻ᵀ z.
 	var z, x [MaxEndMembers]float64
 	zz := 0.0
+	normals(z[:m], w.src)
 	for i := 0; i < m; i++ {
-		z[i] = normQuantile(uniform(w.rng))
 		zz += z[i] * z[i]
 	}
 	for i := m - 1; i >= 0; i-- {

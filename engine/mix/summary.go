@@ -411,9 +411,7 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	nd := r.opt.TargetESS
 	sr.draws = make([]kept, nd)
 	for k := range sr.draws {
-		for i := range w.z {
-			w.z[i] = normQuantile(uniform(w.zrng))
-		}
+		normals(w.z, w.zsrc)
 		var sp Split
 		for c := range NCations {
 			sp[Atmosphere][c] = max(0, st.atm[c].At(w.z))
