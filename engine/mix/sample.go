@@ -50,9 +50,10 @@ type sampleWork struct {
 	theta [NTracers][MaxEndMembers]float64
 	srcOf [MaxEndMembers]Source // the source of each end-member taking part
 
-	lanes  bool                        // linearAt may use zg (lanes.go)
-	z0, zl [nLanes]float64             // the lanes' values at z = 0 and at the draw's errors
-	fits   [1 << MaxEndMembers]faceFit // slabDraw's working space
+	prepared bool                        // prepare has run
+	lanes    bool                        // linearAt may use zg (lanes.go)
+	z0, zl   [nLanes]float64             // the lanes' values at z = 0 and at the draw's errors
+	fits     [1 << MaxEndMembers]faceFit // slabDraw's working space
 
 	workBufs
 }
@@ -168,10 +169,7 @@ func (r *Run) begin(s int) *sampleWork {
 	w.z = zeroed(w.z, st.q)
 	w.eta = zeroed(w.eta, w.d)
 	w.u = zeroed(w.u, w.d)
-	w.setLanes()
-	for jj, j := range st.act {
-		w.srcOf[jj] = r.prob.EndMembers[j].Source
-	}
+	w.prepare(r)
 	return w
 }
 
@@ -216,6 +214,17 @@ func zeroed(buf []float64, n int) []float64 {
 
 // sized returns buf resized to n; its elements are left as they were.
 func sized[T any](buf []T, n int) []T { return slices.Grow(buf[:0], n)[:n] }
+
+// prepare sets what eval reads of the sample besides its setup: the lanes
+// (lanes.go) and the end-members' sources. begin calls it; eval calls it
+// for sample work made otherwise (the catchment-wide model's summaries).
+func (w *sampleWork) prepare(r *Run) {
+	w.setLanes()
+	for jj, j := range w.st.act {
+		w.srcOf[jj] = r.prob.EndMembers[j].Source
+	}
+	w.prepared = true
+}
 
 // advance takes up to budget more draws of the sample, ending stages and
 // starting new ones as it goes, and returns the draws taken.
@@ -334,6 +343,9 @@ func ownWeight(logL, e float64) float64 {
 // (its χ² is the draw's likelihood) and for the data perturbed by the
 // draw's errors (its solution is the draw's split), and the amounts.
 func (r *Run) eval(w *sampleWork, k int) {
+	if !w.prepared {
+		w.prepare(r)
+	}
 	st := w.st
 	R, K := st.r, st.k
 	th := &w.theta

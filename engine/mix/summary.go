@@ -411,7 +411,9 @@ func (r *Run) naFree(sr *SampleResult, w *sampleWork) {
 	nd := r.opt.TargetESS
 	sr.draws = make([]kept, nd)
 	for k := range sr.draws {
-		normals(w.z, w.zsrc)
+		for i := range w.z {
+			w.z[i] = normQuantile(uniform(w.zrng))
+		}
 		var sp Split
 		for c := range NCations {
 			sp[Atmosphere][c] = max(0, st.atm[c].At(w.z))
