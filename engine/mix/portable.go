@@ -95,12 +95,24 @@ func sqrt(x float64) float64 { return math.Sqrt(x) }
 // (coefficients from memory, checked against math.Erfc in the tests). It
 // uses only pexp, so it gives the same bits on every target.
 func perfc(x float64) float64 {
+	t, a := perfcArg(x)
+	return perfcFrom(x, t, pexp(a))
+}
+
+// perfcArg returns perfc's t and the argument of its exponential.
+func perfcArg(x float64) (t, a float64) {
 	z := abs(x)
-	t := 1 / (1 + 0.5*z)
+	t = 1 / (1 + 0.5*z)
 	p := horner5(t, 0.17087277, -0.82215223, 1.48851587, -1.13520398, 0.27886807)
 	p = horner5(t, p, -0.18628806, 0.09678418, 0.37409196, 1.00002368)
 	p = float64(p*t) + -1.26551223
-	v := t * pexp(float64(-z*z)+p)
+	return t, float64(-z*z) + p
+}
+
+// perfcFrom returns perfc(x) from perfcArg's t and the exponential e of its
+// argument.
+func perfcFrom(x, t, e float64) float64 {
+	v := t * e
 	if x < 0 {
 		return 2 - v
 	}

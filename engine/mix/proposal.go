@@ -56,6 +56,7 @@ type proposal struct {
 	cum  []float64 // cumulative π, for choosing a component
 	lpi  []float64 // log π
 	lc   []float64 // ell's working space, one per component
+	lx   []float64 // ellSmall's
 }
 
 // draws is what fitProposal reads of the draws so far.
@@ -261,9 +262,13 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 	c := &p.comp[ci]
 	d := p.d
 	if d <= smallDim {
+		if d > 0 && cap(z) >= smallDim && cap(eta) >= smallDim {
+			c.affine(d, (*[smallDim]float64)(z[:smallDim]), (*[smallDim]float64)(eta[:smallDim]))
+			return
+		}
 		var zs, ys [smallDim]float64
 		copy(zs[:], z[:d])
-		c.affine(&zs, &ys)
+		c.affine(d, &zs, &ys)
 		copy(eta[:d], ys[:d])
 		return
 	}

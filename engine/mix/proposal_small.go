@@ -1,6 +1,10 @@
 package mix
 
-import "math"
+import (
+	"math"
+
+	"lixiv/engine/internal/portable"
+)
 
 // The proposal's kernels for up to smallDim latent dimensions, written out
 // row by row. Compiled to WebAssembly, every iteration of a loop goes back
@@ -26,99 +30,161 @@ func (c *component) pad(d int) {
 		copy(c.l8[i][:i+1], c.l[i*d:i*d+i+1])
 	}
 	for i := d; i < smallDim; i++ {
-		c.l8[i][i] = 1 // so that mahal gives +0 for d = 0 (rows beyond d are otherwise never read)
+		c.l8[i][i] = 1 // so that rows beyond d give +0 where ellSmall reads them (d = 0)
 	}
 }
 
-// ellSmall is ell for d <= smallDim.
+// ellSmall is ell for d <= smallDim: the forward substitution of each
+// component written out row by row, the exponentials of the components in
+// one call.
 func (p *proposal) ellSmall(eta []float64) float64 {
 	d := p.d
-	var x [smallDim]float64
-	copy(x[:], eta[:d])
-	// The padding adds 0·0 = +0 to a sum begun at +0, which leaves it as it is.
-	e := 0.0 + float64(x[0]*x[0]) + float64(x[1]*x[1]) + float64(x[2]*x[2]) + float64(x[3]*x[3]) +
-		float64(x[4]*x[4]) + float64(x[5]*x[5]) + float64(x[6]*x[6]) + float64(x[7]*x[7])
-	if len(p.comp) == 1 {
-		// One component: ell is 0.5 e + lc + log(exp(lc − lc)), and
-		// exp(0) = 1, log(1) = +0, added to a sum that cannot be −0, so
-		// the last term changes nothing while lc is finite.
-		c := &p.comp[0]
-		lc := p.lpi[0] - 0.5*c.mahal(d, &x) - c.halfDet
-		if lc-lc == 0 {
-			return 0.5*e + lc
-		}
+	var xs [smallDim]float64
+	x := &xs
+	if d > 0 && cap(eta) >= smallDim {
+		x = (*[smallDim]float64)(eta[:smallDim]) // lanes beyond d are not read
+	} else {
+		copy(xs[:], eta[:d]) // zero lanes beyond d, whose rows give +0
 	}
+	e := 0.0
+	{
+		e += float64(x[0] * x[0])
+		if d == 1 {
+			goto summed
+		}
+		e += float64(x[1] * x[1])
+		if d == 2 {
+			goto summed
+		}
+		e += float64(x[2] * x[2])
+		if d == 3 {
+			goto summed
+		}
+		e += float64(x[3] * x[3])
+		if d == 4 {
+			goto summed
+		}
+		e += float64(x[4] * x[4])
+		if d == 5 {
+			goto summed
+		}
+		e += float64(x[5] * x[5])
+		if d == 6 {
+			goto summed
+		}
+		e += float64(x[6] * x[6])
+		if d == 7 {
+			goto summed
+		}
+		e += float64(x[7] * x[7])
+	}
+summed:
 	if len(p.lc) < len(p.comp) {
 		p.lc = make([]float64, len(p.comp))
 	}
-	lc := p.lc
-	top, sum := math.Inf(-1), 0.0
+	lc := p.lc[:len(p.comp)]
+	top := math.Inf(-1)
 	for ci := range p.comp {
 		c := &p.comp[ci]
-		lc[ci] = p.lpi[ci] - 0.5*c.mahal(d, &x) - c.halfDet
+		l, m := &c.l8, &c.mu8
+		q := 0.0
+		{
+			u0 := (x[0] - m[0]) / l[0][0]
+			q += float64(u0 * u0)
+			if d == 1 {
+				goto solved
+			}
+			u1 := (x[1] - m[1] - float64(l[1][0]*u0)) / l[1][1]
+			q += float64(u1 * u1)
+			if d == 2 {
+				goto solved
+			}
+			u2 := (x[2] - m[2] - float64(l[2][0]*u0) - float64(l[2][1]*u1)) / l[2][2]
+			q += float64(u2 * u2)
+			if d == 3 {
+				goto solved
+			}
+			u3 := (x[3] - m[3] - float64(l[3][0]*u0) - float64(l[3][1]*u1) - float64(l[3][2]*u2)) / l[3][3]
+			q += float64(u3 * u3)
+			if d == 4 {
+				goto solved
+			}
+			u4 := (x[4] - m[4] - float64(l[4][0]*u0) - float64(l[4][1]*u1) - float64(l[4][2]*u2) - float64(l[4][3]*u3)) / l[4][4]
+			q += float64(u4 * u4)
+			if d == 5 {
+				goto solved
+			}
+			u5 := (x[5] - m[5] - float64(l[5][0]*u0) - float64(l[5][1]*u1) - float64(l[5][2]*u2) - float64(l[5][3]*u3) - float64(l[5][4]*u4)) / l[5][5]
+			q += float64(u5 * u5)
+			if d == 6 {
+				goto solved
+			}
+			u6 := (x[6] - m[6] - float64(l[6][0]*u0) - float64(l[6][1]*u1) - float64(l[6][2]*u2) - float64(l[6][3]*u3) - float64(l[6][4]*u4) - float64(l[6][5]*u5)) / l[6][6]
+			q += float64(u6 * u6)
+			if d == 7 {
+				goto solved
+			}
+			u7 := (x[7] - m[7] - float64(l[7][0]*u0) - float64(l[7][1]*u1) - float64(l[7][2]*u2) - float64(l[7][3]*u3) - float64(l[7][4]*u4) - float64(l[7][5]*u5) - float64(l[7][6]*u6)) / l[7][7]
+			q += float64(u7 * u7)
+		}
+	solved:
+		lc[ci] = p.lpi[ci] - 0.5*q - c.halfDet
 		top = fmax(top, lc[ci])
 	}
-	for ci := range p.comp {
-		sum += pexp(lc[ci] - top)
+	if len(lc) == 1 && top-top == 0 {
+		// One component: ell is 0.5 e + lc + log(exp(lc − lc)), and
+		// exp(0) = 1, log(1) = +0, added to a sum that cannot be −0, so
+		// the last term changes nothing while lc is finite.
+		return 0.5*e + top
+	}
+	if len(p.lx) < len(lc) {
+		p.lx = make([]float64, len(lc))
+	}
+	ex := p.lx[:len(lc)]
+	for ci, v := range lc {
+		ex[ci] = v - top
+	}
+	portable.ExpAll(ex)
+	sum := 0.0
+	for _, v := range ex {
+		sum += v
 	}
 	return 0.5*e + top + plog(sum)
 }
 
-// mahal returns |u|² for L u = x − μ (the component's padded factor), the
-// rows in order and each sum in the order of the loop it replaces.
-func (c *component) mahal(d int, x *[smallDim]float64) float64 {
-	l, m := &c.l8, &c.mu8
-	u0 := (x[0] - m[0]) / l[0][0]
-	q := 0.0 + float64(u0*u0)
-	if d == 1 {
-		return q
-	}
-	u1 := (x[1] - m[1] - float64(l[1][0]*u0)) / l[1][1]
-	q += float64(u1 * u1)
-	if d == 2 {
-		return q
-	}
-	u2 := (x[2] - m[2] - float64(l[2][0]*u0) - float64(l[2][1]*u1)) / l[2][2]
-	q += float64(u2 * u2)
-	if d == 3 {
-		return q
-	}
-	u3 := (x[3] - m[3] - float64(l[3][0]*u0) - float64(l[3][1]*u1) - float64(l[3][2]*u2)) / l[3][3]
-	q += float64(u3 * u3)
-	if d == 4 {
-		return q
-	}
-	u4 := (x[4] - m[4] - float64(l[4][0]*u0) - float64(l[4][1]*u1) - float64(l[4][2]*u2) - float64(l[4][3]*u3)) / l[4][4]
-	q += float64(u4 * u4)
-	if d == 5 {
-		return q
-	}
-	u5 := (x[5] - m[5] - float64(l[5][0]*u0) - float64(l[5][1]*u1) - float64(l[5][2]*u2) - float64(l[5][3]*u3) - float64(l[5][4]*u4)) / l[5][5]
-	q += float64(u5 * u5)
-	if d == 6 {
-		return q
-	}
-	u6 := (x[6] - m[6] - float64(l[6][0]*u0) - float64(l[6][1]*u1) - float64(l[6][2]*u2) - float64(l[6][3]*u3) - float64(l[6][4]*u4) - float64(l[6][5]*u5)) / l[6][6]
-	q += float64(u6 * u6)
-	if d == 7 {
-		return q
-	}
-	u7 := (x[7] - m[7] - float64(l[7][0]*u0) - float64(l[7][1]*u1) - float64(l[7][2]*u2) - float64(l[7][3]*u3) - float64(l[7][4]*u4) - float64(l[7][5]*u5) - float64(l[7][6]*u6)) / l[7][7]
-	q += float64(u7 * u7)
-	return q
-}
-
-// affine sets y = μ + L z over all smallDim rows (rows beyond d are 0
-// and not read), each row summed in the order of the loop it replaces.
-func (c *component) affine(z, y *[smallDim]float64) {
+// affine sets y = μ + L z on the first d rows, each row summed in the
+// order of the loop it replaces (lanes of z beyond d are not read, nor
+// those of y written).
+func (c *component) affine(d int, z, y *[smallDim]float64) {
 	l, m := &c.l8, &c.mu8
 	y[0] = m[0] + float64(l[0][0]*z[0])
+	if d == 1 {
+		return
+	}
 	y[1] = m[1] + float64(l[1][0]*z[0]) + float64(l[1][1]*z[1])
+	if d == 2 {
+		return
+	}
 	y[2] = m[2] + float64(l[2][0]*z[0]) + float64(l[2][1]*z[1]) + float64(l[2][2]*z[2])
+	if d == 3 {
+		return
+	}
 	y[3] = m[3] + float64(l[3][0]*z[0]) + float64(l[3][1]*z[1]) + float64(l[3][2]*z[2]) + float64(l[3][3]*z[3])
+	if d == 4 {
+		return
+	}
 	y[4] = m[4] + float64(l[4][0]*z[0]) + float64(l[4][1]*z[1]) + float64(l[4][2]*z[2]) + float64(l[4][3]*z[3]) + float64(l[4][4]*z[4])
+	if d == 5 {
+		return
+	}
 	y[5] = m[5] + float64(l[5][0]*z[0]) + float64(l[5][1]*z[1]) + float64(l[5][2]*z[2]) + float64(l[5][3]*z[3]) + float64(l[5][4]*z[4]) + float64(l[5][5]*z[5])
+	if d == 6 {
+		return
+	}
 	y[6] = m[6] + float64(l[6][0]*z[0]) + float64(l[6][1]*z[1]) + float64(l[6][2]*z[2]) + float64(l[6][3]*z[3]) + float64(l[6][4]*z[4]) + float64(l[6][5]*z[5]) + float64(l[6][6]*z[6])
+	if d == 7 {
+		return
+	}
 	y[7] = m[7] + float64(l[7][0]*z[0]) + float64(l[7][1]*z[1]) + float64(l[7][2]*z[2]) + float64(l[7][3]*z[3]) + float64(l[7][4]*z[4]) + float64(l[7][5]*z[5]) + float64(l[7][6]*z[6]) + float64(l[7][7]*z[7])
 }
 

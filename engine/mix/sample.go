@@ -54,6 +54,7 @@ type sampleWork struct {
 	lanes    bool                        // linearAt may use zg (lanes.go)
 	z0, zl   [nLanes]float64             // the lanes' values at z = 0 and at the draw's errors
 	fits     [1 << MaxEndMembers]faceFit // slabDraw's working space
+	slab     slabScratch
 
 	workBufs
 }
@@ -70,6 +71,7 @@ type workBufs struct {
 	lq      []float64   // log mixture density over the prior density, per draw
 
 	z, eta, u []float64
+	ex        []float64 // drawOne's
 	zg        []float64 // the gradients of the lanes (lanes.go), error source by source
 
 	ellFree      [][]float64 // ell rows of earlier samples, for reuse
@@ -167,8 +169,9 @@ func (r *Run) begin(s int) *sampleWork {
 	w.rec = slices.Grow(w.rec[:0], w.size*w.stride)
 	w.stageOf = w.stageOf[:0]
 	w.z = zeroed(w.z, st.q)
-	w.eta = zeroed(w.eta, w.d)
-	w.u = zeroed(w.u, w.d)
+	w.eta = zeroed(w.eta, max(w.d, smallDim))[:w.d]
+	w.u = zeroed(w.u, max(w.d, smallDim))[:w.d] // room for ellSmall to read smallDim lanes
+	w.ex = zeroed(w.ex, w.d)
 	w.prepare(r)
 	return w
 }
@@ -279,9 +282,15 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 		} else {
 			w.props[s-1].draw(uc, w.u, w.eta)
 		}
+		x := w.ex[:len(st.dims)]
 		for a, k := range st.dims {
 			d := r.dims[k]
-			w.theta[d.t][d.em] = pexp(r.smp[d.t][d.em].fromLatent(w.eta[a]))
+			x[a] = r.smp[d.t][d.em].fromLatent(w.eta[a])
+		}
+		portable.ExpAll(x) // the ratios' exponentials in one call
+		for a, k := range st.dims {
+			d := r.dims[k]
+			w.theta[d.t][d.em] = x[a]
 		}
 		for t := range NTracers {
 			if !r.need[t] {
@@ -304,8 +313,7 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	if len(w.rec)+w.stride > cap(w.rec) {
 		w.rec = slices.Grow(w.rec, max(w.stride, len(w.rec)))
 	}
-	w.rec = w.rec[:len(w.rec)+w.stride]
-	clear(w.rec[len(w.rec)-w.stride:])
+	w.rec = w.rec[:len(w.rec)+w.stride] // every field is written below: the latents here, the rest by eval
 	copy(w.latents(k), w.eta)
 	for si := range w.props {
 		w.ell[si] = append(w.ell[si], w.props[si].ell(w.eta, w.u))
@@ -400,7 +408,10 @@ func (r *Run) eval(w *sampleWork, k int) {
 		}
 	}
 	rec[o+oLogL], rec[o+oFace], rec[o+oD] = logL, float64(face), dd
-	copy(w.amounts(k), n1[:K])
+	am := w.amounts(k)
+	for jj := range am { // rather than a copy call
+		am[jj] = n1[jj]
+	}
 	pr := w.pred(k)
 	for i := 0; i < R; i++ {
 		s := 0.0
@@ -541,8 +552,9 @@ func (w *sampleWork) mixture() {
 			sum[k] += v
 		}
 	}
+	portable.LogAll(sum)
 	for k, v := range sum {
-		w.lq[k] = big[k] + plog(v)
+		w.lq[k] = big[k] + v
 	}
 }
 

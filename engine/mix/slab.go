@@ -1,6 +1,10 @@
 package mix
 
-import "math"
+import (
+	"math"
+
+	"lixiv/engine/internal/portable"
+)
 
 // The amounts n_j (µmol/L of Na from end-member j) have a spike-and-slab
 // prior: each end-member is present or absent with probability ½, on its
@@ -72,6 +76,20 @@ type faceFit struct {
 	logZ float64
 	hd   float64 // ln det L, the sum of ln L_ii in order
 	p    float64 // exp(logZ − largest logZ): the face's unnormalised chance
+
+	ok           bool    // the face's problem was solved
+	t, chi2, jac float64 // its Laplace estimate's sums (solve)
+	off          int     // where its members' terms begin in slabScratch
+}
+
+// slabScratch holds slabDraw's batches of logs and exponentials: per member
+// of each face solved, its factor's diagonal and the parts of its normal
+// distribution function (perfcArg); per face solved, its total.
+type slabScratch struct {
+	diag, x, t, e [MaxEndMembers << (MaxEndMembers - 1)]float64
+	te            [1 << MaxEndMembers]float64
+	logs          [2*MaxEndMembers<<(MaxEndMembers-1) + 1<<MaxEndMembers]float64
+	p             [1 << MaxEndMembers]float64
 }
 
 // slabDraw samples the face and the amounts for the draw whose whitened
@@ -92,50 +110,91 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	logPrior := -float64(K) * math.Ln2
 	fits := &w.fits // working space: each entry is written before it is read (m is reset below)
 	nf := 1 << K
+	sc := &w.slab
 	var logc [MaxEndMembers]float64
-	for j := 0; j < K; j++ {
-		logc[j] = plog(c[j])
-	}
+	copy(logc[:K], c[:K])
+	portable.LogAll(logc[:K])
 	top := logPrior - 0.5*yy // the empty face: n = 0
 	fits[0].logZ = top
+	// Each face's least-squares problem, and the arguments of the logs
+	// and exponentials of its Laplace estimate: gathered over all faces
+	// and taken in two calls (portable.ExpAll, LogAll), which WebAssembly
+	// makes far faster than one call each. The estimate is then summed in
+	// the order of the face-by-face loop it replaces (slab_small_test.go).
+	nm, nok := 0, 0 // members of the faces solved, and those faces
 	for mask := 1; mask < nf; mask++ {
 		f := &fits[mask]
 		f.logZ = math.Inf(-1)
 		f.idx, f.m = faceMembers[mask], faceSize[mask]
 		m := f.m
-		var t, chi2, jac float64
-		var ok bool
 		switch m {
 		case 1:
-			t, chi2, jac, ok = f.solve1(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve1(H, b, c, &logc, yy, lambda)
 		case 2:
-			t, chi2, jac, ok = f.solve2(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve2(H, b, c, &logc, yy, lambda)
 		case 3:
-			t, chi2, jac, ok = f.solve3(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve3(H, b, c, &logc, yy, lambda)
 		case 4:
-			t, chi2, jac, ok = f.solve4(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve4(H, b, c, &logc, yy, lambda)
 		case 5:
-			t, chi2, jac, ok = f.solve5(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve5(H, b, c, &logc, yy, lambda)
 		default:
-			t, chi2, jac, ok = f.solve6(H, b, c, &logc, yy, lambda)
+			f.t, f.chi2, f.jac, f.ok = f.solve6(H, b, c, &logc, yy, lambda)
 		}
-		if !ok {
+		if !f.ok {
 			continue
 		}
-		halfDet, vt := f.hd, 0.0
-		var sd [MaxEndMembers]float64
+		f.off = nm
+		vt := 0.0
 		for i := 0; i < m; i++ {
+			g := nm + i
 			v := invDiag(m, &f.l, i)
-			sd[i] = sqrt(v)
+			sd := sqrt(v)
 			vt += c[f.idx[i]] * c[f.idx[i]] * v
+			sc.diag[g] = f.l[i][i]
+			// normCDF(μ_i/sd_i) = perfc(x)/2: its exponential's argument.
+			x := -(f.mu[i] / sd) * 0.7071067811865476
+			sc.x[g] = x
+			sc.t[g], sc.e[g] = perfcArg(x)
 		}
+		nm += m
 		// The prior at a total that is no smaller than its own spread
 		// (the log-uniform density is steep near zero; a point value
 		// there would overstate the face).
-		te := sqrt(t*t + vt)
-		lz := logPrior + logSlab(m, fmax(te, slabLo)) + jac - 0.5*fmax(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
-		for i := 0; i < m; i++ {
-			lz += plog(fmax(normCDF(f.mu[i]/sd[i]), 1e-300))
+		sc.te[nok] = fmax(sqrt(f.t*f.t+vt), slabLo)
+		nok++
+	}
+	portable.ExpAll(sc.e[:nm])
+	// The logs: the factors' diagonals, the normal distribution functions
+	// (at least 1e-300) and the totals, one after the other.
+	lg := sc.logs[:2*nm+nok]
+	copy(lg, sc.diag[:nm])
+	for g := range nm {
+		lg[nm+g] = fmax(0.5*perfcFrom(sc.x[g], sc.t[g], sc.e[g]), 1e-300)
+	}
+	copy(lg[2*nm:], sc.te[:nok])
+	portable.LogAll(lg)
+	fi := 0
+	for mask := 1; mask < nf; mask++ {
+		f := &fits[mask]
+		if !f.ok {
+			continue
+		}
+		m := f.m
+		halfDet := 0.0
+		for _, v := range lg[f.off : f.off+m] {
+			halfDet += v
+		}
+		f.hd = halfDet
+		te := sc.te[fi]
+		slab := math.Inf(-1) // logSlab(m, te), its log taken above
+		if te >= slabLo && te <= slabHi {
+			slab = logFact[m] - float64(m)*lg[2*nm+fi] - logSlabNorm
+		}
+		fi++
+		lz := logPrior + slab + f.jac - 0.5*fmax(f.chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
+		for _, v := range lg[nm+f.off : nm+f.off+m] {
+			lz += v
 		}
 		if lz != lz {
 			continue
@@ -144,10 +203,15 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		top = fmax(top, lz)
 	}
 	// Choose a face in proportion to the estimates.
+	ps := sc.p[:nf]
+	for mask := range ps {
+		ps[mask] = fits[mask].logZ - top
+	}
+	portable.ExpAll(ps)
 	sum := 0.0
-	for mask := 0; mask < nf; mask++ {
-		fits[mask].p = pexp(fits[mask].logZ - top)
-		sum += fits[mask].p
+	for mask, p := range ps {
+		fits[mask].p = p
+		sum += p
 	}
 	u := pcgUniform(w.src) * sum
 	pick, acc := -1, 0.0

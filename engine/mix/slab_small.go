@@ -11,15 +11,12 @@ package mix
 func (f *faceFit) solve1(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0 := f.idx[0]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	mu0 := (y0) / l[0][0]
 	f.mu[0] = mu0
@@ -35,14 +32,12 @@ func (f *faceFit) solve1(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 func (f *faceFit) solve2(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0, i1 := f.idx[0], f.idx[1]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
 	l[1][0] = (H[i1][i0]) / d0
 	d1 := H[i1][i1] + lambda - float64(l[1][0]*l[1][0])
 	if !(d1 > 0) {
@@ -50,8 +45,6 @@ func (f *faceFit) solve2(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d1 = sqrt(d1)
 	l[1][1] = d1
-	halfDet += plog(d1)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	y1 := (b[i1] - float64(l[1][0]*y0)) / l[1][1]
 	mu1 := (y1) / l[1][1]
@@ -75,14 +68,12 @@ func (f *faceFit) solve2(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 func (f *faceFit) solve3(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0, i1, i2 := f.idx[0], f.idx[1], f.idx[2]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
 	l[1][0] = (H[i1][i0]) / d0
 	l[2][0] = (H[i2][i0]) / d0
 	d1 := H[i1][i1] + lambda - float64(l[1][0]*l[1][0])
@@ -91,7 +82,6 @@ func (f *faceFit) solve3(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d1 = sqrt(d1)
 	l[1][1] = d1
-	halfDet += plog(d1)
 	l[2][1] = (H[i2][i1] - float64(l[2][0]*l[1][0])) / d1
 	d2 := H[i2][i2] + lambda - float64(l[2][0]*l[2][0]) - float64(l[2][1]*l[2][1])
 	if !(d2 > 0) {
@@ -99,8 +89,6 @@ func (f *faceFit) solve3(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d2 = sqrt(d2)
 	l[2][2] = d2
-	halfDet += plog(d2)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	y1 := (b[i1] - float64(l[1][0]*y0)) / l[1][1]
 	y2 := (b[i2] - float64(l[2][0]*y0) - float64(l[2][1]*y1)) / l[2][2]
@@ -134,14 +122,12 @@ func (f *faceFit) solve3(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 func (f *faceFit) solve4(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0, i1, i2, i3 := f.idx[0], f.idx[1], f.idx[2], f.idx[3]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
 	l[1][0] = (H[i1][i0]) / d0
 	l[2][0] = (H[i2][i0]) / d0
 	l[3][0] = (H[i3][i0]) / d0
@@ -151,7 +137,6 @@ func (f *faceFit) solve4(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d1 = sqrt(d1)
 	l[1][1] = d1
-	halfDet += plog(d1)
 	l[2][1] = (H[i2][i1] - float64(l[2][0]*l[1][0])) / d1
 	l[3][1] = (H[i3][i1] - float64(l[3][0]*l[1][0])) / d1
 	d2 := H[i2][i2] + lambda - float64(l[2][0]*l[2][0]) - float64(l[2][1]*l[2][1])
@@ -160,7 +145,6 @@ func (f *faceFit) solve4(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d2 = sqrt(d2)
 	l[2][2] = d2
-	halfDet += plog(d2)
 	l[3][2] = (H[i3][i2] - float64(l[3][0]*l[2][0]) - float64(l[3][1]*l[2][1])) / d2
 	d3 := H[i3][i3] + lambda - float64(l[3][0]*l[3][0]) - float64(l[3][1]*l[3][1]) - float64(l[3][2]*l[3][2])
 	if !(d3 > 0) {
@@ -168,8 +152,6 @@ func (f *faceFit) solve4(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d3 = sqrt(d3)
 	l[3][3] = d3
-	halfDet += plog(d3)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	y1 := (b[i1] - float64(l[1][0]*y0)) / l[1][1]
 	y2 := (b[i2] - float64(l[2][0]*y0) - float64(l[2][1]*y1)) / l[2][2]
@@ -215,14 +197,12 @@ func (f *faceFit) solve4(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0, i1, i2, i3, i4 := f.idx[0], f.idx[1], f.idx[2], f.idx[3], f.idx[4]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
 	l[1][0] = (H[i1][i0]) / d0
 	l[2][0] = (H[i2][i0]) / d0
 	l[3][0] = (H[i3][i0]) / d0
@@ -233,7 +213,6 @@ func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d1 = sqrt(d1)
 	l[1][1] = d1
-	halfDet += plog(d1)
 	l[2][1] = (H[i2][i1] - float64(l[2][0]*l[1][0])) / d1
 	l[3][1] = (H[i3][i1] - float64(l[3][0]*l[1][0])) / d1
 	l[4][1] = (H[i4][i1] - float64(l[4][0]*l[1][0])) / d1
@@ -243,7 +222,6 @@ func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d2 = sqrt(d2)
 	l[2][2] = d2
-	halfDet += plog(d2)
 	l[3][2] = (H[i3][i2] - float64(l[3][0]*l[2][0]) - float64(l[3][1]*l[2][1])) / d2
 	l[4][2] = (H[i4][i2] - float64(l[4][0]*l[2][0]) - float64(l[4][1]*l[2][1])) / d2
 	d3 := H[i3][i3] + lambda - float64(l[3][0]*l[3][0]) - float64(l[3][1]*l[3][1]) - float64(l[3][2]*l[3][2])
@@ -252,7 +230,6 @@ func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d3 = sqrt(d3)
 	l[3][3] = d3
-	halfDet += plog(d3)
 	l[4][3] = (H[i4][i3] - float64(l[4][0]*l[3][0]) - float64(l[4][1]*l[3][1]) - float64(l[4][2]*l[3][2])) / d3
 	d4 := H[i4][i4] + lambda - float64(l[4][0]*l[4][0]) - float64(l[4][1]*l[4][1]) - float64(l[4][2]*l[4][2]) - float64(l[4][3]*l[4][3])
 	if !(d4 > 0) {
@@ -260,8 +237,6 @@ func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d4 = sqrt(d4)
 	l[4][4] = d4
-	halfDet += plog(d4)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	y1 := (b[i1] - float64(l[1][0]*y0)) / l[1][1]
 	y2 := (b[i2] - float64(l[2][0]*y0) - float64(l[2][1]*y1)) / l[2][2]
@@ -321,14 +296,12 @@ func (f *faceFit) solve5(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, lambda float64) (t, chi2, jac float64, ok bool) {
 	l := &f.l
 	i0, i1, i2, i3, i4, i5 := f.idx[0], f.idx[1], f.idx[2], f.idx[3], f.idx[4], f.idx[5]
-	halfDet := 0.0
 	d0 := H[i0][i0] + lambda
 	if !(d0 > 0) {
 		return 0, 0, 0, false
 	}
 	d0 = sqrt(d0)
 	l[0][0] = d0
-	halfDet += plog(d0)
 	l[1][0] = (H[i1][i0]) / d0
 	l[2][0] = (H[i2][i0]) / d0
 	l[3][0] = (H[i3][i0]) / d0
@@ -340,7 +313,6 @@ func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d1 = sqrt(d1)
 	l[1][1] = d1
-	halfDet += plog(d1)
 	l[2][1] = (H[i2][i1] - float64(l[2][0]*l[1][0])) / d1
 	l[3][1] = (H[i3][i1] - float64(l[3][0]*l[1][0])) / d1
 	l[4][1] = (H[i4][i1] - float64(l[4][0]*l[1][0])) / d1
@@ -351,7 +323,6 @@ func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d2 = sqrt(d2)
 	l[2][2] = d2
-	halfDet += plog(d2)
 	l[3][2] = (H[i3][i2] - float64(l[3][0]*l[2][0]) - float64(l[3][1]*l[2][1])) / d2
 	l[4][2] = (H[i4][i2] - float64(l[4][0]*l[2][0]) - float64(l[4][1]*l[2][1])) / d2
 	l[5][2] = (H[i5][i2] - float64(l[5][0]*l[2][0]) - float64(l[5][1]*l[2][1])) / d2
@@ -361,7 +332,6 @@ func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d3 = sqrt(d3)
 	l[3][3] = d3
-	halfDet += plog(d3)
 	l[4][3] = (H[i4][i3] - float64(l[4][0]*l[3][0]) - float64(l[4][1]*l[3][1]) - float64(l[4][2]*l[3][2])) / d3
 	l[5][3] = (H[i5][i3] - float64(l[5][0]*l[3][0]) - float64(l[5][1]*l[3][1]) - float64(l[5][2]*l[3][2])) / d3
 	d4 := H[i4][i4] + lambda - float64(l[4][0]*l[4][0]) - float64(l[4][1]*l[4][1]) - float64(l[4][2]*l[4][2]) - float64(l[4][3]*l[4][3])
@@ -370,7 +340,6 @@ func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d4 = sqrt(d4)
 	l[4][4] = d4
-	halfDet += plog(d4)
 	l[5][4] = (H[i5][i4] - float64(l[5][0]*l[4][0]) - float64(l[5][1]*l[4][1]) - float64(l[5][2]*l[4][2]) - float64(l[5][3]*l[4][3])) / d4
 	d5 := H[i5][i5] + lambda - float64(l[5][0]*l[5][0]) - float64(l[5][1]*l[5][1]) - float64(l[5][2]*l[5][2]) - float64(l[5][3]*l[5][3]) - float64(l[5][4]*l[5][4])
 	if !(d5 > 0) {
@@ -378,8 +347,6 @@ func (f *faceFit) solve6(H *mat6, b, c *vec6, logc *[MaxEndMembers]float64, yy, 
 	}
 	d5 = sqrt(d5)
 	l[5][5] = d5
-	halfDet += plog(d5)
-	f.hd = halfDet
 	y0 := (b[i0]) / l[0][0]
 	y1 := (b[i1] - float64(l[1][0]*y0)) / l[1][1]
 	y2 := (b[i2] - float64(l[2][0]*y0) - float64(l[2][1]*y1)) / l[2][2]
