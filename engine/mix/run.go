@@ -160,28 +160,6 @@ func uniform(rng *rand.Rand) float64 {
 	return (float64(rng.Uint64()>>11) + 0.5) * 0x1p-53
 }
 
-// pcgUniform is uniform on a PCG stream itself: the same numbers as
-// uniform(rand.New(p)), without the call through the Source interface
-// (which cannot be inlined, and costs in WebAssembly).
-func pcgUniform(p *rand.PCG) float64 {
-	return (float64(p.Uint64()>>11) + 0.5) * 0x1p-53
-}
-
-// normals fills z with normQuantile(pcgUniform(p)), in order, in one call.
-func normals(z []float64, p *rand.PCG) {
-	for i := range z {
-		u := (float64(p.Uint64()>>11) + 0.5) * 0x1p-53 // pcgUniform(p), written out
-		if u < pLow || u > 1-pLow {
-			z[i] = normQuantile(u)
-			continue
-		}
-		// normQuantile's central part, written out (no call for most u).
-		q := u - 0.5
-		r := q * q
-		z[i] = horner6(r, qa1, qa2, qa3, qa4, qa5, qa6) * q / horner6(r, qb1, qb2, qb3, qb4, qb5, 1)
-	}
-}
-
 // Total returns the nominal work of the run, in draws: the first-stage
 // draws of every sample (refinement adds to it as it goes).
 func (r *Run) Total() int { return len(r.prob.Waters) * r.opt.Draws }

@@ -33,8 +33,8 @@ type sampleWork struct {
 	st       *setup
 	rng      *rand.Rand // end-member ratios, faces and amounts
 	zrng     *rand.Rand // errors of the data
-	src      *rand.PCG  // rng's source, for pcgUniform and normals
-	zsrc     *rand.PCG  // zrng's
+	src      *stream    // rng's source, for pcgUniform and normals
+	zsrc     *stream    // zrng's
 	d, k     int        // latent dimensions and end-members taking part
 	stride   int        // floats per draw record
 	props    []proposal
@@ -72,6 +72,9 @@ type workBufs struct {
 
 	z, eta, u []float64
 	ex        []float64 // drawOne's
+	fixed     []ratioAt // the constant ratios a draw reads, in drawOne's order
+	drawn     []ratioAt // those drawn from their priors alone (not the likelihood's)
+	dx        []float64 // drawOne's working space for them
 	zg        []float64 // the gradients of the lanes (lanes.go), error source by source
 
 	ellFree      [][]float64 // ell rows of earlier samples, for reuse
@@ -114,9 +117,12 @@ func (w *sampleWork) frac(k, jj int) float64 {
 
 func (w *sampleWork) split(k int) (sp Split) {
 	o := k*w.stride + w.d + oFrac + w.k
-	for src := range NSources {
-		copy(sp[src][:], w.rec[o+int(src)*NCations:o+int(src+1)*NCations])
-	}
+	rec := w.rec[o : o+int(NSources)*NCations]
+	// Source by source, as array assignments rather than copy calls.
+	sp[0] = *(*[NCations]float64)(rec[0*NCations:])
+	sp[1] = *(*[NCations]float64)(rec[1*NCations:])
+	sp[2] = *(*[NCations]float64)(rec[2*NCations:])
+	sp[3] = *(*[NCations]float64)(rec[3*NCations:])
 	return sp
 }
 
@@ -155,12 +161,12 @@ func (r *Run) begin(s int) *sampleWork {
 		w.finished = true
 		return w
 	}
-	w.src = rand.NewPCG(r.opt.Seed^sampleStream, uint64(s))
+	w.src = newStream(r.opt.Seed^sampleStream, uint64(s))
 	w.rng = rand.New(w.src)
 	// The data perturbations come from a stream of their own, so that an
 	// error source of no effect (a spread of 0 against one too small to
 	// move a value) leaves the other draws unchanged.
-	w.zsrc = rand.NewPCG(r.opt.Seed^errorStream, uint64(s))
+	w.zsrc = newStream(r.opt.Seed^errorStream, uint64(s))
 	w.zrng = rand.New(w.zsrc)
 	w.stride = w.d + oFrac + w.k + int(NSources)*NCations + 1 + st.r
 	w.size = min(r.opt.Draws, r.opt.MaxDraws)
@@ -218,10 +224,32 @@ func zeroed(buf []float64, n int) []float64 {
 // sized returns buf resized to n; its elements are left as they were.
 func sized[T any](buf []T, n int) []T { return slices.Grow(buf[:0], n)[:n] }
 
-// prepare sets what eval reads of the sample besides its setup: the lanes
+// ratioAt names the ratio of tracer t and end-member j.
+type ratioAt struct {
+	t Tracer
+	j int
+}
+
+// prepare sets what drawOne and eval read of the sample besides its setup:
+// the ratios a draw fixes or draws from their priors alone, the lanes
 // (lanes.go) and the end-members' sources. begin calls it; eval calls it
 // for sample work made otherwise (the catchment-wide model's summaries).
 func (w *sampleWork) prepare(r *Run) {
+	w.fixed, w.drawn = w.fixed[:0], w.drawn[:0]
+	for t := range NTracers {
+		if !r.need[t] {
+			continue
+		}
+		for _, j := range w.st.act {
+			switch {
+			case r.smp[t][j].constant:
+				w.fixed = append(w.fixed, ratioAt{t, j})
+			case !r.lik[t]:
+				w.drawn = append(w.drawn, ratioAt{t, j})
+			}
+		}
+	}
+	w.dx = sized(w.dx, len(w.drawn))
 	w.setLanes()
 	for jj, j := range w.st.act {
 		w.srcOf[jj] = r.prob.EndMembers[j].Source
@@ -274,8 +302,9 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			w.eta[a] = r.eta[i*len(r.dims)+k]
 		}
 	} else {
-		prior := pcgUniform(w.src) < defensive
-		uc := pcgUniform(w.src)
+		var pu [2]float64
+		uniforms(pu[:], w.src)
+		prior, uc := pu[0] < defensive, pu[1]
 		normals(w.u[:len(w.eta)], w.src)
 		if prior {
 			copy(w.eta, w.u)
@@ -292,18 +321,26 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			d := r.dims[k]
 			w.theta[d.t][d.em] = x[a]
 		}
-		for t := range NTracers {
-			if !r.need[t] {
-				continue
-			}
-			for _, j := range st.act {
-				sm := &r.smp[t][j]
-				switch {
-				case sm.constant:
-					w.theta[t][j] = sm.v
-				case !r.lik[t]:
-					w.theta[t][j] = sm.draw(pcgUniform(w.src))
+		// The ratios the likelihood does not read, from their priors
+		// (sampler.draw, the uniforms in the same order, the logs'
+		// quantiles and exponentials in batches), and the constant ones.
+		for _, f := range w.fixed {
+			w.theta[f.t][f.j] = r.smp[f.t][f.j].v
+		}
+		if nd := len(w.drawn); nd > 0 {
+			u := w.dx[:nd]
+			uniforms(u, w.src)
+			for i, f := range w.drawn {
+				sm := &r.smp[f.t][f.j]
+				if sm.dist == LogUniform {
+					u[i] = sm.a + float64(u[i]*sm.b)
+				} else {
+					u[i] = sm.a + float64(sm.b*normQuantile(u[i]))
 				}
+			}
+			portable.ExpAll(u)
+			for i, f := range w.drawn {
+				w.theta[f.t][f.j] = u[i]
 			}
 		}
 	}
@@ -366,19 +403,13 @@ func (r *Run) eval(w *sampleWork, k int) {
 	// Perturbation of the whitened data: ε̃ = L⁻¹ G z.
 	w.linearAt()
 	eps := (*[maxRows]float64)(w.zl[laneEps : laneEps+maxRows])
-	for i := 0; i < K; i++ {
-		s1 := 0.0
-		for p := 0; p < R; p++ {
-			s1 += float64(At[p][i] * eps[p])
-		}
-		b1[i] = b0[i] + s1
-	}
+	perturbed(K, &At, eps, &b0, &b1)
 	var dd, logL float64
 	if r.opt.perturb {
 		nnls(K, &H, &b0, &n0)
 		nnls(K, &H, &b1, &n1)
-		chi2 := fmax(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
-		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		chi2 := fmax(0, residual(K, st.yy, &b0, &H, &n0))
+		dd = fmax(0, residual(K, st.yy, &b0, &H, &n1))
 		logL = -0.5 * chi2
 		if !r.opt.noVolume && R >= K {
 			hd, ok := logDetChol(K, &H)
@@ -396,7 +427,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 		if logL != logL {
 			logL = math.Inf(-1)
 		}
-		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		dd = fmax(0, residual(K, st.yy, &b0, &H, &n1))
 		n0 = n1
 	}
 	o := k*w.stride + w.d
@@ -412,14 +443,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	for jj := range am { // rather than a copy call
 		am[jj] = n1[jj]
 	}
-	pr := w.pred(k)
-	for i := 0; i < R; i++ {
-		s := 0.0
-		for jj := 0; jj < K; jj++ {
-			s += float64(A[i][jj] * n0[jj])
-		}
-		pr[i] = s
-	}
+	predicted(w.pred(k), &A, &n0)
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)

@@ -262,7 +262,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	if math.IsInf(lp, -1) {
 		return math.Inf(-1)
 	}
-	chi2 := fmax(0, yy-2*dot(K, b, n)+quad(K, H, n))
+	chi2 := fmax(0, residual(K, yy, b, H, n))
 	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }
