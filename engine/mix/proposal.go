@@ -118,6 +118,13 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 	if len(p.comp) == 0 {
 		p.add(1, pooled)
 	}
+	p.normalise()
+	return p
+}
+
+// normalise scales the components' weights π to a sum of 1 and sets their
+// running sums and logs.
+func (p *proposal) normalise() {
 	tot := 0.0
 	for _, c := range p.comp {
 		tot += c.pi
@@ -129,7 +136,6 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 		p.cum = append(p.cum, acc)
 		p.lpi = append(p.lpi, plog(p.comp[i].pi))
 	}
-	return p
 }
 
 // gaussian is a mean and a covariance (lower triangle, row-major).
