@@ -21,6 +21,24 @@ func plog(x float64) float64 { return portable.Log(x) }
 // fmax is the built-in max of two float64, inlined (portable.Max).
 func fmax(x, y float64) float64 { return portable.Max(x, y) }
 
+// pos is fmax(0, x), and fmax(x, 0), in one comparison: NaN stays NaN and
+// −0 gives +0.
+func pos(x float64) float64 {
+	if x <= 0 {
+		return 0
+	}
+	return x
+}
+
+// atLeast is fmax(x, c) for a c above zero, in one comparison (NaN stays
+// NaN).
+func atLeast(x, c float64) float64 {
+	if x < c {
+		return c
+	}
+	return x
+}
+
 // The central part of normQuantile (Acklam 2003, as below): for p in
 // [pLow, 1 − pLow], q = p − 0.5, r = q², the quantile is
 // qa(r)·q / qb(r), with the coefficients of qa and qb.
@@ -139,7 +157,7 @@ func chi2Survival(nu int, x float64) float64 {
 			term = float64(term*x) / float64(2*i)
 			sum += term
 		}
-		return min(1, float64(pexp(-0.5*x)*sum))
+		return portable.Min(1, float64(pexp(-0.5*x)*sum))
 	}
 	s := sqrt(x)
 	q := 2 * (1 - normCDF(s))
@@ -154,5 +172,5 @@ func chi2Survival(nu int, x float64) float64 {
 		sum += term
 	}
 	phi := 0.3989422804014327 * pexp(-0.5*x)
-	return min(1, q+float64(2*phi*sum))
+	return portable.Min(1, q+float64(2*phi*sum))
 }

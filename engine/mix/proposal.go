@@ -82,13 +82,16 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 		return priorProposal(d)
 	}
 	shrink(d, pooled, ess, nil)
-	// Faces with a fair share of the weight.
-	share := map[int]float64{}
+	// Faces with a fair share of the weight (a face is a mask of the
+	// end-members taking part).
+	var share [1 << MaxEndMembers]float64
+	var seen [1 << MaxEndMembers]bool
 	var faces []int
 	for k := range ds.n {
 		if w[k] > 0 {
 			f := ds.faceOf(k)
-			if _, seen := share[f]; !seen {
+			if !seen[f] {
+				seen[f] = true
 				faces = append(faces, f)
 			}
 			share[f] += w[k] / tw

@@ -408,8 +408,8 @@ func (r *Run) eval(w *sampleWork, k int) {
 	if r.opt.perturb {
 		nnls(K, &H, &b0, &n0)
 		nnls(K, &H, &b1, &n1)
-		chi2 := fmax(0, residual(K, st.yy, &b0, &H, &n0))
-		dd = fmax(0, residual(K, st.yy, &b0, &H, &n1))
+		chi2 := pos(residual(K, st.yy, &b0, &H, &n0))
+		dd = pos(residual(K, st.yy, &b0, &H, &n1))
 		logL = -0.5 * chi2
 		if !r.opt.noVolume && R >= K {
 			hd, ok := logDetChol(K, &H)
@@ -427,7 +427,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 		if logL != logL {
 			logL = math.Inf(-1)
 		}
-		dd = fmax(0, residual(K, st.yy, &b0, &H, &n1))
+		dd = pos(residual(K, st.yy, &b0, &H, &n1))
 		n0 = n1
 	}
 	o := k*w.stride + w.d
@@ -447,7 +447,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
-	w.rec[o+oFrac+K+int(NSources)*NCations] = fmax(0, w.zl[laneSO4])
+	w.rec[o+oFrac+K+int(NSources)*NCations] = pos(w.zl[laneSO4])
 }
 
 // design fills A with the design of st's rows for the ratios th: 1 in the
@@ -484,9 +484,9 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
-		atm, evap := fmax(0, w.zl[laneAtm+c]), fmax(0, w.zl[laneEvap+c])
+		atm, evap := pos(w.zl[laneAtm+c]), pos(w.zl[laneEvap+c])
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		x := fmax(0, st.in[c]-atm-evap)
+		x := pos(st.in[c]-atm-evap)
 		// The four sources written out (NSources is 4).
 		switch {
 		case !st.has[c]:
@@ -548,37 +548,50 @@ func (w *sampleWork) mixture() {
 	// Stage by stage over all draws rather than draw by draw, so that the
 	// exponentials go in batches (portable.ExpAll); each draw's largest
 	// term and sum are formed in the same order as draw by draw.
-	n := w.n
+	n, S := w.n, len(w.props)
 	w.lq = sized(w.lq, n)
 	big := w.lq // the largest term of each draw, until the end
-	for k := range big {
-		big[k] = lc0
-	}
-	for s := range w.props {
-		e := w.ell[s][:n]
-		for k, v := range e {
-			big[k] = fmax(big[k], lc[s]+v)
-		}
-	}
 	w.msum, w.mterm = sized(w.msum, n), sized(w.mterm, n)
 	sum, term := w.msum, w.mterm
-	for k, b := range big {
-		sum[k] = lc0 - b
-	}
-	portable.ExpAll(sum)
-	for s := range w.props {
-		e := w.ell[s][:n]
-		for k, b := range big {
-			term[k] = lc[s] + e[k] - b
+	if S == 0 {
+		for k := range big {
+			big[k], sum[k] = lc0, lc0-lc0
 		}
+		portable.ExpAll(sum)
+	} else {
+		e := w.ell[0][:n]
+		for k, v := range e {
+			big[k] = fmax(lc0, lc[0]+v)
+		}
+		for s := 1; s < S; s++ {
+			e := w.ell[s][:n]
+			for k, v := range e {
+				big[k] = fmax(big[k], lc[s]+v)
+			}
+		}
+		// The prior's term and the first stage's, then each stage's
+		// added as the next one's argument takes its place.
+		e = w.ell[0][:n]
+		for k, b := range big {
+			sum[k], term[k] = lc0-b, lc[0]+e[k]-b
+		}
+		portable.ExpAll(sum)
 		portable.ExpAll(term)
+		for s := 1; s < S; s++ {
+			e := w.ell[s][:n]
+			for k, b := range big {
+				sum[k] += term[k]
+				term[k] = lc[s] + e[k] - b
+			}
+			portable.ExpAll(term)
+		}
 		for k, v := range term {
 			sum[k] += v
 		}
 	}
 	portable.LogAll(sum)
 	for k, v := range sum {
-		w.lq[k] = big[k] + v
+		big[k] += v
 	}
 }
 

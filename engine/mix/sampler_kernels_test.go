@@ -473,3 +473,21 @@ func TestQuantileAndErfcSameBits(t *testing.T) {
 		}
 	}
 }
+
+func TestPosAndAtLeastAreMax(t *testing.T) {
+	rng := rand.New(rand.NewPCG(19, 20))
+	for i := range 100000 {
+		x := odd(rng)
+		if i < 6 {
+			x = []float64{math.NaN(), math.Inf(1), math.Inf(-1), 0, math.Copysign(0, -1), 1}[i]
+		}
+		if !same(pos(x), max(0, x)) || !same(pos(x), max(x, 0)) {
+			t.Fatalf("pos(%v) = %v, max %v", x, pos(x), max(0, x))
+		}
+		for _, c := range []float64{slabLo, 1e-300, 5e-324, 1e300} {
+			if !same(atLeast(x, c), max(x, c)) {
+				t.Fatalf("atLeast(%v, %v) = %v, max %v", x, c, atLeast(x, c), max(x, c))
+			}
+		}
+	}
+}

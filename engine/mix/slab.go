@@ -161,7 +161,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		// The prior at a total that is no smaller than its own spread
 		// (the log-uniform density is steep near zero; a point value
 		// there would overstate the face).
-		sc.te[nok] = fmax(sqrt(f.t*f.t+vt), slabLo)
+		sc.te[nok] = atLeast(sqrt(f.t*f.t+vt), slabLo)
 		nok++
 	}
 	portable.ExpAll(sc.e[:nm])
@@ -170,7 +170,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	lg := sc.logs[:2*nm+nok]
 	copy(lg, sc.diag[:nm])
 	for g := range nm {
-		lg[nm+g] = fmax(0.5*perfcFrom(sc.x[g], sc.t[g], sc.e[g]), 1e-300)
+		lg[nm+g] = atLeast(0.5*perfcFrom(sc.x[g], sc.t[g], sc.e[g]), 1e-300)
 	}
 	copy(lg[2*nm:], sc.te[:nok])
 	portable.LogAll(lg)
@@ -192,7 +192,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 			slab = logFact[m] - float64(m)*lg[2*nm+fi] - logSlabNorm
 		}
 		fi++
-		lz := logPrior + slab + f.jac - 0.5*fmax(f.chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
+		lz := logPrior + slab + f.jac - 0.5*pos(f.chi2) + 0.5*float64(m)*log2Pi - halfDet
 		for _, v := range lg[nm+f.off : nm+f.off+m] {
 			lz += v
 		}
@@ -262,7 +262,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	if math.IsInf(lp, -1) {
 		return math.Inf(-1)
 	}
-	chi2 := fmax(0, residual(K, yy, b, H, n))
+	chi2 := pos(residual(K, yy, b, H, n))
 	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }

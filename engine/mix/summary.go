@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"lixiv/engine/internal/portable"
 )
 
 // Thresholds of the verdict (docs/methods.md §7.7; the numbers are
@@ -276,7 +278,7 @@ func (r *Run) misfit(w *sampleWork, keep []int, kw, col []float64, idx *[]wpair)
 	m.Lo, m.Hi = math.Inf(1), math.Inf(-1)
 	for i := range w.n {
 		if v := ratio(w.pred(i)); !math.IsNaN(v) {
-			m.Lo, m.Hi = min(m.Lo, v), max(m.Hi, v)
+			m.Lo, m.Hi = portable.Min(m.Lo, v), fmax(m.Hi, v) // the built-ins, without their calls in WebAssembly
 		}
 	}
 	for a, i := range keep {
