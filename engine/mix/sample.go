@@ -486,7 +486,7 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 	for c := range NCations {
 		atm, evap := pos(w.zl[laneAtm+c]), pos(w.zl[laneEvap+c])
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		x := pos(st.in[c]-atm-evap)
+		x := pos(st.in[c] - atm - evap)
 		// The four sources written out (NSources is 4).
 		switch {
 		case !st.has[c]:

@@ -62,21 +62,6 @@ func BenchmarkTmpEllLoop(b *testing.B) {
 	tmpSink = s
 }
 
-func BenchmarkTmpMahal(b *testing.B) {
-	p := tmpProp(6, 3)
-	var x [smallDim]float64
-	for i := range 6 {
-		x[i] = 0.1 * float64(i)
-	}
-	s := 0.0
-	for b.Loop() {
-		for range 1000 {
-			s += p.comp[0].mahal(6, &x)
-		}
-	}
-	tmpSink = s
-}
-
 func BenchmarkTmpExp(b *testing.B) {
 	s := 0.0
 	for b.Loop() {
