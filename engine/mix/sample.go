@@ -249,7 +249,7 @@ func (w *sampleWork) prepare(r *Run) {
 			}
 		}
 	}
-	w.dx = sized(w.dx, len(w.drawn))
+	w.dx = sized(w.dx, 2*len(w.drawn))
 	w.setLanes()
 	for jj, j := range w.st.act {
 		w.srcOf[jj] = r.prob.EndMembers[j].Source
@@ -328,14 +328,16 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			w.theta[f.t][f.j] = r.smp[f.t][f.j].v
 		}
 		if nd := len(w.drawn); nd > 0 {
-			u := w.dx[:nd]
+			u, zq := w.dx[:nd], w.dx[nd:2*nd]
 			uniforms(u, w.src)
+			copy(zq, u)
+			quantiles(zq)
 			for i, f := range w.drawn {
 				sm := &r.smp[f.t][f.j]
 				if sm.dist == LogUniform {
 					u[i] = sm.a + float64(u[i]*sm.b)
 				} else {
-					u[i] = sm.a + float64(sm.b*normQuantile(u[i]))
+					u[i] = sm.a + float64(sm.b*zq[i])
 				}
 			}
 			portable.ExpAll(u)
@@ -380,7 +382,9 @@ var logDefensive, logFitted = plog(defensive), plog(1 - defensive)
 // its own stage's proposal alone, e its ell there.
 func ownWeight(logL, e float64) float64 {
 	big := fmax(logDefensive, logFitted+e)
-	return logL - (big + plog(pexp(logDefensive-big)+pexp(logFitted+e-big)))
+	x := [2]float64{logDefensive - big, logFitted + e - big}
+	portable.ExpAll(x[:]) // both in one call
+	return logL - (big + plog(x[0]+x[1]))
 }
 
 // eval solves draw k: the whitened design Ã = L⁻¹A of the draw's ratios,

@@ -464,8 +464,10 @@ func TestQuantileAndErfcSameBits(t *testing.T) {
 		if rng.IntN(10) == 0 {
 			p = math.Ldexp(rng.Float64(), -rng.IntN(1000))
 		}
-		if got, want := normQuantile(p), loopNormQuantile(p); !same(got, want) {
-			t.Fatalf("normQuantile(%v) = %v, loops %v", p, got, want)
+		q := []float64{p}
+		quantiles(q)
+		if got, want := normQuantile(p), loopNormQuantile(p); !same(got, want) || !same(q[0], want) {
+			t.Fatalf("normQuantile(%v) = %v, quantiles %v, loops %v", p, got, q[0], want)
 		}
 		x := odd(rng)
 		if got, want := perfc(x), loopPerfc(x); !same(got, want) {
@@ -487,6 +489,40 @@ func TestPosAndAtLeastAreMax(t *testing.T) {
 		for _, c := range []float64{slabLo, 1e-300, 5e-324, 1e300} {
 			if !same(atLeast(x, c), max(x, c)) {
 				t.Fatalf("atLeast(%v, %v) = %v, max %v", x, c, atLeast(x, c), max(x, c))
+			}
+		}
+	}
+}
+
+func TestCorrsSameBits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 22))
+	for k := 1; k <= MaxEndMembers; k++ {
+		for trial := range 100 {
+			n := 1 + rng.IntN(60)
+			w := &sampleWork{k: k, d: 0, stride: oFrac + k}
+			w.rec = make([]float64, n*w.stride)
+			var keep []int
+			var kw []float64
+			for i := range n {
+				for a := range k {
+					w.rec[i*w.stride+oFrac+a] = math.Abs(odd(rng))
+					if trial%4 == 0 {
+						w.rec[i*w.stride+oFrac+a] = 0 // an amount that does not vary
+					}
+				}
+				if rng.IntN(5) > 0 {
+					keep = append(keep, i)
+					kw = append(kw, rng.Float64())
+				}
+			}
+			var corr [MaxEndMembers][MaxEndMembers]float64
+			w.corrs(keep, kw, &corr)
+			for a := range k {
+				for b := range k {
+					if want := loopCorr(w, keep, kw, a, b); !same(corr[a][b], want) {
+						t.Fatalf("k %d: corr(%d, %d) = %v, loops %v", k, a, b, corr[a][b], want)
+					}
+				}
 			}
 		}
 	}

@@ -401,3 +401,28 @@ func (r *Run) loopSlabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c
 	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }
+
+// loopCorr is the correlation of the a-th and b-th amounts as it was, one
+// pair at a time.
+func loopCorr(w *sampleWork, keep []int, kw []float64, a, b int) float64 {
+	var sw, ma, mb float64
+	for x, i := range keep {
+		f := w.amounts(i)
+		sw += kw[x]
+		ma += kw[x] * f[a]
+		mb += kw[x] * f[b]
+	}
+	ma, mb = ma/sw, mb/sw
+	var saa, sbb, sab float64
+	for x, i := range keep {
+		f := w.amounts(i)
+		da, db := f[a]-ma, f[b]-mb
+		saa += kw[x] * da * da
+		sbb += kw[x] * db * db
+		sab += kw[x] * da * db
+	}
+	if !(saa > 0 && sbb > 0) {
+		return math.NaN()
+	}
+	return sab / math.Sqrt(saa*sbb)
+}

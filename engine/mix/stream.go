@@ -67,24 +67,23 @@ func uniforms(u []float64, p *stream) {
 	}
 }
 
-// normals sets z to normQuantile of uniforms of the stream, in order, with
-// no call for most of them.
+// normals sets z to normQuantile of uniforms of the stream, in order.
 func normals(z []float64, p *stream) {
-	var buf [16]uint64
-	for len(z) > 0 {
-		b := buf[:min(len(z), len(buf))]
-		p.fill(b)
-		for i, x := range b {
-			u := toUniform(x)
-			if u < pLow || u > 1-pLow {
-				z[i] = normQuantile(u)
-				continue
-			}
-			// normQuantile's central part, written out.
-			q := u - 0.5
-			r := q * q
-			z[i] = horner6(r, qa1, qa2, qa3, qa4, qa5, qa6) * q / horner6(r, qb1, qb2, qb3, qb4, qb5, 1)
+	uniforms(z, p)
+	quantiles(z)
+}
+
+// quantiles sets each p[i] in (0, 1) to normQuantile(p[i]), with no call
+// for most of them.
+func quantiles(p []float64) {
+	for i, u := range p {
+		if u < pLow || u > 1-pLow {
+			p[i] = normQuantile(u)
+			continue
 		}
-		z = z[len(b):]
+		// normQuantile's central part, written out.
+		q := u - 0.5
+		r := q * q
+		p[i] = horner6(r, qa1, qa2, qa3, qa4, qa5, qa6) * q / horner6(r, qb1, qb2, qb3, qb4, qb5, 1)
 	}
 }
