@@ -50,8 +50,8 @@ func logSlab(m int, t float64) float64 {
 const log2Pi = 1.8378770664093453
 
 // faceMembers[mask] lists the end-members of the face mask in order (the
-// first faceSize[mask] entries).
-var faceMembers, faceSize = faceTables()
+// first faceCount[mask] entries).
+var faceMembers, faceCount = faceTables()
 
 func faceTables() (members [1 << MaxEndMembers][MaxEndMembers]int, size [1 << MaxEndMembers]int) {
 	for mask := range members {
@@ -125,7 +125,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	for mask := 1; mask < nf; mask++ {
 		f := &fits[mask]
 		f.logZ = math.Inf(-1)
-		f.idx, f.m = faceMembers[mask], faceSize[mask]
+		f.idx, f.m = faceMembers[mask], faceCount[mask]
 		m := f.m
 		switch m {
 		case 1:
