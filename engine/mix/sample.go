@@ -568,9 +568,14 @@ func (w *sampleWork) mixture() {
 			big[k] = fmax(lc0, lc[0]+v)
 		}
 		for s := 1; s < S; s++ {
-			e := w.ell[s][:n]
-			for k, v := range e {
-				big[k] = fmax(big[k], lc[s]+v)
+			e, ls := w.ell[s][:n], lc[s]
+			k := 0
+			for ; k+4 <= n; k += 4 { // four draws a turn (see tempered)
+				b, v := (*[4]float64)(big[k:]), (*[4]float64)(e[k:])
+				b[0], b[1], b[2], b[3] = fmax(b[0], ls+v[0]), fmax(b[1], ls+v[1]), fmax(b[2], ls+v[2]), fmax(b[3], ls+v[3])
+			}
+			for ; k < n; k++ {
+				big[k] = fmax(big[k], ls+e[k])
 			}
 		}
 		// The prior's term and the first stage's, then each stage's
@@ -582,10 +587,17 @@ func (w *sampleWork) mixture() {
 		portable.ExpAll(sum)
 		portable.ExpAll(term)
 		for s := 1; s < S; s++ {
-			e := w.ell[s][:n]
-			for k, b := range big {
+			e, ls := w.ell[s][:n], lc[s]
+			k := 0
+			for ; k+4 <= n; k += 4 {
+				b, v := (*[4]float64)(big[k:]), (*[4]float64)(e[k:])
+				u, t := (*[4]float64)(sum[k:]), (*[4]float64)(term[k:])
+				u[0], u[1], u[2], u[3] = u[0]+t[0], u[1]+t[1], u[2]+t[2], u[3]+t[3]
+				t[0], t[1], t[2], t[3] = ls+v[0]-b[0], ls+v[1]-b[1], ls+v[2]-b[2], ls+v[3]-b[3]
+			}
+			for ; k < n; k++ {
 				sum[k] += term[k]
-				term[k] = lc[s] + e[k] - b
+				term[k] = ls + e[k] - big[k]
 			}
 			portable.ExpAll(term)
 		}
@@ -602,25 +614,51 @@ func (w *sampleWork) mixture() {
 // tempered fills wt with the weights of the likelihood raised to the power
 // beta (after mixture), scaled to a largest weight of 1, and returns their
 // effective sample size.
+//
+// The bisection of endStage calls it a dozen times over all the draws, so
+// its loops take four draws a turn (fewer turns through WebAssembly's
+// dispatch), each draw's arithmetic and the running largest value and sums
+// in draw order as one draw a turn.
 func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
+	n := w.n
+	wt, lq := wt[:n], w.lq[:n]
+	rec, stride, off := w.rec, w.stride, w.d+oLogL
 	top := math.Inf(-1)
-	for k := 0; k < w.n; k++ {
-		wt[k] = beta*w.at(k, oLogL) - w.lq[k]
+	k := 0
+	for ; k+4 <= n; k += 4 {
+		x, q := (*[4]float64)(wt[k:]), (*[4]float64)(lq[k:])
+		o := k*stride + off
+		x[0] = beta*rec[o] - q[0]
+		x[1] = beta*rec[o+stride] - q[1]
+		x[2] = beta*rec[o+2*stride] - q[2]
+		x[3] = beta*rec[o+3*stride] - q[3]
+		top = fmax(fmax(fmax(fmax(top, x[0]), x[1]), x[2]), x[3])
+	}
+	for ; k < n; k++ {
+		wt[k] = beta*rec[k*stride+off] - lq[k]
 		top = fmax(top, wt[k])
 	}
 	if math.IsInf(top, -1) || top != top {
-		clear(wt[:w.n]) // no draw has a finite weight
+		clear(wt) // no draw has a finite weight
 		return 0
 	}
-	sw, sw2 := 0.0, 0.0
-	wt = wt[:w.n]
-	for k := range wt {
+	for k = 0; k+4 <= n; k += 4 {
+		x := (*[4]float64)(wt[k:])
+		x[0], x[1], x[2], x[3] = x[0]-top, x[1]-top, x[2]-top, x[3]-top
+	}
+	for ; k < n; k++ {
 		wt[k] -= top
 	}
 	portable.ExpAll(wt) // the exponentials in one call (see mixture)
-	for _, v := range wt {
-		sw += v
-		sw2 += v * v
+	sw, sw2 := 0.0, 0.0
+	for k = 0; k+4 <= n; k += 4 {
+		x := (*[4]float64)(wt[k:])
+		sw = sw + x[0] + x[1] + x[2] + x[3]
+		sw2 = sw2 + x[0]*x[0] + x[1]*x[1] + x[2]*x[2] + x[3]*x[3]
+	}
+	for ; k < n; k++ {
+		sw += wt[k]
+		sw2 += wt[k] * wt[k]
 	}
 	if sw2 == 0 {
 		return 0
