@@ -689,8 +689,11 @@ func (w *sampleWork) endStage(r *Run) {
 			top = fmax(top, v)
 		}
 		w.lw = lw
-		for _, v := range lw {
-			x := pexp(v - top)
+		for i := range lw {
+			lw[i] -= top
+		}
+		portable.ExpAll(lw) // in one call
+		for _, x := range lw {
 			sw += x
 			sw2 += x * x
 		}
