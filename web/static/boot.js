@@ -73,7 +73,7 @@
     var slots = [], job = null, seq = 0;
     function spawn(i) {
       var w = new Worker("worker.js");
-      var slot = { n: i + 1, worker: w, busy: null, job: 0 };
+      var slot = { n: i + 1, worker: w, busy: null, job: 0, out: 0 };
       w.onmessage = function (ev) { message(slot, ev.data); };
       w.onerror = function (ev) { ev.preventDefault(); lost(slot, ev.message || "a script error"); };
       w.postMessage({ module: module });
@@ -98,12 +98,21 @@
       respawn(slot);
       if (had) { failed("worker " + slot.n + " of " + slots.length + " stopped: " + why); }
     }
+    // feed keeps each worker two samples ahead (ahead): the next one waits
+    // in its queue while it works one, so it need not wait for the page's
+    // thread, busy drawing, to hand it the next.
+    var ahead = 2;
     function feed(slot) {
-      if (!job || slot.busy !== null || job.next >= job.n) { return; }
-      var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
-      if (slot.job !== job.id) { m.doc = job.doc; m.state = job.state; slot.job = job.id; }
-      slot.busy = job.id;
-      slot.worker.postMessage(m);
+      if (!job) { return; }
+      if (slot.busy !== job.id) { slot.out = 0; }
+      // (A worker lost as it is handed a sample ends the job, or is replaced, inside postMessage.)
+      while (job && slots[slot.n - 1] === slot && slot.out < ahead && job.next < job.n) {
+        var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
+        if (slot.job !== job.id) { m.doc = job.doc; m.state = job.state; slot.job = job.id; }
+        slot.busy = job.id;
+        slot.out++;
+        slot.worker.postMessage(m);
+      }
     }
     function report() {
       var f = 0;
@@ -114,7 +123,7 @@
       if (m.fatal) { lost(slot, m.fatal); return; }
       if (!job || m.id !== job.id) { return; }
       if (m.bytes === undefined && !m.error) { job.frac[m.sample] = m.progress; report(); return; }
-      slot.busy = null;
+      if (--slot.out <= 0) { slot.busy = null; }
       if (m.error) { failed("worker " + slot.n + " of " + slots.length + ": " + m.error); return; }
       job.frac[m.sample] = 1;
       job.got++;
