@@ -61,7 +61,10 @@
   // error, naming the worker. Cancelling a job, or a job's error, ends the
   // workers still busy with it and starts fresh ones from the module.
   function pool(module, size) {
-    var p = { size: 0, jobs: 0, run: null };
+    // stats sums, over the jobs done, their time from start to last result
+    // and the time the workers spent on their samples (for the timing
+    // harness: what the page's side of a job costs).
+    var p = { size: 0, jobs: 0, run: null, stats: { jobs: 0, wall: 0, busy: 0 } };
     if (size < 1) {
       note("Computing on the page's own thread (workers=0).");
       return p;
@@ -127,8 +130,14 @@
       if (m.error) { failed("worker " + slot.n + " of " + slots.length + ": " + m.error); return; }
       job.frac[m.sample] = 1;
       job.got++;
+      job.busy += m.ms || 0;
       var j = job;
-      if (j.got === j.n) { job = null; }
+      if (j.got === j.n) {
+        job = null;
+        p.stats.jobs++;
+        p.stats.wall += performance.now() - j.t0;
+        p.stats.busy += j.busy;
+      }
       j.onSample(m.sample, m.bytes);
       if (job) { report(); feed(slot); }
     }
@@ -151,7 +160,7 @@
       if (job) { stop(); }
       var id = ++seq;
       p.jobs++;
-      job = { id: id, doc: doc, state: state || null, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {},
+      job = { id: id, doc: doc, state: state || null, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {}, t0: performance.now(), busy: 0,
         onSample: onSample, onProgress: onProgress, onError: onError };
       slots.forEach(feed);
       return function () { if (job && job.id === id) { stop(); } };
