@@ -56,7 +56,7 @@ type proposal struct {
 	cum  []float64 // cumulative π, for choosing a component
 	lpi  []float64 // log π
 	lc   []float64 // ell's working space, one per component
-	lx   []float64 // ellSmall's
+	lx   []float64 // ell's, for d <= smallDim
 }
 
 // draws is what fitProposal reads of the draws so far.
@@ -288,15 +288,6 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 		}
 		eta[i] = v
 	}
-}
-
-// ell returns log of the mixture density at eta over the prior density
-// N(eta; 0, I). u is working space of length d.
-func (p *proposal) ell(eta, u []float64) float64 {
-	if p.d <= smallDim {
-		return p.ellSmall(eta)
-	}
-	return p.ellLoop(eta, u)
 }
 
 // ellLoop is ell for any d, by loops.

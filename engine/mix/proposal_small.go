@@ -30,14 +30,21 @@ func (c *component) pad(d int) {
 		copy(c.l8[i][:i+1], c.l[i*d:i*d+i+1])
 	}
 	for i := d; i < smallDim; i++ {
-		c.l8[i][i] = 1 // so that rows beyond d give +0 where ellSmall reads them (d = 0)
+		c.l8[i][i] = 1 // so that rows beyond d give +0 where ell reads them (d = 0)
 	}
 }
 
-// ellSmall is ell for d <= smallDim: the forward substitution of each
-// component written out row by row, the exponentials of the components in
-// one call.
-func (p *proposal) ellSmall(eta []float64) float64 {
+// ell returns log of the mixture density at eta over the prior density
+// N(eta; 0, I). u is working space of length d.
+//
+// For d <= smallDim the forward substitution of each component is
+// written out row by row and the exponentials of the components taken in
+// one call; beyond, ellLoop. (One function rather than a switch between
+// two, so that a call to it is one call in WebAssembly.)
+func (p *proposal) ell(eta, u []float64) float64 {
+	if p.d > smallDim {
+		return p.ellLoop(eta, u)
+	}
 	d := p.d
 	var xs [smallDim]float64
 	x := &xs

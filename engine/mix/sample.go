@@ -176,7 +176,7 @@ func (r *Run) begin(s int) *sampleWork {
 	w.stageOf = w.stageOf[:0]
 	w.z = zeroed(w.z, st.q)
 	w.eta = zeroed(w.eta, max(w.d, smallDim))[:w.d]
-	w.u = zeroed(w.u, max(w.d, smallDim))[:w.d] // room for ellSmall to read smallDim lanes
+	w.u = zeroed(w.u, max(w.d, smallDim))[:w.d] // room for ell to read smallDim lanes
 	w.ex = zeroed(w.ex, w.d)
 	w.prepare(r)
 	return w
