@@ -17,29 +17,8 @@ package mix
 // for one component; measured against a brute-force integral in
 // catchment_lik_test.go.
 func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float64 {
-	// Σ = H⁻¹ = L⁻ᵀ L⁻¹: W = L⁻¹ by forward substitution, Σ = Wᵀ W.
-	var W, S [MaxEndMembers][MaxEndMembers]float64
-	for c := 0; c < K; c++ {
-		for a := c; a < K; a++ {
-			s := 0.0
-			if a == c {
-				s = 1
-			}
-			for p := c; p < a; p++ {
-				s -= float64(L[a][p] * W[p][c])
-			}
-			W[a][c] = s / L[a][a]
-		}
-	}
-	for i := 0; i < K; i++ {
-		for j := 0; j <= i; j++ {
-			s := 0.0
-			for a := i; a < K; a++ { // W is lower: W[a][i] = 0 for a < i
-				s += float64(W[a][i] * W[a][j])
-			}
-			S[i][j], S[j][i] = s, s
-		}
-	}
+	var S mat6
+	covariance(K, L, &S)
 	m := *mu
 	var done [MaxEndMembers]bool
 	lp, pr := 0.0, 1.0
@@ -71,35 +50,99 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 			lp += lc
 		}
 		// The truncated component: mean shifted by σ λ, variance scaled by
-		// v = 1 − z λ − λ².
+		// v = 1 − z λ − λ². The rows and columns of the components done are
+		// updated too, with the pivot's column as it was (the entries of
+		// the components left are those of an update of theirs alone), but
+		// never read again.
 		sk := sqrt(S[k][k])
-		v := max(1-float64(zk*lam)-float64(lam*lam), 0)
-		shift := float64(sk * lam)
-		for i := 0; i < K; i++ {
-			if done[i] {
-				continue
-			}
-			g := S[i][k] / S[k][k]
-			m[i] += float64(g * shift)
+		v := 1 - float64(zk*lam) - float64(lam*lam)
+		if v <= 0 { // max(v, 0): +0 for ±0, NaN kept
+			v = 0
 		}
+		shift := float64(sk * lam)
+		c := S[k]
+		ckk, w := c[k], 1-v
 		for i := 0; i < K; i++ {
-			if done[i] {
-				continue
+			ci := c[i]
+			m[i] += float64(ci / ckk * shift)
+			s := &S[i]
+			s[0] -= float64(ci*c[0]) / ckk * w
+			s[1] -= float64(ci*c[1]) / ckk * w
+			s[2] -= float64(ci*c[2]) / ckk * w
+			s[3] -= float64(ci*c[3]) / ckk * w
+			s[4] -= float64(ci*c[4]) / ckk * w
+			s[5] -= float64(ci*c[5]) / ckk * w
+			if s[i] < 1e-300 { // max(s[i], 1e-300)
+				s[i] = 1e-300
 			}
-			for j := 0; j <= i; j++ {
-				if done[j] {
-					continue
-				}
-				d := float64(S[i][k]*S[j][k]) / S[k][k] * (1 - v)
-				S[i][j] -= d
-				if j != i {
-					S[j][i] = S[i][j]
-				}
-			}
-			S[i][i] = max(S[i][i], 1e-300)
 		}
 	}
 	return lp + plog(pr)
+}
+
+// covariance sets S = H⁻¹ = L⁻ᵀ L⁻¹ for H = L Lᵀ of order K: W = L⁻¹ by
+// forward substitution, row by row, then S = Wᵀ W (W is lower: W[a][i] = 0
+// for a < i, and zero past K, so the sums run to the last row).
+func covariance(K int, L, S *mat6) {
+	var W mat6
+	l := &L[0]
+	W[0][0] = 1 / l[0]
+	if K > 1 {
+		l, w := &L[1], &W
+		w[1][0] = (0 - float64(l[0]*w[0][0])) / l[1]
+		w[1][1] = 1 / l[1]
+	}
+	if K > 2 {
+		l, w := &L[2], &W
+		w[2][0] = (0 - float64(l[0]*w[0][0]) - float64(l[1]*w[1][0])) / l[2]
+		w[2][1] = (0 - float64(l[1]*w[1][1])) / l[2]
+		w[2][2] = 1 / l[2]
+	}
+	if K > 3 {
+		l, w := &L[3], &W
+		w[3][0] = (0 - float64(l[0]*w[0][0]) - float64(l[1]*w[1][0]) - float64(l[2]*w[2][0])) / l[3]
+		w[3][1] = (0 - float64(l[1]*w[1][1]) - float64(l[2]*w[2][1])) / l[3]
+		w[3][2] = (0 - float64(l[2]*w[2][2])) / l[3]
+		w[3][3] = 1 / l[3]
+	}
+	if K > 4 {
+		l, w := &L[4], &W
+		w[4][0] = (0 - float64(l[0]*w[0][0]) - float64(l[1]*w[1][0]) - float64(l[2]*w[2][0]) - float64(l[3]*w[3][0])) / l[4]
+		w[4][1] = (0 - float64(l[1]*w[1][1]) - float64(l[2]*w[2][1]) - float64(l[3]*w[3][1])) / l[4]
+		w[4][2] = (0 - float64(l[2]*w[2][2]) - float64(l[3]*w[3][2])) / l[4]
+		w[4][3] = (0 - float64(l[3]*w[3][3])) / l[4]
+		w[4][4] = 1 / l[4]
+	}
+	if K > 5 {
+		l, w := &L[5], &W
+		w[5][0] = (0 - float64(l[0]*w[0][0]) - float64(l[1]*w[1][0]) - float64(l[2]*w[2][0]) - float64(l[3]*w[3][0]) - float64(l[4]*w[4][0])) / l[5]
+		w[5][1] = (0 - float64(l[1]*w[1][1]) - float64(l[2]*w[2][1]) - float64(l[3]*w[3][1]) - float64(l[4]*w[4][1])) / l[5]
+		w[5][2] = (0 - float64(l[2]*w[2][2]) - float64(l[3]*w[3][2]) - float64(l[4]*w[4][2])) / l[5]
+		w[5][3] = (0 - float64(l[3]*w[3][3]) - float64(l[4]*w[4][3])) / l[5]
+		w[5][4] = (0 - float64(l[4]*w[4][4])) / l[5]
+		w[5][5] = 1 / l[5]
+	}
+	w0, w1, w2, w3, w4, w5 := &W[0], &W[1], &W[2], &W[3], &W[4], &W[5]
+	for i := 0; i < K; i++ {
+		for j := 0; j <= i; j++ {
+			s := 0.0
+			switch i {
+			case 0:
+				s = s + float64(w0[i]*w0[j]) + float64(w1[i]*w1[j]) + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
+			case 1:
+				s = s + float64(w1[i]*w1[j]) + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
+			case 2:
+				s = s + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
+			case 3:
+				s = s + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
+			case 4:
+				s = s + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
+			default:
+				s = s + float64(w5[i]*w5[j])
+			}
+			S[i][j], S[j][i] = s, s
+		}
+	}
 }
 
 // farInside is the μ_i/σ_i beyond which a component counts as surely
