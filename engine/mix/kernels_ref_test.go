@@ -9,7 +9,7 @@ import "math"
 func refSampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
-	refDesign(st, th, &A)
+	design(st, th, &A)
 	var dg vec6
 	tot := 0.0
 	for c, f := range [NCations]float64{1, 1, 2, 2} {
@@ -215,23 +215,6 @@ func refGram(R, K int, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64
 	}
 }
 
-func refInvDiag(m int, l *[MaxEndMembers][MaxEndMembers]float64, i int) float64 {
-	var col [MaxEndMembers]float64
-	v := 0.0
-	for a := i; a < m; a++ {
-		s := 0.0
-		if a == i {
-			s = 1
-		}
-		for p := i; p < a; p++ {
-			s -= l[a][p] * col[p]
-		}
-		col[a] = s / l[a][a]
-		v += col[a] * col[a]
-	}
-	return v
-}
-
 func refLogOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float64 {
 	// Σ = H⁻¹ = L⁻ᵀ L⁻¹: W = L⁻¹ by forward substitution, Σ = Wᵀ W.
 	var W, S [MaxEndMembers][MaxEndMembers]float64
@@ -320,7 +303,7 @@ func refLogOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) fl
 
 func refNnls(k int, H *mat6, b *vec6, n *vec6) {
 	full := uint8(1<<k - 1)
-	if refFace(k, full, H, b, n) && refFeasible(k, n) {
+	if refFace(k, full, H, b, n) && feasible(k, n) {
 		return // interior: no KKT check needed
 	}
 	var pos uint8
@@ -329,7 +312,7 @@ func refNnls(k int, H *mat6, b *vec6, n *vec6) {
 			pos |= 1 << j
 		}
 	}
-	if pos != full && pos != 0 && refFace(k, pos, H, b, n) && refFeasible(k, n) && refKkt(k, pos, H, b, n) {
+	if pos != full && pos != 0 && refFace(k, pos, H, b, n) && feasible(k, n) && kkt(k, pos, H, b, n) {
 		return
 	}
 	var best vec6
@@ -338,59 +321,17 @@ func refNnls(k int, H *mat6, b *vec6, n *vec6) {
 		if mask == pos {
 			continue
 		}
-		if !refFace(k, mask, H, b, n) || !refFeasible(k, n) {
+		if !refFace(k, mask, H, b, n) || !feasible(k, n) {
 			continue
 		}
-		if refKkt(k, mask, H, b, n) {
+		if kkt(k, mask, H, b, n) {
 			return
 		}
-		if f := refObjective(k, H, b, n); f < bestF {
+		if f := objective(k, H, b, n); f < bestF {
 			best, bestF = *n, f
 		}
 	}
 	*n = best // rounding left no face meeting the conditions: the best feasible one
-}
-
-func refFeasible(k int, n *vec6) bool {
-	for j := 0; j < k; j++ {
-		if n[j] < 0 {
-			if n[j] < -1e-12 {
-				return false
-			}
-			n[j] = 0
-		}
-	}
-	return true
-}
-
-func refKkt(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
-	for j := 0; j < k; j++ {
-		if mask&(1<<j) != 0 {
-			continue
-		}
-		g, mag := -b[j], abs(b[j])
-		for i := 0; i < k; i++ {
-			v := H[j][i] * n[i]
-			g += v
-			mag += abs(v)
-		}
-		if g < -1e-12*mag {
-			return false
-		}
-	}
-	return true
-}
-
-func refObjective(k int, H *mat6, b *vec6, n *vec6) float64 {
-	f := 0.0
-	for i := 0; i < k; i++ {
-		s := 0.0
-		for j := 0; j < k; j++ {
-			s += H[i][j] * n[j]
-		}
-		f += n[i] * (0.5*s - b[i])
-	}
-	return f
 }
 
 func refFace(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
@@ -452,32 +393,4 @@ func refFace(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 		n[idx[i]] = y[i]
 	}
 	return true
-}
-
-func refDesign(st *setup, th *[NTracers][MaxEndMembers]float64, A *[maxRows][MaxEndMembers]float64) {
-	for jj, j := range st.act {
-		A[0][jj] = 1
-		for row := 1; row < st.r; row++ {
-			if t := st.tr[row]; t == Sr87Sr86 {
-				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
-			} else {
-				A[row][jj] = th[t][j]
-			}
-		}
-	}
-}
-
-func refDist2(c *tComp, y []float64) float64 {
-	np := len(c.mu)
-	q := 0.0
-	var w [64]float64
-	for i := range np {
-		s := y[i] - c.mu[i]
-		for p := 0; p < i; p++ {
-			s -= float64(c.m[i*np+p] * w[p])
-		}
-		w[i] = s / c.m[i*np+i]
-		q += w[i] * w[i]
-	}
-	return q
 }

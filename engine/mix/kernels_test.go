@@ -1,0 +1,320 @@
+package mix
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"testing"
+)
+
+// The unrolled kernels (dense.go, gaussOrthant, logOrthant, face,
+// sampleLogL) must give the bits of their plain loop versions
+// (kernels_ref_test.go) for every size, over random inputs with zeros of
+// both signs, tiny, huge and infinite values, within the padding their
+// callers give them (zeros past the data's rows and the end-members).
+
+// sameFloat reports whether a and b have the same bits, every NaN counting
+// as one (no result keeps a NaN of these kernels: a sample's log
+// likelihood that is NaN makes the chain's density −Inf).
+func sameFloat(a, b float64) bool {
+	return math.Float64bits(a) == math.Float64bits(b) || a != a && b != b
+}
+
+// kernelGen draws the kernels' inputs; with zeros, most of its values are
+// zeros of either sign (so that whole sums are ±0).
+type kernelGen struct {
+	rng   *rand.Rand
+	zeros bool
+}
+
+// value returns a number of random sign and scale, now and then an edge:
+// ±0, a subnormal, a tiny or huge value, or an infinity.
+func (g kernelGen) value() float64 {
+	if g.zeros && g.rng.IntN(4) != 0 {
+		return math.Copysign(0, float64(g.rng.IntN(2))-0.5)
+	}
+	switch g.rng.IntN(24) {
+	case 0:
+		return 0
+	case 1:
+		return math.Copysign(0, -1)
+	case 2:
+		return 5e-324
+	case 3:
+		return -1e-300
+	case 4:
+		return 1e300
+	case 5:
+		return -1e200
+	case 6:
+		if g.rng.IntN(4) == 0 {
+			return math.Inf(1)
+		}
+	}
+	return g.rng.NormFloat64() * math.Pow(10, float64(g.rng.IntN(9)-4))
+}
+
+// plain returns a moderate value, an edge only now and then.
+func (g kernelGen) plain() float64 {
+	if g.rng.IntN(16) == 0 {
+		return g.value()
+	}
+	return g.rng.NormFloat64()
+}
+
+// rows fills the first R rows and K columns of a, zeros elsewhere.
+func (g kernelGen) rows(R, K int, a *[maxRows][MaxEndMembers]float64) {
+	*a = [maxRows][MaxEndMembers]float64{}
+	for i := range R {
+		for j := range K {
+			a[i][j] = g.value()
+		}
+	}
+}
+
+// lower fills the lower triangle of the first R rows of w, zeros elsewhere;
+// with diag, only the diagonal.
+func (g kernelGen) lower(R int, diag bool, w *[maxRows][maxRows]float64) {
+	*w = [maxRows][maxRows]float64{}
+	for i := range R {
+		for j := 0; j <= i; j++ {
+			if i == j || !diag {
+				w[i][j] = g.value()
+			} else if g.rng.IntN(2) == 0 {
+				w[i][j] = math.Copysign(0, -1)
+			}
+		}
+	}
+}
+
+// spd returns a symmetric K×K matrix (zeros past K): mostly a Gram matrix
+// plus a diagonal (positive definite), sometimes any symmetric one.
+func (g kernelGen) spd(K int) mat6 {
+	var H mat6
+	if g.rng.IntN(5) == 0 {
+		for i := range K {
+			for j := 0; j <= i; j++ {
+				H[i][j] = g.value()
+				H[j][i] = H[i][j]
+			}
+		}
+		return H
+	}
+	var A [maxRows][MaxEndMembers]float64
+	for i := range maxRows {
+		for j := range K {
+			A[i][j] = g.plain()
+		}
+	}
+	var y [maxRows]float64
+	var b vec6
+	refGram(maxRows, K, &A, &y, &H, &b)
+	for i := range K {
+		H[i][i] += math.Abs(g.plain()) * 1e-3
+	}
+	return H
+}
+
+func (g kernelGen) vec(K int) vec6 {
+	var v vec6
+	for i := range K {
+		v[i] = g.value()
+	}
+	return v
+}
+
+// checkKernels compares every kernel with its plain version on inputs
+// drawn from rng for R rows and K end-members, and returns what differs.
+func checkKernels(rng *rand.Rand, R, K int) error {
+	g := kernelGen{rng, rng.IntN(4) == 0}
+	var A, At, At0 [maxRows][MaxEndMembers]float64
+	var yt [maxRows]float64
+	var w, c [maxRows][maxRows]float64
+	var H, H0 mat6
+	var b, b0 vec6
+	g.rows(R, K, &At)
+	for i := range R {
+		yt[i] = g.value()
+	}
+	gram(K, &At, &yt, &H, &b)
+	refGram(R, K, &At, &yt, &H0, &b0)
+	if err := sameMat("gram", K, &H, &H0, &b, &b0); err != nil {
+		return err
+	}
+	g.rows(R, K, &A)
+	g.lower(R, false, &w)
+	At, At0 = [maxRows][MaxEndMembers]float64{}, [maxRows][MaxEndMembers]float64{}
+	whiten(R, K, &w, &A, &At)
+	refWhiten(R, K, &w, &A, &At0)
+	for i := range maxRows {
+		for j := range MaxEndMembers {
+			if !sameFloat(At[i][j], At0[i][j]) {
+				return fmt.Errorf("whiten: At[%d][%d] = %v, plain %v", i, j, At[i][j], At0[i][j])
+			}
+		}
+	}
+	normal(R, K, &w, &A, &yt, &H, &b)
+	refNormal(R, K, &w, &A, &yt, &H0, &b0)
+	if err := sameMat("normal", K, &H, &H0, &b, &b0); err != nil {
+		return err
+	}
+	g.lower(R, rng.IntN(2) == 0, &c)
+	if got, want := diagonal(&c), refDiagonal(R, &c); got != want {
+		return fmt.Errorf("diagonal: %v, plain %v", got, want)
+	}
+	H = g.spd(K)
+	b = g.vec(K)
+	yy := g.value()
+	if got, want := gaussOrthant(K, &H, &b, yy), refGaussOrthant(K, &H, &b, yy); !sameFloat(got, want) {
+		return fmt.Errorf("gaussOrthant: %v, plain %v", got, want)
+	}
+	var L mat6
+	var mu vec6
+	if refChol(K, &H, &L) {
+		for i := range K {
+			mu[i] = g.plain() * math.Sqrt(H[i][i]) * 0.1
+		}
+		if got, want := logOrthant(K, &L, &mu), refLogOrthant(K, &L, &mu); !sameFloat(got, want) {
+			return fmt.Errorf("logOrthant: %v, plain %v", got, want)
+		}
+	}
+	for mask := range 1 << K {
+		var n, n0 vec6
+		ok, ok0 := face(K, uint8(mask), &H, &b, &n), refFace(K, uint8(mask), &H, &b, &n0)
+		if ok != ok0 {
+			return fmt.Errorf("face %b: %v, plain %v", mask, ok, ok0)
+		}
+		if err := sameVec("face", &n, &n0); err != nil {
+			return err
+		}
+	}
+	var n, n0 vec6
+	nnls(K, &H, &b, &n)
+	refNnls(K, &H, &b, &n0)
+	return sameVec("nnls", &n, &n0)
+}
+
+// refChol sets L to the Cholesky factor of H as gaussOrthant takes it, and
+// false where it has none.
+func refChol(K int, H *mat6, L *mat6) bool {
+	for j := range K {
+		d := H[j][j]
+		for p := range j {
+			d -= L[j][p] * L[j][p]
+		}
+		if !(d > 1e-13*H[j][j]) {
+			return false
+		}
+		L[j][j] = math.Sqrt(d)
+		for i := j + 1; i < K; i++ {
+			s := H[i][j]
+			for p := range j {
+				s -= L[i][p] * L[j][p]
+			}
+			L[i][j] = s / L[j][j]
+		}
+	}
+	return true
+}
+
+func sameMat(name string, K int, H, H0 *mat6, b, b0 *vec6) error {
+	for i := range K {
+		for j := range K {
+			if !sameFloat(H[i][j], H0[i][j]) {
+				return fmt.Errorf("%s: H[%d][%d] = %v, plain %v", name, i, j, H[i][j], H0[i][j])
+			}
+		}
+	}
+	return sameVec(name, b, b0)
+}
+
+func sameVec(name string, v, v0 *vec6) error {
+	for i := range v {
+		if !sameFloat(v[i], v0[i]) {
+			return fmt.Errorf("%s: [%d] = %v, plain %v", name, i, v[i], v0[i])
+		}
+	}
+	return nil
+}
+
+func TestKernelsSameBits(t *testing.T) {
+	for R := 1; R <= maxRows; R++ {
+		for K := 1; K <= MaxEndMembers; K++ {
+			t.Run(fmt.Sprintf("R%dK%d", R, K), func(t *testing.T) {
+				rng := rand.New(rand.NewPCG(uint64(R), uint64(K)))
+				for range 300 {
+					if err := checkKernels(rng, R, K); err != nil {
+						t.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
+
+// FuzzKernelsSameBits compares the kernels with their plain versions on
+// the inputs a seed draws.
+func FuzzKernelsSameBits(f *testing.F) {
+	for _, s := range []uint64{0, 1, 7, 42, 1 << 40} {
+		f.Add(s, uint8(6), uint8(4))
+	}
+	f.Add(uint64(3), uint8(8), uint8(6))
+	f.Add(uint64(5), uint8(1), uint8(1))
+	f.Fuzz(func(t *testing.T, seed uint64, r, k uint8) {
+		R, K := 1+int(r)%maxRows, 1+int(k)%MaxEndMembers
+		if err := checkKernels(rand.New(rand.NewPCG(seed, 0)), R, K); err != nil {
+			t.Fatal(err)
+		}
+	})
+}
+
+// TestSampleLogLSameBits compares the catchment-wide likelihood of each
+// sample of synthetic catchments of two to four end-members with its plain
+// version, at shared ratios and scatters drawn about the priors, with the
+// samples' own covariances and with covariances given terms beside the
+// diagonal (as corrected waters have).
+func TestSampleLogLSameBits(t *testing.T) {
+	for _, n := range []int{2, 3, 4} {
+		sc := makeCatchment(12, n, uint64(n))
+		sc.prob.Tracers = append(sc.prob.Tracers, KNa)
+		c, err := NewCatchmentRun(sc.prob, &Options{Seed: 1}, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		r := c.base
+		rng := rand.New(rand.NewPCG(uint64(n), 9))
+		g := kernelGen{rng, false}
+		for trial := range 40 {
+			var th [NTracers][MaxEndMembers]float64
+			var tau [MaxEndMembers]float64
+			for tr := range NTracers {
+				for j := range r.n {
+					th[tr][j] = r.smp[tr][j].v * math.Exp(0.5*rng.NormFloat64())
+					if trial%10 == 9 && rng.IntN(8) == 0 {
+						th[tr][j] = math.Abs(g.value())
+					}
+				}
+			}
+			for j := range r.n {
+				tau[j] = 0.2 * math.Abs(rng.NormFloat64())
+			}
+			for s := range r.res.Samples {
+				st := r.res.Samples[s].setup
+				if st.skip {
+					continue
+				}
+				if trial%2 == 1 {
+					for i := 1; i < st.r; i++ {
+						for j := range i {
+							st.cov[i][j] = 0.1 * rng.NormFloat64() * math.Sqrt(st.cov[i][i]*st.cov[j][j])
+						}
+					}
+				}
+				got, want := c.sampleLogL(&st, &th, &tau), refSampleLogL(&st, &th, &tau)
+				if !sameFloat(got, want) {
+					t.Fatalf("%d end-members, trial %d, sample %d: %v, plain %v", n, trial, s, got, want)
+				}
+			}
+		}
+	}
+}
