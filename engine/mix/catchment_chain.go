@@ -230,8 +230,8 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 		ch.tau[j] = c.scatterOf(v)
 		lp -= 0.5 * v * v // τ = s v half-normal: v half standard normal
 	}
-	for _, s := range c.used {
-		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau)
+	for i, s := range c.used {
+		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau, c.diagCov[i])
 		if l != l || math.IsInf(l, -1) {
 			return math.Inf(-1)
 		}
@@ -256,8 +256,9 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // place it favoured, by tens of log units over a catchment, end-members
 // for which the amounts' optimum lies beyond a face (docs/methods.md
 // §7.12). The scatter is added to each tracer row's variance at the exact
-// non-negative fit without it (to first order).
-func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
+// non-negative fit without it (to first order). diag says whether st's
+// covariance is diagonal (diagonal).
+func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64, diag bool) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
 	design(st, th, &A)
@@ -294,7 +295,6 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	// whitening is then a division by each row's σ, and gives the same bits
 	// as the general triangular solve, whose terms beside the diagonal are
 	// zeros. Past the R rows, A and linv are zeros, and so is At.
-	diag := diagonal(&st.cov)
 	if diag {
 		w := &st.linv
 		w0, w1, w2, w3, w4, w5, w6, w7 := w[0][0], w[1][1], w[2][2], w[3][3], w[4][4], w[5][5], w[6][6], w[7][7]
@@ -364,45 +364,51 @@ func addDiag(H *mat6, d *vec6) {
 }
 
 // whitenWide factors the setup's covariance with its diagonal set to wide,
-// C = L Lᵀ, and sets the whitened data and design L ỹ = y, L Ã = A; it
-// returns det L and |ỹ|².
+// C = L Lᵀ, and sets the whitened data and design L ỹ = y, L Ã = A (yt and
+// At zero on entry); it returns det L and |ỹ|².
 func whitenWide(R, K int, st *setup, wide *[maxRows]float64, A, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64) (pl, yy float64) {
-	var C, L [maxRows][maxRows]float64
-	C = st.cov
-	for i := 0; i < R; i++ {
-		C[i][i] = wide[i]
-	}
+	var L [maxRows][maxRows]float64
 	pl = 1.0
-	for j := 0; j < R; j++ {
-		d := C[j][j]
-		for p := 0; p < j; p++ {
-			d -= L[j][p] * L[j][p]
-		}
-		d = math.Max(d, 1e-18*(1+C[j][j])+1e-30)
-		L[j][j] = sqrt(d)
-		pl *= L[j][j]
-		for i := j + 1; i < R; i++ {
-			s := C[i][j]
-			for p := 0; p < j; p++ {
-				s -= L[i][p] * L[j][p]
-			}
-			L[i][j] = s / L[j][j]
-		}
-	}
 	for i := 0; i < R; i++ {
-		s := st.y[i]
-		for p := 0; p < i; p++ {
-			s -= L[i][p] * yt[p]
+		// Row i of L, each entry as the column-by-column factor has it;
+		// its diagonal is set last, so that l[p] is zero for p >= i in the
+		// sums below, whose padded terms are then 0·0 (yt and At are
+		// zero from row i on).
+		c, l := &st.cov[i], &L[i]
+		if i > 0 {
+			l[0] = c[0] / L[0][0]
 		}
-		yt[i] = s / L[i][i]
+		if i > 1 {
+			l[1] = (c[1] - l[0]*L[1][0]) / L[1][1]
+		}
+		if i > 2 {
+			l[2] = (c[2] - l[0]*L[2][0] - l[1]*L[2][1]) / L[2][2]
+		}
+		if i > 3 {
+			l[3] = (c[3] - l[0]*L[3][0] - l[1]*L[3][1] - l[2]*L[3][2]) / L[3][3]
+		}
+		if i > 4 {
+			l[4] = (c[4] - l[0]*L[4][0] - l[1]*L[4][1] - l[2]*L[4][2] - l[3]*L[4][3]) / L[4][4]
+		}
+		if i > 5 {
+			l[5] = (c[5] - l[0]*L[5][0] - l[1]*L[5][1] - l[2]*L[5][2] - l[3]*L[5][3] - l[4]*L[5][4]) / L[5][5]
+		}
+		if i > 6 {
+			l[6] = (c[6] - l[0]*L[6][0] - l[1]*L[6][1] - l[2]*L[6][2] - l[3]*L[6][3] - l[4]*L[6][4] - l[5]*L[6][5]) / L[6][6]
+		}
+		d := wide[i] - l[0]*l[0] - l[1]*l[1] - l[2]*l[2] - l[3]*l[3] - l[4]*l[4] - l[5]*l[5] - l[6]*l[6]
+		if m := 1e-18*(1+wide[i]) + 1e-30; d < m { // math.Max(d, m): m is not ±0, and NaN only with d
+			d = m
+		}
+		li := sqrt(d)
+		pl *= li
+		// Row i of the whitened data and design.
+		yt[i] = (st.y[i] - l[0]*yt[0] - l[1]*yt[1] - l[2]*yt[2] - l[3]*yt[3] - l[4]*yt[4] - l[5]*yt[5] - l[6]*yt[6]) / li
 		yy += yt[i] * yt[i]
 		for jj := 0; jj < K; jj++ {
-			s := A[i][jj]
-			for p := 0; p < i; p++ {
-				s -= L[i][p] * At[p][jj]
-			}
-			At[i][jj] = s / L[i][i]
+			At[i][jj] = (A[i][jj] - l[0]*At[0][jj] - l[1]*At[1][jj] - l[2]*At[2][jj] - l[3]*At[3][jj] - l[4]*At[4][jj] - l[5]*At[5][jj] - l[6]*At[6][jj]) / li
 		}
+		l[i] = li
 	}
 	return pl, yy
 }

@@ -56,6 +56,7 @@ func (c *CatchmentRun) check() Identifiability {
 			continue
 		}
 		c.used = append(c.used, s)
+		c.diagCov = append(c.diagCov, diagonal(&st.cov))
 		for _, j := range st.act {
 			c.seen[j] = true
 		}

@@ -20,24 +20,37 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 	var S mat6
 	covariance(K, L, &S)
 	m := *mu
-	var done [MaxEndMembers]bool
+	left := uint8(1<<K - 1) // the components not yet conditioned on
 	lp, pr := 0.0, 1.0
 	for range K {
-		// The most constraining component left.
+		// The most constraining component left: the first of the smallest
+		// z (every z is computed; those of components done, or past K, are
+		// not looked at).
+		z0, z1, z2 := m[0]/sqrt(S[0][0]), m[1]/sqrt(S[1][1]), m[2]/sqrt(S[2][2])
+		z3, z4, z5 := m[3]/sqrt(S[3][3]), m[4]/sqrt(S[4][4]), m[5]/sqrt(S[5][5])
 		k, zk := -1, 0.0
-		for i := 0; i < K; i++ {
-			if done[i] {
-				continue
-			}
-			z := m[i] / sqrt(S[i][i])
-			if k < 0 || z < zk {
-				k, zk = i, z
-			}
+		if left&1 != 0 {
+			k, zk = 0, z0
+		}
+		if left&2 != 0 && (k < 0 || z1 < zk) {
+			k, zk = 1, z1
+		}
+		if left&4 != 0 && (k < 0 || z2 < zk) {
+			k, zk = 2, z2
+		}
+		if left&8 != 0 && (k < 0 || z3 < zk) {
+			k, zk = 3, z3
+		}
+		if left&16 != 0 && (k < 0 || z4 < zk) {
+			k, zk = 4, z4
+		}
+		if left&32 != 0 && (k < 0 || z5 < zk) {
+			k, zk = 5, z5
 		}
 		if zk > farInside {
 			break // every component left is non-negative but for a chance below 1e-11
 		}
-		done[k] = true
+		left &^= 1 << k
 		var lam float64
 		if zk > -8 {
 			// One log of the product at the end, where there were several.
@@ -123,25 +136,53 @@ func covariance(K int, L, S *mat6) {
 		w[5][5] = 1 / l[5]
 	}
 	w0, w1, w2, w3, w4, w5 := &W[0], &W[1], &W[2], &W[3], &W[4], &W[5]
-	for i := 0; i < K; i++ {
-		for j := 0; j <= i; j++ {
-			s := 0.0
-			switch i {
-			case 0:
-				s = s + float64(w0[i]*w0[j]) + float64(w1[i]*w1[j]) + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
-			case 1:
-				s = s + float64(w1[i]*w1[j]) + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
-			case 2:
-				s = s + float64(w2[i]*w2[j]) + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
-			case 3:
-				s = s + float64(w3[i]*w3[j]) + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
-			case 4:
-				s = s + float64(w4[i]*w4[j]) + float64(w5[i]*w5[j])
-			default:
-				s = s + float64(w5[i]*w5[j])
-			}
-			S[i][j], S[j][i] = s, s
-		}
+	if K > 0 {
+		S[0][0] = 0.0 + float64(w0[0]*w0[0]) + float64(w1[0]*w1[0]) + float64(w2[0]*w2[0]) + float64(w3[0]*w3[0]) + float64(w4[0]*w4[0]) + float64(w5[0]*w5[0])
+	}
+	if K > 1 {
+		S[1][0] = 0.0 + float64(w1[1]*w1[0]) + float64(w2[1]*w2[0]) + float64(w3[1]*w3[0]) + float64(w4[1]*w4[0]) + float64(w5[1]*w5[0])
+		S[0][1] = S[1][0]
+		S[1][1] = 0.0 + float64(w1[1]*w1[1]) + float64(w2[1]*w2[1]) + float64(w3[1]*w3[1]) + float64(w4[1]*w4[1]) + float64(w5[1]*w5[1])
+	}
+	if K > 2 {
+		S[2][0] = 0.0 + float64(w2[2]*w2[0]) + float64(w3[2]*w3[0]) + float64(w4[2]*w4[0]) + float64(w5[2]*w5[0])
+		S[0][2] = S[2][0]
+		S[2][1] = 0.0 + float64(w2[2]*w2[1]) + float64(w3[2]*w3[1]) + float64(w4[2]*w4[1]) + float64(w5[2]*w5[1])
+		S[1][2] = S[2][1]
+		S[2][2] = 0.0 + float64(w2[2]*w2[2]) + float64(w3[2]*w3[2]) + float64(w4[2]*w4[2]) + float64(w5[2]*w5[2])
+	}
+	if K > 3 {
+		S[3][0] = 0.0 + float64(w3[3]*w3[0]) + float64(w4[3]*w4[0]) + float64(w5[3]*w5[0])
+		S[0][3] = S[3][0]
+		S[3][1] = 0.0 + float64(w3[3]*w3[1]) + float64(w4[3]*w4[1]) + float64(w5[3]*w5[1])
+		S[1][3] = S[3][1]
+		S[3][2] = 0.0 + float64(w3[3]*w3[2]) + float64(w4[3]*w4[2]) + float64(w5[3]*w5[2])
+		S[2][3] = S[3][2]
+		S[3][3] = 0.0 + float64(w3[3]*w3[3]) + float64(w4[3]*w4[3]) + float64(w5[3]*w5[3])
+	}
+	if K > 4 {
+		S[4][0] = 0.0 + float64(w4[4]*w4[0]) + float64(w5[4]*w5[0])
+		S[0][4] = S[4][0]
+		S[4][1] = 0.0 + float64(w4[4]*w4[1]) + float64(w5[4]*w5[1])
+		S[1][4] = S[4][1]
+		S[4][2] = 0.0 + float64(w4[4]*w4[2]) + float64(w5[4]*w5[2])
+		S[2][4] = S[4][2]
+		S[4][3] = 0.0 + float64(w4[4]*w4[3]) + float64(w5[4]*w5[3])
+		S[3][4] = S[4][3]
+		S[4][4] = 0.0 + float64(w4[4]*w4[4]) + float64(w5[4]*w5[4])
+	}
+	if K > 5 {
+		S[5][0] = 0.0 + float64(w5[5]*w5[0])
+		S[0][5] = S[5][0]
+		S[5][1] = 0.0 + float64(w5[5]*w5[1])
+		S[1][5] = S[5][1]
+		S[5][2] = 0.0 + float64(w5[5]*w5[2])
+		S[2][5] = S[5][2]
+		S[5][3] = 0.0 + float64(w5[5]*w5[3])
+		S[3][5] = S[5][3]
+		S[5][4] = 0.0 + float64(w5[5]*w5[4])
+		S[4][5] = S[5][4]
+		S[5][5] = 0.0 + float64(w5[5]*w5[5])
 	}
 }
 

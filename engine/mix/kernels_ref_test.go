@@ -9,7 +9,7 @@ import "math"
 func refSampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
 	R, K := st.r, st.k
 	var A [maxRows][MaxEndMembers]float64
-	design(st, th, &A)
+	refDesign(st, th, &A)
 	var dg vec6
 	tot := 0.0
 	for c, f := range [NCations]float64{1, 1, 2, 2} {
@@ -393,4 +393,32 @@ func refFace(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 		n[idx[i]] = y[i]
 	}
 	return true
+}
+
+func refDesign(st *setup, th *[NTracers][MaxEndMembers]float64, A *[maxRows][MaxEndMembers]float64) {
+	for jj, j := range st.act {
+		A[0][jj] = 1
+		for row := 1; row < st.r; row++ {
+			if t := st.tr[row]; t == Sr87Sr86 {
+				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
+			} else {
+				A[row][jj] = th[t][j]
+			}
+		}
+	}
+}
+
+func refDist2(c *tComp, y []float64) float64 {
+	np := len(c.mu)
+	q := 0.0
+	var w [64]float64
+	for i := range np {
+		s := y[i] - c.mu[i]
+		for p := 0; p < i; p++ {
+			s -= float64(c.m[i*np+p] * w[p])
+		}
+		w[i] = s / c.m[i*np+i]
+		q += w[i] * w[i]
+	}
+	return q
 }

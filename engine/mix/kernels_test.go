@@ -310,9 +310,76 @@ func TestSampleLogLSameBits(t *testing.T) {
 						}
 					}
 				}
-				got, want := c.sampleLogL(&st, &th, &tau), refSampleLogL(&st, &th, &tau)
+				var A, A0 [maxRows][MaxEndMembers]float64
+				design(&st, &th, &A)
+				refDesign(&st, &th, &A0)
+				if A != A0 {
+					t.Fatalf("%d end-members, trial %d, sample %d: design %v, plain %v", n, trial, s, A, A0)
+				}
+				got, want := c.sampleLogL(&st, &th, &tau, diagonal(&st.cov)), refSampleLogL(&st, &th, &tau)
 				if !sameFloat(got, want) {
 					t.Fatalf("%d end-members, trial %d, sample %d: %v, plain %v", n, trial, s, got, want)
+				}
+			}
+		}
+	}
+}
+
+// TestDist2SameBits compares the proposal components' scaled distance with
+// its plain version for 1 to 40 parameters.
+func TestDist2SameBits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(2, 3))
+	g := kernelGen{rng, false}
+	for np := 1; np <= 40; np++ {
+		for range 50 {
+			c := tComp{mu: make([]float64, np), m: make([]float64, np*np)}
+			y := make([]float64, np)
+			for i := range np {
+				c.mu[i], y[i] = g.plain(), g.plain()
+				for p := 0; p <= i; p++ {
+					c.m[i*np+p] = g.value()
+				}
+			}
+			if got, want := c.dist2(y), refDist2(&c, y); !sameFloat(got, want) {
+				t.Fatalf("%d parameters: %v, plain %v", np, got, want)
+			}
+		}
+	}
+}
+
+// TestDesignSameBits compares the design with its plain version for every
+// number of rows, with and without the isotope's row (last, as the setup
+// places it).
+func TestDesignSameBits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(4, 5))
+	g := kernelGen{rng, false}
+	for R := 1; R <= maxRows; R++ {
+		for range 100 {
+			var st setup
+			st.r, st.iso = R, -1
+			st.tr[0] = -1
+			for i := 1; i < R; i++ {
+				st.tr[i] = Tracer(rng.IntN(int(Sr87Sr86)))
+			}
+			if R > 1 && rng.IntN(2) == 0 {
+				st.iso = R - 1
+				st.tr[st.iso] = Sr87Sr86
+			}
+			st.act = rng.Perm(MaxEndMembers)[:1+rng.IntN(MaxEndMembers)]
+			var th [NTracers][MaxEndMembers]float64
+			for tr := range NTracers {
+				for j := range MaxEndMembers {
+					th[tr][j] = g.value()
+				}
+			}
+			var A, A0 [maxRows][MaxEndMembers]float64
+			design(&st, &th, &A)
+			refDesign(&st, &th, &A0)
+			for i := range maxRows {
+				for j := range MaxEndMembers {
+					if !sameFloat(A[i][j], A0[i][j]) {
+						t.Fatalf("%d rows: A[%d][%d] = %v, plain %v", R, i, j, A[i][j], A0[i][j])
+					}
 				}
 			}
 		}
