@@ -424,15 +424,14 @@ func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
 	for j := 0; j < K; j++ {
 		tol[j] = 1e-13 * H[j][j]
 	}
-	if !chol6(K, H, &tol, true, &L) {
+	var y, mu vec6
+	if !cholSolve(K, H, &tol, true, &L, b, &y, &mu) {
 		return math.Inf(-1)
 	}
 	hd := 1.0
 	for j := 0; j < K; j++ {
 		hd *= L[j][j]
 	}
-	var y, mu vec6
-	solve6(K, &L, b, &y, &mu)
 	// bᵀH⁻¹b = |L⁻¹b|², summed from the last row up (y is zero past K).
 	fit := 0.0 + y[5]*y[5] + y[4]*y[4] + y[3]*y[3] + y[2]*y[2] + y[1]*y[1] + y[0]*y[0]
 	d := yy - fit

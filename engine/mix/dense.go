@@ -129,12 +129,17 @@ func diagonal(c *[maxRows][maxRows]float64) bool {
 
 func fbits(x float64) uint64 { return math.Float64bits(x) }
 
-// chol6 factors the leading k×k block of H = L Lᵀ (lower triangle read),
-// row by row, into L, whose other entries it leaves as they are. It
-// returns false at the first pivot d (in order) that is no larger than its
-// tolerance tol[j], or NaN when nanFails: the outcome of the factor column
-// by column, since each entry is the same expression of the others.
-func chol6(k int, H *mat6, tol *vec6, nanFails bool, L *mat6) bool {
+// cholSolve factors the leading k×k block of H = L Lᵀ (lower triangle
+// read), row by row, into L, whose other entries it leaves as they are, and
+// solves L Lᵀ x = b through y = L⁻¹ b. It returns false at the first pivot
+// d (in order) that is no larger than its tolerance tol[j], or NaN when
+// nanFails: the outcome of the factor column by column, since each entry
+// is the same expression of the others. L must be zero past its k rows,
+// and x past its k entries (the back substitution's padded products are
+// then 0·0).
+func cholSolve(k int, H *mat6, tol *vec6, nanFails bool, L *mat6, b, y, x *vec6) bool {
+	var h *vec6
+	var l10, l11, l20, l21, l22, l30, l31, l32, l33, l40, l41, l42, l43, l44, l50, l51, l52, l53, l54 float64
 	d := H[0][0]
 	if d <= tol[0] || nanFails && d != d {
 		return false
@@ -142,76 +147,70 @@ func chol6(k int, H *mat6, tol *vec6, nanFails bool, L *mat6) bool {
 	l00 := sqrt(d)
 	L[0][0] = l00
 	if k < 2 {
-		return true
+		goto solve
 	}
-	h := &H[1]
-	l10 := h[0] / l00
+	h = &H[1]
+	l10 = h[0] / l00
 	d = h[1] - l10*l10
 	if d <= tol[1] || nanFails && d != d {
 		return false
 	}
-	l11 := sqrt(d)
+	l11 = sqrt(d)
 	L[1][0], L[1][1] = l10, l11
 	if k < 3 {
-		return true
+		goto solve
 	}
 	h = &H[2]
-	l20 := h[0] / l00
-	l21 := (h[1] - l20*l10) / l11
+	l20 = h[0] / l00
+	l21 = (h[1] - l20*l10) / l11
 	d = h[2] - l20*l20 - l21*l21
 	if d <= tol[2] || nanFails && d != d {
 		return false
 	}
-	l22 := sqrt(d)
+	l22 = sqrt(d)
 	L[2][0], L[2][1], L[2][2] = l20, l21, l22
 	if k < 4 {
-		return true
+		goto solve
 	}
 	h = &H[3]
-	l30 := h[0] / l00
-	l31 := (h[1] - l30*l10) / l11
-	l32 := (h[2] - l30*l20 - l31*l21) / l22
+	l30 = h[0] / l00
+	l31 = (h[1] - l30*l10) / l11
+	l32 = (h[2] - l30*l20 - l31*l21) / l22
 	d = h[3] - l30*l30 - l31*l31 - l32*l32
 	if d <= tol[3] || nanFails && d != d {
 		return false
 	}
-	l33 := sqrt(d)
+	l33 = sqrt(d)
 	L[3][0], L[3][1], L[3][2], L[3][3] = l30, l31, l32, l33
 	if k < 5 {
-		return true
+		goto solve
 	}
 	h = &H[4]
-	l40 := h[0] / l00
-	l41 := (h[1] - l40*l10) / l11
-	l42 := (h[2] - l40*l20 - l41*l21) / l22
-	l43 := (h[3] - l40*l30 - l41*l31 - l42*l32) / l33
+	l40 = h[0] / l00
+	l41 = (h[1] - l40*l10) / l11
+	l42 = (h[2] - l40*l20 - l41*l21) / l22
+	l43 = (h[3] - l40*l30 - l41*l31 - l42*l32) / l33
 	d = h[4] - l40*l40 - l41*l41 - l42*l42 - l43*l43
 	if d <= tol[4] || nanFails && d != d {
 		return false
 	}
-	l44 := sqrt(d)
+	l44 = sqrt(d)
 	L[4][0], L[4][1], L[4][2], L[4][3], L[4][4] = l40, l41, l42, l43, l44
 	if k < 6 {
-		return true
+		goto solve
 	}
 	h = &H[5]
-	l50 := h[0] / l00
-	l51 := (h[1] - l50*l10) / l11
-	l52 := (h[2] - l50*l20 - l51*l21) / l22
-	l53 := (h[3] - l50*l30 - l51*l31 - l52*l32) / l33
-	l54 := (h[4] - l50*l40 - l51*l41 - l52*l42 - l53*l43) / l44
+	l50 = h[0] / l00
+	l51 = (h[1] - l50*l10) / l11
+	l52 = (h[2] - l50*l20 - l51*l21) / l22
+	l53 = (h[3] - l50*l30 - l51*l31 - l52*l32) / l33
+	l54 = (h[4] - l50*l40 - l51*l41 - l52*l42 - l53*l43) / l44
 	d = h[5] - l50*l50 - l51*l51 - l52*l52 - l53*l53 - l54*l54
 	if d <= tol[5] || nanFails && d != d {
 		return false
 	}
 	L[5][0], L[5][1], L[5][2], L[5][3], L[5][4], L[5][5] = l50, l51, l52, l53, l54, sqrt(d)
-	return true
-}
-
-// solve6 solves L Lᵀ x = b for the factor of order k of chol6, through y
-// = L⁻¹ b; L must be zero past its k rows, and x zero past its k entries on
-// entry (the back substitution's padded products are then 0·0).
-func solve6(k int, L *mat6, b, y, x *vec6) {
+solve:
 	y[0] = b[0] / L[0][0]
 	if k > 1 {
 		y[1] = (b[1] - L[1][0]*y[0]) / L[1][1]
@@ -242,4 +241,5 @@ func solve6(k int, L *mat6, b, y, x *vec6) {
 		x[1] = (y[1] - L[2][1]*x[2] - L[3][1]*x[3] - L[4][1]*x[4] - L[5][1]*x[5]) / L[1][1]
 	}
 	x[0] = (y[0] - L[1][0]*x[1] - L[2][0]*x[2] - L[3][0]*x[3] - L[4][0]*x[4] - L[5][0]*x[5]) / L[0][0]
+	return true
 }

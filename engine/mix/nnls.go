@@ -124,23 +124,29 @@ func objective(k int, H *mat6, b *vec6, n *vec6) float64 {
 // face) to n. It returns false when H_FF is singular to working precision.
 func face(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 	mask &= 1<<k - 1
-	idx := &faceIdx[mask]
 	m := int(faceSize[mask])
 	*n = vec6{}
 	if m == 0 {
 		return true
 	}
-	// The face's rows of H (every column, the face's in order first) and
-	// of b; what lies past m is not read.
 	var G, L mat6
 	var g, y, x vec6
+	idx := &faceIdx[mask]
+	hf, bf, xf := H, b, n // the whole: H and b as they are
+	if m < k {
+		// The face's rows of H (every column, the face's in order first)
+		// and of b; what lies past m is not read.
+		i0, i1, i2, i3, i4, i5 := idx[0], idx[1], idx[2], idx[3], idx[4], idx[5]
+		for i := 0; i < m; i++ {
+			h := &H[idx[i]]
+			G[i] = vec6{h[i0], h[i1], h[i2], h[i3], h[i4], h[i5]}
+			g[i] = b[idx[i]]
+		}
+		hf, bf, xf = &G, &g, &x
+	}
 	hmax := 0.0
-	i0, i1, i2, i3, i4, i5 := idx[0], idx[1], idx[2], idx[3], idx[4], idx[5]
 	for i := 0; i < m; i++ {
-		h := &H[idx[i]]
-		G[i] = vec6{h[i0], h[i1], h[i2], h[i3], h[i4], h[i5]}
-		g[i] = b[idx[i]]
-		if d := h[idx[i]]; d > hmax {
+		if d := hf[i][i]; d > hmax {
 			hmax = d
 		}
 	}
@@ -149,12 +155,13 @@ func face(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 	}
 	t := 1e-13 * hmax
 	tol := vec6{t, t, t, t, t, t}
-	if !chol6(m, &G, &tol, false, &L) {
+	if !cholSolve(m, hf, &tol, false, &L, bf, &y, xf) {
 		return false
 	}
-	solve6(m, &L, &g, &y, &x)
-	for i := 0; i < m; i++ {
-		n[idx[i]] = x[i]
+	if m < k {
+		for i := 0; i < m; i++ {
+			n[idx[i]] = x[i]
+		}
 	}
 	return true
 }
