@@ -297,7 +297,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	// zeros. Past the R rows, A and linv are zeros, and so is At.
 	if diag {
 		w := &st.linv
-		w0, w1, w2, w3, w4, w5, w6, w7 := w[0][0], w[1][1], w[2][2], w[3][3], w[4][4], w[5][5], w[6][6], w[7][7]
+		w0, w1, w2, w3, w4, w5 := w[0][0], w[1][1], w[2][2], w[3][3], w[4][4], w[5][5]
 		for jj := 0; jj < K; jj++ {
 			At[0][jj] = float64(w0 * A[0][jj])
 			At[1][jj] = float64(w1 * A[1][jj])
@@ -305,10 +305,13 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 			At[3][jj] = float64(w3 * A[3][jj])
 			At[4][jj] = float64(w4 * A[4][jj])
 			At[5][jj] = float64(w5 * A[5][jj])
-			At[6][jj] = float64(w6 * A[6][jj])
-			At[7][jj] = float64(w7 * A[7][jj])
 		}
-		gram(K, &At, &st.yt, &H, &b)
+		for i := 6; i < R; i++ {
+			for jj := 0; jj < K; jj++ {
+				At[i][jj] = float64(w[i][i] * A[i][jj])
+			}
+		}
+		gram(R, K, &At, &st.yt, &H, &b)
 	} else {
 		normal(R, K, &st.linv, &A, &st.yt, &H, &b)
 	}
@@ -348,7 +351,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	} else {
 		pl, yy = whitenWide(R, K, st, &wide, &A, &At, &yt)
 	}
-	gram(K, &At, &yt, &H, &b)
+	gram(R, K, &At, &yt, &H, &b)
 	addDiag(&H, &dg)
 	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
 }

@@ -54,7 +54,7 @@ func bruteSampleLogL(c *CatchmentRun, st *setup, th *[NTracers][MaxEndMembers]fl
 		whiten(R, K, &st.linv, &A, &At)
 		var H mat6
 		var b vec6
-		gram(K, &At, &yt, &H, &b)
+		gram(R, K, &At, &yt, &H, &b)
 		for jj := 0; jj < K; jj++ {
 			H[jj][jj] += dg[jj]
 		}

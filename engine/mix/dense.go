@@ -20,37 +20,46 @@ var (
 	_ = [1]struct{}{}[MaxEndMembers-6]
 )
 
-// gram forms H = ÃᵀÃ and b = Ãᵀỹ for the K columns of At. The sums run
-// over all maxRows rows, so At and yt must be zero past the data's rows;
-// H's upper triangle is copied from its lower one whole, so H must be zero
-// past K to stay so.
-func gram(K int, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
-	y0, y1, y2, y3, y4, y5, y6, y7 := yt[0], yt[1], yt[2], yt[3], yt[4], yt[5], yt[6], yt[7]
+// gram forms H = ÃᵀÃ and b = Ãᵀỹ for the K columns of At's R rows. The
+// sums run over the first six rows, and over the last two too when R > 6
+// (afterwards, in the same order), so At and yt must be zero past R; H's
+// upper triangle is copied from its lower one whole, so H must be zero past
+// K to stay so.
+func gram(R, K int, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
+	y0, y1, y2, y3, y4, y5 := yt[0], yt[1], yt[2], yt[3], yt[4], yt[5]
 	for i := 0; i < K; i++ {
-		a0, a1, a2, a3, a4, a5, a6, a7 := At[0][i], At[1][i], At[2][i], At[3][i], At[4][i], At[5][i], At[6][i], At[7][i]
+		a0, a1, a2, a3, a4, a5 := At[0][i], At[1][i], At[2][i], At[3][i], At[4][i], At[5][i]
 		h := &H[i]
 		// Row i from column i down to 0.
 		switch i {
 		case 5:
-			h[5] = 0.0 + float64(a0*At[0][5]) + float64(a1*At[1][5]) + float64(a2*At[2][5]) + float64(a3*At[3][5]) + float64(a4*At[4][5]) + float64(a5*At[5][5]) + float64(a6*At[6][5]) + float64(a7*At[7][5])
+			h[5] = 0.0 + float64(a0*At[0][5]) + float64(a1*At[1][5]) + float64(a2*At[2][5]) + float64(a3*At[3][5]) + float64(a4*At[4][5]) + float64(a5*At[5][5])
 			fallthrough
 		case 4:
-			h[4] = 0.0 + float64(a0*At[0][4]) + float64(a1*At[1][4]) + float64(a2*At[2][4]) + float64(a3*At[3][4]) + float64(a4*At[4][4]) + float64(a5*At[5][4]) + float64(a6*At[6][4]) + float64(a7*At[7][4])
+			h[4] = 0.0 + float64(a0*At[0][4]) + float64(a1*At[1][4]) + float64(a2*At[2][4]) + float64(a3*At[3][4]) + float64(a4*At[4][4]) + float64(a5*At[5][4])
 			fallthrough
 		case 3:
-			h[3] = 0.0 + float64(a0*At[0][3]) + float64(a1*At[1][3]) + float64(a2*At[2][3]) + float64(a3*At[3][3]) + float64(a4*At[4][3]) + float64(a5*At[5][3]) + float64(a6*At[6][3]) + float64(a7*At[7][3])
+			h[3] = 0.0 + float64(a0*At[0][3]) + float64(a1*At[1][3]) + float64(a2*At[2][3]) + float64(a3*At[3][3]) + float64(a4*At[4][3]) + float64(a5*At[5][3])
 			fallthrough
 		case 2:
-			h[2] = 0.0 + float64(a0*At[0][2]) + float64(a1*At[1][2]) + float64(a2*At[2][2]) + float64(a3*At[3][2]) + float64(a4*At[4][2]) + float64(a5*At[5][2]) + float64(a6*At[6][2]) + float64(a7*At[7][2])
+			h[2] = 0.0 + float64(a0*At[0][2]) + float64(a1*At[1][2]) + float64(a2*At[2][2]) + float64(a3*At[3][2]) + float64(a4*At[4][2]) + float64(a5*At[5][2])
 			fallthrough
 		case 1:
-			h[1] = 0.0 + float64(a0*At[0][1]) + float64(a1*At[1][1]) + float64(a2*At[2][1]) + float64(a3*At[3][1]) + float64(a4*At[4][1]) + float64(a5*At[5][1]) + float64(a6*At[6][1]) + float64(a7*At[7][1])
+			h[1] = 0.0 + float64(a0*At[0][1]) + float64(a1*At[1][1]) + float64(a2*At[2][1]) + float64(a3*At[3][1]) + float64(a4*At[4][1]) + float64(a5*At[5][1])
 			fallthrough
 		default:
-			h[0] = 0.0 + float64(a0*At[0][0]) + float64(a1*At[1][0]) + float64(a2*At[2][0]) + float64(a3*At[3][0]) + float64(a4*At[4][0]) + float64(a5*At[5][0]) + float64(a6*At[6][0]) + float64(a7*At[7][0])
+			h[0] = 0.0 + float64(a0*At[0][0]) + float64(a1*At[1][0]) + float64(a2*At[2][0]) + float64(a3*At[3][0]) + float64(a4*At[4][0]) + float64(a5*At[5][0])
 		}
-		b[i] = 0.0 + float64(a0*y0) + float64(a1*y1) + float64(a2*y2) + float64(a3*y3) +
-			float64(a4*y4) + float64(a5*y5) + float64(a6*y6) + float64(a7*y7)
+		b[i] = 0.0 + float64(a0*y0) + float64(a1*y1) + float64(a2*y2) + float64(a3*y3) + float64(a4*y4) + float64(a5*y5)
+	}
+	if R > 6 {
+		for i := 0; i < K; i++ {
+			a6, a7 := At[6][i], At[7][i]
+			for j := 0; j <= i; j++ {
+				H[i][j] = H[i][j] + float64(a6*At[6][j]) + float64(a7*At[7][j])
+			}
+			b[i] = b[i] + float64(a6*yt[6]) + float64(a7*yt[7])
+		}
 	}
 	// The upper triangle (past K, zeros stay zeros).
 	H[0][1], H[0][2], H[0][3], H[0][4], H[0][5] = H[1][0], H[2][0], H[3][0], H[4][0], H[5][0]
@@ -110,7 +119,7 @@ func whiten(R, K int, w *[maxRows][maxRows]float64, A, At *[maxRows][MaxEndMembe
 func normal(R, K int, w *[maxRows][maxRows]float64, A *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
 	var At [maxRows][MaxEndMembers]float64
 	whiten(R, K, w, A, &At)
-	gram(K, &At, yt, H, b)
+	gram(R, K, &At, yt, H, b)
 }
 
 // diagonal reports whether the covariance c (lower triangle read, zero past

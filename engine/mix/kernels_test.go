@@ -136,7 +136,7 @@ func checkKernels(rng *rand.Rand, R, K int) error {
 	for i := range R {
 		yt[i] = g.value()
 	}
-	gram(K, &At, &yt, &H, &b)
+	gram(R, K, &At, &yt, &H, &b)
 	refGram(R, K, &At, &yt, &H0, &b0)
 	if err := sameMat("gram", K, &H, &H0, &b, &b0); err != nil {
 		return err
@@ -272,7 +272,8 @@ func FuzzKernelsSameBits(f *testing.F) {
 // sample of synthetic catchments of two to four end-members with its plain
 // version, at shared ratios and scatters drawn about the priors, with the
 // samples' own covariances and with covariances given terms beside the
-// diagonal (as corrected waters have).
+// diagonal (as corrected waters have), and with two rows more (Sr/Na and
+// the isotope's).
 func TestSampleLogLSameBits(t *testing.T) {
 	for _, n := range []int{2, 3, 4} {
 		sc := makeCatchment(12, n, uint64(n))
@@ -302,6 +303,17 @@ func TestSampleLogLSameBits(t *testing.T) {
 				st := r.res.Samples[s].setup
 				if st.skip {
 					continue
+				}
+				if trial%4 >= 2 && st.r == 6 {
+					// Sr/Na and the isotope's rows too.
+					st.r, st.iso = 8, 7
+					st.tr[6], st.tr[7] = SrNa, Sr87Sr86
+					for i := 6; i < 8; i++ {
+						st.y[i] = math.Abs(g.plain())
+						st.cov[i][i] = 0.01 + math.Abs(g.plain())
+						st.linv[i][i] = 1 / math.Sqrt(st.cov[i][i])
+						st.yt[i] = st.y[i] * st.linv[i][i]
+					}
 				}
 				if trial%2 == 1 {
 					for i := 1; i < st.r; i++ {

@@ -318,7 +318,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 	var H mat6
 	var b0, b1, n0, n1 vec6
 	whiten(R, K, &st.linv, &A, &At)
-	gram(K, &At, &st.yt, &H, &b0)
+	gram(R, K, &At, &st.yt, &H, &b0)
 	// Perturbation of the whitened data: ε̃ = L⁻¹ G z.
 	var eps [maxRows]float64
 	q := st.q
