@@ -14,8 +14,9 @@ import (
 // engine on a Web Worker (worker.js): it works one sample of an inversion
 // (or one chain or sample of a round of the catchment-wide model) per
 // request, in order, keeping the job's budget and inversion for its
-// next samples, and posts back the sample's bytes, its progress every
-// tenth of a second, or the error, never a silent stop. It does not
+// next samples, and posts back the sample's bytes (with the milliseconds
+// it took, which the pool sums up for the timing harness), its progress
+// every tenth of a second, or the error, never a silent stop. It does not
 // return.
 func ServeWorker() {
 	queue := make(chan js.Value, 64)
@@ -47,7 +48,8 @@ func ServeWorker() {
 			continue
 		}
 		job := notebook.FarmJob{Doc: doc, Cell: m.Get("cell").String(), Sulfate: m.Get("sulfate").String(), Rough: m.Get("rough").Bool(), State: state}
-		last := time.Now()
+		start := time.Now()
+		last := start
 		b, err := func() (b []byte, err error) {
 			defer func() {
 				if r := recover(); r != nil {
@@ -78,6 +80,6 @@ func ServeWorker() {
 		}
 		out := js.Global().Get("Uint8Array").New(len(b))
 		js.CopyBytesToJS(out, b)
-		post.Invoke(id, s, out, "", 1)
+		post.Invoke(id, s, out, "", 1, float64(time.Since(start).Microseconds())/1000)
 	}
 }

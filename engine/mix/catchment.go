@@ -65,6 +65,11 @@ type CatchmentOptions struct {
 	// source; docs/methods.md §7.12).
 	Scatter float64
 
+	// Searches, when set, are the mode searches of an earlier run
+	// (Catchment.Searches), taken over where everything they depend on is
+	// the same: the page's full pass takes its quick pass's.
+	Searches *Searches
+
 	// thinAllowed lets the model run where most samples give fewer than
 	// MinSpare equations beyond their own amounts (the simulation study
 	// measures what it would do there).
@@ -159,6 +164,9 @@ type Catchment struct {
 	// Message says in plain words what is wrong when the chains have not
 	// converged ("" when they have).
 	Message string
+
+	searches *Searches // what the mode searches reached (Searches)
+	taken    bool      // the searches were an earlier run's (SearchesTaken)
 }
 
 // SharedRatio is one shared end-member ratio: its prior and posterior
@@ -277,6 +285,7 @@ func NewCatchmentRun(p Problem, o *Options, co *CatchmentOptions) (*CatchmentRun
 	for k := range c.co.Chains {
 		c.chains = append(c.chains, c.newChain(k))
 	}
+	c.takeSearches(c.co.Searches)
 	return c, nil
 }
 
@@ -419,6 +428,7 @@ const plannedSearch = 25
 // propose makes the chains' proposal once every mode search is done and
 // returns the evaluations made.
 func (c *CatchmentRun) propose() int {
+	c.record()
 	for _, ch := range c.chains {
 		c.cat.Search += ch.search.evals
 	}

@@ -530,7 +530,7 @@ func apportionInverse(ctx context.Context, iv inverter, report func(done, total 
 		if err := checkCatchmentSamples(n); err != nil {
 			return err
 		}
-		co = &mix.CatchmentOptions{Keep: catchmentKeep}
+		co = &mix.CatchmentOptions{Keep: catchmentKeep, Searches: iv.doc.searchesOf(iv.job)}
 		if rough {
 			co = &mix.CatchmentOptions{Warmup: 600, Batch: 400, MaxSteps: 400, Keep: 200}
 		}
@@ -538,6 +538,9 @@ func apportionInverse(ctx context.Context, iv inverter, report func(done, total 
 	res, err := invert(ctx, iv, report, p, mo, co)
 	if err != nil {
 		return err
+	}
+	if c := res.Catchment; c != nil && rough {
+		iv.doc.keepSearches(iv.job, c.Searches())
 	}
 	if err := ctx.Err(); err != nil {
 		return err

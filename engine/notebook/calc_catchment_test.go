@@ -2,6 +2,7 @@ package notebook
 
 import (
 	"context"
+	"fmt"
 	"strings"
 	"testing"
 
@@ -108,5 +109,56 @@ func TestPerSampleDrawsCautioned(t *testing.T) {
 	}
 	if w := sharedEndMemberCaution(&Apportioned{}, "x"); w != "" {
 		t.Errorf("no draws: %q, want no caution", w)
+	}
+}
+
+// TestFullPassTakesQuickSearches: with Document.Quick, the catchment-wide
+// model's full pass takes over the mode searches of its quick pass (the
+// refined results are checked against the stored ones by
+// TestQuickPassRefinesToTheSameResults); an edit between the passes makes
+// the full pass search again.
+func TestFullPassTakesQuickSearches(t *testing.T) {
+	for _, edit := range []bool{false, true} {
+		d, err := loadFile("../../examples/scarrow-ghyll/scarrow-ghyll.lixiv.json")
+		if err != nil {
+			t.Fatal(err)
+		}
+		d.Quick = true
+		ctx := context.Background()
+		for !d.QuickPassDone() {
+			if _, err := d.Step(ctx, nil); err != nil {
+				t.Fatal(err)
+			}
+		}
+		id := ""
+		for _, c := range d.Cells {
+			if s, ok := c.Settings.(*ApportionmentSettings); ok && s.Model == "catchment" {
+				id = c.ID
+			}
+		}
+		if id == "" {
+			t.Fatal("no catchment-wide apportionment in the example")
+		}
+		if d.searchesOf(FarmJob{Cell: id}) == nil {
+			t.Fatal("the quick pass kept no searches")
+		}
+		if edit {
+			// Another seed: the searches start elsewhere.
+			s := d.Cell(id).Settings.(*ApportionmentSettings)
+			if err := d.SetParam(id, "seed", fmt.Sprint(s.Seed+1)); err != nil {
+				t.Fatal(err)
+			}
+			d.Quick = false
+		}
+		if err := d.Recompute(ctx, nil); err != nil {
+			t.Fatal(err)
+		}
+		a := d.Output(id).Value.(*Apportioned)
+		if a.inverse == nil || a.inverse.Catchment == nil {
+			t.Fatal("no catchment-wide result")
+		}
+		if got := a.inverse.Catchment.SearchesTaken(); got == edit {
+			t.Errorf("edited between the passes %v: searches taken over %v", edit, got)
+		}
 	}
 }

@@ -4,6 +4,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"strings"
+
+	"lixiv/engine/mix"
 )
 
 // Cell is one step of a budget: a kind, an id other cells refer to it by, a
@@ -100,6 +102,9 @@ type Document struct {
 	part  bool // a section's view of a budget with sections, made for its report (report_compare.go)
 	state map[string]*cellState
 	funcs map[Kind]ComputeFunc // nil: the registered functions
+	// searches keeps, per apportionment, the mode searches of its last
+	// catchment-wide quick pass, for its full pass (searches.go).
+	searches map[string]*mix.Searches
 }
 
 // New returns an empty budget with the given title.

@@ -148,7 +148,7 @@ func TestTimingCatchment(t *testing.T) {
 	file := catchmentBudget100x4(t)
 	srv := startDemoServer(t)
 	for _, query := range []string{"", "?workers=1", "?workers=0"} {
-		var spans, totals []float64
+		var spans, totals, jobs, walls, busies []float64
 		for range min(timingRuns, 5) {
 			ctx := newBrowser(t, "")
 			open(t, ctx, srv.URL+query)
@@ -162,6 +162,7 @@ func TestTimingCatchment(t *testing.T) {
 					if (lixivApStart && !lixivApEnd && c.classList.contains("state-ok")) { lixivApEnd = now; }
 				}, 10);
 				return true })()`)
+			eval[bool](t, ctx, `(() => { if (window.lixivPool && lixivPool.stats) { lixivPool.stats = {jobs: 0, wall: 0, busy: 0} } return true })()`)
 			if err := chromedp.Do(ctx, chromedp.SetUploadFiles(chromedp.CSS("#file-open"), []string{file})); err != nil {
 				t.Fatal(err)
 			}
@@ -177,9 +178,18 @@ func TestTimingCatchment(t *testing.T) {
 				t.Fatal("the apportionment cell was not seen running and then computed")
 			}
 			spans = append(spans, span)
+			if eval[int](t, ctx, `lixivPool.size`) > 0 {
+				jobs = append(jobs, eval[float64](t, ctx, `lixivPool.stats.jobs`))
+				walls = append(walls, eval[float64](t, ctx, `lixivPool.stats.wall`))
+				busies = append(busies, eval[float64](t, ctx, `lixivPool.stats.busy / lixivPool.size`))
+			}
 			totals = append(totals, eval[float64](t, ctx, `performance.now() - lixivT0`))
 		}
 		t.Logf("timing: catchment-wide model, 100 samples × 4 end-members + K/Na, page%s: apportionment from its start to all its intervals %s; whole budget after opening %s",
 			query, stats(spans), stats(totals))
+		if len(jobs) > 0 {
+			t.Logf("timing: of the whole budget, page%s: jobs on the workers %s, from each job's start to its last result %s, the workers' time on their parts per worker %s",
+				query, stats(jobs), stats(walls), stats(busies))
+		}
 	}
 }

@@ -61,7 +61,10 @@
   // error, naming the worker. Cancelling a job, or a job's error, ends the
   // workers still busy with it and starts fresh ones from the module.
   function pool(module, size) {
-    var p = { size: 0, jobs: 0, run: null };
+    // stats sums, over the jobs done, their time from start to last result
+    // and the time the workers spent on their samples (for the timing
+    // harness: what the page's side of a job costs).
+    var p = { size: 0, jobs: 0, run: null, stats: { jobs: 0, wall: 0, busy: 0 } };
     if (size < 1) {
       note("Computing on the page's own thread (workers=0).");
       return p;
@@ -73,7 +76,7 @@
     var slots = [], job = null, seq = 0;
     function spawn(i) {
       var w = new Worker("worker.js");
-      var slot = { n: i + 1, worker: w, busy: null, job: 0 };
+      var slot = { n: i + 1, worker: w, busy: null, job: 0, out: 0 };
       w.onmessage = function (ev) { message(slot, ev.data); };
       w.onerror = function (ev) { ev.preventDefault(); lost(slot, ev.message || "a script error"); };
       w.postMessage({ module: module });
@@ -98,12 +101,21 @@
       respawn(slot);
       if (had) { failed("worker " + slot.n + " of " + slots.length + " stopped: " + why); }
     }
+    // feed keeps each worker two samples ahead (ahead): the next one waits
+    // in its queue while it works one, so it need not wait for the page's
+    // thread, busy drawing, to hand it the next.
+    var ahead = 2;
     function feed(slot) {
-      if (!job || slot.busy !== null || job.next >= job.n) { return; }
-      var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
-      if (slot.job !== job.id) { m.doc = job.doc; m.state = job.state; slot.job = job.id; }
-      slot.busy = job.id;
-      slot.worker.postMessage(m);
+      if (!job) { return; }
+      if (slot.busy !== job.id) { slot.out = 0; }
+      // (A worker lost as it is handed a sample ends the job, or is replaced, inside postMessage.)
+      while (job && slots[slot.n - 1] === slot && slot.out < ahead && job.next < job.n) {
+        var s = job.samples[job.next++], m = { id: job.id, sample: s, cell: job.cell, sulfate: job.sulfate, rough: job.rough };
+        if (slot.job !== job.id) { m.doc = job.doc; m.state = job.state; slot.job = job.id; }
+        slot.busy = job.id;
+        slot.out++;
+        slot.worker.postMessage(m);
+      }
     }
     function report() {
       var f = 0;
@@ -114,12 +126,18 @@
       if (m.fatal) { lost(slot, m.fatal); return; }
       if (!job || m.id !== job.id) { return; }
       if (m.bytes === undefined && !m.error) { job.frac[m.sample] = m.progress; report(); return; }
-      slot.busy = null;
+      if (--slot.out <= 0) { slot.busy = null; }
       if (m.error) { failed("worker " + slot.n + " of " + slots.length + ": " + m.error); return; }
       job.frac[m.sample] = 1;
       job.got++;
+      job.busy += m.ms || 0;
       var j = job;
-      if (j.got === j.n) { job = null; }
+      if (j.got === j.n) {
+        job = null;
+        p.stats.jobs++;
+        p.stats.wall += performance.now() - j.t0;
+        p.stats.busy += j.busy;
+      }
       j.onSample(m.sample, m.bytes);
       if (job) { report(); feed(slot); }
     }
@@ -142,7 +160,7 @@
       if (job) { stop(); }
       var id = ++seq;
       p.jobs++;
-      job = { id: id, doc: doc, state: state || null, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {},
+      job = { id: id, doc: doc, state: state || null, cell: cell, sulfate: sulfate, rough: rough, samples: samples, n: samples.length, next: 0, got: 0, frac: {}, t0: performance.now(), busy: 0,
         onSample: onSample, onProgress: onProgress, onError: onError };
       slots.forEach(feed);
       return function () { if (job && job.id === id) { stop(); } };

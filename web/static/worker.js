@@ -16,11 +16,11 @@ self.lixivServe = function (f) {
   waiting = [];
 };
 
-// lixivPost is called by the engine with a sample's bytes, an error, or
-// its progress (0 to 1).
-self.lixivPost = function (id, sample, bytes, error, progress) {
+// lixivPost is called by the engine with a sample's bytes (and the
+// milliseconds it worked on it), an error, or its progress (0 to 1).
+self.lixivPost = function (id, sample, bytes, error, progress, ms) {
   if (bytes) {
-    self.postMessage({ id: id, sample: sample, bytes: bytes }, [bytes.buffer]);
+    self.postMessage({ id: id, sample: sample, bytes: bytes, ms: ms }, [bytes.buffer]);
   } else if (error) {
     self.postMessage({ id: id, sample: sample, error: error });
   } else {
