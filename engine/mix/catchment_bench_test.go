@@ -71,3 +71,32 @@ func BenchmarkCatchment100x3(b *testing.B) { benchmarkCatchment(b, 100, 3, nil, 
 
 // BenchmarkCatchment100x2 is 100 samples of silicate and carbonate.
 func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2, nil, nil) }
+
+// BenchmarkSampleLogL is the catchment-wide likelihood of one sample (the
+// chains' inner loop), over the samples of BenchmarkCatchment100x4's
+// catchment at the priors' central ratios.
+func BenchmarkSampleLogL(b *testing.B) {
+	sc := makeCatchment(100, 4, 7)
+	sc.prob.Tracers = append(sc.prob.Tracers, KNa)
+	c, err := NewCatchmentRun(sc.prob, &Options{Seed: 1}, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	r := c.base
+	var th [NTracers][MaxEndMembers]float64
+	var tau [MaxEndMembers]float64
+	for t := range NTracers {
+		for j := range r.n {
+			th[t][j] = r.smp[t][j].v
+		}
+	}
+	for j := range r.n {
+		tau[j] = 0.05
+	}
+	i := 0
+	for b.Loop() {
+		s := c.used[i%len(c.used)]
+		c.sampleLogL(&r.res.Samples[s].setup, &th, &tau, c.diagCov[i%len(c.used)])
+		i++
+	}
+}

@@ -63,10 +63,9 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 			lp += lc
 		}
 		// The truncated component: mean shifted by σ λ, variance scaled by
-		// v = 1 − z λ − λ². The rows and columns of the components done are
-		// updated too, with the pivot's column as it was (the entries of
-		// the components left are those of an update of theirs alone), but
-		// never read again.
+		// v = 1 − z λ − λ². The rows of the components left are updated
+		// whole, with the pivot's row as it was: the entries in the columns
+		// of the components done (or past K) are never read again.
 		sk := sqrt(S[k][k])
 		v := 1 - float64(zk*lam) - float64(lam*lam)
 		if v <= 0 { // max(v, 0): +0 for ±0, NaN kept
@@ -76,6 +75,9 @@ func logOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) float
 		c := S[k]
 		ckk, w := c[k], 1-v
 		for i := 0; i < K; i++ {
+			if left&(1<<i) == 0 {
+				continue
+			}
 			ci := c[i]
 			m[i] += float64(ci / ckk * shift)
 			s := &S[i]
