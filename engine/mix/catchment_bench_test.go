@@ -2,6 +2,7 @@ package mix
 
 import (
 	"context"
+	"math"
 	"testing"
 )
 
@@ -75,7 +76,14 @@ func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2, nil, 
 // BenchmarkSampleLogL is the catchment-wide likelihood of one sample (the
 // chains' inner loop), over the samples of BenchmarkCatchment100x4's
 // catchment at the priors' central ratios.
-func BenchmarkSampleLogL(b *testing.B) {
+func BenchmarkSampleLogL(b *testing.B) { benchmarkSampleLogL(b, false) }
+
+// BenchmarkSampleLogLCorrected is BenchmarkSampleLogL with covariances
+// that have terms beside the diagonal, as waters corrected for rain have
+// (the whitening is then the general one).
+func BenchmarkSampleLogLCorrected(b *testing.B) { benchmarkSampleLogL(b, true) }
+
+func benchmarkSampleLogL(b *testing.B, corrected bool) {
 	sc := makeCatchment(100, 4, 7)
 	sc.prob.Tracers = append(sc.prob.Tracers, KNa)
 	c, err := NewCatchmentRun(sc.prob, &Options{Seed: 1}, nil)
@@ -93,10 +101,22 @@ func BenchmarkSampleLogL(b *testing.B) {
 	for j := range r.n {
 		tau[j] = 0.05
 	}
+	sts := make([]setup, len(c.used))
+	for i, s := range c.used {
+		sts[i] = r.res.Samples[s].setup
+		if corrected {
+			st := &sts[i]
+			for i := 1; i < st.r; i++ {
+				for j := range i {
+					st.cov[i][j] = 0.1 * math.Sqrt(st.cov[i][i]*st.cov[j][j])
+				}
+			}
+		}
+	}
 	i := 0
 	for b.Loop() {
-		s := c.used[i%len(c.used)]
-		c.sampleLogL(&r.res.Samples[s].setup, &th, &tau, c.diagCov[i%len(c.used)])
+		k := i % len(sts)
+		c.sampleLogL(&sts[k], &th, &tau, c.diagCov[k] && !corrected)
 		i++
 	}
 }
