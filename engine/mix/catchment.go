@@ -198,6 +198,7 @@ type CatchmentRun struct {
 
 	used    []int               // samples in the joint likelihood
 	diagCov []bool              // whether each used sample's covariance is diagonal (diagonal)
+	sameA   []bool              // whether each used sample's design has the rows and end-members of the one before it (sameLayout)
 	seen    [MaxEndMembers]bool // end-members that take part in some used sample
 	ems     []int               // end-members with a scatter (some ratio of theirs is random)
 	nd, np  int                 // shared latents; all parameters (latents and scatter parameters)

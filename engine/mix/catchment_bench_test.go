@@ -113,10 +113,16 @@ func benchmarkSampleLogL(b *testing.B, corrected bool) {
 			}
 		}
 	}
+	var A [maxRows][MaxEndMembers]float64
+	design(&sts[0], &th, &A)
 	i := 0
 	for b.Loop() {
 		k := i % len(sts)
-		c.sampleLogL(&sts[k], &th, &tau, c.diagCov[k] && !corrected)
+		if !c.sameA[k] {
+			A = [maxRows][MaxEndMembers]float64{}
+			design(&sts[k], &th, &A)
+		}
+		c.sampleLogL(&sts[k], &A, &th, &tau, c.diagCov[k] && !corrected)
 		i++
 	}
 }

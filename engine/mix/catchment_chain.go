@@ -230,8 +230,14 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 		ch.tau[j] = c.scatterOf(v)
 		lp -= 0.5 * v * v // τ = s v half-normal: v half standard normal
 	}
+	var A [maxRows][MaxEndMembers]float64 // the design, shared by the samples of one layout in a row
 	for i, s := range c.used {
-		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau, c.diagCov[i])
+		st := &r.res.Samples[s].setup
+		if !c.sameA[i] {
+			A = [maxRows][MaxEndMembers]float64{}
+			design(st, &ch.th, &A)
+		}
+		l := c.sampleLogL(st, &A, &ch.th, &ch.tau, c.diagCov[i])
 		if l != l || math.IsInf(l, -1) {
 			return math.Inf(-1)
 		}
@@ -256,12 +262,11 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // place it favoured, by tens of log units over a catchment, end-members
 // for which the amounts' optimum lies beyond a face (docs/methods.md
 // §7.12). The scatter is added to each tracer row's variance at the exact
-// non-negative fit without it (to first order). diag says whether st's
+// non-negative fit without it (to first order). A is st's design at th
+// (design, zero past its rows and end-members), and diag says whether st's
 // covariance is diagonal (diagonal).
-func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64, diag bool) float64 {
+func (c *CatchmentRun) sampleLogL(st *setup, A *[maxRows][MaxEndMembers]float64, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64, diag bool) float64 {
 	R, K := st.r, st.k
-	var A [maxRows][MaxEndMembers]float64
-	design(st, th, &A)
 	tot := 0.0
 	if v := st.x[0].Value; v > 0 {
 		tot += 1 * v
@@ -313,7 +318,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 		}
 		gram(R, K, &At, &st.yt, &H, &b)
 	} else {
-		normal(R, K, &st.linv, &A, &st.yt, &H, &b)
+		normal(R, K, &st.linv, A, &st.yt, &H, &b)
 	}
 	addDiag(&H, &dg)
 	nnls(K, &H, &b, &n)
@@ -349,7 +354,7 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 			at[0], at[1], at[2], at[3], at[4], at[5] = a[0]/l, a[1]/l, a[2]/l, a[3]/l, a[4]/l, a[5]/l
 		}
 	} else {
-		pl, yy = whitenWide(R, K, st, &wide, &A, &At, &yt)
+		pl, yy = whitenWide(R, K, st, &wide, A, &At, &yt)
 	}
 	gram(R, K, &At, &yt, &H, &b)
 	addDiag(&H, &dg)

@@ -5,6 +5,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"lixiv/engine/chem"
 )
 
 // The unrolled kernels (dense.go, gaussOrthant, logOrthant, face,
@@ -328,7 +330,7 @@ func TestSampleLogLSameBits(t *testing.T) {
 				if A != A0 {
 					t.Fatalf("%d end-members, trial %d, sample %d: design %v, plain %v", n, trial, s, A, A0)
 				}
-				got, want := c.sampleLogL(&st, &th, &tau, diagonal(&st.cov)), refSampleLogL(&st, &th, &tau)
+				got, want := c.sampleLogLOf(&st, &th, &tau), refSampleLogL(&st, &th, &tau)
 				if !sameFloat(got, want) {
 					t.Fatalf("%d end-members, trial %d, sample %d: %v, plain %v", n, trial, s, got, want)
 				}
@@ -394,6 +396,66 @@ func TestDesignSameBits(t *testing.T) {
 					}
 				}
 			}
+		}
+	}
+}
+
+// sampleLogLOf is sampleLogL with the sample's own design.
+func (c *CatchmentRun) sampleLogLOf(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
+	var A [maxRows][MaxEndMembers]float64
+	design(st, th, &A)
+	return c.sampleLogL(st, &A, th, tau, diagonal(&st.cov))
+}
+
+// TestLogPostSharesDesign checks that the chains' log posterior, which
+// reuses a design across samples of one layout in a row, is the sum of the
+// plain likelihoods of the samples with their own designs, in a catchment
+// where some samples lack a tracer.
+func TestLogPostSharesDesign(t *testing.T) {
+	sc := makeCatchment(30, 3, 5)
+	sc.prob.Tracers = append(sc.prob.Tracers, KNa)
+	for i := range sc.prob.Waters {
+		if i%4 == 1 || i%7 == 3 {
+			sc.prob.Waters[i].Conc[chem.Mg] = math.NaN()
+		}
+	}
+	c, err := NewCatchmentRun(sc.prob, &Options{Seed: 1}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	shared, own := 0, 0
+	for _, s := range c.sameA {
+		if s {
+			shared++
+		} else {
+			own++
+		}
+	}
+	if shared < 5 || own < 5 {
+		t.Fatalf("%d samples share the design before them, %d do not: the test needs both", shared, own)
+	}
+	ch := c.newChain(0)
+	used := c.used
+	for range 20 {
+		for i := range ch.x {
+			ch.prop[i] = ch.x[i] + 0.3*normal01(ch.rng)
+			if i >= c.nd {
+				ch.prop[i] = math.Abs(ch.prop[i])
+			}
+		}
+		got := c.logPost(ch, ch.prop)
+		// The priors' part alone, then each sample's plain likelihood.
+		c.used = nil
+		want := c.logPost(ch, ch.prop)
+		c.used = used
+		for _, s := range used {
+			want += refSampleLogL(&c.base.res.Samples[s].setup, &ch.th, &ch.tau)
+		}
+		if !sameFloat(got, want) {
+			t.Fatalf("log posterior %v, with each sample's own design and the plain likelihood %v", got, want)
+		}
+		if math.IsInf(got, 0) || got != got {
+			t.Fatalf("log posterior %v: the test needs a finite one", got)
 		}
 	}
 }
