@@ -196,13 +196,15 @@ type CatchmentRun struct {
 	co   CatchmentOptions
 	cat  *Catchment
 
-	used   []int               // samples in the joint likelihood
-	seen   [MaxEndMembers]bool // end-members that take part in some used sample
-	ems    []int               // end-members with a scatter (some ratio of theirs is random)
-	nd, np int                 // shared latents; all parameters (latents and scatter parameters)
-	chains []*chain
-	keep   [][]float64 // the kept states, one per joint draw
-	extra  []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
+	used    []int               // samples in the joint likelihood
+	diagCov []bool              // whether each used sample's covariance is diagonal (diagonal)
+	sameA   []bool              // whether each used sample's design has the rows and end-members of the one before it (sameLayout)
+	seen    [MaxEndMembers]bool // end-members that take part in some used sample
+	ems     []int               // end-members with a scatter (some ratio of theirs is random)
+	nd, np  int                 // shared latents; all parameters (latents and scatter parameters)
+	chains  []*chain
+	keep    [][]float64 // the kept states, one per joint draw
+	extra   []float64   // ratios drawn from the prior per joint draw, [draw][tracer][end-member]
 
 	prop     *chainProposal // the chains' independence proposal, once the searches are done
 	heavy    int            // the proposal's heaviest component, for the random-walk steps

@@ -2,6 +2,7 @@ package mix
 
 import (
 	"context"
+	"math"
 	"testing"
 )
 
@@ -71,3 +72,57 @@ func BenchmarkCatchment100x3(b *testing.B) { benchmarkCatchment(b, 100, 3, nil, 
 
 // BenchmarkCatchment100x2 is 100 samples of silicate and carbonate.
 func BenchmarkCatchment100x2(b *testing.B) { benchmarkCatchment(b, 100, 2, nil, nil) }
+
+// BenchmarkSampleLogL is the catchment-wide likelihood of one sample (the
+// chains' inner loop), over the samples of BenchmarkCatchment100x4's
+// catchment at the priors' central ratios.
+func BenchmarkSampleLogL(b *testing.B) { benchmarkSampleLogL(b, false) }
+
+// BenchmarkSampleLogLCorrected is BenchmarkSampleLogL with covariances
+// that have terms beside the diagonal, as waters corrected for rain have
+// (the whitening is then the general one).
+func BenchmarkSampleLogLCorrected(b *testing.B) { benchmarkSampleLogL(b, true) }
+
+func benchmarkSampleLogL(b *testing.B, corrected bool) {
+	sc := makeCatchment(100, 4, 7)
+	sc.prob.Tracers = append(sc.prob.Tracers, KNa)
+	c, err := NewCatchmentRun(sc.prob, &Options{Seed: 1}, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	r := c.base
+	var th [NTracers][MaxEndMembers]float64
+	var tau [MaxEndMembers]float64
+	for t := range NTracers {
+		for j := range r.n {
+			th[t][j] = r.smp[t][j].v
+		}
+	}
+	for j := range r.n {
+		tau[j] = 0.05
+	}
+	sts := make([]setup, len(c.used))
+	for i, s := range c.used {
+		sts[i] = r.res.Samples[s].setup
+		if corrected {
+			st := &sts[i]
+			for i := 1; i < st.r; i++ {
+				for j := range i {
+					st.cov[i][j] = 0.1 * math.Sqrt(st.cov[i][i]*st.cov[j][j])
+				}
+			}
+		}
+	}
+	var A [maxRows][MaxEndMembers]float64
+	design(&sts[0], &th, &A)
+	i := 0
+	for b.Loop() {
+		k := i % len(sts)
+		if !c.sameA[k] {
+			A = [maxRows][MaxEndMembers]float64{}
+			design(&sts[k], &th, &A)
+		}
+		c.sampleLogL(&sts[k], &A, &th, &tau, c.diagCov[k] && !corrected)
+		i++
+	}
+}

@@ -230,8 +230,14 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 		ch.tau[j] = c.scatterOf(v)
 		lp -= 0.5 * v * v // τ = s v half-normal: v half standard normal
 	}
-	for _, s := range c.used {
-		l := c.sampleLogL(&r.res.Samples[s].setup, &ch.th, &ch.tau)
+	var A [maxRows][MaxEndMembers]float64 // the design, shared by the samples of one layout in a row
+	for i, s := range c.used {
+		st := &r.res.Samples[s].setup
+		if !c.sameA[i] {
+			A = [maxRows][MaxEndMembers]float64{}
+			design(st, &ch.th, &A)
+		}
+		l := c.sampleLogL(st, &A, &ch.th, &ch.tau, c.diagCov[i])
 		if l != l || math.IsInf(l, -1) {
 			return math.Inf(-1)
 		}
@@ -256,26 +262,36 @@ func (c *CatchmentRun) logPost(ch *chain, x []float64) float64 {
 // place it favoured, by tens of log units over a catchment, end-members
 // for which the amounts' optimum lies beyond a face (docs/methods.md
 // §7.12). The scatter is added to each tracer row's variance at the exact
-// non-negative fit without it (to first order).
-func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64) float64 {
+// non-negative fit without it (to first order). A is st's design at th
+// (design, zero past its rows and end-members), and diag says whether st's
+// covariance is diagonal (diagonal).
+func (c *CatchmentRun) sampleLogL(st *setup, A *[maxRows][MaxEndMembers]float64, th *[NTracers][MaxEndMembers]float64, tau *[MaxEndMembers]float64, diag bool) float64 {
 	R, K := st.r, st.k
-	var A [maxRows][MaxEndMembers]float64
-	design(st, th, &A)
-	var dg vec6
 	tot := 0.0
-	for c, f := range [NCations]float64{1, 1, 2, 2} {
-		if v := st.x[c].Value; v > 0 {
-			tot += f * v
-		}
+	if v := st.x[0].Value; v > 0 {
+		tot += 1 * v
 	}
-	tot = max(tot, 1)
+	if v := st.x[1].Value; v > 0 {
+		tot += 1 * v
+	}
+	if v := st.x[2].Value; v > 0 {
+		tot += 2 * v
+	}
+	if v := st.x[3].Value; v > 0 {
+		tot += 2 * v
+	}
+	if tot < 1 { // max(tot, 1): tot is not NaN
+		tot = 1
+	}
 	// Logs are taken of products (one log where there were many: the
 	// chains spend much of their time here).
+	var dg, ta vec6 // ta: each column's scatter, zero past K
 	pc := 1.0
 	for jj, j := range st.act {
 		cj := (1 + th[KNa][j] + 2*th[CaNa][j] + 2*th[MgNa][j]) / tot
 		dg[jj] = cj * cj
 		pc *= cj
+		ta[jj] = tau[j]
 	}
 	var H mat6
 	var b, n vec6
@@ -283,112 +299,124 @@ func (c *CatchmentRun) sampleLogL(st *setup, th *[NTracers][MaxEndMembers]float6
 	// Raw waters' rows have errors of their own (a diagonal covariance):
 	// whitening is then a division by each row's σ, and gives the same bits
 	// as the general triangular solve, whose terms beside the diagonal are
-	// zeros.
-	diag := diagonal(R, &st.cov)
+	// zeros. Past the R rows, A and linv are zeros, and so is At.
 	if diag {
-		for i := 0; i < R; i++ {
-			w := st.linv[i][i]
+		w := &st.linv
+		w0, w1, w2, w3, w4, w5 := w[0][0], w[1][1], w[2][2], w[3][3], w[4][4], w[5][5]
+		for jj := 0; jj < K; jj++ {
+			At[0][jj] = float64(w0 * A[0][jj])
+			At[1][jj] = float64(w1 * A[1][jj])
+			At[2][jj] = float64(w2 * A[2][jj])
+			At[3][jj] = float64(w3 * A[3][jj])
+			At[4][jj] = float64(w4 * A[4][jj])
+			At[5][jj] = float64(w5 * A[5][jj])
+		}
+		for i := 6; i < R; i++ {
 			for jj := 0; jj < K; jj++ {
-				At[i][jj] = float64(w * A[i][jj])
+				At[i][jj] = float64(w[i][i] * A[i][jj])
 			}
 		}
 		gram(R, K, &At, &st.yt, &H, &b)
 	} else {
-		normal(R, K, &st.linv, &A, &st.yt, &H, &b)
+		normal(R, K, &st.linv, A, &st.yt, &H, &b)
 	}
-	for jj := 0; jj < K; jj++ {
-		H[jj][jj] += dg[jj]
-	}
+	addDiag(&H, &dg)
 	nnls(K, &H, &b, &n)
 	// The covariance with the scatter: each tracer row's variance widened by
-	// what the scatter of the end-members' ratios brings at the amounts n.
+	// what the scatter of the end-members' ratios brings at the amounts n
+	// (past K, ta, A and n are zeros: the padded terms are 0·0).
 	var wide [maxRows]float64
-	for row := 0; row < R; row++ {
-		v := 0.0
-		if row > 0 {
-			for jj, j := range st.act {
-				a := float64(tau[j]*A[row][jj]) * n[jj]
-				v += a * a
-			}
-		}
-		wide[row] = st.cov[row][row] + v
+	wide[0] = st.cov[0][0] + 0.0
+	for row := 1; row < R; row++ {
+		a := &A[row]
+		a0 := float64(ta[0]*a[0]) * n[0]
+		a1 := float64(ta[1]*a[1]) * n[1]
+		a2 := float64(ta[2]*a[2]) * n[2]
+		a3 := float64(ta[3]*a[3]) * n[3]
+		a4 := float64(ta[4]*a[4]) * n[4]
+		a5 := float64(ta[5]*a[5]) * n[5]
+		wide[row] = st.cov[row][row] + (0.0 + a0*a0 + a1*a1 + a2*a2 + a3*a3 + a4*a4 + a5*a5)
 	}
 	var yt [maxRows]float64
 	yy := 0.0
 	pl := 1.0
 	if diag {
 		for i := 0; i < R; i++ {
-			l := sqrt(math.Max(wide[i], 1e-18*(1+wide[i])+1e-30))
+			x := wide[i]
+			if c := 1e-18*(1+x) + 1e-30; x < c { // math.Max(x, c): c is not ±0, and NaN only with x
+				x = c
+			}
+			l := sqrt(x)
 			pl *= l
 			yt[i] = st.y[i] / l
 			yy += yt[i] * yt[i]
-			for jj := 0; jj < K; jj++ {
-				At[i][jj] = A[i][jj] / l
-			}
+			a, at := &A[i], &At[i]
+			at[0], at[1], at[2], at[3], at[4], at[5] = a[0]/l, a[1]/l, a[2]/l, a[3]/l, a[4]/l, a[5]/l
 		}
 	} else {
-		pl, yy = whitenWide(R, K, st, &wide, &A, &At, &yt)
+		pl, yy = whitenWide(R, K, st, &wide, A, &At, &yt)
 	}
 	gram(R, K, &At, &yt, &H, &b)
-	for jj := 0; jj < K; jj++ {
-		H[jj][jj] += dg[jj]
-	}
+	addDiag(&H, &dg)
 	return gaussOrthant(K, &H, &b, yy) + plog(pc/pl)
 }
 
-// diagonal reports whether the covariance c of r rows (lower triangle
-// read) is diagonal.
-func diagonal(r int, c *[maxRows][maxRows]float64) bool {
-	for i := 1; i < r; i++ {
-		for j := 0; j < i; j++ {
-			if c[i][j] != 0 {
-				return false
-			}
-		}
-	}
-	return true
+// addDiag adds d to the diagonal of H (past K both are zeros).
+func addDiag(H *mat6, d *vec6) {
+	H[0][0] += d[0]
+	H[1][1] += d[1]
+	H[2][2] += d[2]
+	H[3][3] += d[3]
+	H[4][4] += d[4]
+	H[5][5] += d[5]
 }
 
 // whitenWide factors the setup's covariance with its diagonal set to wide,
-// C = L Lᵀ, and sets the whitened data and design L ỹ = y, L Ã = A; it
-// returns det L and |ỹ|².
+// C = L Lᵀ, and sets the whitened data and design L ỹ = y, L Ã = A (yt and
+// At zero on entry); it returns det L and |ỹ|².
 func whitenWide(R, K int, st *setup, wide *[maxRows]float64, A, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64) (pl, yy float64) {
-	var C, L [maxRows][maxRows]float64
-	C = st.cov
-	for i := 0; i < R; i++ {
-		C[i][i] = wide[i]
-	}
+	var L [maxRows][maxRows]float64
 	pl = 1.0
-	for j := 0; j < R; j++ {
-		d := C[j][j]
-		for p := 0; p < j; p++ {
-			d -= L[j][p] * L[j][p]
-		}
-		d = math.Max(d, 1e-18*(1+C[j][j])+1e-30)
-		L[j][j] = sqrt(d)
-		pl *= L[j][j]
-		for i := j + 1; i < R; i++ {
-			s := C[i][j]
-			for p := 0; p < j; p++ {
-				s -= L[i][p] * L[j][p]
-			}
-			L[i][j] = s / L[j][j]
-		}
-	}
 	for i := 0; i < R; i++ {
-		s := st.y[i]
-		for p := 0; p < i; p++ {
-			s -= L[i][p] * yt[p]
+		// Row i of L, each entry as the column-by-column factor has it;
+		// its diagonal is set last, so that l[p] is zero for p >= i in the
+		// sums below, whose padded terms are then 0·0 (yt and At are
+		// zero from row i on).
+		c, l := &st.cov[i], &L[i]
+		if i > 0 {
+			l[0] = c[0] / L[0][0]
 		}
-		yt[i] = s / L[i][i]
+		if i > 1 {
+			l[1] = (c[1] - l[0]*L[1][0]) / L[1][1]
+		}
+		if i > 2 {
+			l[2] = (c[2] - l[0]*L[2][0] - l[1]*L[2][1]) / L[2][2]
+		}
+		if i > 3 {
+			l[3] = (c[3] - l[0]*L[3][0] - l[1]*L[3][1] - l[2]*L[3][2]) / L[3][3]
+		}
+		if i > 4 {
+			l[4] = (c[4] - l[0]*L[4][0] - l[1]*L[4][1] - l[2]*L[4][2] - l[3]*L[4][3]) / L[4][4]
+		}
+		if i > 5 {
+			l[5] = (c[5] - l[0]*L[5][0] - l[1]*L[5][1] - l[2]*L[5][2] - l[3]*L[5][3] - l[4]*L[5][4]) / L[5][5]
+		}
+		if i > 6 {
+			l[6] = (c[6] - l[0]*L[6][0] - l[1]*L[6][1] - l[2]*L[6][2] - l[3]*L[6][3] - l[4]*L[6][4] - l[5]*L[6][5]) / L[6][6]
+		}
+		d := wide[i] - l[0]*l[0] - l[1]*l[1] - l[2]*l[2] - l[3]*l[3] - l[4]*l[4] - l[5]*l[5] - l[6]*l[6]
+		if m := 1e-18*(1+wide[i]) + 1e-30; d < m { // math.Max(d, m): m is not ±0, and NaN only with d
+			d = m
+		}
+		li := sqrt(d)
+		pl *= li
+		// Row i of the whitened data and design.
+		yt[i] = (st.y[i] - l[0]*yt[0] - l[1]*yt[1] - l[2]*yt[2] - l[3]*yt[3] - l[4]*yt[4] - l[5]*yt[5] - l[6]*yt[6]) / li
 		yy += yt[i] * yt[i]
 		for jj := 0; jj < K; jj++ {
-			s := A[i][jj]
-			for p := 0; p < i; p++ {
-				s -= L[i][p] * At[p][jj]
-			}
-			At[i][jj] = s / L[i][i]
+			At[i][jj] = (A[i][jj] - l[0]*At[0][jj] - l[1]*At[1][jj] - l[2]*At[2][jj] - l[3]*At[3][jj] - l[4]*At[4][jj] - l[5]*At[5][jj] - l[6]*At[6][jj]) / li
 		}
+		l[i] = li
 	}
 	return pl, yy
 }
@@ -399,85 +427,26 @@ func whitenWide(R, K int, st *setup, wide *[maxRows]float64, A, At *[maxRows][Ma
 // times the chance that a draw of N(μ, H⁻¹) is non-negative (logOrthant).
 // −Inf when H is singular.
 func gaussOrthant(K int, H *mat6, b *vec6, yy float64) float64 {
-	var L [MaxEndMembers][MaxEndMembers]float64
-	hd := 1.0
+	var L mat6
+	var tol vec6
 	for j := 0; j < K; j++ {
-		d := H[j][j]
-		for p := 0; p < j; p++ {
-			d -= L[j][p] * L[j][p]
-		}
-		if !(d > 1e-13*H[j][j]) {
-			return math.Inf(-1)
-		}
-		d = sqrt(d)
-		L[j][j] = d
-		hd *= d
-		for i := j + 1; i < K; i++ {
-			s := H[i][j]
-			for p := 0; p < j; p++ {
-				s -= L[i][p] * L[j][p]
-			}
-			L[i][j] = s / d
-		}
+		tol[j] = 1e-13 * H[j][j]
 	}
 	var y, mu vec6
-	for i := 0; i < K; i++ {
-		s := b[i]
-		for p := 0; p < i; p++ {
-			s -= L[i][p] * y[p]
-		}
-		y[i] = s / L[i][i]
+	if !cholSolve(K, H, &tol, true, &L, b, &y, &mu) {
+		return math.Inf(-1)
 	}
-	fit := 0.0
-	for i := K - 1; i >= 0; i-- {
-		s := y[i]
-		for p := i + 1; p < K; p++ {
-			s -= L[p][i] * mu[p]
-		}
-		mu[i] = s / L[i][i]
-		fit += y[i] * y[i] // bᵀH⁻¹b = |L⁻¹b|²
+	hd := 1.0
+	for j := 0; j < K; j++ {
+		hd *= L[j][j]
 	}
-	return -0.5*max(0, yy-fit) - plog(hd) + logOrthant(K, &L, &mu)
-}
-
-// normal forms the normal equations H = ÃᵀÃ, b = Ãᵀỹ of the design A
-// whitened by the lower-triangular w (Ã = w A), with ỹ given whitened.
-func normal(R, K int, w *[maxRows][maxRows]float64, A *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
-	var At [maxRows][MaxEndMembers]float64
-	whiten(R, K, w, A, &At)
-	gram(R, K, &At, yt, H, b)
-}
-
-// whiten sets At = w A for the lower-triangular w.
-func whiten(R, K int, w *[maxRows][maxRows]float64, A, At *[maxRows][MaxEndMembers]float64) {
-	for i := 0; i < R; i++ {
-		wi := &w[i]
-		for jj := 0; jj < K; jj++ {
-			s := 0.0
-			for p := 0; p <= i; p++ {
-				s += float64(wi[p] * A[p][jj])
-			}
-			At[i][jj] = s
-		}
+	// bᵀH⁻¹b = |L⁻¹b|², summed from the last row up (y is zero past K).
+	fit := 0.0 + y[5]*y[5] + y[4]*y[4] + y[3]*y[3] + y[2]*y[2] + y[1]*y[1] + y[0]*y[0]
+	d := yy - fit
+	if d <= 0 { // max(0, d): +0 for ±0, NaN kept
+		d = 0
 	}
-}
-
-// gram forms H = ÃᵀÃ and b = Ãᵀỹ.
-func gram(R, K int, At *[maxRows][MaxEndMembers]float64, yt *[maxRows]float64, H *mat6, b *vec6) {
-	for i := 0; i < K; i++ {
-		for j := 0; j <= i; j++ {
-			s := 0.0
-			for p := 0; p < R; p++ {
-				s += float64(At[p][i] * At[p][j])
-			}
-			H[i][j], H[j][i] = s, s
-		}
-		s := 0.0
-		for p := 0; p < R; p++ {
-			s += float64(At[p][i] * yt[p])
-		}
-		b[i] = s
-	}
+	return -0.5*d - plog(hd) + logOrthant(K, &L, &mu)
 }
 
 // invDiag returns (H⁻¹)_ii for H = L Lᵀ of order m: the squared norm of

@@ -3,6 +3,7 @@ package mix
 import (
 	"fmt"
 	"math"
+	"slices"
 )
 
 // Identifiability is the counting check of the catchment-wide model, made
@@ -56,6 +57,8 @@ func (c *CatchmentRun) check() Identifiability {
 			continue
 		}
 		c.used = append(c.used, s)
+		c.diagCov = append(c.diagCov, diagonal(&st.cov))
+		c.sameA = append(c.sameA, len(c.used) > 1 && sameLayout(&r.res.Samples[c.used[len(c.used)-2]].setup, st))
 		for _, j := range st.act {
 			c.seen[j] = true
 		}
@@ -226,4 +229,10 @@ func jacobiEigen(n int, a []float64) []float64 {
 		out[i] = a[i*n+i]
 	}
 	return out
+}
+
+// sameLayout reports whether the designs of a and b (design) have the same
+// rows and end-members, so that one serves for both.
+func sameLayout(a, b *setup) bool {
+	return a.r == b.r && a.iso == b.iso && a.tr == b.tr && slices.Equal(a.act, b.act)
 }

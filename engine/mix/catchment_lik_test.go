@@ -206,8 +206,8 @@ func TestCatchmentLikelihoodMeasure(t *testing.T) {
 		var aT, bT, aP, bP float64
 		for _, s := range c.used {
 			st := &r.res.Samples[s].setup
-			aT += c.sampleLogL(st, &thT, &tauT)
-			aP += c.sampleLogL(st, &thP, &tauP)
+			aT += c.sampleLogLOf(st, &thT, &tauT)
+			aP += c.sampleLogLOf(st, &thP, &tauP)
 			bT += bruteSampleLogL(c, st, &thT, &tauT, 400, 400, rng)
 			bP += bruteSampleLogL(c, st, &thP, &tauP, 400, 400, rng)
 		}

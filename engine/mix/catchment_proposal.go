@@ -134,10 +134,17 @@ func (c *tComp) dist2(y []float64) float64 {
 	var w [64]float64
 	for i := range np {
 		s := y[i] - c.mu[i]
-		for p := 0; p < i; p++ {
-			s -= float64(c.m[i*np+p] * w[p])
+		// The terms in their order, four to a turn of the loop.
+		row := c.m[i*np : i*np+i+1]
+		p := 0
+		for ; p+4 <= i; p += 4 {
+			r, v := row[p:p+4], w[p:p+4]
+			s = s - float64(r[0]*v[0]) - float64(r[1]*v[1]) - float64(r[2]*v[2]) - float64(r[3]*v[3])
 		}
-		w[i] = s / c.m[i*np+i]
+		for ; p < i; p++ {
+			s -= float64(row[p] * w[p])
+		}
+		w[i] = s / row[i]
 		q += w[i] * w[i]
 	}
 	return q

@@ -119,68 +119,69 @@ func objective(k int, H *mat6, b *vec6, n *vec6) float64 {
 	return f
 }
 
-// face solves H_FF n_F = b_F on the face F given by mask, by Cholesky, and
-// writes the full-length solution (zeros off the face) to n. It returns
-// false when H_FF is singular to working precision.
+// face solves H_FF n_F = b_F on the face F given by mask (its bits below
+// k), by Cholesky, and writes the full-length solution (zeros off the
+// face) to n. It returns false when H_FF is singular to working precision.
 func face(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
-	var idx [MaxEndMembers]int
-	m := 0
-	for j := 0; j < k; j++ {
-		if mask&(1<<j) != 0 {
-			idx[m] = j
-			m++
-		}
-	}
+	mask &= 1<<k - 1
+	m := int(faceSize[mask])
 	*n = vec6{}
 	if m == 0 {
 		return true
 	}
-	var L [MaxEndMembers][MaxEndMembers]float64
-	var y [MaxEndMembers]float64
+	var G, L mat6
+	var g, y, x vec6
+	idx := &faceIdx[mask]
+	hf, bf, xf := H, b, n // the whole: H and b as they are
+	if m < k {
+		// The face's rows of H (every column, the face's in order first)
+		// and of b; what lies past m is not read.
+		i0, i1, i2, i3, i4, i5 := idx[0], idx[1], idx[2], idx[3], idx[4], idx[5]
+		for i := 0; i < m; i++ {
+			h := &H[idx[i]]
+			G[i] = vec6{h[i0], h[i1], h[i2], h[i3], h[i4], h[i5]}
+			g[i] = b[idx[i]]
+		}
+		hf, bf, xf = &G, &g, &x
+	}
 	hmax := 0.0
 	for i := 0; i < m; i++ {
-		if h := H[idx[i]][idx[i]]; h > hmax {
-			hmax = h
+		if d := hf[i][i]; d > hmax {
+			hmax = d
 		}
 	}
 	if !(hmax > 0) || hmax > 1e300 {
 		return false
 	}
-	tol := 1e-13 * hmax
-	for j := 0; j < m; j++ {
-		d := H[idx[j]][idx[j]]
-		for p := 0; p < j; p++ {
-			d -= L[j][p] * L[j][p]
-		}
-		if d <= tol {
-			return false
-		}
-		d = sqrt(d)
-		L[j][j] = d
-		for i := j + 1; i < m; i++ {
-			s := H[idx[i]][idx[j]]
-			for p := 0; p < j; p++ {
-				s -= L[i][p] * L[j][p]
-			}
-			L[i][j] = s / d
-		}
+	t := 1e-13 * hmax
+	tol := vec6{t, t, t, t, t, t}
+	if !cholSolve(m, hf, &tol, false, &L, bf, &y, xf) {
+		return false
 	}
-	for i := 0; i < m; i++ {
-		s := b[idx[i]]
-		for p := 0; p < i; p++ {
-			s -= L[i][p] * y[p]
+	if m < k {
+		for i := 0; i < m; i++ {
+			n[idx[i]] = x[i]
 		}
-		y[i] = s / L[i][i]
-	}
-	for i := m - 1; i >= 0; i-- {
-		s := y[i]
-		for p := i + 1; p < m; p++ {
-			s -= L[p][i] * y[p]
-		}
-		y[i] = s / L[i][i]
-		n[idx[i]] = y[i]
 	}
 	return true
+}
+
+// faceIdx[mask] lists the unknowns of the face mask in order (zeros after
+// them), and faceSize[mask] counts them.
+var (
+	faceIdx  [1 << MaxEndMembers][MaxEndMembers]uint8
+	faceSize [1 << MaxEndMembers]uint8
+)
+
+func init() {
+	for mask := range 1 << MaxEndMembers {
+		for j := range MaxEndMembers {
+			if mask&(1<<j) != 0 {
+				faceIdx[mask][faceSize[mask]] = uint8(j)
+				faceSize[mask]++
+			}
+		}
+	}
 }
 
 // logDetChol returns ½ log det H of the k×k matrix H by Cholesky, and false

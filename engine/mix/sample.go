@@ -458,14 +458,38 @@ func (r *Run) eval(w *sampleWork, k int) {
 // Na row, each end-member's ratio in a tracer's row, and Sr/Na × 87Sr/86Sr
 // in the isotope's.
 func design(st *setup, th *[NTracers][MaxEndMembers]float64, A *[maxRows][MaxEndMembers]float64) {
+	tr := &st.tr
+	t1, t2, t3, t4, t5, t6, t7 := tr[1], tr[2], tr[3], tr[4], tr[5], tr[6], tr[7]
 	for jj, j := range st.act {
-		A[0][jj] = 1
-		for row := 1; row < st.r; row++ {
-			if t := st.tr[row]; t == Sr87Sr86 {
-				A[row][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
-			} else {
-				A[row][jj] = th[t][j]
-			}
+		// Every row of the data (rows past them are left as they are), then
+		// the isotope's.
+		switch st.r {
+		case 8:
+			A[7][jj] = th[t7][j]
+			fallthrough
+		case 7:
+			A[6][jj] = th[t6][j]
+			fallthrough
+		case 6:
+			A[5][jj] = th[t5][j]
+			fallthrough
+		case 5:
+			A[4][jj] = th[t4][j]
+			fallthrough
+		case 4:
+			A[3][jj] = th[t3][j]
+			fallthrough
+		case 3:
+			A[2][jj] = th[t2][j]
+			fallthrough
+		case 2:
+			A[1][jj] = th[t1][j]
+			fallthrough
+		default:
+			A[0][jj] = 1
+		}
+		if st.iso > 0 {
+			A[st.iso][jj] = float64(th[SrNa][j] * th[Sr87Sr86][j])
 		}
 	}
 }
