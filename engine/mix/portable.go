@@ -21,6 +21,42 @@ func plog(x float64) float64 { return portable.Log(x) }
 // fmax is the built-in max of two float64, inlined (portable.Max).
 func fmax(x, y float64) float64 { return portable.Max(x, y) }
 
+// pos is fmax(0, x), and fmax(x, 0), in one comparison: NaN stays NaN and
+// −0 gives +0.
+func pos(x float64) float64 {
+	if x <= 0 {
+		return 0
+	}
+	return x
+}
+
+// atLeast is fmax(x, c) for a c above zero, in one comparison (NaN stays
+// NaN).
+func atLeast(x, c float64) float64 {
+	if x < c {
+		return c
+	}
+	return x
+}
+
+// The central part of normQuantile (Acklam 2003, as below): for p in
+// [pLow, 1 − pLow], q = p − 0.5, r = q², the quantile is
+// qa(r)·q / qb(r), with the coefficients of qa and qb.
+const (
+	pLow = 0.02425
+	qa1  = -3.969683028665376e+01
+	qa2  = 2.209460984245205e+02
+	qa3  = -2.759285104469687e+02
+	qa4  = 1.383577518672690e+02
+	qa5  = -3.066479806614716e+01
+	qa6  = 2.506628277459239e+00
+	qb1  = -5.447609879822406e+01
+	qb2  = 1.615858368580409e+02
+	qb3  = -1.556989798598866e+02
+	qb4  = 6.680131188771972e+01
+	qb5  = -1.328068155288572e+01
+)
+
 // normQuantile returns the standard normal quantile of p in (0, 1), by
 // Acklam's rational approximation (relative error below 1.15e-9; P. J.
 // Acklam 2003, "An algorithm for computing the inverse normal cumulative
@@ -29,28 +65,16 @@ func fmax(x, y float64) float64 { return portable.Max(x, y) }
 // math.Sqrt, which is exactly rounded on every target.
 func normQuantile(p float64) float64 {
 	const (
-		a1   = -3.969683028665376e+01
-		a2   = 2.209460984245205e+02
-		a3   = -2.759285104469687e+02
-		a4   = 1.383577518672690e+02
-		a5   = -3.066479806614716e+01
-		a6   = 2.506628277459239e+00
-		b1   = -5.447609879822406e+01
-		b2   = 1.615858368580409e+02
-		b3   = -1.556989798598866e+02
-		b4   = 6.680131188771972e+01
-		b5   = -1.328068155288572e+01
-		c1   = -7.784894002430293e-03
-		c2   = -3.223964580411365e-01
-		c3   = -2.400758277161838e+00
-		c4   = -2.549732539343734e+00
-		c5   = 4.374664141464968e+00
-		c6   = 2.938163982698783e+00
-		d1   = 7.784695709041462e-03
-		d2   = 3.224671290700398e-01
-		d3   = 2.445134137142996e+00
-		d4   = 3.754408661907416e+00
-		pLow = 0.02425
+		c1 = -7.784894002430293e-03
+		c2 = -3.223964580411365e-01
+		c3 = -2.400758277161838e+00
+		c4 = -2.549732539343734e+00
+		c5 = 4.374664141464968e+00
+		c6 = 2.938163982698783e+00
+		d1 = 7.784695709041462e-03
+		d2 = 3.224671290700398e-01
+		d3 = 2.445134137142996e+00
+		d4 = 3.754408661907416e+00
 	)
 	switch {
 	case p < pLow:
@@ -62,7 +86,7 @@ func normQuantile(p float64) float64 {
 	}
 	q := p - 0.5
 	r := q * q
-	return horner6(r, a1, a2, a3, a4, a5, a6) * q / horner6(r, b1, b2, b3, b4, b5, 1)
+	return horner6(r, qa1, qa2, qa3, qa4, qa5, qa6) * q / horner6(r, qb1, qb2, qb3, qb4, qb5, 1)
 }
 
 // horner5 evaluates c0 x⁴ + c1 x³ + ... + c4 by Horner's rule, rounding
@@ -89,12 +113,24 @@ func sqrt(x float64) float64 { return math.Sqrt(x) }
 // (coefficients from memory, checked against math.Erfc in the tests). It
 // uses only pexp, so it gives the same bits on every target.
 func perfc(x float64) float64 {
+	t, a := perfcArg(x)
+	return perfcFrom(x, t, pexp(a))
+}
+
+// perfcArg returns perfc's t and the argument of its exponential.
+func perfcArg(x float64) (t, a float64) {
 	z := abs(x)
-	t := 1 / (1 + 0.5*z)
+	t = 1 / (1 + 0.5*z)
 	p := horner5(t, 0.17087277, -0.82215223, 1.48851587, -1.13520398, 0.27886807)
 	p = horner5(t, p, -0.18628806, 0.09678418, 0.37409196, 1.00002368)
 	p = float64(p*t) + -1.26551223
-	v := t * pexp(float64(-z*z)+p)
+	return t, float64(-z*z) + p
+}
+
+// perfcFrom returns perfc(x) from perfcArg's t and the exponential e of its
+// argument.
+func perfcFrom(x, t, e float64) float64 {
+	v := t * e
 	if x < 0 {
 		return 2 - v
 	}
@@ -121,7 +157,7 @@ func chi2Survival(nu int, x float64) float64 {
 			term = float64(term*x) / float64(2*i)
 			sum += term
 		}
-		return min(1, float64(pexp(-0.5*x)*sum))
+		return portable.Min(1, float64(pexp(-0.5*x)*sum))
 	}
 	s := sqrt(x)
 	q := 2 * (1 - normCDF(s))
@@ -136,5 +172,5 @@ func chi2Survival(nu int, x float64) float64 {
 		sum += term
 	}
 	phi := 0.3989422804014327 * pexp(-0.5*x)
-	return min(1, q+float64(2*phi*sum))
+	return portable.Min(1, q+float64(2*phi*sum))
 }

@@ -139,9 +139,17 @@ func (s *sampler) latent(u float64) (eta, x float64) {
 // fromLatent returns the log-ratio of the latent eta.
 func (s *sampler) fromLatent(eta float64) float64 {
 	if s.dist == LogUniform {
-		return s.a + float64(normCDF(eta)*s.b)
+		return s.fromUniform(eta)
 	}
-	return s.a + float64(s.b*eta)
+	return s.a + float64(s.b*eta) // small enough to be inlined, for the log-normal priors
+}
+
+// fromUniform is fromLatent for a log-uniform prior (not inlined, so that
+// fromLatent is).
+//
+//go:noinline
+func (s *sampler) fromUniform(eta float64) float64 {
+	return s.a + float64(normCDF(eta)*s.b)
 }
 
 // draw maps a uniform u in (0, 1) to a prior draw.

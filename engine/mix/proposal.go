@@ -42,6 +42,11 @@ type component struct {
 	mu      []float64
 	l       []float64 // lower triangle of L, row-major d×d
 	halfDet float64   // ½ log det Σ = sum log L_ii
+
+	// μ and L again, zero-padded to smallDim, when d <= smallDim: the
+	// unrolled kernels (proposal_small.go) read these.
+	mu8 [smallDim]float64
+	l8  [smallDim][smallDim]float64
 }
 
 // proposal is the Gaussian mixture of a refinement stage.
@@ -51,6 +56,7 @@ type proposal struct {
 	cum  []float64 // cumulative π, for choosing a component
 	lpi  []float64 // log π
 	lc   []float64 // ell's working space, one per component
+	lx   []float64 // ell's, for d <= smallDim
 }
 
 // draws is what fitProposal reads of the draws so far.
@@ -76,13 +82,16 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 		return priorProposal(d)
 	}
 	shrink(d, pooled, ess, nil)
-	// Faces with a fair share of the weight.
-	share := map[int]float64{}
+	// Faces with a fair share of the weight (a face is a mask of the
+	// end-members taking part).
+	var share [1 << MaxEndMembers]float64
+	var seen [1 << MaxEndMembers]bool
 	var faces []int
 	for k := range ds.n {
 		if w[k] > 0 {
 			f := ds.faceOf(k)
-			if _, seen := share[f]; !seen {
+			if !seen[f] {
+				seen[f] = true
 				faces = append(faces, f)
 			}
 			share[f] += w[k] / tw
@@ -112,6 +121,13 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 	if len(p.comp) == 0 {
 		p.add(1, pooled)
 	}
+	p.normalise()
+	return p
+}
+
+// normalise scales the components' weights π to a sum of 1 and sets their
+// running sums and logs.
+func (p *proposal) normalise() {
 	tot := 0.0
 	for _, c := range p.comp {
 		tot += c.pi
@@ -123,7 +139,6 @@ func fitProposal(d int, ds *draws, w []float64, ess float64) proposal {
 		p.cum = append(p.cum, acc)
 		p.lpi = append(p.lpi, plog(p.comp[i].pi))
 	}
-	return p
 }
 
 // gaussian is a mean and a covariance (lower triangle, row-major).
@@ -135,6 +150,10 @@ type gaussian struct {
 // total weight, and false when they carry none.
 func moments(d int, ds *draws, w []float64, in []bool) (gaussian, float64, bool) {
 	g := gaussian{mu: make([]float64, d), cov: make([]float64, d*d)}
+	if d <= smallDim && ds.stride >= smallDim {
+		tw, ok := momentsSmall(d, ds, w, in, g)
+		return g, tw, ok
+	}
 	tw := 0.0
 	for k := range ds.n {
 		if !in[k] {
@@ -195,6 +214,7 @@ func (p *proposal) add(pi float64, g gaussian) {
 	c := component{pi: pi, mu: g.mu, l: make([]float64, d*d)}
 	for jit := 0.0; jit < 1e3; jit = max(1e-9, 10*jit) {
 		if c.cholesky(d, g.cov, jit) {
+			c.pad(d)
 			p.comp = append(p.comp, c)
 			return
 		}
@@ -208,6 +228,7 @@ func priorProposal(d int) proposal {
 	for i := range d {
 		c.l[i*d+i] = 1
 	}
+	c.pad(d)
 	return proposal{d: d, comp: []component{c}, cum: []float64{1}, lpi: []float64{0}}
 }
 
@@ -249,6 +270,17 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 	}
 	c := &p.comp[ci]
 	d := p.d
+	if d <= smallDim {
+		if d > 0 && cap(z) >= smallDim && cap(eta) >= smallDim {
+			c.affine(d, (*[smallDim]float64)(z[:smallDim]), (*[smallDim]float64)(eta[:smallDim]))
+			return
+		}
+		var zs, ys [smallDim]float64
+		copy(zs[:], z[:d])
+		c.affine(d, &zs, &ys)
+		copy(eta[:d], ys[:d])
+		return
+	}
 	for i := range d {
 		v := c.mu[i]
 		for k := 0; k <= i; k++ {
@@ -258,9 +290,8 @@ func (p *proposal) draw(u float64, z, eta []float64) {
 	}
 }
 
-// ell returns log of the mixture density at eta over the prior density
-// N(eta; 0, I). u is working space of length d.
-func (p *proposal) ell(eta, u []float64) float64 {
+// ellLoop is ell for any d, by loops.
+func (p *proposal) ellLoop(eta, u []float64) float64 {
 	d := p.d
 	eta, u = eta[:d], u[:d]
 	e := 0.0

@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+
+	"lixiv/engine/internal/portable"
 )
 
 // sampleStream and errorStream are the second PCG words of a sample's own
@@ -31,6 +33,8 @@ type sampleWork struct {
 	st       *setup
 	rng      *rand.Rand // end-member ratios, faces and amounts
 	zrng     *rand.Rand // errors of the data
+	src      *stream    // rng's source, for pcgUniform and normals
+	zsrc     *stream    // zrng's
 	d, k     int        // latent dimensions and end-members taking part
 	stride   int        // floats per draw record
 	props    []proposal
@@ -44,7 +48,13 @@ type sampleWork struct {
 	finished bool
 
 	theta [NTracers][MaxEndMembers]float64
-	fits  [1 << MaxEndMembers]faceFit // slabDraw's working space
+	srcOf [MaxEndMembers]Source // the source of each end-member taking part
+
+	prepared bool                        // prepare has run
+	lanes    bool                        // linearAt may use zg (lanes.go)
+	z0, zl   [nLanes]float64             // the lanes' values at z = 0 and at the draw's errors
+	fits     [1 << MaxEndMembers]faceFit // slabDraw's working space
+	slab     slabScratch
 
 	workBufs
 }
@@ -61,9 +71,15 @@ type workBufs struct {
 	lq      []float64   // log mixture density over the prior density, per draw
 
 	z, eta, u []float64
+	ex        []float64 // drawOne's
+	fixed     []ratioAt // the constant ratios a draw reads, in drawOne's order
+	drawn     []ratioAt // those drawn from their priors alone (not the likelihood's)
+	dx        []float64 // drawOne's working space for them
+	zg        []float64 // the gradients of the lanes (lanes.go), error source by source
 
 	ellFree      [][]float64 // ell rows of earlier samples, for reuse
 	wt, lw, lc   []float64   // endStage's, mixture's and finish's working space
+	msum, mterm  []float64   // mixture's
 	kw, col, shr []float64
 	keep         []int
 	splits       []Split
@@ -101,17 +117,23 @@ func (w *sampleWork) frac(k, jj int) float64 {
 
 func (w *sampleWork) split(k int) (sp Split) {
 	o := k*w.stride + w.d + oFrac + w.k
-	for src := range NSources {
-		copy(sp[src][:], w.rec[o+int(src)*NCations:o+int(src+1)*NCations])
-	}
+	rec := w.rec[o : o+int(NSources)*NCations]
+	// Source by source, as array assignments rather than copy calls.
+	sp[0] = *(*[NCations]float64)(rec[0*NCations:])
+	sp[1] = *(*[NCations]float64)(rec[1*NCations:])
+	sp[2] = *(*[NCations]float64)(rec[2*NCations:])
+	sp[3] = *(*[NCations]float64)(rec[3*NCations:])
 	return sp
 }
 
 func (w *sampleWork) setSplit(k int, sp *Split) {
 	o := k*w.stride + w.d + oFrac + w.k
-	for src := range NSources {
-		copy(w.rec[o+int(src)*NCations:o+int(src+1)*NCations], sp[src][:])
-	}
+	rec := w.rec[o : o+int(NSources)*NCations]
+	// Source by source, as array assignments rather than copy calls.
+	*(*[NCations]float64)(rec[0*NCations:]) = sp[0]
+	*(*[NCations]float64)(rec[1*NCations:]) = sp[1]
+	*(*[NCations]float64)(rec[2*NCations:]) = sp[2]
+	*(*[NCations]float64)(rec[3*NCations:]) = sp[3]
 }
 
 func (w *sampleWork) so4(k int) float64 {
@@ -139,11 +161,13 @@ func (r *Run) begin(s int) *sampleWork {
 		w.finished = true
 		return w
 	}
-	w.rng = rand.New(rand.NewPCG(r.opt.Seed^sampleStream, uint64(s)))
+	w.src = newStream(r.opt.Seed^sampleStream, uint64(s))
+	w.rng = rand.New(w.src)
 	// The data perturbations come from a stream of their own, so that an
 	// error source of no effect (a spread of 0 against one too small to
 	// move a value) leaves the other draws unchanged.
-	w.zrng = rand.New(rand.NewPCG(r.opt.Seed^errorStream, uint64(s)))
+	w.zsrc = newStream(r.opt.Seed^errorStream, uint64(s))
+	w.zrng = rand.New(w.zsrc)
 	w.stride = w.d + oFrac + w.k + int(NSources)*NCations + 1 + st.r
 	w.size = min(r.opt.Draws, r.opt.MaxDraws)
 	w.planned = w.size
@@ -151,8 +175,10 @@ func (r *Run) begin(s int) *sampleWork {
 	w.rec = slices.Grow(w.rec[:0], w.size*w.stride)
 	w.stageOf = w.stageOf[:0]
 	w.z = zeroed(w.z, st.q)
-	w.eta = zeroed(w.eta, w.d)
-	w.u = zeroed(w.u, w.d)
+	w.eta = zeroed(w.eta, max(w.d, smallDim))[:w.d]
+	w.u = zeroed(w.u, max(w.d, smallDim))[:w.d] // room for ell to read smallDim lanes
+	w.ex = zeroed(w.ex, w.d)
+	w.prepare(r)
 	return w
 }
 
@@ -197,6 +223,39 @@ func zeroed(buf []float64, n int) []float64 {
 
 // sized returns buf resized to n; its elements are left as they were.
 func sized[T any](buf []T, n int) []T { return slices.Grow(buf[:0], n)[:n] }
+
+// ratioAt names the ratio of tracer t and end-member j.
+type ratioAt struct {
+	t Tracer
+	j int
+}
+
+// prepare sets what drawOne and eval read of the sample besides its setup:
+// the ratios a draw fixes or draws from their priors alone, the lanes
+// (lanes.go) and the end-members' sources. begin calls it; eval calls it
+// for sample work made otherwise (the catchment-wide model's summaries).
+func (w *sampleWork) prepare(r *Run) {
+	w.fixed, w.drawn = w.fixed[:0], w.drawn[:0]
+	for t := range NTracers {
+		if !r.need[t] {
+			continue
+		}
+		for _, j := range w.st.act {
+			switch {
+			case r.smp[t][j].constant:
+				w.fixed = append(w.fixed, ratioAt{t, j})
+			case !r.lik[t]:
+				w.drawn = append(w.drawn, ratioAt{t, j})
+			}
+		}
+	}
+	w.dx = sized(w.dx, 2*len(w.drawn))
+	w.setLanes()
+	for jj, j := range w.st.act {
+		w.srcOf[jj] = r.prob.EndMembers[j].Source
+	}
+	w.prepared = true
+}
 
 // advance takes up to budget more draws of the sample, ending stages and
 // starting new ones as it goes, and returns the draws taken.
@@ -243,54 +302,64 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 			w.eta[a] = r.eta[i*len(r.dims)+k]
 		}
 	} else {
-		prior := uniform(w.rng) < defensive
-		uc := uniform(w.rng)
-		for a := range w.eta {
-			w.u[a] = normQuantile(uniform(w.rng))
-		}
+		var pu [2]float64
+		uniforms(pu[:], w.src)
+		prior, uc := pu[0] < defensive, pu[1]
+		normals(w.u[:len(w.eta)], w.src)
 		if prior {
 			copy(w.eta, w.u)
 		} else {
 			w.props[s-1].draw(uc, w.u, w.eta)
 		}
+		x := w.ex[:len(st.dims)]
 		for a, k := range st.dims {
 			d := r.dims[k]
-			w.theta[d.t][d.em] = pexp(r.smp[d.t][d.em].fromLatent(w.eta[a]))
+			x[a] = r.smp[d.t][d.em].fromLatent(w.eta[a])
 		}
-		for t := range NTracers {
-			if !r.need[t] {
-				continue
-			}
-			for _, j := range st.act {
-				sm := &r.smp[t][j]
-				switch {
-				case sm.constant:
-					w.theta[t][j] = sm.v
-				case !r.lik[t]:
-					w.theta[t][j] = sm.draw(uniform(w.rng))
+		portable.ExpAll(x) // the ratios' exponentials in one call
+		for a, k := range st.dims {
+			d := r.dims[k]
+			w.theta[d.t][d.em] = x[a]
+		}
+		// The ratios the likelihood does not read, from their priors
+		// (sampler.draw, the uniforms in the same order, the logs'
+		// quantiles and exponentials in batches), and the constant ones.
+		for _, f := range w.fixed {
+			w.theta[f.t][f.j] = r.smp[f.t][f.j].v
+		}
+		if nd := len(w.drawn); nd > 0 {
+			u, zq := w.dx[:nd], w.dx[nd:2*nd]
+			uniforms(u, w.src)
+			copy(zq, u)
+			quantiles(zq)
+			for i, f := range w.drawn {
+				sm := &r.smp[f.t][f.j]
+				if sm.dist == LogUniform {
+					u[i] = sm.a + float64(u[i]*sm.b)
+				} else {
+					u[i] = sm.a + float64(sm.b*zq[i])
 				}
 			}
+			portable.ExpAll(u)
+			for i, f := range w.drawn {
+				w.theta[f.t][f.j] = u[i]
+			}
 		}
 	}
-	for i := range w.z {
-		w.z[i] = normQuantile(uniform(w.zrng))
-	}
+	normals(w.z, w.zsrc)
 	k := len(w.stageOf)
 	w.stageOf = append(w.stageOf, int8(min(s, 127)))
 	if len(w.rec)+w.stride > cap(w.rec) {
 		w.rec = slices.Grow(w.rec, max(w.stride, len(w.rec)))
 	}
-	w.rec = w.rec[:len(w.rec)+w.stride]
-	clear(w.rec[len(w.rec)-w.stride:])
+	w.rec = w.rec[:len(w.rec)+w.stride] // every field is written below: the latents here, the rest by eval
 	copy(w.latents(k), w.eta)
 	for si := range w.props {
 		w.ell[si] = append(w.ell[si], w.props[si].ell(w.eta, w.u))
 	}
 	r.eval(w, k)
 	if s > 0 {
-		e := w.ell[s-1][k]
-		big := fmax(plog(defensive), plog(1-defensive)+e)
-		lw := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
+		lw := ownWeight(w.at(k, oLogL), w.ell[s-1][k])
 		if o := &w.own; !math.IsInf(lw, -1) {
 			if o[1] == 0 {
 				o[0] = lw
@@ -305,11 +374,27 @@ func (r *Run) drawOne(w *sampleWork, s int) {
 	}
 }
 
+// logDefensive and logFitted are the logs of a refinement stage's shares
+// of prior and fitted draws.
+var logDefensive, logFitted = plog(defensive), plog(1 - defensive)
+
+// ownWeight returns the log weight of a draw of log likelihood logL against
+// its own stage's proposal alone, e its ell there.
+func ownWeight(logL, e float64) float64 {
+	big := fmax(logDefensive, logFitted+e)
+	x := [2]float64{logDefensive - big, logFitted + e - big}
+	portable.ExpAll(x[:]) // both in one call
+	return logL - (big + plog(x[0]+x[1]))
+}
+
 // eval solves draw k: the whitened design Ã = L⁻¹A of the draw's ratios,
 // the normal equations, the exact non-negative least squares for the data
 // (its χ² is the draw's likelihood) and for the data perturbed by the
 // draw's errors (its solution is the draw's split), and the amounts.
 func (r *Run) eval(w *sampleWork, k int) {
+	if !w.prepared {
+		w.prepare(r)
+	}
 	st := w.st
 	R, K := st.r, st.k
 	th := &w.theta
@@ -320,29 +405,15 @@ func (r *Run) eval(w *sampleWork, k int) {
 	whiten(R, K, &st.linv, &A, &At)
 	gram(R, K, &At, &st.yt, &H, &b0)
 	// Perturbation of the whitened data: ε̃ = L⁻¹ G z.
-	var eps [maxRows]float64
-	q := st.q
-	for i := 0; i < R; i++ {
-		s := 0.0
-		mi := st.m[i*q : (i+1)*q]
-		for c, zc := range w.z {
-			s += float64(mi[c] * zc)
-		}
-		eps[i] = s
-	}
-	for i := 0; i < K; i++ {
-		s1 := 0.0
-		for p := 0; p < R; p++ {
-			s1 += float64(At[p][i] * eps[p])
-		}
-		b1[i] = b0[i] + s1
-	}
+	w.linearAt()
+	eps := (*[maxRows]float64)(w.zl[laneEps : laneEps+maxRows])
+	perturbed(K, &At, eps, &b0, &b1)
 	var dd, logL float64
 	if r.opt.perturb {
 		nnls(K, &H, &b0, &n0)
 		nnls(K, &H, &b1, &n1)
-		chi2 := fmax(0, st.yy-2*dot(K, &b0, &n0)+quad(K, &H, &n0))
-		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		chi2 := pos(residual(K, st.yy, &b0, &H, &n0))
+		dd = pos(residual(K, st.yy, &b0, &H, &n1))
 		logL = -0.5 * chi2
 		if !r.opt.noVolume && R >= K {
 			hd, ok := logDetChol(K, &H)
@@ -360,7 +431,7 @@ func (r *Run) eval(w *sampleWork, k int) {
 		if logL != logL {
 			logL = math.Inf(-1)
 		}
-		dd = fmax(0, st.yy-2*dot(K, &b0, &n1)+quad(K, &H, &n1))
+		dd = pos(residual(K, st.yy, &b0, &H, &n1))
 		n0 = n1
 	}
 	o := k*w.stride + w.d
@@ -372,19 +443,15 @@ func (r *Run) eval(w *sampleWork, k int) {
 		}
 	}
 	rec[o+oLogL], rec[o+oFace], rec[o+oD] = logL, float64(face), dd
-	copy(w.amounts(k), n1[:K])
-	pr := w.pred(k)
-	for i := 0; i < R; i++ {
-		s := 0.0
-		for jj := 0; jj < K; jj++ {
-			s += float64(A[i][jj] * n0[jj])
-		}
-		pr[i] = s
+	am := w.amounts(k)
+	for jj := range am { // rather than a copy call
+		am[jj] = n1[jj]
 	}
+	predicted(w.pred(k), &A, &n0)
 	var sp Split
 	r.splitOf(w, &n1, &sp)
 	w.setSplit(k, &sp)
-	w.rec[o+oFrac+K+int(NSources)*NCations] = fmax(0, st.so4.At(w.z))
+	w.rec[o+oFrac+K+int(NSources)*NCations] = pos(w.zl[laneSO4])
 }
 
 // design fills A with the design of st's rows for the ratios th: 1 in the
@@ -438,25 +505,24 @@ func (r *Run) splitOf(w *sampleWork, n *vec6, sp *Split) {
 	st := w.st
 	var m Split
 	for jj, j := range st.act {
-		src := r.prob.EndMembers[j].Source
+		src := w.srcOf[jj]
 		m[src][0] += n[jj]
 		m[src][1] += float64(w.theta[KNa][j] * n[jj])
 		m[src][2] += float64(w.theta[CaNa][j] * n[jj])
 		m[src][3] += float64(w.theta[MgNa][j] * n[jj])
 	}
 	for c := range NCations {
-		atm, evap := fmax(0, st.atm[c].At(w.z)), fmax(0, st.evap[c].At(w.z))
+		atm, evap := pos(w.zl[laneAtm+c]), pos(w.zl[laneEvap+c])
 		tot := m[0][c] + m[1][c] + m[2][c] + m[3][c]
-		x := fmax(0, st.in[c]-atm-evap)
-		for src := range NSources {
-			v := m[src][c]
-			if st.has[c] {
-				v = 0
-				if tot > 0 {
-					v = m[src][c] / tot * x
-				}
-			}
-			sp[src][c] = v
+		x := pos(st.in[c] - atm - evap)
+		// The four sources written out (NSources is 4).
+		switch {
+		case !st.has[c]:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = m[0][c], m[1][c], m[2][c], m[3][c]
+		case tot > 0:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = m[0][c]/tot*x, m[1][c]/tot*x, m[2][c]/tot*x, m[3][c]/tot*x
+		default:
+			sp[0][c], sp[1][c], sp[2][c], sp[3][c] = 0, 0, 0, 0
 		}
 		sp[Atmosphere][c] += atm
 		sp[Evaporite][c] += evap
@@ -507,39 +573,116 @@ func (w *sampleWork) mixture() {
 	for s := range w.props {
 		lc[s] = plog((1 - defensive) * float64(w.nStage[s+1]) / nTot)
 	}
-	w.lq = slices.Grow(w.lq[:0], w.n)[:w.n]
-	for k := 0; k < w.n; k++ {
-		big := lc0
-		for s := range w.props {
-			big = fmax(big, lc[s]+w.ell[s][k])
+	// Stage by stage over all draws rather than draw by draw, so that the
+	// exponentials go in batches (portable.ExpAll); each draw's largest
+	// term and sum are formed in the same order as draw by draw.
+	n, S := w.n, len(w.props)
+	w.lq = sized(w.lq, n)
+	big := w.lq // the largest term of each draw, until the end
+	w.msum, w.mterm = sized(w.msum, n), sized(w.mterm, n)
+	sum, term := w.msum, w.mterm
+	if S == 0 {
+		for k := range big {
+			big[k], sum[k] = lc0, lc0-lc0
 		}
-		sum := pexp(lc0 - big)
-		for s := range w.props {
-			sum += pexp(lc[s] + w.ell[s][k] - big)
+		portable.ExpAll(sum)
+	} else {
+		e := w.ell[0][:n]
+		for k, v := range e {
+			big[k] = fmax(lc0, lc[0]+v)
 		}
-		w.lq[k] = big + plog(sum)
+		for s := 1; s < S; s++ {
+			e, ls := w.ell[s][:n], lc[s]
+			k := 0
+			for ; k+4 <= n; k += 4 { // four draws a turn (see tempered)
+				b, v := (*[4]float64)(big[k:]), (*[4]float64)(e[k:])
+				b[0], b[1], b[2], b[3] = fmax(b[0], ls+v[0]), fmax(b[1], ls+v[1]), fmax(b[2], ls+v[2]), fmax(b[3], ls+v[3])
+			}
+			for ; k < n; k++ {
+				big[k] = fmax(big[k], ls+e[k])
+			}
+		}
+		// The prior's term and the first stage's, then each stage's
+		// added as the next one's argument takes its place.
+		e = w.ell[0][:n]
+		for k, b := range big {
+			sum[k], term[k] = lc0-b, lc[0]+e[k]-b
+		}
+		portable.ExpAll(sum)
+		portable.ExpAll(term)
+		for s := 1; s < S; s++ {
+			e, ls := w.ell[s][:n], lc[s]
+			k := 0
+			for ; k+4 <= n; k += 4 {
+				b, v := (*[4]float64)(big[k:]), (*[4]float64)(e[k:])
+				u, t := (*[4]float64)(sum[k:]), (*[4]float64)(term[k:])
+				u[0], u[1], u[2], u[3] = u[0]+t[0], u[1]+t[1], u[2]+t[2], u[3]+t[3]
+				t[0], t[1], t[2], t[3] = ls+v[0]-b[0], ls+v[1]-b[1], ls+v[2]-b[2], ls+v[3]-b[3]
+			}
+			for ; k < n; k++ {
+				sum[k] += term[k]
+				term[k] = ls + e[k] - big[k]
+			}
+			portable.ExpAll(term)
+		}
+		for k, v := range term {
+			sum[k] += v
+		}
+	}
+	portable.LogAll(sum)
+	for k, v := range sum {
+		big[k] += v
 	}
 }
 
 // tempered fills wt with the weights of the likelihood raised to the power
 // beta (after mixture), scaled to a largest weight of 1, and returns their
 // effective sample size.
+//
+// The bisection of endStage calls it a dozen times over all the draws, so
+// its loops take four draws a turn (fewer turns through WebAssembly's
+// dispatch), each draw's arithmetic and the running largest value and sums
+// in draw order as one draw a turn.
 func (w *sampleWork) tempered(wt []float64, beta float64) float64 {
+	n := w.n
+	wt, lq := wt[:n], w.lq[:n]
+	rec, stride, off := w.rec, w.stride, w.d+oLogL
 	top := math.Inf(-1)
-	for k := 0; k < w.n; k++ {
-		wt[k] = beta*w.at(k, oLogL) - w.lq[k]
+	k := 0
+	for ; k+4 <= n; k += 4 {
+		x, q := (*[4]float64)(wt[k:]), (*[4]float64)(lq[k:])
+		o := k*stride + off
+		x[0] = beta*rec[o] - q[0]
+		x[1] = beta*rec[o+stride] - q[1]
+		x[2] = beta*rec[o+2*stride] - q[2]
+		x[3] = beta*rec[o+3*stride] - q[3]
+		top = fmax(fmax(fmax(fmax(top, x[0]), x[1]), x[2]), x[3])
+	}
+	for ; k < n; k++ {
+		wt[k] = beta*rec[k*stride+off] - lq[k]
 		top = fmax(top, wt[k])
 	}
 	if math.IsInf(top, -1) || top != top {
-		clear(wt[:w.n]) // no draw has a finite weight
+		clear(wt) // no draw has a finite weight
 		return 0
 	}
+	for k = 0; k+4 <= n; k += 4 {
+		x := (*[4]float64)(wt[k:])
+		x[0], x[1], x[2], x[3] = x[0]-top, x[1]-top, x[2]-top, x[3]-top
+	}
+	for ; k < n; k++ {
+		wt[k] -= top
+	}
+	portable.ExpAll(wt) // the exponentials in one call (see mixture)
 	sw, sw2 := 0.0, 0.0
-	for k := 0; k < w.n; k++ {
-		v := pexp(wt[k] - top)
-		wt[k] = v
-		sw += v
-		sw2 += v * v
+	for k = 0; k+4 <= n; k += 4 {
+		x := (*[4]float64)(wt[k:])
+		sw = sw + x[0] + x[1] + x[2] + x[3]
+		sw2 = sw2 + x[0]*x[0] + x[1]*x[1] + x[2]*x[2] + x[3]*x[3]
+	}
+	for ; k < n; k++ {
+		sw += wt[k]
+		sw2 += wt[k] * wt[k]
 	}
 	if sw2 == 0 {
 		return 0
@@ -565,15 +708,16 @@ func (w *sampleWork) endStage(r *Run) {
 			if int(w.stageOf[k]) != min(last, 127) {
 				continue
 			}
-			e := w.ell[last-1][k]
-			big := fmax(plog(defensive), plog(1-defensive)+e)
-			v := w.at(k, oLogL) - (big + plog(pexp(plog(defensive)-big)+pexp(plog(1-defensive)+e-big)))
+			v := ownWeight(w.at(k, oLogL), w.ell[last-1][k])
 			lw = append(lw, v)
 			top = fmax(top, v)
 		}
 		w.lw = lw
-		for _, v := range lw {
-			x := pexp(v - top)
+		for i := range lw {
+			lw[i] -= top
+		}
+		portable.ExpAll(lw) // in one call
+		for _, x := range lw {
 			sw += x
 			sw2 += x * x
 		}

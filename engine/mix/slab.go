@@ -1,6 +1,10 @@
 package mix
 
-import "math"
+import (
+	"math"
+
+	"lixiv/engine/internal/portable"
+)
 
 // The amounts n_j (µmol/L of Na from end-member j) have a spike-and-slab
 // prior: each end-member is present or absent with probability ½, on its
@@ -45,6 +49,22 @@ func logSlab(m int, t float64) float64 {
 
 const log2Pi = 1.8378770664093453
 
+// faceMembers[mask] lists the end-members of the face mask in order (the
+// first faceCount[mask] entries).
+var faceMembers, faceCount = faceTables()
+
+func faceTables() (members [1 << MaxEndMembers][MaxEndMembers]int, size [1 << MaxEndMembers]int) {
+	for mask := range members {
+		for j := range MaxEndMembers {
+			if mask&(1<<j) != 0 {
+				members[mask][size[mask]] = j
+				size[mask]++
+			}
+		}
+	}
+	return members, size
+}
+
 // faceFit is the least-squares problem of one face: the Cholesky factor of
 // the (lightly regularised) normal matrix, the solution and the Laplace
 // estimate of the face's evidence.
@@ -56,6 +76,20 @@ type faceFit struct {
 	logZ float64
 	hd   float64 // ln det L, the sum of ln L_ii in order
 	p    float64 // exp(logZ − largest logZ): the face's unnormalised chance
+
+	ok           bool    // the face's problem was solved
+	t, chi2, jac float64 // its Laplace estimate's sums (solve)
+	off          int     // where its members' terms begin in slabScratch
+}
+
+// slabScratch holds slabDraw's batches of logs and exponentials: per member
+// of each face solved, its factor's diagonal and the parts of its normal
+// distribution function (perfcArg); per face solved, its total.
+type slabScratch struct {
+	diag, x, t, e [MaxEndMembers << (MaxEndMembers - 1)]float64
+	te            [1 << MaxEndMembers]float64
+	logs          [2*MaxEndMembers<<(MaxEndMembers-1) + 1<<MaxEndMembers]float64
+	p             [1 << MaxEndMembers]float64
 }
 
 // slabDraw samples the face and the amounts for the draw whose whitened
@@ -68,97 +102,99 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	// The regularisation λ I, a Gaussian of sd 10 T_ref on each amount,
 	// keeps faces with more members than data solvable; it shapes the
 	// proposal only (the weight is exact).
-	tref := max(st.y[0], 1)
+	tref := st.y[0] // max(st.y[0], 1), without the runtime call WebAssembly makes of max
+	if tref < 1 {
+		tref = 1
+	}
 	lambda := 1 / (100 * tref * tref)
 	logPrior := -float64(K) * math.Ln2
 	fits := &w.fits // working space: each entry is written before it is read (m is reset below)
 	nf := 1 << K
+	sc := &w.slab
 	var logc [MaxEndMembers]float64
-	for j := 0; j < K; j++ {
-		logc[j] = plog(c[j])
-	}
+	copy(logc[:K], c[:K])
+	portable.LogAll(logc[:K])
 	top := logPrior - 0.5*yy // the empty face: n = 0
 	fits[0].logZ = top
+	// Each face's least-squares problem, and the arguments of the logs
+	// and exponentials of its Laplace estimate: gathered over all faces
+	// and taken in two calls (portable.ExpAll, LogAll), which WebAssembly
+	// makes far faster than one call each. The estimate is then summed in
+	// the order of the face-by-face loop it replaces (slab_small_test.go).
+	nm, nok := 0, 0 // members of the faces solved, and those faces
 	for mask := 1; mask < nf; mask++ {
 		f := &fits[mask]
 		f.logZ = math.Inf(-1)
-		f.m = 0
-		for j := 0; j < K; j++ {
-			if mask&(1<<j) != 0 {
-				f.idx[f.m] = j
-				f.m++
-			}
-		}
+		f.idx, f.m = faceMembers[mask], faceCount[mask]
 		m := f.m
-		ok := true
-		halfDet := 0.0
-		for c := 0; c < m && ok; c++ {
-			d := H[f.idx[c]][f.idx[c]] + lambda
-			for p := 0; p < c; p++ {
-				d -= f.l[c][p] * f.l[c][p]
-			}
-			if !(d > 0) {
-				ok = false
-				break
-			}
-			d = sqrt(d)
-			f.l[c][c] = d
-			halfDet += plog(d)
-			for i := c + 1; i < m; i++ {
-				s := H[f.idx[i]][f.idx[c]]
-				for p := 0; p < c; p++ {
-					s -= f.l[i][p] * f.l[c][p]
-				}
-				f.l[i][c] = s / d
-			}
+		switch m {
+		case 1:
+			f.t, f.chi2, f.jac, f.ok = f.solve1(H, b, c, &logc, yy, lambda)
+		case 2:
+			f.t, f.chi2, f.jac, f.ok = f.solve2(H, b, c, &logc, yy, lambda)
+		case 3:
+			f.t, f.chi2, f.jac, f.ok = f.solve3(H, b, c, &logc, yy, lambda)
+		case 4:
+			f.t, f.chi2, f.jac, f.ok = f.solve4(H, b, c, &logc, yy, lambda)
+		case 5:
+			f.t, f.chi2, f.jac, f.ok = f.solve5(H, b, c, &logc, yy, lambda)
+		default:
+			f.t, f.chi2, f.jac, f.ok = f.solve6(H, b, c, &logc, yy, lambda)
 		}
-		if !ok {
+		if !f.ok {
 			continue
 		}
-		f.hd = halfDet
-		// μ = (H_F + λI)⁻¹ b_F, and the diagonal of the inverse.
-		var y [MaxEndMembers]float64
+		f.off = nm
+		vt := 0.0
 		for i := 0; i < m; i++ {
-			s := b[f.idx[i]]
-			for p := 0; p < i; p++ {
-				s -= f.l[i][p] * y[p]
-			}
-			y[i] = s / f.l[i][i]
-		}
-		for i := m - 1; i >= 0; i-- {
-			s := y[i]
-			for p := i + 1; p < m; p++ {
-				s -= f.l[p][i] * f.mu[p]
-			}
-			f.mu[i] = s / f.l[i][i]
-		}
-		// Laplace estimate: prior at the (non-negative part of the)
-		// solution, likelihood at it, the Gaussian volume, and the
-		// chance that a proposal is non-negative (each amount on its
-		// own, from the marginal sd).
-		t, chi2, jac, vt := 0.0, yy, 0.0, 0.0
-		for i := 0; i < m; i++ {
-			ci := c[f.idx[i]]
-			t += ci * fmax(f.mu[i], 0)
-			jac += logc[f.idx[i]]
-			chi2 -= 2 * b[f.idx[i]] * f.mu[i]
-			for p := 0; p < m; p++ {
-				chi2 += f.mu[i] * H[f.idx[i]][f.idx[p]] * f.mu[p]
-			}
-		}
-		var sd [MaxEndMembers]float64
-		for i := 0; i < m; i++ {
+			g := nm + i
 			v := invDiag(m, &f.l, i)
-			sd[i] = sqrt(v)
+			sd := sqrt(v)
 			vt += c[f.idx[i]] * c[f.idx[i]] * v
+			sc.diag[g] = f.l[i][i]
+			// normCDF(μ_i/sd_i) = perfc(x)/2: its exponential's argument.
+			x := -(f.mu[i] / sd) * 0.7071067811865476
+			sc.x[g] = x
+			sc.t[g], sc.e[g] = perfcArg(x)
 		}
+		nm += m
 		// The prior at a total that is no smaller than its own spread
 		// (the log-uniform density is steep near zero; a point value
 		// there would overstate the face).
-		te := sqrt(t*t + vt)
-		lz := logPrior + logSlab(m, fmax(te, slabLo)) + jac - 0.5*fmax(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
-		for i := 0; i < m; i++ {
-			lz += plog(fmax(normCDF(f.mu[i]/sd[i]), 1e-300))
+		sc.te[nok] = atLeast(sqrt(f.t*f.t+vt), slabLo)
+		nok++
+	}
+	portable.ExpAll(sc.e[:nm])
+	// The logs: the factors' diagonals, the normal distribution functions
+	// (at least 1e-300) and the totals, one after the other.
+	lg := sc.logs[:2*nm+nok]
+	copy(lg, sc.diag[:nm])
+	for g := range nm {
+		lg[nm+g] = atLeast(0.5*perfcFrom(sc.x[g], sc.t[g], sc.e[g]), 1e-300)
+	}
+	copy(lg[2*nm:], sc.te[:nok])
+	portable.LogAll(lg)
+	fi := 0
+	for mask := 1; mask < nf; mask++ {
+		f := &fits[mask]
+		if !f.ok {
+			continue
+		}
+		m := f.m
+		halfDet := 0.0
+		for _, v := range lg[f.off : f.off+m] {
+			halfDet += v
+		}
+		f.hd = halfDet
+		te := sc.te[fi]
+		slab := math.Inf(-1) // logSlab(m, te), its log taken above
+		if te >= slabLo && te <= slabHi {
+			slab = logFact[m] - float64(m)*lg[2*nm+fi] - logSlabNorm
+		}
+		fi++
+		lz := logPrior + slab + f.jac - 0.5*pos(f.chi2) + 0.5*float64(m)*log2Pi - halfDet
+		for _, v := range lg[nm+f.off : nm+f.off+m] {
+			lz += v
 		}
 		if lz != lz {
 			continue
@@ -167,12 +203,17 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 		top = fmax(top, lz)
 	}
 	// Choose a face in proportion to the estimates.
-	sum := 0.0
-	for mask := 0; mask < nf; mask++ {
-		fits[mask].p = pexp(fits[mask].logZ - top)
-		sum += fits[mask].p
+	ps := sc.p[:nf]
+	for mask := range ps {
+		ps[mask] = fits[mask].logZ - top
 	}
-	u := uniform(w.rng) * sum
+	portable.ExpAll(ps)
+	sum := 0.0
+	for mask, p := range ps {
+		fits[mask].p = p
+		sum += p
+	}
+	u := pcgUniform(w.src) * sum
 	pick, acc := -1, 0.0
 	for mask := 0; mask < nf; mask++ {
 		p := fits[mask].p
@@ -195,8 +236,8 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	// n_F = μ + L⁻ᵀ z.
 	var z, x [MaxEndMembers]float64
 	zz := 0.0
+	normals(z[:m], w.src)
 	for i := 0; i < m; i++ {
-		z[i] = normQuantile(uniform(w.rng))
 		zz += z[i] * z[i]
 	}
 	for i := m - 1; i >= 0; i-- {
@@ -221,7 +262,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 	if math.IsInf(lp, -1) {
 		return math.Inf(-1)
 	}
-	chi2 := fmax(0, yy-2*dot(K, b, n)+quad(K, H, n))
+	chi2 := pos(residual(K, yy, b, H, n))
 	logProp := -0.5*zz - 0.5*float64(m)*log2Pi + f.hd
 	return logPrior + lp - 0.5*chi2 - logProp - logQ
 }

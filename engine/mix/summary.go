@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"lixiv/engine/internal/portable"
 )
 
 // Thresholds of the verdict (docs/methods.md §7.7; the numbers are
@@ -111,9 +113,11 @@ func (r *Run) finish(w *sampleWork) {
 			sr.Corr[i][j] = nan
 		}
 	}
+	var corr [MaxEndMembers][MaxEndMembers]float64
+	w.corrs(keep, kw, &corr)
 	for a := range k {
 		for b := range k {
-			sr.Corr[st.act[a]][st.act[b]] = w.corr(keep, kw, a, b)
+			sr.Corr[st.act[a]][st.act[b]] = corr[a][b]
 		}
 	}
 	for a := range k {
@@ -205,30 +209,46 @@ func (r *Run) finish(w *sampleWork) {
 	}
 }
 
-// corr returns the weighted correlation of the Na contributed by the a-th
-// and b-th end-members taking part (NaN when one does not vary): near −1,
-// the data fix their sum but not the split between them.
-func (w *sampleWork) corr(keep []int, kw []float64, a, b int) float64 {
-	var sw, ma, mb float64
+// corrs sets corr[a][b] to the weighted correlation of the Na contributed
+// by the a-th and b-th end-members taking part (NaN when one does not
+// vary): near −1, the data fix their sum but not the split between them.
+// Each pair's sums are those of a pass of its own over the draws, formed
+// for all pairs in two passes.
+func (w *sampleWork) corrs(keep []int, kw []float64, corr *[MaxEndMembers][MaxEndMembers]float64) {
+	k := w.k
+	var sw float64
+	var m [MaxEndMembers]float64
 	for x, i := range keep {
 		f := w.amounts(i)
 		sw += kw[x]
-		ma += kw[x] * f[a]
-		mb += kw[x] * f[b]
+		for a := range k {
+			m[a] += kw[x] * f[a]
+		}
 	}
-	ma, mb = ma/sw, mb/sw
-	var saa, sbb, sab float64
+	for a := range k {
+		m[a] /= sw
+	}
+	var s [MaxEndMembers][MaxEndMembers]float64 // s[a][b]: the sum of kw·da·db, in that order
 	for x, i := range keep {
 		f := w.amounts(i)
-		da, db := f[a]-ma, f[b]-mb
-		saa += kw[x] * da * da
-		sbb += kw[x] * db * db
-		sab += kw[x] * da * db
+		var d [MaxEndMembers]float64
+		for a := range k {
+			d[a] = f[a] - m[a]
+		}
+		for a := range k {
+			for b := range k {
+				s[a][b] += kw[x] * d[a] * d[b]
+			}
+		}
 	}
-	if !(saa > 0 && sbb > 0) {
-		return math.NaN()
+	for a := range k {
+		for b := range k {
+			corr[a][b] = math.NaN()
+			if s[a][a] > 0 && s[b][b] > 0 {
+				corr[a][b] = s[a][b] / math.Sqrt(s[a][a]*s[b][b])
+			}
+		}
 	}
-	return sab / math.Sqrt(saa*sbb)
 }
 
 // misfit finds the datum with the largest weighted mean standardised
@@ -276,7 +296,7 @@ func (r *Run) misfit(w *sampleWork, keep []int, kw, col []float64, idx *[]wpair)
 	m.Lo, m.Hi = math.Inf(1), math.Inf(-1)
 	for i := range w.n {
 		if v := ratio(w.pred(i)); !math.IsNaN(v) {
-			m.Lo, m.Hi = min(m.Lo, v), max(m.Hi, v)
+			m.Lo, m.Hi = portable.Min(m.Lo, v), fmax(m.Hi, v) // the built-ins, without their calls in WebAssembly
 		}
 	}
 	for a, i := range keep {
