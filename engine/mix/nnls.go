@@ -124,14 +124,14 @@ func objective(k int, H *mat6, b *vec6, n *vec6) float64 {
 // face) to n. It returns false when H_FF is singular to working precision.
 func face(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 	mask &= 1<<k - 1
-	m := int(faceSize[mask])
+	m := faceCount[mask]
 	*n = vec6{}
 	if m == 0 {
 		return true
 	}
 	var G, L mat6
 	var g, y, x vec6
-	idx := &faceIdx[mask]
+	idx := &faceMembers[mask]
 	hf, bf, xf := H, b, n // the whole: H and b as they are
 	if m < k {
 		// The face's rows of H (every column, the face's in order first)
@@ -164,24 +164,6 @@ func face(k int, mask uint8, H *mat6, b *vec6, n *vec6) bool {
 		}
 	}
 	return true
-}
-
-// faceIdx[mask] lists the unknowns of the face mask in order (zeros after
-// them), and faceSize[mask] counts them.
-var (
-	faceIdx  [1 << MaxEndMembers][MaxEndMembers]uint8
-	faceSize [1 << MaxEndMembers]uint8
-)
-
-func init() {
-	for mask := range 1 << MaxEndMembers {
-		for j := range MaxEndMembers {
-			if mask&(1<<j) != 0 {
-				faceIdx[mask][faceSize[mask]] = uint8(j)
-				faceSize[mask]++
-			}
-		}
-	}
 }
 
 // logDetChol returns ½ log det H of the k×k matrix H by Cholesky, and false
