@@ -265,6 +265,48 @@ func (im *importer) cellProblem(line int, c *plan, value []byte, err error, deta
 	im.add(&Problem{Line: line, Col: c.Index + 1, Header: c.Header, Value: string(value), Err: err, Detail: detail})
 }
 
+// replay gives the records it holds (copies), then those of rest.
+type replay struct {
+	recs  []heldRecord
+	rest  records
+	quote bool // the last record given ended inside quotes
+}
+
+// heldRecord is a record read ahead: its fields, line and whether it
+// ended inside quotes.
+type heldRecord struct {
+	fs    [][]byte
+	line  int
+	quote bool
+}
+
+// hold keeps a copy of a record.
+func (r *replay) hold(fs [][]byte, line int, quote bool) {
+	c := make([][]byte, len(fs))
+	for i, f := range fs {
+		c[i] = append([]byte(nil), f...)
+	}
+	r.recs = append(r.recs, heldRecord{c, line, quote})
+}
+
+func (r *replay) next() ([][]byte, int, bool) {
+	if len(r.recs) > 0 {
+		h := r.recs[0]
+		r.recs = r.recs[1:]
+		r.quote = h.quote
+		return h.fs, h.line, true
+	}
+	r.quote = false
+	if r.rest == nil {
+		return nil, 0, false
+	}
+	fs, l, ok := r.rest.next()
+	r.quote = ok && r.rest.unclosedQuote()
+	return fs, l, ok
+}
+
+func (r *replay) unclosedQuote() bool { return r.quote }
+
 // mappedLines renames the lines of a record source (Options.Line).
 type mappedLines struct {
 	records
@@ -305,14 +347,29 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 		need = max(2, (modal+1)/2)
 	}
 	var header []string
+	// The header is the first line, not a comment, with at least need
+	// fields; when none has, the first line, not a comment, with any (a
+	// header that names fewer columns than its rows fill): the lines read
+	// after it are then held and read again as its rows.
+	var held *replay
+	preamble := len(im.t.Preamble)
 	for {
 		fs, line, ok := lr.next()
-		if !ok {
+		if !ok && held != nil {
+			held.rest = lr
+			lr, fs, line = held, held.recs[0].fs, held.recs[0].line
+			held.recs = held.recs[1:]
+			im.t.Preamble = im.t.Preamble[:preamble]
+			need = 0
+		} else if !ok {
 			im.fileProblem(ErrNotTable, "no header row was found")
 			return
 		}
 		n := trimmedLen(fs)
-		if n == 0 {
+		if n == 0 && need > 0 {
+			if held != nil {
+				held.hold(fs, line, lr.unclosedQuote())
+			}
 			continue
 		}
 		if n >= need && !commentLine(fs) {
@@ -322,6 +379,12 @@ func (im *importer) run(lr records, comma byte, sample [][][]byte, modal int) {
 				header[i] = strings.TrimSpace(string(trimSpace(f)))
 			}
 			break
+		}
+		if held == nil && !commentLine(fs) {
+			held, preamble = &replay{}, len(im.t.Preamble)
+		}
+		if held != nil {
+			held.hold(fs, line, lr.unclosedQuote())
 		}
 		im.t.Preamble = append(im.t.Preamble, string(joinFields(fs, comma)))
 	}

@@ -477,3 +477,40 @@ func TestSamplesText(t *testing.T) {
 		t.Errorf("a changed value gives the same text:\n%s", c.SamplesText())
 	}
 }
+
+// TestReadShortHeader: where no line fills half the fields the file's
+// lines usually have (here the wide lines are rows commented out), the
+// first line that is not a comment is still the header, and the lines after
+// it are its rows, the comments among them noted.
+func TestReadShortHeader(t *testing.T) {
+	tests := []struct {
+		name, text string
+		preamble   int
+		samples    []string
+	}{
+		{"wide rows commented out", "Sample,Na (mg/L)\n#A,1,,,x\n#B,2,,,y\nC,3\n", 0, []string{"C"}},
+		{"a note above", "# exported\nSample,Na (mg/L)\n#A,1,,,x\n#B,2,,,y\n\nC,3\n", 1, []string{"C"}},
+		{"tabs", "Sample\tNa (mg/L)\n#A\t1\t\t\tx\n#B\t2\t\t\ty\nC\t3\nD\t4\n", 0, []string{"C", "D"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			tb := ParseText(tc.text, "short.csv", Options{})
+			if len(tb.Preamble) != tc.preamble {
+				t.Errorf("preamble %q, want %d lines", tb.Preamble, tc.preamble)
+			}
+			var names []string
+			for _, s := range tb.Samples {
+				names = append(names, s.ID)
+			}
+			if strings.Join(names, ",") != strings.Join(tc.samples, ",") {
+				t.Errorf("samples %q, want %q (problems: %v)", names, tc.samples, tb.Problems.Err())
+			}
+			if tb.Header != 1+tc.preamble {
+				t.Errorf("header on line %d, want %d", tb.Header, 1+tc.preamble)
+			}
+			if tb.Notes.Count(ErrComment) != 2 {
+				t.Errorf("%d comment lines noted, want 2", tb.Notes.Count(ErrComment))
+			}
+		})
+	}
+}
