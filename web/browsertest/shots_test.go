@@ -105,11 +105,17 @@ func save(t *testing.T, path string, data []byte) {
 }
 
 // shotOf takes a picture of the element with the given id once it is on
-// the screen and painted: the page lays out results only near the screen
-// (content-visibility), so a picture taken as the element scrolls in would
-// show them blank.
+// the screen. The page lays out results only near the screen
+// (content-visibility on .outputs), and a picture of a cell taller than the
+// screen showed its results blank: the pictures lay them all out, as
+// printing does (the page itself was checked on the screen: it draws them
+// as they scroll in).
 func shotOf(t *testing.T, ctx context.Context, id string) ([]byte, error) {
 	t.Helper()
+	eval[bool](t, ctx, `(() => { if (!document.getElementById("shots-all-laid-out")) {
+		const s = document.createElement("style"); s.id = "shots-all-laid-out";
+		s.textContent = ".outputs { content-visibility: visible !important; }"; document.head.appendChild(s) }
+		return true })()`)
 	eval[bool](t, ctx, fmt.Sprintf(`(() => { document.getElementById(%q).scrollIntoView(); return true })()`, id))
 	time.Sleep(150 * time.Millisecond)
 	return chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+id)))
