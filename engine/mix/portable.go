@@ -57,6 +57,25 @@ const (
 	qb5  = -1.328068155288572e+01
 )
 
+// The tails of normQuantile (Acklam 2003, as below): for p < pLow, q =
+// √(−2 ln p), the quantile is qc(q) / qd(q) (and its negative in the upper
+// tail), with the coefficients of qc and qd.
+const (
+	qc1 = -7.784894002430293e-03
+	qc2 = -3.223964580411365e-01
+	qc3 = -2.400758277161838e+00
+	qc4 = -2.549732539343734e+00
+	qc5 = 4.374664141464968e+00
+	qc6 = 2.938163982698783e+00
+	qd1 = 7.784695709041462e-03
+	qd2 = 3.224671290700398e-01
+	qd3 = 2.445134137142996e+00
+	qd4 = 3.754408661907416e+00
+)
+
+// invSqrt2 is 1/√2 rounded to float64 (math.Sqrt2 / 2 exactly).
+const invSqrt2 = 0.7071067811865476
+
 // normQuantile returns the standard normal quantile of p in (0, 1), by
 // Acklam's rational approximation (relative error below 1.15e-9; P. J.
 // Acklam 2003, "An algorithm for computing the inverse normal cumulative
@@ -64,25 +83,13 @@ const (
 // checked against gonum's quantile in the tests). It uses only plog and
 // math.Sqrt, which is exactly rounded on every target.
 func normQuantile(p float64) float64 {
-	const (
-		c1 = -7.784894002430293e-03
-		c2 = -3.223964580411365e-01
-		c3 = -2.400758277161838e+00
-		c4 = -2.549732539343734e+00
-		c5 = 4.374664141464968e+00
-		c6 = 2.938163982698783e+00
-		d1 = 7.784695709041462e-03
-		d2 = 3.224671290700398e-01
-		d3 = 2.445134137142996e+00
-		d4 = 3.754408661907416e+00
-	)
 	switch {
 	case p < pLow:
 		q := math.Sqrt(-2 * plog(p))
-		return horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
+		return horner6(q, qc1, qc2, qc3, qc4, qc5, qc6) / horner5(q, qd1, qd2, qd3, qd4, 1)
 	case p > 1-pLow:
 		q := math.Sqrt(-2 * plog(1-p))
-		return -horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
+		return -horner6(q, qc1, qc2, qc3, qc4, qc5, qc6) / horner5(q, qd1, qd2, qd3, qd4, 1)
 	}
 	q := p - 0.5
 	r := q * q
@@ -139,7 +146,7 @@ func perfcFrom(x, t, e float64) float64 {
 
 // normCDF returns the standard normal distribution function (error as
 // perfc's).
-func normCDF(x float64) float64 { return 0.5 * perfc(-x*0.7071067811865476) }
+func normCDF(x float64) float64 { return 0.5 * perfc(-x*invSqrt2) }
 
 // chi2Survival returns P(X > x) for X chi-square with nu >= 1 degrees of
 // freedom, from the closed forms for whole degrees of freedom (Abramowitz &
@@ -162,7 +169,7 @@ func chi2Survival(nu int, x float64) float64 {
 	s := sqrt(x)
 	q := 2 * (1 - normCDF(s))
 	if s > 5 {
-		q = perfc(s * 0.7071067811865476) // 2 Q(s) without the cancellation
+		q = perfc(s * invSqrt2) // 2 Q(s) without the cancellation
 	}
 	term, sum := s, 0.0
 	for k := 1; k <= (nu-1)/2; k++ {

@@ -148,57 +148,27 @@ func loopTempered(w *sampleWork, wt []float64, beta float64) float64 {
 	return sw * sw / sw2
 }
 
-// loopPerfc is perfc.
+// loopPerfc is perfc with its exponential taken on its own, as before the
+// exponentials were taken in batches (perfcArg's polynomial is perfc's).
 func loopPerfc(x float64) float64 {
-	z := abs(x)
-	t := 1 / (1 + 0.5*z)
-	p := horner5(t, 0.17087277, -0.82215223, 1.48851587, -1.13520398, 0.27886807)
-	p = horner5(t, p, -0.18628806, 0.09678418, 0.37409196, 1.00002368)
-	p = float64(p*t) + -1.26551223
-	v := t * pexp(float64(-z*z)+p)
+	t, a := perfcArg(x)
+	v := t * pexp(a)
 	if x < 0 {
 		return 2 - v
 	}
 	return v
 }
 
-// loopNormQuantile is normQuantile.
+// loopNormQuantile is normQuantile, its central part as normQuantile
+// computes it (quantiles writes that part out; its coefficients are
+// normQuantile's, Acklam 2003).
 func loopNormQuantile(p float64) float64 {
-	const (
-		a1   = -3.969683028665376e+01
-		a2   = 2.209460984245205e+02
-		a3   = -2.759285104469687e+02
-		a4   = 1.383577518672690e+02
-		a5   = -3.066479806614716e+01
-		a6   = 2.506628277459239e+00
-		b1   = -5.447609879822406e+01
-		b2   = 1.615858368580409e+02
-		b3   = -1.556989798598866e+02
-		b4   = 6.680131188771972e+01
-		b5   = -1.328068155288572e+01
-		c1   = -7.784894002430293e-03
-		c2   = -3.223964580411365e-01
-		c3   = -2.400758277161838e+00
-		c4   = -2.549732539343734e+00
-		c5   = 4.374664141464968e+00
-		c6   = 2.938163982698783e+00
-		d1   = 7.784695709041462e-03
-		d2   = 3.224671290700398e-01
-		d3   = 2.445134137142996e+00
-		d4   = 3.754408661907416e+00
-		pLow = 0.02425
-	)
-	switch {
-	case p < pLow:
-		q := math.Sqrt(-2 * plog(p))
-		return horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
-	case p > 1-pLow:
-		q := math.Sqrt(-2 * plog(1-p))
-		return -horner6(q, c1, c2, c3, c4, c5, c6) / horner5(q, d1, d2, d3, d4, 1)
+	if p < pLow || p > 1-pLow {
+		return normQuantile(p) // the tails, which quantiles leaves to normQuantile
 	}
 	q := p - 0.5
 	r := q * q
-	return horner6(r, a1, a2, a3, a4, a5, a6) * q / horner6(r, b1, b2, b3, b4, b5, 1)
+	return horner6(r, qa1, qa2, qa3, qa4, qa5, qa6) * q / horner6(r, qb1, qb2, qb3, qb4, qb5, 1)
 }
 
 // loopResidual is yy − 2 bᵀn + nᵀHn by the loops dot and quad were.
@@ -334,7 +304,7 @@ func (r *Run) loopSlabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c
 		te := sqrt(t*t + vt)
 		lz := logPrior + logSlab(m, fmax(te, slabLo)) + jac - 0.5*fmax(chi2, 0) + 0.5*float64(m)*log2Pi - halfDet
 		for i := 0; i < m; i++ {
-			lz += plog(fmax(0.5*loopPerfc(-(f.mu[i]/sd[i])*0.7071067811865476), 1e-300))
+			lz += plog(fmax(0.5*loopPerfc(-(f.mu[i]/sd[i])*invSqrt2), 1e-300))
 		}
 		if lz != lz {
 			continue

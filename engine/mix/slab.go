@@ -153,7 +153,7 @@ func (r *Run) slabDraw(w *sampleWork, K int, H *mat6, b *vec6, yy float64, c *ve
 			vt += c[f.idx[i]] * c[f.idx[i]] * v
 			sc.diag[g] = f.l[i][i]
 			// normCDF(μ_i/sd_i) = perfc(x)/2: its exponential's argument.
-			x := -(f.mu[i] / sd) * 0.7071067811865476
+			x := -(f.mu[i] / sd) * invSqrt2
 			sc.x[g] = x
 			sc.t[g], sc.e[g] = perfcArg(x)
 		}

@@ -5,27 +5,20 @@ import "math"
 // ExpAll sets each x[i] to Exp(x[i]): the same bits, in one call. Compiled to
 // WebAssembly, a call costs about as much as Exp's arithmetic, and the
 // engine's weights take tens of exponentials per draw in loops; this is
-// Exp's body again inside one loop (TestExpAll holds the two together bit
+// Exp's body again inside one loop (TestBatchSameBits holds the two together bit
 // for bit).
 func ExpAll(x []float64) {
-	const (
-		p1 = 1.66666666666666657415e-01
-		p2 = -2.77777777770155933842e-03
-		p3 = 6.61375632143793436117e-05
-		p4 = -1.65339022054652515390e-06
-		p5 = 4.13813679705723846039e-08
-	)
 	for i, v := range x {
 		switch {
 		case v != v:
 			continue
-		case v > 7.09782712893383973096e+02:
+		case v > expOverflow:
 			x[i] = math.Inf(1)
 			continue
-		case v < -7.08e+02:
+		case v < expFlush:
 			x[i] = 0
 			continue
-		case -1.0/(1<<28) < v && v < 1.0/(1<<28):
+		case -expTiny < v && v < expTiny:
 			x[i] = 1 + v
 			continue
 		}
@@ -39,10 +32,10 @@ func ExpAll(x []float64) {
 		lo := float64(k) * ln2Lo
 		r := hi - lo
 		t := r * r
-		q := float64(t*p5) + p4
-		q = float64(t*q) + p3
-		q = float64(t*q) + p2
-		q = float64(t*q) + p1
+		q := float64(t*expP5) + expP4
+		q = float64(t*q) + expP3
+		q = float64(t*q) + expP2
+		q = float64(t*q) + expP1
 		c := r - float64(t*q)
 		y := 1 - ((lo - float64(r*c)/(2-c)) - hi)
 		if k > 1000 {
@@ -59,15 +52,6 @@ func ExpAll(x []float64) {
 // LogAll sets each x[i] to Log(x[i]): the same bits, in one call (Log's
 // body again inside one loop; see ExpAll).
 func LogAll(x []float64) {
-	const (
-		l1 = 6.666666666666735130e-01
-		l2 = 3.999999999940941908e-01
-		l3 = 2.857142874366239149e-01
-		l4 = 2.222219843214978396e-01
-		l5 = 1.818357216161805012e-01
-		l6 = 1.531383769920937332e-01
-		l7 = 1.479819860511658591e-01
-	)
 	for i, v := range x {
 		switch {
 		case v != v || math.IsInf(v, 1):
@@ -96,12 +80,12 @@ func LogAll(x []float64) {
 		s := f / (2 + f)
 		s2 := s * s
 		s4 := s2 * s2
-		t1 := float64(s4*l7) + l5
-		t1 = float64(s4*t1) + l3
-		t1 = float64(s4*t1) + l1
+		t1 := float64(s4*logL7) + logL5
+		t1 = float64(s4*t1) + logL3
+		t1 = float64(s4*t1) + logL1
 		t1 = s2 * t1
-		t2 := float64(s4*l6) + l4
-		t2 = float64(s4*t2) + l2
+		t2 := float64(s4*logL6) + logL4
+		t2 = float64(s4*t2) + logL2
 		t2 = s4 * t2
 		r := t1 + t2
 		hfsq := 0.5 * f * f

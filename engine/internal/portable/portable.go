@@ -21,24 +21,42 @@ const (
 	log2e = 1.44269504088896338700e+00
 )
 
+// Exp's and Log's coefficients (fdlibm's e_exp.c and e_log.c, as in Go's
+// pure-Go math.Exp and math.Log; common practice), and Exp's branch edges:
+// above expOverflow (ln of the largest float64, fdlibm's o_threshold) the
+// result is +Inf; below expFlush it would be subnormal and is flushed to
+// zero (an engineering choice, no source); within ±expTiny (2⁻²⁸, fdlibm's)
+// it is 1 + x. ExpAll and LogAll share them.
+const (
+	expP1       = 1.66666666666666657415e-01
+	expP2       = -2.77777777770155933842e-03
+	expP3       = 6.61375632143793436117e-05
+	expP4       = -1.65339022054652515390e-06
+	expP5       = 4.13813679705723846039e-08
+	expOverflow = 7.09782712893383973096e+02
+	expFlush    = -7.08e+02
+	expTiny     = 1.0 / (1 << 28)
+
+	logL1 = 6.666666666666735130e-01
+	logL2 = 3.999999999940941908e-01
+	logL3 = 2.857142874366239149e-01
+	logL4 = 2.222219843214978396e-01
+	logL5 = 1.818357216161805012e-01
+	logL6 = 1.531383769920937332e-01
+	logL7 = 1.479819860511658591e-01
+)
+
 // Exp returns e**x. Results below the smallest normal float64 are flushed
 // to zero and results above the largest are +Inf.
 func Exp(x float64) float64 {
-	const (
-		p1 = 1.66666666666666657415e-01
-		p2 = -2.77777777770155933842e-03
-		p3 = 6.61375632143793436117e-05
-		p4 = -1.65339022054652515390e-06
-		p5 = 4.13813679705723846039e-08
-	)
 	switch {
 	case x != x:
 		return x
-	case x > 7.09782712893383973096e+02:
+	case x > expOverflow:
 		return math.Inf(1)
-	case x < -7.08e+02: // result would be subnormal: flush to zero
+	case x < expFlush: // result would be subnormal: flush to zero
 		return 0
-	case -1.0/(1<<28) < x && x < 1.0/(1<<28):
+	case -expTiny < x && x < expTiny:
 		return 1 + x
 	}
 	var k int
@@ -51,10 +69,10 @@ func Exp(x float64) float64 {
 	lo := float64(k) * ln2Lo
 	r := hi - lo
 	t := r * r
-	q := float64(t*p5) + p4
-	q = float64(t*q) + p3
-	q = float64(t*q) + p2
-	q = float64(t*q) + p1
+	q := float64(t*expP5) + expP4
+	q = float64(t*q) + expP3
+	q = float64(t*q) + expP2
+	q = float64(t*q) + expP1
 	c := r - float64(t*q)
 	y := 1 - ((lo - float64(r*c)/(2-c)) - hi)
 	// y is in [0.7, 1.5]; scale by 2**k through the exponent bits, in two
@@ -71,15 +89,6 @@ func Exp(x float64) float64 {
 
 // Log returns the natural logarithm of x (NaN for x < 0, -Inf for 0).
 func Log(x float64) float64 {
-	const (
-		l1 = 6.666666666666735130e-01
-		l2 = 3.999999999940941908e-01
-		l3 = 2.857142874366239149e-01
-		l4 = 2.222219843214978396e-01
-		l5 = 1.818357216161805012e-01
-		l6 = 1.531383769920937332e-01
-		l7 = 1.479819860511658591e-01
-	)
 	switch {
 	case x != x || math.IsInf(x, 1):
 		return x
@@ -106,12 +115,12 @@ func Log(x float64) float64 {
 	s := f / (2 + f)
 	s2 := s * s
 	s4 := s2 * s2
-	t1 := float64(s4*l7) + l5
-	t1 = float64(s4*t1) + l3
-	t1 = float64(s4*t1) + l1
+	t1 := float64(s4*logL7) + logL5
+	t1 = float64(s4*t1) + logL3
+	t1 = float64(s4*t1) + logL1
 	t1 = s2 * t1
-	t2 := float64(s4*l6) + l4
-	t2 = float64(s4*t2) + l2
+	t2 := float64(s4*logL6) + logL4
+	t2 = float64(s4*t2) + logL2
 	t2 = s4 * t2
 	r := t1 + t2
 	hfsq := 0.5 * f * f
