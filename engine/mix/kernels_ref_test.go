@@ -262,7 +262,7 @@ func refLogOrthant(K int, L *[MaxEndMembers][MaxEndMembers]float64, mu *vec6) fl
 		if zk > -8 {
 			// One log of the product at the end, where there were several.
 			p := normCDF(zk)
-			lam = 0.3989422804014327 * pexp(-0.5*float64(zk*zk)) / p
+			lam = invSqrt2Pi * pexp(-0.5*float64(zk*zk)) / p
 			pr *= p
 		} else {
 			var lc float64

@@ -73,8 +73,12 @@ const (
 	qd4 = 3.754408661907416e+00
 )
 
-// invSqrt2 is 1/√2 rounded to float64 (math.Sqrt2 / 2 exactly).
-const invSqrt2 = 0.7071067811865476
+// invSqrt2 is 1/√2 rounded to float64 (math.Sqrt2 / 2 exactly), and
+// invSqrt2Pi 1/√(2π), the standard normal density at 0.
+const (
+	invSqrt2   = 0.7071067811865476
+	invSqrt2Pi = 0.3989422804014327
+)
 
 // normQuantile returns the standard normal quantile of p in (0, 1), by
 // Acklam's rational approximation (relative error below 1.15e-9; P. J.
@@ -178,6 +182,6 @@ func chi2Survival(nu int, x float64) float64 {
 		}
 		sum += term
 	}
-	phi := 0.3989422804014327 * pexp(-0.5*x)
+	phi := invSqrt2Pi * pexp(-0.5*x)
 	return portable.Min(1, q+float64(2*phi*sum))
 }
